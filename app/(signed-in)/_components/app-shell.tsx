@@ -1,0 +1,43 @@
+import Link from "next/link";
+import type { Screen } from "@/domain/roles";
+import { ROLE_LABELS, type Role } from "@/domain/roles";
+import { signOutAction } from "@/app/(signed-out)/sign-in/actions";
+import { UnitToggle } from "./unit-toggle";
+
+/** The responsive shell: a top bar with the person and a navigation of their screens. */
+export function AppShell({ user, screens, children }: { user: { name: string; roles: Role[]; unitSystem: "si" | "us" }; screens: Screen[]; children: React.ReactNode }) {
+  return (
+    <div className="flex min-h-screen flex-col">
+      <header className="no-print bg-brand text-white">
+        <div className="mx-auto flex max-w-7xl flex-wrap items-center justify-between gap-2 px-4 py-2">
+          <Link href="/" className="text-xl font-bold">
+            Beadline
+          </Link>
+          <div className="flex flex-wrap items-center gap-3 text-sm">
+            <span>
+              <span className="font-semibold">{user.name}</span> · {user.roles.map((r) => ROLE_LABELS[r]).join(", ")}
+            </span>
+            <UnitToggle unitSystem={user.unitSystem} />
+            <form action={signOutAction}>
+              <button type="submit" className="min-h-touch rounded-md border-2 border-white px-3 font-semibold hover:bg-brand-dark">
+                Sign out
+              </button>
+            </form>
+          </div>
+        </div>
+        <nav aria-label="Screens" className="bg-brand-dark">
+          <ul className="mx-auto flex max-w-7xl gap-1 overflow-x-auto px-2">
+            {screens.map((s) => (
+              <li key={s.id}>
+                <Link href={s.href} className="flex min-h-touch items-center whitespace-nowrap px-3 font-semibold hover:bg-brand">
+                  {s.label}
+                </Link>
+              </li>
+            ))}
+          </ul>
+        </nav>
+      </header>
+      <main className="mx-auto w-full max-w-7xl flex-1 p-4">{children}</main>
+    </div>
+  );
+}

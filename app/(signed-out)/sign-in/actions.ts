@@ -1,0 +1,40 @@
+"use server";
+// Sign-in and sign-out server actions. Sign-in is the one action open to signed-out
+// visitors; it seals a brand-new session (no fixation) after the credentials check.
+import { headers } from "next/headers";
+import { redirect } from "next/navigation";
+import { signInSchema } from "@/domain/crew/schemas";
+import { AppError, describeFieldErrors, failure, fieldErrorsFromIssues, type ActionResult } from "@/domain/result";
+import { authenticate, clientAddress, signOutUser } from "@/app/_lib/auth";
+import { currentSession } from "@/app/_lib/session";
+import { isDatabaseUnavailable } from "@/database/client";
+
+export async function signInAction(raw: unknown): Promise<ActionResult<{ next: string }>> {
+  const parsed = signInSchema.safeParse(raw);
+  if (!parsed.success) {
+    const fields = fieldErrorsFromIssues(parsed.error.issues);
+    return failure("invalid", describeFieldErrors(fields), fields);
+  }
+  try {
+    const user = await authenticate({ ...parsed.data, address: clientAddress(await headers()) });
+    const session = await currentSession();
+    session.destroy();
+    session.userId = user.id;
+    session.sessionVersion = user.sessionVersion;
+    session.issuedAt = Date.now();
+    await session.save();
+    const next = typeof (raw as { next?: unknown })?.next === "string" && /^\/(?!\/)/.test((raw as { next: string }).next) ? (raw as { next: string }).next : "/";
+    return { ok: true, data: { next } };
+  } catch (error) {
+    if (error instanceof AppError) return failure(error.code, error.message);
+    if (isDatabaseUnavailable(error)) return failure("unavailable", "Beadline cannot reach its database right now. Try again in a moment.");
+    throw error;
+  }
+}
+
+export async function signOutAction(): Promise<void> {
+  const session = await currentSession();
+  if (session.userId) await signOutUser({ userId: session.userId });
+  session.destroy();
+  redirect("/sign-in");
+}

@@ -1,0 +1,141 @@
+// The one opening of every server action and route handler: session → role → validate →
+// delegate. The wrapped function receives typed input and the signed-in person; it calls
+// domain/ and database/ and holds no SQL or calculation itself.
+import { randomUUID } from "node:crypto";
+import { cookies } from "next/headers";
+import type { ZodType, z } from "zod";
+import { isDatabaseUnavailable } from "@/database/client";
+import type { UserRecord } from "@/database/queries/users";
+import { hasAnyRole, type Role } from "@/domain/roles";
+import { AppError, STATUS_FOR_CODE, describeFieldErrors, failure, fieldErrorsFromIssues, type ActionResult, type ErrorCode, type FieldErrors } from "@/domain/result";
+import { logger } from "./log";
+import { SESSION_COOKIE, cookieFromHeader, userFromSealedCookie } from "./session";
+
+/** Who may call: a list of roles (any one suffices), or any signed-in person. */
+export type Audience = readonly Role[] | "signed-in";
+
+export type Context = { user: UserRecord; requestId: string };
+
+function allowed(user: UserRecord, audience: Audience): boolean {
+  return audience === "signed-in" || hasAnyRole(user, audience);
+}
+
+function failureFromError(error: unknown, requestId: string): { code: ErrorCode; message: string; fields?: FieldErrors } {
+  if (error instanceof AppError) return { code: error.code, message: error.message, fields: error.fields };
+  if (isDatabaseUnavailable(error)) {
+    logger.warn({ requestId, err: String((error as Error)?.message ?? error) }, "database unavailable");
+    return { code: "unavailable", message: "Beadline cannot reach its database right now. Nothing was saved; try again in a moment." };
+  }
+  logger.error({ requestId, err: error instanceof Error ? { message: error.message, stack: error.stack } : String(error) }, "unexpected error");
+  return { code: "internal", message: "Something went wrong on the server. Nothing was saved." };
+}
+
+/**
+ * Wraps a server action. `impl` gets the parsed input and the context; its return value
+ * becomes `{ ok: true, data }`. Throw `AppError` to fail with a code.
+ */
+export function defineAction<S extends ZodType, R>(
+  spec: { audience: Audience; schema: S },
+  impl: (input: z.output<S>, ctx: Context) => Promise<R>,
+): (raw: z.input<S> | unknown) => Promise<ActionResult<R>> {
+  return async (raw) => {
+    const requestId = randomUUID();
+    try {
+      const store = await cookies();
+      const user = await userFromSealedCookie(store.get(SESSION_COOKIE)?.value);
+      if (!user) return failure("unauthenticated", "Sign in first.");
+      if (!allowed(user, spec.audience)) return failure("forbidden", "Your role does not allow this.");
+      const parsed = spec.schema.safeParse(raw);
+      if (!parsed.success) {
+        const fields = fieldErrorsFromIssues(parsed.error.issues);
+        return failure("invalid", describeFieldErrors(fields), fields);
+      }
+      const data = await impl(parsed.data, { user, requestId });
+      return { ok: true, data };
+    } catch (error) {
+      if (isNextControlFlow(error)) throw error;
+      const f = failureFromError(error, requestId);
+      return failure(f.code, f.message, f.fields);
+    }
+  };
+}
+
+/** redirect()/notFound() throw special errors that must pass through the wrapper. */
+function isNextControlFlow(error: unknown): boolean {
+  const digest = (error as { digest?: string } | null)?.digest;
+  return typeof digest === "string" && (digest.startsWith("NEXT_REDIRECT") || digest.startsWith("NEXT_HTTP_ERROR_FALLBACK") || digest === "NEXT_NOT_FOUND");
+}
+
+/** The JSON API's one error shape. */
+export function errorResponse(code: ErrorCode, message: string, fields?: FieldErrors, headers?: HeadersInit): Response {
+  return Response.json({ error: { code, message, ...(fields ? { fields } : {}) } }, { status: STATUS_FOR_CODE[code], headers });
+}
+
+export type RouteContext<P> = Context & { params: P; request: Request };
+
+type InputSource = "json" | "query" | "none" | "raw";
+
+/** Route handlers that change data accept only same-origin browser requests (CSRF). */
+function isCrossOrigin(request: Request): boolean {
+  const origin = request.headers.get("origin");
+  if (!origin) return false; // non-browser clients (curl, scripts) send none
+  const host = request.headers.get("x-forwarded-host") ?? request.headers.get("host");
+  try {
+    return new URL(origin).host !== host;
+  } catch {
+    return true;
+  }
+}
+
+/**
+ * Wraps a route handler. Input comes from the JSON body (`json`), the query string
+ * (`query`), or is left to the handler (`raw`, e.g. uploads; `none`).
+ */
+export function defineRoute<S extends ZodType, P = Record<string, string>>(
+  spec: { audience: Audience; schema?: S; input?: InputSource },
+  impl: (input: z.output<S>, ctx: RouteContext<P>) => Promise<Response>,
+): (request: Request, routeCtx: { params: Promise<P> }) => Promise<Response> {
+  const source: InputSource = spec.input ?? (spec.schema ? "json" : "none");
+  return async (request, routeCtx) => {
+    const requestId = request.headers.get("x-request-id") || randomUUID();
+    const idHeader = { "x-request-id": requestId };
+    try {
+      if (request.method !== "GET" && request.method !== "HEAD" && isCrossOrigin(request)) {
+        return errorResponse("forbidden", "Cross-site request refused.", undefined, idHeader);
+      }
+      const user = await userFromSealedCookie(cookieFromHeader(request.headers.get("cookie")));
+      if (!user) return errorResponse("unauthenticated", "Sign in first.", undefined, idHeader);
+      if (!allowed(user, spec.audience)) return errorResponse("forbidden", "Your role does not allow this.", undefined, idHeader);
+      let raw: unknown = undefined;
+      if (source === "json") {
+        const text = await request.text();
+        if (text.length > 2_000_000) return errorResponse("too-large", "The request body is too large.", undefined, idHeader);
+        try {
+          raw = text ? JSON.parse(text) : {};
+        } catch {
+          return errorResponse("bad-request", "The request body is not valid JSON.", { _body: ["The request body is not valid JSON."] }, idHeader);
+        }
+      } else if (source === "query") {
+        raw = Object.fromEntries(new URL(request.url).searchParams.entries());
+      }
+      let input = raw as z.output<S>;
+      if (spec.schema && source !== "raw" && source !== "none") {
+        const parsed = spec.schema.safeParse(raw);
+        if (!parsed.success) {
+          const fields = fieldErrorsFromIssues(parsed.error.issues);
+          return errorResponse("invalid", describeFieldErrors(fields), fields, idHeader);
+        }
+        input = parsed.data;
+      }
+      const params = (await routeCtx?.params) ?? ({} as P);
+      const response = await impl(input, { user, requestId, params, request });
+      response.headers.set("x-request-id", requestId);
+      return response;
+    } catch (error) {
+      const f = failureFromError(error, requestId);
+      const headers: Record<string, string> = { ...idHeader };
+      if (f.code === "unavailable") headers["retry-after"] = "5";
+      return errorResponse(f.code, f.message, f.fields, headers);
+    }
+  };
+}

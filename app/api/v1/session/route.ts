@@ -1,0 +1,50 @@
+// JSON sign-in/sign-out for API clients and scripts: POST { email, password } → the
+// session cookie; DELETE signs out; GET says who is signed in.
+import { getIronSession } from "iron-session";
+import { signInSchema } from "@/domain/crew/schemas";
+import { AppError, describeFieldErrors, fieldErrorsFromIssues } from "@/domain/result";
+import { authenticate, clientAddress, signOutUser } from "@/app/_lib/auth";
+import { defineRoute, errorResponse } from "@/app/_lib/guard";
+import { sessionOptions, type SessionData } from "@/app/_lib/session";
+import { isDatabaseUnavailable } from "@/database/client";
+
+export const dynamic = "force-dynamic";
+
+export async function POST(request: Request): Promise<Response> {
+  let raw: unknown;
+  try {
+    raw = await request.json();
+  } catch {
+    return errorResponse("bad-request", "The request body is not valid JSON.", { _body: ["The request body is not valid JSON."] });
+  }
+  const parsed = signInSchema.safeParse(raw);
+  if (!parsed.success) {
+    const fields = fieldErrorsFromIssues(parsed.error.issues);
+    return errorResponse("invalid", describeFieldErrors(fields), fields);
+  }
+  try {
+    const user = await authenticate({ ...parsed.data, address: clientAddress(request.headers) });
+    const response = Response.json({ user: { id: user.id, name: user.name, email: user.email, roles: user.roles, unitSystem: user.unitSystem } });
+    const session = await getIronSession<SessionData>(request, response, sessionOptions());
+    session.userId = user.id;
+    session.sessionVersion = user.sessionVersion;
+    session.issuedAt = Date.now();
+    await session.save();
+    return response;
+  } catch (error) {
+    if (error instanceof AppError) return errorResponse(error.code, error.message);
+    if (isDatabaseUnavailable(error)) return errorResponse("unavailable", "Beadline cannot reach its database right now.");
+    return errorResponse("internal", "Something went wrong on the server.");
+  }
+}
+
+export const GET = defineRoute({ audience: "signed-in" }, async (_input, { user }) =>
+  Response.json({ user: { id: user.id, name: user.name, email: user.email, roles: user.roles, unitSystem: user.unitSystem } }),
+);
+
+export const DELETE = defineRoute({ audience: "signed-in" }, async (_input, { user, requestId }) => {
+  await signOutUser({ userId: user.id, requestId });
+  const response = new Response(null, { status: 204 });
+  response.headers.append("set-cookie", `beadline_session=; Path=/; Max-Age=0; HttpOnly; SameSite=Lax`);
+  return response;
+});

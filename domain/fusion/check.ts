@@ -1,0 +1,205 @@
+// Joint check: every recorded value of a butt-fusion joint against its pressure plan
+// (windows from the procedure the plan was made under; see procedures.ts for sources).
+// A value exactly on a limit passes; a value not recorded is a finding of its own.
+
+import type { FusionPlan } from '@/domain/fusion/plan';
+import {
+  formatQuantity,
+  formatRange,
+  roundForDisplay,
+  type QuantityKind,
+  type UnitSystem,
+} from '@/domain/units/format';
+
+export type JointOutcome = 'within-limits' | 'out-of-limits';
+
+export type JointParameter =
+  | 'heaterTemperature'
+  | 'beadUpPressure'
+  | 'fusionPressure'
+  | 'bead'
+  | 'heatSoak'
+  | 'changeover'
+  | 'pressureBuildUp'
+  | 'cooling'
+  | 'facing'
+  | 'alignment'
+  | 'visualBead';
+
+export const JOINT_PARAMETERS: readonly JointParameter[] = [
+  'heaterTemperature',
+  'beadUpPressure',
+  'fusionPressure',
+  'bead',
+  'heatSoak',
+  'changeover',
+  'pressureBuildUp',
+  'cooling',
+  'facing',
+  'alignment',
+  'visualBead',
+];
+
+/** Why a finding was raised. */
+export type FindingKind = 'below-minimum' | 'above-maximum' | 'not-recorded' | 'check-failed';
+
+export interface JointFinding {
+  parameter: JointParameter;
+  kind: FindingKind;
+  /** Measured value in canonical SI (°C, MPa, mm, s), true/false for checks, null if not recorded. */
+  measured: number | boolean | null;
+  /** The limit in canonical SI; null for boolean checks. */
+  limit: { min: number | null; max: number | null } | null;
+  /** Plain-language sentence in the user's units. */
+  message: string;
+}
+
+export interface JointCheck {
+  outcome: JointOutcome;
+  findings: JointFinding[];
+}
+
+/**
+ * Recorded values in canonical SI. The five core values are always expected: null or
+ * undefined is a "not recorded" finding. Heat soak is expected when the plan has a
+ * heat-soak window. Bead-up pressure and pressure build-up are checked when given.
+ * Boolean checks (facing, alignment, visual bead) are checked when the key is present:
+ * false fails, null is "not recorded"; an absent key is not part of this record.
+ */
+export interface JointMeasurements {
+  heaterTemperatureC: number | null | undefined;
+  fusionGaugePressureMpa: number | null | undefined;
+  beadMm: number | null | undefined;
+  changeoverS: number | null | undefined;
+  coolingS: number | null | undefined;
+  heatSoakS?: number | null;
+  beadUpGaugePressureMpa?: number | null;
+  pressureBuildUpS?: number | null;
+  facingOk?: boolean | null;
+  alignmentOk?: boolean | null;
+  visualBeadOk?: boolean | null;
+}
+
+export interface CheckJointOptions {
+  /** Units of the messages; SI by default. */
+  system?: UnitSystem;
+}
+
+const isRecorded = (value: number | null | undefined): value is number =>
+  typeof value === 'number' && Number.isFinite(value);
+
+/**
+ * Check recorded values against a plan. Inputs canonical SI; messages in `options.system`.
+ * On-limit rule: a value passes when it is inside the limit, or when it reads the same as
+ * the limit at display precision in the user's units (0.1 mm / 0.001 in, 0.01 MPa / 1 psi,
+ * 1 °C / 1 °F, 1 s), so a value typed as the limit shown on screen is on the limit.
+ * Outcome is out-of-limits when there is at least one finding.
+ */
+export function checkJoint(plan: FusionPlan, measured: JointMeasurements, options: CheckJointOptions = {}): JointCheck {
+  const system = options.system ?? 'si';
+  const findings: JointFinding[] = [];
+  const fmt = (value: number, kind: QuantityKind) => formatQuantity(value, kind, system);
+  const wallText = `for a ${fmt(plan.wallMm, 'length-mm')} wall`;
+  const odText = `for a ${fmt(plan.outsideDiameterMm, 'length-mm')} OD pipe`;
+
+  const passes = (value: number, limit: number, side: 'min' | 'max', kind: QuantityKind): boolean => {
+    if (side === 'min' ? value >= limit : value <= limit) return true;
+    return roundForDisplay(value, kind, system) === roundForDisplay(limit, kind, system);
+  };
+
+  const notRecorded = (parameter: JointParameter, name: string, limit: JointFinding['limit']) =>
+    findings.push({ parameter, kind: 'not-recorded', measured: null, limit, message: `${name} was not recorded` });
+
+  const windowCheck = (
+    parameter: JointParameter,
+    name: string,
+    value: number | null | undefined,
+    window: { min: number; max: number },
+    kind: QuantityKind,
+    context: string,
+  ) => {
+    const limit = { min: window.min, max: window.max };
+    if (!isRecorded(value)) return notRecorded(parameter, name, limit);
+    const range = formatRange(window.min, window.max, kind, system);
+    if (!passes(value, window.min, 'min', kind)) {
+      findings.push({ parameter, kind: 'below-minimum', measured: value, limit, message: `${name} ${fmt(value, kind)} is below the ${range} window${context}` });
+    } else if (!passes(value, window.max, 'max', kind)) {
+      findings.push({ parameter, kind: 'above-maximum', measured: value, limit, message: `${name} ${fmt(value, kind)} is above the ${range} window${context}` });
+    }
+  };
+
+  const minimumCheck = (
+    parameter: JointParameter,
+    name: string,
+    value: number | null | undefined,
+    min: number | null,
+    kind: QuantityKind,
+    words: { short: string },
+    context: string,
+  ) => {
+    const limit = { min, max: null };
+    if (!isRecorded(value)) return notRecorded(parameter, name, min === null ? null : limit);
+    if (min === null) return;
+    if (!passes(value, min, 'min', kind)) {
+      findings.push({ parameter, kind: 'below-minimum', measured: value, limit, message: `${name} ${fmt(value, kind)} is ${words.short} than the ${fmt(min, kind)} minimum ${context}` });
+    }
+  };
+
+  const maximumCheck = (
+    parameter: JointParameter,
+    name: string,
+    value: number | null | undefined,
+    max: number | null,
+    kind: QuantityKind,
+    words: { long: string },
+    context: string,
+  ) => {
+    const limit = { min: null, max };
+    if (!isRecorded(value)) return notRecorded(parameter, name, max === null ? null : limit);
+    if (max === null) return;
+    if (!passes(value, max, 'max', kind)) {
+      findings.push({ parameter, kind: 'above-maximum', measured: value, limit, message: `${name} ${fmt(value, kind)} is ${words.long} than the ${fmt(max, kind)} maximum ${context}` });
+    }
+  };
+
+  windowCheck('heaterTemperature', 'Heater temperature', measured.heaterTemperatureC, plan.heaterTemperatureC, 'temperature', '');
+  if (measured.beadUpGaugePressureMpa !== undefined) {
+    windowCheck('beadUpPressure', 'Bead-up gauge pressure', measured.beadUpGaugePressureMpa, plan.beadUpGaugePressureMpa, 'pressure', ' for this pipe and machine');
+  }
+  windowCheck('fusionPressure', 'Fusion gauge pressure', measured.fusionGaugePressureMpa, plan.fusionGaugePressureMpa, 'pressure', ' for this pipe and machine');
+  minimumCheck('bead', 'Bead', measured.beadMm, plan.minBeadMm, 'length-mm', { short: 'smaller' }, plan.minBeadBasis === 'outside-diameter-mm' ? odText : wallText);
+
+  if (plan.heatSoakS) {
+    const value = measured.heatSoakS;
+    const limit = { min: plan.heatSoakS.min, max: plan.heatSoakS.max };
+    if (!isRecorded(value)) {
+      notRecorded('heatSoak', 'Heat-soak time', limit);
+    } else if (plan.heatSoakS.min !== null && !passes(value, plan.heatSoakS.min, 'min', 'duration')) {
+      findings.push({ parameter: 'heatSoak', kind: 'below-minimum', measured: value, limit, message: `Heat soak ${fmt(value, 'duration')} is shorter than the ${fmt(plan.heatSoakS.min, 'duration')} minimum ${wallText}` });
+    } else if (plan.heatSoakS.max !== null && !passes(value, plan.heatSoakS.max, 'max', 'duration')) {
+      findings.push({ parameter: 'heatSoak', kind: 'above-maximum', measured: value, limit, message: `Heat soak ${fmt(value, 'duration')} is longer than the ${fmt(plan.heatSoakS.max, 'duration')} maximum ${wallText}` });
+    }
+  }
+
+  maximumCheck('changeover', 'Changeover', measured.changeoverS, plan.maxChangeoverS, 'duration', { long: 'longer' }, wallText);
+  if (measured.pressureBuildUpS !== undefined) {
+    maximumCheck('pressureBuildUp', 'Pressure build-up', measured.pressureBuildUpS, plan.pressureBuildUpS, 'duration', { long: 'longer' }, wallText);
+  }
+  minimumCheck('cooling', 'Cooling', measured.coolingS, plan.minCoolingS, 'duration', { short: 'shorter' }, wallText);
+
+  const booleanCheck = (parameter: JointParameter, value: boolean | null | undefined, name: string, failed: string) => {
+    if (value === undefined) return;
+    if (value === null) return notRecorded(parameter, name, null);
+    if (!value) findings.push({ parameter, kind: 'check-failed', measured: false, limit: null, message: failed });
+  };
+  booleanCheck('facing', measured.facingOk, 'Facing check', 'Facing was not confirmed complete and square');
+  booleanCheck('alignment', measured.alignmentOk, 'Alignment check', 'Alignment check did not pass');
+  booleanCheck('visualBead', measured.visualBeadOk, 'Visual bead check', 'Visual bead check did not pass');
+
+  return { outcome: findings.length === 0 ? 'within-limits' : 'out-of-limits', findings };
+}
+
+/** True when a check has at least one finding. */
+export function isOutOfLimits(check: JointCheck): boolean {
+  return check.outcome === 'out-of-limits';
+}

@@ -1,0 +1,234 @@
+// Pressure plan for one butt-fusion joint: a pipe (OD, SDR) on a machine (total effective
+// piston area, measured drag pressure) under a procedure. Gauge pressure to set =
+// interfacial pressure × fusion area ÷ total effective piston area + drag pressure
+// (PPI generic butt-fusion procedure as reproduced in a pipe maker's manual, §6.2.5;
+// standards.md §2.1, CONFIRMED-2nd for the method, exact geometry for the areas).
+
+import { DomainError } from '@/domain/errors';
+import { pipeGeometry } from '@/domain/pipe/geometry';
+import type { Sourced } from '@/domain/sources';
+import { formatQuantity } from '@/domain/units/format';
+import {
+  builtInProcedure,
+  evaluateSizeRule,
+  ruleBasis,
+  type FusionStandard,
+  type ProcedureDefinition,
+  type SizeBasis,
+  type SizeRule,
+  type Window,
+} from '@/domain/fusion/procedures';
+
+export interface PlanButtFusionInput {
+  /** A built-in published procedure … */
+  standard?: FusionStandard;
+  /** … or an operator's procedure version (exactly one of the two). */
+  procedure?: ProcedureDefinition;
+  outsideDiameterMm: number;
+  sdr: number;
+  /** A table wall (e.g. IPS 0.001 in rounding or ISO e_min); defaults to OD / SDR. */
+  wallMm?: number;
+  /** Total effective piston area of the machine's carriage cylinders, mm². */
+  pistonAreaMm2: number;
+  /** Gauge pressure measured just to move the carriage, MPa. */
+  dragPressureMpa: number;
+}
+
+export interface NullableWindow {
+  min: number | null;
+  max: number | null;
+}
+
+/** Which plan values came from where (null when the procedure does not define it). */
+export interface PlanSources {
+  heaterTemperature: Sourced;
+  beadUpPressure: Sourced;
+  fusionPressure: Sourced;
+  coolingPressure: Sourced | null;
+  bead: Sourced | null;
+  heatSoak: Sourced | null;
+  changeover: Sourced | null;
+  pressureBuildUp: Sourced | null;
+  cooling: Sourced | null;
+}
+
+/**
+ * The plan. Pressures in MPa (interfacial and gauge), temperatures °C, lengths mm, areas
+ * mm², times s. Pressures, bead and areas are not rounded; times are rounded to the whole
+ * second (stopwatch and logger resolution; ±0.5 s is far inside these rules' accuracy).
+ * A value the procedure does not define at this size is null.
+ */
+export interface FusionPlan {
+  standard: FusionStandard;
+  procedureLabel: string;
+  outsideDiameterMm: number;
+  sdr: number;
+  wallMm: number;
+  fusionAreaMm2: number;
+  pistonAreaMm2: number;
+  dragPressureMpa: number;
+  heaterTemperatureC: Window;
+  /** Fusion (joining) interfacial pressure window. */
+  interfacialPressureMpa: Window;
+  beadUpInterfacialPressureMpa: Window;
+  beadUpGaugePressureMpa: Window;
+  fusionGaugePressureMpa: Window;
+  /** Reduced cooling pressure (ISO 21307 dual low-pressure); null elsewhere. */
+  coolingInterfacialPressureMpa: Window | null;
+  coolingGaugePressureMpa: Window | null;
+  minBeadMm: number | null;
+  /** Whether the bead minimum depends on the pipe's OD or its wall (for messages). */
+  minBeadBasis: SizeBasis | null;
+  heatSoakTargetS: number | null;
+  heatSoakS: NullableWindow | null;
+  maxChangeoverS: number | null;
+  pressureBuildUpS: number | null;
+  minCoolingS: number | null;
+  sources: PlanSources;
+  /** Plain-language notes: the procedure's notes and any value left undefined at this size. */
+  notes: string[];
+}
+
+function assertPositive(value: number, label: string, unit: string): void {
+  if (typeof value !== 'number' || !Number.isFinite(value) || value <= 0) {
+    throw new DomainError('invalid-input', `${label} must be more than 0 ${unit} (got ${String(value)})`);
+  }
+}
+
+/**
+ * Gauge pressure (MPa) that produces an interfacial pressure on a pipe end:
+ * IFP × fusion area ÷ piston area + drag. MPa × mm² = N, N ÷ mm² = MPa. Not rounded.
+ * Source: PPI generic procedure gauge method (standards.md §2.1).
+ */
+export function gaugePressureForInterfacialPressure(input: {
+  interfacialPressureMpa: number;
+  fusionAreaMm2: number;
+  pistonAreaMm2: number;
+  dragPressureMpa: number;
+}): number {
+  assertPositive(input.pistonAreaMm2, 'Piston area', 'mm²');
+  return (input.interfacialPressureMpa * input.fusionAreaMm2) / input.pistonAreaMm2 + input.dragPressureMpa;
+}
+
+/**
+ * Interfacial pressure (MPa) a logged gauge reading implies: (gauge − drag) × piston area
+ * ÷ fusion area. Not rounded; negative when the gauge reads below drag (no force on the
+ * pipe ends), which callers treat as "no fusion pressure". Source: standards.md §2.1.
+ */
+export function interfacialPressureFromGauge(input: {
+  gaugePressureMpa: number;
+  dragPressureMpa: number;
+  pistonAreaMm2: number;
+  fusionAreaMm2: number;
+}): number {
+  assertPositive(input.pistonAreaMm2, 'Piston area', 'mm²');
+  assertPositive(input.fusionAreaMm2, 'Fusion area', 'mm²');
+  return ((input.gaugePressureMpa - input.dragPressureMpa) * input.pistonAreaMm2) / input.fusionAreaMm2;
+}
+
+function resolveProcedure(input: PlanButtFusionInput): ProcedureDefinition {
+  if (input.procedure && input.standard) {
+    throw new DomainError('invalid-input', 'Give either a standard or a procedure, not both');
+  }
+  if (input.procedure) return input.procedure;
+  if (input.standard) return builtInProcedure(input.standard);
+  throw new DomainError('invalid-input', 'A standard or a procedure is required');
+}
+
+const roundSeconds = (value: number | null): number | null => (value === null ? null : Math.round(value));
+
+/**
+ * Plan a butt-fusion joint. Inputs in SI: OD mm, SDR, optional table wall mm, piston area
+ * mm², drag MPa; either a built-in `standard` or an operator's `procedure`.
+ * Throws DomainError for impossible input (OD ≤ 0, SDR ≤ 2, piston area ≤ 0, negative
+ * drag) and for a pipe outside the procedure's wall or OD range.
+ * Sources: see each procedure value's `source`; gauge method standards.md §2.1.
+ */
+export function planButtFusion(input: PlanButtFusionInput): FusionPlan {
+  const procedure = resolveProcedure(input);
+  const geometry = pipeGeometry({ outsideDiameterMm: input.outsideDiameterMm, sdr: input.sdr, wallMm: input.wallMm });
+  assertPositive(input.pistonAreaMm2, 'Piston area', 'mm²');
+  if (typeof input.dragPressureMpa !== 'number' || !Number.isFinite(input.dragPressureMpa) || input.dragPressureMpa < 0) {
+    throw new DomainError('invalid-input', `Drag pressure must be 0 MPa or more (got ${String(input.dragPressureMpa)})`);
+  }
+  const w = procedure.windows;
+  const pipe = { wallMm: geometry.wallMm, outsideDiameterMm: input.outsideDiameterMm };
+  const mm = (value: number) => formatQuantity(value, 'length-mm', 'si');
+
+  const checkRange = (range: { min: number | null; max: number | null } | null, value: number, what: string) => {
+    if (!range) return;
+    if ((range.min !== null && value < range.min) || (range.max !== null && value > range.max)) {
+      const span = range.min !== null && range.max !== null
+        ? `from ${mm(range.min)} to ${mm(range.max)}`
+        : range.min !== null ? `of ${mm(range.min)} and more` : `up to ${mm(range.max as number)}`;
+      throw new DomainError('outside-procedure-range', `${procedure.label} applies to ${what}s ${span}; this pipe's ${what} is ${mm(value)}`);
+    }
+  };
+  checkRange(w.wallRangeMm, geometry.wallMm, 'wall');
+  checkRange(w.outsideDiameterRangeMm, input.outsideDiameterMm, 'outside diameter');
+
+  const gauge = (window: Window): Window => ({
+    min: gaugePressureForInterfacialPressure({ interfacialPressureMpa: window.min, fusionAreaMm2: geometry.fusionAreaMm2, pistonAreaMm2: input.pistonAreaMm2, dragPressureMpa: input.dragPressureMpa }),
+    max: gaugePressureForInterfacialPressure({ interfacialPressureMpa: window.max, fusionAreaMm2: geometry.fusionAreaMm2, pistonAreaMm2: input.pistonAreaMm2, dragPressureMpa: input.dragPressureMpa }),
+  });
+  const windowOf = (sourced: Window): Window => ({ min: sourced.min, max: sourced.max });
+
+  const notes = [...procedure.notes];
+  const evaluate = (rule: SizeRule | null, what: string): number | null => {
+    if (!rule) return null;
+    const value = evaluateSizeRule(rule, pipe);
+    if (value === null) {
+      const basis = ruleBasis(rule);
+      const size = basis === 'outside-diameter-mm' ? `a ${mm(input.outsideDiameterMm)} OD` : `a ${mm(geometry.wallMm)} wall`;
+      notes.push(`${procedure.label} gives no ${what} for ${size}.`);
+    }
+    return value;
+  };
+
+  const minBeadMm = evaluate(w.minBeadMm?.rule ?? null, 'minimum bead size');
+  const heatSoakTargetS = roundSeconds(evaluate(w.heatSoakS?.target ?? null, 'heat-soak time'));
+  const heatSoakMin = roundSeconds(evaluate(w.heatSoakS?.min ?? null, 'heat-soak minimum'));
+  const heatSoakMax = roundSeconds(evaluate(w.heatSoakS?.max ?? null, 'heat-soak maximum'));
+  const maxChangeoverS = roundSeconds(evaluate(w.maxChangeoverS?.rule ?? null, 'maximum changeover time'));
+  const pressureBuildUpS = roundSeconds(evaluate(w.maxPressureBuildUpS?.rule ?? null, 'pressure build-up time'));
+  const minCoolingS = roundSeconds(evaluate(w.minCoolingS?.rule ?? null, 'minimum cooling time'));
+
+  const sourceOf = (value: Sourced | null): Sourced | null => (value ? { source: value.source, status: value.status } : null);
+
+  return {
+    standard: procedure.standard,
+    procedureLabel: procedure.label,
+    outsideDiameterMm: input.outsideDiameterMm,
+    sdr: input.sdr,
+    wallMm: geometry.wallMm,
+    fusionAreaMm2: geometry.fusionAreaMm2,
+    pistonAreaMm2: input.pistonAreaMm2,
+    dragPressureMpa: input.dragPressureMpa,
+    heaterTemperatureC: windowOf(w.heaterTemperatureC),
+    interfacialPressureMpa: windowOf(w.fusionInterfacialPressureMpa),
+    beadUpInterfacialPressureMpa: windowOf(w.beadUpInterfacialPressureMpa),
+    beadUpGaugePressureMpa: gauge(w.beadUpInterfacialPressureMpa),
+    fusionGaugePressureMpa: gauge(w.fusionInterfacialPressureMpa),
+    coolingInterfacialPressureMpa: w.coolingInterfacialPressureMpa ? windowOf(w.coolingInterfacialPressureMpa) : null,
+    coolingGaugePressureMpa: w.coolingInterfacialPressureMpa ? gauge(w.coolingInterfacialPressureMpa) : null,
+    minBeadMm,
+    minBeadBasis: w.minBeadMm ? ruleBasis(w.minBeadMm.rule) : null,
+    heatSoakTargetS,
+    heatSoakS: w.heatSoakS && (heatSoakMin !== null || heatSoakMax !== null) ? { min: heatSoakMin, max: heatSoakMax } : null,
+    maxChangeoverS,
+    pressureBuildUpS,
+    minCoolingS,
+    sources: {
+      heaterTemperature: sourceOf(w.heaterTemperatureC) as Sourced,
+      beadUpPressure: sourceOf(w.beadUpInterfacialPressureMpa) as Sourced,
+      fusionPressure: sourceOf(w.fusionInterfacialPressureMpa) as Sourced,
+      coolingPressure: sourceOf(w.coolingInterfacialPressureMpa),
+      bead: sourceOf(w.minBeadMm),
+      heatSoak: sourceOf(w.heatSoakS),
+      changeover: sourceOf(w.maxChangeoverS),
+      pressureBuildUp: sourceOf(w.maxPressureBuildUpS),
+      cooling: sourceOf(w.minCoolingS),
+    },
+    notes,
+  };
+}

@@ -1,0 +1,27 @@
+// Provenance tags carried by every published value in the domain, so screens and tests
+// can say where a number comes from. Tags mirror shared/reference/standards.md:
+// confirmed = read in the public text; confirmed-2nd = read in a secondary reproduction;
+// from-memory = not found in public material, kept as editable data until checked.
+
+export type ValueStatus = 'confirmed' | 'confirmed-2nd' | 'from-memory';
+
+export const VALUE_STATUSES: readonly ValueStatus[] = ['confirmed', 'confirmed-2nd', 'from-memory'];
+
+/** Where a value comes from and how sure we are of it. */
+export interface Sourced {
+  /** Standard and clause/table, in plain words. */
+  source: string;
+  status: ValueStatus;
+}
+
+/** Words for a status, for screens. */
+export function describeStatus(status: ValueStatus): string {
+  switch (status) {
+    case 'confirmed':
+      return 'confirmed';
+    case 'confirmed-2nd':
+      return 'confirmed in a reproduction';
+    case 'from-memory':
+      return 'from memory, unconfirmed';
+  }
+}

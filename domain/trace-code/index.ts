@@ -1,0 +1,2 @@
+// ASTM F2897 traceability code: parse, build, and the code tables.
+export * from '@/domain/trace-code/trace-code';

@@ -1,0 +1,3 @@
+// Units: SI <-> US customary conversion (NIST SP 811 factors) and display formatting.
+export * from '@/domain/units/conversions';
+export * from '@/domain/units/format';
