@@ -891,7 +891,7 @@ export function describeRule(rule: SizeRule, kind: QuantityKind, system: UnitSys
       const perUnit = system === 'us' ? rule.perMm * MM_PER_IN : rule.perMm;
       const unit = system === 'us' ? 'inch' : 'mm';
       const perText = kind === 'duration'
-        ? perUnit >= 60 && Number.isInteger(roundTo(perUnit, 6)) ? formatDuration(perUnit) : `${trimNumber(perUnit, 2)} s`
+        ? perUnit >= 60 ? formatDuration(perUnit) : `${trimNumber(perUnit, 2)} s`
         : `${trimNumber(system === 'us' ? perUnit / MM_PER_IN : perUnit, 3)} ${kind === 'length-mm' && system === 'us' ? 'in' : 'mm'}`;
       const offsetText = rule.offset !== 0 ? `${formatValue(rule.offset, kind, system)} + ` : '';
       return [`${offsetText}${perText} per ${unit} of ${basisWord(rule.basis)}`, []];

@@ -1,0 +1,4 @@
+// Fusion: procedures as data, pressure plans, joint checks and input schemas.
+export * from '@/domain/fusion/procedures';
+export * from '@/domain/fusion/plan';
+export * from '@/domain/fusion/check';
