@@ -9,3 +9,5 @@ export * from '@/domain/pipe';
 export * from '@/domain/fusion';
 export * from '@/domain/trace-code';
 export * from '@/domain/qualifications';
+export * from '@/domain/coils';
+export * from '@/domain/pressure-trace';

@@ -5,7 +5,7 @@
 
 export type ValueStatus = 'confirmed' | 'confirmed-2nd' | 'from-memory';
 
-export const VALUE_STATUSES: readonly ValueStatus[] = ['confirmed', 'confirmed-2nd', 'from-memory'];
+export const VALUE_STATUSES = ['confirmed', 'confirmed-2nd', 'from-memory'] as const satisfies readonly ValueStatus[];
 
 /** Where a value comes from and how sure we are of it. */
 export interface Sourced {

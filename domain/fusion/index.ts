@@ -2,3 +2,4 @@
 export * from '@/domain/fusion/procedures';
 export * from '@/domain/fusion/plan';
 export * from '@/domain/fusion/check';
+export * from '@/domain/fusion/schemas';

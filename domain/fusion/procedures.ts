@@ -28,13 +28,13 @@ export type FusionStandard =
   | 'iso-21307-shp'
   | 'dvs-2207-1';
 
-export const FUSION_STANDARDS: readonly FusionStandard[] = [
+export const FUSION_STANDARDS = [
   'astm-f2620',
   'iso-21307-slp',
   'iso-21307-dlp',
   'iso-21307-shp',
   'dvs-2207-1',
-];
+] as const satisfies readonly FusionStandard[];
 
 /** What a size-dependent rule is a function of. */
 export type SizeBasis = 'wall-mm' | 'outside-diameter-mm';

@@ -1,0 +1,2 @@
+// Coils: run planning (coils versus sticks), length left, next coil, status moves.
+export * from '@/domain/coils/planning';

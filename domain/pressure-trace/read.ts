@@ -1,0 +1,197 @@
+// Reading a butt-fusion pressure–time trace: find bead-up, heat soak, changeover and
+// fusion (with cooling), their durations, and the gauge pressures held. The phase model
+// is the trade's description of a hydraulic butt-fusion cycle (bead-up at pressure, heat
+// soak at drag only, heater removal, fusion pressure held while cooling; PPI generic
+// procedure, standards.md §1.1) — the detection method itself is our own.
+//
+// Method: a 5-sample running median removes single-sample spikes and most noise; levels
+// are medians of the samples inside a phase; phase edges are where the smoothed pressure
+// crosses the midpoint between the two levels on either side, interpolated between
+// samples, so a missing sample only widens the uncertainty to its gap. The start of the
+// fusion build-up is the ramp (through its 25 % and 75 % points) extended back to the
+// changeover level, and its end the ramp extended to the fusion level.
+
+import type { PressureSample } from '@/domain/pressure-trace/parse';
+import type { JointMeasurements } from '@/domain/fusion/check';
+
+export interface TracePhase {
+  startS: number;
+  endS: number;
+  durationS: number;
+}
+
+export interface PressureTraceReading {
+  phases: { beadUp: TracePhase; heatSoak: TracePhase; changeover: TracePhase; fusion: TracePhase };
+  heatSoakS: number;
+  changeoverS: number;
+  pressureBuildUpS: number;
+  /** Time held under pressure after build-up until release, s. */
+  coolingS: number;
+  /** Median gauge pressure while held at fusion pressure, MPa. */
+  fusionGaugePressureMpa: number;
+  beadUpGaugePressureMpa: number;
+  /** Drag pressure used to tell heat soak from changeover (given, or read from the heat soak), MPa. */
+  dragPressureMpa: number;
+  /** Median heater temperature during heat soak, °C; null when the trace has none. */
+  heaterTemperatureC: number | null;
+  /** False when the record ends before the pressure is released (cooling is then a lower bound). */
+  released: boolean;
+}
+
+export type ReadPressureTraceResult = { ok: true; reading: PressureTraceReading } | { ok: false; error: string };
+
+export interface ReadPressureTraceOptions {
+  /** Measured drag pressure, MPa; read from the trace when absent. */
+  dragPressureMpa?: number;
+}
+
+/** Fewest samples the reader accepts. */
+export const MIN_TRACE_SAMPLES = 12;
+/** High stretches closer than this are one stretch (a brief dip is not a phase), s. */
+const MERGE_GAP_S = 3;
+
+function median(values: readonly number[]): number {
+  if (values.length === 0) return Number.NaN;
+  const sorted = [...values].sort((a, b) => a - b);
+  const mid = Math.floor(sorted.length / 2);
+  return sorted.length % 2 === 1 ? (sorted[mid] as number) : ((sorted[mid - 1] as number) + (sorted[mid] as number)) / 2;
+}
+
+const round1 = (value: number) => Math.round(value * 10) / 10;
+const phase = (startS: number, endS: number): TracePhase => ({ startS: round1(startS), endS: round1(endS), durationS: round1(endS - startS) });
+
+/**
+ * Read a trace (samples in time order, pressures MPa gauge). Durations in s rounded to
+ * 0.1 s, pressures in MPa not rounded. Returns an error in words when the trace does not
+ * show a bead-up and a fusion stretch separated by a heat soak, or when heat soak and
+ * changeover cannot be told apart (no drag pressure to see).
+ */
+export function readPressureTrace(samples: readonly PressureSample[], options: ReadPressureTraceOptions = {}): ReadPressureTraceResult {
+  if (samples.length < MIN_TRACE_SAMPLES) {
+    return { ok: false, error: `The trace has ${samples.length} samples; at least ${MIN_TRACE_SAMPLES} are needed to find the phases` };
+  }
+  const t = samples.map((sample) => sample.seconds);
+  const raw = samples.map((sample) => sample.gaugePressureMpa);
+  const n = raw.length;
+  const s = raw.map((_, i) => median(raw.slice(Math.max(0, i - 2), Math.min(n, i + 3))));
+  const peak = Math.max(...s);
+  if (!(peak > 0)) return { ok: false, error: 'The trace shows no pressure' };
+
+  // Stretches above half the peak: the first is bead-up, the next is fusion.
+  const runs: { start: number; end: number }[] = [];
+  for (let i = 0; i < n; i += 1) {
+    if ((s[i] as number) <= peak / 2) continue;
+    const last = runs[runs.length - 1];
+    if (last && (t[i] as number) - (t[last.end] as number) < MERGE_GAP_S) last.end = i;
+    else runs.push({ start: i, end: i });
+  }
+  if (runs.length < 2) {
+    return { ok: false, error: 'The trace shows only one pressure stretch; a bead-up and a fusion stretch separated by a heat soak are needed' };
+  }
+  const beadRun = runs[0] as { start: number; end: number };
+  const fusionRun = runs[1] as { start: number; end: number };
+
+  const crossing = (i: number, level: number): number => {
+    // Interpolated time where the smoothed pressure crosses `level` between samples i and i + 1.
+    const a = s[i] as number;
+    const b = s[i + 1] as number;
+    const ta = t[i] as number;
+    const tb = t[i + 1] as number;
+    if (a === b) return (ta + tb) / 2;
+    return ta + ((level - a) / (b - a)) * (tb - ta);
+  };
+
+  const beadLevel = median(raw.slice(beadRun.start, beadRun.end + 1));
+  const lowSlice = s.slice(beadRun.end + 1, fusionRun.start);
+  const drag = options.dragPressureMpa ?? median(lowSlice);
+  if (!(drag > 0.02 * peak) || !Number.isFinite(drag)) {
+    return { ok: false, error: 'Heat soak and changeover cannot be told apart: the pressure during heat soak is no higher than during changeover. Give the measured drag pressure.' };
+  }
+  const changeoverLevel = drag / 2;
+
+  // Bead-up start: last rise through half the bead-up level before the bead-up stretch.
+  let i = beadRun.start - 1;
+  while (i >= 0 && (s[i] as number) >= beadLevel / 2) i -= 1;
+  const beadUpStart = i >= 0 ? crossing(i, beadLevel / 2) : (t[0] as number);
+  // Bead-up end: first fall through the midpoint between bead-up level and drag.
+  const beadEndLevel = (beadLevel + drag) / 2;
+  i = beadRun.start;
+  while (i < n - 1 && (s[i + 1] as number) >= beadEndLevel) i += 1;
+  const beadUpEnd = crossing(i, beadEndLevel);
+
+  // Changeover: the stretch below half the drag just before the fusion rise.
+  let rise = fusionRun.start - 1;
+  while (rise > beadRun.end && (s[rise] as number) >= changeoverLevel) rise -= 1;
+  if (rise <= beadRun.end) return { ok: false, error: 'No changeover found: the pressure never drops below the drag pressure between heat soak and fusion' };
+  let open = rise;
+  while (open - 1 > beadRun.end && (s[open - 1] as number) < changeoverLevel) open -= 1;
+  const changeoverStart = crossing(open - 1, changeoverLevel);
+  const lowLevel = median(s.slice(open, rise + 1));
+
+  // Fusion level and the build-up ramp.
+  const fusionLevel = median(raw.slice(fusionRun.start, fusionRun.end + 1));
+  const levelTime = (fraction: number): number => {
+    const level = lowLevel + fraction * (fusionLevel - lowLevel);
+    let k = rise;
+    while (k < n - 1 && (s[k + 1] as number) < level) k += 1;
+    return crossing(k, level);
+  };
+  const t25 = levelTime(0.25);
+  const t75 = levelTime(0.75);
+  const slope = (0.5 * (fusionLevel - lowLevel)) / Math.max(t75 - t25, 1e-9);
+  const fusionStart = Math.min(Math.max(t25 - (0.25 * (fusionLevel - lowLevel)) / slope, t[rise] as number), t25);
+  const buildUpEnd = Math.max(t75 + (0.25 * (fusionLevel - lowLevel)) / slope, t75);
+
+  // Release: the last fall to near zero, at half the final hold level.
+  let last = n - 1;
+  while (last > fusionRun.start && (s[last] as number) < changeoverLevel) last -= 1;
+  const released = last < n - 1;
+  const holdLevel = median(s.slice(Math.max(fusionRun.start, last - 4), last + 1));
+  let fall = last;
+  while (fall > fusionRun.start && (s[fall] as number) < holdLevel / 2) fall -= 1;
+  const fusionEnd = released ? crossing(fall, holdLevel / 2) : (t[n - 1] as number);
+
+  const holdSamples = raw.filter((_, k) => (t[k] as number) >= buildUpEnd && k <= fusionRun.end);
+  const temperatures = samples
+    .filter((sample) => sample.seconds >= beadUpEnd && sample.seconds <= changeoverStart && sample.heaterTemperatureC !== undefined)
+    .map((sample) => sample.heaterTemperatureC as number);
+
+  const phases = {
+    beadUp: phase(beadUpStart, beadUpEnd),
+    heatSoak: phase(beadUpEnd, changeoverStart),
+    changeover: phase(changeoverStart, fusionStart),
+    fusion: phase(fusionStart, fusionEnd),
+  };
+  return {
+    ok: true,
+    reading: {
+      phases,
+      heatSoakS: phases.heatSoak.durationS,
+      changeoverS: phases.changeover.durationS,
+      pressureBuildUpS: round1(buildUpEnd - fusionStart),
+      coolingS: round1(fusionEnd - buildUpEnd),
+      fusionGaugePressureMpa: holdSamples.length > 0 ? median(holdSamples) : fusionLevel,
+      beadUpGaugePressureMpa: beadLevel,
+      dragPressureMpa: drag,
+      heaterTemperatureC: temperatures.length > 0 ? median(temperatures) : null,
+      released,
+    },
+  };
+}
+
+/**
+ * The values of a reading that the joint check takes (canonical SI), to check a trace
+ * "like typed values". Heater temperature only when the trace had that column.
+ */
+export function measurementsFromTraceReading(reading: PressureTraceReading): Partial<JointMeasurements> {
+  const values: Partial<JointMeasurements> = {
+    heatSoakS: reading.heatSoakS,
+    changeoverS: reading.changeoverS,
+    pressureBuildUpS: reading.pressureBuildUpS,
+    coolingS: reading.coolingS,
+    fusionGaugePressureMpa: reading.fusionGaugePressureMpa,
+    beadUpGaugePressureMpa: reading.beadUpGaugePressureMpa,
+  };
+  if (reading.heaterTemperatureC !== null) values.heaterTemperatureC = reading.heaterTemperatureC;
+  return values;
+}
