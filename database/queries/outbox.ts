@@ -1,0 +1,342 @@
+// The mail outbox: every e-mail Beadline sends is first a row here, written in the same
+// transaction as the change that caused it, so a mail is never lost and never blocks the
+// change. A sender (database/mail/sender.ts) claims due rows with
+// SELECT … FOR UPDATE SKIP LOCKED, so several app instances never send one mail twice.
+// People with daily digest on get their events folded into one mail a day instead
+// (mail_digest_items, see migration 20261202000700).
+import type { Knex } from "knex";
+import { afterFailedAttempt, MAX_MAIL_ATTEMPTS } from "@/domain/review/backoff";
+import { composeDigest, latestDigestCutoff, type DigestEvent } from "@/domain/review/digest";
+import { conn, db, isDuplicateKey, type Db } from "../client";
+
+export type MailStatus = "queued" | "sending" | "sent" | "failed";
+
+export type OutboxMail = {
+  id: number;
+  to: string;
+  subject: string;
+  bodyText: string;
+  kind: string;
+  dedupeKey: string | null;
+  status: MailStatus;
+  attempts: number;
+  nextAttemptAt: Date;
+  lastError: string | null;
+  createdAt: Date;
+  sentAt: Date | null;
+};
+
+type OutboxRow = {
+  id: number;
+  to_address: string;
+  subject: string;
+  body_text: string;
+  kind: string;
+  dedupe_key: string | null;
+  status: MailStatus;
+  attempts: number;
+  next_attempt_at: Date;
+  last_error: string | null;
+  created_at: Date;
+  sent_at: Date | null;
+};
+
+function toMail(row: OutboxRow): OutboxMail {
+  return {
+    id: Number(row.id),
+    to: row.to_address,
+    subject: row.subject,
+    bodyText: row.body_text,
+    kind: row.kind,
+    dedupeKey: row.dedupe_key,
+    status: row.status,
+    attempts: Number(row.attempts),
+    nextAttemptAt: row.next_attempt_at,
+    lastError: row.last_error,
+    createdAt: row.created_at,
+    sentAt: row.sent_at,
+  };
+}
+
+const clip = (text: string, max: number) => (text.length > max ? text.slice(0, max - 1) + "…" : text);
+
+/** Public address of the app for links in mail (BEADLINE_PUBLIC_URL), without a trailing slash. */
+export function publicUrl(): string {
+  return (process.env.BEADLINE_PUBLIC_URL || "http://127.0.0.1:3000").replace(/\/+$/, "");
+}
+
+export type EnqueueMailInput = { to: string; subject: string; bodyText: string; kind: string; dedupeKey?: string | null };
+
+/**
+ * Puts one mail in the outbox, to be sent as soon as the sender runs. With a `dedupeKey`,
+ * a second mail with the same key is not added (returns `{ id: null, duplicate: true }`).
+ * Pass the caller's transaction so the mail exists exactly when the change does.
+ */
+export async function enqueueMail(input: EnqueueMailInput, trx?: Db): Promise<{ id: number | null; duplicate: boolean }> {
+  try {
+    const [id] = await conn(trx)("mail_outbox").insert({
+      to_address: input.to,
+      subject: clip(input.subject, 300),
+      body_text: input.bodyText,
+      kind: input.kind,
+      dedupe_key: input.dedupeKey ?? null,
+    });
+    return { id: Number(id), duplicate: false };
+  } catch (error) {
+    // A duplicate key rolls back only this statement, not the caller's transaction.
+    if (input.dedupeKey && isDuplicateKey(error)) return { id: null, duplicate: true };
+    throw error;
+  }
+}
+
+export type Recipient = { id: number; email: string; dailyDigest: boolean };
+
+/**
+ * An event for one person: straight to the outbox, or — when the person chose the daily
+ * digest — kept for that day's summary mail. Deduplicated on `dedupeKey` either way.
+ */
+export async function enqueueUserEvent(
+  input: { recipient: Recipient; subject: string; bodyText: string; kind: string; dedupeKey: string },
+  trx?: Db,
+): Promise<{ queued: boolean; digest: boolean }> {
+  const { recipient } = input;
+  if (!recipient.dailyDigest) {
+    const result = await enqueueMail({ to: recipient.email, subject: input.subject, bodyText: input.bodyText, kind: input.kind, dedupeKey: input.dedupeKey }, trx);
+    return { queued: !result.duplicate, digest: false };
+  }
+  try {
+    await conn(trx)("mail_digest_items").insert({
+      user_id: recipient.id,
+      to_address: recipient.email,
+      kind: input.kind,
+      subject: clip(input.subject, 300),
+      body_text: input.bodyText,
+      dedupe_key: input.dedupeKey,
+    });
+    return { queued: true, digest: true };
+  } catch (error) {
+    if (isDuplicateKey(error)) return { queued: false, digest: true };
+    throw error;
+  }
+}
+
+async function activeUsersWithRole(role: string, k: Db): Promise<Recipient[]> {
+  const rows = (await k("users").where("is_active", true).whereRaw("FIND_IN_SET(?, roles) > 0", [role]).select("id", "email", "daily_digest").orderBy("id")) as {
+    id: number;
+    email: string;
+    daily_digest: number | boolean;
+  }[];
+  return rows.map((r) => ({ id: r.id, email: r.email, dailyDigest: Boolean(r.daily_digest) }));
+}
+
+/**
+ * Alert for an out-of-limits joint: one mail to each active inspector (except the fuser
+ * who made it, who may not review it), dedupe key `joint-alert:<jointId>:<inspectorId>`.
+ * A joint within limits sends nothing. Call it inside the transaction that records the
+ * joint: the mail is queued with the joint, and sending happens later, so a mail server
+ * that is down never blocks recording.
+ */
+export async function enqueueJointAlert({ jointId }: { jointId: number }, trx?: Db): Promise<{ queued: number }> {
+  const k = conn(trx);
+  const joint = (await k("joints as j")
+    .join("jobs", "jobs.id", "j.job_id")
+    .join("users as f", "f.id", "j.fuser_id")
+    .leftJoin("fusion_machines as m", "m.id", "j.machine_id")
+    .where("j.id", jointId)
+    .first(
+      "j.id",
+      "j.joint_no",
+      "j.outcome",
+      "j.findings",
+      "j.made_at",
+      "j.station",
+      "j.fuser_id",
+      "j.outside_diameter_mm",
+      "j.sdr",
+      "jobs.code as job_code",
+      "jobs.name as job_name",
+      "f.name as fuser_name",
+      "m.asset_tag as machine_tag",
+    )) as
+    | {
+        id: number;
+        joint_no: number;
+        outcome: string;
+        findings: string;
+        made_at: Date;
+        station: string | null;
+        fuser_id: number;
+        outside_diameter_mm: number;
+        sdr: number;
+        job_code: string;
+        job_name: string;
+        fuser_name: string;
+        machine_tag: string | null;
+      }
+    | undefined;
+  if (!joint || joint.outcome !== "out-of-limits") return { queued: 0 };
+  let findings: { message?: string }[] = [];
+  try {
+    findings = JSON.parse(joint.findings) as { message?: string }[];
+  } catch {
+    findings = [];
+  }
+  const label = `${joint.job_code} joint ${joint.joint_no}`;
+  const subject = `Out of limits: ${label} (${findings.length} ${findings.length === 1 ? "finding" : "findings"})`;
+  const bodyText = [
+    `${label} was recorded out of limits and waits for your review.`,
+    "",
+    `Job: ${joint.job_code} ${joint.job_name}`,
+    `Made: ${joint.made_at.toISOString().replace("T", " ").slice(0, 16)} UTC by ${joint.fuser_name}`,
+    `Pipe: OD ${joint.outside_diameter_mm} mm, SDR ${joint.sdr}${joint.machine_tag ? `, machine ${joint.machine_tag}` : ""}${joint.station ? `, station ${joint.station}` : ""}`,
+    "",
+    "Findings:",
+    ...findings.map((f) => `- ${f.message ?? "(no message)"}`),
+    "",
+    `Review it: ${publicUrl()}/review?joint=${joint.id}`,
+  ].join("\n");
+  let queued = 0;
+  for (const inspector of await activeUsersWithRole("inspector", k)) {
+    if (inspector.id === joint.fuser_id) continue;
+    const result = await enqueueUserEvent({ recipient: inspector, subject, bodyText, kind: "joint-out-of-limits", dedupeKey: `joint-alert:${joint.id}:${inspector.id}` }, k);
+    if (result.queued) queued += 1;
+  }
+  return { queued };
+}
+
+/** Active admins as recipients (qualification and heater alerts). */
+export async function listAlertAdmins(_: Record<string, never> = {}, trx?: Db): Promise<Recipient[]> {
+  return activeUsersWithRole("admin", conn(trx));
+}
+
+// ---------------------------------------------------------------------------------------
+// Sending side: claim, mark sent, mark failed.
+
+/** A claimed mail stays "sending" this long; a sender that died mid-send frees it after. */
+export const CLAIM_LEASE_S = 120;
+
+/**
+ * Claims up to `limit` due mails for this sender: rows queued (or left "sending" by a
+ * sender whose lease ran out) with next_attempt_at ≤ now, locked FOR UPDATE SKIP LOCKED so
+ * a concurrent sender skips them, then marked "sending" with attempts + 1, in one short
+ * transaction. Mails whose attempts already reached the maximum are marked failed.
+ */
+export async function claimDueMails({ now, limit = 20, maxAttempts = MAX_MAIL_ATTEMPTS }: { now: Date; limit?: number; maxAttempts?: number }, knex?: Knex): Promise<OutboxMail[]> {
+  const k = knex ?? db();
+  return k.transaction(async (trx) => {
+    const rows = (await trx("mail_outbox")
+      .whereIn("status", ["queued", "sending"])
+      .where("next_attempt_at", "<=", now)
+      .orderBy([{ column: "next_attempt_at" }, { column: "id" }])
+      .limit(limit)
+      .forUpdate()
+      .skipLocked()
+      .select("*")) as OutboxRow[];
+    if (rows.length === 0) return [];
+    const spent = rows.filter((r) => Number(r.attempts) >= maxAttempts).map((r) => r.id);
+    const due = rows.filter((r) => Number(r.attempts) < maxAttempts);
+    if (spent.length) {
+      await trx("mail_outbox").whereIn("id", spent).update({ status: "failed", last_error: trx.raw("COALESCE(last_error, ?)", ["The sender stopped while sending; gave up after the last attempt"]) });
+    }
+    if (due.length === 0) return [];
+    await trx("mail_outbox")
+      .whereIn(
+        "id",
+        due.map((r) => r.id),
+      )
+      .update({ status: "sending", attempts: trx.raw("attempts + 1"), next_attempt_at: new Date(now.getTime() + CLAIM_LEASE_S * 1000) });
+    return due.map((r) => toMail({ ...r, status: "sending", attempts: Number(r.attempts) + 1 }));
+  });
+}
+
+export async function markMailSent({ id, now }: { id: number; now: Date }, trx?: Db): Promise<void> {
+  await conn(trx)("mail_outbox").where({ id, status: "sending" }).update({ status: "sent", sent_at: now, last_error: null });
+}
+
+/**
+ * Records a failed attempt: back to "queued" with the next attempt after the back-off
+ * delay, or "failed" (kept, shown on the mailbox page) once the attempts are spent.
+ */
+export async function markMailFailed(
+  { id, attempts, error, now, maxAttempts }: { id: number; attempts: number; error: string; now: Date; maxAttempts?: number },
+  trx?: Db,
+): Promise<{ status: "queued" | "failed"; nextAttemptAt: Date }> {
+  const next = afterFailedAttempt(attempts, now, { maxAttempts });
+  await conn(trx)("mail_outbox").where({ id }).update({ status: next.status, next_attempt_at: next.nextAttemptAt, last_error: clip(error, 500) });
+  return next;
+}
+
+/** Puts a failed mail back in the queue with a fresh set of attempts (admin, mailbox page). */
+export async function requeueMail({ id, now }: { id: number; now: Date }, trx?: Db): Promise<boolean> {
+  const changed = await conn(trx)("mail_outbox").where({ id, status: "failed" }).update({ status: "queued", attempts: 0, next_attempt_at: now });
+  return changed === 1;
+}
+
+export type OutboxFilter = { status?: MailStatus; kind?: string; to?: string; limit?: number };
+
+export async function listOutbox({ status, kind, to, limit = 200 }: OutboxFilter = {}, trx?: Db): Promise<OutboxMail[]> {
+  const q = conn(trx)("mail_outbox").orderBy("id", "desc").limit(limit);
+  if (status) q.where("status", status);
+  if (kind) q.where("kind", kind);
+  if (to) q.where("to_address", to);
+  return ((await q) as OutboxRow[]).map(toMail);
+}
+
+export async function countOutboxByStatus(_: Record<string, never> = {}, trx?: Db): Promise<Record<MailStatus, number>> {
+  const rows = (await conn(trx)("mail_outbox").select("status").count({ n: "*" }).groupBy("status")) as { status: MailStatus; n: number }[];
+  const counts: Record<MailStatus, number> = { queued: 0, sending: 0, sent: 0, failed: 0 };
+  for (const r of rows) counts[r.status] = Number(r.n);
+  return counts;
+}
+
+// ---------------------------------------------------------------------------------------
+// Daily digest.
+
+/**
+ * Folds each digest person's waiting events created before the latest cut-off into one
+ * outbox mail (dedupe key `digest:<userId>:<cut-off date>`), and links the events to it,
+ * in one transaction per person. Returns the number of digest mails queued.
+ */
+export async function foldDailyDigests({ now, hourUtc }: { now: Date; hourUtc?: number }, knex?: Knex): Promise<number> {
+  const k = knex ?? db();
+  const cutoff = latestDigestCutoff(now, hourUtc);
+  const day = cutoff.toISOString().slice(0, 10);
+  const people = (await k("mail_digest_items").whereNull("outbox_id").where("created_at", "<", cutoff).distinct("user_id", "to_address")) as { user_id: number; to_address: string }[];
+  let made = 0;
+  for (const person of people) {
+    await k.transaction(async (trx) => {
+      const rows = (await trx("mail_digest_items")
+        .whereNull("outbox_id")
+        .where({ user_id: person.user_id })
+        .where("created_at", "<", cutoff)
+        .orderBy("id")
+        .forUpdate()
+        .skipLocked()
+        .select("id", "kind", "subject", "body_text", "created_at", "to_address")) as { id: number; kind: string; subject: string; body_text: string; created_at: Date; to_address: string }[];
+      if (rows.length === 0) return;
+      const events: DigestEvent[] = rows.map((r) => ({ kind: r.kind, subject: r.subject, bodyText: r.body_text, createdAt: r.created_at }));
+      const { subject, bodyText } = composeDigest(events, day);
+      let result = await enqueueMail({ to: rows[rows.length - 1]!.to_address, subject, bodyText, kind: "daily-digest", dedupeKey: `digest:${person.user_id}:${day}` }, trx);
+      if (result.duplicate) {
+        // Today's digest already went out (events arrived late in the same day): a second part.
+        result = await enqueueMail({ to: rows[rows.length - 1]!.to_address, subject, bodyText, kind: "daily-digest", dedupeKey: `digest:${person.user_id}:${day}:${rows[0]!.id}` }, trx);
+      }
+      if (result.id === null) return;
+      await trx("mail_digest_items")
+        .whereIn(
+          "id",
+          rows.map((r) => r.id),
+        )
+        .update({ outbox_id: result.id });
+      made += 1;
+    });
+  }
+  return made;
+}
+
+export async function countWaitingDigestItems({ userId }: { userId?: number } = {}, trx?: Db): Promise<number> {
+  const q = conn(trx)("mail_digest_items").whereNull("outbox_id");
+  if (userId) q.where("user_id", userId);
+  const row = await q.count({ n: "*" }).first();
+  return Number(row?.n ?? 0);
+}
