@@ -10,5 +10,6 @@ export default defineConfig({
     testTimeout: 30_000,
     hookTimeout: 60_000,
     fileParallelism: false,
+    setupFiles: ["tests/support/setup.ts"],
   },
 });

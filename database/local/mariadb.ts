@@ -171,7 +171,7 @@ export function grantApplicationRights(dir: string, { database, user }: { databa
     .filter(Boolean);
   const statements: string[] = [];
   for (const host of ["127.0.0.1", "localhost"]) {
-    statements.push(`REVOKE IF EXISTS ALL PRIVILEGES, GRANT OPTION FROM '${user}'@'${host}'`);
+    statements.push(`REVOKE ALL PRIVILEGES, GRANT OPTION FROM '${user}'@'${host}'`);
     for (const table of tables) {
       const appendOnly = (APPEND_ONLY_TABLES as readonly string[]).includes(table);
       const rights = appendOnly ? "SELECT, INSERT" : "SELECT, INSERT, UPDATE, DELETE";

@@ -1,0 +1,35 @@
+// Browser tests: Debian's Chromium driven by Playwright against `next start` on a free
+// port, with the demo scenario loaded into the throw-away database (tests/e2e/global-setup.ts).
+import { defineConfig, devices } from "@playwright/test";
+
+const port = Number(process.env.E2E_PORT || 3100 + (process.pid % 500));
+const chromiumArgs = ["--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync", "--disable-dev-shm-usage"];
+
+export default defineConfig({
+  testDir: "tests/e2e",
+  testMatch: "**/*.spec.ts",
+  outputDir: "test-results",
+  fullyParallel: false,
+  workers: 1,
+  retries: 0,
+  timeout: 60_000,
+  expect: { timeout: 10_000 },
+  reporter: [["list"]],
+  globalSetup: "./tests/e2e/global-setup.ts",
+  use: {
+    baseURL: `http://127.0.0.1:${port}`,
+    trace: "off",
+    screenshot: "only-on-failure",
+    launchOptions: { executablePath: "/usr/bin/chromium", args: chromiumArgs },
+  },
+  projects: [{ name: "chromium", use: { ...devices["Desktop Chrome"], launchOptions: { executablePath: "/usr/bin/chromium", args: chromiumArgs } } }],
+  webServer: {
+    command: `node node_modules/next/dist/bin/next start -H 127.0.0.1 -p ${port}`,
+    url: `http://127.0.0.1:${port}/sign-in`,
+    reuseExistingServer: false,
+    timeout: 60_000,
+    env: { ...(process.env as Record<string, string>), NODE_ENV: "production", NEXT_TELEMETRY_DISABLED: "1", BEADLINE_PUBLIC_URL: `http://127.0.0.1:${port}` },
+    stdout: "ignore",
+    stderr: "pipe",
+  },
+});

@@ -1,0 +1,96 @@
+// `npm test`: starts a throw-away MariaDB (temporary data directory, free port, loopback),
+// the fake object store and mail server, migrates, then runs type-check, lint, vitest
+// (domain, database, actions/API), builds the app and runs the Playwright browser tests.
+// Stops everything and exits non-zero on any failure. Never touches the demo database.
+//
+// Flags: --skip-lint  --skip-e2e  --only-vitest [files…]  --only-e2e [files…]
+import { spawn } from "node:child_process";
+import { mkdtempSync, rmSync } from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import { ensureMariadbInstalled } from "../database/local/mariadb";
+import { startLocalStack, type LocalStack } from "../database/local/stack";
+import { migrateLatest } from "../database/migrate";
+
+const ROOT = path.resolve(__dirname, "..");
+const args = process.argv.slice(2);
+const flag = (name: string) => args.includes(name);
+function filesAfter(name: string): string[] {
+  const i = args.indexOf(name);
+  if (i < 0) return [];
+  const out: string[] = [];
+  for (const a of args.slice(i + 1)) {
+    if (a.startsWith("--")) break;
+    out.push(a);
+  }
+  return out;
+}
+const onlyVitest = flag("--only-vitest");
+const onlyE2e = flag("--only-e2e");
+const runLint = !flag("--skip-lint") && !onlyVitest && !onlyE2e;
+const runVitest = !onlyE2e;
+const runE2e = !flag("--skip-e2e") && !onlyVitest;
+
+function run(label: string, command: string, commandArgs: string[], env: Record<string, string | undefined>): Promise<number> {
+  const started = Date.now();
+  console.log(`\n=== ${label} ===`);
+  return new Promise((resolve) => {
+    const child = spawn(command, commandArgs, { cwd: ROOT, env: { ...process.env, ...env }, stdio: "inherit" });
+    child.on("exit", (code, signal) => {
+      console.log(`=== ${label}: ${code === 0 ? "passed" : `FAILED (${signal ?? code})`} in ${((Date.now() - started) / 1000).toFixed(1)} s ===`);
+      resolve(code ?? 1);
+    });
+  });
+}
+
+const bin = (name: string) => path.join(ROOT, "node_modules", ".bin", name);
+
+async function main(): Promise<number> {
+  const tmp = mkdtempSync(path.join(os.tmpdir(), "beadline-test-"));
+  let stack: LocalStack | null = null;
+  const results: [string, number][] = [];
+  const stopAll = async () => {
+    if (stack) await stack.stop();
+    stack = null;
+    rmSync(tmp, { recursive: true, force: true });
+  };
+  process.on("SIGINT", () => void stopAll().then(() => process.exit(130)));
+  try {
+    if (runLint) {
+      results.push(["type-check", await run("type-check (tsc --noEmit)", bin("tsc"), ["--noEmit", "-p", "."], {})]);
+      results.push(["lint", await run("lint (eslint)", bin("eslint"), ["."], {})]);
+    }
+    ensureMariadbInstalled();
+    console.log("\n=== starting throw-away MariaDB, object store and mail server ===");
+    stack = await startLocalStack({ dir: tmp, ports: "free" });
+    await migrateLatest(stack.env.MIGRATION_DATABASE_URL);
+    stack.grantRights();
+    const env = { ...stack.env, NODE_ENV: "test", NEXT_TELEMETRY_DISABLED: "1", BEADLINE_TEST_TMP: tmp };
+
+    if (runVitest) {
+      const files = filesAfter("--only-vitest");
+      results.push(["vitest", await run("vitest (domain, database, actions, API)", bin("vitest"), ["run", ...files], env)]);
+    }
+    if (runE2e) {
+      const distDir = process.env.BEADLINE_TEST_DIST_DIR || ".next-test";
+      const e2eEnv = { ...env, NODE_ENV: "production", BEADLINE_DIST_DIR: distDir, BEADLINE_PUBLIC_URL: "" };
+      const build = await run("next build (for browser tests)", process.execPath, [path.join(ROOT, "node_modules", "next", "dist", "bin", "next"), "build"], e2eEnv);
+      results.push(["next build", build]);
+      if (build === 0) {
+        const files = filesAfter("--only-e2e");
+        results.push(["playwright", await run("browser tests (Playwright, Chromium)", bin("playwright"), ["test", ...files], { ...e2eEnv, CI: process.env.CI ?? "" })]);
+      }
+    }
+  } catch (error) {
+    console.error(`test run failed: ${(error as Error).stack ?? error}`);
+    results.push(["setup", 1]);
+  } finally {
+    await stopAll();
+  }
+  console.log("\n=== summary ===");
+  for (const [name, code] of results) console.log(`${code === 0 ? "pass" : "FAIL"}  ${name}`);
+  const failed = results.filter(([, c]) => c !== 0).length;
+  return failed === 0 && results.length > 0 ? 0 : 1;
+}
+
+void main().then((code) => process.exit(code));

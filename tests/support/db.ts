@@ -1,0 +1,42 @@
+// Database helpers for tests: the owner connection (may truncate), a reset to empty tables
+// and the demo seed. Tests run against the throw-away MariaDB that `npm test` starts.
+import type { Knex } from "knex";
+import { ownerKnex } from "@/database/migrate";
+
+let owner: Knex | null = null;
+
+/** The owner connection (full rights; the app's own user may not delete evidence rows). */
+export function ownerDb(): Knex {
+  owner ??= ownerKnex(process.env.MIGRATION_DATABASE_URL);
+  return owner;
+}
+
+export async function closeOwnerDb(): Promise<void> {
+  if (owner) await owner.destroy();
+  owner = null;
+}
+
+/** Empties every table except the migration bookkeeping. */
+export async function resetDatabase(): Promise<void> {
+  const k = ownerDb();
+  const [rows] = (await k.raw("SELECT table_name AS t FROM information_schema.tables WHERE table_schema = DATABASE() AND table_type = 'BASE TABLE'")) as [{ t: string }[]];
+  const tables = rows.map((r) => r.t).filter((t) => !t.startsWith("knex_migrations"));
+  await k.raw(`SET FOREIGN_KEY_CHECKS = 0; ${tables.map((t) => `TRUNCATE TABLE \`${t}\``).join("; ")}; SET FOREIGN_KEY_CHECKS = 1;`);
+}
+
+/** Loads the demo scenario (all seed files, in order) into the current — empty — database. */
+export async function seedDemo(today = new Date()): Promise<void> {
+  const { readdirSync } = await import("node:fs");
+  const path = await import("node:path");
+  const dir = path.join(process.cwd(), "database", "seeds");
+  for (const file of readdirSync(dir).filter((f) => f.endsWith(".ts")).sort()) {
+    const mod = (await import(path.join(dir, file))) as { seed: (k: Knex, today?: Date) => Promise<void> };
+    await mod.seed(ownerDb(), today);
+  }
+}
+
+export async function userIdByEmail(email: string): Promise<number> {
+  const row = await ownerDb()("users").where({ email }).first("id");
+  if (!row) throw new Error(`no user ${email}`);
+  return Number(row.id);
+}
