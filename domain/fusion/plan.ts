@@ -135,7 +135,10 @@ function resolveProcedure(input: PlanButtFusionInput): ProcedureDefinition {
   throw new DomainError('invalid-input', 'A standard or a procedure is required');
 }
 
-const roundSeconds = (value: number | null): number | null => (value === null ? null : Math.round(value));
+// Round half up to the whole second; the 1e-6 s pre-rounding keeps 397.4999999 (a binary
+// artefact of 397.5) from rounding down, so a minimum on a half second rounds up.
+const roundSeconds = (value: number | null): number | null =>
+  value === null ? null : Math.round(Math.round(value * 1e6) / 1e6);
 
 /**
  * Plan a butt-fusion joint. Inputs in SI: OD mm, SDR, optional table wall mm, piston area

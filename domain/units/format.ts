@@ -67,9 +67,19 @@ export function unitLabel(kind: QuantityKind, system: UnitSystem): string {
   return LABELS[kind][system];
 }
 
-/** Decimals the formatters show for this kind in this system (see table above). */
-export function displayDecimals(kind: QuantityKind, system: UnitSystem): number {
-  return DECIMALS[kind][system];
+/**
+ * Decimals the formatters show for this kind in this system (see table above). Given a
+ * value, small pressures get one more place so a reduced cooling pressure (0.025 MPa,
+ * 3.6 psi) does not read as 0.03 MPa / 4 psi.
+ */
+export function displayDecimals(kind: QuantityKind, system: UnitSystem, valueSi?: number): number {
+  const base = DECIMALS[kind][system];
+  if (kind === 'pressure' && valueSi !== undefined) {
+    const shown = Math.abs(toDisplay(valueSi, kind, system));
+    if (system === 'si' && shown < 0.1) return base + 1;
+    if (system === 'us' && shown < 10) return base + 1;
+  }
+  return base;
 }
 
 /**
@@ -119,7 +129,7 @@ export function fromDisplay(value: number, kind: QuantityKind, system: UnitSyste
  * on the limit.
  */
 export function roundForDisplay(valueSi: number, kind: QuantityKind, system: UnitSystem): number {
-  return roundTo(toDisplay(valueSi, kind, system), displayDecimals(kind, system));
+  return roundTo(toDisplay(valueSi, kind, system), displayDecimals(kind, system, valueSi));
 }
 
 /** Round half away from zero to `decimals` places, immune to 1.005-style binary artefacts. */
@@ -171,7 +181,7 @@ export function formatQuantity(
   options: FormatOptions = {},
 ): string {
   if (kind === 'duration') return formatDuration(valueSi);
-  const decimals = options.decimals ?? displayDecimals(kind, system);
+  const decimals = options.decimals ?? displayDecimals(kind, system, valueSi);
   return `${formatNumber(toDisplay(valueSi, kind, system), decimals)} ${unitLabel(kind, system)}`;
 }
 
@@ -189,7 +199,7 @@ export function formatRange(
   if (minSi === null) return `at most ${formatQuantity(maxSi as number, kind, system)}`;
   if (maxSi === null) return `at least ${formatQuantity(minSi, kind, system)}`;
   if (kind === 'duration') return `${formatDuration(minSi)} – ${formatDuration(maxSi)}`;
-  const decimals = displayDecimals(kind, system);
+  const decimals = Math.max(displayDecimals(kind, system, minSi), displayDecimals(kind, system, maxSi));
   const low = formatNumber(toDisplay(minSi, kind, system), decimals);
   const high = formatNumber(toDisplay(maxSi, kind, system), decimals);
   if (low === high) return `${low} ${unitLabel(kind, system)}`;

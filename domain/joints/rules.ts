@@ -1,0 +1,273 @@
+// Rules the Trench screen and the record-joint use case apply before a joint is written:
+// reading a scanned coil label, flagging a size mismatch between the two sides, and the
+// reasons to refuse (lapsed qualification) or to block until an inspector or admin clears
+// it (heater-plate check overdue or failed, coil quarantined or used up). Pure: the date
+// `on` ('YYYY-MM-DD') and every record are passed in.
+//
+// Sources: butt fusion joins pipe of the same OD and wall (SDR) — ASTM F2620 scope and the
+// PPI generic procedure (standards.md §2); a fuser must hold a current qualification for
+// the procedure (49 CFR 192.285, domain/qualifications); the heater face is checked before
+// the first joint of the day (PPI "Melt Procedure" page, standards.md §1.1); quarantine
+// and used-up are Beadline's coil states (DESIGN.md).
+
+import { isHeaterCheckOverdue, isHeaterFlagged } from '@/domain/office/rules';
+import type { QualificationStatus } from '@/domain/qualifications/status';
+import { parseTraceCode } from '@/domain/trace-code/trace-code';
+import { formatQuantity, type UnitSystem } from '@/domain/units/format';
+
+// ---------------------------------------------------------------------------------------
+// Scanned or typed coil labels
+
+export type CoilScan =
+  | { kind: 'coil-code'; code: string }
+  | { kind: 'trace-code'; code: string }
+  | { kind: 'invalid'; message: string };
+
+const COIL_CODE = /^[A-Za-z0-9][A-Za-z0-9._-]{0,39}$/;
+
+/**
+ * Reads what a camera scan or a typed entry gives: the coil label's QR holds the coil
+ * page's address (`https://…/coils/LV-C0001` or `/coils/LV-C0001`), a bare coil id
+ * ("LV-C0001"), or the manufacturer's 16-character ASTM F2897 code printed on the pipe.
+ * A 16-character text that parses as an F2897 code is taken as one (source: ASTM
+ * F2897-23a Table 1 via parseTraceCode); anything else of letters, digits, '-', '.', '_'
+ * is a coil id.
+ */
+export function parseCoilScan(text: string): CoilScan {
+  const value = (text ?? '').trim();
+  if (!value) return { kind: 'invalid', message: 'Nothing was scanned or typed.' };
+  const path = /(?:^|\/)coils\/([^/?#\s]+)\/?(?:[?#].*)?$/.exec(value);
+  if (path && (value.startsWith('/') || /^https?:\/\//i.test(value))) {
+    let code = path[1] as string;
+    try {
+      code = decodeURIComponent(code);
+    } catch {
+      return { kind: 'invalid', message: 'The label address is damaged; type the coil id instead.' };
+    }
+    return COIL_CODE.test(code) ? { kind: 'coil-code', code } : { kind: 'invalid', message: `"${code}" is not a coil id.` };
+  }
+  if (/^https?:\/\//i.test(value)) return { kind: 'invalid', message: 'That QR code is not a Beadline coil label.' };
+  if (value.length === 16 && parseTraceCode(value).ok) return { kind: 'trace-code', code: value };
+  if (COIL_CODE.test(value)) return { kind: 'coil-code', code: value };
+  return { kind: 'invalid', message: `"${value.slice(0, 40)}" is neither a coil id nor an ASTM F2897 code.` };
+}
+
+// ---------------------------------------------------------------------------------------
+// Component mismatch
+
+export interface ComponentSize {
+  label: string;
+  outsideDiameterMm: number;
+  sdr: number;
+}
+
+export interface Mismatch {
+  field: 'outsideDiameter' | 'sdr';
+  message: string;
+}
+
+/** Sizes within these are the same size (stored at 0.01 mm / 0.01 SDR). */
+const OD_TOLERANCE_MM = 0.05;
+const SDR_TOLERANCE = 0.01;
+
+/**
+ * Differences between the two sides of a butt-fusion joint: a different outside diameter
+ * or a different SDR (so a different wall) cannot be butt fused — the ends must match
+ * (ASTM F2620 §1 scope; PPI generic procedure, standards.md §2). Empty when they match.
+ */
+export function componentMismatch(a: ComponentSize, b: ComponentSize, system: UnitSystem = 'si'): Mismatch[] {
+  const out: Mismatch[] = [];
+  if (Math.abs(a.outsideDiameterMm - b.outsideDiameterMm) > OD_TOLERANCE_MM) {
+    out.push({
+      field: 'outsideDiameter',
+      message: `${a.label} is ${formatQuantity(a.outsideDiameterMm, 'length-mm', system)} OD but ${b.label} is ${formatQuantity(b.outsideDiameterMm, 'length-mm', system)} OD: butt fusion joins ends of the same size only.`,
+    });
+  }
+  if (Math.abs(a.sdr - b.sdr) > SDR_TOLERANCE) {
+    out.push({
+      field: 'sdr',
+      message: `${a.label} is SDR ${a.sdr} but ${b.label} is SDR ${b.sdr}: the walls differ, so the ends cannot be butt fused to each other.`,
+    });
+  }
+  return out;
+}
+
+// ---------------------------------------------------------------------------------------
+// Refusals and blocking warnings
+
+export type CoilStatus = 'in-yard' | 'on-trailer' | 'in-use' | 'used-up' | 'quarantined';
+
+export interface BlockingCoil {
+  id: number;
+  code: string;
+  status: CoilStatus;
+  statusReason: string | null;
+  remainingM: number;
+}
+
+export interface BlockingHeater {
+  id: number;
+  assetTag: string;
+  isActive: boolean;
+  lastCheck: { passed: boolean; nextDueOn: string } | null;
+}
+
+export type BlockKind = 'qualification' | 'heater-check-overdue' | 'heater-check-failed' | 'heater-retired' | 'coil-quarantined' | 'coil-used-up';
+
+/**
+ * `refuse`: no joint can be recorded (only the office can change it).
+ * `override`: an inspector or admin must clear it for this job; the override is recorded.
+ */
+export type BlockSeverity = 'refuse' | 'override';
+
+export interface BlockReason {
+  kind: BlockKind;
+  severity: BlockSeverity;
+  /** What the override would clear (absent for refusals). */
+  subject: { type: 'heater' | 'coil'; id: number } | null;
+  message: string;
+}
+
+export interface BlockReasonsInput {
+  qualification: QualificationStatus;
+  procedureLabel: string;
+  heater: BlockingHeater | null;
+  coils: BlockingCoil[];
+  /** The joint's date, 'YYYY-MM-DD'. */
+  on: string;
+  /** People who can help: admins for qualifications, inspectors and admins for overrides. */
+  admins: string[];
+  inspectors: string[];
+}
+
+function askList(names: string[], role: string): string {
+  if (names.length === 0) return `an ${role}`;
+  if (names.length === 1) return names[0] as string;
+  return `${names.slice(0, -1).join(', ')} or ${names[names.length - 1]}`;
+}
+
+/**
+ * Every reason this joint must not be recorded as it stands. A lapsed, never-held or
+ * failed-test qualification refuses (49 CFR 192.285(c), via qualificationStatus) and says
+ * whom to ask; a heater plate whose check is overdue or failed, or a coil that is
+ * quarantined or used up, needs an inspector's or admin's override. A retired heater plate
+ * refuses. Order: refusals first, then overrides, heater before coils.
+ */
+export function blockReasons(input: BlockReasonsInput): BlockReason[] {
+  const out: BlockReason[] = [];
+  const q = input.qualification;
+  if (!q.qualified) {
+    out.push({
+      kind: 'qualification',
+      severity: 'refuse',
+      subject: null,
+      message: `You cannot record joints under ${input.procedureLabel} on ${input.on}: ${q.reason}. Ask ${askList(input.admins, 'administrator')} to record your requalification.`,
+    });
+  }
+  const who = askList(input.inspectors, 'inspector or admin');
+  const h = input.heater;
+  if (h) {
+    if (!h.isActive) {
+      out.push({ kind: 'heater-retired', severity: 'refuse', subject: null, message: `Heater plate ${h.assetTag} is retired; use another plate.` });
+    } else if (isHeaterFlagged(h)) {
+      out.push({
+        kind: 'heater-check-failed',
+        severity: 'override',
+        subject: { type: 'heater', id: h.id },
+        message: `Heater plate ${h.assetTag} failed its last surface-temperature check. Check it again, or ask ${who} to clear it for this job.`,
+      });
+    } else if (isHeaterCheckOverdue(h, input.on)) {
+      out.push({
+        kind: 'heater-check-overdue',
+        severity: 'override',
+        subject: { type: 'heater', id: h.id },
+        message: h.lastCheck
+          ? `Heater plate ${h.assetTag} was due a surface-temperature check on ${h.lastCheck.nextDueOn}. Check the plate face, or ask ${who} to clear it for this job.`
+          : `Heater plate ${h.assetTag} has no surface-temperature check on record. Check the plate face, or ask ${who} to clear it for this job.`,
+      });
+    }
+  }
+  for (const coil of input.coils) {
+    if (coil.status === 'quarantined') {
+      out.push({
+        kind: 'coil-quarantined',
+        severity: 'override',
+        subject: { type: 'coil', id: coil.id },
+        message: `Coil ${coil.code} is quarantined${coil.statusReason ? ` (${coil.statusReason})` : ''}. Do not use it unless ${who} clears it for this job.`,
+      });
+    } else if (coil.status === 'used-up') {
+      out.push({
+        kind: 'coil-used-up',
+        severity: 'override',
+        subject: { type: 'coil', id: coil.id },
+        message: `Coil ${coil.code} is recorded as used up. Check the label; if the coil really has pipe left, ask ${who} to clear it for this job.`,
+      });
+    }
+  }
+  return out;
+}
+
+/**
+ * A grant also covers a joint made up to 2 hours before it was given: the fuser is often
+ * blocked with the joint already made and cooling. Our choice (no published source).
+ */
+export const OVERRIDE_LOOKBACK_MS = 2 * 60 * 60_000;
+
+export interface OverrideGrant {
+  id: number;
+  jobId: number;
+  subjectType: 'heater' | 'coil';
+  subjectId: number;
+  grantedAt: Date;
+  expiresAt: Date;
+}
+
+/**
+ * Splits blocking reasons into those an override grant covers (same job and subject, and
+ * the joint's moment inside the grant's hours) and those still open. Refusals are never
+ * covered. Each covered reason names the grant that cleared it. A grant holds from 2 hours
+ * before it was given until it expires.
+ */
+export function applyOverrides(
+  reasons: BlockReason[],
+  grants: OverrideGrant[],
+  at: { jobId: number; madeAt: Date },
+): { open: BlockReason[]; covered: { reason: BlockReason; grant: OverrideGrant }[] } {
+  const open: BlockReason[] = [];
+  const covered: { reason: BlockReason; grant: OverrideGrant }[] = [];
+  for (const reason of reasons) {
+    const grant =
+      reason.severity === 'override' && reason.subject
+        ? grants.find(
+            (g) =>
+              g.jobId === at.jobId &&
+              g.subjectType === reason.subject!.type &&
+              g.subjectId === reason.subject!.id &&
+              g.grantedAt.getTime() - OVERRIDE_LOOKBACK_MS <= at.madeAt.getTime() &&
+              at.madeAt.getTime() <= g.expiresAt.getTime(),
+          )
+        : undefined;
+    if (grant) covered.push({ reason, grant });
+    else open.push(reason);
+  }
+  return { open, covered };
+}
+
+/**
+ * Longest a device may take to deliver a joint made offline (days), and how far its clock
+ * may run ahead of the server's (minutes). Our choice (no published source).
+ */
+export const MAX_DELIVERY_DELAY_DAYS = 14;
+export const MAX_CLOCK_AHEAD_MIN = 10;
+
+/** Why a joint's made-at moment is not acceptable at `now`, or null. */
+export function madeAtProblem(madeAt: Date, now: Date): string | null {
+  if (Number.isNaN(madeAt.getTime())) return 'When the joint was made is not a date-time.';
+  if (madeAt.getTime() > now.getTime() + MAX_CLOCK_AHEAD_MIN * 60_000) {
+    return 'The joint is dated in the future: check the device clock.';
+  }
+  if (madeAt.getTime() < now.getTime() - MAX_DELIVERY_DELAY_DAYS * 86_400_000) {
+    return `The joint is dated more than ${MAX_DELIVERY_DELAY_DAYS} days ago; ask an inspector to enter it from the paper record.`;
+  }
+  return null;
+}

@@ -1,0 +1,193 @@
+// Input schemas of the Trench screen and the joints JSON API: one schema per input, used by
+// react-hook-form on the device (zodResolver) and parsed again on the server. Every value
+// is canonical SI (°C, MPa, mm, s, m); the screen converts at its edges. Numbers must be
+// numbers: a string "450" is refused here, so an API caller learns of the mistake.
+import { z } from 'zod';
+
+export const JOINT_KINDS = ['coil-to-coil', 'tie-in', 'fitting'] as const;
+export type JointKind = (typeof JOINT_KINDS)[number];
+
+export const JOINT_KIND_LABELS: Record<JointKind, string> = {
+  'coil-to-coil': 'Coil to coil',
+  'tie-in': 'Tie-in to pipe in the ground',
+  fitting: 'Coil to fitting',
+};
+
+export const SHELTERS = ['none', 'windbreak', 'tent', 'heated-tent'] as const;
+export type Shelter = (typeof SHELTERS)[number];
+
+export const SHELTER_LABELS: Record<Shelter, string> = {
+  none: 'None (open air)',
+  windbreak: 'Windbreak',
+  tent: 'Tent',
+  'heated-tent': 'Heated tent',
+};
+
+/** The phases the Trench timer can time; the rest of a record's durations are typed. */
+export const TIMED_PHASES = ['heatSoak', 'changeover', 'cooling'] as const;
+export type TimedPhase = (typeof TIMED_PHASES)[number];
+
+export const PHASE_LABELS: Record<TimedPhase, string> = {
+  heatSoak: 'Heat soak',
+  changeover: 'Changeover',
+  cooling: 'Cooling',
+};
+
+/** Up to 6 bead photos per joint (issue 5). */
+export const MAX_PHOTOS_PER_JOINT = 6;
+
+const idOf = (what: string) =>
+  z
+    .number({ error: (issue) => (issue.input === undefined || issue.input === null ? `Choose the ${what}.` : `The ${what} must be given by its number id.`) })
+    .int({ error: `The ${what} id must be a whole number.` })
+    .positive({ error: `Choose the ${what}.` });
+
+/** A measured number: required, a real number (not text), inside a plausible range. */
+const measured = (name: string, { min, max, unit }: { min: number; max: number; unit: string }) =>
+  z
+    .number({ error: (issue) => (issue.input === undefined || issue.input === null || issue.input === '' ? `Enter the ${name}.` : `${capital(name)} must be a number.`) })
+    .refine((v) => v >= min, { error: min === 0 ? `${capital(name)} cannot be negative.` : `${capital(name)} cannot be below ${min} ${unit}.` })
+    .refine((v) => v <= max, { error: `${capital(name)} is implausibly high (more than ${max} ${unit}); check the value.` });
+
+const optionalMeasured = (name: string, range: { min: number; max: number; unit: string }) => measured(name, range).nullable().optional();
+
+function capital(text: string): string {
+  return text.charAt(0).toUpperCase() + text.slice(1);
+}
+
+const optionalText = (name: string, max: number) =>
+  z
+    .string({ error: `${capital(name)} must be text.` })
+    .trim()
+    .max(max, { error: `${capital(name)} is too long (${max} characters at most).` })
+    .nullable()
+    .optional()
+    .transform((v) => (v ? v : null));
+
+const check = (question: string) => z.boolean({ error: `Answer: ${question}` });
+
+/** Fields shared by the device form and the server; see recordJointSchema. */
+const jointFields = {
+  /** Client-generated id (UUID) that makes a resubmission idempotent. */
+  clientId: z.uuid({ error: 'The submission id is missing or is not a UUID.' }),
+  jobId: idOf('job'),
+  kind: z.enum(JOINT_KINDS, { error: 'Choose what is joined: coil to coil, a tie-in or a fitting.' }),
+  /** Side A: our coil id, the coil label's URL or its F2897 traceability code. */
+  coilA: z.string({ error: 'Scan or type the coil on side A.' }).trim().min(1, { error: 'Scan or type the coil on side A.' }).max(200, { error: 'Coil A is too long to be a coil id or code.' }),
+  /** Side B for coil-to-coil joints. */
+  coilB: optionalText('coil B', 200),
+  /** Side B for tie-ins (the pipe in the ground) and fittings (what the fitting is). */
+  componentBText: optionalText('side B description', 200),
+  /** Pipe laid from each coil with this joint, m (drawn down from the coil's remaining length). */
+  lengthAM: optionalMeasured('length laid from coil A', { min: 0, max: 2000, unit: 'm' }),
+  lengthBM: optionalMeasured('length laid from coil B', { min: 0, max: 2000, unit: 'm' }),
+  machineId: idOf('fusion machine'),
+  heaterId: idOf('heater plate'),
+  dragPressureMpa: measured('drag pressure', { min: 0, max: 20, unit: 'MPa' }),
+  heaterTemperatureC: measured('heater temperature', { min: 0, max: 400, unit: '°C' }),
+  beadUpGaugeMpa: optionalMeasured('bead-up gauge pressure', { min: 0, max: 40, unit: 'MPa' }),
+  fusionGaugeMpa: measured('fusion gauge pressure', { min: 0, max: 40, unit: 'MPa' }),
+  beadMm: measured('bead size', { min: 0, max: 100, unit: 'mm' }),
+  heatSoakS: optionalMeasured('heat-soak time', { min: 0, max: 7200, unit: 's' }),
+  changeoverS: measured('changeover time', { min: 0, max: 600, unit: 's' }),
+  coolingS: measured('cooling time', { min: 0, max: 36_000, unit: 's' }),
+  /** Which durations came from the phase timer; the others were typed. */
+  timedFields: z.array(z.enum(TIMED_PHASES, { error: 'Unknown timed phase.' }), { error: 'Timed phases must be a list.' }).max(3).default([]),
+  station: optionalText('station', 120),
+  latitude: z.number({ error: 'Latitude must be a number.' }).min(-90, { error: 'Latitude must be −90 to 90.' }).max(90, { error: 'Latitude must be −90 to 90.' }).nullable().optional(),
+  longitude: z.number({ error: 'Longitude must be a number.' }).min(-180, { error: 'Longitude must be −180 to 180.' }).max(180, { error: 'Longitude must be −180 to 180.' }).nullable().optional(),
+  ambientC: measured('ambient temperature', { min: -50, max: 60, unit: '°C' }),
+  shelter: z.enum(SHELTERS, { error: 'Say what shelter there was (none, windbreak, tent, heated tent).' }),
+  facingOk: check('were both ends faced complete and square?'),
+  alignmentOk: check('did the alignment check pass (high-low within limits)?'),
+  beadRollbackOk: check('is the bead a uniform double roll-back?'),
+  vGrooveOk: check('is the V-groove between the beads not below the pipe surface?'),
+  /** The cut-out joint this one remakes. */
+  replacesJointId: idOf('joint this remakes').nullable().optional(),
+};
+
+type JointShape = {
+  kind: JointKind;
+  coilB?: string | null;
+  componentBText?: string | null;
+  lengthBM?: number | null;
+};
+
+/** Rules across fields: what side B is depends on the kind of joint. */
+function checkSides(value: JointShape, ctx: z.RefinementCtx): void {
+  if (value.kind === 'coil-to-coil') {
+    if (!value.coilB) ctx.addIssue({ code: 'custom', path: ['coilB'], message: 'Scan or type the coil on side B.' });
+  } else {
+    if (!value.componentBText) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['componentBText'],
+        message: value.kind === 'fitting' ? 'Say which fitting is on side B.' : 'Describe the pipe in the ground on side B.',
+      });
+    }
+    if (value.lengthBM) ctx.addIssue({ code: 'custom', path: ['lengthBM'], message: 'Only a coil-to-coil joint draws length from a second coil.' });
+  }
+}
+
+const formObject = z.object(jointFields);
+
+/**
+ * The device's form: everything but the moment of recording and the photo ids, which the
+ * device adds when the fuser taps "Record joint" (the photos upload first).
+ */
+export const recordJointFormSchema = formObject.superRefine(checkSides);
+export type RecordJointFormInput = z.input<typeof recordJointFormSchema>;
+export type RecordJointFormValues = z.output<typeof recordJointFormSchema>;
+
+/** One joint as recorded at the trench (server action and POST /api/v1/joints). */
+export const recordJointSchema = formObject
+  .extend({
+    /** When the joint was made, from the device (ISO 8601 with zone); offline joints keep it. */
+    madeAt: z.iso.datetime({ offset: true, error: 'When the joint was made must be an ISO date-time such as 2026-12-02T09:30:00Z.' }),
+    /** Uploaded bead photos (POST /api/v1/attachments), at most 6. */
+    photoIds: z
+      .array(z.number({ error: 'Photo ids must be numbers.' }).int().positive(), { error: 'Photo ids must be a list.' })
+      .max(MAX_PHOTOS_PER_JOINT, { error: `At most ${MAX_PHOTOS_PER_JOINT} photos per joint.` })
+      .default([]),
+  })
+  .superRefine(checkSides);
+export type RecordJointInput = z.output<typeof recordJointSchema>;
+export type RecordJointRawInput = z.input<typeof recordJointSchema>;
+
+/** GET /api/v1/fusion-plan: a pipe on a machine under the job's procedure. */
+export const fusionPlanQuerySchema = z
+  .object({
+    jobId: z.coerce.number({ error: 'Give the job id (jobId).' }).int().positive({ error: 'Give the job id (jobId).' }),
+    machineId: z.coerce.number({ error: 'Give the machine id (machineId).' }).int().positive({ error: 'Give the machine id (machineId).' }),
+    coil: z.string().trim().min(1).max(200).optional(),
+    outsideDiameterMm: z.coerce.number({ error: 'outsideDiameterMm must be a number.' }).positive({ error: 'outsideDiameterMm must be more than 0.' }).optional(),
+    sdr: z.coerce.number({ error: 'sdr must be a number.' }).gt(2, { error: 'sdr must be more than 2.' }).optional(),
+    dragPressureMpa: z.coerce.number({ error: 'dragPressureMpa must be a number.' }).min(0, { error: 'dragPressureMpa cannot be negative.' }).default(0),
+  })
+  .superRefine((v, ctx) => {
+    if (!v.coil && (v.outsideDiameterMm === undefined || v.sdr === undefined)) {
+      ctx.addIssue({ code: 'custom', path: ['coil'], message: 'Give a coil (coil) or the pipe size (outsideDiameterMm and sdr).' });
+    }
+  });
+export type FusionPlanQuery = z.output<typeof fusionPlanQuerySchema>;
+
+/** GET /api/v1/joints: a page of joints, newest first (keyset on made-at and id). */
+export const listJointsQuerySchema = z.object({
+  jobId: z.coerce.number().int().positive().optional(),
+  clientId: z.uuid({ error: 'clientId must be a UUID.' }).optional(),
+  mine: z.enum(['1', 'true', '0', 'false']).optional(),
+  limit: z.coerce.number({ error: 'limit must be a number.' }).int().min(1, { error: 'limit must be 1 to 200.' }).max(200, { error: 'limit must be 1 to 200.' }).default(50),
+  before: z.string().regex(/^\d+$/, { error: 'before must be a joint id.' }).optional(),
+});
+export type ListJointsQuery = z.output<typeof listJointsQuerySchema>;
+
+/** An inspector or admin clears a blocking warning (heater check overdue, coil quarantined or used up). */
+export const grantOverrideSchema = z.object({
+  jobId: idOf('job'),
+  subject: z.enum(['heater', 'coil'], { error: 'Say whether a heater plate or a coil is cleared.' }),
+  subjectId: idOf('heater plate or coil'),
+  reason: z.string({ error: 'Say why it is safe to go on.' }).trim().min(10, { error: 'Say why it is safe to go on (10 characters at least).' }).max(500, { error: 'The reason is too long (500 characters at most).' }),
+  /** How long the override holds, hours (1–24). */
+  hours: z.number({ error: 'Say for how many hours (1–24).' }).int({ error: 'Whole hours, 1–24.' }).min(1, { error: 'Whole hours, 1–24.' }).max(24, { error: 'Whole hours, 1–24.' }).default(12),
+});
+export type GrantOverrideInput = z.output<typeof grantOverrideSchema>;

@@ -1,0 +1,101 @@
+// Procedure versions on the office side: turning the Procedures form (values in the
+// person's units) into the domain's ProcedureTightening (canonical SI), mapping the
+// domain's refusals back to form fields, and reading a stored definition.
+// The tightening rules themselves (only narrowing, never loosening) are deriveProcedure's.
+import {
+  deriveProcedure,
+  isFusionStandard,
+  type DeriveProcedureResult,
+  type ProcedureDefinition,
+  type ProcedureTightening,
+} from '@/domain/fusion/procedures';
+import { fromDisplay, type UnitSystem } from '@/domain/units/format';
+import { TIGHTENING_FIELDS, TIGHTENING_FORM_FIELDS, type TighteningFormField, type TightenProcedureInput } from '@/domain/office/schemas';
+
+/** Form values (person's units) → ProcedureTightening in °C, MPa, mm, s. */
+export function tighteningFromForm(input: Pick<TightenProcedureInput, TighteningFormField | 'units'>): ProcedureTightening {
+  const out: Record<string, Record<string, number>> = {};
+  for (const key of TIGHTENING_FORM_FIELDS) {
+    const raw = input[key];
+    if (raw === undefined || raw === null) continue;
+    const value = raw as number;
+    const field = TIGHTENING_FIELDS[key];
+    const [group, part] = field.path.split('.') as [string, string];
+    let si: number;
+    switch (field.kind) {
+      case 'factor':
+        si = value;
+        break;
+      case 'minutes':
+        si = value * 60;
+        break;
+      default:
+        si = fromDisplay(value, field.kind, input.units as UnitSystem);
+    }
+    (out[group] ??= {})[part] = si;
+  }
+  return out as ProcedureTightening;
+}
+
+/** The form field a domain refusal belongs to ('heaterTemperatureC.min' → 'heaterMin'); '_form' otherwise. */
+export function formFieldForTighteningError(domainField: string): TighteningFormField | '_form' {
+  for (const key of TIGHTENING_FORM_FIELDS) {
+    const path = TIGHTENING_FIELDS[key].path;
+    if (path === domainField) return key;
+  }
+  // Whole-window errors ("minimum above maximum") are shown on the window's minimum field.
+  for (const key of TIGHTENING_FORM_FIELDS) {
+    if (TIGHTENING_FIELDS[key].path.split('.')[0] === domainField) return key;
+  }
+  return '_form';
+}
+
+export type TightenOutcome =
+  | { ok: true; definition: ProcedureDefinition }
+  | { ok: false; fields: Record<string, string[]> };
+
+/**
+ * Tighten `base` with the form's values through deriveProcedure (which refuses any
+ * loosening); refusals come back per form field, in the person's units.
+ */
+export function tightenFromForm(
+  base: ProcedureDefinition,
+  input: TightenProcedureInput,
+  context: { procedureCode: string; versionNo: number },
+): TightenOutcome {
+  const result: DeriveProcedureResult = deriveProcedure(base, tighteningFromForm(input), {
+    label: input.label ?? `${base.label.replace(/ \(tightened\)$/, '')} — ${context.procedureCode} version ${context.versionNo}`,
+    notes: [input.note],
+    system: input.units,
+    source: `Operator procedure ${context.procedureCode} version ${context.versionNo}`,
+  });
+  if (result.ok) return { ok: true, definition: result.procedure };
+  const fields: Record<string, string[]> = {};
+  for (const error of result.errors) (fields[formFieldForTighteningError(error.field)] ??= []).push(error.message);
+  return { ok: false, fields };
+}
+
+/**
+ * Read a stored definition (JSON text). Checks the shape the screens and the plan rely on;
+ * returns a result so a damaged row shows as a message instead of a crash.
+ */
+export function readProcedureDefinition(json: string): { ok: true; definition: ProcedureDefinition } | { ok: false; message: string } {
+  let value: unknown;
+  try {
+    value = JSON.parse(json);
+  } catch {
+    return { ok: false, message: 'The stored procedure definition is not valid JSON.' };
+  }
+  const d = value as Partial<ProcedureDefinition> | null;
+  if (!d || typeof d !== 'object' || !isFusionStandard(d.standard) || typeof d.label !== 'string' || !d.windows || !Array.isArray(d.notes)) {
+    return { ok: false, message: 'The stored procedure definition lacks its standard, label, windows or notes.' };
+  }
+  const w = d.windows;
+  for (const key of ['heaterTemperatureC', 'beadUpInterfacialPressureMpa', 'fusionInterfacialPressureMpa'] as const) {
+    const window = w[key];
+    if (!window || typeof window.min !== 'number' || typeof window.max !== 'number') {
+      return { ok: false, message: `The stored procedure definition has no ${key} window.` };
+    }
+  }
+  return { ok: true, definition: d as ProcedureDefinition };
+}

@@ -1,0 +1,121 @@
+// Checking a pressure trace like typed values: the durations and pressures the trace
+// reader finds (domain/pressure-trace) go through the same joint check (domain/fusion)
+// against the joint's own plan, and the plan's windows are laid out on the trace's time
+// axis for the chart.
+import { checkJoint, type JointFinding, type JointMeasurements, type JointOutcome, type JointParameter } from "@/domain/fusion/check";
+import type { FusionPlan } from "@/domain/fusion/plan";
+import type { PressureSample } from "@/domain/pressure-trace/parse";
+import { measurementsFromTraceReading, type PressureTraceReading } from "@/domain/pressure-trace/read";
+import type { UnitSystem } from "@/domain/units/format";
+import type { RecordedValues } from "@/domain/review/queue";
+
+/** The joint's typed values as the joint check takes them. */
+export function measurementsFromRecorded(recorded: RecordedValues): JointMeasurements {
+  return {
+    heaterTemperatureC: recorded.heaterTemperatureC,
+    fusionGaugePressureMpa: recorded.fusionGaugeMpa,
+    beadMm: recorded.beadMm,
+    changeoverS: recorded.changeoverS,
+    coolingS: recorded.coolingS,
+    heatSoakS: recorded.heatSoakS,
+    beadUpGaugePressureMpa: recorded.beadUpGaugeMpa,
+  };
+}
+
+export type TraceCheck = {
+  outcome: JointOutcome;
+  /** Findings on the values the trace gives (its durations, pressures and, when logged, heater temperature). */
+  findings: JointFinding[];
+  /** Parameters the trace was checked on. */
+  parameters: JointParameter[];
+};
+
+/**
+ * Check a trace reading against the joint's plan. The trace's values replace the typed
+ * ones for the parameters it measures; bead size and the visual checks cannot come from a
+ * trace, so only findings on trace parameters are returned. Heater temperature is checked
+ * only when the file had that column. Messages in `system` units.
+ */
+export function checkTraceReading(plan: FusionPlan, reading: PressureTraceReading, recorded: RecordedValues, system: UnitSystem = "si"): TraceCheck {
+  const fromTrace = measurementsFromTraceReading(reading);
+  const merged: JointMeasurements = { ...measurementsFromRecorded(recorded), ...fromTrace };
+  const parameters: JointParameter[] = ["beadUpPressure", "heatSoak", "changeover", "pressureBuildUp", "fusionPressure", "cooling"];
+  if (reading.heaterTemperatureC !== null) parameters.unshift("heaterTemperature");
+  const check = checkJoint(plan, merged, { system });
+  const findings = check.findings.filter((f) => parameters.includes(f.parameter));
+  return { outcome: findings.length ? "out-of-limits" : "within-limits", findings, parameters };
+}
+
+export type TraceValueRow = { key: string; label: string; kind: "duration" | "pressure" | "temperature"; typed: number | null; trace: number | null };
+
+/** Typed value next to the trace's value, per parameter the trace gives (canonical SI). */
+export function traceVersusTyped(reading: PressureTraceReading, recorded: RecordedValues): TraceValueRow[] {
+  const rows: TraceValueRow[] = [
+    { key: "heatSoak", label: "Heat soak", kind: "duration", typed: recorded.heatSoakS, trace: reading.heatSoakS },
+    { key: "changeover", label: "Changeover", kind: "duration", typed: recorded.changeoverS, trace: reading.changeoverS },
+    { key: "pressureBuildUp", label: "Pressure build-up", kind: "duration", typed: null, trace: reading.pressureBuildUpS },
+    { key: "cooling", label: "Cooling under pressure", kind: "duration", typed: recorded.coolingS, trace: reading.coolingS },
+    { key: "beadUpPressure", label: "Bead-up gauge pressure", kind: "pressure", typed: recorded.beadUpGaugeMpa, trace: reading.beadUpGaugePressureMpa },
+    { key: "fusionPressure", label: "Fusion gauge pressure", kind: "pressure", typed: recorded.fusionGaugeMpa, trace: reading.fusionGaugePressureMpa },
+  ];
+  if (reading.heaterTemperatureC !== null) rows.unshift({ key: "heaterTemperature", label: "Heater temperature", kind: "temperature", typed: recorded.heaterTemperatureC, trace: reading.heaterTemperatureC });
+  return rows;
+}
+
+export type ChartPoint = { t: number; p: number; c?: number };
+
+/**
+ * At most `maxPoints` chart points from a trace: the samples are cut into equal buckets and
+ * each bucket keeps its lowest and highest pressure in time order, so steps and spikes stay
+ * visible (a plain "every n-th sample" would drop them). Times s, pressure MPa.
+ */
+export function downsampleTrace(samples: readonly PressureSample[], maxPoints = 1200): ChartPoint[] {
+  const point = (s: PressureSample): ChartPoint => (s.heaterTemperatureC === undefined ? { t: s.seconds, p: s.gaugePressureMpa } : { t: s.seconds, p: s.gaugePressureMpa, c: s.heaterTemperatureC });
+  if (samples.length <= maxPoints) return samples.map(point);
+  const buckets = Math.max(1, Math.floor(maxPoints / 2));
+  const size = samples.length / buckets;
+  const out: ChartPoint[] = [];
+  for (let b = 0; b < buckets; b += 1) {
+    const slice = samples.slice(Math.floor(b * size), Math.floor((b + 1) * size));
+    if (slice.length === 0) continue;
+    let lo = slice[0]!;
+    let hi = slice[0]!;
+    for (const s of slice) {
+      if (s.gaugePressureMpa < lo.gaugePressureMpa) lo = s;
+      if (s.gaugePressureMpa > hi.gaugePressureMpa) hi = s;
+    }
+    const pair = lo.seconds <= hi.seconds ? [lo, hi] : [hi, lo];
+    out.push(point(pair[0]!));
+    if (pair[1] !== pair[0]) out.push(point(pair[1]!));
+  }
+  return out;
+}
+
+export type ChartBand = { key: string; label: string; x1: number; x2: number; y1: number; y2: number };
+export type ChartMarker = { key: string; label: string; x: number };
+export type ChartTimeZone = { key: string; label: string; x1: number; x2: number };
+
+/**
+ * The plan's windows on the trace's time axis (s, MPa): pressure windows as bands over the
+ * phase they govern, time limits as markers measured from the phase start the trace shows
+ * (heat-soak window from the end of bead-up, changeover limit from the start of
+ * changeover, cooling minimum from the end of the build-up).
+ */
+export function planWindowsOnTrace(plan: FusionPlan, reading: PressureTraceReading): { bands: ChartBand[]; markers: ChartMarker[]; zones: ChartTimeZone[] } {
+  const { beadUp, heatSoak, changeover, fusion } = reading.phases;
+  const buildUpEnd = fusion.startS + reading.pressureBuildUpS;
+  const bands: ChartBand[] = [
+    { key: "beadUp", label: "Bead-up pressure window", x1: beadUp.startS, x2: beadUp.endS, y1: plan.beadUpGaugePressureMpa.min, y2: plan.beadUpGaugePressureMpa.max },
+    { key: "fusion", label: "Fusion pressure window", x1: buildUpEnd, x2: fusion.endS, y1: plan.fusionGaugePressureMpa.min, y2: plan.fusionGaugePressureMpa.max },
+  ];
+  const markers: ChartMarker[] = [];
+  const zones: ChartTimeZone[] = [];
+  if (plan.heatSoakS && plan.heatSoakS.min !== null && plan.heatSoakS.max !== null) {
+    zones.push({ key: "heatSoak", label: "Heat soak window", x1: heatSoak.startS + plan.heatSoakS.min, x2: heatSoak.startS + plan.heatSoakS.max });
+  } else if (plan.heatSoakS?.min != null) {
+    markers.push({ key: "heatSoakMin", label: "Heat soak minimum", x: heatSoak.startS + plan.heatSoakS.min });
+  }
+  if (plan.maxChangeoverS !== null) markers.push({ key: "changeoverMax", label: "Changeover limit", x: changeover.startS + plan.maxChangeoverS });
+  if (plan.minCoolingS !== null) markers.push({ key: "coolingMin", label: "Cooling minimum", x: buildUpEnd + plan.minCoolingS });
+  return { bands, markers, zones };
+}
