@@ -1,0 +1,450 @@
+// Coils: receipt, status, length remaining and the event history of each coil. Lengths in
+// m (DECIMAL(9,2) in the table), diameters in mm. The trench's record-joint transaction
+// calls drawDownCoil for each coil a joint lays pipe from.
+import type { Knex } from "knex";
+import { planPull, readScannedCoilText, type CoilStatus, type DamageKind, type TraceCodeFlag } from "@/domain/coil-life/rules";
+import type { PipeSeries } from "@/domain/pipe/catalogue";
+import { AppError } from "@/domain/result";
+import type { UnitSystem } from "@/domain/units/format";
+import { conn, type Db } from "../client";
+import { insertAuditEntry } from "./audit-log";
+
+export type CoilInspection = {
+  hasDamage: boolean;
+  damageKinds: DamageKind[];
+  damageNotes: string | null;
+  gougeDepthMm: number | null;
+  gougeLimitPct: number | null;
+  ovalityPct: number | null;
+  ovalityLimitPct: number | null;
+  endCapsInPlace: boolean;
+  passed: boolean;
+  receivedById: number | null;
+  receivedByName: string | null;
+  receivedAt: Date;
+};
+
+export type Coil = {
+  id: number;
+  coilCode: string;
+  manufacturer: string;
+  manufacturerCode: string | null;
+  lot: string;
+  /** 'YYYY-MM-DD' or null. */
+  productionDate: string | null;
+  material: string;
+  series: PipeSeries;
+  nominalSize: string;
+  outsideDiameterMm: number;
+  sdr: number;
+  lengthM: number;
+  remainingM: number;
+  printLine: string | null;
+  traceCode: string | null;
+  traceCodeFlags: TraceCodeFlag[];
+  status: CoilStatus;
+  statusReason: string | null;
+  crewId: number | null;
+  crewName: string | null;
+  trailer: string | null;
+  jobId: number | null;
+  jobCode: string | null;
+  jobName: string | null;
+  inspection: CoilInspection;
+  labelPrintedAt: Date | null;
+  version: number;
+};
+
+type CoilRow = Record<string, unknown> & {
+  id: number;
+  coil_code: string;
+  status: CoilStatus;
+};
+
+/** DATE column (a Date at UTC midnight with timezone Z, or a string) → 'YYYY-MM-DD'. */
+export function isoDay(value: unknown): string | null {
+  if (value == null) return null;
+  if (value instanceof Date) return value.toISOString().slice(0, 10);
+  return String(value).slice(0, 10);
+}
+
+const num = (v: unknown): number | null => (v == null ? null : Number(v));
+
+function parseFlags(text: unknown): TraceCodeFlag[] {
+  if (typeof text !== "string" || !text) return [];
+  try {
+    const parsed = JSON.parse(text) as unknown;
+    return Array.isArray(parsed) ? (parsed as TraceCodeFlag[]) : [];
+  } catch {
+    return [];
+  }
+}
+
+export function toCoil(row: CoilRow): Coil {
+  return {
+    id: Number(row.id),
+    coilCode: row.coil_code,
+    manufacturer: row.manufacturer as string,
+    manufacturerCode: (row.manufacturer_code as string | null) ?? null,
+    lot: row.lot as string,
+    productionDate: isoDay(row.production_date),
+    material: row.material as string,
+    series: row.series as PipeSeries,
+    nominalSize: row.nominal_size as string,
+    outsideDiameterMm: Number(row.outside_diameter_mm),
+    sdr: Number(row.sdr),
+    lengthM: Number(row.length_m),
+    remainingM: Number(row.remaining_m),
+    printLine: (row.print_line as string | null) ?? null,
+    traceCode: (row.trace_code as string | null) ?? null,
+    traceCodeFlags: parseFlags(row.trace_code_flags),
+    status: row.status,
+    statusReason: (row.status_reason as string | null) ?? null,
+    crewId: num(row.crew_id),
+    crewName: (row.crew_name as string | null) ?? null,
+    trailer: (row.crew_trailer as string | null) ?? null,
+    jobId: num(row.job_id),
+    jobCode: (row.job_code as string | null) ?? null,
+    jobName: (row.job_name as string | null) ?? null,
+    inspection: {
+      hasDamage: Boolean(row.has_damage),
+      damageKinds: String(row.damage_kinds ?? "")
+        .split(",")
+        .filter(Boolean) as DamageKind[],
+      damageNotes: (row.damage_notes as string | null) ?? null,
+      gougeDepthMm: num(row.gouge_depth_mm),
+      gougeLimitPct: num(row.gouge_limit_pct),
+      ovalityPct: num(row.ovality_pct),
+      ovalityLimitPct: num(row.ovality_limit_pct),
+      endCapsInPlace: Boolean(row.end_caps_in_place),
+      passed: Boolean(row.inspection_passed),
+      receivedById: num(row.received_by),
+      receivedByName: (row.received_by_name as string | null) ?? null,
+      receivedAt: row.received_at as Date,
+    },
+    labelPrintedAt: (row.label_printed_at as Date | null) ?? null,
+    version: Number(row.version),
+  };
+}
+
+function coilQuery(trx?: Db) {
+  return conn(trx)("coils")
+    .leftJoin("crews", "crews.id", "coils.crew_id")
+    .leftJoin("jobs", "jobs.id", "coils.job_id")
+    .leftJoin("users as receiver", "receiver.id", "coils.received_by")
+    .select("coils.*", "crews.name as crew_name", "crews.trailer as crew_trailer", "jobs.code as job_code", "jobs.name as job_name", "receiver.name as received_by_name");
+}
+
+export async function findCoilById({ id }: { id: number }, trx?: Db): Promise<Coil | null> {
+  const row = (await coilQuery(trx).where("coils.id", id).first()) as CoilRow | undefined;
+  return row ? toCoil(row) : null;
+}
+
+export async function findCoilByCode({ coilCode }: { coilCode: string }, trx?: Db): Promise<Coil | null> {
+  const row = (await coilQuery(trx).where("coils.coil_code", coilCode.trim()).first()) as CoilRow | undefined;
+  return row ? toCoil(row) : null;
+}
+
+/** Every coil carrying this F2897 code (one lot of one size: several coils can share it). */
+export async function listCoilsByTraceCode({ traceCode }: { traceCode: string }, trx?: Db): Promise<Coil[]> {
+  // The column's collation ignores case, but F2897 codes are case-sensitive: compare bytes too.
+  const rows = (await coilQuery(trx).where("coils.trace_code", traceCode).whereRaw("BINARY coils.trace_code = ?", [traceCode]).orderBy("coils.id")) as CoilRow[];
+  return rows.map(toCoil);
+}
+
+const STATUS_PREFERENCE: Record<CoilStatus, number> = { "in-use": 0, "on-trailer": 1, "in-yard": 2, "used-up": 3, quarantined: 4 };
+
+/**
+ * The coil a scanned or typed text names: our coil id, a URL ending in /coils/<code> (the
+ * label's QR), or an F2897 16-character code. A code shared by several coils of one lot
+ * picks the coil most likely at the trench: the preferred crew's first, then in use, on a
+ * trailer, in the yard (used-up and quarantined last, so the caller can refuse them by
+ * status), then the lowest id. null when nothing matches.
+ */
+export async function findCoilByCodeOrTrace({ code, preferCrewId }: { code: string; preferCrewId?: number | null }, trx?: Db): Promise<Coil | null> {
+  const scanned = readScannedCoilText(code);
+  if (scanned.kind === "empty") return null;
+  const byCode = await findCoilByCode({ coilCode: scanned.code }, trx);
+  if (byCode || scanned.kind === "coil-code") return byCode;
+  const candidates = await listCoilsByTraceCode({ traceCode: scanned.code }, trx);
+  candidates.sort(
+    (a, b) =>
+      Number(preferCrewId != null && b.crewId === preferCrewId) - Number(preferCrewId != null && a.crewId === preferCrewId) ||
+      STATUS_PREFERENCE[a.status] - STATUS_PREFERENCE[b.status] ||
+      a.id - b.id,
+  );
+  return candidates[0] ?? null;
+}
+
+export type CoilListFilter = { status?: CoilStatus | "all"; search?: string; limit?: number };
+
+/** Coils for the list screen, newest received first; `search` matches coil id, lot or code. */
+export async function listCoils({ status = "all", search, limit = 200 }: CoilListFilter = {}, trx?: Db): Promise<Coil[]> {
+  const q = coilQuery(trx).orderBy("coils.received_at", "desc").orderBy("coils.id", "desc").limit(limit);
+  if (status !== "all") q.where("coils.status", status);
+  const text = search?.trim();
+  if (text) {
+    q.where((w) => {
+      w.where("coils.coil_code", "like", `%${escapeLike(text)}%`).orWhere("coils.lot", text).orWhere("coils.trace_code", text);
+    });
+  }
+  return ((await q) as CoilRow[]).map(toCoil);
+}
+
+export function escapeLike(text: string): string {
+  return text.replace(/[\\%_]/g, (c) => `\\${c}`);
+}
+
+/** Coils by status, for the list screen's tabs. */
+export async function countCoilsByStatus(_: Record<string, never> = {}, trx?: Db): Promise<Record<CoilStatus, number>> {
+  const rows = (await conn(trx)("coils").select("status").count({ n: "*" }).groupBy("status")) as { status: CoilStatus; n: number }[];
+  const counts: Record<CoilStatus, number> = { "in-yard": 0, "on-trailer": 0, "in-use": 0, "used-up": 0, quarantined: 0 };
+  for (const row of rows) counts[row.status] = Number(row.n);
+  return counts;
+}
+
+/** Suggested id for the next coil: the highest id of the latest coil's pattern, plus one. */
+export async function latestCoilCode(_: Record<string, never> = {}, trx?: Db): Promise<string | null> {
+  const row = (await conn(trx)("coils").select("coil_code").orderBy("id", "desc").first()) as { coil_code: string } | undefined;
+  return row?.coil_code ?? null;
+}
+
+/** Pipe makers already on file with their F2897 ids, for the receipt form. */
+export async function listKnownManufacturers(_: Record<string, never> = {}, trx?: Db): Promise<{ name: string; code: string | null }[]> {
+  const rows = (await conn(trx)("coils").distinct("manufacturer", "manufacturer_code").orderBy("manufacturer")) as { manufacturer: string; manufacturer_code: string | null }[];
+  return rows.map((r) => ({ name: r.manufacturer, code: r.manufacturer_code }));
+}
+
+/** Crews (with their trailers) and open jobs, for the status-move form. */
+export async function listCoilMoveOptions(_: Record<string, never> = {}, trx?: Db): Promise<{ crews: { id: number; name: string; trailer: string | null }[]; jobs: { id: number; code: string; name: string }[] }> {
+  const k = conn(trx);
+  const crews = (await k("crews").select("id", "name", "trailer").where("is_active", true).orderBy("name")) as { id: number; name: string; trailer: string | null }[];
+  const jobs = (await k("jobs").select("id", "code", "name").where("status", "open").orderBy("code")) as { id: number; code: string; name: string }[];
+  return { crews: crews.map((c) => ({ ...c, id: Number(c.id) })), jobs: jobs.map((j) => ({ ...j, id: Number(j.id) })) };
+}
+
+export type NewCoil = {
+  coilCode: string;
+  manufacturer: string;
+  manufacturerCode: string | null;
+  lot: string;
+  productionDate: string | null;
+  material: string;
+  series: PipeSeries;
+  nominalSize: string;
+  outsideDiameterMm: number;
+  sdr: number;
+  lengthM: number;
+  printLine: string | null;
+  traceCode: string | null;
+  traceCodeFlags: TraceCodeFlag[];
+  damageKinds: DamageKind[];
+  damageNotes: string | null;
+  gougeDepthMm: number | null;
+  gougeLimitPct: number;
+  ovalityPct: number | null;
+  ovalityLimitPct: number;
+  endCapsInPlace: boolean;
+  inspectionPassed: boolean;
+  /** Set when the inspection failed: why the coil is quarantined. */
+  quarantineReason: string | null;
+  receivedBy: number;
+  receivedAt?: Date;
+};
+
+/**
+ * Inserts a received coil (in the yard, or quarantined when its inspection failed) with
+ * its first coil event. Inside the caller's transaction. A duplicate coil id → conflict.
+ */
+export async function insertCoil(coil: NewCoil, trx: Db): Promise<number> {
+  const status: CoilStatus = coil.inspectionPassed ? "in-yard" : "quarantined";
+  let id: number;
+  try {
+    const [inserted] = await trx("coils").insert({
+      coil_code: coil.coilCode,
+      manufacturer: coil.manufacturer,
+      manufacturer_code: coil.manufacturerCode,
+      lot: coil.lot,
+      production_date: coil.productionDate,
+      material: coil.material,
+      series: coil.series,
+      nominal_size: coil.nominalSize,
+      outside_diameter_mm: coil.outsideDiameterMm,
+      sdr: coil.sdr,
+      length_m: coil.lengthM,
+      remaining_m: coil.lengthM,
+      print_line: coil.printLine,
+      trace_code: coil.traceCode,
+      trace_code_flags: coil.traceCodeFlags.length ? JSON.stringify(coil.traceCodeFlags) : null,
+      status,
+      status_reason: coil.quarantineReason,
+      has_damage: coil.damageKinds.length > 0 || (coil.gougeDepthMm ?? 0) > 0,
+      damage_kinds: coil.damageKinds.length ? coil.damageKinds.join(",") : null,
+      damage_notes: coil.damageNotes,
+      gouge_depth_mm: coil.gougeDepthMm,
+      gouge_limit_pct: coil.gougeLimitPct,
+      ovality_pct: coil.ovalityPct,
+      ovality_limit_pct: coil.ovalityLimitPct,
+      end_caps_in_place: coil.endCapsInPlace,
+      inspection_passed: coil.inspectionPassed,
+      received_by: coil.receivedBy,
+      ...(coil.receivedAt ? { received_at: coil.receivedAt } : {}),
+    });
+    id = Number(inserted);
+  } catch (error) {
+    if ((error as { code?: string })?.code === "ER_DUP_ENTRY") {
+      throw new AppError("conflict", `Coil id ${coil.coilCode} is already on file; choose another id.`, { coilCode: [`Coil id ${coil.coilCode} is already on file.`] });
+    }
+    throw error;
+  }
+  await trx("coil_events").insert({
+    coil_id: id,
+    by_user_id: coil.receivedBy,
+    from_status: null,
+    to_status: status,
+    reason: coil.quarantineReason ?? "Received",
+    remaining_m: coil.lengthM,
+  });
+  return id;
+}
+
+/** Locks a coil row for the rest of the transaction (SELECT … FOR UPDATE). */
+export async function lockCoil({ id }: { id: number }, trx: Knex.Transaction): Promise<Coil | null> {
+  const locked = await trx("coils").select("id").where("id", id).forUpdate().first();
+  if (!locked) return null;
+  return findCoilById({ id }, trx);
+}
+
+/**
+ * Moves a locked coil to a status (the caller has checked the move against the domain
+ * rules and the version), bumps its version and writes the coil event. On trailer keeps
+ * the crew; in the yard clears crew and job.
+ */
+export async function updateCoilStatus(
+  { coil, to, reason, crewId, jobId, userId }: { coil: Coil; to: CoilStatus; reason: string | null; crewId?: number | null; jobId?: number | null; userId: number },
+  trx: Db,
+): Promise<void> {
+  const patch: Record<string, unknown> = { status: to, status_reason: reason, version: coil.version + 1 };
+  if (to === "in-yard") Object.assign(patch, { crew_id: null, job_id: null });
+  if (to === "on-trailer") Object.assign(patch, { crew_id: crewId ?? coil.crewId, job_id: null });
+  if (to === "in-use") Object.assign(patch, { job_id: jobId ?? coil.jobId, ...(crewId ? { crew_id: crewId } : {}) });
+  const changed = await trx("coils").where({ id: coil.id, version: coil.version }).update(patch);
+  if (changed !== 1) throw new AppError("conflict", `${coil.coilCode} was changed by someone else; reload the page and try again.`);
+  await trx("coil_events").insert({
+    coil_id: coil.id,
+    by_user_id: userId,
+    from_status: coil.status,
+    to_status: to,
+    reason,
+    job_id: (patch.job_id as number | null | undefined) ?? coil.jobId,
+    crew_id: (patch.crew_id as number | null | undefined) ?? coil.crewId,
+    remaining_m: coil.remainingM,
+  });
+}
+
+export type DrawDownResult = { coilId: number; coilCode: string; pulledM: number; remainingM: number; status: CoilStatus; fromStatus: CoilStatus };
+
+/**
+ * Draws a pull recorded at the trench off a coil, inside the caller's transaction: locks
+ * the coil row FOR UPDATE, refuses a pull that is not positive, longer than what is left
+ * ("LV-C0001 has only 12.0 m left; the pull of 20.0 m is longer"), or from a quarantined or
+ * used-up coil — AppError("invalid", message, { [field]: [message] }), `field` defaulting
+ * to "pullM" — then subtracts (never below 0), sets the coil in use (used up at 0), takes
+ * the joint's job when the coil had none, and writes a coil_events row with the pull, the
+ * length left and the joint. The audit entry is the caller's (the joint record).
+ */
+export async function drawDownCoil(
+  {
+    coilId,
+    pullM,
+    jointId,
+    userId,
+    jobId,
+    field = "pullM",
+    unitSystem = "si",
+  }: { coilId: number; pullM: number; jointId?: number | null; userId: number; jobId?: number | null; field?: string; unitSystem?: UnitSystem },
+  trx: Knex.Transaction,
+): Promise<DrawDownResult> {
+  const coil = await lockCoil({ id: coilId }, trx);
+  if (!coil) throw new AppError("invalid", `Coil ${coilId} is not on file.`, { [field]: [`Coil ${coilId} is not on file.`] });
+  const plan = planPull(coil, pullM, unitSystem);
+  if (!plan.ok) throw new AppError("invalid", plan.message, { [field]: [plan.message] });
+  let useJobId = jobId ?? null;
+  if (useJobId == null && jointId != null) {
+    const joint = (await trx("joints").select("job_id").where("id", jointId).first()) as { job_id: number } | undefined;
+    useJobId = joint ? Number(joint.job_id) : null;
+  }
+  const patch: Record<string, unknown> = { remaining_m: plan.remainingM, status: plan.status, version: coil.version + 1 };
+  if (coil.jobId == null && useJobId != null) patch.job_id = useJobId;
+  patch.status_reason = plan.isUsedUp ? "All of the coil has been laid" : null;
+  await trx("coils").where({ id: coil.id }).update(patch);
+  await trx("coil_events").insert({
+    coil_id: coil.id,
+    by_user_id: userId,
+    from_status: coil.status,
+    to_status: plan.status,
+    reason: jointId != null ? `Pulled ${pullM.toFixed(2)} m for joint ${jointId}` : `Pulled ${pullM.toFixed(2)} m`,
+    job_id: useJobId ?? coil.jobId,
+    crew_id: coil.crewId,
+    pull_m: Math.round(pullM * 100) / 100,
+    remaining_m: plan.remainingM,
+    joint_id: jointId ?? null,
+  });
+  return { coilId: coil.id, coilCode: coil.coilCode, pulledM: Math.round(pullM * 100) / 100, remainingM: plan.remainingM, status: plan.status, fromStatus: coil.status };
+}
+
+export type CoilEvent = {
+  id: number;
+  at: Date;
+  byUserId: number | null;
+  byUserName: string | null;
+  fromStatus: CoilStatus | null;
+  toStatus: CoilStatus;
+  reason: string | null;
+  pullM: number | null;
+  remainingM: number | null;
+  jointId: number | null;
+  jointNo: number | null;
+  jobCode: string | null;
+  crewName: string | null;
+};
+
+/** The history of a coil, newest first: receipt, moves and each pull with the joint it went into. */
+export async function listCoilEvents({ coilId, limit = 200 }: { coilId: number; limit?: number }, trx?: Db): Promise<CoilEvent[]> {
+  const rows = (await conn(trx)("coil_events as e")
+    .leftJoin("users as u", "u.id", "e.by_user_id")
+    .leftJoin("joints as j", "j.id", "e.joint_id")
+    .leftJoin("jobs as jb", "jb.id", "e.job_id")
+    .leftJoin("crews as c", "c.id", "e.crew_id")
+    .select("e.*", "u.name as by_user_name", "j.joint_no", "jb.code as job_code", "c.name as crew_name")
+    .where("e.coil_id", coilId)
+    .orderBy("e.at", "desc")
+    .orderBy("e.id", "desc")
+    .limit(limit)) as Record<string, unknown>[];
+  return rows.map((r) => ({
+    id: Number(r.id),
+    at: r.at as Date,
+    byUserId: num(r.by_user_id),
+    byUserName: (r.by_user_name as string | null) ?? null,
+    fromStatus: (r.from_status as CoilStatus | null) ?? null,
+    toStatus: r.to_status as CoilStatus,
+    reason: (r.reason as string | null) ?? null,
+    pullM: num(r.pull_m),
+    remainingM: num(r.remaining_m),
+    jointId: num(r.joint_id),
+    jointNo: num(r.joint_no),
+    jobCode: (r.job_code as string | null) ?? null,
+    crewName: (r.crew_name as string | null) ?? null,
+  }));
+}
+
+/** Stamps label_printed_at (now) on coils whose label was printed or downloaded, with an audit entry each. */
+export async function markCoilLabelsPrinted({ coilIds, userId, requestId, how }: { coilIds: number[]; userId: number; requestId?: string | null; how: "print" | "png" | "svg" }, trx: Db): Promise<number> {
+  if (!coilIds.length) return 0;
+  const ids = [...new Set(coilIds)];
+  const changed = await trx("coils").whereIn("id", ids).update({ label_printed_at: trx.fn.now(3) });
+  for (const id of ids) {
+    await insertAuditEntry({ actorUserId: userId, action: "coil-label-printed", entityType: "coil", entityId: id, details: { how }, requestId }, trx);
+  }
+  return Number(changed);
+}
