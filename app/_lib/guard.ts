@@ -8,7 +8,7 @@ import { isDatabaseUnavailable } from "@/database/client";
 import type { UserRecord } from "@/database/queries/users";
 import { hasAnyRole, type Role } from "@/domain/roles";
 import { AppError, STATUS_FOR_CODE, describeFieldErrors, failure, fieldErrorsFromIssues, type ActionResult, type ErrorCode, type FieldErrors } from "@/domain/result";
-import { logger } from "./log";
+import { requestLogger } from "./log";
 import { SESSION_COOKIE, cookieFromHeader, userFromSealedCookie } from "./session";
 
 /** Who may call: a list of roles (any one suffices), or any signed-in person. */
@@ -23,10 +23,10 @@ function allowed(user: UserRecord, audience: Audience): boolean {
 function failureFromError(error: unknown, requestId: string): { code: ErrorCode; message: string; fields?: FieldErrors } {
   if (error instanceof AppError) return { code: error.code, message: error.message, fields: error.fields };
   if (isDatabaseUnavailable(error)) {
-    logger.warn({ requestId, err: String((error as Error)?.message ?? error) }, "database unavailable");
+    requestLogger(requestId).warn({ err: String((error as Error)?.message ?? error) }, "database unavailable");
     return { code: "unavailable", message: "Beadline cannot reach its database right now. Nothing was saved; try again in a moment." };
   }
-  logger.error({ requestId, err: error instanceof Error ? { message: error.message, stack: error.stack } : String(error) }, "unexpected error");
+  requestLogger(requestId).error({ err: error instanceof Error ? { message: error.message, stack: error.stack } : String(error) }, "unexpected error");
   return { code: "internal", message: "Something went wrong on the server. Nothing was saved." };
 }
 
@@ -40,22 +40,29 @@ export function defineAction<S extends ZodType, R>(
 ): (raw: z.input<S> | unknown) => Promise<ActionResult<R>> {
   return async (raw) => {
     const requestId = randomUUID();
+    const started = Date.now();
+    let userId: number | null = null;
+    const done = <T extends ActionResult<R>>(result: T): T => {
+      requestLogger(requestId).info({ kind: "action", userId, ok: result.ok, code: result.ok ? undefined : result.code, ms: Date.now() - started }, "server action");
+      return result;
+    };
     try {
       const store = await cookies();
       const user = await userFromSealedCookie(store.get(SESSION_COOKIE)?.value);
-      if (!user) return failure("unauthenticated", "Sign in first.");
-      if (!allowed(user, spec.audience)) return failure("forbidden", "Your role does not allow this.");
+      if (!user) return done(failure("unauthenticated", "Sign in first."));
+      userId = user.id;
+      if (!allowed(user, spec.audience)) return done(failure("forbidden", "Your role does not allow this."));
       const parsed = spec.schema.safeParse(raw);
       if (!parsed.success) {
         const fields = fieldErrorsFromIssues(parsed.error.issues);
-        return failure("invalid", describeFieldErrors(fields), fields);
+        return done(failure("invalid", describeFieldErrors(fields), fields));
       }
       const data = await impl(parsed.data, { user, requestId });
-      return { ok: true, data };
+      return done({ ok: true, data });
     } catch (error) {
       if (isNextControlFlow(error)) throw error;
       const f = failureFromError(error, requestId);
-      return failure(f.code, f.message, f.fields);
+      return done(failure(f.code, f.message, f.fields));
     }
   };
 }
@@ -76,7 +83,7 @@ export type RouteContext<P> = Context & { params: P; request: Request };
 type InputSource = "json" | "query" | "none" | "raw";
 
 /** Route handlers that change data accept only same-origin browser requests (CSRF). */
-function isCrossOrigin(request: Request): boolean {
+export function isCrossOrigin(request: Request): boolean {
   const origin = request.headers.get("origin");
   if (!origin) return false; // non-browser clients (curl, scripts) send none
   const host = request.headers.get("x-forwarded-host") ?? request.headers.get("host");
@@ -97,45 +104,68 @@ export function defineRoute<S extends ZodType, P = Record<string, string>>(
 ): (request: Request, routeCtx: { params: Promise<P> }) => Promise<Response> {
   const source: InputSource = spec.input ?? (spec.schema ? "json" : "none");
   return async (request, routeCtx) => {
-    const requestId = request.headers.get("x-request-id") || randomUUID();
-    const idHeader = { "x-request-id": requestId };
-    try {
-      if (request.method !== "GET" && request.method !== "HEAD" && isCrossOrigin(request)) {
-        return errorResponse("forbidden", "Cross-site request refused.", undefined, idHeader);
-      }
-      const user = await userFromSealedCookie(cookieFromHeader(request.headers.get("cookie")));
-      if (!user) return errorResponse("unauthenticated", "Sign in first.", undefined, idHeader);
-      if (!allowed(user, spec.audience)) return errorResponse("forbidden", "Your role does not allow this.", undefined, idHeader);
-      let raw: unknown = undefined;
-      if (source === "json") {
-        const text = await request.text();
-        if (text.length > 2_000_000) return errorResponse("too-large", "The request body is too large.", undefined, idHeader);
-        try {
-          raw = text ? JSON.parse(text) : {};
-        } catch {
-          return errorResponse("bad-request", "The request body is not valid JSON.", { _body: ["The request body is not valid JSON."] }, idHeader);
-        }
-      } else if (source === "query") {
-        raw = Object.fromEntries(new URL(request.url).searchParams.entries());
-      }
-      let input = raw as z.output<S>;
-      if (spec.schema && source !== "raw" && source !== "none") {
-        const parsed = spec.schema.safeParse(raw);
-        if (!parsed.success) {
-          const fields = fieldErrorsFromIssues(parsed.error.issues);
-          return errorResponse("invalid", describeFieldErrors(fields), fields, idHeader);
-        }
-        input = parsed.data;
-      }
-      const params = (await routeCtx?.params) ?? ({} as P);
-      const response = await impl(input, { user, requestId, params, request });
-      response.headers.set("x-request-id", requestId);
-      return response;
-    } catch (error) {
-      const f = failureFromError(error, requestId);
-      const headers: Record<string, string> = { ...idHeader };
-      if (f.code === "unavailable") headers["retry-after"] = "5";
-      return errorResponse(f.code, f.message, f.fields, headers);
-    }
+    const requestId = safeRequestId(request.headers.get("x-request-id"));
+    const started = Date.now();
+    const response = await runRoute(spec, source, impl, request, routeCtx, requestId);
+    requestLogger(requestId).info({ kind: "route", method: request.method, path: new URL(request.url).pathname, status: response.status, ms: Date.now() - started }, "request");
+    return response;
   };
+}
+
+async function runRoute<S extends ZodType, P>(
+  spec: { audience: Audience; schema?: S },
+  source: InputSource,
+  impl: (input: z.output<S>, ctx: RouteContext<P>) => Promise<Response>,
+  request: Request,
+  routeCtx: { params: Promise<P> } | undefined,
+  requestId: string,
+): Promise<Response> {
+  const idHeader = { "x-request-id": requestId };
+  try {
+    if (request.method !== "GET" && request.method !== "HEAD" && isCrossOrigin(request)) {
+      return errorResponse("forbidden", "Cross-site request refused.", undefined, idHeader);
+    }
+    const user = await userFromSealedCookie(cookieFromHeader(request.headers.get("cookie")));
+    if (!user) return errorResponse("unauthenticated", "Sign in first.", undefined, idHeader);
+    if (!allowed(user, spec.audience)) return errorResponse("forbidden", "Your role does not allow this.", undefined, idHeader);
+    let raw: unknown = undefined;
+    if (source === "json") {
+      const text = await request.text();
+      if (text.length > 2_000_000) return errorResponse("too-large", "The request body is too large.", undefined, idHeader);
+      try {
+        raw = text ? JSON.parse(text) : {};
+      } catch {
+        return errorResponse("bad-request", "The request body is not valid JSON.", { _body: ["The request body is not valid JSON."] }, idHeader);
+      }
+    } else if (source === "query") {
+      raw = Object.fromEntries(new URL(request.url).searchParams.entries());
+    }
+    let input = raw as z.output<S>;
+    if (spec.schema && source !== "raw" && source !== "none") {
+      const parsed = spec.schema.safeParse(raw);
+      if (!parsed.success) {
+        const fields = fieldErrorsFromIssues(parsed.error.issues);
+        return errorResponse("invalid", describeFieldErrors(fields), fields, idHeader);
+      }
+      input = parsed.data;
+    }
+    const params = (await routeCtx?.params) ?? ({} as P);
+    const response = await impl(input, { user, requestId, params, request });
+    try {
+      response.headers.set("x-request-id", requestId);
+    } catch {
+      /* immutable headers (e.g. Response.redirect): the id is in the logs only */
+    }
+    return response;
+  } catch (error) {
+    const f = failureFromError(error, requestId);
+    const headers: Record<string, string> = { ...idHeader };
+    if (f.code === "unavailable") headers["retry-after"] = "5";
+    return errorResponse(f.code, f.message, f.fields, headers);
+  }
+}
+
+/** The caller's x-request-id when it is a short token (it reaches logs and the audit log), else a new one. */
+function safeRequestId(value: string | null): string {
+  return value && /^[A-Za-z0-9._:-]{8,64}$/.test(value) ? value : randomUUID();
 }

@@ -1,0 +1,121 @@
+// Password rules: minimum length, the common-password list, bcrypt cost and sign-in throttling.
+import bcrypt from "bcryptjs";
+import { beforeEach, describe, expect, it } from "vitest";
+import { authenticate, BCRYPT_COST, hashPassword } from "@/app/_lib/auth";
+import { assertPasswordAllowed, commonPasswords } from "@/app/_lib/common-passwords";
+import { isCommonPassword, passwordProblem } from "@/domain/crew/password-policy";
+import { addPersonSchema, MIN_PASSWORD_LENGTH, resetPasswordSchema } from "@/domain/crew/schemas";
+import { MAX_FAILURES_PER_ACCOUNT, MAX_FAILURES_PER_ADDRESS } from "@/domain/crew/throttle";
+import { AppError } from "@/domain/result";
+import { ownerDb, resetDatabase } from "../support/db";
+import { makeUser, TEST_PASSWORD } from "../support/users";
+
+describe("password length", () => {
+  // source: NIST SP 800-63B §5.1.1.2 (at least 8 characters); 12 is our own stricter floor.
+  it("requires at least 8 characters, and Beadline requires 12", () => {
+    expect(MIN_PASSWORD_LENGTH).toBeGreaterThanOrEqual(8);
+    expect(MIN_PASSWORD_LENGTH).toBe(12);
+  });
+
+  it.each([
+    [addPersonSchema, { name: "Pat Example", email: "pat@test.example", roles: ["fuser"] }],
+    [resetPasswordSchema, { id: 1 }],
+  ])("the input schema refuses 11 characters and accepts 12 (%#)", (schema, rest) => {
+    const short = schema.safeParse({ ...rest, password: "a".repeat(MIN_PASSWORD_LENGTH - 1) });
+    expect(short.success).toBe(false);
+    if (!short.success) expect(short.error.issues.map((i) => i.path.join("."))).toContain("password");
+    expect(schema.safeParse({ ...rest, password: "river-gravel-lantern" }).success).toBe(true);
+  });
+
+  it("counts characters, not UTF-16 units, and says how many are needed", () => {
+    expect(passwordProblem("ü".repeat(11), { commonPasswords: [] })).toMatch(/at least 12 characters/);
+    expect(passwordProblem("😀".repeat(6), { commonPasswords: [] })).toMatch(/at least 12/); // 12 UTF-16 units, 6 characters
+  });
+});
+
+describe("common-password list", () => {
+  // source: NIST SP 800-63B §5.1.1.2 — compare new secrets against "passwords obtained from
+  // previous breach corpuses" and "dictionary words"; the list ships in @zxcvbn-ts/language-common.
+  it("loads the registry package's list (tens of thousands of entries, the well-known top ones included)", () => {
+    const list = commonPasswords();
+    expect(list.size).toBeGreaterThan(10_000);
+    // source: every published breach-corpus ranking puts these at the top (e.g. the list's own first entries)
+    for (const p of ["123456", "password", "qwerty", "12345678", "iloveyou"]) expect(list.has(p)).toBe(true);
+  });
+
+  it("refuses listed passwords of 12+ characters, case-insensitively and with padding", () => {
+    const list = commonPasswords();
+    const long = [...list].filter((p) => p.length >= MIN_PASSWORD_LENGTH).slice(0, 50);
+    expect(long.length).toBeGreaterThan(10); // the list has long entries too, so the check matters at 12+
+    for (const p of long) expect(isCommonPassword(p.toUpperCase(), list)).toBe(true);
+    // common practice (no published source): guessing tools append digits and symbols first
+    expect(isCommonPassword("password1234", list)).toBe(true);
+    expect(isCommonPassword("Qwerty!!2026", list)).toBe(true);
+    expect(isCommonPassword("monkeymonkey", list)).toBe(true);
+    expect(isCommonPassword("abcabcabcabc", list)).toBe(true);
+  });
+
+  it("accepts a long passphrase of the person's own", () => {
+    const list = commonPasswords();
+    expect(isCommonPassword("heat-soak-at-the-trench-2026", list)).toBe(false);
+    expect(passwordProblem("heat-soak-at-the-trench-2026", { commonPasswords: list })).toBeNull();
+  });
+
+  it("refuses the person's own name or e-mail as the password and names the field", () => {
+    expect(() => assertPasswordAllowed("robin.ashdown.example", { name: "Robin Ashdown", email: "robin.ashdown.example@test.example" })).toThrow(AppError);
+    try {
+      assertPasswordAllowed("password12345", { field: "newPassword" });
+      expect.unreachable();
+    } catch (error) {
+      expect(error).toBeInstanceOf(AppError);
+      expect((error as AppError).code).toBe("invalid");
+      expect(Object.keys((error as AppError).fields ?? {})).toEqual(["newPassword"]);
+      expect((error as AppError).message).toMatch(/newPassword/);
+    }
+  });
+});
+
+describe("bcrypt", () => {
+  // source: OWASP Password Storage Cheat Sheet — bcrypt with a work factor of 10 or more.
+  it("hashes with cost ≥ 10 (12 in Beadline), salted, and verifies", async () => {
+    expect(BCRYPT_COST).toBeGreaterThanOrEqual(10);
+    const a = await hashPassword("river-gravel-lantern");
+    expect(bcrypt.getRounds(a)).toBe(BCRYPT_COST);
+    expect(a).toMatch(/^\$2[aby]\$12\$/);
+    expect(await bcrypt.compare("river-gravel-lanterN", a)).toBe(false);
+    // a fresh salt each time: the same password hashed at cost 4 twice differs (same code path, cheap)
+    expect(bcrypt.hashSync("river-gravel-lantern", 4)).not.toBe(bcrypt.hashSync("river-gravel-lantern", 4));
+  });
+});
+
+describe("sign-in throttling", () => {
+  beforeEach(async () => {
+    await resetDatabase();
+  });
+
+  // source: OWASP Authentication Cheat Sheet (account lockout / throttling); limits in domain/crew/throttle.ts
+  it(`locks one account after ${MAX_FAILURES_PER_ACCOUNT} failures but not another account from another address`, async () => {
+    const victim = await makeUser({ roles: ["fuser"] });
+    const other = await makeUser({ roles: ["fuser"] });
+    // Earlier failures straight into the counter table (each real attempt costs a bcrypt compare), then a real one.
+    await ownerDb()("sign_in_attempts").insert(Array.from({ length: MAX_FAILURES_PER_ACCOUNT - 1 }, (_, i) => ({ email: victim.email, address: `203.0.113.${i + 1}`, succeeded: false })));
+    await expect(authenticate({ email: victim.email, password: "guess-xxxxxxxxxx", address: "203.0.113.7" })).rejects.toMatchObject({ code: "unauthenticated" });
+    await expect(authenticate({ email: victim.email, password: TEST_PASSWORD, address: "203.0.113.99" })).rejects.toMatchObject({ code: "throttled" });
+    await expect(authenticate({ email: other.email, password: TEST_PASSWORD, address: "198.51.100.2" })).resolves.toMatchObject({ id: other.id });
+  });
+
+  it(`throttles one address after ${MAX_FAILURES_PER_ADDRESS} failures across many accounts (password spraying)`, async () => {
+    const target = await makeUser({ roles: ["clerk"] });
+    await ownerDb()("sign_in_attempts").insert(Array.from({ length: MAX_FAILURES_PER_ADDRESS - 1 }, (_, i) => ({ email: `nobody-${i}@test.example`, address: "192.0.2.50", succeeded: false })));
+    await expect(authenticate({ email: "nobody-last@test.example", password: "Summer2026!!", address: "192.0.2.50" })).rejects.toMatchObject({ code: "unauthenticated" });
+    await expect(authenticate({ email: target.email, password: TEST_PASSWORD, address: "192.0.2.50" })).rejects.toMatchObject({ code: "throttled" });
+    await expect(authenticate({ email: target.email, password: TEST_PASSWORD, address: "192.0.2.51" })).resolves.toMatchObject({ id: target.id });
+  });
+
+  it("counts only failures inside the 15-minute window", async () => {
+    const u = await makeUser({ roles: ["fuser"] });
+    const old = new Date(Date.now() - 16 * 60 * 1000);
+    await ownerDb()("sign_in_attempts").insert(Array.from({ length: MAX_FAILURES_PER_ACCOUNT }, () => ({ email: u.email, address: "203.0.113.8", succeeded: false, attempted_at: old })));
+    await expect(authenticate({ email: u.email, password: TEST_PASSWORD, address: "203.0.113.8" })).resolves.toMatchObject({ id: u.id });
+  });
+});
