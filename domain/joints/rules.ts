@@ -1,5 +1,5 @@
 // Rules the Trench screen and the record-joint use case apply before a joint is written:
-// reading a scanned coil label, flagging a size mismatch between the two sides, and the
+// flagging a size mismatch between the two sides, and the
 // reasons to refuse (lapsed qualification) or to block until an inspector or admin clears
 // it (heater-plate check overdue or failed, coil quarantined or used up). Pure: the date
 // `on` ('YYYY-MM-DD') and every record are passed in.
@@ -12,45 +12,7 @@
 
 import { isHeaterCheckOverdue, isHeaterFlagged } from '@/domain/office/rules';
 import type { QualificationStatus } from '@/domain/qualifications/status';
-import { parseTraceCode } from '@/domain/trace-code/trace-code';
 import { formatQuantity, type UnitSystem } from '@/domain/units/format';
-
-// ---------------------------------------------------------------------------------------
-// Scanned or typed coil labels
-
-export type CoilScan =
-  | { kind: 'coil-code'; code: string }
-  | { kind: 'trace-code'; code: string }
-  | { kind: 'invalid'; message: string };
-
-const COIL_CODE = /^[A-Za-z0-9][A-Za-z0-9._-]{0,39}$/;
-
-/**
- * Reads what a camera scan or a typed entry gives: the coil label's QR holds the coil
- * page's address (`https://…/coils/LV-C0001` or `/coils/LV-C0001`), a bare coil id
- * ("LV-C0001"), or the manufacturer's 16-character ASTM F2897 code printed on the pipe.
- * A 16-character text that parses as an F2897 code is taken as one (source: ASTM
- * F2897-23a Table 1 via parseTraceCode); anything else of letters, digits, '-', '.', '_'
- * is a coil id.
- */
-export function parseCoilScan(text: string): CoilScan {
-  const value = (text ?? '').trim();
-  if (!value) return { kind: 'invalid', message: 'Nothing was scanned or typed.' };
-  const path = /(?:^|\/)coils\/([^/?#\s]+)\/?(?:[?#].*)?$/.exec(value);
-  if (path && (value.startsWith('/') || /^https?:\/\//i.test(value))) {
-    let code = path[1] as string;
-    try {
-      code = decodeURIComponent(code);
-    } catch {
-      return { kind: 'invalid', message: 'The label address is damaged; type the coil id instead.' };
-    }
-    return COIL_CODE.test(code) ? { kind: 'coil-code', code } : { kind: 'invalid', message: `"${code}" is not a coil id.` };
-  }
-  if (/^https?:\/\//i.test(value)) return { kind: 'invalid', message: 'That QR code is not a Beadline coil label.' };
-  if (value.length === 16 && parseTraceCode(value).ok) return { kind: 'trace-code', code: value };
-  if (COIL_CODE.test(value)) return { kind: 'coil-code', code: value };
-  return { kind: 'invalid', message: `"${value.slice(0, 40)}" is neither a coil id nor an ASTM F2897 code.` };
-}
 
 // ---------------------------------------------------------------------------------------
 // Component mismatch

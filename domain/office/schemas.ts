@@ -9,9 +9,17 @@ import { isIsoDate } from '@/domain/office/dates';
 
 const blankToUndefined = (value: unknown) => (value === '' || value === null || (typeof value === 'string' && value.trim() === '') ? undefined : value);
 
+/** Form text → number (blank → undefined, so "Enter …" can be told from "must be a number"). */
+const toNumberInput = (value: unknown) => {
+  const v = blankToUndefined(value);
+  return typeof v === 'string' ? Number(v.trim().replace(',', '.')) : v;
+};
+
 /** A number typed in a form (string or number); blank → undefined when optional. */
 function numberField(label: string, opts: { min?: number; max?: number; positive?: boolean; integer?: boolean } = {}) {
-  let n = z.coerce.number({ error: `${label} must be a number.` }).refine(Number.isFinite, { error: `${label} must be a number.` });
+  let n = z
+    .number({ error: (issue) => (issue.input === undefined ? `Enter ${label.toLowerCase()}.` : `${label} must be a number.`) })
+    .refine(Number.isFinite, { error: `${label} must be a number.` });
   if (opts.integer) n = n.refine(Number.isInteger, { error: `${label} must be a whole number.` });
   if (opts.positive) n = n.refine((v) => v > 0, { error: `${label} must be more than 0.` });
   if (opts.min !== undefined) {
@@ -26,11 +34,11 @@ function numberField(label: string, opts: { min?: number; max?: number; positive
 }
 
 function requiredNumber(label: string, opts: Parameters<typeof numberField>[1] = {}) {
-  return z.preprocess(blankToUndefined, z.unknown().refine((v) => v !== undefined, { error: `Enter ${label.toLowerCase()}.` }).pipe(numberField(label, opts)));
+  return z.preprocess(toNumberInput, numberField(label, opts));
 }
 
 function optionalNumber(label: string, opts: Parameters<typeof numberField>[1] = {}) {
-  return z.preprocess(blankToUndefined, numberField(label, opts).optional());
+  return z.preprocess(toNumberInput, numberField(label, opts).optional());
 }
 
 function requiredText(label: string, min: number, max: number) {
@@ -180,7 +188,7 @@ export const MAX_POINTS_PER_FACE = 8;
 
 const readingList = (face: 'A' | 'B') =>
   z
-    .array(z.preprocess(blankToUndefined, numberField(`Face ${face} reading`).optional()), { error: `Enter the face ${face} readings.` })
+    .array(z.preprocess(toNumberInput, numberField(`Face ${face} reading`).optional()), { error: `Enter the face ${face} readings.` })
     .max(MAX_POINTS_PER_FACE, { error: `Face ${face}: at most ${MAX_POINTS_PER_FACE} readings.` })
     .transform((list) => list.filter((v): v is number => v !== undefined))
     .refine((list) => list.length >= MIN_POINTS_PER_FACE, { error: `Face ${face}: enter at least ${MIN_POINTS_PER_FACE} readings (several points of the face).` });

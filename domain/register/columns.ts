@@ -1,0 +1,207 @@
+// The Register's columns, shared by the grid and the spreadsheet/CSV export so both show
+// the same values: headers carry the unit in the reader's system (SI or US customary),
+// values are converted from canonical SI at this edge (domain/units, NIST SP 811 factors).
+import type { JointParameter } from '@/domain/fusion/check';
+import { FINDING_PARAMETER_LABELS, OUTCOME_LABELS, REVIEW_STATE_LABELS, type RegisterOutcome, type RegisterSort, type ReviewState } from '@/domain/register/filter';
+import { displayDecimals, roundTo, toDisplay, unitLabel, type QuantityKind, type UnitSystem } from '@/domain/units/format';
+
+/** One joint as the Register shows it (canonical SI, as stored). */
+export interface RegisterRow {
+  id: number;
+  jobId: number;
+  jobCode: string;
+  jointNo: number;
+  kind: 'coil-to-coil' | 'tie-in' | 'fitting';
+  madeAt: Date;
+  station: string | null;
+  latitude: number | null;
+  longitude: number | null;
+  fuserId: number;
+  fuserName: string;
+  machineId: number;
+  machineTag: string;
+  heaterTag: string;
+  coilACode: string | null;
+  coilALot: string | null;
+  coilBCode: string | null;
+  coilBLot: string | null;
+  componentBText: string | null;
+  /** Nominal size and series of coil A (e.g. "2", "ips"), when side A is a coil. */
+  nominalSize: string | null;
+  series: string | null;
+  outsideDiameterMm: number;
+  sdr: number;
+  procedureVersionId: number;
+  procedureCode: string;
+  procedureVersionNo: number;
+  outcome: RegisterOutcome;
+  reviewState: ReviewState;
+  findingParameters: JointParameter[];
+  heaterTemperatureC: number | null;
+  dragPressureMpa: number | null;
+  beadUpGaugeMpa: number | null;
+  fusionGaugeMpa: number | null;
+  beadMm: number | null;
+  heatSoakS: number | null;
+  changeoverS: number | null;
+  coolingS: number | null;
+  ambientC: number | null;
+  facingOk: boolean | null;
+  alignmentOk: boolean | null;
+  beadRollbackOk: boolean | null;
+  vGrooveOk: boolean | null;
+}
+
+/** The same row as the JSON API sends it (dates as ISO 8601 text). */
+export type RegisterRowJson = Omit<RegisterRow, 'madeAt'> & { madeAt: string };
+
+export function registerRowFromJson(row: RegisterRowJson): RegisterRow {
+  return { ...row, madeAt: new Date(row.madeAt) };
+}
+
+export type CellValue = string | number | Date | null;
+export type ColumnType = 'text' | 'integer' | 'number' | 'date' | 'quantity';
+
+export interface RegisterColumn {
+  key: string;
+  /** Header without the unit. */
+  title: string;
+  type: ColumnType;
+  quantity?: QuantityKind;
+  /** The server-side sort this column's header sorts by. */
+  sort?: RegisterSort;
+  /** Shown in the grid (the export has every column). */
+  inGrid: boolean;
+  /** Approximate width in characters (grid and spreadsheet). */
+  width: number;
+  value: (row: RegisterRow, system: UnitSystem) => CellValue;
+}
+
+/**
+ * Decimals kept in the export per kind and system: one more than the screen shows where
+ * the stored value has it, so the spreadsheet loses no recorded precision that matters
+ * (°C and s are stored to 0.1, MPa to 0.0001, mm to 0.01).
+ */
+const EXPORT_DECIMALS: Record<QuantityKind, Record<UnitSystem, number>> = {
+  'length-mm': { si: 2, us: 3 },
+  'length-m': { si: 2, us: 1 },
+  pressure: { si: 4, us: 1 },
+  temperature: { si: 1, us: 1 },
+  area: { si: 0, us: 2 },
+  duration: { si: 1, us: 1 },
+};
+
+export function exportDecimals(kind: QuantityKind, system: UnitSystem): number {
+  return EXPORT_DECIMALS[kind][system];
+}
+
+const quantity = (value: number | null, kind: QuantityKind, system: UnitSystem): number | null =>
+  value === null || value === undefined ? null : roundTo(toDisplay(value, kind, system), exportDecimals(kind, system));
+
+const check = (value: boolean | null): string | null => (value === null || value === undefined ? null : value ? 'yes' : 'no');
+
+const SERIES_LABEL: Record<string, string> = { ips: 'IPS', cts: 'CTS', metric: 'mm' };
+
+/** "2 IPS SDR 11", or "60.3 mm SDR 11" when side A is not a coil with a nominal size. */
+export function pipeSizeText(row: Pick<RegisterRow, 'nominalSize' | 'series' | 'outsideDiameterMm' | 'sdr'>, system: UnitSystem): string {
+  const sdr = `SDR ${roundTo(row.sdr, 2)}`;
+  if (row.nominalSize && row.series) return `${row.nominalSize} ${SERIES_LABEL[row.series] ?? row.series.toUpperCase()} ${sdr}`;
+  const od = roundTo(toDisplay(row.outsideDiameterMm, 'length-mm', system), displayDecimals('length-mm', system));
+  return `${od} ${unitLabel('length-mm', system)} OD ${sdr}`;
+}
+
+export function placeText(row: Pick<RegisterRow, 'station' | 'latitude' | 'longitude'>): string | null {
+  const coords = row.latitude !== null && row.longitude !== null ? `${row.latitude.toFixed(5)}, ${row.longitude.toFixed(5)}` : null;
+  if (row.station && coords) return `${row.station} (${coords})`;
+  return row.station ?? coords;
+}
+
+export const KIND_LABELS: Record<RegisterRow['kind'], string> = {
+  'coil-to-coil': 'Coil to coil',
+  'tie-in': 'Tie-in',
+  fitting: 'Fitting',
+};
+
+export const REGISTER_COLUMNS: readonly RegisterColumn[] = [
+  { key: 'jointNo', title: 'Joint', type: 'integer', sort: 'number', inGrid: true, width: 8, value: (r) => r.jointNo },
+  { key: 'job', title: 'Job', type: 'text', inGrid: true, width: 12, value: (r) => r.jobCode },
+  { key: 'madeAt', title: 'Made at (UTC)', type: 'date', sort: 'madeAt', inGrid: true, width: 18, value: (r) => r.madeAt },
+  { key: 'place', title: 'Place', type: 'text', inGrid: true, width: 24, value: (r) => placeText(r) },
+  { key: 'station', title: 'Station', type: 'text', inGrid: false, width: 14, value: (r) => r.station },
+  { key: 'latitude', title: 'Latitude', type: 'number', inGrid: false, width: 11, value: (r) => r.latitude },
+  { key: 'longitude', title: 'Longitude', type: 'number', inGrid: false, width: 11, value: (r) => r.longitude },
+  { key: 'kind', title: 'Kind', type: 'text', inGrid: true, width: 12, value: (r) => KIND_LABELS[r.kind] ?? r.kind },
+  { key: 'fuser', title: 'Fuser', type: 'text', inGrid: true, width: 18, value: (r) => r.fuserName },
+  { key: 'machine', title: 'Machine', type: 'text', inGrid: true, width: 10, value: (r) => r.machineTag },
+  { key: 'heater', title: 'Heater plate', type: 'text', inGrid: true, width: 10, value: (r) => r.heaterTag },
+  { key: 'coilA', title: 'Coil A', type: 'text', inGrid: true, width: 11, value: (r) => r.coilACode },
+  { key: 'lotA', title: 'Lot A', type: 'text', inGrid: true, width: 10, value: (r) => r.coilALot },
+  { key: 'coilB', title: 'Coil B or side B', type: 'text', inGrid: true, width: 16, value: (r) => r.coilBCode ?? r.componentBText },
+  { key: 'lotB', title: 'Lot B', type: 'text', inGrid: true, width: 10, value: (r) => r.coilBLot },
+  { key: 'pipeSize', title: 'Pipe size', type: 'text', sort: 'pipeSize', inGrid: true, width: 14, value: (r, s) => pipeSizeText(r, s) },
+  { key: 'outsideDiameter', title: 'Outside diameter', type: 'quantity', quantity: 'length-mm', inGrid: false, width: 10, value: (r, s) => quantity(r.outsideDiameterMm, 'length-mm', s) },
+  { key: 'sdr', title: 'SDR', type: 'number', inGrid: false, width: 6, value: (r) => r.sdr },
+  { key: 'procedure', title: 'Procedure', type: 'text', inGrid: true, width: 14, value: (r) => `${r.procedureCode} v${r.procedureVersionNo}` },
+  { key: 'outcome', title: 'Outcome', type: 'text', inGrid: true, width: 13, value: (r) => OUTCOME_LABELS[r.outcome] ?? r.outcome },
+  { key: 'reviewState', title: 'Review state', type: 'text', inGrid: true, width: 13, value: (r) => REVIEW_STATE_LABELS[r.reviewState] ?? r.reviewState },
+  {
+    key: 'findings',
+    title: 'Findings',
+    type: 'text',
+    inGrid: true,
+    width: 22,
+    value: (r) => (r.findingParameters.length ? r.findingParameters.map((p) => FINDING_PARAMETER_LABELS[p] ?? p).join(', ') : null),
+  },
+  { key: 'heaterTemperature', title: 'Heater temperature', type: 'quantity', quantity: 'temperature', sort: 'heaterTemperature', inGrid: true, width: 10, value: (r, s) => quantity(r.heaterTemperatureC, 'temperature', s) },
+  { key: 'dragPressure', title: 'Drag pressure', type: 'quantity', quantity: 'pressure', inGrid: true, width: 9, value: (r, s) => quantity(r.dragPressureMpa, 'pressure', s) },
+  { key: 'beadUpGauge', title: 'Bead-up gauge pressure', type: 'quantity', quantity: 'pressure', inGrid: true, width: 9, value: (r, s) => quantity(r.beadUpGaugeMpa, 'pressure', s) },
+  { key: 'fusionGauge', title: 'Fusion gauge pressure', type: 'quantity', quantity: 'pressure', inGrid: true, width: 9, value: (r, s) => quantity(r.fusionGaugeMpa, 'pressure', s) },
+  { key: 'bead', title: 'Bead size', type: 'quantity', quantity: 'length-mm', inGrid: true, width: 8, value: (r, s) => quantity(r.beadMm, 'length-mm', s) },
+  { key: 'heatSoak', title: 'Heat soak', type: 'quantity', quantity: 'duration', inGrid: true, width: 8, value: (r, s) => quantity(r.heatSoakS, 'duration', s) },
+  { key: 'changeover', title: 'Changeover', type: 'quantity', quantity: 'duration', inGrid: true, width: 8, value: (r, s) => quantity(r.changeoverS, 'duration', s) },
+  { key: 'cooling', title: 'Cooling', type: 'quantity', quantity: 'duration', inGrid: true, width: 8, value: (r, s) => quantity(r.coolingS, 'duration', s) },
+  { key: 'ambient', title: 'Ambient temperature', type: 'quantity', quantity: 'temperature', inGrid: true, width: 8, value: (r, s) => quantity(r.ambientC, 'temperature', s) },
+  { key: 'facingOk', title: 'Facing complete', type: 'text', inGrid: false, width: 7, value: (r) => check(r.facingOk) },
+  { key: 'alignmentOk', title: 'Alignment within limits', type: 'text', inGrid: false, width: 7, value: (r) => check(r.alignmentOk) },
+  { key: 'beadRollbackOk', title: 'Bead rolled back', type: 'text', inGrid: false, width: 7, value: (r) => check(r.beadRollbackOk) },
+  { key: 'vGrooveOk', title: 'V-groove above surface', type: 'text', inGrid: false, width: 7, value: (r) => check(r.vGrooveOk) },
+];
+
+/** The column's unit in the reader's system, or null (text, dates, plain numbers). */
+export function columnUnit(column: RegisterColumn, system: UnitSystem): string | null {
+  return column.quantity ? unitLabel(column.quantity, system) : null;
+}
+
+/** Header with the unit, e.g. "Heater temperature (°F)". */
+export function columnHeader(column: RegisterColumn, system: UnitSystem): string {
+  const unit = columnUnit(column, system);
+  return unit ? `${column.title} (${unit})` : column.title;
+}
+
+/** Spreadsheet number format for a column (dates as dates, quantities to their decimals). */
+export function columnNumberFormat(column: RegisterColumn, system: UnitSystem): string | undefined {
+  if (column.type === 'date') return 'yyyy-mm-dd hh:mm:ss';
+  if (column.type === 'integer') return '0';
+  if (column.type === 'quantity' && column.quantity) {
+    const d = exportDecimals(column.quantity, system);
+    return d > 0 ? `0.${'0'.repeat(d)}` : '0';
+  }
+  return undefined;
+}
+
+/** Date as "2026-11-02 14:05:09" in UTC (the register's clock; see the column header). */
+export function formatUtc(date: Date, withSeconds = false): string {
+  const iso = date.toISOString();
+  return `${iso.slice(0, 10)} ${iso.slice(11, withSeconds ? 19 : 16)}`;
+}
+
+/** A cell as text for the screen: quantities to the screen's decimals, dates in UTC. */
+export function formatCell(column: RegisterColumn, row: RegisterRow, system: UnitSystem): string {
+  const value = column.value(row, system);
+  if (value === null || value === undefined) return '';
+  if (value instanceof Date) return formatUtc(value);
+  if (typeof value === 'number' && column.type === 'quantity' && column.quantity) {
+    return roundTo(value, displayDecimals(column.quantity, system)).toFixed(displayDecimals(column.quantity, system));
+  }
+  return String(value);
+}

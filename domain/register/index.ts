@@ -1,0 +1,5 @@
+// The Register: filter/sort schemas read from the URL, keyset cursors, and the columns the
+// grid and the export share (units converted at this edge).
+export * from '@/domain/register/filter';
+export * from '@/domain/register/cursor';
+export * from '@/domain/register/columns';

@@ -1,0 +1,158 @@
+import { describe, expect, test } from 'vitest';
+import { checkJoint, isOutOfLimits, planButtFusion, type JointMeasurements } from '@/domain';
+import { fromDisplay, fToC, inToMm, psiToMpa } from '@/domain/units';
+
+// 6" IPS SDR 11 with the ASTM table wall (0.602 in) on a machine of 3000 mm², drag 0.2 MPa.
+const plan = planButtFusion({
+  standard: 'astm-f2620',
+  outsideDiameterMm: inToMm(6.625),
+  sdr: 11,
+  wallMm: inToMm(0.602),
+  pistonAreaMm2: 3000,
+  dragPressureMpa: 0.2,
+});
+const mid = (window: { min: number; max: number }) => (window.min + window.max) / 2;
+const good: JointMeasurements = {
+  heaterTemperatureC: 218,
+  fusionGaugePressureMpa: mid(plan.fusionGaugePressureMpa),
+  beadMm: 6,
+  changeoverS: 10,
+  coolingS: 420,
+};
+
+describe('a joint inside every window', () => {
+  test('is within limits with no findings', () => {
+    expect(checkJoint(plan, good)).toEqual({ outcome: 'within-limits', findings: [] });
+  });
+  test('with passing boolean checks too', () => {
+    expect(checkJoint(plan, { ...good, facingOk: true, alignmentOk: true, visualBeadOk: true }).outcome).toBe('within-limits');
+  });
+});
+
+describe('values exactly on a limit pass', () => {
+  test.each([
+    // source: ASTM F2620 heater 400–450 °F (CONFIRMED)
+    ['heater at 400 °F', { heaterTemperatureC: fToC(400) }],
+    ['heater at 450 °F', { heaterTemperatureC: fToC(450) }],
+    ['heater at 232 °C as read on a thermometer', { heaterTemperatureC: 232 }],
+    ['heater at 450 °F typed in US units', { heaterTemperatureC: fromDisplay(450, 'temperature', 'us') }],
+    // from memory, unconfirmed: IFP 60–90 psi → gauge window for this pipe and machine
+    ['fusion gauge at the window minimum', { fusionGaugePressureMpa: plan.fusionGaugePressureMpa.min }],
+    ['fusion gauge at the window maximum', { fusionGaugePressureMpa: plan.fusionGaugePressureMpa.max }],
+    // from memory, unconfirmed: F2620 bead 3/16 in for OD 3.5–8.63 in
+    ['bead at 3/16 in', { beadMm: inToMm(3 / 16) }],
+    // from memory, unconfirmed: F2620 removal time 15 s for walls 0.55–1.18 in
+    ['changeover at 15 s', { changeoverS: 15 }],
+    // from memory, unconfirmed: 11 min per inch × 0.602 in = 397 s
+    ['cooling at 397 s', { coolingS: 397 }],
+  ] as const)('%s', (_name, change) => {
+    expect(checkJoint(plan, { ...good, ...change }).findings).toEqual([]);
+  });
+  test.each([
+    // US entry: 0.188 in reads the same as the 3/16 in minimum (0.1875) at 0.001 in
+    ['bead typed as 0.188 in', { beadMm: fromDisplay(0.188, 'length-mm', 'us') }, 'us'],
+    ['heater typed as 400 °F', { heaterTemperatureC: fromDisplay(400, 'temperature', 'us') }, 'us'],
+  ] as const)('%s', (_name, change, system) => {
+    expect(checkJoint(plan, { ...good, ...change }, { system }).findings).toEqual([]);
+  });
+});
+
+describe('values past a limit are findings with plain messages', () => {
+  test.each([
+    // source: ASTM F2620 heater 400–450 °F (CONFIRMED)
+    ['heater 233 °C', { heaterTemperatureC: 233 }, 'si', 'heaterTemperature', 'above-maximum', 'Heater temperature 233 °C is above the 204–232 °C window'],
+    ['heater 451 °F', { heaterTemperatureC: fToC(451) }, 'us', 'heaterTemperature', 'above-maximum', 'Heater temperature 451 °F is above the 400–450 °F window'],
+    ['heater 399 °F', { heaterTemperatureC: fToC(399) }, 'us', 'heaterTemperature', 'below-minimum', 'Heater temperature 399 °F is below the 400–450 °F window'],
+    // from memory, unconfirmed: F2620 bead, removal time and cooling rule
+    ['bead 0.186 in', { beadMm: inToMm(0.186) }, 'us', 'bead', 'below-minimum', 'Bead 0.186 in is smaller than the 0.188 in minimum for a 6.625 in OD pipe'],
+    ['changeover 16 s', { changeoverS: 16 }, 'si', 'changeover', 'above-maximum', 'Changeover 16 s is longer than the 15 s maximum for a 15.3 mm wall'],
+    ['cooling 4 min 10 s', { coolingS: 250 }, 'si', 'cooling', 'below-minimum', 'Cooling 4 min 10 s is shorter than the 6 min 37 s minimum for a 15.3 mm wall'],
+    ['cooling in US units', { coolingS: 250 }, 'us', 'cooling', 'below-minimum', 'Cooling 4 min 10 s is shorter than the 6 min 37 s minimum for a 0.602 in wall'],
+    ['cooling 396 s', { coolingS: 396 }, 'si', 'cooling', 'below-minimum', 'Cooling 6 min 36 s is shorter than the 6 min 37 s minimum for a 15.3 mm wall'],
+  ] as const)('%s', (_name, change, system, parameter, kind, message) => {
+    const result = checkJoint(plan, { ...good, ...change }, { system });
+    expect(result.outcome).toBe('out-of-limits');
+    expect(isOutOfLimits(result)).toBe(true);
+    expect(result.findings).toHaveLength(1);
+    expect(result.findings[0]).toMatchObject({ parameter, kind, message });
+  });
+
+  test('a fusion pressure below the window names the window in user units', () => {
+    const low = plan.fusionGaugePressureMpa.min - 0.05;
+    const [finding] = checkJoint(plan, { ...good, fusionGaugePressureMpa: low }).findings;
+    expect(finding).toMatchObject({ parameter: 'fusionPressure', kind: 'below-minimum', measured: low, limit: plan.fusionGaugePressureMpa });
+    expect(finding?.message).toMatch(/^Fusion gauge pressure \d+\.\d\d MPa is below the \d+\.\d\d–\d+\.\d\d MPa window for this pipe and machine$/);
+    const us = checkJoint(plan, { ...good, fusionGaugePressureMpa: psiToMpa(500) }, { system: 'us' }).findings[0];
+    expect(us?.message).toMatch(/^Fusion gauge pressure 500 psi is above the \d+–\d+ psi window for this pipe and machine$/);
+  });
+
+  test('several misses give several findings', () => {
+    const result = checkJoint(plan, { heaterTemperatureC: 250, fusionGaugePressureMpa: 0, beadMm: 1, changeoverS: 30, coolingS: 60 });
+    expect(result.findings.map((finding) => finding.parameter)).toEqual(['heaterTemperature', 'fusionPressure', 'bead', 'changeover', 'cooling']);
+  });
+});
+
+describe('a value not recorded is a finding of its own', () => {
+  test.each([
+    ['heaterTemperatureC', 'heaterTemperature', 'Heater temperature was not recorded'],
+    ['fusionGaugePressureMpa', 'fusionPressure', 'Fusion gauge pressure was not recorded'],
+    ['beadMm', 'bead', 'Bead was not recorded'],
+    ['changeoverS', 'changeover', 'Changeover was not recorded'],
+    ['coolingS', 'cooling', 'Cooling was not recorded'],
+  ] as const)('%s missing', (key, parameter, message) => {
+    for (const missing of [null, undefined, Number.NaN]) {
+      const result = checkJoint(plan, { ...good, [key]: missing });
+      expect(result.outcome).toBe('out-of-limits');
+      expect(result.findings).toEqual([expect.objectContaining({ parameter, kind: 'not-recorded', measured: null, message })]);
+    }
+  });
+
+  test('heat soak is required when the procedure times it', () => {
+    // from memory, unconfirmed: DVS 2207-1 heat soak 10 × wall = 100 s for a 10 mm wall
+    const dvs = planButtFusion({ standard: 'dvs-2207-1', outsideDiameterMm: 110, sdr: 11, pistonAreaMm2: 1500, dragPressureMpa: 0.1 });
+    const base = { heaterTemperatureC: 210, fusionGaugePressureMpa: mid(dvs.fusionGaugePressureMpa), beadMm: 1.5, changeoverS: 7, coolingS: 816 };
+    expect(checkJoint(dvs, { ...base, heatSoakS: 100 }).findings).toEqual([]);
+    expect(checkJoint(dvs, base).findings).toEqual([expect.objectContaining({ parameter: 'heatSoak', kind: 'not-recorded', message: 'Heat-soak time was not recorded' })]);
+    expect(checkJoint(dvs, { ...base, heatSoakS: 95 }).findings[0]?.message).toBe('Heat soak 1 min 35 s is shorter than the 1 min 40 s minimum for a 10.0 mm wall');
+    // DVS bead is by wall: message names the wall
+    expect(checkJoint(dvs, { ...base, heatSoakS: 100, beadMm: 1.0 }).findings[0]?.message).toBe('Bead 1.0 mm is smaller than the 1.5 mm minimum for a 10.0 mm wall');
+    // from memory, unconfirmed: DVS build-up 7 s for a 10 mm wall
+    expect(checkJoint(dvs, { ...base, heatSoakS: 100, pressureBuildUpS: 8 }).findings[0]).toMatchObject({ parameter: 'pressureBuildUp', kind: 'above-maximum' });
+  });
+
+  test('heat soak above an ISO maximum is a finding', () => {
+    // from memory, unconfirmed: ISO 21307 SLP heat soak (11 ± 1) × e_n → 100–120 s for 10 mm
+    const slp = planButtFusion({ standard: 'iso-21307-slp', outsideDiameterMm: 110, sdr: 11, pistonAreaMm2: 1500, dragPressureMpa: 0.1 });
+    const base = { heaterTemperatureC: 220, fusionGaugePressureMpa: mid(slp.fusionGaugePressureMpa), beadMm: 2, changeoverS: 7, coolingS: 780 };
+    expect(checkJoint(slp, { ...base, heatSoakS: 120 }).findings).toEqual([]);
+    expect(checkJoint(slp, { ...base, heatSoakS: 121 }).findings[0]?.message).toBe('Heat soak 2 min 1 s is longer than the 2 min maximum for a 10.0 mm wall');
+  });
+
+  test('heat soak is optional when the procedure ends heating by bead size', () => {
+    // source: PPI "Melt Procedure" (CONFIRMED): F2620 heat soak is by bead size, not time
+    expect(checkJoint(plan, good).findings).toEqual([]);
+    expect(checkJoint(plan, { ...good, heatSoakS: 9999 }).findings).toEqual([]);
+  });
+});
+
+describe('boolean checks', () => {
+  test.each([
+    ['facingOk', false, 'facing', 'check-failed', 'Facing was not confirmed complete and square'],
+    ['alignmentOk', false, 'alignment', 'check-failed', 'Alignment check did not pass'],
+    ['visualBeadOk', false, 'visualBead', 'check-failed', 'Visual bead check did not pass'],
+    ['facingOk', null, 'facing', 'not-recorded', 'Facing check was not recorded'],
+    ['visualBeadOk', null, 'visualBead', 'not-recorded', 'Visual bead check was not recorded'],
+  ] as const)('%s = %s', (key, value, parameter, kind, message) => {
+    // common practice (no published source): facing, alignment and visual checks are yes/no records
+    const result = checkJoint(plan, { ...good, [key]: value });
+    expect(result.findings).toEqual([{ parameter, kind, measured: value === null ? null : false, limit: null, message }]);
+  });
+});
+
+describe('bead-up pressure when recorded', () => {
+  test('is checked against the bead-up gauge window', () => {
+    expect(checkJoint(plan, { ...good, beadUpGaugePressureMpa: mid(plan.beadUpGaugePressureMpa) }).findings).toEqual([]);
+    expect(checkJoint(plan, { ...good, beadUpGaugePressureMpa: plan.beadUpGaugePressureMpa.max + 0.5 }).findings[0]?.parameter).toBe('beadUpPressure');
+    expect(checkJoint(plan, { ...good, beadUpGaugePressureMpa: null }).findings[0]?.kind).toBe('not-recorded');
+  });
+});

@@ -1,0 +1,148 @@
+import { unit } from 'mathjs';
+import { describe, expect, test } from 'vitest';
+import {
+  DomainError,
+  gaugePressureForInterfacialPressure,
+  interfacialPressureFromGauge,
+  ipsMinimumWallIn,
+  nominalOutsideDiameterMm,
+  planButtFusion,
+} from '@/domain';
+import { inToMm } from '@/domain/units';
+
+const mpa = (psi: number) => unit(psi, 'psi').toNumber('MPa');
+const mm2 = (in2: number) => unit(in2, 'inch^2').toNumber('mm^2');
+
+/** Relative agreement to 1 part in 10⁹ (mathjs rounds psi to 6894.75729 Pa). */
+function expectClose(actual: number, expected: number): void {
+  expect(Math.abs(actual - expected)).toBeLessThanOrEqual(1e-9 * Math.max(1, Math.abs(expected)));
+}
+
+describe('gauge pressure = IFP × fusion area ÷ piston area + drag', () => {
+  // The same joint worked in inch-pound units, independently of the domain's SI code.
+  // Machine: total effective piston area 4.71 in², drag 30 psi (our own example values).
+  test.each([
+    ['2', 11],
+    ['6', 11],
+    ['8', 13.5],
+    ['12', 17],
+  ])('%s" IPS SDR %s under ASTM F2620', (nominal, sdr) => {
+    const odIn = Number(nominal === '2' ? 2.375 : nominal === '6' ? 6.625 : nominal === '8' ? 8.625 : 12.75);
+    const tIn = odIn / sdr;
+    const areaIn2 = Math.PI * (odIn - tIn) * tIn;
+    const tepaIn2 = 4.71;
+    const dragPsi = 30;
+    // source: gauge method, standards.md §2.1 (CONFIRMED-2nd); IFP 60–90 psi from memory, unconfirmed
+    const gaugeMinPsi = (60 * areaIn2) / tepaIn2 + dragPsi;
+    const gaugeMaxPsi = (90 * areaIn2) / tepaIn2 + dragPsi;
+    const plan = planButtFusion({
+      standard: 'astm-f2620',
+      outsideDiameterMm: nominalOutsideDiameterMm('ips', nominal),
+      sdr,
+      pistonAreaMm2: mm2(tepaIn2),
+      dragPressureMpa: mpa(dragPsi),
+    });
+    expectClose(plan.fusionAreaMm2, mm2(areaIn2));
+    expectClose(plan.fusionGaugePressureMpa.min, mpa(gaugeMinPsi));
+    expectClose(plan.fusionGaugePressureMpa.max, mpa(gaugeMaxPsi));
+    expect(plan.beadUpGaugePressureMpa).toEqual(plan.fusionGaugePressureMpa);
+    expect(plan.coolingGaugePressureMpa).toBeNull();
+  });
+
+  test('the inverse gives the interfacial pressure back', () => {
+    // source: standards.md §2.1 inverse IFP = (P_gauge − P_drag) · TEPA / A_fusion
+    const areaMm2 = mm2(11.395);
+    const gauge = gaugePressureForInterfacialPressure({ interfacialPressureMpa: mpa(75), fusionAreaMm2: areaMm2, pistonAreaMm2: mm2(4.71), dragPressureMpa: mpa(30) });
+    expectClose(interfacialPressureFromGauge({ gaugePressureMpa: gauge, dragPressureMpa: mpa(30), pistonAreaMm2: mm2(4.71), fusionAreaMm2: areaMm2 }), mpa(75));
+    // a 211 psi reading on that machine and pipe: (211 − 30) × 4.71 / 11.395 psi
+    expectClose(
+      interfacialPressureFromGauge({ gaugePressureMpa: mpa(211), dragPressureMpa: mpa(30), pistonAreaMm2: mm2(4.71), fusionAreaMm2: areaMm2 }),
+      mpa(((211 - 30) * 4.71) / 11.395),
+    );
+  });
+});
+
+describe('plans per procedure', () => {
+  const machine = { pistonAreaMm2: 3000, dragPressureMpa: 0.2 };
+  test.each([
+    // from memory, unconfirmed: F2620 bead/removal/cooling tables (standards.md §1.2 b, §1.3, §1.1); 142.5 s rounds half up to 143 (our rounding)
+    { name: 'F2620 2" IPS SDR 11', standard: 'astm-f2620', od: inToMm(2.375), sdr: 11, wall: undefined, bead: inToMm(1 / 16), soak: null, changeover: 8, buildUp: null, cooling: 143 },
+    // from memory, unconfirmed: table wall 0.602 in × 11 min/in = 397.3 s → 397 s
+    { name: 'F2620 6" IPS SDR 11 (table wall)', standard: 'astm-f2620', od: inToMm(6.625), sdr: 11, wall: inToMm(0.602), bead: inToMm(3 / 16), soak: null, changeover: 15, buildUp: null, cooling: 397 },
+    // from memory, unconfirmed: wall 0.076 in is under the 0.17 in start of the removal table
+    { name: 'F2620 ½" IPS SDR 11', standard: 'astm-f2620', od: inToMm(0.84), sdr: 11, wall: undefined, bead: inToMm(1 / 32), soak: null, changeover: null, buildUp: null, cooling: Math.round((0.84 / 11) * 660) },
+    // from memory, unconfirmed: DVS 2207-1 wall 10 mm row 7–12 mm, linear within the band
+    { name: 'DVS 110 SDR 11', standard: 'dvs-2207-1', od: 110, sdr: 11, wall: undefined, bead: 1.5, soak: { target: 100, min: 100, max: null }, changeover: 7, buildUp: 7, cooling: 816 },
+    // from memory, unconfirmed: ISO 21307 SLP t2 = (11 ± 1)·e, t3 = 4 + 0.3·e, cooling e + 3 min
+    { name: 'ISO SLP 110 SDR 11', standard: 'iso-21307-slp', od: 110, sdr: 11, wall: undefined, bead: null, soak: { target: 110, min: 100, max: 120 }, changeover: 7, buildUp: null, cooling: 780 },
+    // from memory, unconfirmed: ISO 21307 SHP t3 = 8 + 0.1·e, cooling 0.43·e min
+    { name: 'ISO SHP 110 SDR 11', standard: 'iso-21307-shp', od: 110, sdr: 11, wall: undefined, bead: null, soak: null, changeover: 9, buildUp: null, cooling: 258 },
+    // from memory, unconfirmed: ISO 21307 DLP t3 ≈ 10 s, cooling e + 3 min; wall 500/17 = 29.41 mm
+    { name: 'ISO DLP 500 SDR 17', standard: 'iso-21307-dlp', od: 500, sdr: 17, wall: undefined, bead: null, soak: null, changeover: 10, buildUp: null, cooling: Math.round((500 / 17 + 3) * 60) },
+  ] as const)('$name', (row) => {
+    const plan = planButtFusion({ standard: row.standard, outsideDiameterMm: row.od, sdr: row.sdr, wallMm: row.wall, ...machine });
+    expect(plan.wallMm).toBeCloseTo(row.wall ?? row.od / row.sdr, 12);
+    if (row.bead === null) expect(plan.minBeadMm).toBeNull();
+    else expect(plan.minBeadMm).toBeCloseTo(row.bead, 12);
+    expect(plan.heatSoakTargetS).toBe(row.soak?.target ?? null);
+    expect(plan.heatSoakS).toEqual(row.soak ? { min: row.soak.min, max: row.soak.max } : null);
+    expect(plan.maxChangeoverS).toBe(row.changeover);
+    expect(plan.pressureBuildUpS).toBe(row.buildUp);
+    expect(plan.minCoolingS).toBe(row.cooling);
+    expect(plan.standard).toBe(row.standard);
+  });
+
+  test('F2620 heater window comes through in °C', () => {
+    // source: ASTM F2620 via PPI page: 400–450 °F (CONFIRMED)
+    const plan = planButtFusion({ standard: 'astm-f2620', outsideDiameterMm: 60.325, sdr: 11, ...machine });
+    expect(plan.heaterTemperatureC.min).toBeCloseTo(unit(400, 'degF').toNumber('degC'), 9);
+    expect(plan.heaterTemperatureC.max).toBeCloseTo(unit(450, 'degF').toNumber('degC'), 9);
+    expect(plan.sources.heaterTemperature.status).toBe('confirmed');
+    expect(plan.sources.cooling?.status).toBe('from-memory');
+  });
+
+  test('a value the table does not give is null and explained in the notes', () => {
+    const plan = planButtFusion({ standard: 'astm-f2620', outsideDiameterMm: inToMm(0.84), sdr: 11, ...machine });
+    expect(plan.maxChangeoverS).toBeNull();
+    expect(plan.notes).toContain('ASTM F2620 butt fusion gives no maximum changeover time for a 1.9 mm wall.');
+  });
+
+  test('dual low-pressure gives a reduced cooling gauge pressure', () => {
+    // from memory, unconfirmed: P5 = 0.025 MPa interfacial
+    const plan = planButtFusion({ standard: 'iso-21307-dlp', outsideDiameterMm: 500, sdr: 17, ...machine });
+    const expected = (0.025 * plan.fusionAreaMm2) / 3000 + 0.2;
+    expect(plan.coolingGaugePressureMpa).toEqual({ min: expected, max: expected });
+    expect(plan.coolingInterfacialPressureMpa).toEqual({ min: 0.025, max: 0.025 });
+  });
+
+  test('IPS table walls can be passed in', () => {
+    // source: ASTM F2897-23a Table 6: 2" SDR 11 wall 0.216 in (CONFIRMED)
+    const plan = planButtFusion({ standard: 'astm-f2620', outsideDiameterMm: inToMm(2.375), sdr: 11, wallMm: inToMm(ipsMinimumWallIn('2', 11)), ...machine });
+    expect(plan.wallMm).toBeCloseTo(inToMm(0.216), 12);
+  });
+});
+
+describe('plan input errors', () => {
+  const ok = { standard: 'astm-f2620' as const, outsideDiameterMm: 60.325, sdr: 11, pistonAreaMm2: 3000, dragPressureMpa: 0.2 };
+  test.each([
+    [{ ...ok, standard: undefined }, /A standard or a procedure is required/],
+    [{ ...ok, pistonAreaMm2: 0 }, /Piston area must be more than 0 mm²/],
+    [{ ...ok, dragPressureMpa: -0.1 }, /Drag pressure must be 0 MPa or more/],
+    [{ ...ok, sdr: 2 }, /SDR must be more than 2/],
+    [{ ...ok, outsideDiameterMm: 0 }, /Outside diameter must be more than 0 mm/],
+    // from memory, unconfirmed: ISO DLP applies to walls of 20 mm and more
+    [{ ...ok, standard: 'iso-21307-dlp' as const, outsideDiameterMm: 110, sdr: 11 }, /ISO 21307 dual low-pressure applies to walls from 20.0 mm to 70.0 mm; this pipe's wall is 10.0 mm/],
+    // source: ISO 21307:2009/2011 scope up to 70 mm (CONFIRMED); DVS table ends at 70 mm (from memory, unconfirmed)
+    [{ ...ok, standard: 'dvs-2207-1' as const, outsideDiameterMm: 825, sdr: 11 }, /applies to walls up to 70.0 mm; this pipe's wall is 75.0 mm/],
+  ])('refuses %o', (input, message) => {
+    expect(() => planButtFusion(input)).toThrow(DomainError);
+    expect(() => planButtFusion(input)).toThrow(message);
+  });
+  test('refuses both a standard and a procedure', () => {
+    expect(() => planButtFusion({ ...ok, procedure: { standard: 'astm-f2620', label: 'x', windows: {} as never, notes: [] } })).toThrow(/either a standard or a procedure/);
+  });
+  test('exactly 70 mm wall is inside the ISO range', () => {
+    // source: ISO 21307 scope "up to and including 70 mm" (CONFIRMED)
+    expect(planButtFusion({ ...ok, standard: 'iso-21307-slp', outsideDiameterMm: 770, sdr: 11 }).wallMm).toBe(70);
+  });
+});
