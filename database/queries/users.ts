@@ -141,3 +141,30 @@ export async function updateUnitSystem({ id, unitSystem }: { id: number; unitSys
 export async function listCrews(_: Record<string, never> = {}, trx?: Db): Promise<{ id: number; name: string; trailer: string | null }[]> {
   return conn(trx)("crews").where("is_active", true).select("id", "name", "trailer").orderBy("name");
 }
+
+// --- Added for the Crew screen (issue 4) -----------------------------------------------
+
+/**
+ * Locks the rows of every active admin (SELECT … FOR UPDATE) and returns their ids, so two
+ * admins removing each other at once cannot both succeed: the second waits, then sees one
+ * admin left. Call inside the transaction that changes roles or the active flag.
+ */
+export async function lockActiveAdminIds(_: Record<string, never>, trx: Db): Promise<number[]> {
+  const rows = (await conn(trx)("users").where("is_active", true).whereRaw("FIND_IN_SET('admin', roles) > 0").forUpdate().select("id")) as { id: number }[];
+  return rows.map((r) => r.id);
+}
+
+export async function isEmailTaken({ email, exceptId }: { email: string; exceptId?: number }, trx?: Db): Promise<boolean> {
+  const q = conn(trx)("users").where({ email: email.toLowerCase() });
+  if (exceptId) q.whereNot({ id: exceptId });
+  return Boolean(await q.first("id"));
+}
+
+/** Like updateUserPassword, with optimistic locking: false when `version` is stale. */
+export async function updateUserPasswordIfVersion({ id, version, passwordHash }: { id: number; version: number; passwordHash: string }, trx?: Db): Promise<boolean> {
+  const k = conn(trx);
+  const changed = await k("users")
+    .where({ id, version })
+    .update({ password_hash: passwordHash, session_version: k.raw("session_version + 1"), version: k.raw("version + 1"), updated_at: k.fn.now(3) });
+  return changed === 1;
+}

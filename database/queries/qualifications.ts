@@ -1,0 +1,174 @@
+// Qualifications of people to make joints under a procedure (49 CFR 192.285): each
+// qualification or requalification, and production joints found unacceptable by test.
+// Both are append-only records; status is computed by the domain (qualificationStatus).
+import type { QualificationMethod } from "@/domain/office/schemas";
+import { qualificationOverview, type PersonProcedureStatus } from "@/domain/office/qualifications";
+import { isoDateOf } from "@/domain/office/dates";
+import { conn, type Db } from "../client";
+import { isoDay } from "./jobs";
+
+export type QualificationRecord = {
+  id: number;
+  userId: number;
+  userName: string;
+  procedureId: number;
+  procedureCode: string;
+  qualifiedOn: string;
+  method: QualificationMethod;
+  specimenResult: string;
+  evaluator: string;
+  evidenceAttachmentId: number | null;
+  recordedBy: number | null;
+  recordedAt: Date;
+};
+
+export type QualificationFailureRecord = {
+  id: number;
+  userId: number;
+  userName: string;
+  procedureId: number;
+  procedureCode: string;
+  failedOn: string;
+  jointId: number | null;
+  notes: string | null;
+  recordedBy: number | null;
+  recordedAt: Date;
+};
+
+function qualificationQuery(trx?: Db) {
+  return conn(trx)("qualifications")
+    .join("users", "users.id", "qualifications.user_id")
+    .join("procedures", "procedures.id", "qualifications.procedure_id")
+    .select("qualifications.*", "users.name as user_name", "procedures.code as procedure_code");
+}
+
+function failureQuery(trx?: Db) {
+  return conn(trx)("qualification_failures")
+    .join("users", "users.id", "qualification_failures.user_id")
+    .join("procedures", "procedures.id", "qualification_failures.procedure_id")
+    .select("qualification_failures.*", "users.name as user_name", "procedures.code as procedure_code");
+}
+
+function toQualification(r: Record<string, unknown>): QualificationRecord {
+  return {
+    id: r.id as number,
+    userId: r.user_id as number,
+    userName: r.user_name as string,
+    procedureId: r.procedure_id as number,
+    procedureCode: r.procedure_code as string,
+    qualifiedOn: isoDay(r.qualified_on as Date) as string,
+    method: r.method as QualificationMethod,
+    specimenResult: r.specimen_result as string,
+    evaluator: r.evaluator as string,
+    evidenceAttachmentId: r.evidence_attachment_id == null ? null : Number(r.evidence_attachment_id),
+    recordedBy: (r.recorded_by as number | null) ?? null,
+    recordedAt: r.recorded_at as Date,
+  };
+}
+
+function toFailure(r: Record<string, unknown>): QualificationFailureRecord {
+  return {
+    id: r.id as number,
+    userId: r.user_id as number,
+    userName: r.user_name as string,
+    procedureId: r.procedure_id as number,
+    procedureCode: r.procedure_code as string,
+    failedOn: isoDay(r.failed_on as Date) as string,
+    jointId: r.joint_id == null ? null : Number(r.joint_id),
+    notes: (r.notes as string | null) ?? null,
+    recordedBy: (r.recorded_by as number | null) ?? null,
+    recordedAt: r.recorded_at as Date,
+  };
+}
+
+/** A person's qualifications (optionally for one procedure), newest first: the dates feed qualificationStatus. */
+export async function listQualificationsForUser({ userId, procedureId }: { userId: number; procedureId?: number }, trx?: Db): Promise<QualificationRecord[]> {
+  const q = qualificationQuery(trx).where("qualifications.user_id", userId).orderBy([{ column: "qualifications.qualified_on", order: "desc" }, { column: "qualifications.id", order: "desc" }]);
+  if (procedureId) q.where("qualifications.procedure_id", procedureId);
+  return (await q).map(toQualification);
+}
+
+/** A person's production-joint test failures (optionally for one procedure), newest first. */
+export async function listQualificationFailuresForUser({ userId, procedureId }: { userId: number; procedureId?: number }, trx?: Db): Promise<QualificationFailureRecord[]> {
+  const q = failureQuery(trx).where("qualification_failures.user_id", userId).orderBy([{ column: "qualification_failures.failed_on", order: "desc" }, { column: "qualification_failures.id", order: "desc" }]);
+  if (procedureId) q.where("qualification_failures.procedure_id", procedureId);
+  return (await q).map(toFailure);
+}
+
+export async function listAllQualifications({ limit = 500 }: { limit?: number } = {}, trx?: Db): Promise<QualificationRecord[]> {
+  return (await qualificationQuery(trx).orderBy([{ column: "qualifications.qualified_on", order: "desc" }, { column: "qualifications.id", order: "desc" }]).limit(limit)).map(toQualification);
+}
+
+export async function listAllQualificationFailures({ limit = 500 }: { limit?: number } = {}, trx?: Db): Promise<QualificationFailureRecord[]> {
+  return (await failureQuery(trx).orderBy([{ column: "qualification_failures.failed_on", order: "desc" }, { column: "qualification_failures.id", order: "desc" }]).limit(limit)).map(toFailure);
+}
+
+export type QualificationStatusRow = PersonProcedureStatus & { userName: string; userIsActive: boolean; procedureCode: string; procedureName: string };
+
+/**
+ * Status of every person × procedure with a record, on `now`'s calendar day (UTC) or on
+ * the given ISO date — from the domain's 49 CFR 192.285(c) rule. Optionally one person.
+ */
+export async function qualificationStatusOverview({ now = new Date(), on, userId }: { now?: Date; on?: string; userId?: number } = {}, trx?: Db): Promise<QualificationStatusRow[]> {
+  const k = conn(trx);
+  const qq = k("qualifications").select("user_id", "procedure_id", "qualified_on");
+  const fq = k("qualification_failures").select("user_id", "procedure_id", "failed_on");
+  if (userId) {
+    qq.where({ user_id: userId });
+    fq.where({ user_id: userId });
+  }
+  const [qs, fs] = await Promise.all([qq, fq]);
+  const rows = qualificationOverview({
+    qualifications: qs.map((r: Record<string, unknown>) => ({ userId: r.user_id as number, procedureId: r.procedure_id as number, qualifiedOn: isoDay(r.qualified_on as Date) as string })),
+    failures: fs.map((r: Record<string, unknown>) => ({ userId: r.user_id as number, procedureId: r.procedure_id as number, failedOn: isoDay(r.failed_on as Date) as string })),
+    on: on ?? isoDateOf(now),
+  });
+  if (!rows.length) return [];
+  const users = new Map(
+    (await k("users").whereIn("id", [...new Set(rows.map((r) => r.userId))]).select("id", "name", "is_active")).map((u: { id: number; name: string; is_active: number }) => [u.id, u]),
+  );
+  const procedures = new Map(
+    (await k("procedures").whereIn("id", [...new Set(rows.map((r) => r.procedureId))]).select("id", "code", "name")).map((p: { id: number; code: string; name: string }) => [p.id, p]),
+  );
+  return rows
+    .map((r) => ({
+      ...r,
+      userName: users.get(r.userId)?.name ?? `Person ${r.userId}`,
+      userIsActive: Boolean(users.get(r.userId)?.is_active),
+      procedureCode: procedures.get(r.procedureId)?.code ?? `Procedure ${r.procedureId}`,
+      procedureName: procedures.get(r.procedureId)?.name ?? "",
+    }))
+    .sort((a, b) => a.userName.localeCompare(b.userName) || a.procedureCode.localeCompare(b.procedureCode));
+}
+
+export async function insertQualification(
+  input: { userId: number; procedureId: number; qualifiedOn: string; method: QualificationMethod; specimenResult: string; evaluator: string; evidenceAttachmentId?: number | null; recordedBy: number },
+  trx?: Db,
+): Promise<number> {
+  const [id] = await conn(trx)("qualifications").insert({
+    user_id: input.userId,
+    procedure_id: input.procedureId,
+    qualified_on: input.qualifiedOn,
+    method: input.method,
+    specimen_result: input.specimenResult,
+    evaluator: input.evaluator,
+    evidence_attachment_id: input.evidenceAttachmentId ?? null,
+    recorded_by: input.recordedBy,
+  });
+  return Number(id);
+}
+
+export async function insertQualificationFailure(
+  input: { userId: number; procedureId: number; failedOn: string; jointId?: number | null; notes: string; recordedBy: number },
+  trx?: Db,
+): Promise<number> {
+  const [id] = await conn(trx)("qualification_failures").insert({
+    user_id: input.userId,
+    procedure_id: input.procedureId,
+    failed_on: input.failedOn,
+    joint_id: input.jointId ?? null,
+    notes: input.notes,
+    recorded_by: input.recordedBy,
+  });
+  return Number(id);
+}
