@@ -50,6 +50,9 @@ function isRealDate(text: string): boolean {
   return date.getUTCFullYear() === y && date.getUTCMonth() === m - 1 && date.getUTCDate() === d;
 }
 
+/** Page names under /coils/ that a coil id may not take. */
+export const RESERVED_COIL_CODES: readonly string[] = ["receive", "new"];
+
 export const COIL_CODE_PATTERN = /^[A-Za-z0-9][A-Za-z0-9._-]{1,39}$/;
 
 /** Receive a coil: what the print line and the F2897 code say, and the receipt inspection. */
@@ -58,7 +61,8 @@ export const receiveCoilSchema = z
     coilCode: z
       .string({ error: "Enter the coil id for the label." })
       .trim()
-      .regex(COIL_CODE_PATTERN, { error: "Coil id: 2–40 letters, digits, dots, dashes or underscores, starting with a letter or digit." }),
+      .regex(COIL_CODE_PATTERN, { error: "Coil id: 2–40 letters, digits, dots, dashes or underscores, starting with a letter or digit." })
+      .refine((code) => !RESERVED_COIL_CODES.includes(code.toLowerCase()), { error: "That word is a Beadline page name; choose another coil id." }),
     manufacturer: z.string({ error: "Enter the pipe maker." }).trim().min(2, { error: "Enter the pipe maker." }).max(120, { error: "Pipe maker is too long (120 characters at most)." }),
     manufacturerCode: z.preprocess(
       (v) => (typeof v === "string" && v.trim() === "" ? undefined : v ?? undefined),

@@ -20,6 +20,7 @@ export type DigestEvent = { kind: string; subject: string; bodyText: string; cre
 /** Plain-language heading per alert kind, in the order the digest lists them. */
 export const DIGEST_SECTIONS: readonly { kind: string; heading: string }[] = [
   { kind: "joint-out-of-limits", heading: "Joints out of limits" },
+  { kind: "joint-cut-out", heading: "Joints cut out, to be remade" },
   { kind: "qualification-lapsing", heading: "Qualifications lapsing within 30 days" },
   { kind: "qualification-lapsed", heading: "Qualifications lapsed" },
   { kind: "heater-check-overdue", heading: "Heater plate checks overdue" },

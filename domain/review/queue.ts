@@ -1,7 +1,7 @@
 // The review queue's ordering rule, and the plan-versus-recorded comparison each queue item
 // shows. Canonical SI in, the user's units out (domain/units).
 import type { FusionPlan } from "@/domain/fusion/plan";
-import type { JointFinding, JointOutcome, JointParameter } from "@/domain/fusion/check";
+import { checkJoint, type JointFinding, type JointOutcome, type JointParameter } from "@/domain/fusion/check";
 import { formatQuantity, formatRange, type QuantityKind, type UnitSystem } from "@/domain/units/format";
 
 /**
@@ -76,4 +76,33 @@ export function planVersusRecorded(plan: FusionPlan, recorded: RecordedValues, f
   push("beadRollback", "visualBead", "Bead rolled back to the pipe", "required", recorded.beadRollbackOk, yesNo(recorded.beadRollbackOk));
   push("vGroove", "visualBead", "V-groove above the pipe surface", "required", recorded.vGrooveOk, yesNo(recorded.vGrooveOk));
   return rows;
+}
+
+/**
+ * The joint's findings with messages in the viewer's units: the check is run again on the
+ * stored plan and values with `system`; when that does not give the same parameters as the
+ * findings stored at recording (a value the check then had that is not stored here), the
+ * stored findings are shown as they are.
+ */
+export function findingsForViewer(plan: FusionPlan | null, recorded: RecordedValues, stored: readonly JointFinding[], system: UnitSystem): JointFinding[] {
+  if (!plan) return [...stored];
+  const visualBeadOk = recorded.beadRollbackOk === null || recorded.vGrooveOk === null ? null : recorded.beadRollbackOk && recorded.vGrooveOk;
+  const again = checkJoint(
+    plan,
+    {
+      heaterTemperatureC: recorded.heaterTemperatureC,
+      fusionGaugePressureMpa: recorded.fusionGaugeMpa,
+      beadMm: recorded.beadMm,
+      changeoverS: recorded.changeoverS,
+      coolingS: recorded.coolingS,
+      heatSoakS: recorded.heatSoakS,
+      beadUpGaugePressureMpa: recorded.beadUpGaugeMpa,
+      facingOk: recorded.facingOk,
+      alignmentOk: recorded.alignmentOk,
+      visualBeadOk,
+    },
+    { system },
+  ).findings;
+  const key = (list: readonly JointFinding[]) => list.map((f) => `${f.parameter}:${f.kind}`).sort().join("|");
+  return key(again) === key(stored) ? again : [...stored];
 }
