@@ -4,13 +4,14 @@ import { getIronSession } from "iron-session";
 import { signInSchema } from "@/domain/crew/schemas";
 import { AppError, describeFieldErrors, fieldErrorsFromIssues } from "@/domain/result";
 import { authenticate, clientAddress, signOutUser } from "@/app/_lib/auth";
-import { defineRoute, errorResponse } from "@/app/_lib/guard";
+import { defineRoute, errorResponse, isCrossOrigin } from "@/app/_lib/guard";
 import { sessionOptions, type SessionData } from "@/app/_lib/session";
 import { isDatabaseUnavailable } from "@/database/client";
 
 export const dynamic = "force-dynamic";
 
 export async function POST(request: Request): Promise<Response> {
+  if (isCrossOrigin(request)) return errorResponse("forbidden", "Cross-site request refused."); // login CSRF
   let raw: unknown;
   try {
     raw = await request.json();
