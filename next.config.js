@@ -35,6 +35,8 @@ function securityHeaders() {
 const nextConfig = {
   distDir: process.env.BEADLINE_DIST_DIR || ".next",
   poweredByHeader: false,
+  // Type-checking runs once in `npm test` (tsc --noEmit over the whole tree); the build skips it.
+  typescript: { ignoreBuildErrors: true },
   serverExternalPackages: ["knex", "mysql2", "exceljs", "pino", "nodemailer", "@aws-sdk/client-s3"],
   experimental: { serverActions: { bodySizeLimit: "12mb" } },
   async headers() {

@@ -1,8 +1,9 @@
 // Browser tests: Debian's Chromium driven by Playwright against `next start` on a free
-// port, with the demo scenario loaded into the throw-away database (tests/e2e/global-setup.ts).
+// port, with the demo scenario loaded into the throw-away database (tests/support/seed-demo-cli.ts).
 import { defineConfig, devices } from "@playwright/test";
 
-const port = Number(process.env.E2E_PORT || 3100 + (process.pid % 500));
+// tests/run.ts picks a free port and passes it down (worker processes re-read this file, so no pid-based values).
+const port = Number(process.env.E2E_PORT || 3100);
 const chromiumArgs = ["--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync", "--disable-dev-shm-usage"];
 
 export default defineConfig({
@@ -15,7 +16,6 @@ export default defineConfig({
   timeout: 60_000,
   expect: { timeout: 10_000 },
   reporter: [["list"]],
-  globalSetup: "./tests/e2e/global-setup.ts",
   use: {
     baseURL: `http://127.0.0.1:${port}`,
     trace: "off",

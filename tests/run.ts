@@ -5,10 +5,10 @@
 //
 // Flags: --skip-lint  --skip-e2e  --only-vitest [files…]  --only-e2e [files…]
 import { spawn } from "node:child_process";
-import { mkdtempSync, rmSync } from "node:fs";
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
-import { ensureMariadbInstalled } from "../database/local/mariadb";
+import { ensureMariadbInstalled, freePort } from "../database/local/mariadb";
 import { startLocalStack, type LocalStack } from "../database/local/stack";
 import { migrateLatest } from "../database/migrate";
 
@@ -74,11 +74,16 @@ async function main(): Promise<number> {
     if (runE2e) {
       const distDir = process.env.BEADLINE_TEST_DIST_DIR || ".next-test";
       const e2eEnv = { ...env, NODE_ENV: "production", BEADLINE_DIST_DIR: distDir, BEADLINE_PUBLIC_URL: "" };
+      // next build adds its dist folder to tsconfig.json's include list: keep the file as committed.
+      const tsconfig = readFileSync(path.join(ROOT, "tsconfig.json"), "utf8");
       const build = await run("next build (for browser tests)", process.execPath, [path.join(ROOT, "node_modules", "next", "dist", "bin", "next"), "build"], e2eEnv);
+      writeFileSync(path.join(ROOT, "tsconfig.json"), tsconfig);
       results.push(["next build", build]);
       if (build === 0) {
+        results.push(["demo seed", await run("demo scenario into the test database", bin("tsx"), ["tests/support/seed-demo-cli.ts"], env)]);
         const files = filesAfter("--only-e2e");
-        results.push(["playwright", await run("browser tests (Playwright, Chromium)", bin("playwright"), ["test", ...files], { ...e2eEnv, CI: process.env.CI ?? "" })]);
+        const e2ePort = String(await freePort());
+        results.push(["playwright", await run("browser tests (Playwright, Chromium)", bin("playwright"), ["test", ...files], { ...e2eEnv, E2E_PORT: e2ePort, CI: process.env.CI ?? "" })]);
       }
     }
   } catch (error) {
