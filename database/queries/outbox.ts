@@ -142,11 +142,13 @@ export async function enqueueJointAlert({ jointId }: { jointId: number }, trx?: 
     .join("jobs", "jobs.id", "j.job_id")
     .join("users as f", "f.id", "j.fuser_id")
     .leftJoin("fusion_machines as m", "m.id", "j.machine_id")
+    .leftJoin("joint_states as js", "js.joint_id", "j.id")
     .where("j.id", jointId)
     .first(
       "j.id",
       "j.joint_no",
       "j.outcome",
+      "js.outcome as state_outcome",
       "j.findings",
       "j.made_at",
       "j.station",
@@ -162,6 +164,7 @@ export async function enqueueJointAlert({ jointId }: { jointId: number }, trx?: 
         id: number;
         joint_no: number;
         outcome: string;
+        state_outcome: string | null;
         findings: string;
         made_at: Date;
         station: string | null;
@@ -174,12 +177,22 @@ export async function enqueueJointAlert({ jointId }: { jointId: number }, trx?: 
         machine_tag: string | null;
       }
     | undefined;
-  if (!joint || joint.outcome !== "out-of-limits") return { queued: 0 };
+  // Out of limits when recorded, or since (a pressure trace found it); the projection row
+  // may not exist yet inside the recording transaction.
+  if (!joint || (joint.state_outcome ?? joint.outcome) !== "out-of-limits") return { queued: 0 };
   let findings: { message?: string }[] = [];
   try {
     findings = JSON.parse(joint.findings) as { message?: string }[];
   } catch {
     findings = [];
+  }
+  const trace = (await k("joint_traces").where({ joint_id: jointId }).orderBy("id", "desc").first("findings")) as { findings: string } | undefined;
+  if (trace) {
+    try {
+      findings = [...findings, ...(JSON.parse(trace.findings) as { message?: string }[]).map((f) => ({ message: `Pressure trace: ${f.message ?? ""}` }))];
+    } catch {
+      // a trace row without readable findings adds nothing
+    }
   }
   const label = `${joint.job_code} joint ${joint.joint_no}`;
   const subject = `Out of limits: ${label} (${findings.length} ${findings.length === 1 ? "finding" : "findings"})`;
@@ -202,6 +215,41 @@ export async function enqueueJointAlert({ jointId }: { jointId: number }, trx?: 
     if (result.queued) queued += 1;
   }
   return { queued };
+}
+
+/**
+ * Tells the fuser their joint was cut out and must be remade (dedupe key
+ * `joint-cut-out:<jointId>`). Call it in the decision's transaction.
+ */
+export async function enqueueCutOutNotice({ jointId, reason, inspectorName }: { jointId: number; reason: string; inspectorName: string }, trx?: Db): Promise<{ queued: number }> {
+  const k = conn(trx);
+  const row = (await k("joints as j")
+    .join("jobs", "jobs.id", "j.job_id")
+    .join("users as f", "f.id", "j.fuser_id")
+    .where("j.id", jointId)
+    .first("j.id", "j.joint_no", "j.station", "jobs.code as job_code", "jobs.name as job_name", "f.id as fuser_id", "f.email", "f.daily_digest", "f.is_active")) as
+    | { id: number; joint_no: number; station: string | null; job_code: string; job_name: string; fuser_id: number; email: string; daily_digest: number; is_active: number }
+    | undefined;
+  if (!row || !row.is_active) return { queued: 0 };
+  const label = `${row.job_code} joint ${row.joint_no}`;
+  const result = await enqueueUserEvent(
+    {
+      recipient: { id: row.fuser_id, email: row.email, dailyDigest: Boolean(row.daily_digest) },
+      subject: `Cut out: ${label} must be remade`,
+      bodyText: [
+        `${inspectorName} cut out ${label}${row.station ? ` at station ${row.station}` : ""} (${row.job_name}).`,
+        "",
+        `Reason: ${reason}`,
+        "",
+        "Remake the joint and record the remake as replacing this one on the Trench screen.",
+        `Details: ${publicUrl()}/review?joint=${row.id}`,
+      ].join("\n"),
+      kind: "joint-cut-out",
+      dedupeKey: `joint-cut-out:${row.id}`,
+    },
+    k,
+  );
+  return { queued: result.queued ? 1 : 0 };
 }
 
 /** Active admins as recipients (qualification and heater alerts). */

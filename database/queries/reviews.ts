@@ -1,0 +1,344 @@
+// Review of recorded joints: the queue (pending joints, out of limits first, then by age),
+// one joint's evidence (plan, recorded values, photos, pressure trace, revisions), and the
+// writes a decision makes — a new joint revision and the joint_states projection — which
+// the caller puts in one transaction with the audit entry.
+import type { JointFinding, JointOutcome, JointParameter } from "@/domain/fusion/check";
+import type { FusionPlan } from "@/domain/fusion/plan";
+import type { PressureTraceReading } from "@/domain/pressure-trace/read";
+import type { ReviewState } from "@/domain/review/labels";
+import type { RecordedValues } from "@/domain/review/queue";
+import type { ChartPoint } from "@/domain/review/trace-check";
+import { conn, type Db } from "../client";
+
+export type RevisionKind = "recorded" | "corrected" | "accepted" | "cut-out" | "trace-attached";
+
+export type QueueFilter = { jobId?: number; fuserId?: number; machineId?: number; finding?: JointParameter };
+
+export type PhotoRef = { id: number; originalName: string | null; contentType: string };
+
+export type TraceSummary = {
+  id: number;
+  attachmentId: number;
+  revisionNo: number;
+  sampleCount: number;
+  pressureUnit: "mpa" | "psi";
+  outcome: JointOutcome;
+  findings: JointFinding[];
+  reading: PressureTraceReading;
+  uploadedAt: Date;
+  uploadedByName: string;
+};
+
+export type ReviewItem = {
+  jointId: number;
+  jobId: number;
+  jobCode: string;
+  jobName: string;
+  jointNo: number;
+  kind: string;
+  fuserId: number;
+  fuserName: string;
+  machineId: number;
+  machineTag: string;
+  heaterTag: string;
+  procedureLabel: string | null;
+  madeAt: Date;
+  station: string | null;
+  outsideDiameterMm: number;
+  sdr: number;
+  /** Outcome in the projection (the trace check can turn it to out of limits). */
+  outcome: JointOutcome;
+  /** Outcome of the check when the joint was recorded. */
+  recordedOutcome: JointOutcome;
+  reviewState: ReviewState;
+  revisionNo: number;
+  findings: JointFinding[];
+  plan: FusionPlan | null;
+  recorded: RecordedValues;
+  photos: PhotoRef[];
+  trace: TraceSummary | null;
+  replacesJointId: number | null;
+  replacedByJointId: number | null;
+};
+
+export type RevisionRecord = { id: number; revisionNo: number; kind: RevisionKind; byUserId: number; byName: string; at: Date; reason: string | null; reviewState: ReviewState; changes: Record<string, unknown> | null };
+
+type Row = Record<string, unknown>;
+
+const bool = (v: unknown): boolean | null => (v === null || v === undefined ? null : Boolean(v));
+const num = (v: unknown): number | null => (v === null || v === undefined ? null : Number(v));
+
+function parseJson<T>(text: unknown, fallback: T): T {
+  if (typeof text !== "string" || text === "") return fallback;
+  try {
+    return JSON.parse(text) as T;
+  } catch {
+    return fallback;
+  }
+}
+
+function baseJointQuery(k: Db) {
+  return k("joint_states as js")
+    .join("joints as j", "j.id", "js.joint_id")
+    .join("jobs", "jobs.id", "j.job_id")
+    .join("users as f", "f.id", "j.fuser_id")
+    .join("fusion_machines as m", "m.id", "j.machine_id")
+    .join("heater_plates as h", "h.id", "j.heater_id")
+    .select(
+      "j.*",
+      "js.review_state",
+      "js.revision_no",
+      "js.outcome as state_outcome",
+      "js.replaced_by_joint_id",
+      "jobs.code as job_code",
+      "jobs.name as job_name",
+      "f.name as fuser_name",
+      "m.asset_tag as machine_tag",
+      "h.asset_tag as heater_tag",
+    );
+}
+
+function toItem(r: Row): Omit<ReviewItem, "photos" | "trace"> {
+  const plan = parseJson<FusionPlan | null>(r.plan, null);
+  return {
+    jointId: Number(r.id),
+    jobId: Number(r.job_id),
+    jobCode: r.job_code as string,
+    jobName: r.job_name as string,
+    jointNo: Number(r.joint_no),
+    kind: r.kind as string,
+    fuserId: Number(r.fuser_id),
+    fuserName: r.fuser_name as string,
+    machineId: Number(r.machine_id),
+    machineTag: r.machine_tag as string,
+    heaterTag: r.heater_tag as string,
+    procedureLabel: plan?.procedureLabel ?? null,
+    madeAt: r.made_at as Date,
+    station: (r.station as string | null) ?? null,
+    outsideDiameterMm: Number(r.outside_diameter_mm),
+    sdr: Number(r.sdr),
+    outcome: r.state_outcome as JointOutcome,
+    recordedOutcome: r.outcome as JointOutcome,
+    reviewState: r.review_state as ReviewState,
+    revisionNo: Number(r.revision_no),
+    findings: parseJson<JointFinding[]>(r.findings, []),
+    plan,
+    recorded: {
+      heaterTemperatureC: num(r.heater_temperature_c),
+      dragPressureMpa: num(r.drag_pressure_mpa),
+      beadUpGaugeMpa: num(r.bead_up_gauge_mpa),
+      fusionGaugeMpa: num(r.fusion_gauge_mpa),
+      beadMm: num(r.bead_mm),
+      heatSoakS: num(r.heat_soak_s),
+      changeoverS: num(r.changeover_s),
+      coolingS: num(r.cooling_s),
+      facingOk: bool(r.facing_ok),
+      alignmentOk: bool(r.alignment_ok),
+      beadRollbackOk: bool(r.bead_rollback_ok),
+      vGrooveOk: bool(r.v_groove_ok),
+    },
+    replacesJointId: num(r.replaces_joint_id),
+    replacedByJointId: num(r.replaced_by_joint_id),
+  };
+}
+
+function toTrace(r: Row): TraceSummary {
+  return {
+    id: Number(r.id),
+    attachmentId: Number(r.attachment_id),
+    revisionNo: Number(r.revision_no),
+    sampleCount: Number(r.sample_count),
+    pressureUnit: r.pressure_unit as "mpa" | "psi",
+    outcome: r.outcome as JointOutcome,
+    findings: parseJson<JointFinding[]>(r.findings, []),
+    reading: parseJson<PressureTraceReading>(r.reading, null as unknown as PressureTraceReading),
+    uploadedAt: r.uploaded_at as Date,
+    uploadedByName: (r.uploaded_by_name as string) ?? "",
+  };
+}
+
+async function withEvidence(k: Db, items: Omit<ReviewItem, "photos" | "trace">[]): Promise<ReviewItem[]> {
+  if (items.length === 0) return [];
+  const ids = items.map((i) => i.jointId);
+  const photos = (await k("attachments").whereIn("joint_id", ids).where("kind", "bead-photo").orderBy("id").select("id", "joint_id", "original_name", "content_type")) as Row[];
+  const latest = k("joint_traces").whereIn("joint_id", ids).groupBy("joint_id").select("joint_id").max({ max_id: "id" });
+  const traces = (await k("joint_traces as t")
+    .join("users as u", "u.id", "t.uploaded_by")
+    .whereIn("t.id", k.from(latest.as("l")).select("max_id"))
+    .select("t.id", "t.joint_id", "t.attachment_id", "t.revision_no", "t.sample_count", "t.pressure_unit", "t.outcome", "t.findings", "t.reading", "t.uploaded_at", "u.name as uploaded_by_name")) as Row[];
+  const traceBy = new Map(traces.map((t) => [Number(t.joint_id), toTrace(t)]));
+  return items.map((item) => ({
+    ...item,
+    photos: photos.filter((p) => Number(p.joint_id) === item.jointId).map((p) => ({ id: Number(p.id), originalName: (p.original_name as string | null) ?? null, contentType: p.content_type as string })),
+    trace: traceBy.get(item.jointId) ?? null,
+  }));
+}
+
+function applyFilter(q: ReturnType<typeof baseJointQuery>, filter: QueueFilter) {
+  if (filter.jobId) q.where("j.job_id", filter.jobId);
+  if (filter.fuserId) q.where("j.fuser_id", filter.fuserId);
+  if (filter.machineId) q.where("j.machine_id", filter.machineId);
+  if (filter.finding) {
+    const finding = filter.finding;
+    q.where((w) => {
+      w.whereRaw("FIND_IN_SET(?, j.finding_parameters) > 0", [finding]).orWhereExists(function () {
+        this.select(1).from("joint_traces as jt").whereRaw("jt.joint_id = j.id").whereRaw("FIND_IN_SET(?, jt.finding_parameters) > 0", [finding]);
+      });
+    });
+  }
+  return q;
+}
+
+export type ReviewQueue = { items: ReviewItem[]; total: number; outOfLimits: number };
+
+/**
+ * Joints pending review, out of limits first, then the oldest first (made at, then id —
+ * domain/review/queue.ts compareQueueItems). Two index-ordered reads (one per outcome) so
+ * neither needs a sort over every pending joint. Counts cover the whole filtered queue.
+ */
+export async function listReviewQueue({ filter = {}, limit = 50 }: { filter?: QueueFilter; limit?: number }, trx?: Db): Promise<ReviewQueue> {
+  const k = conn(trx);
+  const part = (outcome: JointOutcome, n: number) =>
+    applyFilter(baseJointQuery(k), filter)
+      .where("js.review_state", "pending-review")
+      .where("js.outcome", outcome)
+      .orderBy([{ column: "js.made_at" }, { column: "js.joint_id" }])
+      .limit(n);
+  const out = ((await part("out-of-limits", limit)) as Row[]).map(toItem);
+  const within = out.length < limit ? ((await part("within-limits", limit - out.length)) as Row[]).map(toItem) : [];
+  const counts = (await applyFilter(baseJointQuery(k).clearSelect(), filter)
+    .where("js.review_state", "pending-review")
+    .select("js.outcome")
+    .count({ n: "*" })
+    .groupBy("js.outcome")) as { outcome: JointOutcome; n: number }[];
+  const count = (o: JointOutcome) => Number(counts.find((c) => c.outcome === o)?.n ?? 0);
+  return { items: await withEvidence(k, [...out, ...within]), total: count("out-of-limits") + count("within-limits"), outOfLimits: count("out-of-limits") };
+}
+
+export async function findReviewItem({ jointId }: { jointId: number }, trx?: Db): Promise<ReviewItem | null> {
+  const k = conn(trx);
+  const row = (await baseJointQuery(k).where("j.id", jointId).first()) as Row | undefined;
+  if (!row) return null;
+  return (await withEvidence(k, [toItem(row)]))[0] ?? null;
+}
+
+export async function listJointRevisions({ jointId }: { jointId: number }, trx?: Db): Promise<RevisionRecord[]> {
+  const rows = (await conn(trx)("joint_revisions as r").join("users as u", "u.id", "r.by_user_id").where("r.joint_id", jointId).orderBy("r.revision_no").select("r.*", "u.name as by_name")) as Row[];
+  return rows.map((r) => ({
+    id: Number(r.id),
+    revisionNo: Number(r.revision_no),
+    kind: r.kind as RevisionKind,
+    byUserId: Number(r.by_user_id),
+    byName: r.by_name as string,
+    at: r.at as Date,
+    reason: (r.reason as string | null) ?? null,
+    reviewState: r.review_state as ReviewState,
+    changes: parseJson<Record<string, unknown> | null>(r.changes, null),
+  }));
+}
+
+export type JointStateLock = { jointId: number; fuserId: number; reviewState: ReviewState; revisionNo: number; outcome: JointOutcome; jobCode: string; jointNo: number };
+
+/**
+ * The joint's current state, locked FOR UPDATE until the caller's transaction ends, so a
+ * second decision on the same joint waits and then sees the first one's revision.
+ */
+export async function lockJointState({ jointId }: { jointId: number }, trx: Db): Promise<JointStateLock | null> {
+  // Lock only the projection row (joints and jobs are read without locks: joints is append-only).
+  const state = (await trx("joint_states").where("joint_id", jointId).forUpdate().first("joint_id", "review_state", "revision_no", "outcome")) as Row | undefined;
+  if (!state) return null;
+  const joint = (await trx("joints as j").join("jobs", "jobs.id", "j.job_id").where("j.id", jointId).first("j.fuser_id", "j.joint_no", "jobs.code as job_code")) as Row;
+  return {
+    jointId: Number(state.joint_id),
+    fuserId: Number(joint.fuser_id),
+    reviewState: state.review_state as ReviewState,
+    revisionNo: Number(state.revision_no),
+    outcome: state.outcome as JointOutcome,
+    jobCode: joint.job_code as string,
+    jointNo: Number(joint.joint_no),
+  };
+}
+
+/** The newest revision (who changed the joint last, for conflict messages). */
+export async function latestJointRevision({ jointId }: { jointId: number }, trx?: Db): Promise<RevisionRecord | null> {
+  const all = await listJointRevisions({ jointId }, trx);
+  return all[all.length - 1] ?? null;
+}
+
+/**
+ * Appends a revision. The unique (joint_id, revision_no) key makes a second writer of the
+ * same number fail with a duplicate-key error (the caller answers 409).
+ */
+export async function insertJointRevision(
+  r: { jointId: number; revisionNo: number; kind: RevisionKind; byUserId: number; at: Date; reason: string | null; reviewState: ReviewState; changes?: Record<string, unknown> | null },
+  trx: Db,
+): Promise<number> {
+  const [id] = await trx("joint_revisions").insert({
+    joint_id: r.jointId,
+    revision_no: r.revisionNo,
+    kind: r.kind,
+    by_user_id: r.byUserId,
+    at: r.at,
+    reason: r.reason,
+    review_state: r.reviewState,
+    changes: r.changes ? JSON.stringify(r.changes) : null,
+  });
+  return Number(id);
+}
+
+/** Moves the projection on from `expectedRevisionNo`; false when it had already moved. */
+export async function updateJointState(
+  s: { jointId: number; expectedRevisionNo: number; revisionNo: number; reviewState: ReviewState; outcome?: JointOutcome; at: Date },
+  trx: Db,
+): Promise<boolean> {
+  const changed = await trx("joint_states")
+    .where({ joint_id: s.jointId, revision_no: s.expectedRevisionNo })
+    .update({ revision_no: s.revisionNo, review_state: s.reviewState, ...(s.outcome ? { outcome: s.outcome } : {}), updated_at: s.at });
+  return changed === 1;
+}
+
+export async function insertJointTrace(
+  t: { jointId: number; attachmentId: number; revisionNo: number; sampleCount: number; pressureUnit: "mpa" | "psi"; reading: PressureTraceReading; chart: ChartPoint[]; outcome: JointOutcome; findings: JointFinding[]; uploadedBy: number; at: Date },
+  trx: Db,
+): Promise<number> {
+  const [id] = await trx("joint_traces").insert({
+    joint_id: t.jointId,
+    attachment_id: t.attachmentId,
+    revision_no: t.revisionNo,
+    sample_count: t.sampleCount,
+    pressure_unit: t.pressureUnit,
+    reading: JSON.stringify(t.reading),
+    chart: JSON.stringify(t.chart),
+    outcome: t.outcome,
+    findings: JSON.stringify(t.findings),
+    finding_parameters: t.findings.length ? [...new Set(t.findings.map((f) => f.parameter))].join(",") : null,
+    uploaded_by: t.uploadedBy,
+    uploaded_at: t.at,
+  });
+  return Number(id);
+}
+
+/** The newest trace of a joint with its chart points. */
+export async function findLatestJointTrace({ jointId }: { jointId: number }, trx?: Db): Promise<(TraceSummary & { chart: ChartPoint[] }) | null> {
+  const row = (await conn(trx)("joint_traces as t").join("users as u", "u.id", "t.uploaded_by").where("t.joint_id", jointId).orderBy("t.id", "desc").first("t.*", "u.name as uploaded_by_name")) as Row | undefined;
+  if (!row) return null;
+  return { ...toTrace(row), chart: parseJson<ChartPoint[]>(row.chart, []) };
+}
+
+export type FilterOption = { id: number; label: string };
+
+/** Jobs, fusers and machines that have joints pending review (the queue's filter lists). */
+export async function listQueueFilterOptions(_: Record<string, never> = {}, trx?: Db): Promise<{ jobs: FilterOption[]; fusers: FilterOption[]; machines: FilterOption[] }> {
+  const k = conn(trx);
+  const pending = () => k("joint_states as js").join("joints as j", "j.id", "js.joint_id").where("js.review_state", "pending-review");
+  const [jobs, fusers, machines] = await Promise.all([
+    pending().join("jobs", "jobs.id", "j.job_id").distinct("jobs.id", "jobs.code", "jobs.name").orderBy("jobs.code"),
+    pending().join("users", "users.id", "j.fuser_id").distinct("users.id", "users.name").orderBy("users.name"),
+    pending().join("fusion_machines as m", "m.id", "j.machine_id").distinct("m.id", "m.asset_tag").orderBy("m.asset_tag"),
+  ]);
+  return {
+    jobs: (jobs as Row[]).map((r) => ({ id: Number(r.id), label: `${r.code} ${r.name}` })),
+    fusers: (fusers as Row[]).map((r) => ({ id: Number(r.id), label: r.name as string })),
+    machines: (machines as Row[]).map((r) => ({ id: Number(r.id), label: r.asset_tag as string })),
+  };
+}
