@@ -1,0 +1,485 @@
+// The Register's queries: pages of joints under a filter and sort by keyset (seek)
+// pagination, the count (exact up to a cap, otherwise the optimizer's estimate, marked as
+// such), batches for the export, and the lists the filter form offers.
+//
+// A page is read in two steps. Step 1 finds the ids of the page with as few tables as
+// the filter needs, walking one index in sort order and stopping after limit + 1 rows;
+// the seek condition is written out in its expanded form (`a < ? OR (a = ? AND id < ?)`)
+// because MariaDB does not turn a row-value comparison into an index range. Step 2 loads
+// those ids with every joined name. No OFFSET anywhere: page 5,000 costs what page 1 does.
+import type { JointParameter } from "@/domain/fusion/check";
+import {
+  cursorAfter,
+  dayBounds,
+  isEmptyFilter,
+  type KeyValue,
+  type RegisterCursor,
+  type RegisterFilter,
+  type RegisterRow,
+  type RegisterSort,
+  type SortDirection,
+} from "@/domain/register";
+import { conn, type Db } from "../client";
+
+type SortKey = { col: string; nullable: boolean; isDate?: boolean };
+
+/** Columns of each sort, all on `joints` (made_at also on joint_states / joint_findings). */
+const SORT_KEYS: Record<RegisterSort, SortKey[]> = {
+  madeAt: [{ col: "made_at", nullable: false, isDate: true }],
+  number: [
+    { col: "job_id", nullable: false },
+    { col: "joint_no", nullable: false },
+  ],
+  pipeSize: [
+    { col: "outside_diameter_mm", nullable: false },
+    { col: "sdr", nullable: false },
+  ],
+  heaterTemperature: [{ col: "heater_temperature_c", nullable: true }],
+};
+
+/** Above this many matching coils, a coil condition is left to a subquery, not a list. */
+const MAX_COIL_LIST = 2000;
+/** Counts are exact up to this many rows; above it the optimizer's estimate is shown. */
+export const EXACT_COUNT_CAP = 10_000;
+
+type Sql = { text: string; bindings: unknown[] };
+
+/** A coil condition: a (small) list of ids, or a subquery over coils when the list is long. */
+type CoilSet = { ids: number[] } | { subquery: Sql };
+
+type Resolved = {
+  filter: RegisterFilter;
+  lotCoils: CoilSet | null;
+  search: { coils: CoilSet | null; jointNo: number | null; jobJoint: { jobId: number; jointNo: number } | null } | null;
+  /** True when the filter can match nothing (unknown lot, search matching nothing). */
+  isEmpty: boolean;
+};
+
+function escapeLike(text: string): string {
+  return text.replace(/[\\%_]/g, (c) => `\\${c}`);
+}
+
+async function coilSet(where: Sql, trx?: Db): Promise<CoilSet | null> {
+  const [rows] = (await conn(trx).raw(`SELECT id FROM coils WHERE ${where.text} LIMIT ${MAX_COIL_LIST + 1}`, where.bindings)) as unknown as [{ id: number }[]];
+  if (rows.length === 0) return null;
+  if (rows.length > MAX_COIL_LIST) return { subquery: { text: `SELECT id FROM coils WHERE ${where.text}`, bindings: where.bindings } };
+  return { ids: rows.map((r) => Number(r.id)) };
+}
+
+/** Looks up what the lot and the free-text search match before the page query runs. */
+async function resolveFilter(filter: RegisterFilter, trx?: Db): Promise<Resolved> {
+  const out: Resolved = { filter, lotCoils: null, search: null, isEmpty: false };
+  if (filter.lot) {
+    out.lotCoils = await coilSet({ text: "lot = ?", bindings: [filter.lot] }, trx);
+    if (!out.lotCoils) out.isEmpty = true;
+  }
+  if (filter.q) {
+    const q = filter.q.trim();
+    const prefix = `${escapeLike(q)}%`;
+    const coils = await coilSet({ text: "(coil_code LIKE ? OR lot LIKE ?)", bindings: [prefix, prefix] }, trx);
+    let jointNo: number | null = null;
+    let jobJoint: { jobId: number; jointNo: number } | null = null;
+    if (/^\d{1,9}$/.test(q)) jointNo = Number(q);
+    const m = /^(.+?)[-/ #]+(\d{1,9})$/.exec(q);
+    if (m) {
+      const job = await conn(trx)("jobs").where("code", m[1]).first("id");
+      if (job) jobJoint = { jobId: Number(job.id), jointNo: Number(m[2]) };
+    }
+    out.search = { coils, jointNo, jobJoint };
+    if (!coils && jointNo === null && !jobJoint) out.isEmpty = true;
+  }
+  return out;
+}
+
+type Driver = "joints" | "states" | "findings";
+
+/**
+ * Which table the page walks. Sorted by date with only review/outcome (or finding)
+ * filters, the joint_states (or joint_findings) index gives the page in order; any
+ * filter on the joint itself (job, fuser, machine, lot, search) or another sort walks
+ * an index of joints.
+ */
+function chooseDriver(filter: RegisterFilter, sort: RegisterSort): Driver {
+  if (sort !== "madeAt") return "joints";
+  if (filter.job || filter.fuser || filter.machine || filter.lot || filter.q) return "joints";
+  if (filter.finding) return "findings";
+  if (filter.outcome || filter.review) return "states";
+  return "joints";
+}
+
+function coilCondition(set: CoilSet, bindings: unknown[]): string {
+  if ("ids" in set) {
+    const list = set.ids.map(() => "?").join(",");
+    bindings.push(...set.ids, ...set.ids);
+    return `(j.coil_a_id IN (${list}) OR j.coil_b_id IN (${list}))`;
+  }
+  bindings.push(...set.subquery.bindings, ...set.subquery.bindings);
+  return `(j.coil_a_id IN (${set.subquery.text}) OR j.coil_b_id IN (${set.subquery.text}))`;
+}
+
+type Built = { from: string; where: string[]; bindings: unknown[]; keyCols: string[]; idCol: string; hint: string };
+
+/** FROM and WHERE of step 1 (no seek condition, no order). */
+function buildBase(resolved: Resolved, sort: RegisterSort): Built {
+  const { filter } = resolved;
+  const driver = chooseDriver(filter, sort);
+  const bindings: unknown[] = [];
+  const where: string[] = [];
+  const needsStates = Boolean(filter.outcome || filter.review);
+  let from: string;
+  let keyCols: string[];
+  let idCol: string;
+  let dateCol: string;
+  let hint = "";
+
+  if (driver === "states") {
+    from = "joint_states s";
+    keyCols = ["s.made_at"];
+    idCol = "s.joint_id";
+    dateCol = "s.made_at";
+  } else if (driver === "findings") {
+    from = "joint_findings f";
+    if (needsStates) from += " STRAIGHT_JOIN joint_states s ON s.joint_id = f.joint_id";
+    keyCols = ["f.made_at"];
+    idCol = "f.joint_id";
+    dateCol = "f.made_at";
+    where.push("f.parameter = ?");
+    bindings.push(filter.finding);
+  } else {
+    // Lot and search: restrict the optimizer to the coil indexes (an index merge of side
+    // A and side B, plus joint number), so it does not walk the date index hoping to meet
+    // a rare lot early. Only when every coil condition is a short id list.
+    const sets = [resolved.lotCoils, resolved.search?.coils].filter((c): c is CoilSet => Boolean(c));
+    if ((resolved.lotCoils || resolved.search) && sets.every((c) => "ids" in c)) {
+      const indexes = ["joints_coil_a_id_index", "joints_coil_b_id_index"];
+      if (resolved.search && resolved.search.jointNo !== null) indexes.push("joints_register_joint_no_index");
+      if (resolved.search?.jobJoint) indexes.push("joints_job_id_joint_no_unique");
+      hint = ` USE INDEX (${indexes.join(", ")})`;
+    }
+    from = `joints j${hint}`;
+    if (needsStates) from += " STRAIGHT_JOIN joint_states s ON s.joint_id = j.id";
+    if (filter.finding) {
+      from += " STRAIGHT_JOIN joint_findings f ON f.joint_id = j.id AND f.parameter = ?";
+      bindings.push(filter.finding);
+    }
+    keyCols = SORT_KEYS[sort].map((k) => `j.${k.col}`);
+    idCol = "j.id";
+    dateCol = "j.made_at";
+  }
+
+  if (filter.job) {
+    where.push("j.job_id = ?");
+    bindings.push(filter.job);
+  }
+  if (filter.fuser) {
+    where.push("j.fuser_id = ?");
+    bindings.push(filter.fuser);
+  }
+  if (filter.machine) {
+    where.push("j.machine_id = ?");
+    bindings.push(filter.machine);
+  }
+  if (filter.from) {
+    where.push(`${dateCol} >= ?`);
+    bindings.push(dayBounds(filter.from).start);
+  }
+  if (filter.to) {
+    where.push(`${dateCol} < ?`);
+    bindings.push(dayBounds(filter.to).nextStart);
+  }
+  if (filter.outcome) {
+    where.push("s.outcome = ?");
+    bindings.push(filter.outcome);
+  }
+  if (filter.review) {
+    where.push("s.review_state = ?");
+    bindings.push(filter.review);
+  }
+  if (resolved.lotCoils) where.push(coilCondition(resolved.lotCoils, bindings));
+  if (resolved.search) {
+    const parts: string[] = [];
+    if (resolved.search.coils) parts.push(coilCondition(resolved.search.coils, bindings));
+    if (resolved.search.jointNo !== null) {
+      parts.push("j.joint_no = ?");
+      bindings.push(resolved.search.jointNo);
+    }
+    if (resolved.search.jobJoint) {
+      parts.push("(j.job_id = ? AND j.joint_no = ?)");
+      bindings.push(resolved.search.jobJoint.jobId, resolved.search.jobJoint.jointNo);
+    }
+    where.push(`(${parts.join(" OR ")})`);
+  }
+  return { from, where, bindings, keyCols, idCol, hint };
+}
+
+/**
+ * The seek condition "strictly after the cursor row" in expanded form: for keys k1..kn
+ * and id, the OR over i of (k1 = v1 AND … AND k(i-1) = v(i-1) AND ki ⋗ vi). NULLs sort
+ * first ascending and last descending (MariaDB), which the nullable cases follow.
+ */
+export function seekCondition(cols: { expr: string; nullable: boolean }[], values: unknown[], dir: SortDirection): Sql {
+  const bindings: unknown[] = [];
+  const disjuncts: string[] = [];
+  const op = dir === "asc" ? ">" : "<";
+  for (let i = 0; i < cols.length; i += 1) {
+    const terms: string[] = [];
+    const local: unknown[] = [];
+    for (let e = 0; e < i; e += 1) {
+      if (values[e] === null) terms.push(`${cols[e].expr} IS NULL`);
+      else {
+        terms.push(`${cols[e].expr} = ?`);
+        local.push(values[e]);
+      }
+    }
+    const { expr, nullable } = cols[i];
+    const v = values[i];
+    if (v === null) {
+      if (dir === "desc") continue; // nothing sorts after NULL when descending
+      terms.push(`${expr} IS NOT NULL`);
+    } else if (nullable && dir === "desc") {
+      terms.push(`(${expr} < ? OR ${expr} IS NULL)`);
+      local.push(v);
+    } else {
+      terms.push(`${expr} ${op} ?`);
+      local.push(v);
+    }
+    disjuncts.push(terms.length === 1 ? terms[0] : `(${terms.join(" AND ")})`);
+    bindings.push(...local);
+  }
+  return { text: disjuncts.length ? `(${disjuncts.join(" OR ")})` : "FALSE", bindings };
+}
+
+function seekFor(built: Built, sort: RegisterSort, cursor: RegisterCursor): Sql {
+  const keys = SORT_KEYS[sort];
+  const cols = [...keys.map((k, i) => ({ expr: built.keyCols[i], nullable: k.nullable })), { expr: built.idCol, nullable: false }];
+  // Timestamps travel in the cursor as epoch milliseconds.
+  const values: unknown[] = [...keys.map((k, i) => (k.isDate && cursor.keys[i] !== null ? new Date(cursor.keys[i] as number) : cursor.keys[i])), cursor.id];
+  return seekCondition(cols, values, cursor.dir);
+}
+
+function orderBy(built: Built, dir: SortDirection): string {
+  const d = dir === "asc" ? "ASC" : "DESC";
+  return [...built.keyCols, built.idCol].map((c) => `${c} ${d}`).join(", ");
+}
+
+type PageStep1 = { ids: number[]; last: { id: number; keys: KeyValue[] } | null; hasMore: boolean };
+
+async function pageIds(resolved: Resolved, sort: RegisterSort, dir: SortDirection, after: RegisterCursor | undefined, limit: number, trx?: Db): Promise<PageStep1> {
+  const built = buildBase(resolved, sort);
+  const where = [...built.where];
+  const bindings = [...built.bindings];
+  if (after) {
+    const seek = seekFor(built, sort, after);
+    where.push(seek.text);
+    bindings.push(...seek.bindings);
+  }
+  const select = [`${built.idCol} AS id`, ...built.keyCols.map((c, i) => `${c} AS k${i}`)].join(", ");
+  const sql = `SELECT ${select} FROM ${built.from}${where.length ? ` WHERE ${where.join(" AND ")}` : ""} ORDER BY ${orderBy(built, dir)} LIMIT ${limit + 1}`;
+  const [rows] = (await conn(trx).raw(sql, bindings)) as unknown as [Record<string, unknown>[]];
+  const hasMore = rows.length > limit;
+  const page = hasMore ? rows.slice(0, limit) : rows;
+  const lastRow = page[page.length - 1];
+  const last = lastRow
+    ? {
+        id: Number(lastRow.id),
+        keys: SORT_KEYS[sort].map((k, i) => {
+          const v = lastRow[`k${i}`];
+          if (v === null || v === undefined) return null;
+          return k.isDate ? (v as Date).getTime() : Number(v);
+        }),
+      }
+    : null;
+  return { ids: page.map((r) => Number(r.id)), last, hasMore };
+}
+
+type JointRow = Record<string, unknown>;
+
+const ROW_SELECT = `
+  j.id, j.job_id, jb.code AS job_code, j.joint_no, j.kind, j.made_at, j.station, j.latitude, j.longitude,
+  j.fuser_id, u.name AS fuser_name, j.machine_id, m.asset_tag AS machine_tag, h.asset_tag AS heater_tag,
+  ca.coil_code AS coil_a_code, ca.lot AS coil_a_lot, ca.nominal_size AS coil_a_nominal_size, ca.series AS coil_a_series,
+  cb.coil_code AS coil_b_code, cb.lot AS coil_b_lot, j.component_b_text,
+  j.outside_diameter_mm, j.sdr, j.procedure_version_id, p.code AS procedure_code, pv.version_no AS procedure_version_no,
+  COALESCE(s.outcome, j.outcome) AS outcome, COALESCE(s.review_state, 'pending-review') AS review_state, j.finding_parameters,
+  j.heater_temperature_c, j.drag_pressure_mpa, j.bead_up_gauge_mpa, j.fusion_gauge_mpa, j.bead_mm,
+  j.heat_soak_s, j.changeover_s, j.cooling_s, j.ambient_c, j.facing_ok, j.alignment_ok, j.bead_rollback_ok, j.v_groove_ok`;
+
+const ROW_FROM = `
+  joints j
+  LEFT JOIN joint_states s ON s.joint_id = j.id
+  JOIN jobs jb ON jb.id = j.job_id
+  JOIN users u ON u.id = j.fuser_id
+  JOIN fusion_machines m ON m.id = j.machine_id
+  JOIN heater_plates h ON h.id = j.heater_id
+  LEFT JOIN coils ca ON ca.id = j.coil_a_id
+  LEFT JOIN coils cb ON cb.id = j.coil_b_id
+  JOIN procedure_versions pv ON pv.id = j.procedure_version_id
+  JOIN procedures p ON p.id = pv.procedure_id`;
+
+const num = (v: unknown): number | null => (v === null || v === undefined ? null : Number(v));
+const bool = (v: unknown): boolean | null => (v === null || v === undefined ? null : Boolean(v));
+
+function toRegisterRow(r: JointRow): RegisterRow {
+  return {
+    id: Number(r.id),
+    jobId: Number(r.job_id),
+    jobCode: r.job_code as string,
+    jointNo: Number(r.joint_no),
+    kind: r.kind as RegisterRow["kind"],
+    madeAt: r.made_at as Date,
+    station: (r.station as string | null) ?? null,
+    latitude: num(r.latitude),
+    longitude: num(r.longitude),
+    fuserId: Number(r.fuser_id),
+    fuserName: r.fuser_name as string,
+    machineId: Number(r.machine_id),
+    machineTag: r.machine_tag as string,
+    heaterTag: r.heater_tag as string,
+    coilACode: (r.coil_a_code as string | null) ?? null,
+    coilALot: (r.coil_a_lot as string | null) ?? null,
+    coilBCode: (r.coil_b_code as string | null) ?? null,
+    coilBLot: (r.coil_b_lot as string | null) ?? null,
+    componentBText: (r.component_b_text as string | null) ?? null,
+    nominalSize: (r.coil_a_nominal_size as string | null) ?? null,
+    series: (r.coil_a_series as string | null) ?? null,
+    outsideDiameterMm: Number(r.outside_diameter_mm),
+    sdr: Number(r.sdr),
+    procedureVersionId: Number(r.procedure_version_id),
+    procedureCode: r.procedure_code as string,
+    procedureVersionNo: Number(r.procedure_version_no),
+    outcome: r.outcome as RegisterRow["outcome"],
+    reviewState: r.review_state as RegisterRow["reviewState"],
+    findingParameters: r.finding_parameters
+      ? ((r.finding_parameters as string)
+          .split(",")
+          .map((s) => s.trim())
+          .filter(Boolean) as JointParameter[])
+      : [],
+    heaterTemperatureC: num(r.heater_temperature_c),
+    dragPressureMpa: num(r.drag_pressure_mpa),
+    beadUpGaugeMpa: num(r.bead_up_gauge_mpa),
+    fusionGaugeMpa: num(r.fusion_gauge_mpa),
+    beadMm: num(r.bead_mm),
+    heatSoakS: num(r.heat_soak_s),
+    changeoverS: num(r.changeover_s),
+    coolingS: num(r.cooling_s),
+    ambientC: num(r.ambient_c),
+    facingOk: bool(r.facing_ok),
+    alignmentOk: bool(r.alignment_ok),
+    beadRollbackOk: bool(r.bead_rollback_ok),
+    vGrooveOk: bool(r.v_groove_ok),
+  };
+}
+
+/** Register rows for these joint ids, in the order given. */
+export async function findRegisterRowsByIds({ ids }: { ids: number[] }, trx?: Db): Promise<RegisterRow[]> {
+  if (ids.length === 0) return [];
+  const [rows] = (await conn(trx).raw(`SELECT ${ROW_SELECT} FROM ${ROW_FROM} WHERE j.id IN (${ids.map(() => "?").join(",")})`, ids)) as unknown as [JointRow[]];
+  const byId = new Map(rows.map((r) => [Number(r.id), toRegisterRow(r)]));
+  return ids.map((id) => byId.get(id)).filter((r): r is RegisterRow => Boolean(r));
+}
+
+export type RegisterPage = { rows: RegisterRow[]; next: RegisterCursor | null };
+
+/**
+ * One page of the register under `filter`, in `sort`/`dir` order, strictly after the
+ * cursor `after` (the first page without one). `next` is null on the last page.
+ */
+export async function listRegisterPage(
+  { filter, sort = "madeAt", dir = "desc", after, limit = 100 }: { filter: RegisterFilter; sort?: RegisterSort; dir?: SortDirection; after?: RegisterCursor; limit?: number },
+  trx?: Db,
+): Promise<RegisterPage> {
+  const resolved = await resolveFilter(filter, trx);
+  if (resolved.isEmpty) return { rows: [], next: null };
+  const step1 = await pageIds(resolved, sort, dir, after, limit, trx);
+  const rows = await findRegisterRowsByIds({ ids: step1.ids }, trx);
+  const next = step1.hasMore && step1.last ? { sort, dir, keys: step1.last.keys, id: step1.last.id } : null;
+  return { rows, next };
+}
+
+/**
+ * Every row of the filter in order, in batches (keyset pages), for the export: memory
+ * stays at one batch whatever the row count.
+ */
+export async function* iterateRegisterRows(
+  { filter, sort = "madeAt", dir = "desc", batchSize = 2000 }: { filter: RegisterFilter; sort?: RegisterSort; dir?: SortDirection; batchSize?: number },
+  trx?: Db,
+): AsyncGenerator<RegisterRow[]> {
+  const resolved = await resolveFilter(filter, trx);
+  if (resolved.isEmpty) return;
+  let after: RegisterCursor | undefined;
+  for (;;) {
+    const step1 = await pageIds(resolved, sort, dir, after, batchSize, trx);
+    if (step1.ids.length) yield await findRegisterRowsByIds({ ids: step1.ids }, trx);
+    if (!step1.hasMore || !step1.last) return;
+    after = { sort, dir, keys: step1.last.keys, id: step1.last.id };
+  }
+}
+
+export type RegisterCount = { value: number; isEstimate: boolean };
+
+/**
+ * How many joints match: exact up to EXACT_COUNT_CAP (a count that stops there, so it
+ * stays cheap), otherwise the optimizer's row estimate (EXPLAIN), marked as an estimate.
+ */
+export async function countRegister({ filter, cap = EXACT_COUNT_CAP }: { filter: RegisterFilter; cap?: number }, trx?: Db): Promise<RegisterCount> {
+  const resolved = await resolveFilter(filter, trx);
+  if (resolved.isEmpty) return { value: 0, isEstimate: false };
+  const built = buildBase(resolved, "madeAt");
+  const whereSql = built.where.length ? ` WHERE ${built.where.join(" AND ")}` : "";
+  const inner = `SELECT 1 FROM ${built.from}${whereSql}`;
+  if (!isEmptyFilter(filter)) {
+    const [rows] = (await conn(trx).raw(`SELECT COUNT(*) AS n FROM (${inner} LIMIT ${cap + 1}) capped`, built.bindings)) as unknown as [{ n: number }[]];
+    const n = Number(rows[0]?.n ?? 0);
+    if (n <= cap) return { value: n, isEstimate: false };
+  }
+  const [plan] = (await conn(trx).raw(`EXPLAIN ${inner}`, built.bindings)) as unknown as [{ rows: number | null; filtered: number | null }[]];
+  let estimate = 1;
+  for (const step of plan) estimate *= Number(step.rows ?? 1) * (Number(step.filtered ?? 100) / 100);
+  if (isEmptyFilter(filter) && estimate <= cap) {
+    // Small register: count exactly.
+    const [rows] = (await conn(trx).raw(`SELECT COUNT(*) AS n FROM joints`)) as unknown as [{ n: number }[]];
+    return { value: Number(rows[0]?.n ?? 0), isEstimate: false };
+  }
+  return { value: Math.max(Math.round(estimate), cap + 1), isEstimate: true };
+}
+
+export type RegisterOption = { id: number; label: string };
+export type RegisterFilterOptions = { jobs: RegisterOption[]; fusers: RegisterOption[]; machines: RegisterOption[] };
+
+/** What the filter form offers: jobs, people who hold the fuser role, fusion machines. */
+export async function listRegisterFilterOptions(_: Record<string, never> = {}, trx?: Db): Promise<RegisterFilterOptions> {
+  const k = conn(trx);
+  const [jobs, fusers, machines] = await Promise.all([
+    k("jobs").select("id", "code", "name").orderBy("code").limit(5000),
+    k("users").select("id", "name").whereRaw("FIND_IN_SET('fuser', roles) > 0").orderBy("name").limit(5000),
+    k("fusion_machines").select("id", "asset_tag").orderBy("asset_tag").limit(5000),
+  ]);
+  return {
+    jobs: jobs.map((j: { id: number; code: string; name: string }) => ({ id: Number(j.id), label: `${j.code} — ${j.name}` })),
+    fusers: fusers.map((u: { id: number; name: string }) => ({ id: Number(u.id), label: u.name })),
+    machines: machines.map((m: { id: number; asset_tag: string }) => ({ id: Number(m.id), label: m.asset_tag })),
+  };
+}
+
+export type RegisterFilterNames = { job: string | null; fuser: string | null; machine: string | null };
+
+/** Names of the job, fuser and machine a filter refers to by id (for the export's filter sheet). */
+export async function findRegisterFilterNames({ filter }: { filter: RegisterFilter }, trx?: Db): Promise<RegisterFilterNames> {
+  const k = conn(trx);
+  const [job, fuser, machine] = await Promise.all([
+    filter.job ? k("jobs").where("id", filter.job).first("code", "name") : null,
+    filter.fuser ? k("users").where("id", filter.fuser).first("name") : null,
+    filter.machine ? k("fusion_machines").where("id", filter.machine).first("asset_tag") : null,
+  ]);
+  return {
+    job: job ? `${job.code} — ${job.name}` : null,
+    fuser: fuser ? (fuser.name as string) : null,
+    machine: machine ? (machine.asset_tag as string) : null,
+  };
+}
+
+/** The cursor after a row of the register in the given order (for callers holding rows). */
+export function registerCursorAfter(row: RegisterRow, sort: RegisterSort, dir: SortDirection): RegisterCursor {
+  return cursorAfter(row, sort, dir);
+}
