@@ -110,6 +110,29 @@ async function waitForPing(cnf: string, child: ChildProcess, timeoutMs: number):
   throw new Error("MariaDB did not accept connections within the time limit");
 }
 
+/** A server left running by a launcher that crashed holds the data directory: shut it down first. */
+function stopOrphan(dir: string, cnf: string): void {
+  const pidFile = path.join(dir, "mysqld.pid");
+  if (!existsSync(pidFile)) return;
+  const pid = Number(readFileSync(pidFile, "utf8").trim());
+  if (!pid) return;
+  try {
+    process.kill(pid, 0);
+  } catch {
+    return; // not running: a stale pid file, which mariadbd replaces itself
+  }
+  spawnSync("mariadb-admin", [`--defaults-file=${cnf}`, "-uroot", "shutdown"], { stdio: "ignore" });
+  const deadline = Date.now() + 15_000;
+  while (Date.now() < deadline) {
+    try {
+      process.kill(pid, 0);
+    } catch {
+      return;
+    }
+    spawnSync("sleep", ["0.1"]);
+  }
+}
+
 /**
  * Starts mariadbd on `dir` (initialised on first use) bound to 127.0.0.1:`port`.
  * Returns once the server accepts connections; `stop()` shuts it down and waits for the process.
@@ -120,7 +143,10 @@ export async function startMariadb({ dir, port }: { dir: string; port: number })
   if (!existsSync(path.join(dir, "data", "mysql"))) {
     execFileSync("mariadb-install-db", [`--defaults-file=${cnf}`, "--auth-root-authentication-method=normal", "--skip-test-db"], { stdio: "ignore" });
   }
-  const child = spawn("mariadbd", [`--defaults-file=${cnf}`], { stdio: "ignore", detached: false });
+  stopOrphan(dir, cnf);
+  // Its own process group: a Ctrl-C in the terminal reaches our launcher, which shuts the
+  // server down in order, instead of hitting mariadbd directly.
+  const child = spawn("mariadbd", [`--defaults-file=${cnf}`], { stdio: "ignore", detached: true });
   await waitForPing(cnf, child, 30_000);
   const socket = path.join(dir, "mysqld.sock");
   const stop = async () => {
