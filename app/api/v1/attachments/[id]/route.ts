@@ -1,0 +1,37 @@
+// /api/v1/attachments/:id — the stored file, only through this authorised route: bead
+// photos and traces of a joint to anyone signed in; a photo not yet tied to a joint, and
+// qualification evidence, only to the uploader, inspectors and admins. The type comes from
+// what was detected at upload, never from the request; nosniff stops browsers guessing.
+import { defineRoute, errorResponse } from "@/app/_lib/guard";
+import { findAttachmentById } from "@/database/queries/attachments";
+import { getObject } from "@/database/storage";
+import { hasAnyRole } from "@/domain/roles";
+import { PHOTO_TYPES } from "../_lib/upload";
+
+export const dynamic = "force-dynamic";
+
+export const GET = defineRoute<never, { id: string }>({ audience: "signed-in", input: "none" }, async (_input, { user, params }) => {
+  const id = /^\d{1,15}$/.test(params.id) ? Number(params.id) : NaN;
+  if (!Number.isSafeInteger(id)) return errorResponse("bad-request", "An attachment id is a whole number.");
+  const attachment = await findAttachmentById({ id });
+  if (!attachment) return errorResponse("not-found", `Attachment ${id} does not exist.`);
+  const open = attachment.kind !== "qualification-evidence" && attachment.jointId !== null;
+  if (!open && attachment.uploadedBy !== user.id && !hasAnyRole(user, ["inspector", "admin"])) {
+    return errorResponse("forbidden", "You may not open this file.");
+  }
+  const object = await getObject({ key: attachment.objectKey });
+  if (!object) return errorResponse("not-found", `The file of attachment ${id} is missing from storage.`);
+  const ext = PHOTO_TYPES[attachment.contentType] ?? "bin";
+  return new Response(object.body as BodyInit, {
+    status: 200,
+    headers: {
+      "content-type": attachment.contentType,
+      "content-length": String(object.body.byteLength),
+      "content-disposition": `inline; filename="${attachment.kind}-${attachment.id}.${ext}"`,
+      "x-content-type-options": "nosniff",
+      "cache-control": "private, max-age=3600",
+      "content-security-policy": "default-src 'none'; sandbox",
+      etag: `"${attachment.sha256}"`,
+    },
+  });
+});

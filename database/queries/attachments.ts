@@ -1,0 +1,92 @@
+// Attachments: the rows that describe objects in the S3-compatible store (bead photos,
+// pressure traces, qualification evidence). The object key is a generated id; the file's
+// own name is kept for display only.
+import { conn, type Db } from "../client";
+
+export type AttachmentKind = "bead-photo" | "pressure-trace" | "qualification-evidence";
+
+export type Attachment = {
+  id: number;
+  kind: AttachmentKind;
+  objectKey: string;
+  contentType: string;
+  sizeBytes: number;
+  sha256: string;
+  originalName: string | null;
+  jointId: number | null;
+  uploadedBy: number | null;
+  uploadedAt: Date;
+};
+
+type AttachmentRow = {
+  id: number | string;
+  kind: AttachmentKind;
+  object_key: string;
+  content_type: string;
+  size_bytes: number;
+  sha256: string;
+  original_name: string | null;
+  joint_id: number | string | null;
+  uploaded_by: number | null;
+  uploaded_at: Date;
+};
+
+function toAttachment(row: AttachmentRow): Attachment {
+  return {
+    id: Number(row.id),
+    kind: row.kind,
+    objectKey: row.object_key,
+    contentType: row.content_type,
+    sizeBytes: Number(row.size_bytes),
+    sha256: row.sha256,
+    originalName: row.original_name,
+    jointId: row.joint_id == null ? null : Number(row.joint_id),
+    uploadedBy: row.uploaded_by,
+    uploadedAt: row.uploaded_at,
+  };
+}
+
+export async function insertAttachment(
+  a: { kind: AttachmentKind; objectKey: string; contentType: string; sizeBytes: number; sha256: string; originalName: string | null; uploadedBy: number; jointId?: number | null },
+  trx?: Db,
+): Promise<number> {
+  const [id] = await conn(trx)("attachments").insert({
+    kind: a.kind,
+    object_key: a.objectKey,
+    content_type: a.contentType,
+    size_bytes: a.sizeBytes,
+    sha256: a.sha256,
+    original_name: a.originalName,
+    joint_id: a.jointId ?? null,
+    uploaded_by: a.uploadedBy,
+  });
+  return Number(id);
+}
+
+export async function findAttachmentById({ id }: { id: number }, trx?: Db): Promise<Attachment | null> {
+  const row = (await conn(trx)("attachments").where({ id }).first()) as AttachmentRow | undefined;
+  return row ? toAttachment(row) : null;
+}
+
+export async function listAttachmentsForJoint({ jointId }: { jointId: number }, trx?: Db): Promise<Attachment[]> {
+  const rows = (await conn(trx)("attachments").where({ joint_id: jointId }).orderBy("id")) as AttachmentRow[];
+  return rows.map(toAttachment);
+}
+
+/**
+ * Ties uploaded bead photos to their joint. Only photos the same person uploaded and that
+ * belong to no joint yet are taken; returns how many were tied (the caller compares).
+ */
+export async function attachPhotosToJoint({ ids, jointId, userId }: { ids: number[]; jointId: number; userId: number }, trx?: Db): Promise<number> {
+  if (ids.length === 0) return 0;
+  return conn(trx)("attachments")
+    .whereIn("id", ids)
+    .andWhere({ kind: "bead-photo", uploaded_by: userId })
+    .whereNull("joint_id")
+    .update({ joint_id: jointId });
+}
+
+export async function countAttachments(trx?: Db): Promise<number> {
+  const row = (await conn(trx)("attachments").count({ n: "*" }).first()) as { n: number | string } | undefined;
+  return Number(row?.n ?? 0);
+}

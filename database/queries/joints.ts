@@ -1,0 +1,510 @@
+// Joints recorded at the trench, their revisions and current state, gap-free joint numbers
+// per job, and the inspector/admin overrides of blocking warnings. Joints and revisions
+// are append-only (the app user may only SELECT and INSERT them); joint_states is the
+// updatable projection of the latest revision. Values in canonical SI (°C, MPa, mm, s, m).
+import type { Knex } from "knex";
+import type { FusionPlan } from "@/domain/fusion/plan";
+import type { JointFinding, JointOutcome } from "@/domain/fusion/check";
+import type { JointKind, Shelter, TimedPhase } from "@/domain/joints/schemas";
+import type { OverrideGrant } from "@/domain/joints/rules";
+import { conn, type Db } from "../client";
+import { toCoil, type Coil } from "./coils";
+
+export type ReviewState = "pending-review" | "accepted" | "cut-out";
+export type RevisionKind = "recorded" | "corrected" | "accepted" | "cut-out" | "trace-attached";
+
+export type JointRecord = {
+  id: number;
+  clientId: string;
+  jobId: number;
+  jobCode: string;
+  jobName: string;
+  jointNo: number;
+  kind: JointKind;
+  coilA: { id: number; code: string; lot: string; manufacturer: string } | null;
+  coilB: { id: number; code: string; lot: string; manufacturer: string } | null;
+  componentBText: string | null;
+  lengthAM: number | null;
+  lengthBM: number | null;
+  outsideDiameterMm: number;
+  sdr: number;
+  procedureVersionId: number;
+  procedureCode: string;
+  procedureName: string;
+  procedureVersionNo: number;
+  machine: { id: number; assetTag: string };
+  heater: { id: number; assetTag: string };
+  fuser: { id: number; name: string };
+  madeAt: Date;
+  station: string | null;
+  latitude: number | null;
+  longitude: number | null;
+  ambientC: number | null;
+  shelter: Shelter | null;
+  heaterTemperatureC: number | null;
+  dragPressureMpa: number | null;
+  beadUpGaugeMpa: number | null;
+  fusionGaugeMpa: number | null;
+  beadMm: number | null;
+  heatSoakS: number | null;
+  changeoverS: number | null;
+  coolingS: number | null;
+  facingOk: boolean | null;
+  alignmentOk: boolean | null;
+  beadRollbackOk: boolean | null;
+  vGrooveOk: boolean | null;
+  timedFields: TimedPhase[];
+  plan: FusionPlan;
+  outcome: JointOutcome;
+  findings: JointFinding[];
+  replacesJointId: number | null;
+  replacesJointNo: number | null;
+  replacedByJointId: number | null;
+  replacedByJointNo: number | null;
+  reviewState: ReviewState;
+  revisionNo: number;
+  recordedAt: Date;
+};
+
+type Row = Record<string, unknown>;
+
+const num = (v: unknown): number | null => (v == null ? null : Number(v));
+const bool = (v: unknown): boolean | null => (v == null ? null : Boolean(v));
+
+function parseJson<T>(text: unknown, fallback: T): T {
+  if (typeof text !== "string" || !text) return fallback;
+  try {
+    return JSON.parse(text) as T;
+  } catch {
+    return fallback;
+  }
+}
+
+function toJoint(r: Row): JointRecord {
+  const coil = (prefix: "ca" | "cb") =>
+    r[`${prefix}_id`] == null
+      ? null
+      : { id: Number(r[`${prefix}_id`]), code: r[`${prefix}_code`] as string, lot: r[`${prefix}_lot`] as string, manufacturer: r[`${prefix}_manufacturer`] as string };
+  return {
+    id: Number(r.id),
+    clientId: r.client_id as string,
+    jobId: Number(r.job_id),
+    jobCode: r.job_code as string,
+    jobName: r.job_name as string,
+    jointNo: Number(r.joint_no),
+    kind: r.kind as JointKind,
+    coilA: coil("ca"),
+    coilB: coil("cb"),
+    componentBText: (r.component_b_text as string | null) ?? null,
+    lengthAM: num(r.length_a_m),
+    lengthBM: num(r.length_b_m),
+    outsideDiameterMm: Number(r.outside_diameter_mm),
+    sdr: Number(r.sdr),
+    procedureVersionId: Number(r.procedure_version_id),
+    procedureCode: r.procedure_code as string,
+    procedureName: r.procedure_name as string,
+    procedureVersionNo: Number(r.procedure_version_no),
+    machine: { id: Number(r.machine_id), assetTag: r.machine_tag as string },
+    heater: { id: Number(r.heater_id), assetTag: r.heater_tag as string },
+    fuser: { id: Number(r.fuser_id), name: r.fuser_name as string },
+    madeAt: r.made_at as Date,
+    station: (r.station as string | null) ?? null,
+    latitude: num(r.latitude),
+    longitude: num(r.longitude),
+    ambientC: num(r.ambient_c),
+    shelter: (r.shelter as Shelter | null) ?? null,
+    heaterTemperatureC: num(r.heater_temperature_c),
+    dragPressureMpa: num(r.drag_pressure_mpa),
+    beadUpGaugeMpa: num(r.bead_up_gauge_mpa),
+    fusionGaugeMpa: num(r.fusion_gauge_mpa),
+    beadMm: num(r.bead_mm),
+    heatSoakS: num(r.heat_soak_s),
+    changeoverS: num(r.changeover_s),
+    coolingS: num(r.cooling_s),
+    facingOk: bool(r.facing_ok),
+    alignmentOk: bool(r.alignment_ok),
+    beadRollbackOk: bool(r.bead_rollback_ok),
+    vGrooveOk: bool(r.v_groove_ok),
+    timedFields: String(r.timed_fields ?? "")
+      .split(",")
+      .filter(Boolean) as TimedPhase[],
+    plan: parseJson<FusionPlan>(r.plan, null as unknown as FusionPlan),
+    outcome: r.outcome as JointOutcome,
+    findings: parseJson<JointFinding[]>(r.findings, []),
+    replacesJointId: num(r.replaces_joint_id),
+    replacesJointNo: num(r.replaces_joint_no),
+    replacedByJointId: num(r.replaced_by_joint_id),
+    replacedByJointNo: num(r.replaced_by_joint_no),
+    reviewState: (r.review_state as ReviewState) ?? "pending-review",
+    revisionNo: Number(r.revision_no ?? 1),
+    recordedAt: r.recorded_at as Date,
+  };
+}
+
+function jointQuery(trx?: Db) {
+  return conn(trx)("joints as j")
+    .join("jobs", "jobs.id", "j.job_id")
+    .join("procedure_versions as pv", "pv.id", "j.procedure_version_id")
+    .join("procedures as p", "p.id", "pv.procedure_id")
+    .join("fusion_machines as m", "m.id", "j.machine_id")
+    .join("heater_plates as h", "h.id", "j.heater_id")
+    .join("users as f", "f.id", "j.fuser_id")
+    .leftJoin("coils as ca", "ca.id", "j.coil_a_id")
+    .leftJoin("coils as cb", "cb.id", "j.coil_b_id")
+    .leftJoin("joint_states as s", "s.joint_id", "j.id")
+    .leftJoin("joints as rj", "rj.id", "j.replaces_joint_id")
+    .leftJoin("joints as nj", "nj.id", "s.replaced_by_joint_id")
+    .select(
+      "j.*",
+      "jobs.code as job_code",
+      "jobs.name as job_name",
+      "p.code as procedure_code",
+      "p.name as procedure_name",
+      "pv.version_no as procedure_version_no",
+      "m.asset_tag as machine_tag",
+      "h.asset_tag as heater_tag",
+      "f.name as fuser_name",
+      "ca.id as ca_id",
+      "ca.coil_code as ca_code",
+      "ca.lot as ca_lot",
+      "ca.manufacturer as ca_manufacturer",
+      "cb.id as cb_id",
+      "cb.coil_code as cb_code",
+      "cb.lot as cb_lot",
+      "cb.manufacturer as cb_manufacturer",
+      "s.review_state",
+      "s.revision_no",
+      "s.replaced_by_joint_id",
+      "rj.joint_no as replaces_joint_no",
+      "nj.joint_no as replaced_by_joint_no",
+    );
+}
+
+export async function findJointById({ id }: { id: number }, trx?: Db): Promise<JointRecord | null> {
+  const row = (await jointQuery(trx).where("j.id", id).first()) as Row | undefined;
+  return row ? toJoint(row) : null;
+}
+
+/** The joint a device submission created (idempotency key), with the fuser who made it. */
+export async function findJointByClientId({ clientId }: { clientId: string }, trx?: Db): Promise<JointRecord | null> {
+  const row = (await jointQuery(trx).where("j.client_id", clientId).first()) as Row | undefined;
+  return row ? toJoint(row) : null;
+}
+
+export type JointListFilter = { jobId?: number; fuserId?: number; clientId?: string; beforeId?: number; limit?: number };
+
+/** Newest first (made at, then id). Keyset on id for the next page (`beforeId`). */
+export async function listJoints({ jobId, fuserId, clientId, beforeId, limit = 50 }: JointListFilter = {}, trx?: Db): Promise<JointRecord[]> {
+  const q = jointQuery(trx).orderBy([{ column: "j.made_at", order: "desc" }, { column: "j.id", order: "desc" }]).limit(limit);
+  if (jobId) q.where("j.job_id", jobId);
+  if (fuserId) q.where("j.fuser_id", fuserId);
+  if (clientId) q.where("j.client_id", clientId);
+  if (beforeId) {
+    const anchor = (await conn(trx)("joints").where({ id: beforeId }).first("made_at")) as { made_at: Date } | undefined;
+    if (anchor) q.where((w) => w.where("j.made_at", "<", anchor.made_at).orWhere((o) => o.where("j.made_at", anchor.made_at).andWhere("j.id", "<", beforeId)));
+  }
+  return ((await q) as Row[]).map(toJoint);
+}
+
+/** Out-of-limits joints on these jobs that no remake has replaced yet (newest first). */
+export async function listJointsAwaitingRemake({ jobIds, limit = 50 }: { jobIds: number[]; limit?: number }, trx?: Db): Promise<{ id: number; jobId: number; jointNo: number; madeAt: Date; reviewState: ReviewState; coilACode: string | null; findings: JointFinding[] }[]> {
+  if (jobIds.length === 0) return [];
+  const rows = (await conn(trx)("joints as j")
+    .join("joint_states as s", "s.joint_id", "j.id")
+    .leftJoin("coils as ca", "ca.id", "j.coil_a_id")
+    .whereIn("j.job_id", jobIds)
+    .whereNull("s.replaced_by_joint_id")
+    .where((w) => w.where("j.outcome", "out-of-limits").orWhere("s.review_state", "cut-out"))
+    .whereNot("s.review_state", "accepted")
+    .orderBy([{ column: "j.made_at", order: "desc" }, { column: "j.id", order: "desc" }])
+    .limit(limit)
+    .select("j.id", "j.job_id", "j.joint_no", "j.made_at", "j.findings", "s.review_state", "ca.coil_code")) as Row[];
+  return rows.map((r) => ({
+    id: Number(r.id),
+    jobId: Number(r.job_id),
+    jointNo: Number(r.joint_no),
+    madeAt: r.made_at as Date,
+    reviewState: r.review_state as ReviewState,
+    coilACode: (r.coil_code as string | null) ?? null,
+    findings: parseJson<JointFinding[]>(r.findings, []),
+  }));
+}
+
+/**
+ * The next joint number of a job, gap-free under concurrent submissions: locks the job's
+ * counter row (SELECT … FOR UPDATE) for the rest of the caller's transaction and bumps it.
+ * A rollback undoes the bump, so a refused joint leaves no gap. Creates the counter row
+ * for a job that has none.
+ */
+export async function takeNextJointNo({ jobId }: { jobId: number }, trx: Knex.Transaction): Promise<number> {
+  let row = (await trx("job_counters").where({ job_id: jobId }).forUpdate().first("last_joint_no")) as { last_joint_no: number } | undefined;
+  if (!row) {
+    await trx.raw("INSERT IGNORE INTO job_counters (job_id, last_joint_no) VALUES (?, 0)", [jobId]);
+    row = (await trx("job_counters").where({ job_id: jobId }).forUpdate().first("last_joint_no")) as { last_joint_no: number } | undefined;
+  }
+  const next = Number(row?.last_joint_no ?? 0) + 1;
+  await trx("job_counters").where({ job_id: jobId }).update({ last_joint_no: next });
+  return next;
+}
+
+export type NewJoint = {
+  clientId: string;
+  jobId: number;
+  jointNo: number;
+  kind: JointKind;
+  coilAId: number | null;
+  coilBId: number | null;
+  componentBText: string | null;
+  lengthAM: number | null;
+  lengthBM: number | null;
+  outsideDiameterMm: number;
+  sdr: number;
+  procedureVersionId: number;
+  machineId: number;
+  heaterId: number;
+  fuserId: number;
+  madeAt: Date;
+  station: string | null;
+  latitude: number | null;
+  longitude: number | null;
+  ambientC: number | null;
+  shelter: Shelter | null;
+  heaterTemperatureC: number | null;
+  dragPressureMpa: number | null;
+  beadUpGaugeMpa: number | null;
+  fusionGaugeMpa: number | null;
+  beadMm: number | null;
+  heatSoakS: number | null;
+  changeoverS: number | null;
+  coolingS: number | null;
+  facingOk: boolean | null;
+  alignmentOk: boolean | null;
+  beadRollbackOk: boolean | null;
+  vGrooveOk: boolean | null;
+  timedFields: TimedPhase[];
+  plan: FusionPlan;
+  outcome: JointOutcome;
+  findings: JointFinding[];
+  replacesJointId: number | null;
+  recordedAt?: Date;
+};
+
+/** Inserts the joint row; a second insert with the same client id fails with a duplicate key. */
+export async function insertJoint(j: NewJoint, trx: Db): Promise<number> {
+  const [id] = await conn(trx)("joints").insert({
+    client_id: j.clientId,
+    job_id: j.jobId,
+    joint_no: j.jointNo,
+    kind: j.kind,
+    coil_a_id: j.coilAId,
+    coil_b_id: j.coilBId,
+    component_b_text: j.componentBText,
+    length_a_m: j.lengthAM,
+    length_b_m: j.lengthBM,
+    outside_diameter_mm: j.outsideDiameterMm,
+    sdr: j.sdr,
+    procedure_version_id: j.procedureVersionId,
+    machine_id: j.machineId,
+    heater_id: j.heaterId,
+    fuser_id: j.fuserId,
+    made_at: j.madeAt,
+    station: j.station,
+    latitude: j.latitude,
+    longitude: j.longitude,
+    ambient_c: j.ambientC,
+    shelter: j.shelter,
+    heater_temperature_c: j.heaterTemperatureC,
+    drag_pressure_mpa: j.dragPressureMpa,
+    bead_up_gauge_mpa: j.beadUpGaugeMpa,
+    fusion_gauge_mpa: j.fusionGaugeMpa,
+    bead_mm: j.beadMm,
+    heat_soak_s: j.heatSoakS,
+    changeover_s: j.changeoverS,
+    cooling_s: j.coolingS,
+    facing_ok: j.facingOk,
+    alignment_ok: j.alignmentOk,
+    bead_rollback_ok: j.beadRollbackOk,
+    v_groove_ok: j.vGrooveOk,
+    timed_fields: j.timedFields.length ? j.timedFields.join(",") : null,
+    plan: JSON.stringify(j.plan),
+    outcome: j.outcome,
+    findings: JSON.stringify(j.findings),
+    finding_parameters: j.findings.length ? [...new Set(j.findings.map((f) => f.parameter))].join(",") : null,
+    replaces_joint_id: j.replacesJointId,
+    ...(j.recordedAt ? { recorded_at: j.recordedAt } : {}),
+  });
+  return Number(id);
+}
+
+export async function insertJointRevision(
+  r: { jointId: number; revisionNo: number; kind: RevisionKind; byUserId: number; reason?: string | null; changes?: Record<string, unknown> | null; reviewState: ReviewState; at?: Date },
+  trx: Db,
+): Promise<number> {
+  const [id] = await conn(trx)("joint_revisions").insert({
+    joint_id: r.jointId,
+    revision_no: r.revisionNo,
+    kind: r.kind,
+    by_user_id: r.byUserId,
+    reason: r.reason ?? null,
+    changes: r.changes ? JSON.stringify(r.changes) : null,
+    review_state: r.reviewState,
+    ...(r.at ? { at: r.at } : {}),
+  });
+  return Number(id);
+}
+
+export async function insertJointState(s: { jointId: number; reviewState: ReviewState; revisionNo: number; outcome: JointOutcome; madeAt: Date }, trx: Db): Promise<void> {
+  await conn(trx)("joint_states").insert({ joint_id: s.jointId, review_state: s.reviewState, revision_no: s.revisionNo, outcome: s.outcome, made_at: s.madeAt, replaced_by_joint_id: null });
+}
+
+/**
+ * Links a cut-out or out-of-limits joint to the remake that replaces it. Only one remake
+ * per joint: false when another remake got there first.
+ */
+export async function markJointReplaced({ jointId, replacedByJointId }: { jointId: number; replacedByJointId: number }, trx: Db): Promise<boolean> {
+  const changed = await conn(trx)("joint_states").where({ joint_id: jointId }).whereNull("replaced_by_joint_id").update({ replaced_by_joint_id: replacedByJointId, updated_at: conn(trx).fn.now(3) });
+  return changed === 1;
+}
+
+/** The joint a remake names, locked for the rest of the transaction, with its state. */
+export async function lockJointForRemake({ id }: { id: number }, trx: Knex.Transaction): Promise<{ id: number; jobId: number; jointNo: number; outcome: JointOutcome; reviewState: ReviewState; replacedByJointId: number | null } | null> {
+  const row = (await trx("joint_states as s").join("joints as j", "j.id", "s.joint_id").where("s.joint_id", id).forUpdate().first("j.id", "j.job_id", "j.joint_no", "j.outcome", "s.review_state", "s.replaced_by_joint_id")) as Row | undefined;
+  if (!row) return null;
+  return {
+    id: Number(row.id),
+    jobId: Number(row.job_id),
+    jointNo: Number(row.joint_no),
+    outcome: row.outcome as JointOutcome,
+    reviewState: row.review_state as ReviewState,
+    replacedByJointId: num(row.replaced_by_joint_id),
+  };
+}
+
+export type JointRevision = {
+  id: number;
+  revisionNo: number;
+  kind: RevisionKind;
+  byUserId: number;
+  byUserName: string;
+  at: Date;
+  reason: string | null;
+  changes: Record<string, unknown> | null;
+  reviewState: ReviewState;
+};
+
+export async function listJointRevisions({ jointId }: { jointId: number }, trx?: Db): Promise<JointRevision[]> {
+  const rows = (await conn(trx)("joint_revisions as r").join("users as u", "u.id", "r.by_user_id").where("r.joint_id", jointId).orderBy("r.revision_no").select("r.*", "u.name as by_user_name")) as Row[];
+  return rows.map((r) => ({
+    id: Number(r.id),
+    revisionNo: Number(r.revision_no),
+    kind: r.kind as RevisionKind,
+    byUserId: Number(r.by_user_id),
+    byUserName: r.by_user_name as string,
+    at: r.at as Date,
+    reason: (r.reason as string | null) ?? null,
+    changes: parseJson<Record<string, unknown> | null>(r.changes, null),
+    reviewState: r.review_state as ReviewState,
+  }));
+}
+
+export async function countJoints({ jobId }: { jobId?: number } = {}, trx?: Db): Promise<number> {
+  const q = conn(trx)("joints").count({ n: "*" });
+  if (jobId) q.where({ job_id: jobId });
+  const row = (await q.first()) as { n: number | string } | undefined;
+  return Number(row?.n ?? 0);
+}
+
+// ---------------------------------------------------------------------------------------
+// Overrides of blocking warnings
+
+export type OverrideRecord = OverrideGrant & { reason: string; grantedById: number; grantedByName: string; jobCode: string; subjectLabel: string };
+
+function toOverride(r: Row): OverrideRecord {
+  return {
+    id: Number(r.id),
+    jobId: Number(r.job_id),
+    jobCode: r.job_code as string,
+    subjectType: r.subject_type as "heater" | "coil",
+    subjectId: Number(r.subject_id),
+    subjectLabel: ((r.subject_type === "heater" ? r.heater_tag : r.coil_code) as string | null) ?? `#${String(r.subject_id)}`,
+    reason: r.reason as string,
+    grantedById: Number(r.granted_by),
+    grantedByName: r.granted_by_name as string,
+    grantedAt: r.granted_at as Date,
+    expiresAt: r.expires_at as Date,
+  };
+}
+
+function overrideQuery(trx?: Db) {
+  return conn(trx)("joint_overrides as o")
+    .join("jobs", "jobs.id", "o.job_id")
+    .join("users as u", "u.id", "o.granted_by")
+    .leftJoin("heater_plates as h", (j) => j.on("h.id", "o.subject_id").andOnVal("o.subject_type", "heater"))
+    .leftJoin("coils as c", (j) => j.on("c.id", "o.subject_id").andOnVal("o.subject_type", "coil"))
+    .select("o.*", "jobs.code as job_code", "u.name as granted_by_name", "h.asset_tag as heater_tag", "c.coil_code as coil_code");
+}
+
+export async function insertJointOverride(
+  o: { jobId: number; subjectType: "heater" | "coil"; subjectId: number; reason: string; grantedBy: number; grantedAt: Date; expiresAt: Date },
+  trx: Db,
+): Promise<number> {
+  const [id] = await conn(trx)("joint_overrides").insert({
+    job_id: o.jobId,
+    subject_type: o.subjectType,
+    subject_id: o.subjectId,
+    reason: o.reason,
+    granted_by: o.grantedBy,
+    granted_at: o.grantedAt,
+    expires_at: o.expiresAt,
+  });
+  return Number(id);
+}
+
+/** Overrides on these jobs that have not expired by `at` (newest first). */
+export async function listOverridesForJobs({ jobIds, at }: { jobIds: number[]; at: Date }, trx?: Db): Promise<OverrideRecord[]> {
+  if (jobIds.length === 0) return [];
+  const rows = (await overrideQuery(trx).whereIn("o.job_id", jobIds).where("o.expires_at", ">=", at).orderBy("o.id", "desc")) as Row[];
+  return rows.map(toOverride);
+}
+
+/** Overrides that could cover a joint made at `madeAt` (the domain decides which applies). */
+export async function listOverridesForSubjects(
+  { jobId, subjects, madeAt }: { jobId: number; subjects: { type: "heater" | "coil"; id: number }[]; madeAt: Date },
+  trx?: Db,
+): Promise<OverrideRecord[]> {
+  if (subjects.length === 0) return [];
+  const q = overrideQuery(trx).where("o.job_id", jobId).where("o.expires_at", ">=", madeAt);
+  q.where((w) => {
+    for (const s of subjects) w.orWhere((o) => o.where("o.subject_type", s.type).andWhere("o.subject_id", s.id));
+  });
+  return ((await q.orderBy("o.id", "desc")) as Row[]).map(toOverride);
+}
+
+export async function insertOverrideUse(u: { jointId: number; overrideId: number; blockKind: string; message: string }, trx: Db): Promise<void> {
+  await conn(trx)("joint_override_uses").insert({ joint_id: u.jointId, override_id: u.overrideId, block_kind: u.blockKind, message: u.message.slice(0, 500) });
+}
+
+export async function listOverrideUsesForJoint({ jointId }: { jointId: number }, trx?: Db): Promise<(OverrideRecord & { blockKind: string; message: string })[]> {
+  const rows = (await overrideQuery(trx).join("joint_override_uses as ou", "ou.override_id", "o.id").where("ou.joint_id", jointId).select("ou.block_kind", "ou.message").orderBy("o.id")) as Row[];
+  return rows.map((r) => ({ ...toOverride(r), blockKind: r.block_kind as string, message: r.message as string }));
+}
+
+// ---------------------------------------------------------------------------------------
+// What the Trench device keeps for offline use
+
+/**
+ * Coils the fuser's device should know without signal: those with the fuser's crew or on
+ * the fuser's open jobs (any status, so a quarantined coil still shows its warning).
+ */
+export async function listCoilsForTrench({ crewId, jobIds, limit = 300 }: { crewId: number | null; jobIds: number[]; limit?: number }, trx?: Db): Promise<Coil[]> {
+  if (crewId === null && jobIds.length === 0) return [];
+  const rows = (await conn(trx)("coils")
+    .where((w) => {
+      if (crewId !== null) w.orWhere("crew_id", crewId);
+      if (jobIds.length) w.orWhereIn("job_id", jobIds);
+    })
+    .orderBy("coil_code")
+    .limit(limit)
+    .select("coils.*")) as Parameters<typeof toCoil>[0][];
+  return rows.map(toCoil);
+}
