@@ -84,7 +84,7 @@ describe("append-only at the query layer", () => {
 describe("append-only in the database rights", () => {
   afterAll(closeDb);
 
-  const appErrno = async (sql: string, bindings: unknown[] = []): Promise<string | null> => {
+  const appErrno = async (sql: string, bindings: string[] = []): Promise<string | null> => {
     try {
       await db().raw(sql, bindings);
       return null;
