@@ -1,0 +1,237 @@
+import { headers } from "next/headers";
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { requireUser } from "@/app/_lib/page-guard";
+import { Cautions } from "@/components/ui/caution";
+import { findCoilByCode, listCoilEvents, listCoilMoveOptions } from "@/database/queries/coils";
+import { listJointsForCoil } from "@/database/queries/trace";
+import { COIL_STATUS_LABELS, DAMAGE_LABELS, statusMovesFrom } from "@/domain/coil-life/rules";
+import { describeSize } from "@/domain/labels/label";
+import { bendRatio, minimumBendRadiusMm } from "@/domain/pipe/bending";
+import { formatQuantity } from "@/domain/units/format";
+import { publicBaseUrl } from "../../labels/_lib/base-url";
+import { coilLabelSvg, stockOrDefault } from "../../labels/_lib/render";
+import { CoilStatusBadge } from "../_components/coil-status-badge";
+import { MoveCoilForm } from "../_components/move-coil-form";
+import { NextRunCheck } from "../_components/next-run-check";
+
+export const dynamic = "force-dynamic";
+
+function Fact({ label, children }: { label: string; children: React.ReactNode }) {
+  return (
+    <div className="flex flex-col">
+      <dt className="text-sm text-slate-700">{label}</dt>
+      <dd className="font-semibold">{children}</dd>
+    </div>
+  );
+}
+
+function bendCaution(coil: { outsideDiameterMm: number; sdr: number }, system: "si" | "us"): string {
+  try {
+    const radiusMm = minimumBendRadiusMm(coil);
+    const shown = formatQuantity(radiusMm / 1000, "length-m", system, { decimals: system === "si" ? 2 : 1 });
+    return `Do not bend this pipe tighter than a ${shown} radius (${bendRatio(coil.sdr)} × OD for DR ${coil.sdr}; 100 × OD with a fitting or flange in the bend). Source: PPI Handbook of PE Pipe, minimum bend ratios.`;
+  } catch (error) {
+    return `No minimum bend radius on file for DR ${coil.sdr}: ${(error as Error).message}. Ask the pipe maker before bending.`;
+  }
+}
+
+// The coil page: what the label's QR opens. Facts, length left, bending caution, status moves, history.
+export default async function CoilPage({ params, searchParams }: { params: Promise<{ code: string }>; searchParams: Promise<Record<string, string | undefined>> }) {
+  const user = await requireUser(["clerk", "admin", "fuser", "inspector"]);
+  const { code } = await params;
+  const query = await searchParams;
+  const coil = await findCoilByCode({ coilCode: decodeURIComponent(code) });
+  if (!coil) notFound();
+  const canManage = user.roles.includes("clerk") || user.roles.includes("admin");
+  const canTrace = canManage || user.roles.includes("inspector");
+  const [events, joints, options] = await Promise.all([listCoilEvents({ coilId: coil.id }), listJointsForCoil({ coilId: coil.id, limit: 100 }), canManage ? listCoilMoveOptions() : Promise.resolve(null)]);
+  const system = user.unitSystem;
+  const m = (value: number) => formatQuantity(value, "length-m", system);
+  const stock = stockOrDefault(null, system);
+  const label = coilLabelSvg(coil, { baseUrl: publicBaseUrl(await headers()), stock, system, standalone: false });
+  const usedPct = coil.lengthM > 0 ? Math.min(100, Math.max(0, (coil.remainingM / coil.lengthM) * 100)) : 0;
+
+  return (
+    <div className="flex flex-col gap-6">
+      <p>
+        <Link href={canManage ? "/coils" : "/"} className="font-semibold text-brand underline">
+          ← {canManage ? "All coils" : "Today"}
+        </Link>
+      </p>
+      <div className="flex flex-wrap items-center gap-3">
+        <h1 className="text-2xl font-bold">Coil {coil.coilCode}</h1>
+        <CoilStatusBadge status={coil.status} />
+      </div>
+      {query.received ? (
+        <p role="status" className="rounded-md border-2 border-pass bg-pass-light p-3 font-semibold text-pass">
+          Coil {coil.coilCode} received{coil.status === "quarantined" ? " and quarantined (failed receipt inspection)" : " into the yard"}.
+        </p>
+      ) : null}
+      {coil.status === "quarantined" ? (
+        <p role="alert" className="rounded-md border-2 border-fail bg-fail-light p-3 font-semibold text-fail">
+          Quarantined: {coil.statusReason ?? "no reason recorded"}. Pipe from this coil must not be laid.
+        </p>
+      ) : null}
+      {coil.traceCodeFlags.length ? (
+        <div role="alert" className="rounded-md border-2 border-caution bg-caution-light p-3 text-caution">
+          <p className="font-bold">The traceability code disagrees with the fields typed at receipt:</p>
+          <ul className="list-disc pl-5">
+            {coil.traceCodeFlags.map((f) => (
+              <li key={`${f.field}-${f.message}`}>{f.message}</li>
+            ))}
+          </ul>
+        </div>
+      ) : null}
+
+      <section aria-labelledby="facts" className="rounded-md border-2 border-slate-300 bg-white p-4">
+        <h2 id="facts" className="mb-3 text-lg font-bold">
+          Pipe
+        </h2>
+        <dl className="grid gap-3 sm:grid-cols-3">
+          <Fact label="Size">{describeSize(coil)}</Fact>
+          <Fact label="Outside diameter">{formatQuantity(coil.outsideDiameterMm, "length-mm", system)}</Fact>
+          <Fact label="Material">{coil.material}</Fact>
+          <Fact label="Pipe maker">
+            {coil.manufacturer}
+            {coil.manufacturerCode ? ` (${coil.manufacturerCode})` : ""}
+          </Fact>
+          <Fact label="Lot">{coil.lot}</Fact>
+          <Fact label="Production date">{coil.productionDate ?? "not recorded"}</Fact>
+          <Fact label="Traceability code">{coil.traceCode ? <code>{coil.traceCode}</code> : "none"}</Fact>
+          <Fact label="Crew and trailer">{coil.crewName ? `${coil.crewName}${coil.trailer ? ` — ${coil.trailer}` : ""}` : "—"}</Fact>
+          <Fact label="Job">{coil.jobCode ? `${coil.jobCode} — ${coil.jobName}` : "—"}</Fact>
+        </dl>
+        {coil.printLine ? (
+          <p className="mt-3 text-sm">
+            Print line: <span className="font-mono">{coil.printLine}</span>
+          </p>
+        ) : null}
+      </section>
+
+      <section aria-labelledby="left" className="rounded-md border-2 border-slate-300 bg-white p-4">
+        <h2 id="left" className="mb-3 text-lg font-bold">
+          Length left
+        </h2>
+        <p className="text-xl font-bold">
+          {m(coil.remainingM)} left of {m(coil.lengthM)}
+        </p>
+        <div className="my-2 h-4 w-full max-w-md rounded bg-slate-200" role="img" aria-label={`${Math.round(usedPct)} % of the coil is left`}>
+          <div className="h-4 rounded bg-brand" style={{ width: `${usedPct}%` }} />
+        </div>
+        <NextRunCheck coilCode={coil.coilCode} remainingM={coil.remainingM} unitSystem={system} />
+      </section>
+
+      <section aria-labelledby="handling" className="flex flex-col gap-2">
+        <h2 id="handling" className="text-lg font-bold">
+          Handling
+        </h2>
+        <p className="rounded-md border-2 border-caution bg-caution-light p-3 font-semibold text-caution">Bending: {bendCaution(coil, system)}</p>
+        <Cautions kinds={["coil", "static"]} title="Before you cut the bands" />
+      </section>
+
+      <section aria-labelledby="inspection" className="rounded-md border-2 border-slate-300 bg-white p-4">
+        <h2 id="inspection" className="mb-3 text-lg font-bold">
+          Receipt inspection
+        </h2>
+        <dl className="grid gap-3 sm:grid-cols-3">
+          <Fact label="Result">{coil.inspection.passed ? "Passed" : "Failed"}</Fact>
+          <Fact label="Damage">{coil.inspection.damageKinds.length ? coil.inspection.damageKinds.map((k) => DAMAGE_LABELS[k]).join(", ") : "none found"}</Fact>
+          <Fact label="Deepest gouge">
+            {coil.inspection.gougeDepthMm != null ? `${formatQuantity(coil.inspection.gougeDepthMm, "length-mm", system)}${coil.inspection.gougeLimitPct != null ? ` (limit ${coil.inspection.gougeLimitPct} % of wall)` : ""}` : "not measured"}
+          </Fact>
+          <Fact label="Ovality at the end">
+            {coil.inspection.ovalityPct != null ? `${coil.inspection.ovalityPct} %${coil.inspection.ovalityLimitPct != null ? ` (limit ${coil.inspection.ovalityLimitPct} %)` : ""}` : "not measured"}
+          </Fact>
+          <Fact label="End caps">{coil.inspection.endCapsInPlace ? "in place" : "missing"}</Fact>
+          <Fact label="Received">
+            {coil.inspection.receivedAt.toISOString().slice(0, 16).replace("T", " ")} UTC{coil.inspection.receivedByName ? ` by ${coil.inspection.receivedByName}` : ""}
+          </Fact>
+        </dl>
+        {coil.inspection.damageNotes ? <p className="mt-2">Notes: {coil.inspection.damageNotes}</p> : null}
+      </section>
+
+      {canManage && options ? (
+        <section aria-labelledby="move" className="max-w-xl rounded-md border-2 border-slate-300 bg-white p-4">
+          <h2 id="move" className="mb-3 text-lg font-bold">
+            Move coil
+          </h2>
+          <MoveCoilForm coil={coil} moves={statusMovesFrom(coil.status)} crews={options.crews} jobs={options.jobs} />
+        </section>
+      ) : null}
+
+      {canManage ? (
+        <section aria-labelledby="label" className="rounded-md border-2 border-slate-300 bg-white p-4">
+          <h2 id="label" className="mb-3 text-lg font-bold">
+            Label
+          </h2>
+          <div className="max-w-md border border-slate-300" dangerouslySetInnerHTML={{ __html: label.svg }} />
+          <p className="mt-2 text-sm">
+            The QR opens <span className="font-mono">{label.url}</span>. {coil.labelPrintedAt ? `Label last printed ${coil.labelPrintedAt.toISOString().slice(0, 10)}.` : "The label has not been printed yet."}
+          </p>
+          <div className="mt-3 flex flex-wrap gap-2">
+            <Link href={`/labels?kind=coil&ids=${coil.id}`} className="inline-flex min-h-touch items-center rounded-md bg-brand px-4 font-semibold text-white hover:bg-brand-dark">
+              Print label
+            </Link>
+            <a href={`/api/v1/labels/coils/${coil.id}?format=png`} download className="inline-flex min-h-touch items-center rounded-md border-2 border-brand bg-white px-4 font-semibold text-brand">
+              Download label as PNG
+            </a>
+            <a href={`/api/v1/labels/coils/${coil.id}?format=svg`} download className="inline-flex min-h-touch items-center rounded-md border-2 border-brand bg-white px-4 font-semibold text-brand">
+              Download label as SVG
+            </a>
+            {canTrace ? (
+              <Link href={`/trace?code=${encodeURIComponent(coil.coilCode)}`} className="inline-flex min-h-touch items-center rounded-md border-2 border-brand bg-white px-4 font-semibold text-brand">
+                Trace this lot
+              </Link>
+            ) : null}
+          </div>
+        </section>
+      ) : null}
+
+      <section aria-labelledby="joints" className="rounded-md border-2 border-slate-300 bg-white p-4">
+        <h2 id="joints" className="mb-3 text-lg font-bold">
+          Joints made with this coil ({joints.length}
+          {joints.length === 100 ? "+" : ""})
+        </h2>
+        {joints.length ? (
+          <ul className="flex flex-col gap-1">
+            {joints.map((j) => (
+              <li key={j.id}>
+                {canTrace ? (
+                  <Link href={`/trace/joints/${j.id}`} className="text-brand underline">
+                    {j.jobCode} joint {j.jointNo}
+                  </Link>
+                ) : (
+                  `${j.jobCode} joint ${j.jointNo}`
+                )}{" "}
+                · {j.madeAt.toISOString().slice(0, 10)} · {j.station ?? "no station"} · {j.fuserName} · {j.outcome === "within-limits" ? "within limits" : "out of limits"}
+                {j.side === "a" && j.lengthAM != null ? ` · ${m(j.lengthAM)} laid` : j.side === "b" && j.lengthBM != null ? ` · ${m(j.lengthBM)} laid` : ""}
+              </li>
+            ))}
+          </ul>
+        ) : (
+          <p>No joints yet.</p>
+        )}
+      </section>
+
+      <section aria-labelledby="history" className="rounded-md border-2 border-slate-300 bg-white p-4">
+        <h2 id="history" className="mb-3 text-lg font-bold">
+          History
+        </h2>
+        <ol className="flex flex-col gap-1">
+          {events.map((e) => (
+            <li key={e.id}>
+              <span className="font-semibold">{e.at.toISOString().slice(0, 16).replace("T", " ")}</span> · {e.fromStatus ? `${COIL_STATUS_LABELS[e.fromStatus]} → ` : ""}
+              {COIL_STATUS_LABELS[e.toStatus]}
+              {e.pullM != null ? ` · pulled ${m(e.pullM)}${e.jointNo != null ? ` for ${e.jobCode ?? "job"} joint ${e.jointNo}` : ""}` : ""}
+              {e.remainingM != null ? ` · ${m(e.remainingM)} left` : ""}
+              {e.reason && e.pullM == null ? ` · ${e.reason}` : ""}
+              {e.crewName ? ` · ${e.crewName}` : ""}
+              {e.byUserName ? ` · by ${e.byUserName}` : ""}
+            </li>
+          ))}
+        </ol>
+      </section>
+    </div>
+  );
+}

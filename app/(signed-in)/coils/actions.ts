@@ -1,0 +1,20 @@
+"use server";
+// Coils screen actions: receive a coil, move it to another status. Session, role and
+// input are checked by the wrapper; the use cases live in _lib/use-cases.ts.
+import { revalidatePath } from "next/cache";
+import { defineAction } from "@/app/_lib/guard";
+import { moveCoilSchema, receiveCoilSchema } from "@/domain/coil-life/schemas";
+import { moveCoil, receiveCoil } from "./_lib/use-cases";
+
+export const receiveCoilAction = defineAction({ audience: ["clerk", "admin"], schema: receiveCoilSchema }, async (input, ctx) => {
+  const received = await receiveCoil(input, ctx);
+  revalidatePath("/coils");
+  return received;
+});
+
+export const moveCoilAction = defineAction({ audience: ["clerk", "admin"], schema: moveCoilSchema }, async (input, ctx) => {
+  const moved = await moveCoil(input, ctx);
+  revalidatePath(`/coils/${encodeURIComponent(moved.coilCode)}`);
+  revalidatePath("/coils");
+  return moved;
+});

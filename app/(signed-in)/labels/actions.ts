@@ -1,0 +1,12 @@
+"use server";
+// Labels: stamp the coils whose labels were just sent to the printer.
+import { revalidatePath } from "next/cache";
+import { defineAction } from "@/app/_lib/guard";
+import { markLabelsPrintedSchema } from "@/domain/coil-life/schemas";
+import { markLabelsPrinted } from "../coils/_lib/use-cases";
+
+export const markLabelsPrintedAction = defineAction({ audience: ["clerk", "admin"], schema: markLabelsPrintedSchema }, async (input, ctx) => {
+  const count = await markLabelsPrinted(input.coilIds, "print", ctx);
+  revalidatePath("/coils");
+  return { count };
+});

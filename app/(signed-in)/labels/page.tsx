@@ -1,0 +1,138 @@
+import { headers } from "next/headers";
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { requireUser } from "@/app/_lib/page-guard";
+import { findCoilById, type Coil } from "@/database/queries/coils";
+import { findJointLabelFacts } from "@/database/queries/trace";
+import { hasAnyRole } from "@/domain/roles";
+import { LABEL_STOCKS, SHEETS, SHEET_IDS, layoutSheet, placeLabels, type SheetId } from "@/domain/labels/sheets";
+import { publicBaseUrl } from "./_lib/base-url";
+import { coilLabelSvg, jointLabelSvg, stockOrDefault } from "./_lib/render";
+import { PrintLabelsButton } from "./_components/print-button";
+
+export const dynamic = "force-dynamic";
+
+const MAX_LABELS = 500;
+
+function idsFrom(value: string | string[] | undefined): number[] {
+  const parts = (Array.isArray(value) ? value : [value ?? ""]).flatMap((v) => v.split(","));
+  return [...new Set(parts.map((p) => Number(p.trim())).filter((n) => Number.isInteger(n) && n > 0))].slice(0, MAX_LABELS);
+}
+
+// Label print page: coil labels or joint tags laid out on A4 or US Letter label sheets.
+export default async function LabelsPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+  const user = await requireUser(["clerk", "admin", "inspector"]);
+  const params = await searchParams;
+  const kind = params.kind === "joint" ? "joint" : "coil";
+  if (kind === "coil" && !hasAnyRole(user, ["clerk", "admin"])) notFound();
+  const ids = idsFrom(params.ids);
+  const system = user.unitSystem;
+  const stock = stockOrDefault(typeof params.stock === "string" ? params.stock : null, system);
+  const sheetId: SheetId = SHEET_IDS.includes(params.sheet as SheetId) ? (params.sheet as SheetId) : stock.usualSheet;
+  const sheet = SHEETS[sheetId];
+  const skip = Math.max(0, Math.floor(Number(params.skip) || 0));
+  const baseUrl = publicBaseUrl(await headers());
+
+  let labels: { key: string; svg: string; name: string }[] = [];
+  let coilIds: number[] = [];
+  if (kind === "coil") {
+    const coils = (await Promise.all(ids.map((id) => findCoilById({ id })))).filter((c): c is Coil => c !== null);
+    coilIds = coils.map((c) => c.id);
+    labels = coils.map((c) => ({ key: `c${c.id}`, ...coilLabelSvg(c, { baseUrl, stock, system, standalone: false }) }));
+  } else {
+    const joints = await findJointLabelFacts({ jointIds: ids });
+    labels = joints.map((j) => ({ key: `j${j.id}`, ...jointLabelSvg(j, { baseUrl, stock, standalone: false }) }));
+  }
+  const layout = layoutSheet(sheet, stock);
+  const placed = placeLabels(layout, labels.length, skip);
+  const pages = Array.from({ length: placed.pages }, (_, page) => placed.slots.filter((s) => s.page === page));
+  const mm = (n: number) => `${n.toFixed(2)}mm`;
+
+  return (
+    <div className="flex flex-col gap-4">
+      <style>{`
+        @page { size: ${sheet.cssSize}; margin: 0; }
+        @media print {
+          main { padding: 0 !important; max-width: none !important; }
+          .label-sheet { border: none !important; margin: 0 !important; box-shadow: none !important; break-after: page; }
+          .label-sheet:last-child { break-after: auto; }
+          .label-slot { outline: none !important; }
+        }
+      `}</style>
+      <div className="no-print flex flex-col gap-4">
+        <p>
+          <Link href={kind === "coil" ? "/coils" : "/trace"} className="font-semibold text-brand underline">
+            ← {kind === "coil" ? "All coils" : "Trace"}
+          </Link>
+        </p>
+        <h1 className="text-2xl font-bold">{kind === "coil" ? "Coil labels" : "Joint tags"}</h1>
+        <form method="get" action="/labels" className="flex flex-wrap items-end gap-3">
+          <input type="hidden" name="kind" value={kind} />
+          <input type="hidden" name="ids" value={ids.join(",")} />
+          <div className="flex flex-col gap-1">
+            <label htmlFor="sheet" className="text-sm font-semibold">
+              Paper
+            </label>
+            <select id="sheet" name="sheet" defaultValue={sheetId} className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-3">
+              {SHEET_IDS.map((id) => (
+                <option key={id} value={id}>
+                  {SHEETS[id].label}
+                </option>
+              ))}
+            </select>
+          </div>
+          <div className="flex flex-col gap-1">
+            <label htmlFor="stock" className="text-sm font-semibold">
+              Label size
+            </label>
+            <select id="stock" name="stock" defaultValue={stock.id} className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-3">
+              {LABEL_STOCKS.map((s) => (
+                <option key={s.id} value={s.id}>
+                  {s.label}
+                </option>
+              ))}
+            </select>
+          </div>
+          <div className="flex flex-col gap-1">
+            <label htmlFor="skip" className="text-sm font-semibold">
+              Labels already used on the first sheet
+            </label>
+            <input id="skip" name="skip" inputMode="numeric" defaultValue={skip} className="min-h-touch w-24 rounded-md border-2 border-slate-400 bg-white px-3" />
+          </div>
+          <button type="submit" className="min-h-touch rounded-md border-2 border-brand bg-white px-4 font-semibold text-brand">
+            Lay out labels
+          </button>
+        </form>
+        <p>
+          {labels.length} label{labels.length === 1 ? "" : "s"} on {placed.pages} sheet{placed.pages === 1 ? "" : "s"} of {sheet.label}: {layout.columns} × {layout.rows} = {layout.perSheet} a sheet. Print at 100 % (no “fit to page”).
+        </p>
+        {layout.perSheet === 0 ? <p role="alert">This label size does not fit on {sheet.label}.</p> : null}
+        {labels.length === 0 ? (
+          <p role="alert">No labels to print: choose {kind === "coil" ? "coils on the Coils screen" : "joints on the Trace screen"}.</p>
+        ) : (
+          <div className="max-w-xs">
+            <PrintLabelsButton coilIds={coilIds} count={labels.length} />
+          </div>
+        )}
+      </div>
+      <div aria-label="Label sheets" className="flex flex-col gap-6 overflow-x-auto">
+        {pages.map((slots, page) => (
+          <div key={page} className="label-sheet relative mx-auto border-2 border-slate-300 bg-white shadow" style={{ width: mm(sheet.widthMm), height: mm(sheet.heightMm) }} aria-label={`Sheet ${page + 1}`}>
+            {slots.map((slot) => {
+              const label = labels[slot.item]!;
+              return (
+                <div
+                  key={label.key}
+                  className="label-slot absolute overflow-hidden outline outline-1 outline-dashed outline-slate-300"
+                  style={{ left: mm(slot.xMm), top: mm(slot.yMm), width: mm(stock.widthMm), height: mm(stock.heightMm) }}
+                  aria-label={`Label ${label.name}`}
+                  dangerouslySetInnerHTML={{ __html: label.svg }}
+                />
+              );
+            })}
+          </div>
+        ))}
+      </div>
+    </div>
+  );
+}

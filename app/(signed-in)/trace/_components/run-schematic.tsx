@@ -1,0 +1,50 @@
+// A job's run drawn as a straight line with the lot's joints on it (no map tiles): by
+// station, else by coordinates, else by joint number. Out-of-limits joints are drawn as
+// squares and named in the text list, so colour is never the only cue.
+import { layoutRun, type SchematicJoint } from "@/domain/coil-life/schematic";
+import { formatQuantity } from "@/domain/units/format";
+
+const BASIS_TEXT = { station: "placed by station", coordinates: "placed by latitude/longitude along the run", "joint-number": "placed by joint number (no stations or coordinates recorded)" } as const;
+
+export function RunSchematic({ jobCode, jobName, joints, unitSystem }: { jobCode: string; jobName: string; joints: (SchematicJoint & { outOfLimits: boolean })[]; unitSystem: "si" | "us" }) {
+  const run = layoutRun(joints);
+  const width = 800;
+  const left = 40;
+  const right = 40;
+  const lineY = 60;
+  const usable = width - left - right;
+  const byId = new Map(joints.map((j) => [j.id, j]));
+  const labelEvery = Math.max(1, Math.ceil(run.points.length / 40));
+  const titleId = `run-${jobCode.replace(/[^A-Za-z0-9]/g, "")}`;
+  return (
+    <figure className="flex flex-col gap-1">
+      <svg viewBox={`0 0 ${width} 110`} className="w-full max-w-4xl rounded border border-slate-300 bg-white" role="img" aria-labelledby={titleId}>
+        <title id={titleId}>{`${jobCode}: ${run.points.length} joints of the lot, ${BASIS_TEXT[run.basis]}`}</title>
+        <line x1={left} y1={lineY} x2={width - right} y2={lineY} stroke="#0b4f6c" strokeWidth={4} />
+        <text x={left} y={lineY + 40} fontSize={12} fill="#111827">
+          start
+        </text>
+        <text x={width - right} y={lineY + 40} fontSize={12} textAnchor="end" fill="#111827">
+          {run.lengthM != null ? formatQuantity(run.lengthM, "length-m", unitSystem) : "end"}
+        </text>
+        {run.points.map((p, i) => {
+          const x = left + p.t * usable;
+          const joint = byId.get(p.id)!;
+          return (
+            <g key={p.id}>
+              {joint.outOfLimits ? <rect x={x - 6} y={lineY - 6} width={12} height={12} fill="#b91c1c" /> : <circle cx={x} cy={lineY} r={6} fill="#166534" />}
+              {i % labelEvery === 0 ? (
+                <text x={x} y={lineY - 14} fontSize={11} textAnchor="middle" fill="#111827">
+                  {p.jointNo}
+                </text>
+              ) : null}
+            </g>
+          );
+        })}
+      </svg>
+      <figcaption className="text-sm text-slate-700">
+        {jobCode} — {jobName}: joints {BASIS_TEXT[run.basis]}; circles within limits, squares out of limits.
+      </figcaption>
+    </figure>
+  );
+}

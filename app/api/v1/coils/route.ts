@@ -1,0 +1,36 @@
+// /api/v1/coils
+//   GET ?code=<coil id | F2897 code | label URL>  → the coil it names (any signed-in person:
+//        the trench scans labels); without code → the list (clerk, admin; ?status=&q=).
+//   POST (clerk, admin) → receive a coil (same schema as the Receive form).
+import { defineRoute, errorResponse } from "@/app/_lib/guard";
+import { receiveCoil } from "@/app/(signed-in)/coils/_lib/use-cases";
+import { findCoilByCodeOrTrace, listCoils } from "@/database/queries/coils";
+import { COIL_STATUSES } from "@/domain/coil-life/rules";
+import { receiveCoilSchema } from "@/domain/coil-life/schemas";
+import { hasAnyRole } from "@/domain/roles";
+import { z } from "zod";
+
+export const dynamic = "force-dynamic";
+
+const lookupSchema = z.object({
+  code: z.string().trim().max(300, { error: "Code is too long." }).optional(),
+  status: z.enum(["all", ...COIL_STATUSES], { error: "Unknown status." }).default("all"),
+  q: z.string().trim().max(100).optional(),
+  limit: z.coerce.number().int().min(1).max(1000).default(200),
+});
+
+export const GET = defineRoute({ audience: "signed-in", schema: lookupSchema, input: "query" }, async (input, { user }) => {
+  if (input.code) {
+    const coil = await findCoilByCodeOrTrace({ code: input.code, preferCrewId: user.crewId });
+    if (!coil) return errorResponse("not-found", `No coil matches "${input.code}".`, { code: [`No coil matches "${input.code}".`] });
+    return Response.json({ coil });
+  }
+  if (!hasAnyRole(user, ["clerk", "admin"])) return errorResponse("forbidden", "Your role does not allow listing coils; look one up by its code.");
+  const coils = await listCoils({ status: input.status, search: input.q, limit: input.limit });
+  return Response.json({ coils });
+});
+
+export const POST = defineRoute({ audience: ["clerk", "admin"], schema: receiveCoilSchema, input: "json" }, async (input, ctx) => {
+  const received = await receiveCoil(input, ctx);
+  return Response.json({ coil: received }, { status: 201 });
+});
