@@ -172,3 +172,9 @@ export async function insertQualificationFailure(
   });
   return Number(id);
 }
+
+/** Who made a joint (to check a failure record names the right person); null if no such joint. */
+export async function findJointFuserId({ jointId }: { jointId: number }, trx?: Db): Promise<number | null> {
+  const row = (await conn(trx)("joints").where({ id: jointId }).first("fuser_id")) as { fuser_id: number } | undefined;
+  return row ? Number(row.fuser_id) : null;
+}

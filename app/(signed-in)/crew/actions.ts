@@ -1,0 +1,47 @@
+"use server";
+// Server actions of the Crew screen (admin only): people, roles, passwords, qualifications.
+import { revalidatePath } from "next/cache";
+import { z } from "zod";
+import { defineAction } from "@/app/_lib/guard";
+import { addPersonSchema, resetPasswordSchema, updatePersonSchema } from "@/domain/crew/schemas";
+import { recordQualificationFailureSchema, recordQualificationSchema } from "@/domain/office/schemas";
+import { addPerson, resetPassword, updatePersonAccess } from "./_lib/people";
+import { recordQualification, recordQualificationFailure } from "./_lib/qualifications";
+
+const done = <T>(value: T): T => {
+  revalidatePath("/crew");
+  revalidatePath("/");
+  return value;
+};
+
+export const addPersonAction = defineAction({ audience: ["admin"], schema: addPersonSchema }, async (input, ctx) => done(await addPerson(input, ctx)));
+
+export const updatePersonAction = defineAction({ audience: ["admin"], schema: updatePersonSchema }, async (input, ctx) => done(await updatePersonAccess(input, ctx)));
+
+export const resetPasswordAction = defineAction({ audience: ["admin"], schema: resetPasswordSchema }, async (input, ctx) => done(await resetPassword(input, ctx)));
+
+/** The qualification form posts FormData (fields + optional evidence file); plain objects work too. */
+function fromFormData(raw: unknown): unknown {
+  if (!(raw instanceof FormData)) return raw;
+  const out: Record<string, unknown> = {};
+  for (const [key, value] of raw.entries()) {
+    if (key === "evidence") {
+      if (typeof value !== "string" && value.size > 0) out.evidence = value;
+    } else out[key] = value;
+  }
+  return out;
+}
+
+const qualificationWithEvidenceSchema = z.preprocess(
+  fromFormData,
+  recordQualificationSchema.extend({
+    evidence: z.custom<Blob>((v) => v instanceof Blob, { error: "Evidence must be a file." }).optional(),
+  }),
+);
+
+export const recordQualificationAction = defineAction({ audience: ["admin"], schema: qualificationWithEvidenceSchema }, async ({ evidence, ...input }, ctx) => {
+  const file = evidence ? { bytes: new Uint8Array(await evidence.arrayBuffer()), contentType: evidence.type, name: (evidence as File).name ?? "evidence" } : null;
+  return done(await recordQualification(input, ctx, { evidence: file }));
+});
+
+export const recordQualificationFailureAction = defineAction({ audience: ["admin"], schema: recordQualificationFailureSchema }, async (input, ctx) => done(await recordQualificationFailure(input, ctx)));

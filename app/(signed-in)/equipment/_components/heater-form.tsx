@@ -1,0 +1,59 @@
+"use client";
+// Add or edit a heater plate (asset tag, description, how often its surface temperature
+// must be checked).
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { useForm } from "react-hook-form";
+import type { z } from "zod";
+import { Field, FormMessage } from "@/components/form/field";
+import { Button } from "@/components/ui/button";
+import { createHeaterSchema } from "@/domain/office/schemas";
+import { createHeaterAction, updateHeaterAction } from "../actions";
+import { applyActionResult } from "../../jobs/_components/form-bits";
+
+type Input = z.input<typeof createHeaterSchema>;
+type Output = z.output<typeof createHeaterSchema>;
+const FIELDS = ["assetTag", "description", "checkIntervalDays", "isActive"] as const;
+
+export function HeaterForm({ heater }: { heater?: { id: number; version: number; isActive: boolean; values: Input } }) {
+  const router = useRouter();
+  const [message, setMessage] = useState<{ text: string; tone: "error" | "success" } | null>(null);
+  const [isActive, setIsActive] = useState(heater?.isActive ?? true);
+  const { register, handleSubmit, formState, setError, reset } = useForm<Input, unknown, Output>({
+    resolver: zodResolver(createHeaterSchema),
+    defaultValues: heater?.values ?? { checkIntervalDays: "1" },
+  });
+  const prefix = heater ? `heater-${heater.id}` : "new-heater";
+  const e = formState.errors;
+  const onSubmit = handleSubmit(async (values) => {
+    setMessage(null);
+    const result = heater ? await updateHeaterAction({ ...values, id: heater.id, version: heater.version, isActive }) : await createHeaterAction(values);
+    if (result.ok) {
+      setMessage({ text: heater ? "Heater plate saved." : `Heater plate ${values.assetTag} added.`, tone: "success" });
+      if (!heater) reset({ checkIntervalDays: "1" });
+      router.refresh();
+    } else setMessage({ text: applyActionResult(result, setError, FIELDS) ?? result.message, tone: "error" });
+  });
+  return (
+    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label={heater ? "Edit heater plate" : "Add a heater plate"}>
+      <div className="grid gap-4 sm:grid-cols-3">
+        <Field id={`${prefix}-tag`} label="Asset tag" {...register("assetTag")} error={e.assetTag?.message} />
+        <Field id={`${prefix}-description`} label="Description" {...register("description")} error={e.description?.message} />
+        <Field id={`${prefix}-interval`} label="Check interval" unit="days" numeric hint="1 = a check every working day, before the first joint" {...register("checkIntervalDays")} error={e.checkIntervalDays?.message} />
+      </div>
+      {heater ? (
+        <label className="flex min-h-touch items-center gap-2">
+          <input type="checkbox" className="h-5 w-5" checked={isActive} onChange={(ev) => setIsActive(ev.target.checked)} />
+          In service (untick to retire the plate; it stays on record for its joints)
+        </label>
+      ) : null}
+      <FormMessage message={message?.text} tone={message?.tone} />
+      <div>
+        <Button type="submit" disabled={formState.isSubmitting}>
+          {formState.isSubmitting ? "Saving …" : heater ? "Save heater plate" : "Add heater plate"}
+        </Button>
+      </div>
+    </form>
+  );
+}

@@ -1,0 +1,80 @@
+"use client";
+// Add or edit a fusion machine. The total effective piston area of the carriage cylinders
+// comes from the machine's data plate or manual; without it the machine cannot be used.
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { useForm } from "react-hook-form";
+import type { z } from "zod";
+import { Field, FormMessage } from "@/components/form/field";
+import { Button } from "@/components/ui/button";
+import { createMachineSchema } from "@/domain/office/schemas";
+import { unitLabel, type UnitSystem } from "@/domain/units/format";
+import { createMachineAction, updateMachineAction } from "../actions";
+import { applyActionResult } from "../../jobs/_components/form-bits";
+
+type Input = z.input<typeof createMachineSchema>;
+type Output = z.output<typeof createMachineSchema>;
+const FIELDS = ["assetTag", "description", "minOd", "maxOd", "pistonArea", "lastServiceOn", "nextServiceDue", "isActive"] as const;
+
+export function MachineForm({ units, machine }: { units: UnitSystem; machine?: { id: number; version: number; isActive: boolean; values: Omit<Input, "units"> } }) {
+  const router = useRouter();
+  const [message, setMessage] = useState<{ text: string; tone: "error" | "success" } | null>(null);
+  const [isActive, setIsActive] = useState(machine?.isActive ?? true);
+  const { register, handleSubmit, formState, setError, reset, getValues } = useForm<Input, unknown, Output>({
+    resolver: zodResolver(createMachineSchema),
+    defaultValues: { ...(machine?.values ?? {}), units },
+  });
+  const prefix = machine ? `machine-${machine.id}` : "new-machine";
+  const e = formState.errors;
+  const length = unitLabel("length-mm", units);
+  const area = unitLabel("area", units);
+
+  const onSubmit = handleSubmit(async () => {
+    setMessage(null);
+    // Send what was typed (in the person's units); the server parses the same schema again.
+    const typed = getValues();
+    const result = machine ? await updateMachineAction({ ...typed, units, id: machine.id, version: machine.version, isActive }) : await createMachineAction({ ...typed, units });
+    if (result.ok) {
+      setMessage({ text: machine ? "Machine saved." : `Machine ${typed.assetTag} added.`, tone: "success" });
+      if (!machine) reset({ units });
+      router.refresh();
+    } else setMessage({ text: applyActionResult(result, setError, FIELDS) ?? result.message, tone: "error" });
+  });
+
+  return (
+    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label={machine ? "Edit machine" : "Add a machine"}>
+      <input type="hidden" {...register("units")} />
+      <div className="grid gap-4 sm:grid-cols-2">
+        <Field id={`${prefix}-tag`} label="Asset tag" {...register("assetTag")} error={e.assetTag?.message} />
+        <Field id={`${prefix}-description`} label="Description" {...register("description")} error={e.description?.message} />
+        <Field id={`${prefix}-min-od`} label="Smallest pipe OD" unit={length} numeric {...register("minOd")} error={e.minOd?.message} />
+        <Field id={`${prefix}-max-od`} label="Largest pipe OD" unit={length} numeric {...register("maxOd")} error={e.maxOd?.message} />
+        <Field
+          id={`${prefix}-piston-area`}
+          label="Total effective piston area"
+          unit={area}
+          numeric
+          hint="From the machine's data plate or manual. Leave blank if unknown: the machine cannot be used until it is entered."
+          {...register("pistonArea")}
+          error={e.pistonArea?.message}
+        />
+        <div />
+        <Field id={`${prefix}-last-service`} label="Last service date" type="date" {...register("lastServiceOn")} error={e.lastServiceOn?.message} />
+        <Field id={`${prefix}-next-service`} label="Next service due" type="date" {...register("nextServiceDue")} error={e.nextServiceDue?.message} />
+      </div>
+      {machine ? (
+        <label className="flex min-h-touch items-center gap-2">
+          <input type="checkbox" className="h-5 w-5" checked={isActive} onChange={(ev) => setIsActive(ev.target.checked)} />
+          In service (untick to retire the machine; it stays on record for its joints)
+        </label>
+      ) : null}
+      <FormMessage message={message?.text} tone={message?.tone} />
+      <div>
+        <Button type="submit" disabled={formState.isSubmitting}>
+          {formState.isSubmitting ? "Saving …" : machine ? "Save machine" : "Add machine"}
+        </Button>
+      </div>
+    </form>
+  );
+}

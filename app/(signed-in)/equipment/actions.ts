@@ -1,0 +1,22 @@
+"use server";
+// Server actions of the Equipment screen (admin only): machines, heater plates, heater checks.
+import { revalidatePath } from "next/cache";
+import { defineAction } from "@/app/_lib/guard";
+import { createHeaterSchema, createMachineSchema, recordHeaterCheckSchema, updateHeaterSchema, updateMachineSchema } from "@/domain/office/schemas";
+import { createHeater, createMachine, editHeater, editMachine, recordHeaterCheck } from "./_lib/equipment";
+
+const done = <T>(value: T): T => {
+  revalidatePath("/equipment");
+  revalidatePath("/");
+  return value;
+};
+
+export const createMachineAction = defineAction({ audience: ["admin"], schema: createMachineSchema }, async (input, ctx) => done(await createMachine(input, ctx)));
+
+export const updateMachineAction = defineAction({ audience: ["admin"], schema: updateMachineSchema }, async (input, ctx) => done(await editMachine(input, ctx)));
+
+export const createHeaterAction = defineAction({ audience: ["admin"], schema: createHeaterSchema }, async (input, ctx) => done(await createHeater(input, ctx)));
+
+export const updateHeaterAction = defineAction({ audience: ["admin"], schema: updateHeaterSchema }, async (input, ctx) => done(await editHeater(input, ctx)));
+
+export const recordHeaterCheckAction = defineAction({ audience: ["admin"], schema: recordHeaterCheckSchema }, async (input, ctx) => done(await recordHeaterCheck(input, ctx)));

@@ -1,0 +1,54 @@
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { requireUser } from "@/app/_lib/page-guard";
+import { findMachineById } from "@/database/queries/equipment";
+import { MachineForm } from "../../_components/machine-form";
+import { editValue, pistonArea } from "../../_components/format";
+
+export const dynamic = "force-dynamic";
+
+export default async function MachinePage({ params }: { params: Promise<{ id: string }> }) {
+  const user = await requireUser(["admin"]);
+  const id = Number((await params).id);
+  if (!Number.isInteger(id) || id <= 0) notFound();
+  const machine = await findMachineById({ id });
+  if (!machine) notFound();
+  const units = user.unitSystem;
+  return (
+    <div className="flex flex-col gap-6">
+      <p>
+        <Link href="/equipment" className="text-brand underline">
+          All equipment
+        </Link>
+      </p>
+      <h1 className="text-2xl font-bold">Machine {machine.assetTag}</h1>
+      <p>
+        Total effective piston area: <strong>{pistonArea(machine.pistonAreaMm2, units)}</strong>.{" "}
+        {machine.isUsable ? "The machine can be used for joints." : machine.problems.join(" ")}
+      </p>
+      <section aria-labelledby="edit-machine" className="rounded-md border-2 border-slate-300 bg-white p-4">
+        <h2 id="edit-machine" className="mb-2 text-xl font-bold">
+          Edit machine
+        </h2>
+        <MachineForm
+          key={`${machine.version}-${units}`}
+          units={units}
+          machine={{
+            id: machine.id,
+            version: machine.version,
+            isActive: machine.isActive,
+            values: {
+              assetTag: machine.assetTag,
+              description: machine.description ?? "",
+              minOd: editValue(machine.minOdMm, "length-mm", units),
+              maxOd: editValue(machine.maxOdMm, "length-mm", units),
+              pistonArea: editValue(machine.pistonAreaMm2, "area", units),
+              lastServiceOn: machine.lastServiceOn ?? "",
+              nextServiceDue: machine.nextServiceDue ?? "",
+            },
+          }}
+        />
+      </section>
+    </div>
+  );
+}

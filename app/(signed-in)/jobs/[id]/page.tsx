@@ -1,0 +1,72 @@
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { requireUser } from "@/app/_lib/page-guard";
+import { countJointsOnJob, findJobById, listAssignableCoils, listCoilsForJob } from "@/database/queries/jobs";
+import { listCurrentProcedureVersions } from "@/database/queries/procedures";
+import { listCrews } from "@/database/queries/users";
+import { canRecordOnJob } from "@/domain/office/rules";
+import { JobForm } from "../_components/job-form";
+import { JobStatusButton } from "../_components/job-status-button";
+
+export const dynamic = "force-dynamic";
+
+export default async function JobPage({ params }: { params: Promise<{ id: string }> }) {
+  await requireUser(["admin"]);
+  const id = Number((await params).id);
+  if (!Number.isInteger(id) || id <= 0) notFound();
+  const job = await findJobById({ id });
+  if (!job) notFound();
+  const [procedures, crews, assignable, assigned, joints] = await Promise.all([
+    listCurrentProcedureVersions(),
+    listCrews(),
+    listAssignableCoils({ jobId: id }),
+    listCoilsForJob({ jobId: id }),
+    countJointsOnJob({ jobId: id }),
+  ]);
+  const coilLabel = (c: { coilCode: string; lot: string; nominalSize: string; sdr: number; status: string }) => `${c.coilCode} · lot ${c.lot} · ${c.nominalSize}" SDR ${c.sdr} · ${c.status}`;
+  const coils = [...new Map([...assigned, ...assignable].map((c) => [c.id, { id: c.id, label: coilLabel(c) }])).values()];
+  return (
+    <div className="flex flex-col gap-6">
+      <p>
+        <Link href="/jobs" className="text-brand underline">
+          All jobs
+        </Link>
+      </p>
+      <h1 className="text-2xl font-bold">
+        Job {job.code}: {job.name}
+      </h1>
+      <p>
+        {canRecordOnJob(job) ? "Open: fusers of the crew can record joints on it." : "Closed: this job takes no new joints."} {joints} joint{joints === 1 ? "" : "s"} recorded.
+      </p>
+      <JobStatusButton job={{ id: job.id, version: job.version, code: job.code, status: job.status }} />
+      <section aria-labelledby="edit-job" className="rounded-md border-2 border-slate-300 bg-white p-4">
+        <h2 id="edit-job" className="mb-2 text-xl font-bold">
+          Edit job
+        </h2>
+        <JobForm
+          key={job.version}
+          procedures={procedures.map((p) => ({ id: p.procedureId, label: `${p.procedureCode} — ${p.procedureName} (version ${p.versionNo})` }))}
+          crews={crews.map((c) => ({ id: c.id, label: c.name }))}
+          coils={coils}
+          job={{
+            id: job.id,
+            version: job.version,
+            values: {
+              code: job.code,
+              name: job.name,
+              place: job.place ?? "",
+              latitude: job.latitude ?? "",
+              longitude: job.longitude ?? "",
+              startsOn: job.startsOn ?? "",
+              endsOn: job.endsOn ?? "",
+              procedureId: job.procedureId,
+              crewId: job.crewId ?? "",
+              pipeSizes: job.pipeSizes ?? "",
+              coilIds: assigned.map((c) => c.id),
+            },
+          }}
+        />
+      </section>
+    </div>
+  );
+}

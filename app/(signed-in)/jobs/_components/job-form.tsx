@@ -1,0 +1,107 @@
+"use client";
+// Add or edit a job: code, name, place (text and optional coordinates), dates, procedure,
+// crew, pipe sizes in use and the coils assigned to it.
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useRouter } from "next/navigation";
+import { useState } from "react";
+import { useForm } from "react-hook-form";
+import type { z } from "zod";
+import { Field, FormMessage } from "@/components/form/field";
+import { Button } from "@/components/ui/button";
+import { createJobSchema } from "@/domain/office/schemas";
+import { createJobAction, updateJobAction } from "../actions";
+import { ChoiceGroup, SelectField, applyActionResult, errorText } from "./form-bits";
+
+type Input = z.input<typeof createJobSchema>;
+type Output = z.output<typeof createJobSchema>;
+
+export type JobFormOption = { id: number; label: string };
+export type JobFormCoil = { id: number; label: string };
+
+const FIELDS = ["code", "name", "place", "latitude", "longitude", "startsOn", "endsOn", "procedureId", "crewId", "pipeSizes", "coilIds"] as const;
+
+export function JobForm({
+  procedures,
+  crews,
+  coils,
+  job,
+}: {
+  procedures: JobFormOption[];
+  crews: JobFormOption[];
+  coils: JobFormCoil[];
+  job?: { id: number; version: number; values: Input };
+}) {
+  const router = useRouter();
+  const [message, setMessage] = useState<{ text: string; tone: "error" | "success" } | null>(null);
+  const { register, handleSubmit, formState, setError, setValue, watch, reset } = useForm<Input, unknown, Output>({
+    resolver: zodResolver(createJobSchema),
+    defaultValues: job?.values ?? { coilIds: [] },
+  });
+  const chosen = new Set((watch("coilIds") ?? []).map(Number));
+  const toggleCoil = (id: number, on: boolean) => {
+    const next = new Set(chosen);
+    if (on) next.add(id);
+    else next.delete(id);
+    setValue("coilIds", [...next], { shouldDirty: true });
+  };
+  const prefix = job ? `job-${job.id}` : "new-job";
+
+  const onSubmit = handleSubmit(async (values) => {
+    setMessage(null);
+    const result = job ? await updateJobAction({ ...values, id: job.id, version: job.version }) : await createJobAction(values);
+    if (result.ok) {
+      setMessage({ text: job ? "Job saved." : `Job ${values.code} added.`, tone: "success" });
+      if (!job) reset({ coilIds: [] });
+      router.refresh();
+    } else {
+      setMessage({ text: applyActionResult(result, setError, FIELDS) ?? result.message, tone: "error" });
+    }
+  });
+
+  const e = formState.errors;
+  return (
+    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label={job ? "Edit job" : "Add a job"}>
+      <div className="grid gap-4 sm:grid-cols-2">
+        <Field id={`${prefix}-code`} label="Job code" {...register("code")} error={e.code?.message} />
+        <Field id={`${prefix}-name`} label="Job name" {...register("name")} error={e.name?.message} />
+        <Field id={`${prefix}-place`} label="Place" hint="Street, stations or area" {...register("place")} error={e.place?.message} />
+        <Field id={`${prefix}-pipe-sizes`} label="Pipe sizes in use" hint='For example "2 IPS SDR 11; 4 IPS SDR 11"' {...register("pipeSizes")} error={e.pipeSizes?.message} />
+        <Field id={`${prefix}-latitude`} label="Latitude" unit="°" numeric hint="Optional, decimal degrees" {...register("latitude")} error={e.latitude?.message} />
+        <Field id={`${prefix}-longitude`} label="Longitude" unit="°" numeric hint="Optional, decimal degrees" {...register("longitude")} error={e.longitude?.message} />
+        <Field id={`${prefix}-starts`} label="Start date" type="date" {...register("startsOn")} error={e.startsOn?.message} />
+        <Field id={`${prefix}-ends`} label="End date" type="date" {...register("endsOn")} error={e.endsOn?.message} />
+        <SelectField id={`${prefix}-procedure`} label="Procedure" {...register("procedureId")} error={e.procedureId?.message}>
+          <option value="">Choose a procedure …</option>
+          {procedures.map((p) => (
+            <option key={p.id} value={p.id}>
+              {p.label}
+            </option>
+          ))}
+        </SelectField>
+        <SelectField id={`${prefix}-crew`} label="Crew" {...register("crewId")} error={e.crewId?.message}>
+          <option value="">No crew yet (any fuser may record)</option>
+          {crews.map((c) => (
+            <option key={c.id} value={c.id}>
+              {c.label}
+            </option>
+          ))}
+        </SelectField>
+      </div>
+      <ChoiceGroup id={`${prefix}-coils`} legend="Coils assigned to this job" error={errorText(e.coilIds)}>
+        {coils.length === 0 ? <p className="text-sm text-slate-700">No coils are free to assign.</p> : null}
+        {coils.map((c) => (
+          <label key={c.id} className="flex min-h-touch items-center gap-2 rounded-md border-2 border-slate-300 px-3">
+            <input type="checkbox" className="h-5 w-5" checked={chosen.has(c.id)} onChange={(ev) => toggleCoil(c.id, ev.target.checked)} />
+            {c.label}
+          </label>
+        ))}
+      </ChoiceGroup>
+      <FormMessage message={message?.text} tone={message?.tone} />
+      <div>
+        <Button type="submit" disabled={formState.isSubmitting}>
+          {formState.isSubmitting ? "Saving …" : job ? "Save job" : "Add job"}
+        </Button>
+      </div>
+    </form>
+  );
+}
