@@ -347,7 +347,7 @@ export type DrawDownResult = { coilId: number; coilCode: string; pulledM: number
 /**
  * Draws a pull recorded at the trench off a coil, inside the caller's transaction: locks
  * the coil row FOR UPDATE, refuses a pull that is not positive, longer than what is left
- * ("LV-C0001 has only 12.0 m left; the pull of 20.0 m is longer"), or from a quarantined or
+ * ("LV-C0001 has only 12.00 m left; the pull of 20.00 m is longer"), or from a quarantined or
  * used-up coil — AppError("invalid", message, { [field]: [message] }), `field` defaulting
  * to "pullM" — then subtracts (never below 0), sets the coil in use (used up at 0), takes
  * the joint's job when the coil had none, and writes a coil_events row with the pull, the

@@ -34,7 +34,7 @@ export type PullPlan =
  * What a pull of `pullM` metres does to a coil: the length left (to the cm, never below 0)
  * and the status after it (in use; used up when nothing is left). Refused, with a message
  * naming the coil: a pull that is not a positive number, a pull longer than what is left
- * ("LV-C0001 has only 12.0 m left; the pull of 20.0 m is longer"), a quarantined or used-up
+ * ("LV-C0001 has only 12.00 m left; the pull of 20.00 m is longer"), a quarantined or used-up
  * coil. Pulls from a coil in the yard or on a trailer are accepted (the pipe was laid; the
  * record must say so) and put it in use. Our rule (common practice, no published source).
  */
@@ -43,7 +43,8 @@ export function planPull(
   pullM: number,
   system: UnitSystem = 'si',
 ): PullPlan {
-  const show = (m: number) => formatQuantity(m, 'length-m', system);
+  // Centimetres in SI (the stored resolution), tenths of a foot in US units.
+  const show = (m: number) => formatQuantity(m, 'length-m', system, { decimals: system === 'si' ? 2 : 1 });
   if (typeof pullM !== 'number' || !Number.isFinite(pullM)) {
     return { ok: false, reason: 'not-a-number', message: `The length pulled from ${coil.coilCode} must be a number` };
   }

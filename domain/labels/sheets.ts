@@ -30,6 +30,9 @@ export interface LabelStock {
   /** Gap between columns and between rows, mm. */
   gapXMm: number;
   gapYMm: number;
+  /** Least margin left free at the sheet's edges (left/right, top/bottom), mm: the stock's own margins. */
+  minMarginXMm: number;
+  minMarginYMm: number;
   /** The sheet this stock is usually sold on (the picker's default pairing). */
   usualSheet: SheetId;
 }
@@ -37,12 +40,12 @@ export interface LabelStock {
 const IN = 25.4;
 
 export const LABEL_STOCKS: readonly LabelStock[] = [
-  { id: 'a4-99x38', label: '99.1 × 38.1 mm, 14 a sheet', widthMm: 99.1, heightMm: 38.1, gapXMm: 2.5, gapYMm: 0, usualSheet: 'a4' },
-  { id: 'a4-99x68', label: '99.1 × 67.7 mm, 8 a sheet', widthMm: 99.1, heightMm: 67.7, gapXMm: 2.5, gapYMm: 0, usualSheet: 'a4' },
-  { id: 'a4-70x37', label: '70 × 37 mm, 24 a sheet', widthMm: 70, heightMm: 37, gapXMm: 0, gapYMm: 0, usualSheet: 'a4' },
-  { id: 'letter-4x2', label: '4 × 2 in, 10 a sheet', widthMm: 4 * IN, heightMm: 2 * IN, gapXMm: 0.1875 * IN, gapYMm: 0, usualSheet: 'letter' },
-  { id: 'letter-4x3', label: '4 × 3⅓ in, 6 a sheet', widthMm: 4 * IN, heightMm: (10 / 3) * IN, gapXMm: 0.1875 * IN, gapYMm: 0, usualSheet: 'letter' },
-  { id: 'letter-2x1', label: '2⅝ × 1 in, 30 a sheet', widthMm: 2.625 * IN, heightMm: 1 * IN, gapXMm: 0.125 * IN, gapYMm: 0, usualSheet: 'letter' },
+  { id: 'a4-99x38', label: '99.1 × 38.1 mm, 14 a sheet', widthMm: 99.1, heightMm: 38.1, gapXMm: 2.5, gapYMm: 0, minMarginXMm: 4, minMarginYMm: 4, usualSheet: 'a4' },
+  { id: 'a4-99x68', label: '99.1 × 67.7 mm, 8 a sheet', widthMm: 99.1, heightMm: 67.7, gapXMm: 2.5, gapYMm: 0, minMarginXMm: 4, minMarginYMm: 4, usualSheet: 'a4' },
+  { id: 'a4-70x37', label: '70 × 37 mm, 24 a sheet', widthMm: 70, heightMm: 37, gapXMm: 0, gapYMm: 0, minMarginXMm: 0, minMarginYMm: 0, usualSheet: 'a4' },
+  { id: 'letter-4x2', label: '4 × 2 in, 10 a sheet', widthMm: 4 * IN, heightMm: 2 * IN, gapXMm: 0.1875 * IN, gapYMm: 0, minMarginXMm: 0.125 * IN, minMarginYMm: 0.5 * IN, usualSheet: 'letter' },
+  { id: 'letter-4x3', label: '4 × 3⅓ in, 6 a sheet', widthMm: 4 * IN, heightMm: (10 / 3) * IN, gapXMm: 0.1875 * IN, gapYMm: 0, minMarginXMm: 0.125 * IN, minMarginYMm: 0.5 * IN, usualSheet: 'letter' },
+  { id: 'letter-2x1', label: '2⅝ × 1 in, 30 a sheet', widthMm: 2.625 * IN, heightMm: 1 * IN, gapXMm: 0.125 * IN, gapYMm: 0, minMarginXMm: 0.125 * IN, minMarginYMm: 0.5 * IN, usualSheet: 'letter' },
 ];
 
 export function findLabelStock(id: string): LabelStock | undefined {
@@ -65,13 +68,13 @@ const FIT_TOLERANCE_MM = 1e-6;
 
 /**
  * How many labels of a stock fit on a sheet and where the centred grid starts:
- * columns = ⌊(W + gapX) / (w + gapX)⌋, rows likewise; margin = (W − used) / 2.
+ * columns = ⌊(W − 2·minMarginX + gapX) / (w + gapX)⌋, rows likewise; margin = (W − used) / 2.
  * Returns columns = rows = 0 when a label is larger than the sheet.
  */
 export function layoutSheet(sheet: Sheet, stock: LabelStock): SheetLayout {
   const fit = (space: number, size: number, gap: number) => Math.max(0, Math.floor((space + gap + FIT_TOLERANCE_MM) / (size + gap)));
-  const columns = fit(sheet.widthMm, stock.widthMm, stock.gapXMm);
-  const rows = fit(sheet.heightMm, stock.heightMm, stock.gapYMm);
+  const columns = fit(sheet.widthMm - 2 * stock.minMarginXMm, stock.widthMm, stock.gapXMm);
+  const rows = fit(sheet.heightMm - 2 * stock.minMarginYMm, stock.heightMm, stock.gapYMm);
   const usedW = columns > 0 ? columns * stock.widthMm + (columns - 1) * stock.gapXMm : 0;
   const usedH = rows > 0 ? rows * stock.heightMm + (rows - 1) * stock.gapYMm : 0;
   return {
