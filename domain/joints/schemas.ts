@@ -129,13 +129,24 @@ function checkSides(value: JointShape, ctx: z.RefinementCtx): void {
   }
 }
 
+/**
+ * Run the side-B rules even when other fields fail, so every missing field is named at
+ * once; they need only a known kind.
+ */
+const sidesWhen = {
+  when: (payload: { value: unknown }) => {
+    const kind = (payload.value as { kind?: unknown } | null)?.kind;
+    return typeof kind === 'string' && (JOINT_KINDS as readonly string[]).includes(kind);
+  },
+};
+
 const formObject = z.object(jointFields);
 
 /**
  * The device's form: everything but the moment of recording and the photo ids, which the
  * device adds when the fuser taps "Record joint" (the photos upload first).
  */
-export const recordJointFormSchema = formObject.superRefine(checkSides);
+export const recordJointFormSchema = formObject.superRefine(checkSides, sidesWhen);
 export type RecordJointFormInput = z.input<typeof recordJointFormSchema>;
 export type RecordJointFormValues = z.output<typeof recordJointFormSchema>;
 
@@ -150,7 +161,7 @@ export const recordJointSchema = formObject
       .max(MAX_PHOTOS_PER_JOINT, { error: `At most ${MAX_PHOTOS_PER_JOINT} photos per joint.` })
       .default([]),
   })
-  .superRefine(checkSides);
+  .superRefine(checkSides, sidesWhen);
 export type RecordJointInput = z.output<typeof recordJointSchema>;
 export type RecordJointRawInput = z.input<typeof recordJointSchema>;
 

@@ -4,7 +4,8 @@
 // soak at drag only, heater removal, fusion pressure held while cooling; PPI generic
 // procedure, standards.md §1.1) — the detection method itself is our own.
 //
-// Method: a 5-sample running median removes single-sample spikes and most noise; levels
+// Method: a 3-sample running median removes single-sample spikes (a wider one would also
+// erase a changeover of a few samples); levels
 // are medians of the samples inside a phase; phase edges are where the smoothed pressure
 // crosses the midpoint between the two levels on either side, interpolated between
 // samples, so a missing sample only widens the uncertainty to its gap. The start of the
@@ -62,7 +63,8 @@ const phase = (startS: number, endS: number): TracePhase => ({ startS: round1(st
 
 /**
  * Read a trace (samples in time order, pressures MPa gauge). Durations in s rounded to
- * 0.1 s, pressures in MPa not rounded. Returns an error in words when the trace does not
+ * 0.1 s, pressures in MPa not rounded. Assumes, as on any working machine, that drag is
+ * well under half the bead-up and fusion gauge pressures. Returns an error in words when the trace does not
  * show a bead-up and a fusion stretch separated by a heat soak, or when heat soak and
  * changeover cannot be told apart (no drag pressure to see).
  */
@@ -73,7 +75,7 @@ export function readPressureTrace(samples: readonly PressureSample[], options: R
   const t = samples.map((sample) => sample.seconds);
   const raw = samples.map((sample) => sample.gaugePressureMpa);
   const n = raw.length;
-  const s = raw.map((_, i) => median(raw.slice(Math.max(0, i - 2), Math.min(n, i + 3))));
+  const s = raw.map((_, i) => median(raw.slice(Math.max(0, i - 1), Math.min(n, i + 2))));
   const peak = Math.max(...s);
   if (!(peak > 0)) return { ok: false, error: 'The trace shows no pressure' };
 
@@ -104,7 +106,11 @@ export function readPressureTrace(samples: readonly PressureSample[], options: R
   const beadLevel = median(raw.slice(beadRun.start, beadRun.end + 1));
   const lowSlice = s.slice(beadRun.end + 1, fusionRun.start);
   const drag = options.dragPressureMpa ?? median(lowSlice);
-  if (!(drag > 0.02 * peak) || !Number.isFinite(drag)) {
+  // The heat-soak level must stand out of the noise (robust σ from the median absolute
+  // deviation of the low stretch about its smoothed values) to split it from changeover.
+  const lowRaw = raw.slice(beadRun.end + 1, fusionRun.start);
+  const sigma = 1.4826 * median(lowRaw.map((value, k) => Math.abs(value - (lowSlice[k] as number))));
+  if (!Number.isFinite(drag) || !(drag > Math.max(3 * (Number.isFinite(sigma) ? sigma : 0), 0.005 * peak))) {
     return { ok: false, error: 'Heat soak and changeover cannot be told apart: the pressure during heat soak is no higher than during changeover. Give the measured drag pressure.' };
   }
   const changeoverLevel = drag / 2;
@@ -138,9 +144,29 @@ export function readPressureTrace(samples: readonly PressureSample[], options: R
   };
   const t25 = levelTime(0.25);
   const t75 = levelTime(0.75);
-  const slope = (0.5 * (fusionLevel - lowLevel)) / Math.max(t75 - t25, 1e-9);
-  const fusionStart = Math.min(Math.max(t25 - (0.25 * (fusionLevel - lowLevel)) / slope, t[rise] as number), t25);
-  const buildUpEnd = Math.max(t75 + (0.25 * (fusionLevel - lowLevel)) / slope, t75);
+  // The ramp line: least squares through the raw samples between 10 % and 90 % of the
+  // rise (noise averages out on slow ramps); on a ramp too quick for that, the line
+  // through the 25 % and 75 % crossings.
+  const rampLow = lowLevel + 0.1 * (fusionLevel - lowLevel);
+  const rampHigh = lowLevel + 0.9 * (fusionLevel - lowLevel);
+  const ramp: [number, number][] = [];
+  for (let k = rise; k <= fusionRun.end && (t[k] as number) <= t75 + 2 * (t75 - t25); k += 1) {
+    if ((s[k] as number) >= rampLow && (s[k] as number) <= rampHigh && (t[k] as number) >= t25 - 2 * (t75 - t25)) ramp.push([t[k] as number, raw[k] as number]);
+  }
+  let slope = (0.5 * (fusionLevel - lowLevel)) / Math.max(t75 - t25, 1e-9);
+  let intercept = lowLevel + 0.25 * (fusionLevel - lowLevel) - slope * t25;
+  if (ramp.length >= 4) {
+    const meanT = ramp.reduce((sum, [x]) => sum + x, 0) / ramp.length;
+    const meanP = ramp.reduce((sum, [, y]) => sum + y, 0) / ramp.length;
+    const sxx = ramp.reduce((sum, [x]) => sum + (x - meanT) ** 2, 0);
+    const sxy = ramp.reduce((sum, [x, y]) => sum + (x - meanT) * (y - meanP), 0);
+    if (sxx > 0 && sxy > 0) {
+      slope = sxy / sxx;
+      intercept = meanP - slope * meanT;
+    }
+  }
+  const fusionStart = Math.min(Math.max((lowLevel - intercept) / slope, changeoverStart), t25);
+  const buildUpEnd = Math.max((fusionLevel - intercept) / slope, t75);
 
   // Release: the last fall to near zero, at half the final hold level.
   let last = n - 1;

@@ -3,3 +3,4 @@
 export * from '@/domain/register/filter';
 export * from '@/domain/register/cursor';
 export * from '@/domain/register/columns';
+export * from '@/domain/register/describe';

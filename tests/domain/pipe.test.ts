@@ -1,8 +1,8 @@
 import { unit } from 'mathjs';
 import { describe, expect, test } from 'vitest';
+import { DomainError } from '@/domain';
 import {
   bendRatio,
-  DomainError,
   fusionAreaMm2,
   ipsMinimumWallIn,
   metricMinimumWallMm,

@@ -77,7 +77,7 @@ describe('toDisplay and fromDisplay', () => {
     ['pressure', unit(90, 'psi').toNumber('MPa'), 90, 'psi', 'MPa'],
     ['temperature', unit(450, 'degF').toNumber('degC'), 450, 'degF', 'degC'],
     ['area', unit(1, 'inch^2').toNumber('mm^2'), 1, 'inch^2', 'mm^2'],
-  ] as const)('US %s: display value matches mathjs', (kind, si, us) => {
+  ] as const)('US %s: display value matches mathjs', (kind, si, us, _from, _to) => {
     // source: mathjs unit conversion
     expectClose(toDisplay(si, kind, 'us'), us);
     expectClose(fromDisplay(us, kind, 'us'), si);
