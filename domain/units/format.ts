@@ -198,7 +198,11 @@ export function formatRange(
   if (minSi === null && maxSi === null) return 'not defined';
   if (minSi === null) return `at most ${formatQuantity(maxSi as number, kind, system)}`;
   if (maxSi === null) return `at least ${formatQuantity(minSi, kind, system)}`;
-  if (kind === 'duration') return `${formatDuration(minSi)} – ${formatDuration(maxSi)}`;
+  if (kind === 'duration') {
+    const low = formatDuration(minSi);
+    const high = formatDuration(maxSi);
+    return low === high ? low : `${low} – ${high}`;
+  }
   const decimals = Math.max(displayDecimals(kind, system, minSi), displayDecimals(kind, system, maxSi));
   const low = formatNumber(toDisplay(minSi, kind, system), decimals);
   const high = formatNumber(toDisplay(maxSi, kind, system), decimals);

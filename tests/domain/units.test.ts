@@ -151,6 +151,8 @@ describe('unitLabel and formatRange', () => {
     [fToC(400), fToC(450), 'temperature', 'si', '204–232 °C'],
     [psiToMpa(60), psiToMpa(90), 'pressure', 'us', '60–90 psi'],
     [null, 10, 'duration', 'si', 'at most 10 s'],
+    [100, 120, 'duration', 'si', '1 min 40 s – 2 min'],
+    [10, 10, 'duration', 'us', '10 s'],
     [5, null, 'length-mm', 'si', 'at least 5.0 mm'],
     [0.025, 0.025, 'pressure', 'si', '0.025 MPa'],
     [0.025, 0.025, 'pressure', 'us', '3.6 psi'],
