@@ -1,0 +1,126 @@
+"use client";
+import { useRef, useState } from "react";
+import type { QueueItemView } from "../_lib/view";
+import { Button } from "@/components/ui/button";
+import { FormMessage } from "@/components/form/field";
+import { OUTCOME_LABELS } from "@/domain/review/labels";
+import { formatQuantity } from "@/domain/units/format";
+import { formatInstant } from "./format";
+import { TraceChart } from "./trace-chart";
+
+/** The joint's pressure trace (chart, values read, their check) and the form to attach one. */
+export function TraceSection({ item, unitSystem, onAttached }: { item: QueueItemView; unitSystem: "si" | "us"; onAttached: () => Promise<void> }) {
+  const label = `${item.jobCode} joint ${item.jointNo}`;
+  const input = useRef<HTMLInputElement>(null);
+  const [busy, setBusy] = useState(false);
+  const [message, setMessage] = useState<{ text: string; tone: "error" | "success" } | null>(null);
+  const [lines, setLines] = useState<string[]>([]);
+  const trace = item.trace;
+
+  const upload = async (event: React.FormEvent) => {
+    event.preventDefault();
+    setMessage(null);
+    setLines([]);
+    const file = input.current?.files?.[0];
+    if (!file) {
+      setMessage({ text: "Check the trace file: choose a CSV file first.", tone: "error" });
+      return;
+    }
+    setBusy(true);
+    try {
+      const body = new FormData();
+      body.set("jointId", String(item.jointId));
+      body.set("file", file);
+      const response = await fetch("/api/v1/traces", { method: "POST", body });
+      const json = (await response.json().catch(() => null)) as { error?: { message: string; fields?: Record<string, string[]> }; outcome?: string } | null;
+      if (!response.ok) {
+        setMessage({ text: json?.error?.message ?? `The trace was not attached (${response.status}).`, tone: "error" });
+        setLines(json?.error?.fields?.file ?? []);
+        return;
+      }
+      setMessage({ text: `Trace attached to ${label}: ${json?.outcome === "out-of-limits" ? "its values are out of limits" : "its values are within the plan"}.`, tone: "success" });
+      if (input.current) input.current.value = "";
+      await onAttached();
+    } catch {
+      setMessage({ text: "The trace could not be sent; check the connection and try again. Nothing was saved.", tone: "error" });
+    } finally {
+      setBusy(false);
+    }
+  };
+
+  return (
+    <section aria-labelledby="trace-heading" className="flex flex-col gap-2">
+      <h3 id="trace-heading" className="font-bold">
+        Pressure trace
+      </h3>
+      {trace ? (
+        <>
+          <p className="text-sm">
+            {trace.sampleCount} samples, attached {formatInstant(trace.uploadedAt)} by {trace.uploadedByName} (<a className="text-brand underline" href={trace.url}>download the file</a>). Check of the trace:{" "}
+            <strong className={trace.outcome === "out-of-limits" ? "text-fail" : "text-pass"}>{OUTCOME_LABELS[trace.outcome]}</strong>.
+          </p>
+          <TraceChart jointId={item.jointId} traceId={trace.id} unitSystem={unitSystem} label={label} />
+          <table className="w-full text-left text-sm">
+            <caption className="text-left font-semibold">Typed values and what the trace shows</caption>
+            <thead>
+              <tr className="border-b-2 border-slate-300">
+                <th scope="col">Value</th>
+                <th scope="col">Typed</th>
+                <th scope="col">From the trace</th>
+              </tr>
+            </thead>
+            <tbody>
+              {trace.rows.map((row) => (
+                <tr key={row.key} className="border-b border-slate-200">
+                  <th scope="row" className="font-semibold">
+                    {row.label}
+                  </th>
+                  <td>{row.typed === null ? "not typed" : formatQuantity(row.typed, row.kind, unitSystem)}</td>
+                  <td>{row.trace === null ? "—" : formatQuantity(row.trace, row.kind, unitSystem)}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+          {trace.findings.length ? (
+            <ul className="list-disc pl-5 text-sm text-fail" aria-label="Findings from the trace">
+              {trace.findings.map((f, i) => (
+                <li key={i}>{f.message}</li>
+              ))}
+            </ul>
+          ) : null}
+        </>
+      ) : (
+        <p className="text-sm text-slate-700">No pressure trace is attached.</p>
+      )}
+      <form onSubmit={upload} className="flex flex-col gap-2" aria-label={`Attach a pressure trace to ${label}`}>
+        <label htmlFor={`trace-file-${item.jointId}`} className="text-sm font-semibold">
+          Pressure trace file (CSV)
+        </label>
+        <input
+          ref={input}
+          id={`trace-file-${item.jointId}`}
+          type="file"
+          accept=".csv,text/csv,text/plain"
+          aria-describedby={`trace-file-${item.jointId}-hint`}
+          className="min-h-touch rounded-md border-2 border-slate-400 bg-white p-2"
+        />
+        <p id={`trace-file-${item.jointId}-hint`} className="text-sm text-slate-700">
+          Columns: <code>seconds,gauge_pressure_mpa</code> (or <code>gauge_pressure_psi</code>), optionally <code>,heater_temperature_c</code>; one sample per line.
+        </p>
+        <FormMessage message={message?.text} tone={message?.tone} />
+        {lines.length ? (
+          <ul className="list-disc pl-5 text-sm font-semibold text-fail" aria-label="Problems in the file">
+            {lines.map((l, i) => (
+              <li key={i}>{l}</li>
+            ))}
+          </ul>
+        ) : null}
+        <div>
+          <Button type="submit" variant="secondary" disabled={busy}>
+            {busy ? "Reading the trace…" : "Attach trace"}
+          </Button>
+        </div>
+      </form>
+    </section>
+  );
+}
