@@ -19,6 +19,7 @@ import {
   type RegisterSort,
   type SortDirection,
 } from "@/domain/register";
+import type { Knex } from "knex";
 import { conn, type Db } from "../client";
 
 type SortKey = { col: string; nullable: boolean; isDate?: boolean };
@@ -42,7 +43,8 @@ const MAX_COIL_LIST = 2000;
 /** Counts are exact up to this many rows; above it the optimizer's estimate is shown. */
 export const EXACT_COUNT_CAP = 10_000;
 
-type Sql = { text: string; bindings: unknown[] };
+type Binding = Knex.RawBinding;
+type Sql = { text: string; bindings: Binding[] };
 
 /** A coil condition: a (small) list of ids, or a subquery over coils when the list is long. */
 type CoilSet = { ids: number[] } | { subquery: Sql };
@@ -107,7 +109,7 @@ function chooseDriver(filter: RegisterFilter, sort: RegisterSort): Driver {
   return "joints";
 }
 
-function coilCondition(set: CoilSet, bindings: unknown[]): string {
+function coilCondition(set: CoilSet, bindings: Binding[]): string {
   if ("ids" in set) {
     const list = set.ids.map(() => "?").join(",");
     bindings.push(...set.ids, ...set.ids);
@@ -117,13 +119,13 @@ function coilCondition(set: CoilSet, bindings: unknown[]): string {
   return `(j.coil_a_id IN (${set.subquery.text}) OR j.coil_b_id IN (${set.subquery.text}))`;
 }
 
-type Built = { from: string; where: string[]; bindings: unknown[]; keyCols: string[]; idCol: string; hint: string };
+type Built = { from: string; where: string[]; bindings: Binding[]; keyCols: string[]; idCol: string; hint: string };
 
 /** FROM and WHERE of step 1 (no seek condition, no order). */
 function buildBase(resolved: Resolved, sort: RegisterSort): Built {
   const { filter } = resolved;
   const driver = chooseDriver(filter, sort);
-  const bindings: unknown[] = [];
+  const bindings: Binding[] = [];
   const where: string[] = [];
   const needsStates = Boolean(filter.outcome || filter.review);
   let from: string;
@@ -144,7 +146,7 @@ function buildBase(resolved: Resolved, sort: RegisterSort): Built {
     idCol = "f.joint_id";
     dateCol = "f.made_at";
     where.push("f.parameter = ?");
-    bindings.push(filter.finding);
+    bindings.push(filter.finding as string);
   } else {
     // Lot and search: restrict the optimizer to the coil indexes (an index merge of side
     // A and side B, plus joint number), so it does not walk the date index hoping to meet
@@ -160,7 +162,7 @@ function buildBase(resolved: Resolved, sort: RegisterSort): Built {
     if (needsStates) from += " STRAIGHT_JOIN joint_states s ON s.joint_id = j.id";
     if (filter.finding) {
       from += " STRAIGHT_JOIN joint_findings f ON f.joint_id = j.id AND f.parameter = ?";
-      bindings.push(filter.finding);
+      bindings.push(filter.finding as string);
     }
     keyCols = SORT_KEYS[sort].map((k) => `j.${k.col}`);
     idCol = "j.id";
@@ -217,13 +219,13 @@ function buildBase(resolved: Resolved, sort: RegisterSort): Built {
  * and id, the OR over i of (k1 = v1 AND … AND k(i-1) = v(i-1) AND ki ⋗ vi). NULLs sort
  * first ascending and last descending (MariaDB), which the nullable cases follow.
  */
-export function seekCondition(cols: { expr: string; nullable: boolean }[], values: unknown[], dir: SortDirection): Sql {
-  const bindings: unknown[] = [];
+export function seekCondition(cols: { expr: string; nullable: boolean }[], values: Binding[], dir: SortDirection): Sql {
+  const bindings: Binding[] = [];
   const disjuncts: string[] = [];
   const op = dir === "asc" ? ">" : "<";
   for (let i = 0; i < cols.length; i += 1) {
     const terms: string[] = [];
-    const local: unknown[] = [];
+    const local: Binding[] = [];
     for (let e = 0; e < i; e += 1) {
       if (values[e] === null) terms.push(`${cols[e].expr} IS NULL`);
       else {
@@ -253,7 +255,7 @@ function seekFor(built: Built, sort: RegisterSort, cursor: RegisterCursor): Sql 
   const keys = SORT_KEYS[sort];
   const cols = [...keys.map((k, i) => ({ expr: built.keyCols[i], nullable: k.nullable })), { expr: built.idCol, nullable: false }];
   // Timestamps travel in the cursor as epoch milliseconds.
-  const values: unknown[] = [...keys.map((k, i) => (k.isDate && cursor.keys[i] !== null ? new Date(cursor.keys[i] as number) : cursor.keys[i])), cursor.id];
+  const values: Binding[] = [...keys.map((k, i) => (k.isDate && cursor.keys[i] !== null ? new Date(cursor.keys[i] as number) : cursor.keys[i])), cursor.id];
   return seekCondition(cols, values, cursor.dir);
 }
 

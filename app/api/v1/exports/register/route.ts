@@ -1,0 +1,13 @@
+// GET /api/v1/exports/register?format=xlsx|csv&<register filter and sort>: the rows of
+// that Register view as a spreadsheet or CSV, streamed as it is written. Clerks,
+// inspectors and admins; audited (who, filter, rows).
+import { exportRegister } from "@/app/api/v1/exports/_lib/register-export";
+import { defineRoute } from "@/app/_lib/guard";
+import { registerExportQuerySchema } from "@/domain/register";
+
+export const dynamic = "force-dynamic";
+export const runtime = "nodejs";
+
+export const GET = defineRoute({ audience: ["clerk", "inspector", "admin"], schema: registerExportQuerySchema, input: "query" }, async (query, { user, requestId }) =>
+  exportRegister({ query, user, requestId }),
+);

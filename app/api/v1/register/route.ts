@@ -1,0 +1,28 @@
+// GET /api/v1/register?<filter>&sort=&dir=&after=<cursor>&limit=&count=1 — one keyset page
+// of the joint register (the grid's data source and the JSON API): rows in canonical SI,
+// `next` is the cursor of the following page (null on the last), `count` (when asked)
+// is exact or an estimate marked as such.
+import { defineRoute } from "@/app/_lib/guard";
+import { countRegister, listRegisterPage } from "@/database/queries/register";
+import { decodeCursor, encodeCursor, pickFilter, registerPageQuerySchema } from "@/domain/register";
+import { AppError } from "@/domain/result";
+
+export const dynamic = "force-dynamic";
+
+export const GET = defineRoute({ audience: ["clerk", "inspector", "admin"], schema: registerPageQuerySchema, input: "query" }, async (query) => {
+  let after;
+  if (query.after) {
+    const decoded = decodeCursor(query.after, { sort: query.sort, dir: query.dir });
+    if (!decoded.ok) throw new AppError("invalid", decoded.message, { after: [decoded.message] });
+    after = decoded.cursor;
+  }
+  const filter = pickFilter(query);
+  const [page, count] = await Promise.all([
+    listRegisterPage({ filter, sort: query.sort, dir: query.dir, after, limit: query.limit }),
+    query.count === "1" ? countRegister({ filter }) : Promise.resolve(null),
+  ]);
+  return Response.json(
+    { rows: page.rows, next: page.next ? encodeCursor(page.next) : null, ...(count ? { count } : {}) },
+    { headers: { "cache-control": "no-store" } },
+  );
+});

@@ -1,0 +1,217 @@
+// Register export and the Register API through their route handlers, with real sealed
+// sessions: role checks, bad input, and the files themselves read back with general
+// libraries (exceljs for the workbook, fast-csv for the CSV) against the filtered rows.
+import ExcelJS from "exceljs";
+import { parseString } from "@fast-csv/parse";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { GET as exportGet } from "@/app/api/v1/exports/register/route";
+import { GET as registerGet } from "@/app/api/v1/register/route";
+import { closeDb } from "@/database/client";
+import { iterateRegisterRows } from "@/database/queries/register";
+import { REGISTER_COLUMNS, columnHeader, type RegisterFilter, type RegisterRow } from "@/domain/register";
+import { buildRegisterJoints, type RegisterFixture } from "@/fixtures/register-joints";
+import { ownerDb, resetDatabase } from "../support/db";
+import { requestAs } from "../support/session";
+import { makeUser } from "../support/users";
+
+type Person = { id: number };
+let fixture: RegisterFixture;
+let clerk: Person;
+let inspectorUs: Person;
+let admin: Person;
+let fuser: Person;
+const noParams = { params: Promise.resolve({}) };
+const TRICKY_STATION = 'Sta. 12+50, "north" verge';
+
+async function rowsOf(filter: RegisterFilter): Promise<RegisterRow[]> {
+  const out: RegisterRow[] = [];
+  for await (const batch of iterateRegisterRows({ filter, sort: "madeAt", dir: "desc" })) out.push(...batch);
+  return out;
+}
+
+async function waitForExportEnd(id: number): Promise<Record<string, unknown>> {
+  for (let i = 0; i < 100; i += 1) {
+    const row = await ownerDb()("exports").where({ id }).first();
+    if (row && row.status !== "running") return row;
+    await new Promise((r) => setTimeout(r, 50));
+  }
+  throw new Error("export did not finish");
+}
+
+describe("register API and export", () => {
+  beforeAll(async () => {
+    await resetDatabase();
+    fixture = await buildRegisterJoints(ownerDb(), { count: 600, seed: 23 });
+    // A place text that CSV must quote (comma and quotes), on a joint of fuser 0.
+    const target = await ownerDb()("joints").where({ fuser_id: fixture.fuserIds[0] }).orderBy("id").first("id");
+    await ownerDb()("joints").where({ id: target.id }).update({ station: TRICKY_STATION });
+    clerk = await makeUser({ roles: ["clerk"], unitSystem: "si", name: "Clerk Ottilie Brand" });
+    inspectorUs = await makeUser({ roles: ["inspector"], unitSystem: "us", name: "Inspector Wen Harrow" });
+    admin = await makeUser({ roles: ["admin"] });
+    fuser = await makeUser({ roles: ["fuser"] });
+  }, 120_000);
+
+  afterAll(async () => {
+    await closeDb();
+  });
+
+  it("refuses the signed-out (401) and fusers (403) on the register and the export", async () => {
+    for (const [handler, url] of [
+      [registerGet, "/api/v1/register"],
+      [exportGet, "/api/v1/exports/register?format=csv"],
+    ] as const) {
+      const out = await handler(await requestAs(null, url), noParams);
+      expect(out.status).toBe(401);
+      const forbidden = await handler(await requestAs(fuser, url), noParams);
+      expect(forbidden.status).toBe(403);
+      expect(await forbidden.json()).toMatchObject({ error: { code: "forbidden" } });
+    }
+    expect(await ownerDb()("exports").count({ n: "*" }).first()).toMatchObject({ n: 0 }); // nothing recorded for refused calls
+  });
+
+  it("serves clerks, inspectors and admins", async () => {
+    for (const person of [clerk, inspectorUs, admin]) {
+      const res = await registerGet(await requestAs(person, "/api/v1/register?limit=5&count=1"), noParams);
+      expect(res.status).toBe(200);
+      const body = (await res.json()) as { rows: unknown[]; next: string | null; count: { value: number; isEstimate: boolean } };
+      expect(body.rows).toHaveLength(5);
+      expect(typeof body.next).toBe("string");
+      expect(body.count).toEqual({ value: 600, isEstimate: false });
+    }
+  });
+
+  it("answers bad filters with 422 and a message naming each field", async () => {
+    const res = await registerGet(await requestAs(clerk, "/api/v1/register?outcome=maybe&from=2026-13-01&limit=0"), noParams);
+    expect(res.status).toBe(422);
+    const body = (await res.json()) as { error: { code: string; message: string; fields: Record<string, string[]> } };
+    expect(body.error.code).toBe("invalid");
+    expect(Object.keys(body.error.fields).sort()).toEqual(["from", "limit", "outcome"]);
+    expect(body.error.message).toMatch(/outcome/);
+    const cursor = await registerGet(await requestAs(clerk, "/api/v1/register?after=bogus"), noParams);
+    expect(cursor.status).toBe(422);
+    expect(((await cursor.json()) as { error: { fields: Record<string, string[]> } }).error.fields.after[0]).toMatch(/cursor/);
+    const badExport = await exportGet(await requestAs(clerk, "/api/v1/exports/register?format=pdf"), noParams);
+    expect(badExport.status).toBe(422);
+  });
+
+  it("pages through the API by cursor to exactly the rows of the filter", async () => {
+    const filter = { fuser: fixture.fuserIds[1] };
+    const expected = (await rowsOf(filter)).map((r) => r.id);
+    const ids: number[] = [];
+    let after: string | null = null;
+    do {
+      const q = new URLSearchParams({ fuser: String(filter.fuser), limit: "23", ...(after ? { after } : {}) });
+      const res = await registerGet(await requestAs(clerk, `/api/v1/register?${q}`), noParams);
+      const body = (await res.json()) as { rows: { id: number; madeAt: string }[]; next: string | null };
+      ids.push(...body.rows.map((r) => r.id));
+      expect(typeof body.rows[0]?.madeAt).toBe("string");
+      after = body.next;
+    } while (after);
+    expect(ids).toEqual(expected);
+  });
+
+  it("exports an .xlsx of exactly the filtered rows: units in the header, typed cells, frozen header, autofilter, the about sheet, audited", async () => {
+    const filter: RegisterFilter = { outcome: "out-of-limits" };
+    const expected = await rowsOf(filter);
+    expect(expected.length).toBeGreaterThan(50);
+    const res = await exportGet(await requestAs(inspectorUs, "/api/v1/exports/register?format=xlsx&outcome=out-of-limits"), noParams);
+    expect(res.status).toBe(200);
+    expect(res.headers.get("content-type")).toMatch(/spreadsheetml/);
+    expect(res.headers.get("content-disposition")).toMatch(/attachment; filename="beadline-register-\d{4}-\d{2}-\d{2}\.xlsx"/);
+    expect(res.headers.get("x-beadline-row-estimate")).toBe(String(expected.length));
+    const exportId = Number(res.headers.get("x-beadline-export-id"));
+    const buffer = Buffer.from(await res.arrayBuffer());
+
+    const book = new ExcelJS.Workbook();
+    await book.xlsx.load(buffer as unknown as ArrayBuffer);
+    const sheet = book.getWorksheet("Joints")!;
+    expect(sheet.rowCount).toBe(expected.length + 1);
+    const header = (sheet.getRow(1).values as unknown[]).slice(1);
+    expect(header).toEqual(REGISTER_COLUMNS.map((c) => columnHeader(c, "us")));
+    expect(header).toContain("Heater temperature (°F)");
+    expect(header).toContain("Fusion gauge pressure (psi)");
+    expect(header).toContain("Bead size (in)");
+    expect(sheet.views[0]).toMatchObject({ state: "frozen", ySplit: 1 });
+    expect(sheet.autoFilter).toBeTruthy();
+
+    const col = (key: string) => REGISTER_COLUMNS.findIndex((c) => c.key === key) + 1;
+    for (let i = 0; i < expected.length; i += 1) {
+      const row = sheet.getRow(i + 2);
+      const want = expected[i];
+      expect(row.getCell(col("jointNo")).value).toBe(want.jointNo);
+      expect(row.getCell(col("job")).value).toBe(want.jobCode);
+      const made = row.getCell(col("madeAt")).value;
+      expect(made).toBeInstanceOf(Date); // a date cell, not text
+      expect(Math.abs((made as Date).getTime() - want.madeAt.getTime())).toBeLessThan(2);
+      expect(row.getCell(col("outcome")).value).toBe("Out of limits");
+      const temperature = row.getCell(col("heaterTemperature")).value;
+      if (want.heaterTemperatureC === null) expect(temperature).toBeNull();
+      else {
+        expect(typeof temperature).toBe("number");
+        // source: NIST SP 811 (2008) — °F = °C × 9/5 + 32
+        expect(temperature as number).toBeCloseTo((want.heaterTemperatureC * 9) / 5 + 32, 1);
+      }
+      const gauge = row.getCell(col("fusionGauge")).value as number;
+      // source: NIST SP 811 (2008) Appendix B.8 — 1 psi = 6.894757 kPa
+      expect(gauge).toBeCloseTo((want.fusionGaugeMpa as number) / 0.006894757, 0);
+      const bead = row.getCell(col("bead")).value as number;
+      // source: NIST SP 811 (2008) — 1 in = 25.4 mm exactly
+      expect(bead).toBeCloseTo((want.beadMm as number) / 25.4, 3);
+    }
+
+    const about = book.getWorksheet("About this export")!;
+    const lines = new Map<string, unknown>();
+    about.eachRow((r) => lines.set(String(r.getCell(1).value), r.getCell(2).value));
+    expect(String(lines.get("Exported by"))).toMatch(/Inspector Wen Harrow <.+@test\.example>/);
+    expect(lines.get("Exported at (UTC)")).toBeInstanceOf(Date);
+    expect(lines.get("Joints in this file")).toBe(expected.length);
+    expect(lines.get("Outcome")).toBe("Out of limits");
+    expect(String(lines.get("Units"))).toMatch(/US customary/);
+    const versionCodes = [...new Set(expected.map((r) => `${r.procedureCode} version ${r.procedureVersionNo}`))].sort();
+    for (const code of versionCodes) expect(lines.has(code), code).toBe(true);
+    expect(lines.has("Heater surface temperature")).toBe(true); // the procedures' windows are listed
+
+    const finished = await waitForExportEnd(exportId);
+    expect(finished).toMatchObject({ status: "done", row_count: expected.length, format: "xlsx", user_id: inspectorUs.id });
+    const audit = await ownerDb()("audit_log").where({ action: "register-exported", entity_id: String(exportId) }).first();
+    expect(audit.actor_user_id).toBe(inspectorUs.id);
+    expect(JSON.parse(audit.details)).toMatchObject({ format: "xlsx", rowCount: expected.length, filter: { outcome: "out-of-limits", sort: "madeAt", dir: "desc" } });
+  });
+
+  it("exports CSV that parses back to the same rows and values (quotes and commas survive)", async () => {
+    const filter: RegisterFilter = { fuser: fixture.fuserIds[0] };
+    const expected = await rowsOf(filter);
+    const res = await exportGet(await requestAs(clerk, `/api/v1/exports/register?format=csv&fuser=${fixture.fuserIds[0]}`), noParams);
+    expect(res.status).toBe(200);
+    expect(res.headers.get("content-type")).toMatch(/text\/csv/);
+    const text = await res.text();
+    const records: string[][] = await new Promise((resolve, reject) => {
+      const out: string[][] = [];
+      parseString(text.replace(/^\uFEFF/, ""), { headers: false })
+        .on("data", (r: string[]) => out.push(r))
+        .on("error", reject)
+        .on("end", () => resolve(out));
+    });
+    expect(records[0]).toEqual(REGISTER_COLUMNS.map((c) => columnHeader(c, "si")));
+    expect(records).toHaveLength(expected.length + 1);
+    const stationCol = REGISTER_COLUMNS.findIndex((c) => c.key === "station");
+    expect(records.slice(1).some((r) => r[stationCol] === TRICKY_STATION)).toBe(true);
+    records.slice(1).forEach((record, i) => {
+      REGISTER_COLUMNS.forEach((c, n) => {
+        const want = c.value(expected[i], "si");
+        if (want === null) expect(record[n], c.key).toBe("");
+        else if (want instanceof Date) expect(new Date(record[n]).getTime(), c.key).toBe(want.getTime());
+        else if (typeof want === "number") expect(Number(record[n]), c.key).toBe(want);
+        else expect(record[n], c.key).toBe(want);
+      });
+    });
+    const exportId = Number(res.headers.get("x-beadline-export-id"));
+    expect(await waitForExportEnd(exportId)).toMatchObject({ status: "done", row_count: expected.length, format: "csv" });
+  });
+
+  it("an export of a filter that matches nothing is a header-only file", async () => {
+    const res = await exportGet(await requestAs(admin, "/api/v1/exports/register?format=csv&lot=NO-SUCH-LOT"), noParams);
+    const text = (await res.text()).replace(/^\uFEFF/, "");
+    expect(text.trim().split("\r\n")).toHaveLength(1);
+  });
+});
