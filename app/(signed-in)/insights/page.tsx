@@ -1,0 +1,90 @@
+import { requireUser } from "@/app/_lib/page-guard";
+import { listJobs } from "@/database/queries/jobs";
+import {
+  coolingRecordedVersusRequired,
+  findingsByParameter,
+  firstPassYieldByFuser,
+  firstPassYieldByMachine,
+  firstPassYieldByWeek,
+  heaterTemperatures,
+  insightsSummary,
+} from "@/database/queries/insights";
+import { PARAMETER_LABELS } from "@/domain/review/labels";
+import { InsightsCharts } from "./_components/insights-charts";
+
+export const dynamic = "force-dynamic";
+
+const PERIODS = [4, 12, 26, 52] as const;
+
+// Insights: trends of the joint records as charts (first-pass yield, findings, heater
+// temperatures, cooling), each with the numbers behind it.
+export default async function InsightsPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
+  const user = await requireUser(["inspector", "admin"]);
+  const params = await searchParams;
+  const one = (v: string | string[] | undefined) => (Array.isArray(v) ? v[0] : v);
+  const weeks = PERIODS.find((p) => String(p) === one(params.weeks)) ?? 12;
+  const jobId = Number(one(params.job)) || undefined;
+  const now = new Date();
+  const to = new Date(Date.UTC(now.getUTCFullYear(), now.getUTCMonth(), now.getUTCDate() + 1));
+  const from = new Date(to.getTime() - weeks * 7 * 86_400_000);
+  const filter = { from, to, jobId };
+  const [jobs, summary, byWeek, byFuser, byMachine, findings, heater, cooling] = await Promise.all([
+    listJobs(),
+    insightsSummary(filter),
+    firstPassYieldByWeek(filter),
+    firstPassYieldByFuser(filter),
+    firstPassYieldByMachine(filter),
+    findingsByParameter(filter),
+    heaterTemperatures(filter),
+    coolingRecordedVersusRequired(filter),
+  ]);
+  return (
+    <div className="flex flex-col gap-4">
+      <h1 className="text-2xl font-bold">Insights</h1>
+      <form method="get" className="flex flex-wrap items-end gap-3" aria-label="Choose the period and job">
+        <div className="flex flex-col gap-1">
+          <label htmlFor="weeks" className="text-sm font-semibold">
+            Period
+          </label>
+          <select id="weeks" name="weeks" defaultValue={String(weeks)} className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-2">
+            {PERIODS.map((p) => (
+              <option key={p} value={p}>
+                Last {p} weeks
+              </option>
+            ))}
+          </select>
+        </div>
+        <div className="flex flex-col gap-1">
+          <label htmlFor="job" className="text-sm font-semibold">
+            Job
+          </label>
+          <select id="job" name="job" defaultValue={jobId ? String(jobId) : ""} className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-2">
+            <option value="">All jobs</option>
+            {jobs.map((j) => (
+              <option key={j.id} value={j.id}>
+                {j.code} {j.name}
+              </option>
+            ))}
+          </select>
+        </div>
+        <button type="submit" className="min-h-touch rounded-md bg-brand px-4 font-semibold text-white">
+          Show
+        </button>
+      </form>
+      <p>
+        {from.toISOString().slice(0, 10)} to {new Date(to.getTime() - 86_400_000).toISOString().slice(0, 10)}: <strong>{summary.joints}</strong> joints, first-pass yield{" "}
+        <strong>{summary.joints ? `${summary.yieldPct} %` : "—"}</strong>, {summary.outOfLimits} out of limits, {summary.cutOut} cut out, {summary.pending} waiting for review.
+      </p>
+      <p className="text-sm text-slate-700">First-pass yield: joints within limits (when recorded and, where a pressure trace is attached, by the trace) and not cut out, as a share of all joints made.</p>
+      <InsightsCharts
+        unitSystem={user.unitSystem}
+        byWeek={byWeek}
+        byFuser={byFuser}
+        byMachine={byMachine}
+        findings={findings.map((f) => ({ label: PARAMETER_LABELS[f.parameter] ?? f.parameter, joints: f.joints }))}
+        heater={heater.map((h) => ({ t: h.madeAt.getTime(), c: h.heaterTemperatureC, min: h.minC, max: h.maxC, jointId: h.jointId, heaterTag: h.heaterTag }))}
+        cooling={cooling.map((c) => ({ label: c.label, recorded: c.coolingS, required: c.minCoolingS }))}
+      />
+    </div>
+  );
+}
