@@ -109,7 +109,7 @@ export default async function TracePage({ searchParams }: { searchParams: Promis
 
       {trace ? (
         <section aria-labelledby="lot-results" className="flex flex-col gap-4">
-          <h2 id="lot-results" className="text-xl font-bold" role="status">
+          <h2 id="lot-results" className="text-xl font-bold">
             {trace.lots.length === 0
               ? "No lot matches this search."
               : `${trace.lots.map((l) => `${l.manufacturer} lot ${l.lot}`).join("; ")}: ${trace.coils.length} coil${trace.coils.length === 1 ? "" : "s"}, ${trace.joints.length}${trace.truncated ? "+" : ""} joint${trace.joints.length === 1 ? "" : "s"}${outOfLimits ? ` (${outOfLimits} out of limits)` : ""}`}

@@ -1,0 +1,97 @@
+// A records clerk receives a coil by typing its ASTM F2897 code, prints its label page
+// (the QR on the sheet decodes to the coil's page), and finds the coil again through Trace.
+import { expect, test } from "@playwright/test";
+import jsQR from "jsqr";
+import { PNG } from "pngjs";
+import { CoilPage, LabelSheetPage, ReceiveCoilPage, TracePage } from "./pages/coils-page";
+import { SignInPage } from "./pages/sign-in-page";
+
+// Worked by hand from ASTM F2897-23a (standards.md §7): "QF"; lot 4430777 → base 62 "iAE9";
+// 20 Oct 2026 = day 293 → DDDYY 29326 → "7D0"; H = PE4710 (Table 4); 12 = coiled pipe (Table 5);
+// 2" IPS SDR 11 factor 38 (Table 6) → D = 38·378 + 38 + 1 = 14403 → "3Kj"; index "0".
+const CODE = "QFiAE97D0H123Kj0";
+
+test("a clerk receives a coil from its traceability code, prints its label and traces it", async ({ page, baseURL }) => {
+  await new SignInPage(page).signInAs("clerk");
+  const receive = new ReceiveCoilPage(page);
+  await receive.open();
+  const coilCode = await receive.field("Coil id (printed on our label)").inputValue();
+  expect(coilCode).toMatch(/^LV-C\d{4}$/);
+
+  // A lot typed from the print line that disagrees with the code is flagged …
+  await receive.field("Lot").fill("4430778");
+  await receive.typeTraceCode(CODE);
+  await expect(receive.disagreement()).toContainText("The code carries lot 4430777, the form says 4430778");
+  // … the fields the code encodes are filled (source: ASTM F2897-23a Tables 1, 4, 6).
+  await expect(receive.field("Manufacturer id in the code")).toHaveValue("QF");
+  await expect(receive.field("Production date")).toHaveValue("2026-10-20");
+  await expect(receive.field("Material designation")).toHaveValue("PE4710");
+  await expect(receive.field("Pipe maker")).toHaveValue("Quillfield Polymers");
+  await expect(receive.field("Nominal size")).toHaveValue("2");
+  await expect(receive.field("SDR (DR)")).toHaveValue("11");
+  await receive.field("Lot").fill("4430777");
+  await expect(receive.disagreement()).toHaveCount(0);
+
+  await receive.field("Coil length").fill("152.4");
+  await receive.field("Ovality measured at the end").fill("1.5");
+  await expect(page.getByText("Inspection passes: the coil goes to the yard.")).toBeVisible();
+  await page.screenshot({ path: "tests/e2e/artifacts/coils-receive.png", fullPage: true });
+  await receive.receive();
+
+  const coil = new CoilPage(page);
+  await expect(coil.heading(coilCode)).toBeVisible();
+  await expect(page.getByRole("status").filter({ hasText: `Coil ${coilCode} received into the yard` })).toBeVisible();
+  await expect(page.getByText("In yard", { exact: true })).toBeVisible();
+  // source: PPI Handbook of PE Pipe bend ratio 25 for DR 11 × OD 60.325 mm = 1.508 m (standards.md §9)
+  await expect(page.getByText(/Do not bend this pipe tighter than a 1\.51 m radius/)).toBeVisible();
+  await page.getByLabel("Length of the next run").fill("200");
+  await expect(page.getByText(`The next run of 200.0 m is longer than the 152.4 m left on ${coilCode}`)).toBeVisible();
+  await page.screenshot({ path: "tests/e2e/artifacts/coils-coil-page.png", fullPage: true });
+
+  await coil.printLabel();
+  const sheet = new LabelSheetPage(page);
+  const label = sheet.label(`coil-${coilCode}`);
+  await expect(label).toBeVisible();
+  // Scan the label as a phone would: screenshot it and decode the QR (source: jsQR, a general-purpose decoder).
+  const shot = PNG.sync.read(await label.screenshot({ scale: "device" }));
+  const decoded = jsQR(new Uint8ClampedArray(shot.data.buffer, shot.data.byteOffset, shot.data.byteLength), shot.width, shot.height)?.data;
+  expect(decoded).toBe(`${baseURL}/coils/${coilCode}`);
+  await page.evaluate(() => {
+    window.print = () => undefined;
+  });
+  await sheet.print();
+  await expect(page.getByRole("status").filter({ hasText: "1 coil label marked as printed." })).toBeVisible();
+  await page.emulateMedia({ media: "print" });
+  await expect(page.getByRole("navigation", { name: "Screens" })).toBeHidden();
+  await page.screenshot({ path: "tests/e2e/artifacts/coils-label-sheet-print.png", fullPage: true });
+  await page.emulateMedia({ media: "screen" });
+
+  // The decoded address opens the coil's page.
+  await page.goto(decoded!);
+  await expect(coil.heading(coilCode)).toBeVisible();
+  await expect(page.getByText(/Label last printed \d{4}-\d{2}-\d{2}\./)).toBeVisible();
+
+  const trace = new TracePage(page);
+  await trace.open();
+  await trace.traceByCode(coilCode);
+  await expect(trace.result()).toHaveText("Quillfield Polymers lot 4430777: 1 coil, 0 joints");
+  await expect(page.getByRole("table", { name: "Coils of the lot" }).getByRole("link", { name: coilCode })).toBeVisible();
+  await trace.traceByLot("Quillfield Polymers", "4430777");
+  await expect(trace.result()).toHaveText("Quillfield Polymers lot 4430777: 1 coil, 0 joints");
+  await trace.traceByCode(CODE);
+  await expect(trace.result()).toHaveText("Quillfield Polymers lot 4430777: 1 coil, 0 joints");
+  await page.screenshot({ path: "tests/e2e/artifacts/coils-trace.png", fullPage: true });
+});
+
+test("a seeded lot traces to its coils; a bad search names the field", async ({ page }) => {
+  await new SignInPage(page).signInAs("clerk");
+  const trace = new TracePage(page);
+  await trace.open();
+  await page.getByRole("button", { name: "Trace lot" }).click();
+  await expect(page.getByText("Enter a lot (with its manufacturer), or a traceability code or coil id.")).toBeVisible();
+  await trace.traceByLot("Quillfield Polymers", "4410021");
+  await expect(trace.result()).toContainText("Quillfield Polymers lot 4410021: 4 coils");
+  for (const code of ["LV-C0001", "LV-C0002", "LV-C0003", "LV-C0012"]) {
+    await expect(page.getByRole("table", { name: "Coils of the lot" }).getByRole("link", { name: code })).toBeVisible();
+  }
+});
