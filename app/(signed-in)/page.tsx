@@ -1,25 +1,26 @@
-import Link from "next/link";
-import { screensFor } from "@/domain/roles";
 import { requireUser } from "@/app/_lib/page-guard";
+import { hasAnyRole } from "@/domain/roles";
+import { TodayAdmin } from "./_components/today-admin";
+import { TodayClerk } from "./_components/today-clerk";
+import { TodayFuser } from "./_components/today-fuser";
+import { TodayInspector } from "./_components/today-inspector";
 
-// Today: what needs this person now. TODO(issue 4): per-role panels (drafts, queue, coils, lapses).
+export const dynamic = "force-dynamic";
+
+// Today: what needs this person now, one group of panels per role they hold.
 export default async function TodayPage() {
   const user = await requireUser();
+  const now = new Date();
   return (
     <div className="flex flex-col gap-4">
       <h1 className="text-2xl font-bold">Today</h1>
       <p>Signed in as {user.name}.</p>
-      <ul className="grid gap-2 sm:grid-cols-3">
-        {screensFor(user)
-          .filter((s) => s.id !== "today")
-          .map((s) => (
-            <li key={s.id}>
-              <Link className="block rounded-md border-2 border-brand bg-white p-4 font-semibold text-brand" href={s.href}>
-                {s.label}
-              </Link>
-            </li>
-          ))}
-      </ul>
+      <div className="grid gap-4 md:grid-cols-2">
+        {hasAnyRole(user, ["fuser"]) ? <TodayFuser userId={user.id} now={now} /> : null}
+        {hasAnyRole(user, ["inspector"]) ? <TodayInspector /> : null}
+        {hasAnyRole(user, ["clerk"]) ? <TodayClerk userId={user.id} /> : null}
+        {hasAnyRole(user, ["admin"]) ? <TodayAdmin now={now} /> : null}
+      </div>
     </div>
   );
 }

@@ -4,7 +4,7 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { useForm } from "react-hook-form";
+import { useForm, useWatch } from "react-hook-form";
 import type { z } from "zod";
 import { Field, FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
@@ -29,12 +29,13 @@ export function HeaterCheckForm({
 }) {
   const router = useRouter();
   const [message, setMessage] = useState<{ text: string; tone: "error" | "success" } | null>(null);
-  const { register, handleSubmit, formState, setError, reset, getValues, watch } = useForm<Input, unknown, Output>({
+  const { register, handleSubmit, formState, setError, reset, getValues, control } = useForm<Input, unknown, Output>({
     resolver: zodResolver(recordHeaterCheckSchema),
     defaultValues: { units, heaterId: heater.id, procedureId: procedures[0]?.id, faceA: Array(POINTS).fill(""), faceB: Array(POINTS).fill("") },
   });
+  const procedureId = useWatch({ control, name: "procedureId" });
   const temp = unitLabel("temperature", units);
-  const chosen = procedures.find((p) => String(p.id) === String(watch("procedureId")));
+  const chosen = procedures.find((p) => String(p.id) === String(procedureId));
   const e = formState.errors;
   const onSubmit = handleSubmit(async () => {
     setMessage(null);

@@ -4,7 +4,7 @@
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useRouter } from "next/navigation";
 import { useState } from "react";
-import { useForm } from "react-hook-form";
+import { useForm, useWatch } from "react-hook-form";
 import type { z } from "zod";
 import { Field, FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
@@ -33,11 +33,12 @@ export function JobForm({
 }) {
   const router = useRouter();
   const [message, setMessage] = useState<{ text: string; tone: "error" | "success" } | null>(null);
-  const { register, handleSubmit, formState, setError, setValue, watch, reset } = useForm<Input, unknown, Output>({
+  const { register, handleSubmit, formState, setError, setValue, control, reset } = useForm<Input, unknown, Output>({
     resolver: zodResolver(createJobSchema),
     defaultValues: job?.values ?? { coilIds: [] },
   });
-  const chosen = new Set((watch("coilIds") ?? []).map(Number));
+  const coilIds = useWatch({ control, name: "coilIds" });
+  const chosen = new Set((coilIds ?? []).map(Number));
   const toggleCoil = (id: number, on: boolean) => {
     const next = new Set(chosen);
     if (on) next.add(id);

@@ -1,0 +1,111 @@
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { requireUser } from "@/app/_lib/page-guard";
+import { findProcedureById, listProcedureVersions } from "@/database/queries/procedures";
+import { builtInProcedure, describeProcedureWindows } from "@/domain/fusion/procedures";
+import { canManageOffice } from "@/domain/roles";
+import { TightenForm } from "../_components/tighten-form";
+import { VersionNotesForm } from "../_components/version-notes-form";
+import { tighteningFieldViews } from "../_lib/views";
+
+export const dynamic = "force-dynamic";
+
+const STATUS_STYLE = { confirmed: "text-pass", "confirmed-2nd": "text-brand", "from-memory": "text-caution" } as const;
+
+export default async function ProcedurePage({ params }: { params: Promise<{ id: string }> }) {
+  const user = await requireUser(["admin", "inspector", "fuser"]);
+  const id = Number((await params).id);
+  if (!Number.isInteger(id) || id <= 0) notFound();
+  const procedure = await findProcedureById({ id });
+  if (!procedure) notFound();
+  const versions = await listProcedureVersions({ procedureId: id });
+  const current = versions.find((v) => v.isCurrent) ?? null;
+  const units = user.unitSystem;
+  const isAdmin = canManageOffice(user);
+  return (
+    <div className="flex flex-col gap-6">
+      <p>
+        <Link href="/procedures" className="text-brand underline">
+          All procedures
+        </Link>
+      </p>
+      <h1 className="text-2xl font-bold">
+        {procedure.code}: {procedure.name}
+      </h1>
+      <p>Based on {builtInProcedure(procedure.standard).label}. Values are shown in {units === "us" ? "US customary" : "SI"} units; each window names its source and whether the value is confirmed or from memory.</p>
+      {versions.map((v) => (
+        <section key={v.id} aria-labelledby={`version-${v.id}`} className={`rounded-md border-2 p-4 ${v.isCurrent ? "border-brand bg-white" : "border-slate-300 bg-slate-50"}`}>
+          <h2 id={`version-${v.id}`} className="text-xl font-bold">
+            Version {v.versionNo} {v.isCurrent ? "(current)" : "(superseded)"}
+          </h2>
+          <p className="text-sm text-slate-700">
+            {v.definition.label}. Published {v.publishedAt.toISOString().slice(0, 10)}
+            {v.publishedByName ? ` by ${v.publishedByName}` : ""}
+            {v.supersededAt ? `; superseded ${v.supersededAt.toISOString().slice(0, 10)}` : ""}. Used for {v.jointCount} joint{v.jointCount === 1 ? "" : "s"}.
+          </p>
+          {v.notes ? <p className="mt-1">Note: {v.notes}</p> : null}
+          <div className="mt-3 overflow-x-auto">
+            <table className="w-full border-collapse text-left text-sm" aria-label={`Windows of version ${v.versionNo}`}>
+              <thead>
+                <tr className="border-b-2 border-slate-400">
+                  <th className="p-2">Parameter</th>
+                  <th className="p-2">Window</th>
+                  <th className="p-2">Source</th>
+                  <th className="p-2">Status</th>
+                </tr>
+              </thead>
+              <tbody>
+                {describeProcedureWindows(v.definition, units).map((row) => (
+                  <tr key={row.parameter} className="border-b border-slate-200 align-top">
+                    <td className="p-2 font-semibold">{row.label}</td>
+                    <td className="p-2">
+                      {row.value}
+                      {row.details.length ? (
+                        <ul className="mt-1 list-disc pl-5 text-slate-700">
+                          {row.details.map((d) => (
+                            <li key={d}>{d}</li>
+                          ))}
+                        </ul>
+                      ) : null}
+                    </td>
+                    <td className="p-2">{row.source}</td>
+                    <td className={`p-2 font-semibold ${STATUS_STYLE[row.status]}`}>{row.statusText}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
+          {v.definition.notes.length ? (
+            <ul className="mt-2 list-disc pl-5 text-sm">
+              {v.definition.notes.map((n) => (
+                <li key={n}>{n}</li>
+              ))}
+            </ul>
+          ) : null}
+          {isAdmin ? (
+            <div className="mt-3">
+              {v.jointCount === 0 ? (
+                <VersionNotesForm versionId={v.id} versionNo={v.versionNo} notes={v.notes ?? ""} />
+              ) : (
+                <p className="text-sm">This version has been used for joints, so it cannot be changed; publish a new version instead.</p>
+              )}
+            </div>
+          ) : null}
+        </section>
+      ))}
+      {isAdmin && current && procedure.isActive ? (
+        <section aria-labelledby="tighten" className="rounded-md border-2 border-slate-300 bg-white p-4">
+          <h2 id="tighten" className="mb-2 text-xl font-bold">
+            Tighten and publish a new version
+          </h2>
+          <TightenForm
+            key={current.id}
+            procedure={{ id: procedure.id, code: procedure.code, currentVersionId: current.id, currentVersionNo: current.versionNo }}
+            units={units}
+            fields={tighteningFieldViews(current.definition, units)}
+          />
+        </section>
+      ) : null}
+    </div>
+  );
+}
