@@ -71,3 +71,6 @@ export type ReviewQueueFilter = z.output<typeof reviewQueueFilterSchema>;
 export const MAX_TRACE_FILE_BYTES = 2_000_000;
 
 export const attachTraceSchema = z.object({ jointId: id("Joint") });
+
+/** Admin: put a failed outbox mail back in the queue. */
+export const retryMailSchema = z.object({ id: id("Mail") });
