@@ -3,6 +3,7 @@
 // retired (is_active = false) because joints refer to them. Edits use optimistic locking.
 import { heaterProblems, isHeaterCheckOverdue, isHeaterFlagged, isMachineUsable, machineProblems, type HeaterReadings } from "@/domain/office/rules";
 import { isoDateOf } from "@/domain/office/dates";
+import { roundTo } from "@/domain/units/format";
 import { conn, type Db } from "../client";
 import { isoDay } from "./jobs";
 
@@ -74,10 +75,11 @@ function machineColumns(m: MachineFields) {
   return {
     asset_tag: m.assetTag,
     description: m.description ?? null,
-    min_od_mm: m.minOdMm,
-    max_od_mm: m.maxOdMm,
-    // DECIMAL(10,2): keep two decimals of mm² (a hundredth of a mm² is far below any data plate's precision).
-    piston_area_mm2: m.pistonAreaMm2 === null ? null : Math.round(m.pistonAreaMm2 * 100) / 100,
+    // DECIMAL(…,2) columns: round half up here (the driver would pass 60.325 as 60.32499…).
+    min_od_mm: m.minOdMm === null ? null : roundTo(m.minOdMm, 2),
+    max_od_mm: m.maxOdMm === null ? null : roundTo(m.maxOdMm, 2),
+    // A hundredth of a mm² is far below any data plate's precision.
+    piston_area_mm2: m.pistonAreaMm2 === null ? null : roundTo(m.pistonAreaMm2, 2),
     last_service_on: m.lastServiceOn ?? null,
     next_service_due: m.nextServiceDue ?? null,
   };
@@ -260,8 +262,8 @@ export async function insertHeaterCheck(
     checked_by: input.checkedBy,
     instrument: input.instrument,
     readings: JSON.stringify(input.readings),
-    window_min_c: Math.round(input.windowMinC * 100) / 100,
-    window_max_c: Math.round(input.windowMaxC * 100) / 100,
+    window_min_c: roundTo(input.windowMinC, 2),
+    window_max_c: roundTo(input.windowMaxC, 2),
     passed: input.passed,
     next_due_on: input.nextDueOn,
     notes: input.notes ?? null,

@@ -237,7 +237,7 @@ export async function coilAssignmentProblems({ jobId, coilIds }: { jobId: number
     for (const id of coilIds) if (!found.has(id)) problems.push(`Coil ${id} does not exist.`);
     for (const r of rows) {
       if (r.job_id && r.job_id !== jobId) problems.push(`Coil ${r.coil_code} is assigned to another job.`);
-      else if ((r.status === "quarantined" || r.status === "used-up") && r.job_id !== jobId) problems.push(`Coil ${r.coil_code} is ${r.status === "quarantined" ? "quarantined" : "used up"} and cannot be assigned.`);
+      else if ((r.status === "quarantined" || r.status === "used-up") && (jobId === null || r.job_id !== jobId)) problems.push(`Coil ${r.coil_code} is ${r.status === "quarantined" ? "quarantined" : "used up"} and cannot be assigned.`);
     }
   }
   if (jobId) {

@@ -145,8 +145,9 @@ function checkMachine(value: MachineRaw, ctx: z.RefinementCtx) {
   }
   const areaMm2 = toSi(value.pistonArea, 'area', value.units);
   // Carriage cylinders of field butt-fusion machines: a few hundred to some tens of
-  // thousands of mm²; outside 10 mm²–1 m² the value is surely a unit slip.
-  if (areaMm2 !== undefined && (areaMm2 < 10 || areaMm2 > 1_000_000)) {
+  // thousands of mm² (our reading, no published source); outside 10–100,000 mm²
+  // (about 0.016–155 in²) the value is surely a unit slip.
+  if (areaMm2 !== undefined && (areaMm2 < 10 || areaMm2 > 100_000)) {
     ctx.addIssue({ code: 'custom', path: ['pistonArea'], message: `Total effective piston area ${value.pistonArea} ${value.units === 'us' ? 'in²' : 'mm²'} is not plausible; check the unit on the data plate.` });
   }
 }
