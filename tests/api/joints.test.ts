@@ -25,6 +25,9 @@ import { actAs, requestAs } from "../support/session";
 import { ownerDb, resetDatabase } from "../support/db";
 import { makeUser } from "../support/users";
 
+// eslint-disable-next-line @typescript-eslint/no-explicit-any -- JSON answers are checked field by field below
+type ApiBody = Record<string, any>;
+
 const DAY = 86_400_000;
 const isoDay = (offsetDays: number) => new Date(Date.now() + offsetDays * DAY).toISOString().slice(0, 10);
 const noParams = { params: Promise.resolve({}) };
@@ -102,7 +105,7 @@ function goodJoint(base: Base, extra: Record<string, unknown> = {}) {
 
 async function post(user: { id: number } | null, body: unknown) {
   const response = await jointsPost(await requestAs(user, "/api/v1/joints", { method: "POST", json: body }), noParams);
-  return { status: response.status, body: (await response.json()) as Record<string, any> };
+  return { status: response.status, body: (await response.json()) as ApiBody };
 }
 
 async function counts() {
@@ -361,7 +364,7 @@ describe("bead photos", () => {
     form.set("kind", "bead-photo");
     form.set("file", new Blob([bytes as BlobPart], { type }), name);
     const response = await uploadPost(await requestAs(user, "/api/v1/attachments", { method: "POST", body: form }), noParams);
-    return { status: response.status, body: (await response.json()) as Record<string, any> };
+    return { status: response.status, body: (await response.json()) as ApiBody };
   }
 
   it("stores a PNG privately under a generated key, serves it with its type, nosniff and a disposition, and ties it to the joint", async () => {

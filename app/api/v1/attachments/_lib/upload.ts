@@ -55,7 +55,6 @@ async function readBodyLimited(request: Request, max: number): Promise<Uint8Arra
 function safeName(name: string | undefined): string | null {
   if (!name) return null;
   // Shown only: strip any path and control characters.
-  // eslint-disable-next-line no-control-regex
   const base = name.split(/[\\/]/).pop()!.replace(/[\u0000-\u001f\u007f]/g, "").trim();
   return base ? base.slice(0, 200) : null;
 }

@@ -1,0 +1,235 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { requireUser } from "@/app/_lib/page-guard";
+import { listAttachmentsForJoint } from "@/database/queries/attachments";
+import { findJointById, listJointRevisions, listOverrideUsesForJoint, type JointRecord } from "@/database/queries/joints";
+import { JOINT_KIND_LABELS, PHASE_LABELS, SHELTER_LABELS, type TimedPhase } from "@/domain/joints/schemas";
+import { formatQuantity, type QuantityKind, type UnitSystem } from "@/domain/units/format";
+import { verdictOf } from "../../trench/_lib/record-joint";
+import { PlanPanel } from "../../trench/_components/plan-panel";
+
+export const dynamic = "force-dynamic";
+
+type Params = { params: Promise<{ id: string }> };
+
+export async function generateMetadata({ params }: Params): Promise<Metadata> {
+  const { id } = await params;
+  return { title: `Joint ${id} · Beadline` };
+}
+
+const REVIEW_WORDS = { "pending-review": "Pending review", accepted: "Accepted", "cut-out": "Cut out" } as const;
+
+function Value({ name, children }: { name: string; children: React.ReactNode }) {
+  return (
+    <div className="flex flex-col border-b border-slate-200 py-2 sm:flex-row sm:gap-4">
+      <dt className="font-semibold text-slate-700 sm:w-64">{name}</dt>
+      <dd className="text-ink">{children}</dd>
+    </div>
+  );
+}
+
+function quantity(v: number | null, kind: QuantityKind, system: UnitSystem): string {
+  return v === null ? "not recorded" : formatQuantity(v, kind, system);
+}
+
+function check(v: boolean | null): string {
+  return v === null ? "not recorded" : v ? "Yes" : "No";
+}
+
+function timedMark(joint: JointRecord, phase: TimedPhase, value: number | null): string {
+  if (value === null) return "";
+  return joint.timedFields.includes(phase) ? " (timed by the phase timer)" : " (typed)";
+}
+
+// Every joint as its own page: all values, findings, photos, the plan it was checked
+// against, its revisions and review state, and the joint it replaces / was replaced by.
+export default async function JointPage({ params }: Params) {
+  const user = await requireUser();
+  const { id: raw } = await params;
+  if (!/^\d{1,15}$/.test(raw)) notFound();
+  const joint = await findJointById({ id: Number(raw) });
+  if (!joint) notFound();
+  const [revisions, photos, overrides] = await Promise.all([listJointRevisions({ jointId: joint.id }), listAttachmentsForJoint({ jointId: joint.id }), listOverrideUsesForJoint({ jointId: joint.id })]);
+  const system = user.unitSystem;
+  const verdict = verdictOf(joint, system);
+  const within = verdict.outcome === "within-limits";
+  const q = (v: number | null, kind: QuantityKind) => quantity(v, kind, system);
+
+  return (
+    <article className="mx-auto flex w-full max-w-3xl flex-col gap-4">
+      <header className="flex flex-col gap-2">
+        <h1 className="text-2xl font-bold">
+          Joint {joint.jointNo} on {joint.jobCode}
+        </h1>
+        <p className="text-ink">
+          {joint.jobName} · made {joint.madeAt.toISOString().replace("T", " ").slice(0, 16)} UTC by {joint.fuser.name}
+        </p>
+        <div className="flex flex-wrap gap-2">
+          <span className={`rounded-md border-2 px-3 py-1 font-bold ${within ? "border-pass bg-pass-light text-pass" : "border-fail bg-fail-light text-fail"}`}>{within ? "Within limits" : "Out of limits"}</span>
+          <span className="rounded-md border-2 border-brand bg-brand-light px-3 py-1 font-bold text-brand-dark">{REVIEW_WORDS[joint.reviewState]}</span>
+        </div>
+        {joint.replacesJointId ? (
+          <p>
+            This joint remakes{" "}
+            <Link className="font-semibold text-brand underline" href={`/joints/${joint.replacesJointId}`}>
+              joint {joint.replacesJointNo}
+            </Link>
+            .
+          </p>
+        ) : null}
+        {joint.replacedByJointId ? (
+          <p className="font-semibold">
+            Replaced by{" "}
+            <Link className="text-brand underline" href={`/joints/${joint.replacedByJointId}`}>
+              joint {joint.replacedByJointNo}
+            </Link>
+            .
+          </p>
+        ) : null}
+      </header>
+
+      <section aria-labelledby="findings-heading" className={`rounded-md border-2 p-3 ${within ? "border-pass bg-pass-light" : "border-fail bg-fail-light"}`}>
+        <h2 id="findings-heading" className="text-xl font-bold">
+          Findings
+        </h2>
+        {verdict.findings.length === 0 ? (
+          <p>Every recorded value is within the limits of the plan below.</p>
+        ) : (
+          <ul className="list-disc pl-5">
+            {verdict.findings.map((f) => (
+              <li key={f.parameter + f.kind}>{f.message}</li>
+            ))}
+          </ul>
+        )}
+      </section>
+
+      <section aria-labelledby="values-heading">
+        <h2 id="values-heading" className="text-xl font-bold">
+          Recorded values
+        </h2>
+        <dl>
+          <Value name="Kind">{JOINT_KIND_LABELS[joint.kind]}</Value>
+          <Value name="Side A">
+            {joint.coilA ? (
+              <>
+                <Link className="font-semibold text-brand underline" href={`/coils/${encodeURIComponent(joint.coilA.code)}`}>
+                  {joint.coilA.code}
+                </Link>{" "}
+                · {joint.coilA.manufacturer} lot {joint.coilA.lot}
+                {joint.lengthAM !== null ? ` · ${q(joint.lengthAM, "length-m")} laid` : ""}
+              </>
+            ) : (
+              "not recorded"
+            )}
+          </Value>
+          <Value name="Side B">
+            {joint.coilB ? (
+              <>
+                <Link className="font-semibold text-brand underline" href={`/coils/${encodeURIComponent(joint.coilB.code)}`}>
+                  {joint.coilB.code}
+                </Link>{" "}
+                · {joint.coilB.manufacturer} lot {joint.coilB.lot}
+                {joint.lengthBM !== null ? ` · ${q(joint.lengthBM, "length-m")} laid` : ""}
+              </>
+            ) : (
+              (joint.componentBText ?? "not recorded")
+            )}
+          </Value>
+          <Value name="Pipe">
+            OD {q(joint.outsideDiameterMm, "length-mm")}, SDR {joint.sdr}
+          </Value>
+          <Value name="Procedure">
+            {joint.procedureCode} v{joint.procedureVersionNo} · {joint.procedureName}
+          </Value>
+          <Value name="Machine / heater plate">
+            {joint.machine.assetTag} / {joint.heater.assetTag}
+          </Value>
+          <Value name="Place">
+            {joint.station ?? "no station"}
+            {joint.latitude !== null && joint.longitude !== null ? ` · ${joint.latitude.toFixed(6)}, ${joint.longitude.toFixed(6)}` : ""}
+          </Value>
+          <Value name="Ambient / shelter">
+            {q(joint.ambientC, "temperature")} · {joint.shelter ? SHELTER_LABELS[joint.shelter] : "not recorded"}
+          </Value>
+          <Value name="Heater temperature at the face">{q(joint.heaterTemperatureC, "temperature")}</Value>
+          <Value name="Drag pressure">{q(joint.dragPressureMpa, "pressure")}</Value>
+          <Value name="Bead-up gauge pressure">{joint.beadUpGaugeMpa === null ? "at fusion pressure (not recorded separately)" : q(joint.beadUpGaugeMpa, "pressure")}</Value>
+          <Value name="Fusion gauge pressure">{q(joint.fusionGaugeMpa, "pressure")}</Value>
+          <Value name="Bead size">{q(joint.beadMm, "length-mm")}</Value>
+          {(["heatSoak", "changeover", "cooling"] as const).map((phase) => {
+            const v = phase === "heatSoak" ? joint.heatSoakS : phase === "changeover" ? joint.changeoverS : joint.coolingS;
+            return (
+              <Value key={phase} name={`${PHASE_LABELS[phase]} time`}>
+                {q(v, "duration")}
+                {timedMark(joint, phase, v)}
+              </Value>
+            );
+          })}
+          <Value name="Faced complete and square">{check(joint.facingOk)}</Value>
+          <Value name="Alignment check passed">{check(joint.alignmentOk)}</Value>
+          <Value name="Uniform double roll-back bead">{check(joint.beadRollbackOk)}</Value>
+          <Value name="V-groove not below the pipe surface">{check(joint.vGrooveOk)}</Value>
+          <Value name="Recorded">
+            {joint.recordedAt.toISOString().replace("T", " ").slice(0, 19)} UTC · submission {joint.clientId}
+          </Value>
+        </dl>
+      </section>
+
+      {overrides.length ? (
+        <section aria-labelledby="overrides-heading" className="rounded-md border-2 border-caution bg-caution-light p-3">
+          <h2 id="overrides-heading" className="text-xl font-bold text-caution">
+            Made under an override
+          </h2>
+          <ul className="list-disc pl-5">
+            {overrides.map((o) => (
+              <li key={o.id}>
+                {o.message} Cleared by {o.grantedByName} at {o.grantedAt.toISOString().replace("T", " ").slice(0, 16)} UTC: “{o.reason}”
+              </li>
+            ))}
+          </ul>
+        </section>
+      ) : null}
+
+      <section aria-labelledby="photos-heading">
+        <h2 id="photos-heading" className="text-xl font-bold">
+          Photos of the bead
+        </h2>
+        {photos.length === 0 ? <p>No photos.</p> : null}
+        <ul className="grid grid-cols-2 gap-2 sm:grid-cols-3">
+          {photos.map((p, i) => (
+            <li key={p.id}>
+              <a href={`/api/v1/attachments/${p.id}`}>
+                {/* eslint-disable-next-line @next/next/no-img-element */}
+                <img src={`/api/v1/attachments/${p.id}`} alt={`Bead photo ${i + 1} of joint ${joint.jointNo}`} className="aspect-square w-full rounded object-cover" />
+              </a>
+            </li>
+          ))}
+        </ul>
+      </section>
+
+      <section aria-labelledby="plan-heading" className="flex flex-col gap-2">
+        <h2 id="plan-heading" className="text-xl font-bold">
+          The plan it was checked against
+        </h2>
+        <PlanPanel plan={joint.plan} system={system} procedure={`${joint.procedureCode} v${joint.procedureVersionNo}`} />
+      </section>
+
+      <section aria-labelledby="revisions-heading">
+        <h2 id="revisions-heading" className="text-xl font-bold">
+          Revisions
+        </h2>
+        <ol className="flex flex-col gap-2">
+          {revisions.map((r) => (
+            <li key={r.id} className="rounded-md border-2 border-slate-300 bg-white p-3">
+              <p className="font-semibold">
+                {r.revisionNo}. {r.kind} by {r.byUserName} at {r.at.toISOString().replace("T", " ").slice(0, 16)} UTC → {REVIEW_WORDS[r.reviewState]}
+              </p>
+              {r.reason ? <p>“{r.reason}”</p> : null}
+            </li>
+          ))}
+        </ol>
+      </section>
+    </article>
+  );
+}

@@ -1,0 +1,81 @@
+"use client";
+// What is waiting on this device, what was sent and what was refused and why — in words.
+import Link from "next/link";
+import { Button } from "@/components/ui/button";
+import type { OutboxEntry } from "../_lib/device-store";
+
+const STATE_WORDS: Record<OutboxEntry["state"], string> = {
+  waiting: "Waiting to send",
+  sending: "Sending",
+  sent: "Sent",
+  refused: "Refused",
+};
+
+const STATE_STYLE: Record<OutboxEntry["state"], string> = {
+  waiting: "border-caution bg-caution-light text-caution",
+  sending: "border-brand bg-brand-light text-brand-dark",
+  sent: "border-pass bg-pass-light text-pass",
+  refused: "border-fail bg-fail-light text-fail",
+};
+
+export function OutboxPanel({ entries, online, onRetry, onRemove, onSendNow }: { entries: OutboxEntry[]; online: boolean; onRetry: (id: string) => void; onRemove: (id: string) => void; onSendNow: () => void }) {
+  const waiting = entries.filter((e) => e.state === "waiting" || e.state === "sending").length;
+  const shown = [...entries].reverse().slice(0, 12);
+  return (
+    <section aria-labelledby="outbox-heading" className="flex flex-col gap-2">
+      <h2 id="outbox-heading" className="text-xl font-bold">
+        Outbox on this device
+      </h2>
+      <p role="status" aria-live="polite" className={`rounded-md border-2 px-3 py-2 font-semibold ${online ? "border-slate-300 bg-white text-ink" : "border-caution bg-caution-light text-caution"}`}>
+        {online ? "Connected." : "No signal: joints you record are kept on this device and sent when the connection is back."}{" "}
+        {waiting === 0 ? "Nothing is waiting to be sent." : `${waiting} joint${waiting === 1 ? " is" : "s are"} waiting to be sent.`}
+      </p>
+      {waiting > 0 && online ? (
+        <Button type="button" variant="secondary" onClick={onSendNow}>
+          Send waiting joints now
+        </Button>
+      ) : null}
+      <ul className="flex flex-col gap-2" aria-label="Joints on this device">
+        {shown.map((e) => (
+          <li key={e.clientId} className={`rounded-md border-2 p-3 ${STATE_STYLE[e.state]}`} aria-label={`${STATE_WORDS[e.state]}: ${e.label}`}>
+            <p className="font-bold">
+              {STATE_WORDS[e.state]}
+              {e.result ? `: joint ${e.result.jointNo} on ${e.result.jobCode}` : ""} · {e.label}
+            </p>
+            <p className="text-sm">Recorded {new Date(e.createdAt).toLocaleString()}</p>
+            {e.result ? (
+              <p className="text-sm font-semibold">
+                {e.result.outcome === "within-limits" ? "Within limits" : `Out of limits: ${e.result.findings.map((f) => f.message).join("; ")}`} ·{" "}
+                <Link className="underline" href={e.result.url}>
+                  Open joint {e.result.jointNo}
+                </Link>
+              </p>
+            ) : null}
+            {e.message ? <p className="text-sm font-semibold">{e.message}</p> : null}
+            {e.fields && e.state === "refused" ? (
+              <ul className="list-disc pl-5 text-sm">
+                {Object.entries(e.fields)
+                  .filter(([k]) => k !== "override" && k !== "_form")
+                  .map(([k, v]) => (
+                    <li key={k}>
+                      {k}: {v.join(" ")}
+                    </li>
+                  ))}
+              </ul>
+            ) : null}
+            {e.state === "refused" ? (
+              <div className="mt-2 flex flex-wrap gap-2">
+                <Button type="button" variant="secondary" onClick={() => onRetry(e.clientId)}>
+                  Send again unchanged
+                </Button>
+                <Button type="button" variant="ghost" onClick={() => onRemove(e.clientId)}>
+                  Discard this joint from the device
+                </Button>
+              </div>
+            ) : null}
+          </li>
+        ))}
+      </ul>
+    </section>
+  );
+}

@@ -1,0 +1,52 @@
+import type { Metadata } from "next";
+import { requireUser } from "@/app/_lib/page-guard";
+import { listHeatersWithLastCheck } from "@/database/queries/equipment";
+import { listJobs } from "@/database/queries/jobs";
+import { listOverridesForJobs } from "@/database/queries/joints";
+import { listCoils } from "@/database/queries/coils";
+import { GrantOverrideForm } from "./_components/grant-override-form";
+
+export const metadata: Metadata = { title: "Overrides · Trench · Beadline" };
+export const dynamic = "force-dynamic";
+
+// Inspectors and admins clear blocking warnings at the trench for a job, for a few hours.
+export default async function OverridesPage() {
+  const user = await requireUser(["inspector", "admin"]);
+  const now = new Date();
+  const [jobs, heaters, quarantined, usedUp] = await Promise.all([listJobs({ status: "open" }), listHeatersWithLastCheck({ now, activeOnly: true }), listCoils({ status: "quarantined", limit: 200 }), listCoils({ status: "used-up", limit: 200 })]);
+  const active = await listOverridesForJobs({ jobIds: jobs.map((j) => j.id), at: now });
+  const blockedHeaters = heaters.filter((h) => h.isCheckOverdue || h.isFlagged);
+  return (
+    <div className="mx-auto flex w-full max-w-xl flex-col gap-4">
+      <h1 className="text-2xl font-bold">Clear a blocking warning at the trench</h1>
+      <p>
+        A heater plate whose surface-temperature check is overdue or failed, or a coil that is quarantined or used up, stops a fuser from recording a joint. Clear it for one job and a few hours only when you know it is safe; the override, your name and your reason go on every
+        joint made under it.
+      </p>
+      <GrantOverrideForm
+        userName={user.name}
+        jobs={jobs.map((j) => ({ id: j.id, label: `${j.code} · ${j.name}` }))}
+        heaters={blockedHeaters.map((h) => ({ id: h.id, label: `${h.assetTag}: ${h.problems.join(" ")}` }))}
+        coils={[...quarantined, ...usedUp].map((c) => ({ id: c.id, label: `${c.coilCode}: ${c.status}${c.statusReason ? ` (${c.statusReason})` : ""}` }))}
+      />
+      <section aria-labelledby="active-heading" className="flex flex-col gap-2">
+        <h2 id="active-heading" className="text-xl font-bold">
+          Overrides in force
+        </h2>
+        {active.length === 0 ? <p>None.</p> : null}
+        <ul className="flex flex-col gap-2">
+          {active.map((o) => (
+            <li key={o.id} className="rounded-md border-2 border-brand bg-brand-light p-3">
+              <p className="font-semibold">
+                {o.jobCode}: {o.subjectType === "heater" ? "heater plate" : "coil"} {o.subjectLabel}
+              </p>
+              <p className="text-sm">
+                By {o.grantedByName} at {o.grantedAt.toISOString().replace("T", " ").slice(0, 16)} UTC, until {o.expiresAt.toISOString().replace("T", " ").slice(0, 16)} UTC: “{o.reason}”
+              </p>
+            </li>
+          ))}
+        </ul>
+      </section>
+    </div>
+  );
+}
