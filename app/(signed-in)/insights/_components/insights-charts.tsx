@@ -69,7 +69,8 @@ export function InsightsCharts({ unitSystem, byWeek, byFuser, byMachine, finding
   const day = (t: number) => new Date(t).toISOString().slice(0, 10);
   const coolingOk = cooling.filter((c) => c.recorded >= c.required);
   const coolingShort = cooling.filter((c) => c.recorded < c.required);
-  const coolingMax = Math.max(60, ...cooling.map((c) => Math.max(c.recorded, c.required))) * 1.05;
+  // Axis end rounded up to a whole minute, so the ticks read as plain seconds.
+  const coolingMax = Math.ceil((Math.max(60, ...cooling.map((c) => Math.max(c.recorded, c.required))) * 1.05) / 60) * 60;
   const groupChart = (rows: (Yield & { label: string })[]) => (
     <ResponsiveContainer width="100%" height="100%">
       <BarChart data={rows} layout="vertical" margin={{ left: 24, right: 16 }}>
@@ -134,7 +135,7 @@ export function InsightsCharts({ unitSystem, byWeek, byFuser, byMachine, finding
           <ResponsiveContainer width="100%" height="100%">
             <BarChart data={findings} margin={{ right: 16 }}>
               <CartesianGrid strokeDasharray="3 3" />
-              <XAxis dataKey="label" interval={0} angle={-20} textAnchor="end" height={60} />
+              <XAxis dataKey="label" interval={0} angle={-25} textAnchor="end" height={90} tick={{ fontSize: 12 }} />
               <YAxis allowDecimals={false} />
               <Tooltip />
               <Bar dataKey="joints" name="Joints with a finding" fill={FAIL} isAnimationActive={false} />
@@ -191,7 +192,7 @@ export function InsightsCharts({ unitSystem, byWeek, byFuser, byMachine, finding
           <ResponsiveContainer width="100%" height="100%">
             <ComposedChart data={heaterData} margin={{ right: 16 }}>
               <CartesianGrid strokeDasharray="3 3" />
-              <XAxis dataKey="t" type="number" scale="time" domain={["dataMin", "dataMax"]} tickFormatter={day} />
+              <XAxis dataKey="t" type="number" scale="time" domain={["dataMin", "dataMax"]} tickFormatter={day} minTickGap={48} />
               <YAxis domain={["auto", "auto"]} label={{ value: tUnit, angle: -90, position: "insideLeft" }} />
               <Tooltip labelFormatter={(t) => day(Number(t))} />
               <Legend />
