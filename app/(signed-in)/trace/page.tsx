@@ -11,6 +11,13 @@ import { RunSchematic } from "./_components/run-schematic";
 
 export const dynamic = "force-dynamic";
 
+const MATCHED_BY = {
+  lot: "Found by lot number.",
+  "coil-id": "Found by coil id: the whole lot of that coil is shown.",
+  "trace-code": "Found by traceability code: every lot whose coils carry it is shown.",
+  none: "",
+} as const;
+
 const input = "min-h-touch rounded-md border-2 border-slate-400 bg-white px-3";
 
 // Trace: lot → ground (every coil of a lot and every joint made with them) and joint → origins.
@@ -114,6 +121,7 @@ export default async function TracePage({ searchParams }: { searchParams: Promis
               ? "No lot matches this search."
               : `${trace.lots.map((l) => `${l.manufacturer} lot ${l.lot}`).join("; ")}: ${trace.coils.length} coil${trace.coils.length === 1 ? "" : "s"}, ${trace.joints.length}${trace.truncated ? "+" : ""} joint${trace.joints.length === 1 ? "" : "s"}${outOfLimits ? ` (${outOfLimits} out of limits)` : ""}`}
           </h2>
+          {trace.lots.length ? <p className="text-sm">{MATCHED_BY[trace.matchedBy]}</p> : null}
           {trace.lots.length ? (
             <p>
               <a href={`/api/v1/trace/lot/export?${exportQuery}`} download className="inline-flex min-h-touch items-center rounded-md border-2 border-brand bg-white px-4 font-semibold text-brand">

@@ -4,7 +4,7 @@
 // (and kept on the coil). The receipt inspection shows its verdict before saving.
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useRouter } from "next/navigation";
-import { useMemo, useState } from "react";
+import { useCallback, useMemo, useState } from "react";
 import { useForm, useWatch } from "react-hook-form";
 import type { z } from "zod";
 import { Field, FormMessage } from "@/components/form/field";
@@ -15,6 +15,7 @@ import { PIPE_SERIES, findPipeSize, pipeSizes, type PipeSeries } from "@/domain/
 import { parseTraceCode } from "@/domain/trace-code/trace-code";
 import { fromDisplay } from "@/domain/units/format";
 import { receiveCoilAction } from "../actions";
+import { CodeScanner } from "./code-scanner";
 
 type Input = z.input<typeof receiveCoilSchema>;
 type Output = z.output<typeof receiveCoilSchema>;
@@ -35,6 +36,7 @@ export function ReceiveCoilForm({
   const router = useRouter();
   const [message, setMessage] = useState<string | null>(null);
   const [filledFromCode, setFilledFromCode] = useState<string[]>([]);
+  const [scanning, setScanning] = useState(false);
   const smallUnit = unitSystem === "us" ? "in" : "mm";
   const { register, handleSubmit, formState, setValue, getValues, setError, control } = useForm<Input, unknown, Output>({
     resolver: zodResolver(receiveCoilSchema),
@@ -122,6 +124,17 @@ export function ReceiveCoilForm({
     setFilledFromCode(filled);
   }
 
+  const onScanned = useCallback(
+    (text: string) => {
+      setScanning(false);
+      setValue("traceCode", text.trim(), { shouldDirty: true });
+      fillFromCode(text);
+    },
+    // fillFromCode reads the form through getValues/setValue, which are stable.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+    [setValue],
+  );
+
   const onSubmit = handleSubmit(async (input) => {
     setMessage(null);
     const result = await receiveCoilAction(input);
@@ -153,6 +166,15 @@ export function ReceiveCoilForm({
           }}
           error={errors.traceCode?.message ?? (traceCodeText && !parseTraceCode(traceCodeText).ok ? (parseTraceCode(traceCodeText) as { error: string }).error : undefined)}
         />
+        <div className="sm:col-span-2">
+          {scanning ? (
+            <CodeScanner onResult={onScanned} onClose={() => setScanning(false)} />
+          ) : (
+            <Button type="button" variant="secondary" onClick={() => setScanning(true)}>
+              Scan the code with the camera
+            </Button>
+          )}
+        </div>
         {filledFromCode.length > 0 ? (
           <p role="status" className="text-sm text-brand-dark sm:col-span-2">
             Filled from the code: {filledFromCode.join(", ")}.
