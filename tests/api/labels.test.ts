@@ -8,7 +8,8 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { GET as coilLabel } from "@/app/api/v1/labels/coils/[id]/route";
 import { GET as jointLabel } from "@/app/api/v1/labels/joints/[id]/route";
 import { closeDb } from "@/database/client";
-import { closeOwnerDb, ownerDb, resetDatabase, seedDemo, userIdByEmail } from "../support/db";
+import { seed as seedScenario } from "@/database/seeds/01-demo";
+import { closeOwnerDb, ownerDb, resetDatabase, userIdByEmail } from "../support/db";
 import { requestAs } from "../support/session";
 import { makeUser } from "../support/users";
 
@@ -27,7 +28,8 @@ const params = (id: number | string) => ({ params: Promise.resolve({ id: String(
 
 beforeAll(async () => {
   await resetDatabase();
-  await seedDemo(new Date("2026-12-01T12:00:00Z"));
+  // The scenario without the demo joints: these tests insert exactly the joints they count.
+  await seedScenario(ownerDb(), new Date("2026-12-01T12:00:00Z"));
   clerk = { id: await userIdByEmail("clerk@larkmoor-gas.example") };
   fuser = { id: await userIdByEmail("fuser@larkmoor-gas.example") };
   inspector = await makeUser({ roles: ["inspector"] });

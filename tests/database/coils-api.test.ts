@@ -5,7 +5,8 @@ import { GET as getCoilById } from "@/app/api/v1/coils/[id]/route";
 import { POST as moveStatus } from "@/app/api/v1/coils/[id]/status/route";
 import { GET as lookupCoils, POST as receive } from "@/app/api/v1/coils/route";
 import { closeDb } from "@/database/client";
-import { closeOwnerDb, ownerDb, resetDatabase, seedDemo, userIdByEmail } from "../support/db";
+import { seed as seedScenario } from "@/database/seeds/01-demo";
+import { closeOwnerDb, ownerDb, resetDatabase, userIdByEmail } from "../support/db";
 import { requestAs } from "../support/session";
 
 let clerk: { id: number };
@@ -32,7 +33,8 @@ const coil = {
 
 beforeAll(async () => {
   await resetDatabase();
-  await seedDemo(new Date("2026-12-01T12:00:00Z"));
+  // The scenario without the demo joints: these tests insert exactly the joints they count.
+  await seedScenario(ownerDb(), new Date("2026-12-01T12:00:00Z"));
   clerk = { id: await userIdByEmail("clerk@larkmoor-gas.example") };
   fuser = { id: await userIdByEmail("fuser@larkmoor-gas.example") };
 });

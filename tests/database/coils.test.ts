@@ -7,7 +7,8 @@ import { closeDb, db } from "@/database/client";
 import { drawDownCoil, findCoilByCode, findCoilByCodeOrTrace, findCoilById, listCoilEvents } from "@/database/queries/coils";
 import { receiveCoilSchema } from "@/domain/coil-life/schemas";
 import { AppError } from "@/domain/result";
-import { closeOwnerDb, ownerDb, resetDatabase, seedDemo, userIdByEmail } from "../support/db";
+import { seed as seedScenario } from "@/database/seeds/01-demo";
+import { closeOwnerDb, ownerDb, resetDatabase, userIdByEmail } from "../support/db";
 
 // Hand-built from ASTM F2897-23a (worked in tests/domain/coil-life.test.ts): QF, lot 4410021, 2026-08-14, PE4710, coiled pipe, 2" IPS SDR 11.
 const CODE_LOT_4410021 = "QFivfn5SWH123Kj0";
@@ -30,7 +31,8 @@ async function caught(promise: Promise<unknown>): Promise<AppError> {
 
 beforeAll(async () => {
   await resetDatabase();
-  await seedDemo(new Date("2026-12-01T12:00:00Z"));
+  // The scenario without the demo joints: these tests insert exactly the joints they count.
+  await seedScenario(ownerDb(), new Date("2026-12-01T12:00:00Z"));
   clerkId = await userIdByEmail("clerk@larkmoor-gas.example");
   fuserId = await userIdByEmail("fuser@larkmoor-gas.example");
   // Two coils of lot 4410021 carry the lot's F2897 code: one on a trailer, one in use.

@@ -6,7 +6,8 @@ import { GET as origins } from "@/app/api/v1/trace/joints/[id]/route";
 import { GET as exportLot } from "@/app/api/v1/trace/lot/export/route";
 import { GET as traceLot } from "@/app/api/v1/trace/lot/route";
 import { closeDb } from "@/database/client";
-import { closeOwnerDb, ownerDb, resetDatabase, seedDemo, userIdByEmail } from "../support/db";
+import { seed as seedScenario } from "@/database/seeds/01-demo";
+import { closeOwnerDb, ownerDb, resetDatabase, userIdByEmail } from "../support/db";
 import { requestAs } from "../support/session";
 
 let clerk: { id: number };
@@ -17,7 +18,8 @@ const none = { params: Promise.resolve({}) } as never;
 
 beforeAll(async () => {
   await resetDatabase();
-  await seedDemo(new Date("2026-12-01T12:00:00Z"));
+  // The scenario without the demo joints: these tests insert exactly the joints they count.
+  await seedScenario(ownerDb(), new Date("2026-12-01T12:00:00Z"));
   clerk = { id: await userIdByEmail("clerk@larkmoor-gas.example") };
   fuser = { id: await userIdByEmail("fuser@larkmoor-gas.example") };
   inspector = { id: await userIdByEmail("inspector@larkmoor-gas.example") };

@@ -8,7 +8,8 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { traceJointOrigins } from "@/app/(signed-in)/trace/_lib/origins";
 import { closeDb } from "@/database/client";
 import { findJointIdByReference, findLotCoils, listJointsForCoils, traceLot } from "@/database/queries/trace";
-import { closeOwnerDb, ownerDb, resetDatabase, seedDemo, userIdByEmail } from "../support/db";
+import { seed as seedScenario } from "@/database/seeds/01-demo";
+import { closeOwnerDb, ownerDb, resetDatabase, userIdByEmail } from "../support/db";
 
 const TODAY = new Date("2026-12-01T12:00:00Z");
 const LOT = { manufacturer: "Quillfield Polymers", lot: "4410021" };
@@ -57,7 +58,8 @@ async function insertJoint(name: string, { job, a, b, text, fuser = "fuser", mad
 
 beforeAll(async () => {
   await resetDatabase();
-  await seedDemo(TODAY);
+  // The scenario without the demo joints: these tests insert exactly the joints they count.
+  await seedScenario(ownerDb(), TODAY);
   for (const code of ["LV-C0001", "LV-C0002", "LV-C0003", "LV-C0004", "LV-C0005", "LV-C0007", "LV-C0008", "LV-C0012"]) ids[code] = await idOf("coils", "coil_code", code);
   ids["WO-24117"] = await idOf("jobs", "code", "WO-24117");
   ids["WO-24152"] = await idOf("jobs", "code", "WO-24152");
