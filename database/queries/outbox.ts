@@ -388,3 +388,8 @@ export async function countWaitingDigestItems({ userId }: { userId?: number } = 
   const row = await q.count({ n: "*" }).first();
   return Number(row?.n ?? 0);
 }
+
+/** A person's choice between one mail per alert and one summary a day. */
+export async function updateDailyDigest({ userId, dailyDigest }: { userId: number; dailyDigest: boolean }, trx?: Db): Promise<void> {
+  await conn(trx)("users").where({ id: userId }).update({ daily_digest: dailyDigest });
+}

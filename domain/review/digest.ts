@@ -54,3 +54,9 @@ export function composeDigest(events: readonly DigestEvent[], day: string): { su
   lines.push("You get one summary a day because daily digest is on for your account.");
   return { subject: `Beadline daily summary ${day}: ${events.length} ${events.length === 1 ? "event" : "events"}`, bodyText: lines.join("\n") };
 }
+
+/** Words for an outbox mail's kind (the digest headings, plus the digest itself). */
+export function mailKindLabel(kind: string): string {
+  if (kind === "daily-digest") return "Daily summary";
+  return DIGEST_SECTIONS.find((s) => s.kind === kind)?.heading ?? kind;
+}

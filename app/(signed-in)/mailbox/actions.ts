@@ -1,12 +1,13 @@
 "use server";
-// Mailbox actions (admin): give a failed mail a fresh set of attempts.
+// Mailbox actions: an admin gives a failed mail a fresh set of attempts; anyone signed in
+// chooses one mail per alert or a daily summary.
 import { revalidatePath } from "next/cache";
 import { defineAction } from "@/app/_lib/guard";
 import { db } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
-import { requeueMail } from "@/database/queries/outbox";
+import { requeueMail, updateDailyDigest } from "@/database/queries/outbox";
 import { AppError } from "@/domain/result";
-import { retryMailSchema } from "@/domain/review/schemas";
+import { mailPreferenceSchema, retryMailSchema } from "@/domain/review/schemas";
 
 export const retryMailAction = defineAction({ audience: ["admin"], schema: retryMailSchema }, async ({ id }, { user, requestId }) => {
   await db().transaction(async (trx) => {
@@ -16,4 +17,13 @@ export const retryMailAction = defineAction({ audience: ["admin"], schema: retry
   });
   revalidatePath("/mailbox");
   return { id };
+});
+
+/** Anyone signed in chooses how alerts reach them (users.daily_digest). */
+export const setMailPreferenceAction = defineAction({ audience: "signed-in", schema: mailPreferenceSchema }, async ({ dailyDigest }, { user, requestId }) => {
+  await db().transaction(async (trx) => {
+    await updateDailyDigest({ userId: user.id, dailyDigest }, trx);
+    await insertAuditEntry({ actorUserId: user.id, action: "mail-preference-set", entityType: "user", entityId: user.id, details: { dailyDigest }, requestId }, trx);
+  });
+  return { dailyDigest };
 });

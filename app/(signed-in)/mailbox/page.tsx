@@ -1,7 +1,9 @@
 import { requireUser } from "@/app/_lib/page-guard";
 import { listDevMail, spoolDir } from "@/database/queries/dev-mailbox";
 import { countOutboxByStatus, listOutbox, type MailStatus, type OutboxMail } from "@/database/queries/outbox";
+import { mailKindLabel } from "@/domain/review/digest";
 import { RetryButton } from "./_components/retry-button";
+import { MailPreference } from "./_components/mail-preference";
 
 export const dynamic = "force-dynamic";
 
@@ -25,7 +27,7 @@ const STATUS_LABELS: Record<MailStatus, string> = { queued: "Waiting", sending: 
 // Mailbox (admin): every mail Beadline has queued and what became of it, and — in
 // development — the messages the local fake mail server received.
 export default async function MailboxPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
-  await requireUser(["admin"]);
+  const user = await requireUser(["admin"]);
   const params = await searchParams;
   const statusParam = Array.isArray(params.status) ? params.status[0] : params.status;
   const status = (["queued", "sending", "sent", "failed"] as const).find((s) => s === statusParam);
@@ -34,6 +36,9 @@ export default async function MailboxPage({ searchParams }: { searchParams: Prom
   return (
     <div className="flex flex-col gap-6">
       <h1 className="text-2xl font-bold">Mailbox</h1>
+      <div className="max-w-md">
+        <MailPreference dailyDigest={user.dailyDigest} />
+      </div>
       <section aria-labelledby="outbox-heading" className="flex flex-col gap-2">
         <h2 id="outbox-heading" className="text-xl font-bold">
           Outbox
@@ -86,7 +91,7 @@ export default async function MailboxPage({ searchParams }: { searchParams: Prom
                     <th scope="row" className="pr-2 font-normal">
                       {m.subject}
                     </th>
-                    <td className="pr-2">{m.kind}</td>
+                    <td className="pr-2">{mailKindLabel(m.kind)}</td>
                     <td className={`pr-2 font-semibold ${m.status === "failed" ? "text-fail" : m.status === "sent" ? "text-pass" : ""}`}>{stateWords(m)}</td>
                     <td className="pr-2">{m.lastError ?? ""}</td>
                     <td>{m.status === "failed" ? <RetryButton id={m.id} subject={m.subject} /> : null}</td>

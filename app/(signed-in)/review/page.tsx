@@ -4,6 +4,7 @@ import { reviewQueueFilterSchema } from "@/domain/review/schemas";
 import { PARAMETER_LABELS } from "@/domain/review/labels";
 import { ReviewQueue } from "./_components/review-queue";
 import { toQueueItemView } from "./_lib/view";
+import { MailPreference } from "../mailbox/_components/mail-preference";
 
 export const dynamic = "force-dynamic";
 
@@ -35,6 +36,9 @@ export default async function ReviewPage({ searchParams }: { searchParams: Promi
         userId={user.id}
         initialSelected={selected}
       />
+      <div className="max-w-md">
+        <MailPreference dailyDigest={user.dailyDigest} />
+      </div>
     </div>
   );
 }
