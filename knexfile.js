@@ -17,7 +17,8 @@ function connectionFromEnv() {
     dateStrings: false,
     decimalNumbers: true,
     supportBigNumbers: true,
-    connectTimeout: 5000,
+    // Fail fast when the server is unreachable: every request answers 503 well within 10 s.
+    connectTimeout: 3000,
   };
 }
 
@@ -25,7 +26,7 @@ module.exports = {
   client: "mysql2",
   connection: connectionFromEnv,
   pool: { min: 0, max: Number(process.env.DATABASE_POOL_MAX || 10) },
-  acquireConnectionTimeout: 8000,
+  acquireConnectionTimeout: 4000,
   migrations: {
     directory: path.join(__dirname, "database", "migrations"),
     tableName: "knex_migrations",

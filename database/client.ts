@@ -28,13 +28,20 @@ export function conn(trx?: Db): Db {
   return trx ?? db();
 }
 
-/** Errors that mean "the database cannot be reached right now" (the app answers 503). */
+/**
+ * Errors that mean "the database cannot be reached right now" (the app answers 503): refused
+ * or dropped connections, a server shutting down, connections it killed, and what mysql2 and
+ * knex say about a connection that died under a transaction ("Can't add new command when
+ * connection is in closed state" on the ROLLBACK) — any error mysql2 marks fatal.
+ */
 export function isDatabaseUnavailable(error: unknown): boolean {
-  const code = (error as { code?: string } | null)?.code ?? "";
-  const message = String((error as { message?: string } | null)?.message ?? "");
+  const e = error as { code?: string; message?: string; fatal?: boolean } | null;
+  const code = e?.code ?? "";
+  const message = String(e?.message ?? "");
   return (
-    ["ECONNREFUSED", "ECONNRESET", "PROTOCOL_CONNECTION_LOST", "ETIMEDOUT", "EPIPE", "ER_SERVER_SHUTDOWN", "ENOTFOUND", "ER_CON_COUNT_ERROR"].includes(code) ||
-    /Knex: Timeout acquiring a connection|connect ECONNREFUSED|Connection lost|server has gone away/i.test(message)
+    e?.fatal === true ||
+    ["ECONNREFUSED", "ECONNRESET", "ECONNABORTED", "PROTOCOL_CONNECTION_LOST", "PROTOCOL_SEQUENCE_TIMEOUT", "ETIMEDOUT", "EPIPE", "EHOSTUNREACH", "ENOTFOUND", "ER_SERVER_SHUTDOWN", "ER_CON_COUNT_ERROR", "ER_CONNECTION_KILLED"].includes(code) ||
+    /Knex: Timeout acquiring a connection|connect ECONNREFUSED|Connection lost|server has gone away|connection is in closed state|Pool is destroyed|Server shutdown in progress/i.test(message)
   );
 }
 

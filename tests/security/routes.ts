@@ -78,6 +78,8 @@ export const ROUTES: readonly RouteEntry[] = [
   r("GET", "/api/v1/trace/joints/[id]", OFFICE, "none"),
   r("GET", "/api/v1/trace/lot", OFFICE, "query", { query: { lot: "4410021" } }),
   r("GET", "/api/v1/trace/lot/export", OFFICE, "query", { query: { lot: "4410021" } }),
+
+  r("GET", "/crew/evidence/[id]", ["admin"], "none"),
 ];
 
 const SIGNED_IN = "app/(signed-in)";
@@ -115,6 +117,8 @@ export const ACTIONS: readonly ActionEntry[] = [
   a(`${SIGNED_IN}/procedures/actions.ts`, "createProcedureAction", ["admin"]),
   a(`${SIGNED_IN}/procedures/actions.ts`, "publishProcedureVersionAction", ["admin"]),
   a(`${SIGNED_IN}/procedures/actions.ts`, "editVersionNotesAction", ["admin"]),
+
+  a(`${SIGNED_IN}/mailbox/actions.ts`, "retryMailAction", ["admin"]),
 ];
 
 export const ENTRIES: readonly Entry[] = [...ROUTES, ...ACTIONS];
