@@ -7,7 +7,9 @@ import { isCommonPassword, passwordProblem } from "@/domain/crew/password-policy
 import { addPersonSchema, MIN_PASSWORD_LENGTH, resetPasswordSchema } from "@/domain/crew/schemas";
 import { MAX_FAILURES_PER_ACCOUNT, MAX_FAILURES_PER_ADDRESS } from "@/domain/crew/throttle";
 import { AppError } from "@/domain/result";
+import { addPersonAction, resetPasswordAction } from "@/app/(signed-in)/crew/actions";
 import { ownerDb, resetDatabase } from "../support/db";
+import { actAs } from "../support/session";
 import { makeUser, TEST_PASSWORD } from "../support/users";
 
 describe("password length", () => {
@@ -72,6 +74,26 @@ describe("common-password list", () => {
       expect(Object.keys((error as AppError).fields ?? {})).toEqual(["newPassword"]);
       expect((error as AppError).message).toMatch(/newPassword/);
     }
+  });
+});
+
+describe("the Crew screen applies the policy", () => {
+  beforeEach(resetDatabase);
+
+  it("adding a person or resetting a password with a common password is refused, naming the field, and nothing is written", async () => {
+    const admin = await makeUser({ roles: ["admin"] });
+    const person = await makeUser({ roles: ["fuser"] });
+    await actAs(admin);
+    const before = Number((await ownerDb()("users").count({ n: "*" }).first())?.n);
+    const hashBefore = (await ownerDb()("users").where({ id: person.id }).first("password_hash")).password_hash;
+    const added = await addPersonAction({ name: "Pat Example", email: "pat@test.example", roles: ["fuser"], password: "password1234" });
+    expect(added).toMatchObject({ ok: false, status: 422, fields: { password: [expect.stringMatching(/commonly used/)] } });
+    const reset = await resetPasswordAction({ id: person.id, password: "qwertyuiop123" });
+    expect(reset).toMatchObject({ ok: false, status: 422, fields: { password: [expect.any(String)] } });
+    expect(Number((await ownerDb()("users").count({ n: "*" }).first())?.n)).toBe(before);
+    expect((await ownerDb()("users").where({ id: person.id }).first("password_hash")).password_hash).toBe(hashBefore);
+    const ok = await addPersonAction({ name: "Pat Example", email: "pat@test.example", roles: ["fuser"], password: "gravel-lantern-heater-41" });
+    expect(ok.ok).toBe(true);
   });
 });
 
