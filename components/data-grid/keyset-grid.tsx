@@ -78,6 +78,10 @@ export function KeysetGrid<Row, Raw = Row>({
     callbacks.current = { onCount, onError, parseRow };
   }, [onCount, onError, parseRow]);
 
+  const sortColId = sort?.colId;
+  const sortDir = sort?.dir;
+  const sortKey = useMemo(() => (sortColId && sortDir ? { colId: sortColId, dir: sortDir } : null), [sortColId, sortDir]);
+
   const datasource = useMemo<IDatasource>(() => {
     // cursorAt.get(n): cursor of the block starting at row n (null = the first page; END = past the last page).
     const END = Symbol("end");
@@ -118,6 +122,10 @@ export function KeysetGrid<Row, Raw = Row>({
 
     return {
       getRows: (p: IGetRowsParams) => {
+        // A header click sorts the grid before the caller's new sort reaches us: leave that
+        // request unanswered, the datasource for the new sort replaces this one.
+        const asked = p.sortModel[0];
+        if (asked && (asked.colId !== sortKey?.colId || asked.sort !== sortKey?.dir)) return;
         fetchBlock(p.startRow).then(
           (rows) => {
             callbacks.current.onError?.(null);
@@ -131,7 +139,7 @@ export function KeysetGrid<Row, Raw = Row>({
         );
       },
     };
-  }, [dataUrl, query, pageSize]);
+  }, [dataUrl, query, pageSize, sortKey]);
 
   const defs = useMemo<ColDef<Row>[]>(
     () =>

@@ -1,0 +1,593 @@
+// `npm run bench`: the Register at utility scale, measured through HTTP on `next start`.
+// Starts its own throw-away MariaDB (+ fake S3 and SMTP), loads the demo scenario and a
+// synthetic register of 1,000,000 joints, builds the app into .next-bench, signs in
+// through POST /api/v1/session, then measures: register pages (10 filter/sort views,
+// first and deep pages, HTTP beside the same query through knex), lot trace, a 100,000-row
+// XLSX export (time, server RSS, beside exceljs writing the same rows alone), and joint
+// submission under load (autocannon, 50 clients, 30 s). Prints one table and writes it as
+// JSON under tests/bench/results/. Not part of `npm test`.
+//
+// Flags: --joints <n> (default 1,000,000)  --skip-build (reuse .next-bench)  --keep (leave the stack up, print its env)
+import { spawn, spawnSync, type ChildProcess } from "node:child_process";
+import { randomUUID } from "node:crypto";
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from "node:fs";
+import os from "node:os";
+import path from "node:path";
+import { PassThrough } from "node:stream";
+import type { Knex } from "knex";
+import { ensureMariadbInstalled, freePort } from "../../database/local/mariadb";
+import { startLocalStack, type LocalStack } from "../../database/local/stack";
+import { migrateLatest, ownerKnex } from "../../database/migrate";
+import type { BenchContext, BenchFigure } from "./context";
+import { loadSyntheticRegister, type SyntheticRegister } from "./synthetic-register";
+
+const ROOT = path.resolve(__dirname, "..", "..");
+const args = process.argv.slice(2);
+const argValue = (name: string) => (args.includes(name) ? args[args.indexOf(name) + 1] : undefined);
+const JOINTS = Number(argValue("--joints") ?? 1_000_000);
+const SKIP_BUILD = args.includes("--skip-build");
+const KEEP = args.includes("--keep");
+const DIST_DIR = ".next-bench";
+const DEMO_PASSWORD = "beadline-demo-2026";
+const started = Date.now();
+const log = (line: string) => console.log(`[bench ${((Date.now() - started) / 1000).toFixed(0).padStart(4)} s] ${line}`);
+
+const figures: BenchFigure[] = [];
+const detail: Record<string, unknown> = {};
+const add = (f: BenchFigure) => figures.push(f);
+
+// ---------------------------------------------------------------------------------------
+// Small statistics and process helpers
+
+function percentile(values: number[], p: number): number {
+  const sorted = [...values].sort((a, b) => a - b);
+  if (!sorted.length) return NaN;
+  // nearest-rank percentile (NIST/Excel PERCENTILE.INC differ slightly; nearest rank is the usual latency convention)
+  const rank = Math.ceil((p / 100) * sorted.length);
+  return sorted[Math.min(sorted.length - 1, Math.max(0, rank - 1))];
+}
+const median = (v: number[]) => percentile(v, 50);
+const round = (v: number, d = 1) => Number(v.toFixed(d));
+
+async function timeIt(fn: () => Promise<unknown>): Promise<number> {
+  const t = process.hrtime.bigint();
+  await fn();
+  return Number(process.hrtime.bigint() - t) / 1e6;
+}
+
+async function repeat(fn: () => Promise<unknown>, reps: number, warmup = 3): Promise<number[]> {
+  for (let i = 0; i < warmup; i += 1) await fn();
+  const out: number[] = [];
+  for (let i = 0; i < reps; i += 1) out.push(await timeIt(fn));
+  return out;
+}
+
+function statusOf(pid: number): Record<string, number> {
+  try {
+    const text = readFileSync(`/proc/${pid}/status`, "utf8");
+    const out: Record<string, number> = {};
+    for (const key of ["VmRSS", "VmHWM"]) {
+      const m = new RegExp(`^${key}:\\s+(\\d+) kB`, "m").exec(text);
+      if (m) out[key] = Number(m[1]) / 1024;
+    }
+    return out;
+  } catch {
+    return {};
+  }
+}
+
+/** The pid and every descendant (next start may fork its server). */
+function processTree(root: number): number[] {
+  const children = new Map<number, number[]>();
+  for (const entry of readdirSync("/proc")) {
+    if (!/^\d+$/.test(entry)) continue;
+    try {
+      const stat = readFileSync(`/proc/${entry}/stat`, "utf8");
+      const ppid = Number(stat.slice(stat.lastIndexOf(")") + 2).split(" ")[1]);
+      children.set(ppid, [...(children.get(ppid) ?? []), Number(entry)]);
+    } catch {
+      /* process ended */
+    }
+  }
+  const out: number[] = [];
+  const walk = (p: number) => {
+    out.push(p);
+    for (const c of children.get(p) ?? []) walk(c);
+  };
+  walk(root);
+  return out;
+}
+
+/** The process of the tree using the most memory: the Next.js server. */
+function serverPidOf(root: number): number {
+  let best = root;
+  let bestRss = -1;
+  for (const p of processTree(root)) {
+    const rss = statusOf(p).VmRSS ?? 0;
+    if (rss > bestRss) {
+      best = p;
+      bestRss = rss;
+    }
+  }
+  return best;
+}
+
+function sampleRss(pid: number, everyMs = 20): { stop: () => { peakMb: number; samples: number } } {
+  let peak = statusOf(pid).VmRSS ?? 0;
+  let samples = 0;
+  const timer = setInterval(() => {
+    const rss = statusOf(pid).VmRSS ?? 0;
+    samples += 1;
+    if (rss > peak) peak = rss;
+  }, everyMs);
+  return {
+    stop: () => {
+      clearInterval(timer);
+      const rss = statusOf(pid).VmRSS ?? 0;
+      return { peakMb: Math.max(peak, rss), samples };
+    },
+  };
+}
+
+async function waitForHttp(url: string, timeoutMs: number, child: ChildProcess): Promise<void> {
+  const deadline = Date.now() + timeoutMs;
+  while (Date.now() < deadline) {
+    if (child.exitCode !== null) throw new Error(`next start exited with code ${child.exitCode}`);
+    try {
+      const res = await fetch(url, { redirect: "manual" });
+      if (res.status < 500) return;
+    } catch {
+      /* not yet */
+    }
+    await new Promise((r) => setTimeout(r, 250));
+  }
+  throw new Error(`${url} did not answer within ${timeoutMs / 1000} s`);
+}
+
+// ---------------------------------------------------------------------------------------
+
+async function signIn(baseUrl: string, email: string, password: string): Promise<string> {
+  const res = await fetch(`${baseUrl}/api/v1/session`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ email, password }) });
+  if (res.status !== 200) throw new Error(`sign-in of ${email} answered ${res.status}: ${await res.text()}`);
+  const cookie = (res.headers.getSetCookie?.() ?? [res.headers.get("set-cookie") ?? ""]).map((c) => c.split(";")[0]).find((c) => c.startsWith("beadline_session="));
+  if (!cookie) throw new Error("sign-in gave no session cookie");
+  return cookie;
+}
+
+type View = { name: string; params: Record<string, string>; sort: "madeAt" | "number" | "pipeSize" | "heaterTemperature"; dir: "asc" | "desc"; deepKeys: (number | null)[]; deepId: number };
+
+async function measureRegister(baseUrl: string, cookie: string, data: SyntheticRegister): Promise<void> {
+  const { encodeCursor, registerPageQuerySchema, pickFilter } = await import("../../domain/register");
+  const { listRegisterPage } = await import("../../database/queries/register");
+  const mid = Math.round((data.firstMadeAt.getTime() + data.lastMadeAt.getTime()) / 2);
+  const midId = Math.round(data.joints / 2);
+  const job = data.firstJobId + Math.floor(data.joints / 500 / 2);
+  const views: View[] = [
+    { name: "whole register, newest first", params: {}, sort: "madeAt", dir: "desc", deepKeys: [mid], deepId: Number.MAX_SAFE_INTEGER },
+    { name: "whole register, heater temperature high→low", params: {}, sort: "heaterTemperature", dir: "desc", deepKeys: [219], deepId: midId },
+    { name: "one fuser, newest first", params: { fuser: String(data.fuserIds[17]) }, sort: "madeAt", dir: "desc", deepKeys: [mid], deepId: Number.MAX_SAFE_INTEGER },
+    { name: "one job by joint number", params: { job: String(job) }, sort: "number", dir: "asc", deepKeys: [job, 250], deepId: 1 },
+    { name: "one month, newest first", params: { from: "2021-06-01", to: "2021-06-30" }, sort: "madeAt", dir: "desc", deepKeys: [Date.parse("2021-06-15T12:00:00Z")], deepId: Number.MAX_SAFE_INTEGER },
+    { name: "out of limits, newest first", params: { outcome: "out-of-limits" }, sort: "madeAt", dir: "desc", deepKeys: [mid], deepId: Number.MAX_SAFE_INTEGER },
+    { name: "pending review, newest first", params: { review: "pending-review" }, sort: "madeAt", dir: "desc", deepKeys: [mid], deepId: Number.MAX_SAFE_INTEGER },
+    { name: "one machine by pipe size", params: { machine: String(data.machineIds[7]) }, sort: "pipeSize", dir: "asc", deepKeys: [114.3, 11], deepId: 1 },
+    { name: "cooling findings, newest first", params: { finding: "cooling" }, sort: "madeAt", dir: "desc", deepKeys: [mid], deepId: Number.MAX_SAFE_INTEGER },
+    { name: "search coil id BC-0123…, oldest first", params: { q: "BC-0123" }, sort: "madeAt", dir: "asc", deepKeys: [mid], deepId: 1 },
+  ];
+  const reps = 30;
+  const rows: Record<string, unknown>[] = [];
+  for (const v of views) {
+    const query = registerPageQuerySchema.parse({ ...v.params, sort: v.sort, dir: v.dir });
+    const filter = pickFilter(query);
+    const deepCursor = { sort: v.sort, dir: v.dir, keys: v.deepKeys, id: Math.min(v.deepId, 2 ** 53 - 1) };
+    const base = new URLSearchParams({ ...v.params, sort: v.sort, dir: v.dir, limit: "100" });
+    const firstUrl = `${baseUrl}/api/v1/register?${base}&count=1`;
+    const deepUrl = `${baseUrl}/api/v1/register?${base}&after=${encodeCursor(deepCursor)}`;
+    let firstRows = 0;
+    let deepRows = 0;
+    let count: unknown = null;
+    const get = async (url: string, kind: "first" | "deep") => {
+      const res = await fetch(url, { headers: { cookie } });
+      if (res.status !== 200) throw new Error(`${v.name}: ${res.status} ${await res.text()}`);
+      const body = (await res.json()) as { rows: unknown[]; count?: unknown };
+      if (kind === "first") {
+        firstRows = body.rows.length;
+        count = body.count;
+      } else deepRows = body.rows.length;
+    };
+    const httpFirst = await repeat(() => get(firstUrl, "first"), reps);
+    const httpDeep = await repeat(() => get(deepUrl, "deep"), reps);
+    const knexFirst = await repeat(() => listRegisterPage({ filter, sort: v.sort, dir: v.dir, limit: 100 }), reps);
+    const knexDeep = await repeat(() => listRegisterPage({ filter, sort: v.sort, dir: v.dir, limit: 100, after: deepCursor }), reps);
+    const row = {
+      view: v.name,
+      count,
+      firstRows,
+      deepRows,
+      httpFirstMedian: round(median(httpFirst)),
+      httpFirstP95: round(percentile(httpFirst, 95)),
+      httpDeepMedian: round(median(httpDeep)),
+      httpDeepP95: round(percentile(httpDeep, 95)),
+      knexFirstMedian: round(median(knexFirst)),
+      knexFirstP95: round(percentile(knexFirst, 95)),
+      knexDeepMedian: round(median(knexDeep)),
+      knexDeepP95: round(percentile(knexDeep, 95)),
+    };
+    rows.push(row);
+    log(`register ${v.name}: first p95 ${row.httpFirstP95} ms (knex ${row.knexFirstP95}), deep p95 ${row.httpDeepP95} ms (knex ${row.knexDeepP95}); ${firstRows}/${deepRows} rows; count ${JSON.stringify(count)}`);
+    add({ figure: `register p95 first page: ${v.name}`, value: row.httpFirstP95, unit: "ms", target: "< 50 ms", pass: row.httpFirstP95 < 50, note: `median ${row.httpFirstMedian} ms; knex alone p95 ${row.knexFirstP95} ms (median ${row.knexFirstMedian})` });
+    add({ figure: `register p95 deep page: ${v.name}`, value: row.httpDeepP95, unit: "ms", target: "< 50 ms", pass: row.httpDeepP95 < 50, note: `median ${row.httpDeepMedian} ms; knex alone p95 ${row.knexDeepP95} ms (median ${row.knexDeepMedian})` });
+  }
+  detail.register = rows;
+}
+
+async function measureTrace(baseUrl: string, cookie: string, data: SyntheticRegister): Promise<void> {
+  const reps = 30;
+  const traceRoute = path.join(ROOT, "app", "api", "v1", "trace", "lot", "route.ts");
+  const registerUrl = `${baseUrl}/api/v1/register?${new URLSearchParams({ lot: data.traceLot, limit: "200", count: "1" })}`;
+  let registerRows = 0;
+  const registerTimes = await repeat(async () => {
+    const res = await fetch(registerUrl, { headers: { cookie } });
+    const body = (await res.json()) as { rows: unknown[] };
+    registerRows = body.rows.length;
+  }, reps);
+  if (existsSync(traceRoute)) {
+    const url = `${baseUrl}/api/v1/trace/lot?${new URLSearchParams({ manufacturer: data.traceManufacturer, lot: data.traceLot })}`;
+    let joints = 0;
+    const times = await repeat(async () => {
+      const res = await fetch(url, { headers: { cookie } });
+      if (res.status !== 200) throw new Error(`trace answered ${res.status}: ${await res.text()}`);
+      const body = (await res.json()) as { jointCount?: number; joints?: unknown[] };
+      joints = body.jointCount ?? body.joints?.length ?? 0;
+    }, reps);
+    const p95 = round(percentile(times, 95));
+    log(`lot trace (GET /api/v1/trace/lot) of a lot with ${joints} joints: p95 ${p95} ms; register lot filter p95 ${round(percentile(registerTimes, 95))} ms`);
+    add({ figure: `lot trace p95 (GET /api/v1/trace/lot, ${joints} joints)`, value: p95, unit: "ms", target: "< 100 ms", pass: p95 < 100 && joints === 200, note: `median ${round(median(times))} ms` });
+  } else {
+    log("GET /api/v1/trace/lot does not exist: measuring the register's lot filter instead");
+  }
+  const p95r = round(percentile(registerTimes, 95));
+  add({ figure: `register lot filter p95 (${registerRows} joints, one page of 200 + count)`, value: p95r, unit: "ms", target: "< 100 ms", pass: p95r < 100 && registerRows === 200, note: `median ${round(median(registerTimes))} ms` });
+}
+
+async function measureExport(baseUrl: string, cookie: string, data: SyntheticRegister, serverPid: number, owner: Knex): Promise<void> {
+  const { iterateRegisterRows } = await import("../../database/queries/register");
+  const { writeRegisterXlsx } = await import("../../app/api/v1/exports/_lib/register-files");
+  const { findProcedureVersionById } = await import("../../database/queries/procedures");
+  const filter = { machine: data.exportMachineId };
+  const params = new URLSearchParams({ format: "xlsx", machine: String(data.exportMachineId) });
+
+  // Through HTTP: first byte to last byte, server RSS sampled every 20 ms.
+  await new Promise((r) => setTimeout(r, 1500));
+  const before = statusOf(serverPid);
+  const sampler = sampleRss(serverPid);
+  const t0 = process.hrtime.bigint();
+  const res = await fetch(`${baseUrl}/api/v1/exports/register?${params}`, { headers: { cookie } });
+  if (res.status !== 200 || !res.body) throw new Error(`export answered ${res.status}: ${await res.text()}`);
+  const estimate = res.headers.get("x-beadline-row-estimate");
+  const exportId = Number(res.headers.get("x-beadline-export-id"));
+  let bytes = 0;
+  let firstByteMs = 0;
+  const reader = res.body.getReader();
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    if (!bytes) firstByteMs = Number(process.hrtime.bigint() - t0) / 1e6;
+    bytes += value.byteLength;
+  }
+  const httpMs = Number(process.hrtime.bigint() - t0) / 1e6;
+  const { peakMb, samples } = sampler.stop();
+  const after = statusOf(serverPid);
+  let row: { status: string; row_count: number } | undefined;
+  for (let i = 0; i < 100; i += 1) {
+    row = await owner("exports").where({ id: exportId }).first("status", "row_count");
+    if (row && row.status !== "running") break;
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  const rows = Number(row?.row_count ?? 0);
+  const rate = rows / (httpMs / 1000);
+  const growth = peakMb - (before.VmRSS ?? 0);
+  log(`xlsx export over HTTP: ${rows} rows, ${(bytes / 1e6).toFixed(1)} MB in ${(httpMs / 1000).toFixed(2)} s (${Math.round(rate)} rows/s, first byte ${Math.round(firstByteMs)} ms); server RSS ${round(before.VmRSS ?? 0)} → peak ${round(peakMb)} MB (+${round(growth)} MB, ${samples} samples; VmHWM ${round(after.VmHWM ?? 0)} MB); estimate header ${estimate}`);
+
+  // The same rows through exceljs alone: read them first (timed apart), then write from memory.
+  const readStart = process.hrtime.bigint();
+  const all: Awaited<ReturnType<typeof collect>> = await collect();
+  async function collect() {
+    const out = [];
+    for await (const batch of iterateRegisterRows({ filter, sort: "madeAt", dir: "desc", batchSize: 2000 })) out.push(batch);
+    return out;
+  }
+  const readMs = Number(process.hrtime.bigint() - readStart) / 1e6;
+  const sink = new PassThrough();
+  let aloneBytes = 0;
+  sink.on("data", (c: Buffer) => (aloneBytes += c.length));
+  const aloneStart = process.hrtime.bigint();
+  const alone = await writeRegisterXlsx({
+    out: sink,
+    batches: (async function* () {
+      for (const b of all) yield b;
+    })(),
+    meta: {
+      exportedBy: { name: "Bench", email: "bench@bench.example" },
+      exportedAt: new Date(),
+      system: "si",
+      filterLines: [{ label: "Fusion machine", value: "BM-EXPORT" }],
+      sortText: "Date made, newest first",
+      loadProcedures: async (ids) => {
+        const out = [];
+        for (const id of ids) {
+          const v = await findProcedureVersionById({ id });
+          if (v) out.push({ id: v.id, code: v.procedureCode, name: v.procedureName, versionNo: v.versionNo, definition: v.definition });
+        }
+        return out;
+      },
+    },
+  });
+  const aloneMs = Number(process.hrtime.bigint() - aloneStart) / 1e6;
+  const ratio = httpMs / aloneMs;
+  log(`exceljs alone, same ${alone.rowCount} rows from memory: ${(aloneMs / 1000).toFixed(2)} s (${Math.round(alone.rowCount / (aloneMs / 1000))} rows/s, ${(aloneBytes / 1e6).toFixed(1)} MB); reading the rows from MariaDB alone: ${(readMs / 1000).toFixed(2)} s; HTTP/alone ${ratio.toFixed(2)}×`);
+
+  add({ figure: "xlsx export rows", value: rows, unit: "rows", target: "100,000", pass: rows === 100_000, note: `${(bytes / 1e6).toFixed(1)} MB file` });
+  add({ figure: "xlsx export rate over HTTP", value: Math.round(rate), unit: "rows/s", target: "≥ 20,000 rows/s", pass: rate >= 20_000, note: `${(httpMs / 1000).toFixed(2)} s for ${rows} rows` });
+  add({ figure: "xlsx export server RSS growth (peak − before)", value: round(growth), unit: "MB", target: "< 150 MB", pass: growth < 150, note: `before ${round(before.VmRSS ?? 0)} MB, peak ${round(peakMb)} MB` });
+  add({ figure: "xlsx export time / exceljs alone (same rows)", value: round(ratio, 2), unit: "×", target: "≤ 1.5×", pass: ratio <= 1.5, note: `HTTP ${(httpMs / 1000).toFixed(2)} s vs exceljs alone ${(aloneMs / 1000).toFixed(2)} s (${Math.round(alone.rowCount / (aloneMs / 1000))} rows/s)` });
+  detail.export = { rows, bytes, httpMs, firstByteMs, rate, rssBeforeMb: before.VmRSS, rssPeakMb: peakMb, vmHwmMb: after.VmHWM, aloneMs, aloneRows: alone.rowCount, readMs, ratio, estimateHeader: estimate };
+
+  // CSV of the same rows, for information.
+  const csvStart = process.hrtime.bigint();
+  const csv = await fetch(`${baseUrl}/api/v1/exports/register?${new URLSearchParams({ format: "csv", machine: String(data.exportMachineId) })}`, { headers: { cookie } });
+  const csvBytes = (await csv.arrayBuffer()).byteLength;
+  const csvMs = Number(process.hrtime.bigint() - csvStart) / 1e6;
+  log(`csv export over HTTP: ${(csvBytes / 1e6).toFixed(1)} MB in ${(csvMs / 1000).toFixed(2)} s`);
+  add({ figure: "csv export rate over HTTP (same 100,000 rows)", value: Math.round(rows / (csvMs / 1000)), unit: "rows/s", pass: null, note: `${(csvMs / 1000).toFixed(2)} s, ${(csvBytes / 1e6).toFixed(1)} MB` });
+}
+
+type Autocannon = (opts: Record<string, unknown>, cb?: (err: Error | null, result: Record<string, unknown>) => void) => unknown;
+
+async function measureSubmission(baseUrl: string, owner: Knex, serverPid: number): Promise<void> {
+  // Ten open jobs for the demo fuser's crew, so submissions spread over several joint counters
+  // (each job's counter row is locked while its next number is taken).
+  const fuser = await owner("users").where({ email: "fuser@larkmoor-gas.example" }).first("id", "crew_id");
+  const demoJob = await owner("jobs").where({ code: "WO-24117" }).first("procedure_id", "crew_id");
+  const machine = await owner("fusion_machines").where({ asset_tag: "FM-201" }).first("id");
+  const heater = await owner("heater_plates").where({ asset_tag: "HP-31" }).first("id");
+  const jobIds: number[] = [];
+  for (let i = 1; i <= 10; i += 1) {
+    const [id] = await owner("jobs").insert({ code: `BL-${String(i).padStart(2, "0")}`, name: `Bench load job ${i}`, place: "Bench lane", status: "open", procedure_id: demoJob.procedure_id, crew_id: fuser.crew_id });
+    await owner("job_counters").insert({ job_id: id, last_joint_no: 0 });
+    jobIds.push(Number(id));
+  }
+  const cookie = await signIn(baseUrl, "fuser@larkmoor-gas.example", DEMO_PASSWORD);
+  let n = 0;
+  const body = (clientId: string) => ({
+    clientId,
+    jobId: jobIds[n++ % jobIds.length],
+    kind: "coil-to-coil",
+    coilA: "LV-C0001",
+    coilB: "LV-C0002",
+    machineId: machine.id,
+    heaterId: heater.id,
+    dragPressureMpa: 0.05,
+    heaterTemperatureC: 218,
+    beadUpGaugeMpa: 0.53,
+    fusionGaugeMpa: 0.53,
+    beadMm: 3,
+    heatSoakS: 90,
+    changeoverS: 5,
+    coolingS: 600,
+    timedFields: [],
+    station: "Bench 1+00",
+    ambientC: 12,
+    shelter: "none",
+    facingOk: true,
+    alignmentOk: true,
+    beadRollbackOk: true,
+    vGrooveOk: true,
+    madeAt: new Date(Date.now() - 60_000).toISOString(),
+    photoIds: [],
+  });
+  const headers = { cookie, "content-type": "application/json" };
+  const probe = await fetch(`${baseUrl}/api/v1/joints`, { method: "POST", headers, body: JSON.stringify(body(randomUUID())) });
+  const probeBody = await probe.text();
+  if (probe.status !== 201) throw new Error(`a single joint submission answered ${probe.status}: ${probeBody}`);
+  log(`probe joint: 201, outcome ${(JSON.parse(probeBody) as { joint?: { outcome?: string } }).joint?.outcome}`);
+
+  const [maxRow] = (await owner.raw("SELECT COALESCE(MAX(id), 0) AS id FROM joints")) as unknown as [{ id: number }[]];
+  const maxBefore = Number(maxRow[0].id);
+  const pending = new Map<string, Record<string, unknown>>();
+  const statuses = new Map<number, number>();
+  const answered201: string[] = [];
+  const { default: autocannon } = (await import("autocannon" as string)) as { default: Autocannon };
+  const sampler = sampleRss(serverPid, 100);
+  const result = await new Promise<Record<string, unknown>>((resolve, reject) => {
+    autocannon(
+      {
+        url: `${baseUrl}/api/v1/joints`,
+        connections: 50,
+        duration: 30,
+        method: "POST",
+        headers,
+        requests: [
+          {
+            method: "POST",
+            path: "/api/v1/joints",
+            setupRequest: (req: Record<string, unknown>, context: Record<string, unknown>) => {
+              const clientId = randomUUID();
+              const b = body(clientId);
+              context.clientId = clientId;
+              pending.set(clientId, b);
+              return { ...req, headers, body: JSON.stringify(b) };
+            },
+            onResponse: (status: number, _body: string, context: Record<string, unknown>) => {
+              statuses.set(status, (statuses.get(status) ?? 0) + 1);
+              if (status === 201) answered201.push(String(context.clientId));
+              pending.delete(String(context.clientId));
+            },
+          },
+        ],
+      },
+      (err, res) => (err ? reject(err) : resolve(res)),
+    );
+  });
+  const rss = sampler.stop();
+  // Submissions whose answer was cut off when the clock stopped: retried with the same
+  // client id, as the Trench outbox does after a dropped connection (201 new, 200 already there).
+  let retried201 = 0;
+  let retried200 = 0;
+  for (const b of pending.values()) {
+    const res = await fetch(`${baseUrl}/api/v1/joints`, { method: "POST", headers, body: JSON.stringify(b) });
+    if (res.status === 201) retried201 += 1;
+    else if (res.status === 200) retried200 += 1;
+    await res.arrayBuffer();
+  }
+  const [countRow] = (await owner.raw("SELECT COUNT(*) AS n FROM joints WHERE id > ?", [maxBefore])) as unknown as [{ n: number }[]];
+  const inDb = Number(countRow[0].n);
+  const created = statuses.get(201) ?? 0;
+  let present201 = 0;
+  for (let i = 0; i < answered201.length; i += 1000) {
+    const [rows] = (await owner.raw(`SELECT COUNT(*) AS n FROM joints WHERE client_id IN (${answered201.slice(i, i + 1000).map(() => "?").join(",")})`, answered201.slice(i, i + 1000))) as unknown as [{ n: number }[]];
+    present201 += Number(rows[0].n);
+  }
+  const requests = result.requests as { average: number; total: number };
+  const latency = result.latency as { p99: number; p50: number; average: number };
+  const errors = Number(result.errors ?? 0) + Number(result.timeouts ?? 0);
+  const non201 = [...statuses.entries()].filter(([s]) => s !== 201).reduce((a, [, c]) => a + c, 0);
+  log(`joint submission: ${requests.average} req/s, p99 ${latency.p99} ms, statuses ${JSON.stringify(Object.fromEntries(statuses))}, errors ${errors}, in flight at stop ${pending.size} (retried: ${retried201} new, ${retried200} already recorded); joints in DB ${inDb}; server peak RSS ${round(rss.peakMb)} MB`);
+  add({ figure: "joint submission (50 clients, 30 s) requests/s", value: round(requests.average), unit: "req/s", pass: null, note: `${requests.total} requests` });
+  add({ figure: "joint submission p99 latency", value: latency.p99, unit: "ms", pass: null, note: `median ${latency.p50} ms` });
+  add({ figure: "joint submission errors (non-201 answers, socket errors, timeouts)", value: errors + non201, unit: "", target: "0", pass: errors + non201 === 0, note: `statuses ${JSON.stringify(Object.fromEntries(statuses))}` });
+  const cutOff = retried200 + retried201;
+  add({
+    figure: "joints in DB = 201 answers",
+    value: `${inDb} = ${created}${cutOff ? ` + ${cutOff}` : ""}`,
+    target: "equal, none lost or doubled",
+    pass: inDb === created + cutOff && present201 === created,
+    note: `${created} answered 201 during the run (${present201} of them found by client id); ${pending.size} still in flight when autocannon stopped the clock, re-sent with the same client id as the Trench outbox does: ${retried200} were already recorded (200), ${retried201} new (201)`,
+  });
+  detail.submission = { present201, requestsPerS: requests.average, total: requests.total, latency, statuses: Object.fromEntries(statuses), errors, inFlight: pending.size, retried201, retried200, inDb, peakRssMb: rss.peakMb };
+}
+
+function printTable(): void {
+  const rows = figures.map((f) => [f.figure, `${f.value}${f.unit ? ` ${f.unit}` : ""}`, f.target ?? "—", f.pass === null ? "info" : f.pass ? "pass" : "FAIL", f.note ?? ""]);
+  const head = ["figure", "measured", "target", "result", "note"];
+  const widths = head.map((h, i) => Math.min(i === 4 ? 90 : 70, Math.max(h.length, ...rows.map((r) => r[i].length))));
+  const line = (cells: string[]) => cells.map((c, i) => c.slice(0, widths[i]).padEnd(widths[i])).join(" | ");
+  console.log("\n" + line(head));
+  console.log(widths.map((w) => "-".repeat(w)).join("-|-"));
+  for (const r of rows) console.log(line(r));
+  const failed = figures.filter((f) => f.pass === false).length;
+  console.log(`\n${figures.length} figures, ${failed} below target; total bench time ${((Date.now() - started) / 60000).toFixed(1)} min\n`);
+}
+
+async function main(): Promise<number> {
+  const tmp = mkdtempSync(path.join(os.tmpdir(), "beadline-bench-"));
+  let stack: LocalStack | null = null;
+  let server: ChildProcess | null = null;
+  let owner: Knex | null = null;
+  const stopAll = async () => {
+    if (server && server.exitCode === null) {
+      server.kill("SIGTERM");
+      for (let i = 0; i < 80 && server.exitCode === null; i += 1) await new Promise((r) => setTimeout(r, 100));
+      if (server.exitCode === null) server.kill("SIGKILL");
+    }
+    if (owner) await owner.destroy().catch(() => undefined);
+    const { closeDb } = await import("../../database/client");
+    await closeDb().catch(() => undefined);
+    if (stack) await stack.stop();
+    rmSync(tmp, { recursive: true, force: true });
+  };
+  process.on("SIGINT", () => void stopAll().then(() => process.exit(130)));
+  let code = 0;
+  try {
+    ensureMariadbInstalled(log);
+    process.env.BEADLINE_DB_BUFFER_POOL ||= "1536M";
+    log(`starting a throw-away MariaDB (buffer pool ${process.env.BEADLINE_DB_BUFFER_POOL}), object store and mail server in ${tmp}`);
+    stack = await startLocalStack({ dir: tmp, ports: "free", log });
+    await migrateLatest(stack.env.MIGRATION_DATABASE_URL);
+    stack.grantRights();
+    Object.assign(process.env, stack.env);
+    owner = ownerKnex(stack.env.MIGRATION_DATABASE_URL);
+    const seeds = readdirSync(path.join(ROOT, "database", "seeds")).filter((f) => f.endsWith(".ts")).sort();
+    for (const file of seeds) {
+      const mod = (await import(path.join(ROOT, "database", "seeds", file))) as { seed: (k: Knex, today?: Date) => Promise<void> };
+      await mod.seed(owner, new Date());
+    }
+    log(`demo scenario loaded; loading ${JOINTS.toLocaleString("en-US")} synthetic joints …`);
+    const loadStart = Date.now();
+    const data = await loadSyntheticRegister(owner, { joints: JOINTS, log });
+    const loadS = (Date.now() - loadStart) / 1000;
+    add({ figure: `bulk load of ${JOINTS.toLocaleString("en-US")} joints (+ states, findings, indexes)`, value: round(loadS, 0), unit: "s", target: "minutes, not hours", pass: loadS < 900, note: "INSERT … SELECT … WITH RECURSIVE in chunks of 100,000" });
+
+    const port = await freePort();
+    const baseUrl = `http://127.0.0.1:${port}`;
+    const serverEnv: NodeJS.ProcessEnv = { ...(process.env as Record<string, string>), ...stack.env, NODE_ENV: "production", NEXT_TELEMETRY_DISABLED: "1", BEADLINE_DIST_DIR: DIST_DIR, BEADLINE_PUBLIC_URL: baseUrl };
+    const nextBin = path.join(ROOT, "node_modules", "next", "dist", "bin", "next");
+    if (!SKIP_BUILD || !existsSync(path.join(ROOT, DIST_DIR, "BUILD_ID"))) {
+      log(`next build into ${DIST_DIR} …`);
+      const tsconfig = readFileSync(path.join(ROOT, "tsconfig.json"), "utf8");
+      const buildStart = Date.now();
+      const build = spawnSync(process.execPath, [nextBin, "build"], { cwd: ROOT, env: serverEnv, stdio: ["ignore", "ignore", "inherit"] });
+      writeFileSync(path.join(ROOT, "tsconfig.json"), tsconfig); // next build rewrites its include list
+      if (build.status !== 0) throw new Error("next build failed");
+      log(`built in ${((Date.now() - buildStart) / 1000).toFixed(0)} s`);
+    }
+    const child = spawn(process.execPath, [nextBin, "start", "-H", "127.0.0.1", "-p", String(port)], { cwd: ROOT, env: serverEnv, stdio: ["ignore", "ignore", "inherit"] });
+    server = child;
+    await waitForHttp(`${baseUrl}/sign-in`, 60_000, child);
+    const serverPid = serverPidOf(child.pid ?? 0);
+    log(`next start on ${baseUrl} (server pid ${serverPid}, RSS ${round(statusOf(serverPid).VmRSS ?? 0)} MB)`);
+    if (KEEP) console.log(Object.entries(stack.env).map(([k, v]) => `export ${k}='${v}'`).join("\n"));
+
+    const clerk = await signIn(baseUrl, "clerk@larkmoor-gas.example", DEMO_PASSWORD);
+    const steps: [string, () => Promise<void>][] = [
+      ["register pages", () => measureRegister(baseUrl, clerk, data)],
+      ["lot trace", () => measureTrace(baseUrl, clerk, data)],
+      ["export", () => measureExport(baseUrl, clerk, data, serverPid, owner!)],
+      ["joint submission", () => measureSubmission(baseUrl, owner!, serverPid)],
+    ];
+    const loadBench = path.join(__dirname, "load.ts");
+    if (existsSync(loadBench)) {
+      steps.push([
+        "further load bench (tests/bench/load.ts)",
+        async () => {
+          const mod = (await import(loadBench)) as { runLoadBench?: (ctx: BenchContext) => Promise<BenchFigure[] | void> };
+          if (typeof mod.runLoadBench !== "function") throw new Error("tests/bench/load.ts exports no runLoadBench(ctx)");
+          const ctx: BenchContext = { baseUrl, serverPid, env: stack!.env, owner: owner!, signIn: (e, p) => signIn(baseUrl, e, p), demoPassword: DEMO_PASSWORD, data, serverRssMb: () => statusOf(serverPid).VmRSS ?? 0, log };
+          const more = await mod.runLoadBench(ctx);
+          if (Array.isArray(more)) figures.push(...more);
+        },
+      ]);
+    }
+    for (const [name, step] of steps) {
+      log(`— ${name} —`);
+      try {
+        await step();
+      } catch (error) {
+        code = 1;
+        log(`${name} failed: ${(error as Error).stack ?? error}`);
+        add({ figure: `${name}: step failed`, value: String((error as Error).message).slice(0, 120), pass: false });
+      }
+    }
+    if (KEEP) {
+      log("--keep: the stack and server stay up until Ctrl-C");
+      printTable();
+      await new Promise(() => undefined);
+    }
+  } catch (error) {
+    code = 1;
+    console.error(`bench failed: ${(error as Error).stack ?? error}`);
+  } finally {
+    printTable();
+    const dir = path.join(__dirname, "results");
+    mkdirSync(dir, { recursive: true });
+    const stamp = new Date().toISOString().replace(/[:.]/g, "-");
+    const json = { at: new Date().toISOString(), joints: JOINTS, machine: { cpus: os.cpus().length, memoryGb: round(os.totalmem() / 2 ** 30), node: process.version }, minutes: round((Date.now() - started) / 60000, 1), figures, detail };
+    writeFileSync(path.join(dir, `bench-${stamp}.json`), JSON.stringify(json, null, 2));
+    writeFileSync(path.join(dir, "latest.json"), JSON.stringify(json, null, 2));
+    console.log(`results: tests/bench/results/bench-${stamp}.json`);
+    await stopAll();
+  }
+  return code !== 0 || figures.some((f) => f.pass === false) ? 1 : 0;
+}
+
+void main().then((code) => process.exit(code));
