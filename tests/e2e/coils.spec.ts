@@ -94,4 +94,16 @@ test("a seeded lot traces to its coils; a bad search names the field", async ({ 
   for (const code of ["LV-C0001", "LV-C0002", "LV-C0003", "LV-C0012"]) {
     await expect(page.getByRole("table", { name: "Coils of the lot" }).getByRole("link", { name: code })).toBeVisible();
   }
+  const joints = page.getByRole("table", { name: "Joints made with the lot" });
+  // The demo scenario records joints on this lot (database/seeds/02-demo-joints.ts).
+  await expect(joints).toBeVisible();
+  {
+    await page.screenshot({ path: "tests/e2e/artifacts/coils-trace-lot.png", fullPage: true });
+    // Joint → origins from the first joint of the lot.
+    await joints.getByRole("link").first().click();
+    await expect(page.getByRole("heading", { level: 1, name: /joint \d+: origins$/ })).toBeVisible();
+    for (const section of ["Fusion machine", "Heater plate", "Fuser", "Procedure"]) await expect(page.getByRole("heading", { level: 2, name: section })).toBeVisible();
+    await expect(page.getByRole("region", { name: "Component A" }).getByText(/Quillfield Polymers lot \d{7}/)).toBeVisible();
+    await page.screenshot({ path: "tests/e2e/artifacts/coils-trace-joint-origins.png", fullPage: true });
+  }
 });
