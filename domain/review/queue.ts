@@ -3,6 +3,7 @@
 import type { FusionPlan } from "@/domain/fusion/plan";
 import { checkJoint, type JointFinding, type JointOutcome, type JointParameter } from "@/domain/fusion/check";
 import { formatQuantity, formatRange, type QuantityKind, type UnitSystem } from "@/domain/units/format";
+import { jointMeasurements } from "@/domain/joints/measurements";
 
 /**
  * Queue order: joints out of limits first, then the rest; within each, the oldest joint
@@ -86,23 +87,7 @@ export function planVersusRecorded(plan: FusionPlan, recorded: RecordedValues, f
  */
 export function findingsForViewer(plan: FusionPlan | null, recorded: RecordedValues, stored: readonly JointFinding[], system: UnitSystem): JointFinding[] {
   if (!plan) return [...stored];
-  const visualBeadOk = recorded.beadRollbackOk === null || recorded.vGrooveOk === null ? null : recorded.beadRollbackOk && recorded.vGrooveOk;
-  const again = checkJoint(
-    plan,
-    {
-      heaterTemperatureC: recorded.heaterTemperatureC,
-      fusionGaugePressureMpa: recorded.fusionGaugeMpa,
-      beadMm: recorded.beadMm,
-      changeoverS: recorded.changeoverS,
-      coolingS: recorded.coolingS,
-      heatSoakS: recorded.heatSoakS,
-      beadUpGaugePressureMpa: recorded.beadUpGaugeMpa,
-      facingOk: recorded.facingOk,
-      alignmentOk: recorded.alignmentOk,
-      visualBeadOk,
-    },
-    { system },
-  ).findings;
+  const again = checkJoint(plan, jointMeasurements(recorded), { system }).findings;
   const key = (list: readonly JointFinding[]) => list.map((f) => `${f.parameter}:${f.kind}`).sort().join("|");
   return key(again) === key(stored) ? again : [...stored];
 }

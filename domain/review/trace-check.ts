@@ -8,18 +8,11 @@ import type { PressureSample } from "@/domain/pressure-trace/parse";
 import { measurementsFromTraceReading, type PressureTraceReading } from "@/domain/pressure-trace/read";
 import type { UnitSystem } from "@/domain/units/format";
 import type { RecordedValues } from "@/domain/review/queue";
+import { jointMeasurements } from "@/domain/joints/measurements";
 
-/** The joint's typed values as the joint check takes them. */
+/** The joint's typed values as the joint check takes them (the trench's own mapping). */
 export function measurementsFromRecorded(recorded: RecordedValues): JointMeasurements {
-  return {
-    heaterTemperatureC: recorded.heaterTemperatureC,
-    fusionGaugePressureMpa: recorded.fusionGaugeMpa,
-    beadMm: recorded.beadMm,
-    changeoverS: recorded.changeoverS,
-    coolingS: recorded.coolingS,
-    heatSoakS: recorded.heatSoakS,
-    beadUpGaugePressureMpa: recorded.beadUpGaugeMpa,
-  };
+  return jointMeasurements(recorded);
 }
 
 export type TraceCheck = {
