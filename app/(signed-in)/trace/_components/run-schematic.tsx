@@ -14,27 +14,39 @@ export function RunSchematic({ jobCode, jobName, joints, unitSystem }: { jobCode
   const lineY = 60;
   const usable = width - left - right;
   const byId = new Map(joints.map((j) => [j.id, j]));
-  const labelEvery = Math.max(1, Math.ceil(run.points.length / 40));
+  // Joint numbers alternate above and below the line; a number is skipped when it would
+  // crowd the previous one on its side (all joints stay in the table below).
+  const lastX = [-Infinity, -Infinity];
+  const labelRow = new Map<number, 0 | 1>();
+  for (const p of [...run.points].sort((a, b) => a.t - b.t)) {
+    const x = left + p.t * usable;
+    const row = x - lastX[0]! >= 22 ? 0 : x - lastX[1]! >= 22 ? 1 : null;
+    if (row !== null) {
+      lastX[row] = x;
+      labelRow.set(p.id, row);
+    }
+  }
   const titleId = `run-${jobCode.replace(/[^A-Za-z0-9]/g, "")}`;
   return (
     <figure className="flex flex-col gap-1">
       <svg viewBox={`0 0 ${width} 110`} className="w-full max-w-4xl rounded border border-slate-300 bg-white" role="img" aria-labelledby={titleId}>
         <title id={titleId}>{`${jobCode}: ${run.points.length} joints of the lot, ${BASIS_TEXT[run.basis]}`}</title>
         <line x1={left} y1={lineY} x2={width - right} y2={lineY} stroke="#0b4f6c" strokeWidth={4} />
-        <text x={left} y={lineY + 40} fontSize={12} fill="#111827">
+        <text x={left} y={lineY + 44} fontSize={12} fill="#111827">
           start
         </text>
-        <text x={width - right} y={lineY + 40} fontSize={12} textAnchor="end" fill="#111827">
+        <text x={width - right} y={lineY + 44} fontSize={12} textAnchor="end" fill="#111827">
           {run.lengthM != null ? formatQuantity(run.lengthM, "length-m", unitSystem) : "end"}
         </text>
-        {run.points.map((p, i) => {
+        {run.points.map((p) => {
           const x = left + p.t * usable;
           const joint = byId.get(p.id)!;
+          const row = labelRow.get(p.id);
           return (
             <g key={p.id}>
               {joint.outOfLimits ? <rect x={x - 6} y={lineY - 6} width={12} height={12} fill="#b91c1c" /> : <circle cx={x} cy={lineY} r={6} fill="#166534" />}
-              {i % labelEvery === 0 ? (
-                <text x={x} y={lineY - 14} fontSize={11} textAnchor="middle" fill="#111827">
+              {row !== undefined ? (
+                <text x={x} y={row === 0 ? lineY - 14 : lineY + 24} fontSize={11} textAnchor="middle" fill="#111827">
                   {p.jointNo}
                 </text>
               ) : null}
