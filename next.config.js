@@ -24,6 +24,9 @@ function securityHeaders() {
     { key: "Referrer-Policy", value: "same-origin" },
     { key: "X-Frame-Options", value: "DENY" },
     { key: "Permissions-Policy", value: "camera=(self), geolocation=(self), microphone=()" },
+    // No other site may hold a window handle on Beadline or embed its answers (photos, JSON).
+    { key: "Cross-Origin-Opener-Policy", value: "same-origin" },
+    { key: "Cross-Origin-Resource-Policy", value: "same-origin" },
   ];
   if (isProduction && process.env.BEADLINE_HSTS !== "off") {
     headers.push({ key: "Strict-Transport-Security", value: "max-age=31536000; includeSubDomains" });
