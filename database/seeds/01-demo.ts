@@ -100,20 +100,25 @@ export async function seed(knex: Knex, today = new Date()): Promise<void> {
         next_service_due: isoDaysFrom(today, m.serviceInDays + 365),
       });
     }
+    // A passing surface-temperature check each working morning for the last three weeks, so
+    // every demo joint has a check on file before it (HP-12's latest is a few days old: overdue).
     for (const h of DEMO_HEATERS) {
       const [id] = await trx("heater_plates").insert({ asset_tag: h.assetTag, description: h.description, check_interval_days: h.checkIntervalDays });
-      const checkedOn = isoDaysFrom(today, -h.lastCheckDaysAgo);
-      await trx("heater_checks").insert({
-        heater_id: id,
-        checked_at: new Date(`${checkedOn}T06:30:00Z`),
-        checked_by: userIds.get("admin"),
-        instrument: "Contact pyrometer PY-4",
-        readings: JSON.stringify({ faceA: h.readingsC.slice(0, 3), faceB: h.readingsC.slice(3) }),
-        window_min_c: 204.4,
-        window_max_c: 232.2,
-        passed: true,
-        next_due_on: isoDaysFrom(today, -h.lastCheckDaysAgo + h.checkIntervalDays),
-      });
+      for (let daysAgo = 21; daysAgo >= h.lastCheckDaysAgo; daysAgo--) {
+        const checkedOn = isoDaysFrom(today, -daysAgo);
+        const shift = daysAgo % 3; // small day-to-day spread of the readings, °C
+        await trx("heater_checks").insert({
+          heater_id: id,
+          checked_at: new Date(`${checkedOn}T06:30:00Z`),
+          checked_by: userIds.get("admin"),
+          instrument: "Contact pyrometer PY-4",
+          readings: JSON.stringify({ faceA: h.readingsC.slice(0, 3).map((r) => r - shift), faceB: h.readingsC.slice(3).map((r) => r - shift) }),
+          window_min_c: 204.4,
+          window_max_c: 232.2,
+          passed: true,
+          next_due_on: isoDaysFrom(today, -daysAgo + h.checkIntervalDays),
+        });
+      }
     }
     for (const q of DEMO_QUALIFICATIONS) {
       await trx("qualifications").insert({
