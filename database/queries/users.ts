@@ -159,12 +159,3 @@ export async function isEmailTaken({ email, exceptId }: { email: string; exceptI
   if (exceptId) q.whereNot({ id: exceptId });
   return Boolean(await q.first("id"));
 }
-
-/** Like updateUserPassword, with optimistic locking: false when `version` is stale. */
-export async function updateUserPasswordIfVersion({ id, version, passwordHash }: { id: number; version: number; passwordHash: string }, trx?: Db): Promise<boolean> {
-  const k = conn(trx);
-  const changed = await k("users")
-    .where({ id, version })
-    .update({ password_hash: passwordHash, session_version: k.raw("session_version + 1"), version: k.raw("version + 1"), updated_at: k.fn.now(3) });
-  return changed === 1;
-}

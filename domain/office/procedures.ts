@@ -50,6 +50,11 @@ export function formFieldForTighteningError(domainField: string): TighteningForm
   return '_form';
 }
 
+/** The standard's own label under earlier operator suffixes ("… — LVG-BF-01 version 2", "… (tightened)"). */
+function baseLabel(label: string): string {
+  return label.replace(/ \(tightened\)$/, '').replace(/ — \S+ version \d+$/, '');
+}
+
 export type TightenOutcome =
   | { ok: true; definition: ProcedureDefinition }
   | { ok: false; fields: Record<string, string[]> };
@@ -64,7 +69,7 @@ export function tightenFromForm(
   context: { procedureCode: string; versionNo: number },
 ): TightenOutcome {
   const result: DeriveProcedureResult = deriveProcedure(base, tighteningFromForm(input), {
-    label: input.label ?? `${base.label.replace(/ \(tightened\)$/, '')} — ${context.procedureCode} version ${context.versionNo}`,
+    label: input.label ?? `${baseLabel(base.label)} — ${context.procedureCode} version ${context.versionNo}`,
     notes: [input.note],
     system: input.units,
     source: `Operator procedure ${context.procedureCode} version ${context.versionNo}`,

@@ -45,7 +45,8 @@ function requiredText(label: string, min: number, max: number) {
   return z
     .string({ error: `Enter ${label.toLowerCase()}.` })
     .trim()
-    .min(min, { error: min <= 1 ? `Enter ${label.toLowerCase()}.` : `${label} must be at least ${min} characters.` })
+    .min(1, { error: `Enter ${label.toLowerCase()}.`, abort: true })
+    .min(min, { error: `${label} must be at least ${min} characters.` })
     .max(max, { error: `${label} must be at most ${max} characters.` });
 }
 
