@@ -158,11 +158,22 @@ async function runRoute<S extends ZodType, P>(
     }
     return response;
   } catch (error) {
+    if (isClientAbort(error, request)) {
+      // The caller hung up while sending (Node's "aborted"): not a database problem; nobody reads this answer.
+      requestLogger(requestId).info({ kind: "route", method: request.method }, "client closed the request");
+      return errorResponse("bad-request", "The request was cancelled by the client.", undefined, idHeader);
+    }
     const f = failureFromError(error, requestId);
     const headers: Record<string, string> = { ...idHeader };
     if (f.code === "unavailable") headers["retry-after"] = "5";
     return errorResponse(f.code, f.message, f.fields, headers);
   }
+}
+
+/** The client disconnected mid-request (body read aborted), as opposed to a database connection reset. */
+function isClientAbort(error: unknown, request: Request): boolean {
+  const e = error as { code?: string; message?: string } | null;
+  return Boolean(request.signal?.aborted) || (e?.code === "ECONNRESET" && e?.message === "aborted");
 }
 
 /** The caller's x-request-id when it is a short token (it reaches logs and the audit log), else a new one. */

@@ -10,11 +10,13 @@ import os from "node:os";
 import path from "node:path";
 import knexFactory, { type Knex } from "knex";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { z } from "zod";
 import { defineRoute } from "@/app/_lib/guard";
+import { captureLogs } from "@/app/_lib/log";
 import { isDatabaseUnavailable } from "@/database/client";
 import { freePort, rootSql, startMariadb, type MariadbServer } from "@/database/local/mariadb";
 import { resetDatabase } from "../support/db";
-import { requestAs } from "../support/session";
+import { cookieHeaderFor, requestAs } from "../support/session";
 import { makeUser } from "../support/users";
 
 // eslint-disable-next-line @typescript-eslint/no-require-imports
@@ -94,6 +96,29 @@ describe("database outage at the driver and guard", () => {
     expect(await res.json()).toEqual({ error: { code: "unavailable", message: expect.stringMatching(/cannot reach its database.*Nothing was saved/) } });
     server = await startMariadb({ dir, port });
   }, 60_000);
+
+  it("a client hanging up mid-body is not reported as a database outage", async () => {
+    const u = await makeUser({ roles: ["admin"] });
+    const route = defineRoute({ audience: "signed-in", schema: z.object({ a: z.string() }) }, async () => Response.json({ ok: true }));
+    const body = new ReadableStream<Uint8Array>({
+      start(controller) {
+        controller.enqueue(new TextEncoder().encode('{"a":'));
+        // What Node's HTTP server raises when the client's socket closes while the body is read.
+        controller.error(Object.assign(new Error("aborted"), { code: "ECONNRESET" }));
+      },
+    });
+    const logs = captureLogs("info");
+    try {
+      const headers = { ...(await cookieHeaderFor(u)), "content-type": "application/json" };
+      const res = await route(new Request("http://127.0.0.1:3000/api/v1/x", { method: "POST", headers, body, duplex: "half" } as RequestInit), { params: Promise.resolve({}) });
+      expect(res.status).toBe(400);
+      const msgs = logs.records().map((r) => r.msg);
+      expect(msgs).toContain("client closed the request");
+      expect(msgs).not.toContain("database unavailable");
+    } finally {
+      logs.stop();
+    }
+  });
 
   it("recognises the driver's and pool's outage errors, and not ordinary ones", () => {
     // Shapes seen from mysql2 / knex / tarn during outages (codes per the MariaDB error list).
