@@ -182,11 +182,12 @@ export async function seed(knex: Knex, today = new Date()): Promise<void> {
   await knex.transaction(async (trx) => {
     for (let i = 0; i < PLAN.length; i += 1) {
       const p = PLAN[i]!;
-      const madeAt = new Date(midnight - p.day * DAY_MS + p.hour * 3_600_000 + ((i * 17) % 50) * 60_000);
+      // Day 0 is yesterday, so no demo joint lies in the future whatever the hour of seeding.
+      const madeAt = new Date(midnight - (p.day + 1) * DAY_MS + p.hour * 3_600_000 + ((i * 17) % 50) * 60_000);
       const made = await record(trx, p, i, madeAt, null);
       if (!made) continue;
       // Older joints within limits have been reviewed and accepted by the inspector.
-      if (made.outcome === "within-limits" && p.day >= 7 && inspectorId) {
+      if (made.outcome === "within-limits" && p.day >= 6 && inspectorId) {
         const at = new Date(madeAt.getTime() + 26 * 3_600_000);
         await insertJointRevision({ jointId: made.jointId, revisionNo: 2, kind: "accepted", byUserId: inspectorId, reviewState: "accepted", reason: "Values and bead photos in order", at }, trx);
         await trx("joint_states").where({ joint_id: made.jointId }).update({ review_state: "accepted", revision_no: 2, updated_at: at });

@@ -37,10 +37,10 @@ export function OutboxPanel({ entries, online, onRetry, onRemove, onSendNow }: {
       ) : null}
       <ul className="flex flex-col gap-2" aria-label="Joints on this device">
         {shown.map((e) => (
-          <li key={e.clientId} className={`rounded-md border-2 p-3 ${STATE_STYLE[e.state]}`} aria-label={`${STATE_WORDS[e.state]}: ${e.label}`}>
+          <li key={e.clientId} className={`rounded-md border-2 p-3 ${STATE_STYLE[e.state]}`} aria-label={`${STATE_WORDS[e.state]}: ${e.jobCode ?? ""} ${e.label}`}>
             <p className="font-bold">
               {STATE_WORDS[e.state]}
-              {e.result ? `: joint ${e.result.jointNo} on ${e.result.jobCode}` : ""} · {e.label}
+              {e.result ? `: joint ${e.result.jointNo} on ${e.result.jobCode}` : ` · ${e.jobCode ?? ""}`} · {e.label}
             </p>
             <p className="text-sm">Recorded {new Date(e.createdAt).toLocaleString()}</p>
             {e.result ? (

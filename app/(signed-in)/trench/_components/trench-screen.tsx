@@ -65,7 +65,9 @@ export function TrenchScreen({ setup }: { setup: TrenchSetup }) {
   const system = setup.user.unitSystem;
   const userId = setup.user.id;
   const router = useRouter();
-  const outbox = useOutbox(userId);
+  // A joint that reached the server changes the lists this page came with (latest joints,
+  // joints waiting for a remake): reload them from the server, keeping the form as it is.
+  const outbox = useOutbox(userId, useCallback(() => router.refresh(), [router]));
   const [timers, setTimers] = useState<Record<TimedPhase, PhaseTiming>>(emptyTimers);
   const [coils, setCoils] = useState<{ A: TrenchCoil | null; B: TrenchCoil | null }>({ A: null, B: null });
   const [photos, setPhotos] = useState<PhotoRef[]>([]);
@@ -219,10 +221,11 @@ export function TrenchScreen({ setup }: { setup: TrenchSetup }) {
       const check = checkJoint(plan, jointMeasurements({ ...v, beadUpGaugeMpa: v.beadUpGaugeMpa ?? null, heatSoakS: v.heatSoakS ?? null }), { system });
       preliminary = { outcome: check.outcome, findings: check.findings.map((f) => f.message) };
     }
-    const label = `${job?.code ?? `job ${v.jobId}`} · ${v.coilA} + ${v.kind === "coil-to-coil" ? v.coilB : v.componentBText}`;
+    const label = `${v.coilA} + ${v.kind === "coil-to-coil" ? v.coilB : v.componentBText}`;
     const entry: OutboxEntry = {
       clientId: v.clientId,
       createdAt: madeAt,
+      jobCode: job?.code ?? `job ${v.jobId}`,
       label,
       payload: { ...v, madeAt },
       photos,

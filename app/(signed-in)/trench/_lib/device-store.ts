@@ -31,7 +31,8 @@ export type OutboxState = "waiting" | "sending" | "sent" | "refused";
 export type OutboxEntry = {
   clientId: string;
   createdAt: string;
-  /** "WO-24117 · LV-C0001 + LV-C0002" */
+  jobCode: string;
+  /** "LV-C0001 + LV-C0002" */
   label: string;
   payload: Omit<RecordJointRawInput, "photoIds">;
   photos: PhotoRef[];

@@ -30,11 +30,15 @@ async function fetchWithTimeout(url: string, init: RequestInit): Promise<Respons
 /** Statuses that mean "the server looked and said no": retrying the same thing will not help. */
 const REFUSED = new Set([400, 403, 404, 409, 413, 415, 422]);
 
-export function useOutbox(userId: number) {
+export function useOutbox(userId: number, onSent?: (entry: OutboxEntry) => void) {
   const [entries, setEntries] = useState<OutboxEntry[]>([]);
   const [online, setOnline] = useState(true);
   const entriesRef = useRef<OutboxEntry[]>([]);
   const busy = useRef(false);
+  const sentListener = useRef(onSent);
+  useEffect(() => {
+    sentListener.current = onSent;
+  }, [onSent]);
 
   const commit = useCallback(
     (next: OutboxEntry[]) => {
@@ -88,6 +92,7 @@ export function useOutbox(userId: number) {
         if (r.ok && body.joint) {
           update(entry.clientId, { state: "sent", photos, result: body.joint, message: null, fields: undefined });
           for (const ref of photos) void dropPhoto(ref);
+          sentListener.current?.({ ...entry, state: "sent", result: body.joint });
           return "sent";
         }
         if (REFUSED.has(r.status)) {
