@@ -186,6 +186,7 @@ export function KeysetGrid<Row, Raw = Row>({
         onRowClicked={handleRowClicked}
         onCellKeyDown={handleKeyDown}
         suppressMultiSort
+        suppressColumnVirtualisation
       />
     </div>
   );

@@ -10,19 +10,12 @@
 // (With binary logging on, creating a trigger needs SUPER or log_bin_trust_function_creators=1.)
 import type { Knex } from "knex";
 
-const TRIGGER = "joints_ai_findings";
+export const FINDINGS_TRIGGER = "joints_ai_findings";
+const TRIGGER = FINDINGS_TRIGGER;
 
-export async function up(knex: Knex): Promise<void> {
-  await knex.schema.createTable("joint_findings", (t) => {
-    t.bigInteger("joint_id").unsigned().notNullable().references("id").inTable("joints");
-    t.string("parameter", 40).notNullable();
-    t.timestamp("made_at", { precision: 3 }).notNullable();
-    t.primary(["joint_id", "parameter"]);
-    t.index(["parameter", "made_at", "joint_id"], "joint_findings_parameter_made_at_index");
-  });
-
-  await knex.raw(`
-    CREATE TRIGGER ${TRIGGER} AFTER INSERT ON joints FOR EACH ROW
+/** The trigger that splits joints.finding_parameters into joint_findings rows. */
+export const FINDINGS_TRIGGER_SQL = `
+    CREATE TRIGGER ${FINDINGS_TRIGGER} AFTER INSERT ON joints FOR EACH ROW
     BEGIN
       DECLARE rest VARCHAR(400) DEFAULT IFNULL(NEW.finding_parameters, '');
       DECLARE item VARCHAR(400);
@@ -37,15 +30,28 @@ export async function up(knex: Knex): Promise<void> {
           SET rest = SUBSTRING(rest, LOCATE(',', rest) + 1);
         END IF;
       END WHILE;
-    END`);
+    END`;
 
-  // Joints recorded before this migration.
-  await knex.raw(`
+/** Fills joint_findings for joints already in the table (bulk loads run it with the trigger off). */
+export const FINDINGS_BACKFILL_SQL = `
     INSERT IGNORE INTO joint_findings (joint_id, parameter, made_at)
     SELECT j.id, LEFT(TRIM(f.p), 40), j.made_at
     FROM joints j,
       JSON_TABLE(CONCAT('["', REPLACE(j.finding_parameters, ',', '","'), '"]'), '$[*]' COLUMNS (p VARCHAR(400) PATH '$')) f
-    WHERE j.finding_parameters IS NOT NULL AND j.finding_parameters <> '' AND TRIM(f.p) <> ''`);
+    WHERE j.finding_parameters IS NOT NULL AND j.finding_parameters <> '' AND TRIM(f.p) <> ''`;
+
+export async function up(knex: Knex): Promise<void> {
+  await knex.schema.createTable("joint_findings", (t) => {
+    t.bigInteger("joint_id").unsigned().notNullable().references("id").inTable("joints");
+    t.string("parameter", 40).notNullable();
+    t.timestamp("made_at", { precision: 3 }).notNullable();
+    t.primary(["joint_id", "parameter"]);
+    t.index(["parameter", "made_at", "joint_id"], "joint_findings_parameter_made_at_index");
+  });
+
+  await knex.raw(FINDINGS_TRIGGER_SQL);
+  // Joints recorded before this migration.
+  await knex.raw(FINDINGS_BACKFILL_SQL);
 
   await knex.schema.alterTable("joints", (t) => {
     // Sorts of the register without a filter in front (pipe size, heater temperature).

@@ -61,10 +61,16 @@ function escapeLike(text: string): string {
   return text.replace(/[\\%_]/g, (c) => `\\${c}`);
 }
 
-async function coilSet(where: Sql, trx?: Db): Promise<CoilSet | null> {
-  const [rows] = (await conn(trx).raw(`SELECT id FROM coils WHERE ${where.text} LIMIT ${MAX_COIL_LIST + 1}`, where.bindings)) as unknown as [{ id: number }[]];
+/**
+ * Coils matching each condition (each an index range of coils), as an id list, or as a
+ * subquery when more than MAX_COIL_LIST match. Conditions are ORed.
+ */
+async function coilSet(conditions: Sql[], trx?: Db): Promise<CoilSet | null> {
+  const arms = conditions.map((c) => `(SELECT id FROM coils WHERE ${c.text} LIMIT ${MAX_COIL_LIST + 1})`).join(" UNION ");
+  const bindings = conditions.flatMap((c) => c.bindings);
+  const [rows] = (await conn(trx).raw(arms, bindings)) as unknown as [{ id: number }[]];
   if (rows.length === 0) return null;
-  if (rows.length > MAX_COIL_LIST) return { subquery: { text: `SELECT id FROM coils WHERE ${where.text}`, bindings: where.bindings } };
+  if (rows.length > MAX_COIL_LIST) return { subquery: { text: `SELECT id FROM coils WHERE ${conditions.map((c) => `(${c.text})`).join(" OR ")}`, bindings } };
   return { ids: rows.map((r) => Number(r.id)) };
 }
 
@@ -72,21 +78,25 @@ async function coilSet(where: Sql, trx?: Db): Promise<CoilSet | null> {
 async function resolveFilter(filter: RegisterFilter, trx?: Db): Promise<Resolved> {
   const out: Resolved = { filter, lotCoils: null, search: null, isEmpty: false };
   if (filter.lot) {
-    out.lotCoils = await coilSet({ text: "lot = ?", bindings: [filter.lot] }, trx);
+    out.lotCoils = await coilSet([{ text: "lot = ?", bindings: [filter.lot] }], trx);
     if (!out.lotCoils) out.isEmpty = true;
   }
   if (filter.q) {
     const q = filter.q.trim();
     const prefix = `${escapeLike(q)}%`;
-    const coils = await coilSet({ text: "(coil_code LIKE ? OR lot LIKE ?)", bindings: [prefix, prefix] }, trx);
-    let jointNo: number | null = null;
-    let jobJoint: { jobId: number; jointNo: number } | null = null;
-    if (/^\d{1,9}$/.test(q)) jointNo = Number(q);
     const m = /^(.+?)[-/ #]+(\d{1,9})$/.exec(q);
-    if (m) {
-      const job = await conn(trx)("jobs").where("code", m[1]).first("id");
-      if (job) jobJoint = { jobId: Number(job.id), jointNo: Number(m[2]) };
-    }
+    const [coils, job] = await Promise.all([
+      coilSet(
+        [
+          { text: "coil_code LIKE ?", bindings: [prefix] },
+          { text: "lot LIKE ?", bindings: [prefix] },
+        ],
+        trx,
+      ),
+      m ? conn(trx)("jobs").where("code", m[1]).first("id") : Promise.resolve(null),
+    ]);
+    const jointNo = /^\d{1,9}$/.test(q) ? Number(q) : null;
+    const jobJoint = m && job ? { jobId: Number(job.id), jointNo: Number(m[2]) } : null;
     out.search = { coils, jointNo, jobJoint };
     if (!coils && jointNo === null && !jobJoint) out.isEmpty = true;
   }
@@ -381,22 +391,28 @@ export async function findRegisterRowsByIds({ ids }: { ids: number[] }, trx?: Db
   return ids.map((id) => byId.get(id)).filter((r): r is RegisterRow => Boolean(r));
 }
 
-export type RegisterPage = { rows: RegisterRow[]; next: RegisterCursor | null };
+export type RegisterPage = { rows: RegisterRow[]; next: RegisterCursor | null; count?: RegisterCount };
 
 /**
  * One page of the register under `filter`, in `sort`/`dir` order, strictly after the
- * cursor `after` (the first page without one). `next` is null on the last page.
+ * cursor `after` (the first page without one). `next` is null on the last page. With
+ * `withCount`, the count (see countRegister) is taken alongside.
  */
 export async function listRegisterPage(
-  { filter, sort = "madeAt", dir = "desc", after, limit = 100 }: { filter: RegisterFilter; sort?: RegisterSort; dir?: SortDirection; after?: RegisterCursor; limit?: number },
+  { filter, sort = "madeAt", dir = "desc", after, limit = 100, withCount = false }: { filter: RegisterFilter; sort?: RegisterSort; dir?: SortDirection; after?: RegisterCursor; limit?: number; withCount?: boolean },
   trx?: Db,
 ): Promise<RegisterPage> {
   const resolved = await resolveFilter(filter, trx);
-  if (resolved.isEmpty) return { rows: [], next: null };
-  const step1 = await pageIds(resolved, sort, dir, after, limit, trx);
-  const rows = await findRegisterRowsByIds({ ids: step1.ids }, trx);
-  const next = step1.hasMore && step1.last ? { sort, dir, keys: step1.last.keys, id: step1.last.id } : null;
-  return { rows, next };
+  if (resolved.isEmpty) return { rows: [], next: null, ...(withCount ? { count: { value: 0, isEstimate: false } } : {}) };
+  const page = async () => {
+    const step1 = await pageIds(resolved, sort, dir, after, limit, trx);
+    const rows = await findRegisterRowsByIds({ ids: step1.ids }, trx);
+    const next = step1.hasMore && step1.last ? { sort, dir, keys: step1.last.keys, id: step1.last.id } : null;
+    return { rows, next };
+  };
+  if (!withCount) return page();
+  const [p, count] = await Promise.all([page(), countResolved(resolved, EXACT_COUNT_CAP, trx)]);
+  return { ...p, count };
 }
 
 /**
@@ -427,6 +443,11 @@ export type RegisterCount = { value: number; isEstimate: boolean };
 export async function countRegister({ filter, cap = EXACT_COUNT_CAP }: { filter: RegisterFilter; cap?: number }, trx?: Db): Promise<RegisterCount> {
   const resolved = await resolveFilter(filter, trx);
   if (resolved.isEmpty) return { value: 0, isEstimate: false };
+  return countResolved(resolved, cap, trx);
+}
+
+async function countResolved(resolved: Resolved, cap: number, trx?: Db): Promise<RegisterCount> {
+  const { filter } = resolved;
   const built = buildBase(resolved, "madeAt");
   const whereSql = built.where.length ? ` WHERE ${built.where.join(" AND ")}` : "";
   const inner = `SELECT 1 FROM ${built.from}${whereSql}`;

@@ -1,7 +1,7 @@
 // `npm run bench`: the Register at utility scale, measured through HTTP on `next start`.
 // Starts its own throw-away MariaDB (+ fake S3 and SMTP), loads the demo scenario and a
 // synthetic register of 1,000,000 joints, builds the app into .next-bench, signs in
-// through POST /api/v1/session, then measures: register pages (10 filter/sort views,
+// through POST /api/v1/session, then measures: register pages (11 filter/sort views,
 // first and deep pages, HTTP beside the same query through knex), lot trace, a 100,000-row
 // XLSX export (time, server RSS, beside exceljs writing the same rows alone), and joint
 // submission under load (autocannon, 50 clients, 30 s). Prints one table and writes it as
@@ -170,7 +170,8 @@ async function measureRegister(baseUrl: string, cookie: string, data: SyntheticR
     { name: "one month, newest first", params: { from: "2021-06-01", to: "2021-06-30" }, sort: "madeAt", dir: "desc", deepKeys: [Date.parse("2021-06-15T12:00:00Z")], deepId: Number.MAX_SAFE_INTEGER },
     { name: "out of limits, newest first", params: { outcome: "out-of-limits" }, sort: "madeAt", dir: "desc", deepKeys: [mid], deepId: Number.MAX_SAFE_INTEGER },
     { name: "pending review, newest first", params: { review: "pending-review" }, sort: "madeAt", dir: "desc", deepKeys: [mid], deepId: Number.MAX_SAFE_INTEGER },
-    { name: "one machine by pipe size", params: { machine: String(data.machineIds[7]) }, sort: "pipeSize", dir: "asc", deepKeys: [114.3, 11], deepId: 1 },
+    { name: "whole register by pipe size", params: {}, sort: "pipeSize", dir: "asc", deepKeys: [114.3, 11], deepId: midId },
+    { name: "one machine in one year, newest first", params: { machine: String(data.machineIds[7]), from: "2020-01-01", to: "2020-12-31" }, sort: "madeAt", dir: "desc", deepKeys: [Date.parse("2020-07-01T00:00:00Z")], deepId: Number.MAX_SAFE_INTEGER },
     { name: "cooling findings, newest first", params: { finding: "cooling" }, sort: "madeAt", dir: "desc", deepKeys: [mid], deepId: Number.MAX_SAFE_INTEGER },
     { name: "search coil id BC-0123…, oldest first", params: { q: "BC-0123" }, sort: "madeAt", dir: "asc", deepKeys: [mid], deepId: 1 },
   ];
@@ -197,7 +198,7 @@ async function measureRegister(baseUrl: string, cookie: string, data: SyntheticR
     };
     const httpFirst = await repeat(() => get(firstUrl, "first"), reps);
     const httpDeep = await repeat(() => get(deepUrl, "deep"), reps);
-    const knexFirst = await repeat(() => listRegisterPage({ filter, sort: v.sort, dir: v.dir, limit: 100 }), reps);
+    const knexFirst = await repeat(() => listRegisterPage({ filter, sort: v.sort, dir: v.dir, limit: 100, withCount: true }), reps);
     const knexDeep = await repeat(() => listRegisterPage({ filter, sort: v.sort, dir: v.dir, limit: 100, after: deepCursor }), reps);
     const row = {
       view: v.name,

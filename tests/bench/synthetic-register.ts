@@ -12,6 +12,7 @@
 //     that plan's windows, and for the 8 % out of limits a value outside the window of
 //     its finding parameter (no bead finding under the ISO procedure, which sets no bead minimum); a first revision, and a review revision once decided.
 import type { Knex } from "knex";
+import { FINDINGS_BACKFILL_SQL, FINDINGS_TRIGGER, FINDINGS_TRIGGER_SQL } from "../../database/migrations/20261202000900_register";
 import { planButtFusion } from "../../domain/fusion/plan";
 import type { ProcedureDefinition } from "../../domain/fusion/procedures";
 
@@ -145,6 +146,10 @@ export async function loadSyntheticRegister(k: Knex, { joints = BENCH_COUNTS.joi
   }
   for (let i = 0; i < planRows.length; i += 100) await k("bench_plans").insert(planRows.slice(i, i + 100));
 
+  // The findings trigger is set aside during the bulk load (one statement fills
+  // joint_findings afterwards, as the migration's backfill does), then put back.
+  await k.raw(`DROP TRIGGER IF EXISTS ${FINDINGS_TRIGGER}`);
+
   // Joints in chunks of 100,000 (bounded undo log, progress to show). Hash h(tag) = CRC32(CONCAT(tag, n)).
   const chunk = 100_000;
   const started = Date.now();
@@ -198,6 +203,9 @@ export async function loadSyntheticRegister(k: Knex, { joints = BENCH_COUNTS.joi
     log(`joints ${to.toLocaleString("en-US")} of ${c.joints.toLocaleString("en-US")} (${((Date.now() - started) / 1000).toFixed(0)} s)`);
   }
   await k.raw("DROP TABLE IF EXISTS bench_plans");
+  log("joint findings …");
+  await k.raw(FINDINGS_BACKFILL_SQL);
+  await k.raw(FINDINGS_TRIGGER_SQL);
   log("joint states and revisions …");
   const inspector = await k("users").whereRaw("FIND_IN_SET('inspector', roles) > 0").orderBy("id").first("id");
   await k.raw(`INSERT INTO joint_states (joint_id, review_state, revision_no, outcome, made_at)

@@ -3,7 +3,7 @@
 // `next` is the cursor of the following page (null on the last), `count` (when asked)
 // is exact or an estimate marked as such.
 import { defineRoute } from "@/app/_lib/guard";
-import { countRegister, listRegisterPage } from "@/database/queries/register";
+import { listRegisterPage } from "@/database/queries/register";
 import { decodeCursor, encodeCursor, pickFilter, registerPageQuerySchema } from "@/domain/register";
 import { AppError } from "@/domain/result";
 
@@ -17,12 +17,9 @@ export const GET = defineRoute({ audience: ["clerk", "inspector", "admin"], sche
     after = decoded.cursor;
   }
   const filter = pickFilter(query);
-  const [page, count] = await Promise.all([
-    listRegisterPage({ filter, sort: query.sort, dir: query.dir, after, limit: query.limit }),
-    query.count === "1" ? countRegister({ filter }) : Promise.resolve(null),
-  ]);
+  const page = await listRegisterPage({ filter, sort: query.sort, dir: query.dir, after, limit: query.limit, withCount: query.count === "1" });
   return Response.json(
-    { rows: page.rows, next: page.next ? encodeCursor(page.next) : null, ...(count ? { count } : {}) },
+    { rows: page.rows, next: page.next ? encodeCursor(page.next) : null, ...(page.count ? { count: page.count } : {}) },
     { headers: { "cache-control": "no-store" } },
   );
 });
