@@ -163,7 +163,7 @@ export function ReviewQueue({
           })}
         </ul>
       </section>
-      <section aria-label="Selected joint">
+      <section aria-label="Selected joint" className="lg:sticky lg:top-2 lg:max-h-[calc(100vh-1rem)] lg:self-start lg:overflow-y-auto">
         {current ? (
           <JointDetail
             key={`${current.jointId}-${current.revisionNo}`}
