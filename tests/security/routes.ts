@@ -119,6 +119,7 @@ export const ACTIONS: readonly ActionEntry[] = [
   a(`${SIGNED_IN}/procedures/actions.ts`, "editVersionNotesAction", ["admin"]),
 
   a(`${SIGNED_IN}/mailbox/actions.ts`, "retryMailAction", ["admin"]),
+  a(`${SIGNED_IN}/mailbox/actions.ts`, "setMailPreferenceAction", "signed-in"),
 ];
 
 export const ENTRIES: readonly Entry[] = [...ROUTES, ...ACTIONS];
