@@ -4,18 +4,11 @@
 // coils came with the page, so this works without signal), then on the server.
 import { useCallback, useState } from "react";
 import { Button } from "@/components/ui/button";
-import { readScannedCoilText } from "@/domain/coil-life/rules";
 import { formatQuantity, type UnitSystem } from "@/domain/units/format";
 import { lookupCoilAction } from "../actions";
+import { findLocalCoil } from "../_lib/find-coil";
 import type { TrenchCoil } from "../_lib/types";
 import { QrScanner } from "./qr-scanner";
-
-export function findLocalCoil(coils: TrenchCoil[], text: string): TrenchCoil | null {
-  const scanned = readScannedCoilText(text);
-  if (scanned.kind === "empty") return null;
-  if (scanned.kind === "trace-code") return coils.find((c) => c.traceCode === scanned.code) ?? coils.find((c) => c.code.toLowerCase() === scanned.code.toLowerCase()) ?? null;
-  return coils.find((c) => c.code.toLowerCase() === scanned.code.toLowerCase()) ?? null;
-}
 
 const STATUS_WORDS: Record<TrenchCoil["status"], string> = { "in-yard": "in the yard", "on-trailer": "on a trailer", "in-use": "in use", "used-up": "used up", quarantined: "quarantined" };
 

@@ -20,10 +20,11 @@ import { phaseLimits, timedDurationS, type PhaseTiming } from "@/domain/joints/t
 import { qualificationStatus } from "@/domain/qualifications/status";
 import { formatQuantity } from "@/domain/units/format";
 import { clearDraft, emptyTimers, loadDraft, loadRemembered, saveDraft, saveRemembered, type OutboxEntry, type PhotoRef, type Remembered } from "../_lib/device-store";
+import { findLocalCoil } from "../_lib/find-coil";
 import type { TrenchCoil, TrenchSetup } from "../_lib/types";
 import { useOutbox } from "../_lib/use-outbox";
 import { BlocksPanel } from "./blocks-panel";
-import { CoilPicker, findLocalCoil } from "./coil-picker";
+import { CoilPicker } from "./coil-picker";
 import { OutboxPanel } from "./outbox-panel";
 import { PhaseTimer } from "./phase-timer";
 import { PhotoPicker } from "./photo-picker";
