@@ -7,7 +7,6 @@ import { BinaryBitmap, HybridBinarizer, QRCodeReader, RGBLuminanceSource } from 
 import { describe, expect, it } from "vitest";
 import { findLocalCoil } from "@/app/(signed-in)/trench/_lib/find-coil";
 import type { TrenchCoil } from "@/app/(signed-in)/trench/_lib/types";
-import { builtInProcedure } from "@/domain/fusion/procedures";
 import { planButtFusion } from "@/domain/fusion/plan";
 import { applyOverrides, blockReasons, componentMismatch, madeAtProblem, OVERRIDE_LOOKBACK_MS } from "@/domain/joints/rules";
 import { recordJointFormSchema } from "@/domain/joints/schemas";
