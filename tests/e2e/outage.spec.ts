@@ -71,7 +71,7 @@ test.describe("database outage while joints are submitted", () => {
     stack = await startLocalStack({ dir: tmp, ports: "free", log: () => undefined });
     // Migrations and seeds are TypeScript loaded at run time: run them through tsx, as npm test does.
     const tsx = path.join(ROOT, "node_modules", ".bin", "tsx");
-    const env = { ...process.env, ...stack.env, NODE_ENV: "test" };
+    const env: NodeJS.ProcessEnv = { ...process.env, ...stack.env, NODE_ENV: "test" };
     const migrate = spawnSync(tsx, ["-e", `import(${JSON.stringify(path.join(ROOT, "database", "migrate.ts"))}).then((m) => (m.migrateLatest ?? m.default.migrateLatest)(process.env.MIGRATION_DATABASE_URL)).catch((e) => { console.error(e); process.exit(1); })`], { cwd: ROOT, env, encoding: "utf8" });
     expect(migrate.status, migrate.stderr).toBe(0);
     stack.grantRights();
