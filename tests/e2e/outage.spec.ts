@@ -127,7 +127,7 @@ test.describe("database outage while joints are submitted", () => {
       bodies.set(clientId, b);
       return b;
     };
-    const submit = async (clientId: string, b = body(clientId)): Promise<Attempt> => {
+    const submit = async (clientId: string, b: Record<string, unknown> = body(clientId)): Promise<Attempt> => {
       const started = Date.now();
       try {
         const res = await fetch(`${baseUrl}/api/v1/joints`, { method: "POST", headers: { cookie, "content-type": "application/json" }, body: JSON.stringify(b), signal: AbortSignal.timeout(HANG_LIMIT_MS + 5000) });
