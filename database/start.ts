@@ -6,7 +6,8 @@
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { existsSync, mkdirSync, readFileSync, readdirSync, rmSync, statSync, writeFileSync } from "node:fs";
 import path from "node:path";
-import { ensureMariadbInstalled, isPortInUse } from "./local/mariadb";
+import { randomBytes } from "node:crypto";
+import { ensureMariadbInstalled, isPortInUse, keptSecret } from "./local/mariadb";
 import { startLocalStack, type LocalStack } from "./local/stack";
 import { migrateLatest, ownerKnex } from "./migrate";
 
@@ -112,8 +113,7 @@ async function main(): Promise<void> {
       log("DATABASE_URL is set: using that database server, starting none.");
       env = {};
       if (!process.env.SESSION_SECRET) {
-        const { keptSecret } = await import("./local/mariadb");
-        env.SESSION_SECRET = keptSecret(path.join(DATA, "secrets", "session-secret"), () => require("node:crypto").randomBytes(48).toString("base64url"));
+        env.SESSION_SECRET = keptSecret(path.join(DATA, "secrets", "session-secret"), () => randomBytes(48).toString("base64url"));
       }
       await migrateLatest(process.env.MIGRATION_DATABASE_URL || process.env.DATABASE_URL);
       await seedIfEmpty({ MIGRATION_DATABASE_URL: process.env.MIGRATION_DATABASE_URL || process.env.DATABASE_URL });
