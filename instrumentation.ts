@@ -1,10 +1,15 @@
-// Next.js start-up hook: each Node.js server process runs the mail worker (outbox sender
+// Next.js start-up hook: checks the session secret, then each Node.js server process runs the mail worker (outbox sender
 // every MAIL_SEND_INTERVAL_MS, alert scan every MAIL_SCAN_INTERVAL_MS). Not during
 // `next build`, not in the edge runtime, and not when MAIL_WORKER=off (e.g. a web-only
 // instance when a separate process sends the mail).
 export async function register(): Promise<void> {
   if (process.env.NEXT_RUNTIME !== "nodejs") return;
   if (process.env.NEXT_PHASE === "phase-production-build") return;
+  // Production refuses to start without a session secret of at least 32 characters.
+  if (process.env.NODE_ENV === "production" && (process.env.SESSION_SECRET ?? "").length < 32) {
+    console.error("Beadline: SESSION_SECRET must be set to at least 32 characters; refusing to start.");
+    process.exit(1);
+  }
   if (process.env.MAIL_WORKER === "off") return;
   const [{ startMailWorker }, { logger }] = await Promise.all([import("./database/mail/worker"), import("./app/_lib/log")]);
   startMailWorker({ log: logger.child({ part: "mail-worker" }) });
