@@ -326,6 +326,22 @@ describe("recording a joint", () => {
     expect(await ownerDb()("audit_log").where({ action: "block-override-granted", actor_user_id: inspector.id })).toHaveLength(1);
   });
 
+  it("the plan and one-joint routes name bad input: 422 for a missing pipe, 404 for an unknown machine or joint, 400 for a bad id", async () => {
+    const noPipe = await planGet(await requestAs(fuser, `/api/v1/fusion-plan?jobId=${base.jobId}&machineId=${base.machineId}`), noParams);
+    expect(noPipe.status).toBe(422);
+    expect(((await noPipe.json()) as ApiBody).error.fields.coil[0]).toMatch(/Give a coil/);
+    const badDrag = await planGet(await requestAs(fuser, `/api/v1/fusion-plan?jobId=${base.jobId}&machineId=${base.machineId}&coil=T-C0001&dragPressureMpa=-1`), noParams);
+    expect(badDrag.status).toBe(422);
+    expect((await planGet(await requestAs(fuser, `/api/v1/fusion-plan?jobId=${base.jobId}&machineId=999999&coil=T-C0001`), noParams)).status).toBe(404);
+    expect((await planGet(await requestAs(null, `/api/v1/fusion-plan?jobId=${base.jobId}&machineId=${base.machineId}&coil=T-C0001`), noParams)).status).toBe(401);
+    // By size instead of a coil: 4" IPS SDR 11 under the same procedure.
+    const bySize = await planGet(await requestAs(fuser, `/api/v1/fusion-plan?jobId=${base.jobId}&machineId=${base.machineId}&outsideDiameterMm=114.3&sdr=11`), noParams);
+    expect(bySize.status).toBe(200);
+    expect(((await bySize.json()) as ApiBody).plan.wallMm).toBeCloseTo(114.3 / 11, 6); // wall = OD / SDR (ASTM D3035 definition of SDR)
+    expect((await jointGet(await requestAs(fuser, "/api/v1/joints/999999"), idParams(999999))).status).toBe(404);
+    expect((await jointGet(await requestAs(fuser, "/api/v1/joints/abc"), { params: Promise.resolve({ id: "abc" }) })).status).toBe(400);
+  });
+
   it("lists joints: a fuser sees their own, by client id too", async () => {
     const body = goodJoint(base);
     await post(fuser, body);
