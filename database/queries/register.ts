@@ -9,7 +9,6 @@
 // those ids with every joined name. No OFFSET anywhere: page 5,000 costs what page 1 does.
 import type { JointParameter } from "@/domain/fusion/check";
 import {
-  cursorAfter,
   dayBounds,
   isEmptyFilter,
   type KeyValue,
@@ -384,10 +383,21 @@ function toRegisterRow(r: JointRow): RegisterRow {
 }
 
 /** Register rows for these joint ids, in the order given. */
+/**
+ * Ids per lookup. MariaDB turns an IN list longer than in_predicate_conversion_threshold
+ * (1000) into a join with a derived table and may then start the join from a small
+ * table; below it the list is a primary-key range and every other table an eq_ref.
+ */
+const IDS_PER_LOOKUP = 500;
+
 export async function findRegisterRowsByIds({ ids }: { ids: number[] }, trx?: Db): Promise<RegisterRow[]> {
   if (ids.length === 0) return [];
-  const [rows] = (await conn(trx).raw(`SELECT ${ROW_SELECT} FROM ${ROW_FROM} WHERE j.id IN (${ids.map(() => "?").join(",")})`, ids)) as unknown as [JointRow[]];
-  const byId = new Map(rows.map((r) => [Number(r.id), toRegisterRow(r)]));
+  const byId = new Map<number, RegisterRow>();
+  for (let i = 0; i < ids.length; i += IDS_PER_LOOKUP) {
+    const chunk = ids.slice(i, i + IDS_PER_LOOKUP);
+    const [rows] = (await conn(trx).raw(`SELECT ${ROW_SELECT} FROM ${ROW_FROM} WHERE j.id IN (${chunk.map(() => "?").join(",")})`, chunk)) as unknown as [JointRow[]];
+    for (const r of rows) byId.set(Number(r.id), toRegisterRow(r));
+  }
   return ids.map((id) => byId.get(id)).filter((r): r is RegisterRow => Boolean(r));
 }
 
@@ -446,11 +456,28 @@ export async function countRegister({ filter, cap = EXACT_COUNT_CAP }: { filter:
   return countResolved(resolved, cap, trx);
 }
 
+/**
+ * Estimates of large counts, kept for a short while in this process: a filter known to
+ * match more than the cap a moment ago skips its capped count. An estimate may be stale
+ * by seconds (and differ between web instances) without misleading anyone; exact counts
+ * are never cached.
+ */
+const ESTIMATE_TTL_MS = 30_000;
+const estimates = new Map<string, { value: number; at: number }>();
+
+function rememberEstimate(key: string, value: number): void {
+  if (estimates.size > 500) estimates.clear();
+  estimates.set(key, { value, at: Date.now() });
+}
+
 async function countResolved(resolved: Resolved, cap: number, trx?: Db): Promise<RegisterCount> {
   const { filter } = resolved;
   const built = buildBase(resolved, "madeAt");
   const whereSql = built.where.length ? ` WHERE ${built.where.join(" AND ")}` : "";
   const inner = `SELECT 1 FROM ${built.from}${whereSql}`;
+  const key = `${cap}|${inner}|${JSON.stringify(built.bindings)}`;
+  const known = estimates.get(key);
+  if (known && Date.now() - known.at < ESTIMATE_TTL_MS) return { value: known.value, isEstimate: true };
   if (!isEmptyFilter(filter)) {
     const [rows] = (await conn(trx).raw(`SELECT COUNT(*) AS n FROM (${inner} LIMIT ${cap + 1}) capped`, built.bindings)) as unknown as [{ n: number }[]];
     const n = Number(rows[0]?.n ?? 0);
@@ -464,7 +491,9 @@ async function countResolved(resolved: Resolved, cap: number, trx?: Db): Promise
     const [rows] = (await conn(trx).raw(`SELECT COUNT(*) AS n FROM joints`)) as unknown as [{ n: number }[]];
     return { value: Number(rows[0]?.n ?? 0), isEstimate: false };
   }
-  return { value: Math.max(Math.round(estimate), cap + 1), isEstimate: true };
+  const value = Math.max(Math.round(estimate), cap + 1);
+  rememberEstimate(key, value);
+  return { value, isEstimate: true };
 }
 
 export type RegisterOption = { id: number; label: string };
@@ -500,9 +529,4 @@ export async function findRegisterFilterNames({ filter }: { filter: RegisterFilt
     fuser: fuser ? (fuser.name as string) : null,
     machine: machine ? (machine.asset_tag as string) : null,
   };
-}
-
-/** The cursor after a row of the register in the given order (for callers holding rows). */
-export function registerCursorAfter(row: RegisterRow, sort: RegisterSort, dir: SortDirection): RegisterCursor {
-  return cursorAfter(row, sort, dir);
 }

@@ -11,7 +11,7 @@ import { logger } from "@/app/_lib/log";
 import { ExportCancelledError, writeRegisterCsv, writeRegisterXlsx, type ExportProcedure } from "./register-files";
 
 /** Rows per keyset batch read from the database while writing. */
-const BATCH_SIZE = 2000;
+const BATCH_SIZE = 1000;
 
 const CONTENT_TYPES = {
   xlsx: "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet",
