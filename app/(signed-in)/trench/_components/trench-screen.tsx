@@ -15,10 +15,9 @@ import { checkJoint } from "@/domain/fusion/check";
 import { planButtFusion, type FusionPlan } from "@/domain/fusion/plan";
 import { jointMeasurements } from "@/domain/joints/measurements";
 import { applyOverrides, blockReasons, componentMismatch } from "@/domain/joints/rules";
-import { JOINT_KIND_LABELS, JOINT_KINDS, PHASE_LABELS, recordJointFormSchema, SHELTER_LABELS, SHELTERS, TIMED_PHASES, type RecordJointFormInput, type RecordJointFormValues, type TimedPhase } from "@/domain/joints/schemas";
+import { JOINT_KIND_LABELS, JOINT_KINDS, PHASE_LABELS, recordJointFormSchema, TIMED_PHASES, type RecordJointFormInput, type RecordJointFormValues, type TimedPhase } from "@/domain/joints/schemas";
 import { phaseLimits, timedDurationS, type PhaseTiming } from "@/domain/joints/timer";
 import { qualificationStatus } from "@/domain/qualifications/status";
-import { formatQuantity } from "@/domain/units/format";
 import { clearDraft, emptyTimers, loadDraft, loadRemembered, saveDraft, saveRemembered, type OutboxEntry, type PhotoRef, type Remembered } from "../_lib/device-store";
 import { findLocalCoil } from "../_lib/find-coil";
 import type { TrenchCoil, TrenchSetup } from "../_lib/types";
@@ -27,12 +26,12 @@ import { BlocksPanel } from "./blocks-panel";
 import { CoilPicker } from "./coil-picker";
 import { OutboxPanel } from "./outbox-panel";
 import { PhaseTimer } from "./phase-timer";
-import { PhotoPicker } from "./photo-picker";
 import { PlanPanel } from "./plan-panel";
 import { ResultPanel } from "./result-panel";
 import { SelectField } from "./select-field";
+import { UnitController } from "./unit-controller";
 import { UnitInput } from "./unit-input";
-import { YesNo } from "./yes-no";
+import { ValuesSection } from "./values-section";
 
 type FormIn = RecordJointFormInput;
 type FormOut = RecordJointFormValues;
@@ -76,15 +75,15 @@ export function TrenchScreen({ setup }: { setup: TrenchSetup }) {
   const [restored, setRestored] = useState(false);
   const [shownResult, setShownResult] = useState<string | null>(null);
   const [formMessage, setFormMessage] = useState<string | null>(null);
-  const [geoMessage, setGeoMessage] = useState<string | null>(null);
   const [checking, startChecking] = useTransition();
   const resultRef = useRef<HTMLDivElement>(null);
 
-  const { register, control, handleSubmit, setValue, getValues, reset, watch, formState } = useForm<FormIn, unknown, FormOut>({
+  const form = useForm<FormIn, unknown, FormOut>({
     resolver: zodResolver(recordJointFormSchema),
     defaultValues: blankValues({}, "", setup),
     mode: "onTouched",
   });
+  const { register, control, handleSubmit, setValue, getValues, reset, watch, formState } = form;
   const errors = formState.errors as Record<string, { message?: string } | undefined>;
   const err = (name: string) => errors[name]?.message;
 
@@ -126,9 +125,9 @@ export function TrenchScreen({ setup }: { setup: TrenchSetup }) {
     };
   }, [timers]);
 
-  const [jobId, machineId, heaterId, kind, coilAText, coilBText, drag, timedFields, latitude, longitude] = useWatch({
+  const [jobId, machineId, heaterId, kind, coilAText, coilBText, drag, timedFields] = useWatch({
     control,
-    name: ["jobId", "machineId", "heaterId", "kind", "coilA", "coilB", "dragPressureMpa", "timedFields", "latitude", "longitude"],
+    name: ["jobId", "machineId", "heaterId", "kind", "coilA", "coilB", "dragPressureMpa", "timedFields"],
   });
   const job = setup.jobs.find((j) => j.id === jobId) ?? null;
   const machine = setup.machines.find((m) => m.id === machineId) ?? null;
@@ -259,20 +258,6 @@ export function TrenchScreen({ setup }: { setup: TrenchSetup }) {
     window.scrollTo({ top: 0, behavior: "smooth" });
   };
 
-  const locate = () => {
-    setGeoMessage(null);
-    if (!navigator.geolocation) return setGeoMessage("This device cannot give its location; type the station instead.");
-    navigator.geolocation.getCurrentPosition(
-      (pos) => {
-        setValue("latitude", Math.round(pos.coords.latitude * 1e6) / 1e6, { shouldDirty: true });
-        setValue("longitude", Math.round(pos.coords.longitude * 1e6) / 1e6, { shouldDirty: true });
-        setGeoMessage(`Location added (within about ${formatQuantity(pos.coords.accuracy, "length-m", system)}).`);
-      },
-      () => setGeoMessage("Location not available (permission refused or no fix); the station text is enough."),
-      { enableHighAccuracy: true, timeout: 15_000, maximumAge: 60_000 },
-    );
-  };
-
   const shown = outbox.entries.find((e) => e.clientId === shownResult) ?? null;
   const timedBadge = (phase: TimedPhase, value: unknown) =>
     (timedFields ?? []).includes(phase) ? <span className="rounded bg-pass-light px-2 py-0.5 text-xs font-bold text-pass">timed</span> : value !== undefined && value !== null && value !== "" ? <span className="rounded bg-slate-200 px-2 py-0.5 text-xs font-bold text-ink">typed</span> : null;
@@ -301,12 +286,8 @@ export function TrenchScreen({ setup }: { setup: TrenchSetup }) {
     />
   );
 
-  const unitField = (name: keyof FormIn & string, label: string, kind: Parameters<typeof UnitInput>[0]["kind"], opts: { hint?: string; allowNegative?: boolean } = {}) => (
-    <Controller
-      control={control}
-      name={name as "heaterTemperatureC"}
-      render={({ field }) => <UnitInput id={name} label={label} kind={kind} system={system} value={field.value as number | undefined} onChange={field.onChange} onBlur={field.onBlur} error={err(name)} hint={opts.hint} allowNegative={opts.allowNegative} />}
-    />
+  const unitField = (name: "lengthAM" | "lengthBM" | "dragPressureMpa", label: string, kind: "length-m" | "pressure", opts: { hint?: string } = {}) => (
+    <UnitController control={control} name={name} label={label} kind={kind} system={system} error={err(name)} hint={opts.hint} />
   );
 
   if (setup.jobs.length === 0) {
@@ -419,60 +400,7 @@ export function TrenchScreen({ setup }: { setup: TrenchSetup }) {
           ))}
         </fieldset>
 
-        <fieldset className="flex flex-col gap-4">
-          <legend className="mb-2 text-xl font-bold">4. Record the values</legend>
-          {unitField("heaterTemperatureC", "Heater temperature measured at the face", "temperature")}
-          {unitField("beadUpGaugeMpa", "Bead-up gauge pressure (if different from fusion)", "pressure", { hint: "Leave empty when bead-up was at fusion pressure." })}
-          {unitField("fusionGaugeMpa", "Fusion gauge pressure", "pressure")}
-          {unitField("beadMm", "Bead size", "length-mm")}
-          {unitField("ambientC", "Ambient temperature", "temperature", { allowNegative: true })}
-          <SelectField id="shelter" label="Weather shelter" error={err("shelter")} {...register("shelter", { setValueAs: (v) => (v === "" ? undefined : v) })}>
-            <option value="">Choose …</option>
-            {SHELTERS.map((s) => (
-              <option key={s} value={s}>
-                {SHELTER_LABELS[s]}
-              </option>
-            ))}
-          </SelectField>
-          {(
-            [
-              ["facingOk", "Were both ends faced complete and square?"],
-              ["alignmentOk", "Did the alignment check pass (high-low within limits)?"],
-              ["beadRollbackOk", "Is the bead a uniform double roll-back all round?"],
-              ["vGrooveOk", "Is the V-groove between the beads not below the pipe surface?"],
-            ] as const
-          ).map(([name, question]) => (
-            <Controller key={name} control={control} name={name} render={({ field }) => <YesNo name={name} question={question} value={field.value as boolean | undefined} onChange={field.onChange} error={err(name)} />} />
-          ))}
-          <div className="flex flex-col gap-1">
-            <label htmlFor="station" className="text-sm font-semibold text-ink">
-              Station (place along the job)
-            </label>
-            <input id="station" {...register("station")} autoComplete="off" className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-3 py-2 text-base" />
-          </div>
-          <div className="flex flex-col gap-1">
-            <Button type="button" variant="secondary" onClick={locate}>
-              {typeof latitude === "number" ? "Update my location" : "Add my location"}
-            </Button>
-            {typeof latitude === "number" && typeof longitude === "number" ? (
-              <p className="text-sm text-ink">
-                Location: {latitude.toFixed(6)}, {longitude.toFixed(6)}{" "}
-                <button
-                  type="button"
-                  className="min-h-touch px-2 font-semibold text-brand underline"
-                  onClick={() => {
-                    setValue("latitude", null);
-                    setValue("longitude", null);
-                  }}
-                >
-                  Remove location
-                </button>
-              </p>
-            ) : null}
-            {geoMessage ? <p className="text-sm text-ink">{geoMessage}</p> : null}
-          </div>
-          <PhotoPicker photos={photos} onChange={setPhotos} />
-        </fieldset>
+        <ValuesSection form={form} system={system} photos={photos} onPhotos={setPhotos} />
 
         <FormMessage message={formMessage} tone={formMessage?.startsWith("Recording the remake") ? "info" : "error"} />
         <Button type="submit" className="min-h-16 text-xl" disabled={!restored || cannotRecord}>

@@ -1,0 +1,96 @@
+"use client";
+// Step 4 of the Trench form: the values measured and checked at the joint, the place
+// (station, and the device's location when the fuser allows it) and the bead photos.
+import { useState } from "react";
+import { Controller, useWatch, type UseFormReturn } from "react-hook-form";
+import { Button } from "@/components/ui/button";
+import { SHELTER_LABELS, SHELTERS, type RecordJointFormInput, type RecordJointFormValues } from "@/domain/joints/schemas";
+import { formatQuantity, type UnitSystem } from "@/domain/units/format";
+import type { PhotoRef } from "../_lib/device-store";
+import { PhotoPicker } from "./photo-picker";
+import { SelectField } from "./select-field";
+import { UnitController } from "./unit-controller";
+import { YesNo } from "./yes-no";
+
+const CHECKS = [
+  ["facingOk", "Were both ends faced complete and square?"],
+  ["alignmentOk", "Did the alignment check pass (high-low within limits)?"],
+  ["beadRollbackOk", "Is the bead a uniform double roll-back all round?"],
+  ["vGrooveOk", "Is the V-groove between the beads not below the pipe surface?"],
+] as const;
+
+export function ValuesSection({ form, system, photos, onPhotos }: { form: UseFormReturn<RecordJointFormInput, unknown, RecordJointFormValues>; system: UnitSystem; photos: PhotoRef[]; onPhotos: (photos: PhotoRef[]) => void }) {
+  const { control, register, setValue, formState } = form;
+  const errors = formState.errors as Record<string, { message?: string } | undefined>;
+  const err = (name: string) => errors[name]?.message;
+  const [latitude, longitude] = useWatch({ control, name: ["latitude", "longitude"] });
+  const [geoMessage, setGeoMessage] = useState<string | null>(null);
+
+  const locate = () => {
+    setGeoMessage(null);
+    if (!navigator.geolocation) return setGeoMessage("This device cannot give its location; type the station instead.");
+    navigator.geolocation.getCurrentPosition(
+      (pos) => {
+        setValue("latitude", Math.round(pos.coords.latitude * 1e6) / 1e6, { shouldDirty: true });
+        setValue("longitude", Math.round(pos.coords.longitude * 1e6) / 1e6, { shouldDirty: true });
+        setGeoMessage(`Location added (within about ${formatQuantity(pos.coords.accuracy, "length-m", system)}).`);
+      },
+      () => setGeoMessage("Location not available (permission refused or no fix); the station text is enough."),
+      { enableHighAccuracy: true, timeout: 15_000, maximumAge: 60_000 },
+    );
+  };
+
+  const unit = (name: "heaterTemperatureC" | "beadUpGaugeMpa" | "fusionGaugeMpa" | "beadMm" | "ambientC", label: string, kind: Parameters<typeof UnitController>[0]["kind"], opts: { hint?: string; allowNegative?: boolean } = {}) => (
+    <UnitController control={control} name={name} label={label} kind={kind} system={system} error={err(name)} hint={opts.hint} allowNegative={opts.allowNegative} />
+  );
+
+  return (
+    <fieldset className="flex flex-col gap-4">
+      <legend className="mb-2 text-xl font-bold">4. Record the values</legend>
+      {unit("heaterTemperatureC", "Heater temperature measured at the face", "temperature")}
+      {unit("beadUpGaugeMpa", "Bead-up gauge pressure (if different from fusion)", "pressure", { hint: "Leave empty when bead-up was at fusion pressure." })}
+      {unit("fusionGaugeMpa", "Fusion gauge pressure", "pressure")}
+      {unit("beadMm", "Bead size", "length-mm")}
+      {unit("ambientC", "Ambient temperature", "temperature", { allowNegative: true })}
+      <SelectField id="shelter" label="Weather shelter" error={err("shelter")} {...register("shelter", { setValueAs: (v) => (v === "" ? undefined : v) })}>
+        <option value="">Choose …</option>
+        {SHELTERS.map((s) => (
+          <option key={s} value={s}>
+            {SHELTER_LABELS[s]}
+          </option>
+        ))}
+      </SelectField>
+      {CHECKS.map(([name, question]) => (
+        <Controller key={name} control={control} name={name} render={({ field }) => <YesNo name={name} question={question} value={field.value as boolean | undefined} onChange={field.onChange} error={err(name)} />} />
+      ))}
+      <div className="flex flex-col gap-1">
+        <label htmlFor="station" className="text-sm font-semibold text-ink">
+          Station (place along the job)
+        </label>
+        <input id="station" {...register("station")} autoComplete="off" className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-3 py-2 text-base" />
+      </div>
+      <div className="flex flex-col gap-1">
+        <Button type="button" variant="secondary" onClick={locate}>
+          {typeof latitude === "number" ? "Update my location" : "Add my location"}
+        </Button>
+        {typeof latitude === "number" && typeof longitude === "number" ? (
+          <p className="text-sm text-ink">
+            Location: {latitude.toFixed(6)}, {longitude.toFixed(6)}{" "}
+            <button
+              type="button"
+              className="min-h-touch px-2 font-semibold text-brand underline"
+              onClick={() => {
+                setValue("latitude", null);
+                setValue("longitude", null);
+              }}
+            >
+              Remove location
+            </button>
+          </p>
+        ) : null}
+        {geoMessage ? <p className="text-sm text-ink">{geoMessage}</p> : null}
+      </div>
+      <PhotoPicker photos={photos} onChange={onPhotos} />
+    </fieldset>
+  );
+}
