@@ -129,6 +129,8 @@ test("a joint recorded with no signal waits on the device and arrives exactly on
   await trench.goto();
   await trench.chooseSetup({ job: "WO-24117 · Fenwick Lane main renewal", machine: "FM-201 · Hydraulic butt-fusion machine, 2–8 in IPS", heater: "HP-31" });
   await trench.fillTypedJoint({ ...JOINT, station: "4+60" });
+  await page.getByLabel(/Photos of the bead/).setInputFiles({ name: "bead-offline.png", mimeType: "image/png", buffer: tinyPng() });
+  await expect(page.getByRole("img", { name: "Bead photo 1" })).toBeVisible();
   const before = await jointsOnJob(page, "WO-24117");
 
   await context.setOffline(true);
@@ -153,7 +155,12 @@ test("a joint recorded with no signal waits on the device and arrives exactly on
 
   const after = await jointsOnJob(page, "WO-24117");
   expect(after.length).toBe(before.length + 1);
-  expect(after.filter((j) => j.clientId === clientId)).toHaveLength(1);
+  const arrived = after.filter((j) => j.clientId === clientId);
+  expect(arrived).toHaveLength(1);
+  // The photo kept on the device went up with it.
+  const one = (await (await page.request.get(`/api/v1/joints/${arrived[0]!.id}`)).json()) as { joint: { photos: { contentType: string }[]; place: { station: string } } };
+  expect(one.joint.photos.map((p) => p.contentType)).toEqual(["image/png"]);
+  expect(one.joint.place.station).toBe("4+60");
   // A reload does not send it again.
   await page.reload();
   await expect(trench.recordButton).toBeEnabled();
