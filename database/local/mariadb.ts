@@ -160,7 +160,7 @@ export async function startMariadb({ dir, port }: { dir: string; port: number })
 }
 
 /** Tables whose rows are evidence: the application user may not delete from them. */
-export const APPEND_ONLY_TABLES = ["joints", "joint_revisions", "audit_log"] as const;
+export const APPEND_ONLY_TABLES = ["joints", "joint_revisions", "audit_log", "joint_overrides", "joint_override_uses"] as const;
 
 /**
  * Creates the database, an owner user (migrations: all rights on the schema) and the

@@ -73,6 +73,10 @@ export async function up(knex: Knex): Promise<void> {
 }
 
 export async function down(knex: Knex): Promise<void> {
+  // InnoDB dropped the foreign key's own index when the wider one came: put it back first.
+  await knex.schema.alterTable("exports", (t) => {
+    t.index(["user_id"], "exports_user_id_foreign");
+  });
   await knex.schema.alterTable("exports", (t) => {
     t.dropIndex(["user_id", "started_at"], "exports_user_started_index");
   });

@@ -43,6 +43,7 @@ export const SCREENS: readonly Screen[] = [
   { id: "trench", label: "Trench", href: "/trench", roles: ["fuser"] },
   { id: "register", label: "Register", href: "/register", roles: ["clerk", "inspector", "admin"] },
   { id: "review", label: "Review", href: "/review", roles: ["inspector"] },
+  { id: "overrides", label: "Overrides", href: "/trench/overrides", roles: ["inspector", "admin"] },
   { id: "coils", label: "Coils", href: "/coils", roles: ["clerk", "admin"] },
   { id: "trace", label: "Trace", href: "/trace", roles: ["clerk", "inspector", "admin"] },
   { id: "jobs", label: "Jobs", href: "/jobs", roles: ["admin"] },

@@ -80,6 +80,8 @@ beforeAll(async () => {
   await insertJoint("otherSize", { job: "WO-24117", a: "LV-C0007", b: "LV-C0008", madeAt: "2026-11-25T10:00:00Z" });
 
   // A later heater check than the joints: the origins must show the one before each joint.
+  // This file's own check history for the plate (the demo seed's daily checks are replaced).
+  await ownerDb()("heater_checks").where({ heater_id: ids.heater }).del();
   await ownerDb()("heater_checks").insert({ heater_id: ids.heater, checked_at: new Date("2026-11-21T06:30:00Z"), instrument: "Contact pyrometer PY-9", readings: "{}", window_min_c: 204.4, window_max_c: 232.2, passed: true, next_due_on: "2026-11-22" });
   await ownerDb()("heater_checks").insert({ heater_id: ids.heater, checked_at: new Date("2026-11-19T06:30:00Z"), instrument: "Contact pyrometer PY-4", readings: "{}", window_min_c: 204.4, window_max_c: 232.2, passed: true, next_due_on: "2026-11-20" });
 });
@@ -164,7 +166,7 @@ describe("joint → origins", () => {
     expect(origins.coilB).toMatchObject({ coilCode: "LV-C0001", lot: "4410021", traceCode: CODE_LOT_4410021 });
     expect(origins.coilB!.inspection).toMatchObject({ passed: true, receivedByName: "Morgan Tull" });
     expect(origins.machine).toMatchObject({ assetTag: "FM-201", pistonAreaMm2: 1006.5 });
-    // Made 2026-11-22 10:00: the check of 2026-11-21 06:30 is the last before it (the seed's check is dated 2026-12-01).
+    // Made 2026-11-22 10:00: the check of 2026-11-21 06:30 is the last before it (this file's own check history).
     expect(origins.heater.lastCheck).toMatchObject({ instrument: "Contact pyrometer PY-9", nextDueOn: "2026-11-22" });
     expect(origins.heaterCheckInDate).toBe(true);
     expect(origins.procedure).toMatchObject({ code: "LVG-BF-01", versionNo: 1 });

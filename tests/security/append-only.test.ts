@@ -11,7 +11,8 @@ import { closeDb, db } from "@/database/client";
 import { APPEND_ONLY_TABLES } from "@/database/local/mariadb";
 import { ownerDb } from "../support/db";
 
-const EVIDENCE = ["joints", "joint_revisions", "audit_log"] as const;
+// Joints, their revisions (reviews), the audit log, and the overrides that cleared blocking warnings.
+const EVIDENCE = ["joints", "joint_revisions", "audit_log", "joint_overrides", "joint_override_uses"] as const;
 
 function sourceFiles(dir: string, skip: RegExp): string[] {
   const out: string[] = [];
@@ -93,7 +94,7 @@ describe("append-only in the database rights", () => {
     }
   };
 
-  it("the launcher's list of evidence tables covers joints, revisions (reviews) and the audit log", () => {
+  it("the launcher's list of evidence tables covers joints, revisions (reviews), the audit log and overrides", () => {
     expect([...APPEND_ONLY_TABLES].sort()).toEqual([...EVIDENCE].sort());
   });
 
