@@ -5,7 +5,7 @@
 //
 // Flags: --skip-lint  --skip-e2e  --only-vitest [files…]  --only-e2e [files…]
 import { spawn } from "node:child_process";
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { ensureMariadbInstalled, freePort } from "../database/local/mariadb";
@@ -43,6 +43,33 @@ function run(label: string, command: string, commandArgs: string[], env: Record<
   });
 }
 
+/** Test counts over both runners, for the closing line. */
+const counts = { passed: 0, failed: 0, skipped: 0 };
+
+function readJson(file: string): Record<string, unknown> | null {
+  try {
+    return existsSync(file) ? (JSON.parse(readFileSync(file, "utf8")) as Record<string, unknown>) : null;
+  } catch {
+    return null;
+  }
+}
+
+function countVitest(file: string): void {
+  const r = readJson(file) as { numPassedTests?: number; numFailedTests?: number; numPendingTests?: number; numTodoTests?: number } | null;
+  if (!r) return;
+  counts.passed += r.numPassedTests ?? 0;
+  counts.failed += r.numFailedTests ?? 0;
+  counts.skipped += (r.numPendingTests ?? 0) + (r.numTodoTests ?? 0);
+}
+
+function countPlaywright(file: string): void {
+  const r = readJson(file) as { stats?: { expected?: number; unexpected?: number; skipped?: number; flaky?: number } } | null;
+  if (!r?.stats) return;
+  counts.passed += (r.stats.expected ?? 0) + (r.stats.flaky ?? 0);
+  counts.failed += r.stats.unexpected ?? 0;
+  counts.skipped += r.stats.skipped ?? 0;
+}
+
 const bin = (name: string) => path.join(ROOT, "node_modules", ".bin", name);
 
 async function main(): Promise<number> {
@@ -69,7 +96,9 @@ async function main(): Promise<number> {
 
     if (runVitest) {
       const files = filesAfter("--only-vitest");
-      results.push(["vitest", await run("vitest (domain, database, actions, API)", bin("vitest"), ["run", ...files], env)]);
+      const report = path.join(tmp, "vitest.json");
+      results.push(["vitest", await run("vitest (domain, database, actions, API)", bin("vitest"), ["run", "--reporter=default", "--reporter=json", `--outputFile.json=${report}`, ...files], env)]);
+      countVitest(report);
     }
     if (runE2e) {
       const distDir = process.env.BEADLINE_TEST_DIST_DIR || ".next-test";
@@ -83,7 +112,9 @@ async function main(): Promise<number> {
         results.push(["demo seed", await run("demo scenario into the test database", bin("tsx"), ["tests/support/seed-demo-cli.ts"], env)]);
         const files = filesAfter("--only-e2e");
         const e2ePort = String(await freePort());
-        results.push(["playwright", await run("browser tests (Playwright, Chromium)", bin("playwright"), ["test", ...files], { ...e2eEnv, E2E_PORT: e2ePort, CI: process.env.CI ?? "" })]);
+        const report = path.join(tmp, "playwright.json");
+        results.push(["playwright", await run("browser tests (Playwright, Chromium)", bin("playwright"), ["test", "--reporter=list,json", ...files], { ...e2eEnv, E2E_PORT: e2ePort, PLAYWRIGHT_JSON_OUTPUT_NAME: report, CI: process.env.CI ?? "" })]);
+        countPlaywright(report);
       }
     }
   } catch (error) {
@@ -95,6 +126,9 @@ async function main(): Promise<number> {
   console.log("\n=== summary ===");
   for (const [name, code] of results) console.log(`${code === 0 ? "pass" : "FAIL"}  ${name}`);
   const failed = results.filter(([, c]) => c !== 0).length;
+  // A failing step that is not a test runner (type-check, lint, build, set-up) counts as a failure too.
+  const stepFailures = results.filter(([name, c]) => c !== 0 && name !== "vitest" && name !== "playwright").length;
+  console.log(`\ntests: ${counts.passed} passed, ${counts.failed + stepFailures} failed, ${counts.skipped} skipped`);
   return failed === 0 && results.length > 0 ? 0 : 1;
 }
 
