@@ -15,7 +15,7 @@ import { PIPE_SERIES, findPipeSize, pipeSizes, type PipeSeries } from "@/domain/
 import { parseTraceCode } from "@/domain/trace-code/trace-code";
 import { fromDisplay } from "@/domain/units/format";
 import { receiveCoilAction } from "../actions";
-import { CodeScanner } from "./code-scanner";
+import { CameraScanner } from "@/components/ui/camera-scanner";
 
 type Input = z.input<typeof receiveCoilSchema>;
 type Output = z.output<typeof receiveCoilSchema>;
@@ -168,7 +168,7 @@ export function ReceiveCoilForm({
         />
         <div className="sm:col-span-2">
           {scanning ? (
-            <CodeScanner onResult={onScanned} onClose={() => setScanning(false)} />
+            <CameraScanner label="Scan the traceability code" instruction="Point the camera at the barcode of the traceability code." fallback="Type the code from the pipe or its tag instead." formats="any" aspect="video" onResult={onScanned} onClose={() => setScanning(false)} />
           ) : (
             <Button type="button" variant="secondary" onClick={() => setScanning(true)}>
               Scan the code with the camera

@@ -8,7 +8,7 @@ import { formatQuantity, type UnitSystem } from "@/domain/units/format";
 import { lookupCoilAction } from "../actions";
 import { findLocalCoil } from "../_lib/find-coil";
 import type { TrenchCoil } from "../_lib/types";
-import { QrScanner } from "./qr-scanner";
+import { CameraScanner } from "@/components/ui/camera-scanner";
 
 const STATUS_WORDS: Record<TrenchCoil["status"], string> = { "in-yard": "in the yard", "on-trailer": "on a trailer", "in-use": "in use", "used-up": "used up", quarantined: "quarantined" };
 
@@ -128,7 +128,7 @@ export function CoilPicker({
       <Button type="button" variant="secondary" onClick={() => setScanning((s) => !s)}>
         {scanning ? `Stop scanning coil ${side}` : `Scan coil ${side} label with the camera`}
       </Button>
-      {scanning ? <QrScanner label={`Scanning coil ${side}`} onResult={scanned} onClose={() => setScanning(false)} /> : null}
+      {scanning ? <CameraScanner label={`Scanning coil ${side}`} instruction={`Scanning coil ${side}: point the camera at the coil label's QR code.`} fallback="Type the coil id from the label instead." onResult={scanned} onClose={() => setScanning(false)} /> : null}
       {coil ? <CoilSummary coil={coil} system={system} /> : null}
       {note ? (
         <p id={`${id}-note`} className="text-sm font-semibold text-caution">
