@@ -10,7 +10,7 @@ import { Button } from "@/components/ui/button";
 import { addPersonSchema, MIN_PASSWORD_LENGTH } from "@/domain/crew/schemas";
 import { ROLES, ROLE_LABELS } from "@/domain/roles";
 import { addPersonAction } from "../actions";
-import { ChoiceGroup, SelectField, applyActionResult, errorText } from "../../jobs/_components/form-bits";
+import { ChoiceGroup, SelectField, applyActionResult, errorText } from "@/components/form/controls";
 
 type Input = z.input<typeof addPersonSchema>;
 type Output = z.output<typeof addPersonSchema>;

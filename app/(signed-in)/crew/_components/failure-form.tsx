@@ -10,7 +10,7 @@ import { Field, FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
 import { recordQualificationFailureSchema } from "@/domain/office/schemas";
 import { recordQualificationFailureAction } from "../actions";
-import { SelectField, TextAreaField, applyActionResult } from "../../jobs/_components/form-bits";
+import { SelectField, TextAreaField, applyActionResult } from "@/components/form/controls";
 
 type Input = z.input<typeof recordQualificationFailureSchema>;
 type Output = z.output<typeof recordQualificationFailureSchema>;

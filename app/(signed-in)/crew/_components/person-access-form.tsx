@@ -11,7 +11,7 @@ import { Button } from "@/components/ui/button";
 import { updatePersonSchema } from "@/domain/crew/schemas";
 import { ROLES, ROLE_LABELS, type Role } from "@/domain/roles";
 import { updatePersonAction } from "../actions";
-import { ChoiceGroup, SelectField, applyActionResult, errorText } from "../../jobs/_components/form-bits";
+import { ChoiceGroup, SelectField, applyActionResult, errorText } from "@/components/form/controls";
 
 type Input = z.input<typeof updatePersonSchema>;
 type Output = z.output<typeof updatePersonSchema>;

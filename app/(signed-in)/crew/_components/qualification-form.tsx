@@ -10,7 +10,7 @@ import { Field, FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
 import { QUALIFICATION_METHODS, QUALIFICATION_METHOD_LABELS, recordQualificationSchema } from "@/domain/office/schemas";
 import { recordQualificationAction } from "../actions";
-import { ChoiceGroup, SelectField, applyActionResult } from "../../jobs/_components/form-bits";
+import { ChoiceGroup, SelectField, applyActionResult } from "@/components/form/controls";
 
 type Input = z.input<typeof recordQualificationSchema>;
 type Output = z.output<typeof recordQualificationSchema>;

@@ -8,7 +8,7 @@ import { Field, FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
 import { MIN_PASSWORD_LENGTH, resetPasswordSchema } from "@/domain/crew/schemas";
 import { resetPasswordAction } from "../actions";
-import { applyActionResult } from "../../jobs/_components/form-bits";
+import { applyActionResult } from "@/components/form/controls";
 
 type Input = z.input<typeof resetPasswordSchema>;
 type Output = z.output<typeof resetPasswordSchema>;

@@ -11,7 +11,7 @@ import { Button } from "@/components/ui/button";
 import { MAX_POINTS_PER_FACE, recordHeaterCheckSchema } from "@/domain/office/schemas";
 import { formatRange, unitLabel, type UnitSystem } from "@/domain/units/format";
 import { recordHeaterCheckAction } from "../actions";
-import { SelectField, TextAreaField, applyActionResult, errorText } from "../../jobs/_components/form-bits";
+import { SelectField, TextAreaField, applyActionResult, errorText } from "@/components/form/controls";
 
 type Input = z.input<typeof recordHeaterCheckSchema>;
 type Output = z.output<typeof recordHeaterCheckSchema>;

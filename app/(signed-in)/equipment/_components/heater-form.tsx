@@ -10,7 +10,7 @@ import { Field, FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
 import { createHeaterSchema } from "@/domain/office/schemas";
 import { createHeaterAction, updateHeaterAction } from "../actions";
-import { applyActionResult } from "../../jobs/_components/form-bits";
+import { applyActionResult } from "@/components/form/controls";
 
 type Input = z.input<typeof createHeaterSchema>;
 type Output = z.output<typeof createHeaterSchema>;

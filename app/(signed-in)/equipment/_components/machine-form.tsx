@@ -11,7 +11,7 @@ import { Button } from "@/components/ui/button";
 import { createMachineSchema } from "@/domain/office/schemas";
 import { unitLabel, type UnitSystem } from "@/domain/units/format";
 import { createMachineAction, updateMachineAction } from "../actions";
-import { applyActionResult } from "../../jobs/_components/form-bits";
+import { applyActionResult } from "@/components/form/controls";
 
 type Input = z.input<typeof createMachineSchema>;
 type Output = z.output<typeof createMachineSchema>;

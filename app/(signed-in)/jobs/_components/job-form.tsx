@@ -10,7 +10,7 @@ import { Field, FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
 import { createJobSchema } from "@/domain/office/schemas";
 import { createJobAction, updateJobAction } from "../actions";
-import { ChoiceGroup, SelectField, applyActionResult, errorText } from "./form-bits";
+import { ChoiceGroup, SelectField, applyActionResult, errorText } from "@/components/form/controls";
 
 type Input = z.input<typeof createJobSchema>;
 type Output = z.output<typeof createJobSchema>;

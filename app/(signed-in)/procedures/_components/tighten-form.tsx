@@ -11,7 +11,7 @@ import { Field, FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
 import { TIGHTENING_FORM_FIELDS, tightenProcedureSchema, type TighteningFormField } from "@/domain/office/schemas";
 import { publishProcedureVersionAction } from "../actions";
-import { TextAreaField, applyActionResult } from "../../jobs/_components/form-bits";
+import { TextAreaField, applyActionResult } from "@/components/form/controls";
 
 type Input = z.input<typeof tightenProcedureSchema>;
 type Output = z.output<typeof tightenProcedureSchema>;

@@ -9,7 +9,7 @@ import { FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
 import { editVersionNotesSchema } from "@/domain/office/schemas";
 import { editVersionNotesAction } from "../actions";
-import { TextAreaField, applyActionResult } from "../../jobs/_components/form-bits";
+import { TextAreaField, applyActionResult } from "@/components/form/controls";
 
 type Input = z.input<typeof editVersionNotesSchema>;
 type Output = z.output<typeof editVersionNotesSchema>;

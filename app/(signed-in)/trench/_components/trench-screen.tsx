@@ -28,7 +28,7 @@ import { OutboxPanel } from "./outbox-panel";
 import { PhaseTimer } from "./phase-timer";
 import { PlanPanel } from "./plan-panel";
 import { ResultPanel } from "./result-panel";
-import { SelectField } from "./select-field";
+import { SelectField } from "@/components/form/controls";
 import { UnitController } from "./unit-controller";
 import { UnitInput } from "./unit-input";
 import { ValuesSection } from "./values-section";

@@ -8,7 +8,7 @@ import { SHELTER_LABELS, SHELTERS, type RecordJointFormInput, type RecordJointFo
 import { formatQuantity, type UnitSystem } from "@/domain/units/format";
 import type { PhotoRef } from "../_lib/device-store";
 import { PhotoPicker } from "./photo-picker";
-import { SelectField } from "./select-field";
+import { SelectField } from "@/components/form/controls";
 import { UnitController } from "./unit-controller";
 import { YesNo } from "./yes-no";
 

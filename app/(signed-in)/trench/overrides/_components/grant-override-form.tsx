@@ -8,7 +8,7 @@ import { Field, FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
 import { grantOverrideSchema } from "@/domain/joints/schemas";
 import { grantOverrideAction } from "../../actions";
-import { SelectField } from "../../_components/select-field";
+import { SelectField } from "@/components/form/controls";
 
 type In = z.input<typeof grantOverrideSchema>;
 type Out = z.output<typeof grantOverrideSchema>;

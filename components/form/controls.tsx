@@ -1,5 +1,5 @@
 "use client";
-// Small form pieces shared by the office screens (Jobs, Equipment, Procedures, Crew):
+// Small form pieces shared by the screens (Jobs, Equipment, Procedures, Crew, Trench):
 // a labelled select and text area with their errors tied by aria-describedby, and the
 // step that copies an action's per-field errors into react-hook-form.
 import type { ReactNode, SelectHTMLAttributes, TextareaHTMLAttributes } from "react";
