@@ -93,7 +93,7 @@ export function InsightsCharts({ unitSystem, byWeek, byFuser, byMachine, finding
       >
         {byWeek.length ? (
           <ResponsiveContainer width="100%" height="100%">
-            <ComposedChart data={byWeek} margin={{ right: 16 }}>
+            <ComposedChart data={byWeek} margin={{ top: 16, right: 16, bottom: 4, left: 4 }}>
               <CartesianGrid strokeDasharray="3 3" />
               <XAxis dataKey="weekStart" />
               <YAxis yAxisId="n" allowDecimals={false} label={{ value: "joints", angle: -90, position: "insideLeft" }} />
@@ -133,7 +133,7 @@ export function InsightsCharts({ unitSystem, byWeek, byFuser, byMachine, finding
       >
         {findings.length ? (
           <ResponsiveContainer width="100%" height="100%">
-            <BarChart data={findings} margin={{ right: 16 }}>
+            <BarChart data={findings} margin={{ top: 16, right: 16, bottom: 4, left: 4 }}>
               <CartesianGrid strokeDasharray="3 3" />
               <XAxis dataKey="label" interval={0} angle={-25} textAnchor="end" height={90} tick={{ fontSize: 12 }} />
               <YAxis allowDecimals={false} />
@@ -190,7 +190,7 @@ export function InsightsCharts({ unitSystem, byWeek, byFuser, byMachine, finding
       >
         {heater.length ? (
           <ResponsiveContainer width="100%" height="100%">
-            <ComposedChart data={heaterData} margin={{ right: 16 }}>
+            <ComposedChart data={heaterData} margin={{ top: 16, right: 16, bottom: 4, left: 4 }}>
               <CartesianGrid strokeDasharray="3 3" />
               <XAxis dataKey="t" type="number" scale="time" domain={["dataMin", "dataMax"]} tickFormatter={day} minTickGap={48} />
               <YAxis domain={["auto", "auto"]} label={{ value: tUnit, angle: -90, position: "insideLeft" }} />
