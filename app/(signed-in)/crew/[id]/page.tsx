@@ -62,7 +62,7 @@ export default async function PersonPage({ params }: { params: Promise<{ id: str
         <h2 id="record-qualification" className="mb-2 text-xl font-bold">
           Record a qualification or requalification
         </h2>
-        <QualificationForm key={qualifications.length} person={{ id: person.id, name: person.name }} procedures={procedureOptions} today={today} />
+        <QualificationForm person={{ id: person.id, name: person.name }} procedures={procedureOptions} today={today} />
       </section>
       <section aria-labelledby="history">
         <h2 id="history" className="mb-2 text-xl font-bold">
