@@ -99,7 +99,6 @@ export default async function ProcedurePage({ params }: { params: Promise<{ id: 
             Tighten and publish a new version
           </h2>
           <TightenForm
-            key={current.id}
             procedure={{ id: procedure.id, code: procedure.code, currentVersionId: current.id, currentVersionNo: current.versionNo }}
             units={units}
             fields={tighteningFieldViews(current.definition, units)}

@@ -4,7 +4,7 @@
 // version looked at is superseded, never changed.
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useRouter } from "next/navigation";
-import { useState } from "react";
+import { useEffect, useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { Field, FormMessage } from "@/components/form/field";
@@ -30,10 +30,15 @@ export function TightenForm({
 }) {
   const router = useRouter();
   const [message, setMessage] = useState<{ text: string; tone: "error" | "success" } | null>(null);
-  const { register, handleSubmit, formState, setError, getValues } = useForm<Input, unknown, Output>({
+  const { register, handleSubmit, formState, setError, getValues, reset } = useForm<Input, unknown, Output>({
     resolver: zodResolver(tightenProcedureSchema),
     defaultValues: { units, procedureId: procedure.id, basedOnVersionId: procedure.currentVersionId },
   });
+  // After a publish the page refreshes with a new current version: start from it, keeping
+  // the confirmation on screen (a remount would drop it).
+  useEffect(() => {
+    reset({ units, procedureId: procedure.id, basedOnVersionId: procedure.currentVersionId });
+  }, [reset, units, procedure.id, procedure.currentVersionId]);
   const e = formState.errors as Record<string, { message?: string } | undefined>;
   const onSubmit = handleSubmit(async () => {
     setMessage(null);
