@@ -1,0 +1,14 @@
+// Butt-fusion procedures as data: parameter windows of ASTM F2620, ISO 21307 (single
+// low-pressure, dual low-pressure, single high-pressure) and DVS 2207-1, each value with
+// its source and status (standards.md §1, §3, §4), plus operator-derived procedures that
+// may only tighten a base procedure.
+//
+// Everything here is plain JSON-compatible data (numbers, strings, arrays, null), so a
+// procedure version's windows can be stored as JSON and rebuilt with
+// parseProcedureDefinition. Canonical units: °C, MPa (interfacial pressure), mm, s.
+
+export * from '@/domain/fusion/procedures/types';
+export * from '@/domain/fusion/procedures/built-in';
+export * from '@/domain/fusion/procedures/rules';
+export * from '@/domain/fusion/procedures/derive';
+export * from '@/domain/fusion/procedures/describe';

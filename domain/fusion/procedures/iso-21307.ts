@@ -1,0 +1,110 @@
+// ISO 21307 butt-fusion procedures (single low-pressure, dual low-pressure, single
+// high-pressure), each value with its source and status.
+
+import type { ProcedureDefinition, SourcedRange } from '@/domain/fusion/procedures/types';
+
+const ISO_SOURCE = 'ISO 21307:2017';
+const ISO_WALL_RANGE: SourcedRange = {
+  min: null,
+  max: 70,
+  source: 'ISO 21307:2009/2011 scope: walls up to and including 70 mm',
+  status: 'confirmed',
+};
+
+export const ISO_21307_SLP: ProcedureDefinition = {
+  standard: 'iso-21307-slp',
+  label: 'ISO 21307 single low-pressure',
+  windows: {
+    heaterTemperatureC: { min: 200, max: 245, source: `${ISO_SOURCE} single low-pressure: heater plate 200–245 °C`, status: 'from-memory' },
+    beadUpInterfacialPressureMpa: { min: 0.15, max: 0.19, source: `${ISO_SOURCE} single low-pressure: bead-up P1 = 0.17 ± 0.02 MPa`, status: 'from-memory' },
+    fusionInterfacialPressureMpa: { min: 0.15, max: 0.19, source: `${ISO_SOURCE} single low-pressure: fusion P4 = 0.17 ± 0.02 MPa`, status: 'from-memory' },
+    coolingInterfacialPressureMpa: null,
+    minBeadMm: null,
+    heatSoakS: {
+      target: { kind: 'linear', basis: 'wall-mm', perMm: 11, offset: 0 },
+      min: { kind: 'linear', basis: 'wall-mm', perMm: 10, offset: 0 },
+      max: { kind: 'linear', basis: 'wall-mm', perMm: 12, offset: 0 },
+      source: `${ISO_SOURCE} single low-pressure: heat soak t2 = (11 ± 1) × e_n s`,
+      status: 'from-memory',
+    },
+    maxChangeoverS: {
+      rule: { kind: 'linear', basis: 'wall-mm', perMm: 0.3, offset: 4 },
+      source: `${ISO_SOURCE} single low-pressure: heater removal t3 ≤ 4 + 0.3 × e_n s`,
+      status: 'from-memory',
+    },
+    maxPressureBuildUpS: null,
+    minCoolingS: {
+      rule: { kind: 'linear', basis: 'wall-mm', perMm: 60, offset: 180 },
+      source: `${ISO_SOURCE} single low-pressure: cooling in the machine e_n + 3 min`,
+      status: 'from-memory',
+    },
+    wallRangeMm: ISO_WALL_RANGE,
+    outsideDiameterRangeMm: null,
+  },
+  notes: ['Heat-soak pressure is drag only (≈ 0 interfacial).', 'Every ISO 21307 value here is from memory: check against ISO 21307:2017+A1:2020 before use.'],
+};
+
+export const ISO_21307_DLP: ProcedureDefinition = {
+  standard: 'iso-21307-dlp',
+  label: 'ISO 21307 dual low-pressure',
+  windows: {
+    heaterTemperatureC: { min: 230, max: 250, source: `${ISO_SOURCE} dual low-pressure: heater plate 230–250 °C`, status: 'from-memory' },
+    beadUpInterfacialPressureMpa: { min: 0.13, max: 0.17, source: `${ISO_SOURCE} dual low-pressure: bead-up P1 = 0.15 ± 0.02 MPa`, status: 'from-memory' },
+    fusionInterfacialPressureMpa: { min: 0.13, max: 0.17, source: `${ISO_SOURCE} dual low-pressure: fusion P4 = 0.15 ± 0.02 MPa for about 10 s`, status: 'from-memory' },
+    coolingInterfacialPressureMpa: { min: 0.025, max: 0.025, source: `${ISO_SOURCE} dual low-pressure: reduced cooling pressure P5 = 0.025 MPa`, status: 'from-memory' },
+    minBeadMm: null,
+    heatSoakS: null,
+    maxChangeoverS: {
+      rule: { kind: 'constant', value: 10 },
+      source: `${ISO_SOURCE} dual low-pressure: heater removal about 10 s`,
+      status: 'from-memory',
+    },
+    maxPressureBuildUpS: null,
+    minCoolingS: {
+      rule: { kind: 'linear', basis: 'wall-mm', perMm: 60, offset: 180 },
+      source: `${ISO_SOURCE} dual low-pressure: cooling e_n + 3 min at P5`,
+      status: 'from-memory',
+    },
+    wallRangeMm: {
+      min: 20,
+      max: 70,
+      source: `${ISO_SOURCE} dual low-pressure: walls of 20 mm and more (from memory), up to 70 mm (2009/2011 scope, confirmed)`,
+      status: 'from-memory',
+    },
+    outsideDiameterRangeMm: null,
+  },
+  notes: [
+    'Fusion pressure P4 is held for about 10 s, then reduced to P5 for cooling.',
+    'Every ISO 21307 value here is from memory: check against ISO 21307:2017+A1:2020 before use.',
+  ],
+};
+
+export const ISO_21307_SHP: ProcedureDefinition = {
+  standard: 'iso-21307-shp',
+  label: 'ISO 21307 single high-pressure',
+  windows: {
+    heaterTemperatureC: { min: 215, max: 235, source: `${ISO_SOURCE} single high-pressure: heater plate 215–235 °C`, status: 'from-memory' },
+    beadUpInterfacialPressureMpa: { min: 0.42, max: 0.62, source: `${ISO_SOURCE} single high-pressure: bead-up P1 = 0.52 ± 0.10 MPa`, status: 'from-memory' },
+    fusionInterfacialPressureMpa: { min: 0.42, max: 0.62, source: `${ISO_SOURCE} single high-pressure: fusion P4 = 0.52 ± 0.10 MPa`, status: 'from-memory' },
+    coolingInterfacialPressureMpa: null,
+    minBeadMm: null,
+    heatSoakS: null,
+    maxChangeoverS: {
+      rule: { kind: 'linear', basis: 'wall-mm', perMm: 0.1, offset: 8 },
+      source: `${ISO_SOURCE} single high-pressure: heater removal t3 ≤ 8 + 0.1 × e_n s`,
+      status: 'from-memory',
+    },
+    maxPressureBuildUpS: null,
+    minCoolingS: {
+      rule: { kind: 'linear', basis: 'wall-mm', perMm: 0.43 * 60, offset: 0 },
+      source: `${ISO_SOURCE} single high-pressure: cooling 0.43 × e_n min (11 min per inch)`,
+      status: 'from-memory',
+    },
+    wallRangeMm: ISO_WALL_RANGE,
+    outsideDiameterRangeMm: null,
+  },
+  notes: [
+    'Heat soak is ended by bead size (recalled as about 11 × e_n s; not used as a limit).',
+    'Every ISO 21307 value here is from memory: check against ISO 21307:2017+A1:2020 before use.',
+  ],
+};
