@@ -1,0 +1,38 @@
+"use client";
+// The pressure plan shown while the joint is set up: the job's procedure, the machine's
+// piston area, coil A's size and the measured drag pressure give the gauge pressures and
+// the phase limits; until then, the one thing still missing is named.
+import { useMemo } from "react";
+import { planButtFusion, type FusionPlan } from "@/domain/fusion/plan";
+import { phaseLimits } from "@/domain/joints/timer";
+import type { TrenchCoil, TrenchSetup } from "../../_lib/types";
+
+export interface PlanInputs {
+  jobId: unknown;
+  machineId: unknown;
+  heaterId: unknown;
+  drag: unknown;
+  coilA: TrenchCoil | null;
+}
+
+export function useFusionPlanPreview(setup: TrenchSetup, { jobId, machineId, heaterId, drag, coilA }: PlanInputs) {
+  const job = setup.jobs.find((j) => j.id === jobId) ?? null;
+  const machine = setup.machines.find((m) => m.id === machineId) ?? null;
+  const heater = setup.heaters.find((h) => h.id === heaterId) ?? null;
+
+  const { plan, planProblem } = useMemo((): { plan: FusionPlan | null; planProblem: string | null } => {
+    if (!job) return { plan: null, planProblem: "Choose the job: its procedure sets the limits." };
+    if (!job.procedure) return { plan: null, planProblem: `Job ${job.code} has no published procedure version; ask an administrator.` };
+    if (!machine) return { plan: null, planProblem: "Choose the fusion machine: its piston area turns pressures into gauge readings." };
+    if (!machine.isUsable || machine.pistonAreaMm2 === null) return { plan: null, planProblem: machine.problems.join(" ") };
+    if (!coilA) return { plan: null, planProblem: "Scan or type coil A: its size sets the plan." };
+    if (typeof drag !== "number") return { plan: null, planProblem: "Enter the drag pressure you measured to see the gauge pressures to set." };
+    try {
+      return { plan: planButtFusion({ procedure: job.procedure.definition, outsideDiameterMm: coilA.outsideDiameterMm, sdr: coilA.sdr, pistonAreaMm2: machine.pistonAreaMm2, dragPressureMpa: drag }), planProblem: null };
+    } catch (error) {
+      return { plan: null, planProblem: (error as Error).message };
+    }
+  }, [job, machine, coilA, drag]);
+
+  return { job, machine, heater, plan, planProblem, limits: phaseLimits(plan) };
+}

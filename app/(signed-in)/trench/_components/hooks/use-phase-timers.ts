@@ -1,0 +1,51 @@
+"use client";
+// The phase timer: start, end and clear each timed phase; an ended phase fills its
+// duration field (seconds) and is marked "timed". The clock only redraws; the durations
+// come from the stored instants.
+import { useEffect, useState, type Dispatch, type SetStateAction } from "react";
+import { TIMED_PHASES, type TimedPhase } from "@/domain/joints/schemas";
+import { timedDurationS } from "@/domain/joints/timer";
+import type { PhaseTimings, TrenchForm } from "./use-trench-draft";
+
+export const DURATION_FIELD: Record<TimedPhase, "heatSoakS" | "changeoverS" | "coolingS"> = { heatSoak: "heatSoakS", changeover: "changeoverS", cooling: "coolingS" };
+
+export function usePhaseTimers(form: TrenchForm, timers: PhaseTimings, setTimers: Dispatch<SetStateAction<PhaseTimings>>) {
+  const { getValues, setValue } = form;
+  const [now, setNow] = useState(0);
+
+  useEffect(() => {
+    const tick = () => setNow(Date.now());
+    tick();
+    document.addEventListener("visibilitychange", tick);
+    const running = TIMED_PHASES.some((p) => timers[p].startedAt !== null && timers[p].endedAt === null);
+    const id = running ? window.setInterval(tick, 500) : undefined;
+    return () => {
+      document.removeEventListener("visibilitychange", tick);
+      if (id) window.clearInterval(id);
+    };
+  }, [timers]);
+
+  const startPhase = (phase: TimedPhase) => setTimers((t) => ({ ...t, [phase]: { startedAt: Date.now(), endedAt: null } }));
+  const endPhase = (phase: TimedPhase) => {
+    const ended = { ...timers[phase], endedAt: Date.now() };
+    setTimers((t) => ({ ...t, [phase]: ended }));
+    const seconds = timedDurationS(ended);
+    if (seconds !== null) {
+      setValue(DURATION_FIELD[phase], seconds, { shouldValidate: true, shouldDirty: true });
+      setValue("timedFields", [...new Set([...(getValues("timedFields") ?? []), phase])], { shouldDirty: true });
+    }
+  };
+  const clearPhase = (phase: TimedPhase) => {
+    setTimers((t) => ({ ...t, [phase]: { startedAt: null, endedAt: null } }));
+    if ((getValues("timedFields") ?? []).includes(phase)) {
+      setValue(DURATION_FIELD[phase], undefined as unknown as number, { shouldDirty: true });
+      setValue("timedFields", (getValues("timedFields") ?? []).filter((p) => p !== phase), { shouldDirty: true });
+    }
+  };
+  /** A typed duration replaces the timed one: the phase is no longer marked "timed". */
+  const untime = (phase: TimedPhase) => {
+    if ((getValues("timedFields") ?? []).includes(phase)) setValue("timedFields", (getValues("timedFields") ?? []).filter((p) => p !== phase));
+  };
+
+  return { now, startPhase, endPhase, clearPhase, untime };
+}

@@ -1,0 +1,44 @@
+"use client";
+// What keeps the joint from being recorded: the open blocks (qualification, heater check,
+// coil states) less the overrides granted by someone else, sides that do not match, the
+// same coil on both sides, and a pipe size the machine does not take.
+import { useMemo } from "react";
+import { applyOverrides, blockReasons, componentMismatch } from "@/domain/joints/rules";
+import { qualificationStatus } from "@/domain/qualifications/status";
+import type { TrenchCoil, TrenchSetup } from "../../_lib/types";
+import type { useFusionPlanPreview } from "./use-fusion-plan-preview";
+import type { SideCoils } from "./use-trench-draft";
+
+type Preview = ReturnType<typeof useFusionPlanPreview>;
+
+const isoToday = (ms: number) => new Date(ms).toISOString().slice(0, 10);
+
+export function useRecordBlocks(setup: TrenchSetup, { job, machine, heater }: Pick<Preview, "job" | "machine" | "heater">, coils: SideCoils, kind: unknown, now: number) {
+  const system = setup.user.unitSystem;
+  const userId = setup.user.id;
+  const sideB = kind === "coil-to-coil" ? coils.B : null;
+
+  const today = isoToday(now || Date.parse(setup.loadedAt));
+  const blocks = useMemo(() => {
+    if (!job) return { open: [], covered: [] };
+    const qualification = qualificationStatus({ qualifiedOn: job.qualifiedOn, failedTestsOn: job.failedOn, on: today });
+    const reasons = blockReasons({
+      qualification,
+      procedureLabel: job.procedure ? `${job.procedure.code} (${job.procedure.name})` : job.code,
+      heater: heater ? { id: heater.id, assetTag: heater.assetTag, isActive: heater.isActive, lastCheck: heater.lastCheck } : null,
+      coils: [coils.A, sideB].filter((c): c is TrenchCoil => c !== null).map((c) => ({ id: c.id, code: c.code, status: c.status, statusReason: c.statusReason, remainingM: c.remainingM })),
+      on: today,
+      admins: setup.admins,
+      inspectors: setup.inspectors.length ? setup.inspectors : setup.admins,
+    });
+    const grants = setup.overrides.filter((o) => o.grantedById !== userId).map((o) => ({ id: o.id, jobId: o.jobId, subjectType: o.subjectType, subjectId: o.subjectId, grantedAt: new Date(o.grantedAt), expiresAt: new Date(o.expiresAt) }));
+    return applyOverrides(reasons, grants, { jobId: job.id, madeAt: new Date(now || Date.parse(setup.loadedAt)) });
+  }, [job, heater, coils.A, sideB, today, now, setup, userId]);
+
+  const mismatch = coils.A && sideB ? componentMismatch({ label: `Side A (${coils.A.code})`, outsideDiameterMm: coils.A.outsideDiameterMm, sdr: coils.A.sdr }, { label: `side B (${sideB.code})`, outsideDiameterMm: sideB.outsideDiameterMm, sdr: sideB.sdr }, system) : [];
+  const sameCoil = coils.A && sideB && coils.A.id === sideB.id;
+  const odOutsideMachine = machine && coils.A && ((machine.minOdMm !== null && coils.A.outsideDiameterMm < machine.minOdMm - 0.05) || (machine.maxOdMm !== null && coils.A.outsideDiameterMm > machine.maxOdMm + 0.05));
+  const cannotRecord = blocks.open.length > 0 || mismatch.length > 0 || Boolean(sameCoil) || Boolean(odOutsideMachine);
+
+  return { blocks, mismatch, sameCoil, odOutsideMachine, cannotRecord };
+}

@@ -1,0 +1,96 @@
+"use client";
+// "Record joint": a valid form is checked at once against the plan (a preliminary
+// result), put in the device's outbox and sent when it can be; the draft starts afresh
+// keeping the job, machine and heater. Also the remake of an out-of-limits joint and the
+// list of joints this one may replace.
+import { useMemo, useRef, useState, type Dispatch, type SetStateAction } from "react";
+import { checkJoint } from "@/domain/fusion/check";
+import type { FusionPlan } from "@/domain/fusion/plan";
+import { jointMeasurements } from "@/domain/joints/measurements";
+import { saveRemembered, type OutboxEntry, type PhotoRef, type Remembered } from "../../_lib/device-store";
+import { findLocalCoil } from "../../_lib/find-coil";
+import type { TrenchSetup } from "../../_lib/types";
+import type { useOutbox } from "../../_lib/use-outbox";
+import type { FormIn, FormOut, SideCoils } from "./use-trench-draft";
+
+interface RecordJointDeps {
+  setup: TrenchSetup;
+  outbox: ReturnType<typeof useOutbox>;
+  jobId: unknown;
+  job: TrenchSetup["jobs"][number] | null;
+  plan: FusionPlan | null;
+  cannotRecord: boolean;
+  photos: PhotoRef[];
+  setCoils: Dispatch<SetStateAction<SideCoils>>;
+  startNewDraft: (keep: Remembered, extra?: Partial<FormIn>) => void;
+}
+
+export function useRecordJoint({ setup, outbox, jobId, job, plan, cannotRecord, photos, setCoils, startNewDraft }: RecordJointDeps) {
+  const system = setup.user.unitSystem;
+  const userId = setup.user.id;
+  const [shownResult, setShownResult] = useState<string | null>(null);
+  const [formMessage, setFormMessage] = useState<string | null>(null);
+  const resultRef = useRef<HTMLDivElement>(null);
+
+  const remakeOptions = useMemo(() => {
+    const fromServer = setup.remakes.filter((r) => r.jobId === jobId).map((r) => ({ id: r.id, text: `Joint ${r.jointNo} (${r.reviewState === "cut-out" ? "cut out" : "out of limits"}${r.coilACode ? `, ${r.coilACode}` : ""})` }));
+    const fromDevice = outbox.entries
+      .filter((e) => e.result && e.result.outcome === "out-of-limits" && e.result.jobId === jobId && !fromServer.some((f) => f.id === e.result!.id))
+      .map((e) => ({ id: e.result!.id, text: `Joint ${e.result!.jointNo} (out of limits, just recorded)` }));
+    return [...fromDevice, ...fromServer];
+  }, [setup.remakes, outbox.entries, jobId]);
+
+  const onValid = (v: FormOut) => {
+    setFormMessage(null);
+    if (cannotRecord) {
+      setFormMessage("This joint cannot be recorded yet: see the warnings in Set up.");
+      return;
+    }
+    const madeAt = new Date().toISOString();
+    let preliminary: OutboxEntry["preliminary"] = null;
+    if (plan) {
+      const check = checkJoint(plan, jointMeasurements({ ...v, beadUpGaugeMpa: v.beadUpGaugeMpa ?? null, heatSoakS: v.heatSoakS ?? null }), { system });
+      preliminary = { outcome: check.outcome, findings: check.findings.map((f) => f.message) };
+    }
+    const label = `${v.coilA} + ${v.kind === "coil-to-coil" ? v.coilB : v.componentBText}`;
+    const entry: OutboxEntry = {
+      clientId: v.clientId,
+      createdAt: madeAt,
+      jobCode: job?.code ?? `job ${v.jobId}`,
+      label,
+      payload: { ...v, madeAt },
+      photos,
+      state: "waiting",
+      attempts: 0,
+      lastTriedAt: null,
+      message: navigator.onLine ? "Sending …" : "No signal: waiting to send. It goes as soon as the connection is back.",
+      preliminary,
+    };
+    outbox.enqueue(entry);
+    const keep = { jobId: v.jobId, machineId: v.machineId, heaterId: v.heaterId };
+    saveRemembered(userId, keep);
+    setShownResult(v.clientId);
+    setCoils({ A: null, B: null });
+    startNewDraft(keep);
+    window.setTimeout(() => resultRef.current?.scrollIntoView({ behavior: "smooth", block: "start" }), 50);
+  };
+
+  const onInvalid = () => setFormMessage("Some values are missing or not valid: see the fields marked in red.");
+
+  const remake = (entry: OutboxEntry) => {
+    const p = entry.payload;
+    const keep = { jobId: p.jobId as number, machineId: p.machineId as number, heaterId: p.heaterId as number };
+    const a = findLocalCoil(setup.coils, String(p.coilA ?? ""));
+    const b = p.coilB ? findLocalCoil(setup.coils, String(p.coilB)) : null;
+    startNewDraft(keep, { kind: p.kind as FormIn["kind"], coilA: String(p.coilA ?? ""), coilB: (p.coilB as string | null) ?? "", componentBText: (p.componentBText as string | null) ?? "", replacesJointId: entry.result!.id, station: (p.station as string | null) ?? "" });
+    setCoils({ A: a, B: b });
+    setShownResult(null);
+    setFormMessage(`Recording the remake of joint ${entry.result!.jointNo}: it will link to the joint it replaces.`);
+    window.scrollTo({ top: 0, behavior: "smooth" });
+  };
+
+  const shown = outbox.entries.find((e) => e.clientId === shownResult) ?? null;
+  const dismissResult = () => setShownResult(null);
+
+  return { onValid, onInvalid, remake, shown, dismissResult, formMessage, resultRef, remakeOptions };
+}
