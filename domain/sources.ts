@@ -1,5 +1,5 @@
 // Provenance tags carried by every published value in the domain, so screens and tests
-// can say where a number comes from. Tags mirror shared/reference/standards.md:
+// can say where a number comes from. Tags:
 // confirmed = read in the public text; confirmed-2nd = read in a secondary reproduction;
 // from-memory = not found in public material, kept as editable data until checked.
 

@@ -100,7 +100,7 @@ export const DAMAGE_LABELS: Readonly<Record<DamageKind, string>> = {
 export const DEFAULT_GOUGE_LIMIT_PCT = 10;
 /**
  * Default ovality limit for coiled pipe at the end, %: about 5 % (ASTM D2513 coiled-pipe
- * clause as recalled for ≤ 3" IPS; standards.md §9 FROM MEMORY, UNCONFIRMED).
+ * clause as recalled for ≤ 3" IPS; FROM MEMORY, UNCONFIRMED).
  */
 export const DEFAULT_OVALITY_LIMIT_PCT = 5;
 
@@ -118,9 +118,9 @@ export interface ReceiptInspectionInput {
 
 /**
  * Receipt inspection verdict. Fails (the coil is quarantined) when: a gouge is deeper than
- * the limit (% of the minimum wall OD/SDR, standards.md §8.2), or gouges are reported
+ * the limit (% of the minimum wall OD/SDR, ASTM D3035), or gouges are reported
  * without a depth; a kink or flattening is reported; the ovality at the end is above the
- * limit (ovality = (d_max − d_min)/d_n × 100 %, standards.md §9); the end caps are missing
+ * limit (ovality = (d_max − d_min)/d_n × 100 %, ISO 11922-1); the end caps are missing
  * (the bore may be contaminated). Each reason is a plain sentence.
  */
 export function judgeReceiptInspection(input: ReceiptInspectionInput): { passed: boolean; reasons: string[] } {
@@ -168,7 +168,7 @@ function sizeFromFactor(factor: number) {
  * The receipt fields an F2897 code encodes: manufacturer id, lot (7 digits), production
  * date, material (Table 4) and, for an in-line component with a Table 6 factor (C1 = C2),
  * the series, nominal size, SDR and OD. CTS tubing is sold by wall, so its SDR is
- * OD / wall rounded to 0.01. Source: ASTM F2897-23a Tables 1, 4, 6 and §5.7 (standards.md §7).
+ * OD / wall rounded to 0.01. Source: ASTM F2897-23a Tables 1, 4, 6 and §5.7.
  */
 export function fieldsFromTraceCode(value: TraceCodeValue): FieldsFromTraceCode {
   const fields: FieldsFromTraceCode = {
@@ -208,7 +208,7 @@ export type TraceCodeFlag = { field: string; message: string };
  * the form field and says both values. Empty typed fields are not flagged (the code fills
  * them). A code that does not parse is one flag on `traceCode`. The component type must be
  * pipe (Table 5 codes 10–13); a coil should carry 12 (coiled pipe).
- * Source: ASTM F2897-23a Tables 1, 4, 5, 6 (standards.md §7).
+ * Source: ASTM F2897-23a Tables 1, 4, 5, 6.
  */
 export function traceCodeDisagreements(code: string, typed: TypedCoilFields): TraceCodeFlag[] {
   const parsed = parseTraceCode(code);

@@ -2,7 +2,7 @@
 // piston area, measured drag pressure) under a procedure. Gauge pressure to set =
 // interfacial pressure × fusion area ÷ total effective piston area + drag pressure
 // (PPI generic butt-fusion procedure as reproduced in a pipe maker's manual, §6.2.5;
-// standards.md §2.1, CONFIRMED-2nd for the method, exact geometry for the areas).
+// PPI TR-33; CONFIRMED-2nd for the method, exact geometry for the areas).
 
 import { DomainError } from '@/domain/errors';
 import { pipeGeometry } from '@/domain/pipe/geometry';
@@ -98,7 +98,7 @@ function assertPositive(value: number, label: string, unit: string): void {
 /**
  * Gauge pressure (MPa) that produces an interfacial pressure on a pipe end:
  * IFP × fusion area ÷ piston area + drag. MPa × mm² = N, N ÷ mm² = MPa. Not rounded.
- * Source: PPI generic procedure gauge method (standards.md §2.1).
+ * Source: PPI generic procedure gauge method (PPI TR-33, as reproduced in a pipe maker's manual §6.2.5).
  */
 export function gaugePressureForInterfacialPressure(input: {
   interfacialPressureMpa: number;
@@ -113,7 +113,7 @@ export function gaugePressureForInterfacialPressure(input: {
 /**
  * Interfacial pressure (MPa) a logged gauge reading implies: (gauge − drag) × piston area
  * ÷ fusion area. Not rounded; negative when the gauge reads below drag (no force on the
- * pipe ends), which callers treat as "no fusion pressure". Source: standards.md §2.1.
+ * pipe ends), which callers treat as "no fusion pressure". Source: PPI TR-33 gauge method, inverted.
  */
 export function interfacialPressureFromGauge(input: {
   gaugePressureMpa: number;
@@ -145,7 +145,7 @@ const roundSeconds = (value: number | null): number | null =>
  * mm², drag MPa; either a built-in `standard` or an operator's `procedure`.
  * Throws DomainError for impossible input (OD ≤ 0, SDR ≤ 2, piston area ≤ 0, negative
  * drag) and for a pipe outside the procedure's wall or OD range.
- * Sources: see each procedure value's `source`; gauge method standards.md §2.1.
+ * Sources: see each procedure value's `source`; gauge method PPI TR-33 (pipe maker's manual §6.2.5).
  */
 export function planButtFusion(input: PlanButtFusionInput): FusionPlan {
   const procedure = resolveProcedure(input);

@@ -5,10 +5,10 @@
 // `on` ('YYYY-MM-DD') and every record are passed in.
 //
 // Sources: butt fusion joins pipe of the same OD and wall (SDR) — ASTM F2620 scope and the
-// PPI generic procedure (standards.md §2); a fuser must hold a current qualification for
+// PPI generic procedure (PPI TR-33); a fuser must hold a current qualification for
 // the procedure (49 CFR 192.285, domain/qualifications); the heater face is checked before
-// the first joint of the day (PPI "Melt Procedure" page, standards.md §1.1); quarantine
-// and used-up are Beadline's coil states (DESIGN.md).
+// the first joint of the day (PPI "Melt Procedure" page, ASTM F2620); quarantine
+// and used-up are Beadline's own coil states (no published source).
 
 import { isHeaterCheckOverdue, isHeaterFlagged } from '@/domain/office/rules';
 import type { QualificationStatus } from '@/domain/qualifications/status';
@@ -35,7 +35,7 @@ const SDR_TOLERANCE = 0.01;
 /**
  * Differences between the two sides of a butt-fusion joint: a different outside diameter
  * or a different SDR (so a different wall) cannot be butt fused — the ends must match
- * (ASTM F2620 §1 scope; PPI generic procedure, standards.md §2). Empty when they match.
+ * (ASTM F2620 §1 scope; PPI TR-33 generic procedure). Empty when they match.
  */
 export function componentMismatch(a: ComponentSize, b: ComponentSize, system: UnitSystem = 'si'): Mismatch[] {
   const out: Mismatch[] = [];

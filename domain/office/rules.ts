@@ -4,8 +4,8 @@
 //
 // Sources: the heater face must be checked with a pyrometer or other surface thermometer
 // before the first joint of the day and periodically (PPI "Melt Procedure" page,
-// standards.md §1.1, CONFIRMED); the gauge-pressure method needs the machine's total
-// effective piston area (standards.md §2.1, CONFIRMED-2nd), so a machine without it
+// ASTM F2620, CONFIRMED); the gauge-pressure method needs the machine's total
+// effective piston area (PPI TR-33 gauge method, CONFIRMED-2nd), so a machine without it
 // cannot be planned for.
 
 import { addDays } from '@/domain/office/dates';

@@ -1,6 +1,6 @@
 // Minimum long-term (cold) bend radius of PE pipe, R = α × OD, with α by DR.
 // Source: PPI Handbook of PE Pipe minimum-bend-ratio table, as reproduced in two pipe
-// suppliers' pages (CONFIRMED-2nd, standards.md §9).
+// suppliers' pages (CONFIRMED-2nd).
 
 import { DomainError } from '@/domain/errors';
 import { assertPipeInput } from '@/domain/pipe/geometry';

@@ -1,7 +1,7 @@
 // Catalogue of PE pipe sizes: IPS (iron pipe size, ODs of ASME B36.10 as used by
 // ASTM D2513/D3035), CTS (copper tube size) and the metric ISO 4427-2 / ISO 4437-2 series,
 // with the metric minimum-wall (e_min) tables for SDR 11 and SDR 17.
-// Status of each value follows shared/reference/standards.md §8.
+// Status of each value (CONFIRMED, CONFIRMED-2nd, FROM MEMORY) is marked beside it.
 
 import { DomainError } from '@/domain/errors';
 import { inToMm } from '@/domain/units/conversions';
@@ -32,7 +32,7 @@ interface InchSizeRow {
 }
 
 // IPS ODs in inches — CONFIRMED (pipe makers' data sheets; F2897-23a Table 6 walls
-// back-compute to these ODs); standards.md §8.1.
+// back-compute to these ODs); ASME B36.10 outside diameters.
 const IPS_ROWS: readonly InchSizeRow[] = [
   { nominal: '1/2', label: '½"', odIn: 0.84, status: 'confirmed' },
   { nominal: '3/4', label: '¾"', odIn: 1.05, status: 'confirmed' },
@@ -55,7 +55,7 @@ const IPS_ROWS: readonly InchSizeRow[] = [
   { nominal: '24', label: '24"', odIn: 24, status: 'confirmed' },
 ];
 
-// CTS ODs (nominal + 1/8 in): ¾"–2" CONFIRMED, ¼"–½" FROM MEMORY (standards.md §8.1).
+// CTS ODs (nominal + 1/8 in): ¾"–2" CONFIRMED, ¼"–½" FROM MEMORY.
 const CTS_ROWS: readonly InchSizeRow[] = [
   { nominal: '1/4', label: '¼"', odIn: 0.375, status: 'from-memory' },
   { nominal: '3/8', label: '⅜"', odIn: 0.5, status: 'from-memory' },
@@ -81,7 +81,7 @@ export const IPS_SDR_SERIES: readonly number[] = [7, 9, 9.33, 11, 13.5, 17, 21, 
 
 /**
  * Metric minimum wall e_min, mm, by d_n — ISO 4427-2 / ISO 4437-2 tables as read in
- * stored reproductions (CONFIRMED-2nd, standards.md §8.3). The tables are not a single
+ * stored reproductions (CONFIRMED-2nd). The tables are not a single
  * rounding of d_n/SDR and small sizes are floored at 2.0 mm, so they are looked up.
  * 500 mm SDR 17 is 29.7 (one reproduction reads 27.7, most likely a misprint; 500/17 = 29.4).
  */
@@ -162,7 +162,7 @@ export function findPipeSize(series: PipeSeries, nominal: string): PipeSize {
 /**
  * Outside diameter in mm of a nominal size. IPS/CTS: the inch OD × 25.4 exactly
  * (e.g. 2" IPS → 60.325 mm); metric: d_n itself. Throws DomainError for an unknown size.
- * Source: standards.md §8.1 (IPS CONFIRMED, CTS ¾"–2" CONFIRMED), §8.3 (metric CONFIRMED-2nd).
+ * Source: ASME B36.10 IPS ODs (CONFIRMED), CTS = nominal + ⅛" (¾"–2" CONFIRMED), ISO 4427-2 / ISO 4437-2 (metric CONFIRMED-2nd).
  */
 export function nominalOutsideDiameterMm(series: PipeSeries, nominal: string): number {
   return findPipeSize(series, nominal).outsideDiameterMm;

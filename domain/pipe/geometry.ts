@@ -1,7 +1,7 @@
 // Pipe geometry for butt fusion: minimum wall t = OD / SDR and fusion (annular end) area
 // A = π·(OD − t)·t, which equals π/4·(OD² − ID²) with ID = OD − 2t.
-// Sources: SDR = OD / minimum wall (ASTM D3035, ISO 4427 notes; standards.md §8.2);
-// ASTM IPS tables = OD/SDR rounded to 0.001 in; ISO metric walls looked up (§8.3).
+// Sources: SDR = OD / minimum wall (ASTM D3035, ISO 4427 notes);
+// ASTM IPS tables = OD/SDR rounded to 0.001 in; ISO metric walls looked up (ISO 4427-2 / ISO 4437-2 tables).
 
 import { DomainError } from '@/domain/errors';
 import { roundTo } from '@/domain/units/format';
@@ -44,7 +44,7 @@ export function assertPipeInput(outsideDiameterMm: number, sdr: number): void {
 
 /**
  * Fusion (annular end) area in mm² of a pipe end: π·(OD − t)·t. Inputs mm; not rounded.
- * Source: exact geometry (standards.md §2.1).
+ * Source: exact geometry.
  */
 export function fusionAreaMm2(outsideDiameterMm: number, wallMm: number): number {
   return Math.PI * (outsideDiameterMm - wallMm) * wallMm;
@@ -54,7 +54,7 @@ export function fusionAreaMm2(outsideDiameterMm: number, wallMm: number): number
  * Minimum wall and fusion area of a pipe. Inputs: OD in mm, SDR (dimensionless), optional
  * table wall in mm. Wall = OD / SDR unless `wallMm` is given; nothing is rounded (round
  * for display only). Throws DomainError for OD ≤ 0, SDR ≤ 2 or a wall outside (0, OD/2).
- * Source: SDR definition (ASTM D3035 / ISO 4427), standards.md §8.2.
+ * Source: SDR definition (ASTM D3035 / ISO 4427).
  */
 export function pipeGeometry(input: PipeGeometryInput): PipeGeometry {
   const { outsideDiameterMm, sdr } = input;
@@ -70,7 +70,7 @@ export function pipeGeometry(input: PipeGeometryInput): PipeGeometry {
   return { wallMm, fusionAreaMm2: fusionAreaMm2(outsideDiameterMm, wallMm) };
 }
 
-// Published IPS walls that are not the plain rounding of OD/SDR (standards.md §8.2,
+// Published IPS walls that are not the plain rounding of OD/SDR (ASTM D3035 table,
 // CONFIRMED from ASTM F2897-23a Table 6 / D2513 listing): 1" SDR 9.33 is listed at
 // 0.140 in although 1.315 / 9.33 = 0.1409.
 const IPS_WALL_EXCEPTIONS_IN: Readonly<Record<string, number>> = { '1@9.33': 0.14 };
@@ -78,7 +78,7 @@ const IPS_WALL_EXCEPTIONS_IN: Readonly<Record<string, number>> = { '1@9.33': 0.1
 /**
  * Minimum wall in inches of an IPS pipe as the ASTM tables list it: OD/SDR rounded half
  * up to 0.001 in, except the listed exceptions. Throws DomainError for an unknown size or
- * SDR ≤ 2. Source: standards.md §8.2 (ASTM D3035 table, F2897-23a Table 6), CONFIRMED.
+ * SDR ≤ 2. Source: ASTM D3035 table, ASTM F2897-23a Table 6, CONFIRMED.
  */
 export function ipsMinimumWallIn(nominal: string, sdr: number): number {
   const size = findPipeSize('ips', nominal);
@@ -90,7 +90,7 @@ export function ipsMinimumWallIn(nominal: string, sdr: number): number {
 
 /**
  * Metric minimum wall e_min in mm looked up in the ISO 4427-2 / 4437-2 table for SDR 11
- * or 17 (CONFIRMED-2nd, standards.md §8.3). Returns null when the table has no entry
+ * or 17 (CONFIRMED-2nd). Returns null when the table has no entry
  * (other SDRs, 16 mm, 630 mm) — callers then fall back to OD/SDR and say so.
  */
 export function metricMinimumWallMm(outsideDiameterMm: number, sdr: number): number | null {

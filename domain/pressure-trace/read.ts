@@ -2,7 +2,7 @@
 // fusion (with cooling), their durations, and the gauge pressures held. The phase model
 // is the trade's description of a hydraulic butt-fusion cycle (bead-up at pressure, heat
 // soak at drag only, heater removal, fusion pressure held while cooling; PPI generic
-// procedure, standards.md §1.1) — the detection method itself is our own.
+// procedure, PPI TR-33; ASTM F2620) — the detection method itself is our own.
 //
 // Method: a 3-sample running median removes single-sample spikes (a wider one would also
 // erase a changeover of a few samples); levels

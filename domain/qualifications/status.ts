@@ -1,6 +1,6 @@
 // Fuser qualification status for plastic-pipe joining under US 49 CFR 192.285(c):
 // the current rule (Plastic Pipe Rule, 83 FR 58694, effective 2019-01-22) and the legacy
-// rule that governs records made before that date (standards.md §5.4, CONFIRMED).
+// rule that governs records made before that date (49 CFR 192.285(c), CONFIRMED).
 // Dates are ISO 'YYYY-MM-DD' civil dates; "on" is passed in (no clock).
 
 import { DomainError } from '@/domain/errors';
@@ -74,7 +74,7 @@ const NEVER = (on: string, rule: QualificationRule): QualificationStatus => ({
  * person requalifies (a requalification dated the same day as a failure is taken to follow
  * it). Due soon = runs out within 30 days of `on`. When `on` is before 2019-01-22 and
  * `jointsMadeOn` is given, the legacy rule applies instead (legacyQualificationStatus).
- * Source: 49 CFR 192.285(c) current and legacy texts (CONFIRMED, standards.md §5.4).
+ * Source: 49 CFR 192.285(c) current and legacy texts (CONFIRMED).
  * Throws DomainError for a malformed date or an interval outside 1–15 months.
  */
 export function qualificationStatus(input: QualificationStatusInput): QualificationStatus {
@@ -152,7 +152,7 @@ export interface LegacyQualificationStatusInput {
  * or joint — qualified through that date + 12 months; failures and joints count only after
  * the last qualification; failures are counted over the shortest span that holds them
  * within 12 months, with the joints made in that span as the 3 % base (the strictest
- * reading). Source: 49 CFR 192.285(c) legacy text (CONFIRMED, standards.md §5.4).
+ * reading). Source: 49 CFR 192.285(c) legacy text (CONFIRMED).
  */
 export function legacyQualificationStatus(input: LegacyQualificationStatusInput): QualificationStatus {
   const on = input.on;

@@ -1,6 +1,6 @@
 // ASTM F2897-23a tracking and traceability code: parse and build the 16-character code
 // (manufacturer, lot, production date, material, component type, size, index).
-// Source: ASTM F2897-23a §§3–5, Tables 1, 2, 4, 5, 6 (CONFIRMED, standards.md §7).
+// Source: ASTM F2897-23a §§3–5, Tables 1, 2, 4, 5, 6 (CONFIRMED).
 //
 // Century convention (our choice, documented): the code stores a two-digit year (DDDYY).
 // F2897 was first published in 2011, so no code can name a year before 2000; YY is read
@@ -26,7 +26,7 @@ export const MATERIAL_CODES: Readonly<Record<string, string>> = {
 
 /**
  * Component type codes — the subset of F2897-23a Table 5 that Beadline needs
- * (CONFIRMED, standards.md §7.4). Codes outside this subset are refused as unknown.
+ * (CONFIRMED). Codes outside this subset are refused as unknown.
  */
 export const COMPONENT_TYPE_CODES: Readonly<Record<string, string>> = {
   '10': 'pipe, other', '11': 'pipe, straight', '12': 'pipe, coiled', '13': 'pipe, casing',
@@ -40,7 +40,7 @@ export const COMPONENT_TYPE_CODES: Readonly<Record<string, string>> = {
   R5: 'riser', R6: 'riser', EF: 'excess-flow valve',
 };
 
-/** A size factor of F2897-23a Table 6 (selection in standards.md §7.5, CONFIRMED). */
+/** A size factor of F2897-23a Table 6 (a selection; §5.7, CONFIRMED). */
 export interface SizeFactorEntry {
   series: 'ips' | 'cts';
   nominal: string;

@@ -1,6 +1,6 @@
 // Review decisions against the real database: who may decide, what a decision writes
 // (revision, projection, audit entry, the fuser's notice), and optimistic locking.
-// Rules: DESIGN.md "Joint states" and STYLE.md "Nobody reviews a joint they made
+// Rules: Beadline's joint states and its rule "Nobody reviews a joint they made
 // themselves" — common practice (no published source) for separation of duties in QA.
 import { beforeEach, describe, expect, it } from "vitest";
 import { decideJointAction } from "@/app/(signed-in)/review/actions";

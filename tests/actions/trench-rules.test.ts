@@ -15,7 +15,7 @@ import { qualificationStatus } from "@/domain/qualifications/status";
 import { buildTraceCode } from "@/domain/trace-code/trace-code";
 
 // IPS outside diameters: 2" = 2.375 in = 60.33 mm, 4" = 4.500 in = 114.3 mm
-// source: ASME B36.10M / ASTM D2513 IPS sizes (standards.md §3)
+// source: ASME B36.10M / ASTM D2513 IPS sizes
 const TWO_IN = 60.33;
 const FOUR_IN = 114.3;
 

@@ -2,7 +2,7 @@
 // about 30 joints over two weeks, gap-free numbers per job, verdicts that the joint check
 // reproduces from the stored plan and values, a few out of limits, and one cut-out joint
 // whose remake links back to it. Joint numbering and the cut-out/remake link follow
-// DESIGN.md (common practice, no published source); the check's windows are the
+// Beadline's own rules (common practice, no published source); the check's windows are the
 // procedure's (see tests/domain for their sources).
 import { beforeAll, describe, expect, it } from "vitest";
 import { checkJoint } from "@/domain/fusion/check";

@@ -5,12 +5,12 @@
 //
 // Reference values (outside Beadline's code):
 // - Heater surface window 400–450 °F = 204.4–232.2 °C for ASTM F2620 butt fusion
-//   // source: ASTM F2620 via the PPI "Melt Procedure" page (standards.md §1.1, CONFIRMED)
+//   // source: ASTM F2620 via the PPI "Melt Procedure" page (CONFIRMED)
 // - Gauge pressure = interfacial pressure × fusion area ÷ total effective piston area + drag;
 //   fusion area = π·(OD − t)·t with t = OD/SDR
-//   // source: PPI generic butt-fusion procedure as reproduced in a pipe maker's manual §6.2.5 (standards.md §2.1)
+//   // source: PPI generic butt-fusion procedure as reproduced in a pipe maker's manual §6.2.5 (PPI TR-33)
 // - A fuser's qualification runs at most 15 months and to 31 Dec of the next year
-//   // source: 49 CFR 192.285(c) (standards.md §5.4, CONFIRMED)
+//   // source: 49 CFR 192.285(c) (CONFIRMED)
 import { PNG } from "pngjs";
 import { randomUUID } from "node:crypto";
 import { beforeEach, describe, expect, it } from "vitest";

@@ -92,7 +92,7 @@ describe("queries the Trench and Today screens read", () => {
     const jobId = await makeJob({ procedureId: p.id });
     const v = await currentProcedureVersionForJob({ jobId });
     expect(v?.id).toBe(p.versionId);
-    // ISO 21307 single low-pressure fusion pressure 0.17 ± 0.02 MPa — from memory, unconfirmed (standards.md §3).
+    // ISO 21307 single low-pressure fusion pressure 0.17 ± 0.02 MPa — from memory, unconfirmed (ISO 21307:2017).
     expect(v?.definition.windows.fusionInterfacialPressureMpa).toMatchObject({ min: 0.15, max: 0.19, status: "from-memory" });
     expect(await currentProcedureVersionForJob({ jobId: 999_999 })).toBeNull();
     expect(await findProcedureVersionById({ id: 999_999 })).toBeNull();

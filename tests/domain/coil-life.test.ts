@@ -17,7 +17,7 @@ import { layoutRun, parseStation } from "@/domain/coil-life/schematic";
 import { moveCoilSchema, receiveCoilSchema, traceSearchSchema } from "@/domain/coil-life/schemas";
 import { parseTraceCode } from "@/domain/trace-code/trace-code";
 
-// A code worked out by hand from ASTM F2897-23a (standards.md §7), not with the code under test:
+// A code worked out by hand from ASTM F2897-23a §§3–5, not with the code under test:
 // "QF" manufacturer; lot 4410021 → base 62 (Table 2: 0–9, a–z, A–Z) = 18·62³ + 31·62² + 15·62 + 23 → "ivfn";
 // 14 Aug 2026 = day 226 → DDDYY 22626 = 5·62² + 54·62 + 58 → "5SW" (Table 1);
 // material H = PE4710 (Table 4); component 12 = coiled pipe (Table 5);
@@ -101,21 +101,21 @@ describe("nextRunWarning", () => {
 });
 
 describe("judgeReceiptInspection", () => {
-  // 2" IPS SDR 11: OD 2.375 in = 60.325 mm (standards.md §8.1), minimum wall OD/SDR = 5.484 mm (§8.2).
+  // 2" IPS SDR 11: OD 2.375 in = 60.325 mm (ASME B36.10), minimum wall OD/SDR = 5.484 mm (ASTM D3035).
   const base = { outsideDiameterMm: 60.325, sdr: 11, damageKinds: [], gougeDepthMm: null, gougeLimitPct: 10, ovalityPct: 2, ovalityLimitPct: 5, endCapsInPlace: true } as const;
 
   it("passes a clean coil", () => {
     expect(judgeReceiptInspection(base)).toEqual({ passed: true, reasons: [] });
   });
   it("fails a gouge deeper than 10 % of the wall (0.55 mm) and passes one of 0.50 mm", () => {
-    // from memory, unconfirmed: 10 % of wall as the operator's gouge limit; wall from standards.md §8.2
+    // from memory, unconfirmed: 10 % of wall as the operator's gouge limit; wall OD/SDR (ASTM D3035)
     expect(judgeReceiptInspection({ ...base, damageKinds: ["gouge"], gougeDepthMm: 0.5 }).passed).toBe(true);
     const failed = judgeReceiptInspection({ ...base, damageKinds: ["gouge"], gougeDepthMm: 0.6 });
     expect(failed.passed).toBe(false);
     expect(failed.reasons[0]).toBe("Gouge 0.60 mm deep is deeper than the limit of 0.55 mm (10 % of the 5.48 mm minimum wall)");
   });
   it("fails kinks, flattening, ovality over the limit and missing end caps, each with a reason", () => {
-    // from memory, unconfirmed: coiled-pipe ovality limit about 5 % (standards.md §9)
+    // from memory, unconfirmed: coiled-pipe ovality limit about 5 % (ASTM D2513)
     const result = judgeReceiptInspection({ ...base, damageKinds: ["kink", "flattening"], ovalityPct: 6.2, endCapsInPlace: false });
     expect(result.passed).toBe(false);
     expect(result.reasons).toEqual(["Kinked or buckled pipe", "Flattened pipe", "Ovality at the end 6.2 % is above the 5 % limit", "End caps missing: the bore may be contaminated"]);
@@ -142,7 +142,7 @@ describe("F2897 code → receipt fields, and disagreements", () => {
       sdr: 11,
       outsideDiameterMm: expect.any(Number),
     });
-    expect(fields.outsideDiameterMm).toBeCloseTo(60.325, 9); // source: standards.md §8.1, 2.375 in × 25.4
+    expect(fields.outsideDiameterMm).toBeCloseTo(60.325, 9); // source: ASME B36.10 IPS OD, 2.375 in × 25.4
   });
 
   it("finds no disagreement with matching typed fields", () => {
@@ -206,7 +206,7 @@ describe("schemas", () => {
 
   it("turns a coil typed in feet into metres and fills the OD from the size", () => {
     const parsed = receiveCoilSchema.parse(valid);
-    // source: NIST SP 811, 500 ft × 0.3048 = 152.4 m; standards.md §8.1, 2" IPS OD 2.375 in = 60.325 mm
+    // source: NIST SP 811, 500 ft × 0.3048 = 152.4 m; ASME B36.10, 2" IPS OD 2.375 in = 60.325 mm
     expect(parsed.lengthM).toBe(152.4);
     expect(parsed.outsideDiameterMm).toBeCloseTo(60.325, 6);
     expect(parsed.gougeLimitPct).toBe(10);

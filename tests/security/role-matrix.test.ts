@@ -6,7 +6,7 @@
 // never 500). Routes and actions are discovered from the file system: one missing from the
 // list fails the test. Route handlers that change data also refuse a cross-origin request.
 // source: OWASP Authorization Cheat Sheet (deny by default, check on every request) — and
-// the role table of shared/DESIGN.md "People and roles".
+// Beadline's role table (domain/roles).
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Role } from "@/domain/roles";
 import { captureLogs } from "@/app/_lib/log";

@@ -1,6 +1,6 @@
 // Butt-fusion procedures as data: parameter windows of ASTM F2620, ISO 21307 (single
 // low-pressure, dual low-pressure, single high-pressure) and DVS 2207-1, each value with
-// its source and status (standards.md §1, §3, §4), plus operator-derived procedures that
+// its source and status (ASTM F2620, ISO 21307:2017, DVS 2207-1), plus operator-derived procedures that
 // may only tighten a base procedure.
 //
 // Everything here is plain JSON-compatible data (numbers, strings, arrays, null), so a
