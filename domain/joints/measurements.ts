@@ -1,7 +1,7 @@
 // From a recorded joint's values to the joint check's measurements (domain/fusion/check).
 // The two visual bead checks — a uniform double roll-back bead, and a V-groove between the
 // beads that does not reach below the pipe surface — are one "visual bead" parameter of the
-// check (PPI generic butt-fusion procedure, PPI TR-33, visual acceptance; PPI "Acceptable & Unacceptable Bead Cross-Sections" page).
+// check (PPI TR-33 generic butt-fusion procedure, visual acceptance; PPI bead cross-sections page).
 
 import type { JointMeasurements } from '@/domain/fusion/check';
 

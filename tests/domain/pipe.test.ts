@@ -153,7 +153,7 @@ describe('IPS minimum wall = OD/SDR rounded to 0.001 in', () => {
 
 describe('pipeGeometry', () => {
   test.each([
-    // source: exact geometry A = π·(OD − t)·t = π/4·(OD² − ID²) (exact geometry)
+    // source: exact geometry A = π·(OD − t)·t = π/4·(OD² − ID²)
     [60.325, 11],
     [168.275, 11],
     [110, 17],

@@ -22,7 +22,7 @@ test("an admin keeps procedures, equipment and qualifications; the fuser's Today
   const v1 = procedures.windows(1).getByRole("row", { name: /Heater surface temperature/ });
   await expect(v1).toContainText("204–232 °C");
   await expect(v1).toContainText("confirmed");
-  // F2620 interfacial pressure 60–90 psi is from memory, unconfirmed (ASTM F2620).
+  // F2620 interfacial pressure 60–90 psi is from memory, unconfirmed.
   await expect(procedures.windows(1).getByRole("row", { name: /Fusion interfacial pressure/ })).toContainText("from memory, unconfirmed");
 
   // A loosening is refused with the field named.
