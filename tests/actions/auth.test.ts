@@ -11,7 +11,7 @@ import { ownerDb, resetDatabase } from "../support/db";
 import { makeUser, TEST_PASSWORD } from "../support/users";
 import { testRequestState } from "../support/request-state";
 
-const adminOnlyAction = defineAction({ audience: ["admin"], schema: z.object({ n: z.number({ error: "n must be a number." }) }) }, async (input) => input.n * 2);
+const adminOnlyAction = defineAction({ permission: "manageCrew", schema: z.object({ n: z.number({ error: "n must be a number." }) }) }, async (input) => input.n * 2);
 const adminOnlyRoute = defineRoute({ audience: ["admin"] }, async () => Response.json({ ok: true }));
 
 describe("sign-in", () => {
