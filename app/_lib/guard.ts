@@ -127,7 +127,7 @@ export type RouteSpec<S extends ZodType, PS extends ZodType> = {
  * body (`json`), the query string (`query`), or is left to the handler (`raw`, e.g.
  * uploads; `none`).
  */
-export function defineRoute<S extends ZodType = ZodType<undefined>, PS extends ZodType = ZodType<RawParams>>(
+export function defineRoute<S extends ZodType = ZodType<unknown>, PS extends ZodType = ZodType<RawParams>>(
   spec: RouteSpec<S, PS>,
   impl: (input: z.output<S>, ctx: RouteContext<z.output<PS>>) => Promise<Response>,
 ): (request: Request, routeCtx: { params: Promise<RawParams> }) => Promise<Response> {
