@@ -65,12 +65,6 @@ export const PERMISSIONS = {
 
 export type Permission = keyof typeof PERMISSIONS;
 
-export const PERMISSION_NAMES = Object.keys(PERMISSIONS) as Permission[];
-
-export function isPermission(value: string): value is Permission {
-  return Object.hasOwn(PERMISSIONS, value);
-}
-
 /** Does this person hold the permission (through any one of their roles)? */
 export function can(actor: Pick<Actor, "roles"> | null | undefined, permission: Permission): boolean {
   return hasAnyRole(actor, PERMISSIONS[permission]);
