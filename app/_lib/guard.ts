@@ -1,27 +1,28 @@
-// The one opening of every server action and route handler: session → role → validate →
-// delegate. The wrapped function receives typed input and the signed-in person; it calls
-// domain/ and database/ and holds no SQL or calculation itself.
+// The one opening of every server action and route handler: session → permission →
+// validate (path params, then input) → delegate. The wrapped function receives typed input
+// and the signed-in person; it calls domain/ and database/ and holds no SQL or calculation
+// itself. A DomainError thrown underneath (impossible input to a computation) becomes 422.
 import { randomUUID } from "node:crypto";
 import { cookies } from "next/headers";
 import type { ZodType, z } from "zod";
 import { isDatabaseUnavailable } from "@/database/client";
 import type { UserRecord } from "@/database/queries/users";
-import { hasAnyRole, type Role } from "@/domain/roles";
+import { isDomainError } from "@/domain/errors";
+import { allows, type Permission } from "@/domain/roles";
 import { AppError, STATUS_FOR_CODE, describeFieldErrors, failure, fieldErrorsFromIssues, type ActionResult, type ErrorCode, type FieldErrors } from "@/domain/result";
 import { requestLogger } from "./log";
 import { SESSION_COOKIE, cookieFromHeader, userFromSealedCookie } from "./session";
 
-/** Who may call: a list of roles (any one suffices), or any signed-in person. */
-export type Audience = readonly Role[] | "signed-in";
+/** Who may call: a named permission of domain/roles, or any signed-in person. */
+export type Audience = Permission | "signed-in";
 
 export type Context = { user: UserRecord; requestId: string };
 
-function allowed(user: UserRecord, audience: Audience): boolean {
-  return audience === "signed-in" || hasAnyRole(user, audience);
-}
-
 function failureFromError(error: unknown, requestId: string): { code: ErrorCode; message: string; fields?: FieldErrors } {
   if (error instanceof AppError) return { code: error.code, message: error.message, fields: error.fields };
+  // The domain refuses impossible input (an SDR of 2, a pipe outside the procedure's range)
+  // by throwing; that is the caller's input, not a server fault.
+  if (isDomainError(error)) return { code: "invalid", message: error.message, fields: { _form: [error.message] } };
   if (isDatabaseUnavailable(error)) {
     requestLogger(requestId).warn({ err: String((error as Error)?.message ?? error) }, "database unavailable");
     return { code: "unavailable", message: "Beadline cannot reach its database right now. Nothing was saved; try again in a moment." };
@@ -35,9 +36,9 @@ function failureFromError(error: unknown, requestId: string): { code: ErrorCode;
  * becomes `{ ok: true, data }`. Throw `AppError` to fail with a code.
  */
 export function defineAction<S extends ZodType, R>(
-  spec: { audience: Audience; schema: S },
+  spec: { permission: Audience; schema: S },
   impl: (input: z.output<S>, ctx: Context) => Promise<R>,
-): (raw: z.input<S> | unknown) => Promise<ActionResult<R>> {
+): (raw: z.input<S>) => Promise<ActionResult<R>> {
   return async (raw) => {
     const requestId = randomUUID();
     const started = Date.now();
@@ -51,7 +52,7 @@ export function defineAction<S extends ZodType, R>(
       const user = await userFromSealedCookie(store.get(SESSION_COOKIE)?.value);
       if (!user) return done(failure("unauthenticated", "Sign in first."));
       userId = user.id;
-      if (!allowed(user, spec.audience)) return done(failure("forbidden", "Your role does not allow this."));
+      if (!allows(user, spec.permission)) return done(failure("forbidden", "Your role does not allow this."));
       const parsed = spec.schema.safeParse(raw);
       if (!parsed.success) {
         const fields = fieldErrorsFromIssues(parsed.error.issues);
@@ -65,6 +66,17 @@ export function defineAction<S extends ZodType, R>(
       return done(failure(f.code, f.message, f.fields));
     }
   };
+}
+
+/**
+ * Parses input a handler assembles itself (e.g. a body joined with a path param); a
+ * failure is thrown as 422 with every field named, answered by the wrapper.
+ */
+export function parseInput<S extends ZodType>(schema: S, raw: unknown): z.output<S> {
+  const parsed = schema.safeParse(raw);
+  if (parsed.success) return parsed.data;
+  const fields = fieldErrorsFromIssues(parsed.error.issues);
+  throw new AppError("invalid", describeFieldErrors(fields), fields);
 }
 
 /** redirect()/notFound() throw special errors that must pass through the wrapper. */
@@ -94,14 +106,31 @@ export function isCrossOrigin(request: Request): boolean {
   }
 }
 
+/** What a malformed path parameter answers: 404 by default (the address names nothing), or 400/422 where a route's contract says so. */
+type BadParams = "not-found" | "bad-request" | "invalid";
+
+/** The path params as Next hands them over (`[id]` → `{ id: "12" }`). */
+type RawParams = Record<string, string | string[] | undefined>;
+
+export type RouteSpec<S extends ZodType, PS extends ZodType> = {
+  permission: Audience;
+  /** The input's schema: the JSON body (`json`) or the query string (`query`). */
+  schema?: S;
+  input?: InputSource;
+  /** The path params' schema (e.g. `idParams(...)`), parsed before the input. */
+  params?: PS;
+  badParams?: BadParams;
+};
+
 /**
- * Wraps a route handler. Input comes from the JSON body (`json`), the query string
- * (`query`), or is left to the handler (`raw`, e.g. uploads; `none`).
+ * Wraps a route handler. Path params are parsed by `spec.params`; input comes from the JSON
+ * body (`json`), the query string (`query`), or is left to the handler (`raw`, e.g.
+ * uploads; `none`).
  */
-export function defineRoute<S extends ZodType, P = Record<string, string>>(
-  spec: { audience: Audience; schema?: S; input?: InputSource },
-  impl: (input: z.output<S>, ctx: RouteContext<P>) => Promise<Response>,
-): (request: Request, routeCtx: { params: Promise<P> }) => Promise<Response> {
+export function defineRoute<S extends ZodType = ZodType<unknown>, PS extends ZodType = ZodType<RawParams>>(
+  spec: RouteSpec<S, PS>,
+  impl: (input: z.output<S>, ctx: RouteContext<z.output<PS>>) => Promise<Response>,
+): (request: Request, routeCtx: { params: Promise<RawParams> }) => Promise<Response> {
   const source: InputSource = spec.input ?? (spec.schema ? "json" : "none");
   return async (request, routeCtx) => {
     const requestId = safeRequestId(request.headers.get("x-request-id"));
@@ -112,12 +141,12 @@ export function defineRoute<S extends ZodType, P = Record<string, string>>(
   };
 }
 
-async function runRoute<S extends ZodType, P>(
-  spec: { audience: Audience; schema?: S },
+async function runRoute<S extends ZodType, PS extends ZodType>(
+  spec: RouteSpec<S, PS>,
   source: InputSource,
-  impl: (input: z.output<S>, ctx: RouteContext<P>) => Promise<Response>,
+  impl: (input: z.output<S>, ctx: RouteContext<z.output<PS>>) => Promise<Response>,
   request: Request,
-  routeCtx: { params: Promise<P> } | undefined,
+  routeCtx: { params: Promise<RawParams> } | undefined,
   requestId: string,
 ): Promise<Response> {
   const idHeader = { "x-request-id": requestId };
@@ -127,7 +156,20 @@ async function runRoute<S extends ZodType, P>(
     }
     const user = await userFromSealedCookie(cookieFromHeader(request.headers.get("cookie")));
     if (!user) return errorResponse("unauthenticated", "Sign in first.", undefined, idHeader);
-    if (!allowed(user, spec.audience)) return errorResponse("forbidden", "Your role does not allow this.", undefined, idHeader);
+    if (!allows(user, spec.permission)) return errorResponse("forbidden", "Your role does not allow this.", undefined, idHeader);
+    const rawParams: RawParams = (await routeCtx?.params) ?? {};
+    let params = rawParams as z.output<PS>;
+    if (spec.params) {
+      const parsed = spec.params.safeParse(rawParams);
+      if (!parsed.success) {
+        const fields = fieldErrorsFromIssues(parsed.error.issues);
+        const code = spec.badParams ?? "not-found";
+        // A 404 says only that nothing is there; 400/422 name the bad segment like any input.
+        if (code === "not-found") return errorResponse(code, parsed.error.issues[0]?.message ?? "Not found.", undefined, idHeader);
+        return errorResponse(code, describeFieldErrors(fields), fields, idHeader);
+      }
+      params = parsed.data;
+    }
     let raw: unknown = undefined;
     if (source === "json") {
       const text = await request.text();
@@ -149,7 +191,6 @@ async function runRoute<S extends ZodType, P>(
       }
       input = parsed.data;
     }
-    const params = (await routeCtx?.params) ?? ({} as P);
     const response = await impl(input, { user, requestId, params, request });
     try {
       response.headers.set("x-request-id", requestId);

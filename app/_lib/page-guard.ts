@@ -1,13 +1,15 @@
 // Page-level convenience: send signed-out visitors to sign-in and show "not allowed" for
-// the wrong role. The real guard is in every action and route handler (guard.ts).
+// someone without the page's permission. The real guard is in every action and route
+// handler (guard.ts), which names the same permission.
 import { notFound, redirect } from "next/navigation";
 import type { UserRecord } from "@/database/queries/users";
-import { hasAnyRole, type Role } from "@/domain/roles";
+import { can, type Permission } from "@/domain/roles";
 import { currentUser } from "./session";
 
-export async function requireUser(roles?: readonly Role[]): Promise<UserRecord> {
+/** The signed-in person; with a permission, a page for those who hold it (others get 404). */
+export async function requireUser(permission?: Permission): Promise<UserRecord> {
   const user = await currentUser();
   if (!user) redirect("/sign-in");
-  if (roles && !hasAnyRole(user, roles)) notFound();
+  if (permission && !can(user, permission)) notFound();
   return user;
 }

@@ -11,8 +11,8 @@ import { ownerDb, resetDatabase } from "../support/db";
 import { makeUser, TEST_PASSWORD } from "../support/users";
 import { testRequestState } from "../support/request-state";
 
-const adminOnlyAction = defineAction({ audience: ["admin"], schema: z.object({ n: z.number({ error: "n must be a number." }) }) }, async (input) => input.n * 2);
-const adminOnlyRoute = defineRoute({ audience: ["admin"] }, async () => Response.json({ ok: true }));
+const adminOnlyAction = defineAction({ permission: "manageCrew", schema: z.object({ n: z.number({ error: "n must be a number." }) }) }, async (input) => input.n * 2);
+const adminOnlyRoute = defineRoute({ permission: "manageCrew" }, async () => Response.json({ ok: true }));
 
 describe("sign-in", () => {
   beforeEach(async () => {
@@ -92,7 +92,7 @@ describe("guards", () => {
     const admin = await makeUser({ roles: ["admin"] });
     await actAs(admin);
     expect(await adminOnlyAction({ n: 2 })).toEqual({ ok: true, data: 4 });
-    expect(await adminOnlyAction({ n: "2" })).toMatchObject({ ok: false, status: 422, fields: { n: ["n must be a number."] } });
+    expect(await adminOnlyAction({ n: "2" } as never)).toMatchObject({ ok: false, status: 422, fields: { n: ["n must be a number."] } });
   });
 
   it("a route handler answers 401 signed out and 403 for the wrong role", async () => {

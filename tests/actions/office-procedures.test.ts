@@ -17,7 +17,7 @@ describe("Procedures actions", () => {
     admin = await makeUser({ roles: ["admin"] });
   });
 
-  const tighten = (procedureId: number, basedOnVersionId: number, extra: Record<string, unknown> = {}) => ({ units: "si", procedureId, basedOnVersionId, note: "Operator tightening after the 2026 trial joints", ...extra });
+  const tighten = (procedureId: number, basedOnVersionId: number, extra: Record<string, unknown> = {}) => ({ units: "si" as "si" | "us", procedureId, basedOnVersionId, note: "Operator tightening after the 2026 trial joints", ...extra });
 
   it("adds a procedure whose version 1 is the published standard's windows", async () => {
     await actAs(admin);

@@ -83,7 +83,7 @@ describe("database outage at the driver and guard", () => {
 
   it("the guard answers 503 with Retry-After and the one error shape, not a 500", async () => {
     const u = await makeUser({ roles: ["admin"] });
-    const route = defineRoute({ audience: "signed-in" }, async () => {
+    const route = defineRoute({ permission: "signed-in" }, async () => {
       await k("t").insert({ id: 10, v: "x" });
       return Response.json({ ok: true }, { status: 201 });
     });
@@ -99,7 +99,7 @@ describe("database outage at the driver and guard", () => {
 
   it("a client hanging up mid-body is not reported as a database outage", async () => {
     const u = await makeUser({ roles: ["admin"] });
-    const route = defineRoute({ audience: "signed-in", schema: z.object({ a: z.string() }) }, async () => Response.json({ ok: true }));
+    const route = defineRoute({ permission: "signed-in", schema: z.object({ a: z.string() }) }, async () => Response.json({ ok: true }));
     const body = new ReadableStream<Uint8Array>({
       start(controller) {
         controller.enqueue(new TextEncoder().encode('{"a":'));

@@ -15,7 +15,7 @@ import { ownerDb, resetDatabase, seedDemo } from "../support/db";
 import { actAs, cookieHeaderFor } from "../support/session";
 import { makeUser } from "../support/users";
 import { discover, type Discovered } from "./discover";
-import { ACTIONS, ROUTES, actionKey, concretePath, paramNames, routeKey, type ActionEntry, type Audience, type RouteEntry } from "./routes";
+import { ACTIONS, ROUTES, actionKey, concretePath, paramNames, rolesFor, routeKey, type ActionEntry, type Audience, type RouteEntry } from "./routes";
 
 const SEED = 20261202;
 const RUNS_PER_TARGET = 72;
@@ -92,7 +92,7 @@ async function tableChecksums(): Promise<Record<string, string>> {
 function callerFor(audience: Audience): Role | "signed out" {
   if (audience === "public") return "signed out";
   if (audience === "signed-in") return "admin";
-  return audience[0];
+  return rolesFor(audience)[0];
 }
 
 /** The checks every answer must pass; returns a description of the problem or null. */

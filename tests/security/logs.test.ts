@@ -75,7 +75,7 @@ describe("structured logs", () => {
     const u = await makeUser({ roles: ["fuser"] });
     await actAs(u);
     await setUnitSystemAction({ unitSystem: "us" });
-    await setUnitSystemAction({ unitSystem: "imperial-ish" });
+    await setUnitSystemAction({ unitSystem: "imperial-ish" } as never);
     const lines = capture.records().filter((r) => r.kind === "action");
     expect(lines).toHaveLength(2);
     expect(lines.map((r) => [r.ok, r.code ?? null, r.userId])).toEqual([
@@ -95,10 +95,10 @@ describe("structured logs", () => {
     const cookie = `${SESSION_COOKIE}=${encodeURIComponent(sealed)}`;
 
     // A handler that fails with the worst possible error message and a route that validates a password field.
-    const leaky = defineRoute({ audience: "signed-in" }, async () => {
+    const leaky = defineRoute({ permission: "signed-in" }, async () => {
       throw new Error(`boom while handling cookie ${cookie} with secret ${process.env.SESSION_SECRET} and ${process.env.DATABASE_URL}`);
     });
-    const strict = defineRoute({ audience: "signed-in", schema: z.object({ password: z.string().min(100, { error: "Too short." }) }) }, async () => Response.json({ ok: true }));
+    const strict = defineRoute({ permission: "signed-in", schema: z.object({ password: z.string().min(100, { error: "Too short." }) }) }, async () => Response.json({ ok: true }));
     const headers = { cookie, authorization: `Bearer ${sealed}` };
     const r1 = await leaky(new Request("http://127.0.0.1:3000/api/v1/x", { headers }), ctx);
     expect(r1.status).toBe(500);

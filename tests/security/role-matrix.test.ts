@@ -2,7 +2,8 @@
 // inspector, clerk, admin, deactivated} against the one list in ./routes.ts. Route handlers
 // are called directly with a Request carrying a real sealed cookie, actions through the
 // mocked request cookies (actAs). Signed out and deactivated → 401, a role outside the
-// audience → 403 with the one error shape, a role inside it → anything but 401/403 (and
+// audience (the roles holding its permission in domain/roles PERMISSIONS) → 403 with the
+// one error shape, a role inside it → anything but 401/403 (and
 // never 500). Routes and actions are discovered from the file system: one missing from the
 // list fails the test. Route handlers that change data also refuse a cross-origin request.
 // source: OWASP Authorization Cheat Sheet (deny by default, check on every request) — and
@@ -14,7 +15,7 @@ import { resetDatabase, seedDemo } from "../support/db";
 import { actAs, cookieHeaderFor } from "../support/session";
 import { makeUser } from "../support/users";
 import { discover, type Discovered } from "./discover";
-import { ACTIONS, ROUTES, SIGN_IN_EMAIL, actionKey, concretePath, paramNames, routeKey, type ActionEntry, type Audience, type RouteEntry } from "./routes";
+import { ACTIONS, ROUTES, SIGN_IN_EMAIL, actionKey, concretePath, paramNames, routeKey, rolesFor, type ActionEntry, type Audience, type RouteEntry } from "./routes";
 
 const IDENTITIES = ["signed out", "fuser", "inspector", "clerk", "admin", "deactivated"] as const;
 type Identity = (typeof IDENTITIES)[number];
@@ -24,7 +25,7 @@ function expectedFor(audience: Audience, who: Identity): "allowed" | 401 | 403 {
   if (audience === "public") return "allowed";
   if (who === "signed out" || who === "deactivated") return 401;
   if (audience === "signed-in") return "allowed";
-  return (audience as readonly string[]).includes(who) ? "allowed" : 403;
+  return (rolesFor(audience) as readonly string[]).includes(who) ? "allowed" : 403;
 }
 
 type Person = { id: number } | null;
@@ -135,7 +136,7 @@ describe("role matrix", () => {
 
     if (entry.method !== "GET") {
       it("refuses a cross-origin request from a browser (CSRF) with 403", async () => {
-        const who: Identity = entry.audience === "public" || entry.audience === "signed-in" ? "admin" : (entry.audience[0] as Identity);
+        const who: Identity = entry.audience === "public" || entry.audience === "signed-in" ? "admin" : (rolesFor(entry.audience)[0] as Identity);
         const { status, body } = await callRoute(entry, who, { origin: "https://evil.example" });
         expect(status).toBe(403);
         expect(body).toMatchObject({ error: { code: "forbidden" } });

@@ -5,16 +5,23 @@
 // list for its write routes.
 //
 // audience: "public" (anyone, signed out included), "signed-in" (any active person), or the
-// roles of which any one suffices. Expected answers: signed out and deactivated → 401; a
-// signed-in person without the role → 403; a person with the role → anything but 401/403.
-import type { Role } from "@/domain/roles";
+// permission the handler declares; who holds it comes from the PERMISSIONS table of
+// domain/roles (tests/domain/permissions.test.ts checks that table against the product's
+// role table). Expected answers: signed out and deactivated → 401; a signed-in person
+// without the permission → 403; a person with it → anything but 401/403.
+import { PERMISSIONS, ROLES, type Permission, type Role } from "@/domain/roles";
 import { TEST_PASSWORD } from "../support/users";
 
 /** The account the public sign-in entries use (the matrix test creates it). */
 export const SIGN_IN_EMAIL = "matrix-sign-in@test.example";
 const SIGN_IN = { email: SIGN_IN_EMAIL, password: TEST_PASSWORD };
 
-export type Audience = "public" | "signed-in" | readonly Role[];
+export type Audience = "public" | "signed-in" | Permission;
+
+/** The roles that get through an audience ("public" and "signed-in": every role). */
+export function rolesFor(audience: Audience): readonly Role[] {
+  return audience === "public" || audience === "signed-in" ? ROLES : PERMISSIONS[audience];
+}
 export type Method = "GET" | "POST" | "PUT" | "PATCH" | "DELETE";
 
 export type RouteEntry = {
@@ -43,7 +50,6 @@ export type ActionEntry = {
 
 export type Entry = RouteEntry | ActionEntry;
 
-const OFFICE: Role[] = ["clerk", "inspector", "admin"];
 const r = (method: Method, path: string, audience: Audience, input: RouteEntry["input"], extra: Partial<RouteEntry> = {}): RouteEntry => ({ kind: "route", method, path, audience, input, ...extra });
 const a = (file: string, name: string, audience: Audience, writes = true, input: unknown = {}): ActionEntry => ({ kind: "action", file, name, audience, writes, input });
 
@@ -52,34 +58,34 @@ export const ROUTES: readonly RouteEntry[] = [
   r("GET", "/api/v1/session", "signed-in", "none"),
   r("DELETE", "/api/v1/session", "signed-in", "none"),
 
-  r("POST", "/api/v1/joints", ["fuser"], "json", { json: {} }),
+  r("POST", "/api/v1/joints", "recordJoint", "json", { json: {} }),
   r("GET", "/api/v1/joints", "signed-in", "query", { query: { limit: "5" } }),
   r("GET", "/api/v1/joints/[id]", "signed-in", "none"),
   r("GET", "/api/v1/fusion-plan", "signed-in", "query", { query: {} }),
-  r("POST", "/api/v1/attachments", ["fuser", "inspector", "admin"], "raw"),
+  r("POST", "/api/v1/attachments", "uploadPhoto", "raw"),
   r("GET", "/api/v1/attachments/[id]", "signed-in", "none"),
-  r("POST", "/api/v1/traces", ["inspector", "fuser"], "raw"),
+  r("POST", "/api/v1/traces", "attachTrace", "raw"),
 
   r("GET", "/api/v1/coils", "signed-in", "query", { query: { code: "LV-C0001" } }),
-  r("POST", "/api/v1/coils", ["clerk", "admin"], "json", { json: {} }),
+  r("POST", "/api/v1/coils", "receiveCoils", "json", { json: {} }),
   r("GET", "/api/v1/coils/[id]", "signed-in", "none"),
-  r("POST", "/api/v1/coils/[id]/status", ["clerk", "admin"], "json", { json: {} }),
+  r("POST", "/api/v1/coils/[id]/status", "moveCoils", "json", { json: {} }),
 
-  r("GET", "/api/v1/register", OFFICE, "query", { query: { limit: "5" } }),
-  r("GET", "/api/v1/exports/register", OFFICE, "query", { query: { format: "csv" } }),
-  r("GET", "/api/v1/labels/coils/[id]", ["clerk", "admin"], "query", { query: {} }),
-  r("GET", "/api/v1/labels/joints/[id]", ["clerk", "admin", "inspector"], "query", { query: {} }),
+  r("GET", "/api/v1/register", "viewRegister", "query", { query: { limit: "5" } }),
+  r("GET", "/api/v1/exports/register", "exportRegister", "query", { query: { format: "csv" } }),
+  r("GET", "/api/v1/labels/coils/[id]", "printLabels", "query", { query: {} }),
+  r("GET", "/api/v1/labels/joints/[id]", "printJointLabels", "query", { query: {} }),
 
-  r("GET", "/api/v1/review/queue", ["inspector"], "query", { query: {} }),
-  r("GET", "/api/v1/review/joints/[id]", ["inspector"], "none"),
-  r("GET", "/api/v1/review/joints/[id]/trace", ["inspector", "fuser"], "none"),
-  r("POST", "/api/v1/review/joints/[id]/decision", ["inspector"], "raw", { json: {} }),
+  r("GET", "/api/v1/review/queue", "viewReview", "query", { query: {} }),
+  r("GET", "/api/v1/review/joints/[id]", "viewReview", "none"),
+  r("GET", "/api/v1/review/joints/[id]/trace", "viewTrace", "none"),
+  r("POST", "/api/v1/review/joints/[id]/decision", "decideJoint", "raw", { json: {} }),
 
-  r("GET", "/api/v1/trace/joints/[id]", OFFICE, "none"),
-  r("GET", "/api/v1/trace/lot", OFFICE, "query", { query: { lot: "4410021" } }),
-  r("GET", "/api/v1/trace/lot/export", OFFICE, "query", { query: { lot: "4410021" } }),
+  r("GET", "/api/v1/trace/joints/[id]", "traceLots", "none"),
+  r("GET", "/api/v1/trace/lot", "traceLots", "query", { query: { lot: "4410021" } }),
+  r("GET", "/api/v1/trace/lot/export", "traceLots", "query", { query: { lot: "4410021" } }),
 
-  r("GET", "/crew/evidence/[id]", ["admin"], "none"),
+  r("GET", "/crew/evidence/[id]", "manageCrew", "none"),
 ];
 
 const SIGNED_IN = "app/(signed-in)";
@@ -88,37 +94,37 @@ export const ACTIONS: readonly ActionEntry[] = [
   a("app/(signed-out)/sign-in/actions.ts", "signOutAction", "public", false, undefined),
   a(`${SIGNED_IN}/actions.ts`, "setUnitSystemAction", "signed-in"),
 
-  a(`${SIGNED_IN}/trench/actions.ts`, "recordJointAction", ["fuser"]),
-  a(`${SIGNED_IN}/trench/actions.ts`, "lookupCoilAction", ["fuser"], false),
-  a(`${SIGNED_IN}/trench/actions.ts`, "grantOverrideAction", ["inspector", "admin"]),
+  a(`${SIGNED_IN}/trench/actions.ts`, "recordJointAction", "recordJoint"),
+  a(`${SIGNED_IN}/trench/actions.ts`, "lookupCoilAction", "recordJoint", false),
+  a(`${SIGNED_IN}/trench/actions.ts`, "grantOverrideAction", "grantOverride"),
 
-  a(`${SIGNED_IN}/review/actions.ts`, "decideJointAction", ["inspector"]),
+  a(`${SIGNED_IN}/review/actions.ts`, "decideJointAction", "decideJoint"),
 
-  a(`${SIGNED_IN}/coils/actions.ts`, "receiveCoilAction", ["clerk", "admin"]),
-  a(`${SIGNED_IN}/coils/actions.ts`, "moveCoilAction", ["clerk", "admin"]),
-  a(`${SIGNED_IN}/labels/actions.ts`, "markLabelsPrintedAction", ["clerk", "admin"]),
+  a(`${SIGNED_IN}/coils/actions.ts`, "receiveCoilAction", "receiveCoils"),
+  a(`${SIGNED_IN}/coils/actions.ts`, "moveCoilAction", "moveCoils"),
+  a(`${SIGNED_IN}/labels/actions.ts`, "markLabelsPrintedAction", "printLabels"),
 
-  a(`${SIGNED_IN}/crew/actions.ts`, "addPersonAction", ["admin"]),
-  a(`${SIGNED_IN}/crew/actions.ts`, "updatePersonAction", ["admin"]),
-  a(`${SIGNED_IN}/crew/actions.ts`, "resetPasswordAction", ["admin"]),
-  a(`${SIGNED_IN}/crew/actions.ts`, "recordQualificationAction", ["admin"]),
-  a(`${SIGNED_IN}/crew/actions.ts`, "recordQualificationFailureAction", ["admin"]),
+  a(`${SIGNED_IN}/crew/actions.ts`, "addPersonAction", "manageCrew"),
+  a(`${SIGNED_IN}/crew/actions.ts`, "updatePersonAction", "manageCrew"),
+  a(`${SIGNED_IN}/crew/actions.ts`, "resetPasswordAction", "manageCrew"),
+  a(`${SIGNED_IN}/crew/actions.ts`, "recordQualificationAction", "manageCrew"),
+  a(`${SIGNED_IN}/crew/actions.ts`, "recordQualificationFailureAction", "manageCrew"),
 
-  a(`${SIGNED_IN}/equipment/actions.ts`, "createMachineAction", ["admin"]),
-  a(`${SIGNED_IN}/equipment/actions.ts`, "updateMachineAction", ["admin"]),
-  a(`${SIGNED_IN}/equipment/actions.ts`, "createHeaterAction", ["admin"]),
-  a(`${SIGNED_IN}/equipment/actions.ts`, "updateHeaterAction", ["admin"]),
-  a(`${SIGNED_IN}/equipment/actions.ts`, "recordHeaterCheckAction", ["admin"]),
+  a(`${SIGNED_IN}/equipment/actions.ts`, "createMachineAction", "manageEquipment"),
+  a(`${SIGNED_IN}/equipment/actions.ts`, "updateMachineAction", "manageEquipment"),
+  a(`${SIGNED_IN}/equipment/actions.ts`, "createHeaterAction", "manageEquipment"),
+  a(`${SIGNED_IN}/equipment/actions.ts`, "updateHeaterAction", "manageEquipment"),
+  a(`${SIGNED_IN}/equipment/actions.ts`, "recordHeaterCheckAction", "manageEquipment"),
 
-  a(`${SIGNED_IN}/jobs/actions.ts`, "createJobAction", ["admin"]),
-  a(`${SIGNED_IN}/jobs/actions.ts`, "updateJobAction", ["admin"]),
-  a(`${SIGNED_IN}/jobs/actions.ts`, "setJobStatusAction", ["admin"]),
+  a(`${SIGNED_IN}/jobs/actions.ts`, "createJobAction", "manageJobs"),
+  a(`${SIGNED_IN}/jobs/actions.ts`, "updateJobAction", "manageJobs"),
+  a(`${SIGNED_IN}/jobs/actions.ts`, "setJobStatusAction", "manageJobs"),
 
-  a(`${SIGNED_IN}/procedures/actions.ts`, "createProcedureAction", ["admin"]),
-  a(`${SIGNED_IN}/procedures/actions.ts`, "publishProcedureVersionAction", ["admin"]),
-  a(`${SIGNED_IN}/procedures/actions.ts`, "editVersionNotesAction", ["admin"]),
+  a(`${SIGNED_IN}/procedures/actions.ts`, "createProcedureAction", "manageProcedures"),
+  a(`${SIGNED_IN}/procedures/actions.ts`, "publishProcedureVersionAction", "manageProcedures"),
+  a(`${SIGNED_IN}/procedures/actions.ts`, "editVersionNotesAction", "manageProcedures"),
 
-  a(`${SIGNED_IN}/mailbox/actions.ts`, "retryMailAction", ["admin"]),
+  a(`${SIGNED_IN}/mailbox/actions.ts`, "retryMailAction", "viewMailbox"),
   a(`${SIGNED_IN}/mailbox/actions.ts`, "setMailPreferenceAction", "signed-in"),
 ];
 

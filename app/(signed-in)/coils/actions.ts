@@ -6,13 +6,13 @@ import { defineAction } from "@/app/_lib/guard";
 import { moveCoilSchema, receiveCoilSchema } from "@/domain/coil-life/schemas";
 import { moveCoil, receiveCoil } from "./_lib/use-cases";
 
-export const receiveCoilAction = defineAction({ audience: ["clerk", "admin"], schema: receiveCoilSchema }, async (input, ctx) => {
+export const receiveCoilAction = defineAction({ permission: "receiveCoils", schema: receiveCoilSchema }, async (input, ctx) => {
   const received = await receiveCoil(input, ctx);
   revalidatePath("/coils");
   return received;
 });
 
-export const moveCoilAction = defineAction({ audience: ["clerk", "admin"], schema: moveCoilSchema }, async (input, ctx) => {
+export const moveCoilAction = defineAction({ permission: "moveCoils", schema: moveCoilSchema }, async (input, ctx) => {
   const moved = await moveCoil(input, ctx);
   revalidatePath(`/coils/${encodeURIComponent(moved.coilCode)}`);
   revalidatePath("/coils");

@@ -10,7 +10,7 @@ export const dynamic = "force-dynamic";
 
 // Coils: every coil on file with its status and length left; pick coils to print labels for.
 export default async function CoilsPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
-  const user = await requireUser(["clerk", "admin"]);
+  const user = await requireUser("listCoils");
   const params = await searchParams;
   const statusParam = typeof params.status === "string" ? params.status : "all";
   const status = (COIL_STATUSES as readonly string[]).includes(statusParam) ? (statusParam as CoilStatus) : "all";

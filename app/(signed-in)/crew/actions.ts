@@ -14,11 +14,11 @@ const done = <T>(value: T): T => {
   return value;
 };
 
-export const addPersonAction = defineAction({ audience: ["admin"], schema: addPersonSchema }, async (input, ctx) => done(await addPerson(input, ctx)));
+export const addPersonAction = defineAction({ permission: "manageCrew", schema: addPersonSchema }, async (input, ctx) => done(await addPerson(input, ctx)));
 
-export const updatePersonAction = defineAction({ audience: ["admin"], schema: updatePersonSchema }, async (input, ctx) => done(await updatePersonAccess(input, ctx)));
+export const updatePersonAction = defineAction({ permission: "manageCrew", schema: updatePersonSchema }, async (input, ctx) => done(await updatePersonAccess(input, ctx)));
 
-export const resetPasswordAction = defineAction({ audience: ["admin"], schema: resetPasswordSchema }, async (input, ctx) => done(await resetPassword(input, ctx)));
+export const resetPasswordAction = defineAction({ permission: "manageCrew", schema: resetPasswordSchema }, async (input, ctx) => done(await resetPassword(input, ctx)));
 
 /** The qualification form posts FormData (fields + optional evidence file); plain objects work too. */
 function fromFormData(raw: unknown): unknown {
@@ -39,9 +39,9 @@ const qualificationWithEvidenceSchema = z.preprocess(
   }),
 );
 
-export const recordQualificationAction = defineAction({ audience: ["admin"], schema: qualificationWithEvidenceSchema }, async ({ evidence, ...input }, ctx) => {
+export const recordQualificationAction = defineAction({ permission: "manageCrew", schema: qualificationWithEvidenceSchema }, async ({ evidence, ...input }, ctx) => {
   const file = evidence ? { bytes: new Uint8Array(await evidence.arrayBuffer()), contentType: evidence.type, name: (evidence as File).name ?? "evidence" } : null;
   return done(await recordQualification(input, ctx, { evidence: file }));
 });
 
-export const recordQualificationFailureAction = defineAction({ audience: ["admin"], schema: recordQualificationFailureSchema }, async (input, ctx) => done(await recordQualificationFailure(input, ctx)));
+export const recordQualificationFailureAction = defineAction({ permission: "manageCrew", schema: recordQualificationFailureSchema }, async (input, ctx) => done(await recordQualificationFailure(input, ctx)));

@@ -10,7 +10,7 @@ export const dynamic = "force-dynamic";
 
 // Crew (admin): people, roles and who is qualified for which procedure (49 CFR 192.285).
 export default async function CrewPage() {
-  await requireUser(["admin"]);
+  await requireUser("manageCrew");
   const [people, crews, statuses] = await Promise.all([listUsers(), listCrews(), qualificationStatusOverview()]);
   const active = statuses.filter((s) => s.userIsActive);
   const lapsing = active.filter((s) => s.status.state === "due-soon");

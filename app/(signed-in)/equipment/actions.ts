@@ -11,12 +11,12 @@ const done = <T>(value: T): T => {
   return value;
 };
 
-export const createMachineAction = defineAction({ audience: ["admin"], schema: createMachineSchema }, async (input, ctx) => done(await createMachine(input, ctx)));
+export const createMachineAction = defineAction({ permission: "manageEquipment", schema: createMachineSchema }, async (input, ctx) => done(await createMachine(input, ctx)));
 
-export const updateMachineAction = defineAction({ audience: ["admin"], schema: updateMachineSchema }, async (input, ctx) => done(await editMachine(input, ctx)));
+export const updateMachineAction = defineAction({ permission: "manageEquipment", schema: updateMachineSchema }, async (input, ctx) => done(await editMachine(input, ctx)));
 
-export const createHeaterAction = defineAction({ audience: ["admin"], schema: createHeaterSchema }, async (input, ctx) => done(await createHeater(input, ctx)));
+export const createHeaterAction = defineAction({ permission: "manageEquipment", schema: createHeaterSchema }, async (input, ctx) => done(await createHeater(input, ctx)));
 
-export const updateHeaterAction = defineAction({ audience: ["admin"], schema: updateHeaterSchema }, async (input, ctx) => done(await editHeater(input, ctx)));
+export const updateHeaterAction = defineAction({ permission: "manageEquipment", schema: updateHeaterSchema }, async (input, ctx) => done(await editHeater(input, ctx)));
 
-export const recordHeaterCheckAction = defineAction({ audience: ["admin"], schema: recordHeaterCheckSchema }, async (input, ctx) => done(await recordHeaterCheck(input, ctx)));
+export const recordHeaterCheckAction = defineAction({ permission: "manageEquipment", schema: recordHeaterCheckSchema }, async (input, ctx) => done(await recordHeaterCheck(input, ctx)));

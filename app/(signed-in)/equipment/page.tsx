@@ -11,7 +11,7 @@ export const dynamic = "force-dynamic";
 
 // Equipment (admin): fusion machines with their piston areas, heater plates with their checks.
 export default async function EquipmentPage() {
-  const user = await requireUser(["admin"]);
+  const user = await requireUser("manageEquipment");
   const units = user.unitSystem;
   const [machines, heaters] = await Promise.all([listMachines(), listHeatersWithLastCheck()]);
   return (

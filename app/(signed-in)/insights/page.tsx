@@ -19,7 +19,7 @@ const PERIODS = [4, 12, 26, 52] as const;
 // Insights: trends of the joint records as charts (first-pass yield, findings, heater
 // temperatures, cooling), each with the numbers behind it.
 export default async function InsightsPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
-  const user = await requireUser(["inspector", "admin"]);
+  const user = await requireUser("viewInsights");
   const params = await searchParams;
   const one = (v: string | string[] | undefined) => (Array.isArray(v) ? v[0] : v);
   const weeks = PERIODS.find((p) => String(p) === one(params.weeks)) ?? 12;

@@ -5,19 +5,19 @@ import { defineAction } from "@/app/_lib/guard";
 import { createJobSchema, setJobStatusSchema, updateJobSchema } from "@/domain/office/schemas";
 import { createJob, editJob, setJobStatus } from "./_lib/jobs";
 
-export const createJobAction = defineAction({ audience: ["admin"], schema: createJobSchema }, async (input, ctx) => {
+export const createJobAction = defineAction({ permission: "manageJobs", schema: createJobSchema }, async (input, ctx) => {
   const result = await createJob(input, ctx);
   revalidatePath("/jobs");
   return result;
 });
 
-export const updateJobAction = defineAction({ audience: ["admin"], schema: updateJobSchema }, async (input, ctx) => {
+export const updateJobAction = defineAction({ permission: "manageJobs", schema: updateJobSchema }, async (input, ctx) => {
   const result = await editJob(input, ctx);
   revalidatePath("/jobs");
   return result;
 });
 
-export const setJobStatusAction = defineAction({ audience: ["admin"], schema: setJobStatusSchema }, async (input, ctx) => {
+export const setJobStatusAction = defineAction({ permission: "manageJobs", schema: setJobStatusSchema }, async (input, ctx) => {
   const result = await setJobStatus(input, ctx);
   revalidatePath("/jobs");
   return result;

@@ -9,7 +9,7 @@ export const dynamic = "force-dynamic";
 
 // Jobs (admin): every work order with its procedure, crew and status; add a job.
 export default async function JobsPage() {
-  await requireUser(["admin"]);
+  await requireUser("manageJobs");
   const [jobs, procedures, crews, coils] = await Promise.all([listJobs(), listCurrentProcedureVersions(), listCrews(), listAssignableCoils()]);
   return (
     <div className="flex flex-col gap-6">

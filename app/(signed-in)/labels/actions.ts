@@ -5,7 +5,7 @@ import { defineAction } from "@/app/_lib/guard";
 import { markLabelsPrintedSchema } from "@/domain/coil-life/schemas";
 import { markLabelsPrinted } from "../coils/_lib/use-cases";
 
-export const markLabelsPrintedAction = defineAction({ audience: ["clerk", "admin"], schema: markLabelsPrintedSchema }, async (input, ctx) => {
+export const markLabelsPrintedAction = defineAction({ permission: "printLabels", schema: markLabelsPrintedSchema }, async (input, ctx) => {
   const count = await markLabelsPrinted(input.coilIds, "print", ctx);
   revalidatePath("/coils");
   return { count };

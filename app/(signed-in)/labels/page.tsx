@@ -4,7 +4,7 @@ import { notFound } from "next/navigation";
 import { requireUser } from "@/app/_lib/page-guard";
 import { findCoilById, type Coil } from "@/database/queries/coils";
 import { findJointLabelFacts } from "@/database/queries/trace";
-import { hasAnyRole } from "@/domain/roles";
+import { can } from "@/domain/roles";
 import { LABEL_STOCKS, SHEETS, SHEET_IDS, layoutSheet, placeLabels, type SheetId } from "@/domain/labels/sheets";
 import { publicBaseUrl } from "./_lib/base-url";
 import { coilLabelSvg, jointLabelSvg, stockOrDefault } from "./_lib/render";
@@ -21,10 +21,10 @@ function idsFrom(value: string | string[] | undefined): number[] {
 
 // Label print page: coil labels or joint tags laid out on A4 or US Letter label sheets.
 export default async function LabelsPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
-  const user = await requireUser(["clerk", "admin", "inspector"]);
+  const user = await requireUser("printJointLabels");
   const params = await searchParams;
   const kind = params.kind === "joint" ? "joint" : "coil";
-  if (kind === "coil" && !hasAnyRole(user, ["clerk", "admin"])) notFound();
+  if (kind === "coil" && !can(user, "printLabels")) notFound();
   const ids = idsFrom(params.ids);
   const system = user.unitSystem;
   const stock = stockOrDefault(typeof params.stock === "string" ? params.stock : null, system);

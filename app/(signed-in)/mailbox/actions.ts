@@ -9,7 +9,7 @@ import { requeueMail, updateDailyDigest } from "@/database/queries/outbox";
 import { AppError } from "@/domain/result";
 import { mailPreferenceSchema, retryMailSchema } from "@/domain/review/schemas";
 
-export const retryMailAction = defineAction({ audience: ["admin"], schema: retryMailSchema }, async ({ id }, { user, requestId }) => {
+export const retryMailAction = defineAction({ permission: "viewMailbox", schema: retryMailSchema }, async ({ id }, { user, requestId }) => {
   await db().transaction(async (trx) => {
     const ok = await requeueMail({ id, now: new Date() }, trx);
     if (!ok) throw new AppError("conflict", "That mail is not failed any more (it may have been retried already).");
@@ -20,7 +20,7 @@ export const retryMailAction = defineAction({ audience: ["admin"], schema: retry
 });
 
 /** Anyone signed in chooses how alerts reach them (users.daily_digest). */
-export const setMailPreferenceAction = defineAction({ audience: "signed-in", schema: mailPreferenceSchema }, async ({ dailyDigest }, { user, requestId }) => {
+export const setMailPreferenceAction = defineAction({ permission: "signed-in", schema: mailPreferenceSchema }, async ({ dailyDigest }, { user, requestId }) => {
   await db().transaction(async (trx) => {
     await updateDailyDigest({ userId: user.id, dailyDigest }, trx);
     await insertAuditEntry({ actorUserId: user.id, action: "mail-preference-set", entityType: "user", entityId: user.id, details: { dailyDigest }, requestId }, trx);

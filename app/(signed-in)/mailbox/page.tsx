@@ -27,7 +27,7 @@ const STATUS_LABELS: Record<MailStatus, string> = { queued: "Waiting", sending: 
 // Mailbox (admin): every mail Beadline has queued and what became of it, and — in
 // development — the messages the local fake mail server received.
 export default async function MailboxPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
-  const user = await requireUser(["admin"]);
+  const user = await requireUser("viewMailbox");
   const params = await searchParams;
   const statusParam = Array.isArray(params.status) ? params.status[0] : params.status;
   const status = (["queued", "sending", "sent", "failed"] as const).find((s) => s === statusParam);

@@ -10,8 +10,8 @@ const done = <T>(value: T): T => {
   return value;
 };
 
-export const createProcedureAction = defineAction({ audience: ["admin"], schema: createProcedureSchema }, async (input, ctx) => done(await createProcedure(input, ctx)));
+export const createProcedureAction = defineAction({ permission: "manageProcedures", schema: createProcedureSchema }, async (input, ctx) => done(await createProcedure(input, ctx)));
 
-export const publishProcedureVersionAction = defineAction({ audience: ["admin"], schema: tightenProcedureSchema }, async (input, ctx) => done(await publishTightenedVersion(input, ctx)));
+export const publishProcedureVersionAction = defineAction({ permission: "manageProcedures", schema: tightenProcedureSchema }, async (input, ctx) => done(await publishTightenedVersion(input, ctx)));
 
-export const editVersionNotesAction = defineAction({ audience: ["admin"], schema: editVersionNotesSchema }, async (input, ctx) => done(await editVersionNotes(input, ctx)));
+export const editVersionNotesAction = defineAction({ permission: "manageProcedures", schema: editVersionNotesSchema }, async (input, ctx) => done(await editVersionNotes(input, ctx)));

@@ -2,7 +2,7 @@ import Link from "next/link";
 import { requireUser } from "@/app/_lib/page-guard";
 import { currentProcedureVersion, listProcedures } from "@/database/queries/procedures";
 import { builtInProcedure } from "@/domain/fusion/procedures";
-import { canManageOffice } from "@/domain/roles";
+import { can } from "@/domain/roles";
 import { AddProcedureForm } from "./_components/add-procedure-form";
 import { standardOptions } from "./_lib/views";
 
@@ -10,7 +10,7 @@ export const dynamic = "force-dynamic";
 
 // Procedures: the operator's written joining procedures, each based on a published standard.
 export default async function ProceduresPage() {
-  const user = await requireUser(["admin", "inspector", "fuser"]);
+  const user = await requireUser("viewProcedures");
   const procedures = await listProcedures();
   const current = await Promise.all(procedures.map((p) => currentProcedureVersion({ procedureId: p.id })));
   return (
@@ -33,7 +33,7 @@ export default async function ProceduresPage() {
           </li>
         ))}
       </ul>
-      {canManageOffice(user) ? (
+      {can(user, "manageProcedures") ? (
         <section aria-labelledby="add-procedure" className="rounded-md border-2 border-slate-300 bg-white p-4">
           <h2 id="add-procedure" className="mb-2 text-xl font-bold">
             Add a procedure

@@ -8,7 +8,7 @@ export const dynamic = "force-dynamic";
 
 // Register: every joint, filtered, sorted and searched on the server; the view lives in the URL.
 export default async function RegisterPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
-  const user = await requireUser(["clerk", "inspector", "admin"]);
+  const user = await requireUser("viewRegister");
   const raw = await searchParams;
   const flat = Object.fromEntries(Object.entries(raw).map(([k, v]) => [k, Array.isArray(v) ? v[0] : v]));
   const parsed = registerViewSchema.safeParse(flat);

@@ -6,7 +6,7 @@ import { defineAction } from "@/app/_lib/guard";
 import { decideJointSchema } from "@/domain/review/schemas";
 import { decideJoint } from "./_lib/decide-joint";
 
-export const decideJointAction = defineAction({ audience: ["inspector"], schema: decideJointSchema }, async (input, { user, requestId }) => {
+export const decideJointAction = defineAction({ permission: "decideJoint", schema: decideJointSchema }, async (input, { user, requestId }) => {
   const result = await decideJoint(input, { user, requestId });
   revalidatePath("/review");
   return result;

@@ -11,7 +11,7 @@ export const dynamic = "force-dynamic";
 // Review: the inspector's queue of joints waiting for a decision, kept current by polling
 // the JSON API (a joint recorded at the trench appears without a reload).
 export default async function ReviewPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
-  const user = await requireUser(["inspector"]);
+  const user = await requireUser("viewReview");
   const params = await searchParams;
   const one = (v: string | string[] | undefined) => (Array.isArray(v) ? v[0] : v);
   const parsed = reviewQueueFilterSchema.safeParse({ job: one(params.job), fuser: one(params.fuser), machine: one(params.machine), finding: one(params.finding) });

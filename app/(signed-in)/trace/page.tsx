@@ -22,7 +22,7 @@ const input = "min-h-touch rounded-md border-2 border-slate-400 bg-white px-3";
 
 // Trace: lot → ground (every coil of a lot and every joint made with them) and joint → origins.
 export default async function TracePage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
-  const user = await requireUser(["clerk", "inspector", "admin"]);
+  const user = await requireUser("traceLots");
   const raw = await searchParams;
   const one = (k: string) => (typeof raw[k] === "string" ? (raw[k] as string) : undefined);
   const jointRef = one("joint");

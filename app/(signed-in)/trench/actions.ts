@@ -10,15 +10,15 @@ import { recordJoint } from "./_lib/record-joint";
 import { toTrenchCoil, type TrenchCoil } from "./_lib/types";
 
 /** Record a joint (the same use case as POST /api/v1/joints). */
-export const recordJointAction = defineAction({ audience: ["fuser"], schema: recordJointSchema }, async (input, ctx) => recordJoint(input, ctx));
+export const recordJointAction = defineAction({ permission: "recordJoint", schema: recordJointSchema }, async (input, ctx) => recordJoint(input, ctx));
 
 const lookupCoilSchema = z.object({ code: z.string({ error: "Scan or type a coil id or code." }).trim().min(1, { error: "Scan or type a coil id or code." }).max(200) });
 
 /** A coil by our id, its label's URL or its F2897 code, for the side-A/side-B pickers. */
-export const lookupCoilAction = defineAction({ audience: ["fuser"], schema: lookupCoilSchema }, async ({ code }, { user }): Promise<TrenchCoil | null> => {
+export const lookupCoilAction = defineAction({ permission: "recordJoint", schema: lookupCoilSchema }, async ({ code }, { user }): Promise<TrenchCoil | null> => {
   const coil = await findCoilByCodeOrTrace({ code, preferCrewId: user.crewId });
   return coil ? toTrenchCoil(coil) : null;
 });
 
 /** An inspector or admin clears a blocking warning for a job (recorded, audited). */
-export const grantOverrideAction = defineAction({ audience: ["inspector", "admin"], schema: grantOverrideSchema }, async (input, ctx) => grantOverride(input, ctx));
+export const grantOverrideAction = defineAction({ permission: "grantOverride", schema: grantOverrideSchema }, async (input, ctx) => grantOverride(input, ctx));

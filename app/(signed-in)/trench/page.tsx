@@ -10,7 +10,7 @@ export const dynamic = "force-dynamic";
 
 // Trench: a qualified fuser records a joint at the trench, on a phone, through dropped signal.
 export default async function TrenchPage() {
-  const user = await requireUser(["fuser"]);
+  const user = await requireUser("recordJoint");
   const setup = await loadTrenchSetup(user);
   return (
     <div className="mx-auto flex w-full max-w-xl flex-col gap-4">

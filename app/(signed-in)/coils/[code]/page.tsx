@@ -8,6 +8,7 @@ import { listJointsForCoil } from "@/database/queries/trace";
 import { COIL_STATUS_LABELS, DAMAGE_LABELS, statusMovesFrom } from "@/domain/coil-life/rules";
 import { describeSize } from "@/domain/labels/label";
 import { bendRatio, minimumBendRadiusMm } from "@/domain/pipe/bending";
+import { can } from "@/domain/roles";
 import { formatQuantity } from "@/domain/units/format";
 import { publicBaseUrl } from "../../labels/_lib/base-url";
 import { coilLabelSvg, stockOrDefault } from "../../labels/_lib/render";
@@ -38,14 +39,14 @@ function bendCaution(coil: { outsideDiameterMm: number; sdr: number }, system: "
 
 // The coil page: what the label's QR opens. Facts, length left, bending caution, status moves, history.
 export default async function CoilPage({ params, searchParams }: { params: Promise<{ code: string }>; searchParams: Promise<Record<string, string | undefined>> }) {
-  const user = await requireUser(["clerk", "admin", "fuser", "inspector"]);
+  const user = await requireUser(); // any signed-in person may open a coil (as GET /api/v1/coils/:id)
   const { code } = await params;
   const query = await searchParams;
   const coil = await findCoilByCode({ coilCode: decodeURIComponent(code) });
   if (!coil) notFound();
-  const canManage = user.roles.includes("clerk") || user.roles.includes("admin");
-  const canTrace = canManage || user.roles.includes("inspector");
-  const [events, joints, options] = await Promise.all([listCoilEvents({ coilId: coil.id }), listJointsForCoil({ coilId: coil.id, limit: 100 }), canManage ? listCoilMoveOptions() : Promise.resolve(null)]);
+  const canMove = can(user, "moveCoils");
+  const canTrace = can(user, "traceLots");
+  const [events, joints, options] = await Promise.all([listCoilEvents({ coilId: coil.id }), listJointsForCoil({ coilId: coil.id, limit: 100 }), canMove ? listCoilMoveOptions() : Promise.resolve(null)]);
   const system = user.unitSystem;
   const m = (value: number) => formatQuantity(value, "length-m", system);
   const stock = stockOrDefault(null, system);
@@ -55,8 +56,8 @@ export default async function CoilPage({ params, searchParams }: { params: Promi
   return (
     <div className="flex flex-col gap-6">
       <p>
-        <Link href={canManage ? "/coils" : "/"} className="font-semibold text-brand underline">
-          ← {canManage ? "All coils" : "Today"}
+        <Link href={can(user, "listCoils") ? "/coils" : "/"} className="font-semibold text-brand underline">
+          ← {can(user, "listCoils") ? "All coils" : "Today"}
         </Link>
       </p>
       <div className="flex flex-wrap items-center gap-3">
@@ -151,7 +152,7 @@ export default async function CoilPage({ params, searchParams }: { params: Promi
         {coil.inspection.damageNotes ? <p className="mt-2">Notes: {coil.inspection.damageNotes}</p> : null}
       </section>
 
-      {canManage && options ? (
+      {canMove && options ? (
         <section aria-labelledby="move" className="max-w-xl rounded-md border-2 border-slate-300 bg-white p-4">
           <h2 id="move" className="mb-3 text-lg font-bold">
             Move coil
@@ -160,7 +161,7 @@ export default async function CoilPage({ params, searchParams }: { params: Promi
         </section>
       ) : null}
 
-      {canManage ? (
+      {can(user, "printLabels") ? (
         <section aria-labelledby="label" className="rounded-md border-2 border-slate-300 bg-white p-4">
           <h2 id="label" className="mb-3 text-lg font-bold">
             Label

@@ -9,7 +9,7 @@ export const dynamic = "force-dynamic";
 
 // Receive a coil: clerk or admin. The form fills from the F2897 code and shows the inspection verdict.
 export default async function ReceiveCoilPage() {
-  const user = await requireUser(["clerk", "admin"]);
+  const user = await requireUser("receiveCoils");
   const [latest, manufacturers] = await Promise.all([latestCoilCode(), listKnownManufacturers()]);
   return (
     <div className="flex max-w-3xl flex-col gap-4">

@@ -16,7 +16,7 @@ import { ResetPasswordForm } from "../_components/reset-password-form";
 export const dynamic = "force-dynamic";
 
 export default async function PersonPage({ params }: { params: Promise<{ id: string }> }) {
-  await requireUser(["admin"]);
+  await requireUser("manageCrew");
   const id = Number((await params).id);
   if (!Number.isInteger(id) || id <= 0) notFound();
   const person = await findUserById({ id });

@@ -11,7 +11,7 @@ import { JobStatusButton } from "../_components/job-status-button";
 export const dynamic = "force-dynamic";
 
 export default async function JobPage({ params }: { params: Promise<{ id: string }> }) {
-  await requireUser(["admin"]);
+  await requireUser("manageJobs");
   const id = Number((await params).id);
   if (!Number.isInteger(id) || id <= 0) notFound();
   const job = await findJobById({ id });

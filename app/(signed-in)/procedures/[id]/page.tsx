@@ -3,7 +3,7 @@ import { notFound } from "next/navigation";
 import { requireUser } from "@/app/_lib/page-guard";
 import { findProcedureById, listProcedureVersions } from "@/database/queries/procedures";
 import { builtInProcedure, describeProcedureWindows } from "@/domain/fusion/procedures";
-import { canManageOffice } from "@/domain/roles";
+import { can } from "@/domain/roles";
 import { TightenForm } from "../_components/tighten-form";
 import { VersionNotesForm } from "../_components/version-notes-form";
 import { tighteningFieldViews } from "../_lib/views";
@@ -13,7 +13,7 @@ export const dynamic = "force-dynamic";
 const STATUS_STYLE = { confirmed: "text-pass", "confirmed-2nd": "text-brand", "from-memory": "text-caution" } as const;
 
 export default async function ProcedurePage({ params }: { params: Promise<{ id: string }> }) {
-  const user = await requireUser(["admin", "inspector", "fuser"]);
+  const user = await requireUser("viewProcedures");
   const id = Number((await params).id);
   if (!Number.isInteger(id) || id <= 0) notFound();
   const procedure = await findProcedureById({ id });
@@ -21,7 +21,7 @@ export default async function ProcedurePage({ params }: { params: Promise<{ id: 
   const versions = await listProcedureVersions({ procedureId: id });
   const current = versions.find((v) => v.isCurrent) ?? null;
   const units = user.unitSystem;
-  const isAdmin = canManageOffice(user);
+  const isAdmin = can(user, "manageProcedures");
   return (
     <div className="flex flex-col gap-6">
       <p>

@@ -15,14 +15,10 @@ import { parsePressureTraceCsv } from "@/domain/pressure-trace/parse";
 import { readPressureTrace } from "@/domain/pressure-trace/read";
 import { AppError } from "@/domain/result";
 import { checkTraceReading, downsampleTrace } from "@/domain/review/trace-check";
+import { can, canAttachTraceTo } from "@/domain/roles";
 import { MAX_TRACE_FILE_BYTES } from "@/domain/review/schemas";
 
 export type AttachTraceResult = { jointId: number; traceId: number; attachmentId: number; revisionNo: number; outcome: "within-limits" | "out-of-limits"; findings: string[] };
-
-/** Who may attach: an inspector to any joint, a fuser to a joint they made. */
-export function mayAttachTrace(user: Pick<UserRecord, "id" | "roles">, joint: { fuserId: number }): boolean {
-  return user.roles.includes("inspector") || (user.roles.includes("fuser") && user.id === joint.fuserId);
-}
 
 export async function attachTrace(
   { jointId, fileName, bytes }: { jointId: number; fileName: string | null; bytes: Uint8Array },
@@ -37,8 +33,8 @@ export async function attachTrace(
     throw new AppError("invalid", "Check file: it is not a text (CSV) file.", { file: ["The file is not UTF-8 text; save it as CSV"] });
   }
   const item = await findReviewItem({ jointId });
-  if (!item || !mayAttachTrace(user, item)) {
-    if (item && user.roles.includes("fuser")) throw new AppError("forbidden", "A fuser may attach a trace only to a joint they made.");
+  if (!item || !canAttachTraceTo(user, item)) {
+    if (item && can(user, "attachTrace")) throw new AppError("forbidden", "A fuser may attach a trace only to a joint they made.");
     throw new AppError("not-found", `Joint ${jointId} was not found.`);
   }
   if (!item.plan) throw new AppError("invalid", "This joint has no pressure plan to check a trace against.", { jointId: ["The joint has no plan"] });

@@ -10,7 +10,7 @@ import type { UserRecord } from "@/database/queries/users";
 import { AppError } from "@/domain/result";
 import { REVIEW_STATE_LABELS, REVISION_KIND_LABELS } from "@/domain/review/labels";
 import { acceptNeedsNote, type DecideJointValues } from "@/domain/review/schemas";
-import { canReview, hasAnyRole } from "@/domain/roles";
+import { can, canReview } from "@/domain/roles";
 import type { Db } from "@/database/client";
 
 export type DecisionResult = { jointId: number; revisionNo: number; reviewState: "accepted" | "cut-out" };
@@ -29,7 +29,7 @@ export async function decideJoint(input: DecideJointValues, { user, requestId, n
     if (!canReview(user, { fuserId: state.fuserId })) {
       throw new AppError(
         "forbidden",
-        hasAnyRole(user, ["inspector"]) ? `You made ${label} yourself; another inspector must decide it.` : "Only an inspector may decide a joint.",
+        can(user, "decideJoint") ? `You made ${label} yourself; another inspector must decide it.` : "Only an inspector may decide a joint.",
       );
     }
     if (state.revisionNo !== input.expectedRevisionNo) throw await conflict(state.jointId, trx, label);

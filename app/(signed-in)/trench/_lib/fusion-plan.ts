@@ -6,7 +6,6 @@ import { findMachineById } from "@/database/queries/equipment";
 import { findJobById } from "@/database/queries/jobs";
 import { currentProcedureVersionForJob } from "@/database/queries/procedures";
 import type { UserRecord } from "@/database/queries/users";
-import { isDomainError } from "@/domain/errors";
 import { planButtFusion, type FusionPlan } from "@/domain/fusion/plan";
 import type { FusionPlanQuery } from "@/domain/joints/schemas";
 import { AppError } from "@/domain/result";
@@ -55,13 +54,8 @@ export async function fusionPlanFor(q: FusionPlanQuery, user: UserRecord): Promi
     sdr = coil.sdr;
     coilCode = coil.coilCode;
   }
-  let plan: FusionPlan;
-  try {
-    plan = planButtFusion({ procedure: version.definition, outsideDiameterMm: od as number, sdr: sdr as number, pistonAreaMm2: machine.pistonAreaMm2 as number, dragPressureMpa: q.dragPressureMpa });
-  } catch (error) {
-    if (isDomainError(error)) throw new AppError("invalid", error.message, { [q.coil ? "coil" : "outsideDiameterMm"]: [error.message] });
-    throw error;
-  }
+  // An impossible pipe for this procedure throws a DomainError: the wrapper answers 422.
+  const plan = planButtFusion({ procedure: version.definition, outsideDiameterMm: od as number, sdr: sdr as number, pistonAreaMm2: machine.pistonAreaMm2 as number, dragPressureMpa: q.dragPressureMpa });
   return {
     procedure: { versionId: version.id, code: version.procedureCode, name: version.procedureName, versionNo: version.versionNo, label: version.definition.label },
     machine: { id: machine.id, assetTag: machine.assetTag, pistonAreaMm2: machine.pistonAreaMm2 as number },

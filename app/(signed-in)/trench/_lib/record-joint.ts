@@ -32,7 +32,6 @@ import { listQualificationFailuresForUser, listQualificationsForUser } from "@/d
 import { listUsersWithRole, type UserRecord } from "@/database/queries/users";
 import { checkJoint, type JointCheck } from "@/domain/fusion/check";
 import { planButtFusion, type FusionPlan } from "@/domain/fusion/plan";
-import { isDomainError } from "@/domain/errors";
 import { applyOverrides, blockReasons, componentMismatch, madeAtProblem } from "@/domain/joints/rules";
 import { jointMeasurements } from "@/domain/joints/measurements";
 import type { RecordJointInput } from "@/domain/joints/schemas";
@@ -182,13 +181,8 @@ async function prepare(input: RecordJointInput, user: UserRecord, madeAt: Date):
     throw new AppError("conflict", message, { override: open.map((r) => r.message) });
   }
 
-  let plan: FusionPlan;
-  try {
-    plan = planButtFusion({ procedure: version.definition, outsideDiameterMm: coilA.outsideDiameterMm, sdr: coilA.sdr, pistonAreaMm2: machine.pistonAreaMm2 as number, dragPressureMpa: input.dragPressureMpa });
-  } catch (error) {
-    if (isDomainError(error)) throw invalid("coilA", error.message);
-    throw error;
-  }
+  // An impossible pipe for this procedure throws a DomainError: the wrapper answers 422.
+  const plan = planButtFusion({ procedure: version.definition, outsideDiameterMm: coilA.outsideDiameterMm, sdr: coilA.sdr, pistonAreaMm2: machine.pistonAreaMm2 as number, dragPressureMpa: input.dragPressureMpa });
   // The server's own check, messages in SI for the record (screens re-check in their units).
   const check = checkJoint(plan, jointMeasurements({ ...input, beadUpGaugeMpa: input.beadUpGaugeMpa ?? null, heatSoakS: input.heatSoakS ?? null }), { system: "si" });
   return { plan, check, coilA, coilB, procedureVersionId: version.id, jobCode: job.code, covered };

@@ -5,7 +5,7 @@ import { uploadBeadPhoto } from "./_lib/upload";
 
 export const dynamic = "force-dynamic";
 
-export const POST = defineRoute({ audience: ["fuser", "inspector", "admin"], input: "raw" }, async (_input, { user, request, requestId }) => {
+export const POST = defineRoute({ permission: "uploadPhoto", input: "raw" }, async (_input, { user, request, requestId }) => {
   const attachment = await uploadBeadPhoto({ request, user, requestId });
   return Response.json({ attachment }, { status: 201, headers: { location: attachment.url } });
 });

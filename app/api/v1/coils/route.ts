@@ -7,7 +7,7 @@ import { receiveCoil } from "@/app/(signed-in)/coils/_lib/use-cases";
 import { findCoilByCodeOrTrace, listCoils } from "@/database/queries/coils";
 import { COIL_STATUSES } from "@/domain/coil-life/rules";
 import { receiveCoilSchema } from "@/domain/coil-life/schemas";
-import { hasAnyRole } from "@/domain/roles";
+import { can } from "@/domain/roles";
 import { z } from "zod";
 
 export const dynamic = "force-dynamic";
@@ -19,18 +19,18 @@ const lookupSchema = z.object({
   limit: z.coerce.number().int().min(1).max(1000).default(200),
 });
 
-export const GET = defineRoute({ audience: "signed-in", schema: lookupSchema, input: "query" }, async (input, { user }) => {
+export const GET = defineRoute({ permission: "signed-in", schema: lookupSchema, input: "query" }, async (input, { user }) => {
   if (input.code) {
     const coil = await findCoilByCodeOrTrace({ code: input.code, preferCrewId: user.crewId });
     if (!coil) return errorResponse("not-found", `No coil matches "${input.code}".`, { code: [`No coil matches "${input.code}".`] });
     return Response.json({ coil });
   }
-  if (!hasAnyRole(user, ["clerk", "admin"])) return errorResponse("forbidden", "Your role does not allow listing coils; look one up by its code.");
+  if (!can(user, "listCoils")) return errorResponse("forbidden", "Your role does not allow listing coils; look one up by its code.");
   const coils = await listCoils({ status: input.status, search: input.q, limit: input.limit });
   return Response.json({ coils });
 });
 
-export const POST = defineRoute({ audience: ["clerk", "admin"], schema: receiveCoilSchema, input: "json" }, async (input, ctx) => {
+export const POST = defineRoute({ permission: "receiveCoils", schema: receiveCoilSchema, input: "json" }, async (input, ctx) => {
   const received = await receiveCoil(input, ctx);
   return Response.json({ coil: received }, { status: 201 });
 });

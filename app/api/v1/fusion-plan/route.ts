@@ -6,4 +6,4 @@ import { fusionPlanQuerySchema } from "@/domain/joints/schemas";
 
 export const dynamic = "force-dynamic";
 
-export const GET = defineRoute({ audience: "signed-in", schema: fusionPlanQuerySchema, input: "query" }, async (q, { user }) => Response.json(await fusionPlanFor(q, user)));
+export const GET = defineRoute({ permission: "signed-in", schema: fusionPlanQuerySchema, input: "query" }, async (q, { user }) => Response.json(await fusionPlanFor(q, user)));

@@ -4,18 +4,18 @@ import { recordJoint } from "@/app/(signed-in)/trench/_lib/record-joint";
 import { defineRoute } from "@/app/_lib/guard";
 import { listJoints } from "@/database/queries/joints";
 import { listJointsQuerySchema, recordJointSchema } from "@/domain/joints/schemas";
-import { hasAnyRole } from "@/domain/roles";
+import { can } from "@/domain/roles";
 import { jointJson } from "./_lib/json";
 
 export const dynamic = "force-dynamic";
 
-export const POST = defineRoute({ audience: ["fuser"], schema: recordJointSchema, input: "json" }, async (input, ctx) => {
+export const POST = defineRoute({ permission: "recordJoint", schema: recordJointSchema, input: "json" }, async (input, ctx) => {
   const result = await recordJoint(input, ctx);
   return Response.json({ joint: result.joint, created: result.created }, { status: result.created ? 201 : 200, headers: { location: `/api/v1/joints/${result.joint.id}` } });
 });
 
-export const GET = defineRoute({ audience: "signed-in", schema: listJointsQuerySchema, input: "query" }, async (q, { user }) => {
-  const seesAll = hasAnyRole(user, ["inspector", "clerk", "admin"]);
+export const GET = defineRoute({ permission: "signed-in", schema: listJointsQuerySchema, input: "query" }, async (q, { user }) => {
+  const seesAll = can(user, "viewRegister");
   const mine = q.mine === "1" || q.mine === "true";
   const joints = await listJoints({ jobId: q.jobId, clientId: q.clientId, beforeId: q.before ? Number(q.before) : undefined, fuserId: !seesAll || mine ? user.id : undefined, limit: q.limit });
   const last = joints[joints.length - 1];

@@ -7,8 +7,6 @@ export const labelDownloadSchema = z.object({
   dpi: z.coerce.number({ error: "dpi must be a number." }).int({ error: "dpi must be a whole number." }).min(72, { error: "dpi must be 72 to 600." }).max(600, { error: "dpi must be 72 to 600." }).default(300),
 });
 
-export const idParam = z.coerce.number().int().positive();
-
 /** File names are built from our own ids only; anything else becomes "-". */
 export function safeFileName(name: string): string {
   return name.replace(/[^A-Za-z0-9._-]+/g, "-").slice(0, 80) || "label";

@@ -9,7 +9,7 @@ import { AppError } from "@/domain/result";
 
 export const dynamic = "force-dynamic";
 
-export const GET = defineRoute({ audience: ["clerk", "inspector", "admin"], schema: registerPageQuerySchema, input: "query" }, async (query) => {
+export const GET = defineRoute({ permission: "viewRegister", schema: registerPageQuerySchema, input: "query" }, async (query) => {
   let after;
   if (query.after) {
     const decoded = decodeCursor(query.after, { sort: query.sort, dir: query.dir });

@@ -39,11 +39,11 @@ export async function POST(request: Request): Promise<Response> {
   }
 }
 
-export const GET = defineRoute({ audience: "signed-in" }, async (_input, { user }) =>
+export const GET = defineRoute({ permission: "signed-in" }, async (_input, { user }) =>
   Response.json({ user: { id: user.id, name: user.name, email: user.email, roles: user.roles, unitSystem: user.unitSystem } }),
 );
 
-export const DELETE = defineRoute({ audience: "signed-in" }, async (_input, { user, requestId }) => {
+export const DELETE = defineRoute({ permission: "signed-in" }, async (_input, { user, requestId }) => {
   await signOutUser({ userId: user.id, requestId });
   const response = new Response(null, { status: 204 });
   response.headers.append("set-cookie", `beadline_session=; Path=/; Max-Age=0; HttpOnly; SameSite=Lax`);

@@ -6,7 +6,7 @@ import { attachTraceSchema, MAX_TRACE_FILE_BYTES } from "@/domain/review/schemas
 import { describeFieldErrors, fieldErrorsFromIssues } from "@/domain/result";
 import { attachTrace } from "@/app/(signed-in)/review/_lib/attach-trace";
 
-export const POST = defineRoute({ audience: ["inspector", "fuser"], input: "raw" }, async (_input, { user, requestId, request }) => {
+export const POST = defineRoute({ permission: "attachTrace", input: "raw" }, async (_input, { user, requestId, request }) => {
   const length = Number(request.headers.get("content-length") ?? 0);
   if (length > MAX_TRACE_FILE_BYTES + 100_000) return errorResponse("too-large", `The trace file is too large; at most ${MAX_TRACE_FILE_BYTES / 1e6} MB is accepted.`, { file: ["The file is too large"] });
   let form: FormData;

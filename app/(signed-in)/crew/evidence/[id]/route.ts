@@ -1,11 +1,10 @@
 // Qualification evidence, served only to admins through this handler (the bucket is private).
 import { defineRoute, errorResponse } from "@/app/_lib/guard";
+import { idParams } from "@/app/_lib/params";
 import { findAttachmentById } from "@/database/queries/attachments";
 import { getObject } from "@/database/storage";
 
-export const GET = defineRoute<never, { id: string }>({ audience: ["admin"], input: "none" }, async (_input, { params }) => {
-  const id = Number(params.id);
-  if (!Number.isInteger(id) || id <= 0) return errorResponse("not-found", "No such evidence file.");
+export const GET = defineRoute({ permission: "manageCrew", params: idParams("No such evidence file."), input: "none" }, async (_input, { params: { id } }) => {
   const attachment = await findAttachmentById({ id });
   if (!attachment || attachment.kind !== "qualification-evidence") return errorResponse("not-found", "No such evidence file.");
   const object = await getObject({ key: attachment.objectKey });

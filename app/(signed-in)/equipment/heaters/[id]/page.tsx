@@ -11,7 +11,7 @@ import { HeaterForm } from "../../_components/heater-form";
 export const dynamic = "force-dynamic";
 
 export default async function HeaterPage({ params }: { params: Promise<{ id: string }> }) {
-  const user = await requireUser(["admin"]);
+  const user = await requireUser("manageEquipment");
   const id = Number((await params).id);
   if (!Number.isInteger(id) || id <= 0) notFound();
   const heater = await findHeaterWithLastCheck({ id });

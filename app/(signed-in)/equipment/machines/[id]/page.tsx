@@ -8,7 +8,7 @@ import { editValue, pistonArea } from "../../_components/format";
 export const dynamic = "force-dynamic";
 
 export default async function MachinePage({ params }: { params: Promise<{ id: string }> }) {
-  const user = await requireUser(["admin"]);
+  const user = await requireUser("manageEquipment");
   const id = Number((await params).id);
   if (!Number.isInteger(id) || id <= 0) notFound();
   const machine = await findMachineById({ id });

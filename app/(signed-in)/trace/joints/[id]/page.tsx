@@ -60,7 +60,7 @@ function Component({ title, coil, text, lengthM, system }: { title: string; coil
 
 // Joint → origins: everything that made one joint, as it stood on the day.
 export default async function JointOriginsPage({ params }: { params: Promise<{ id: string }> }) {
-  const user = await requireUser(["clerk", "inspector", "admin"]);
+  const user = await requireUser("traceLots");
   const { id } = await params;
   const jointId = Number(id);
   if (!Number.isInteger(jointId) || jointId <= 0) notFound();

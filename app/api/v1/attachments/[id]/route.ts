@@ -3,20 +3,19 @@
 // qualification evidence, only to the uploader, inspectors and admins. The type comes from
 // what was detected at upload, never from the request; nosniff stops browsers guessing.
 import { defineRoute, errorResponse } from "@/app/_lib/guard";
+import { idParams } from "@/app/_lib/params";
 import { findAttachmentById } from "@/database/queries/attachments";
 import { getObject } from "@/database/storage";
-import { hasAnyRole } from "@/domain/roles";
+import { can } from "@/domain/roles";
 import { PHOTO_TYPES } from "../_lib/upload";
 
 export const dynamic = "force-dynamic";
 
-export const GET = defineRoute<never, { id: string }>({ audience: "signed-in", input: "none" }, async (_input, { user, params }) => {
-  const id = /^\d{1,15}$/.test(params.id) ? Number(params.id) : NaN;
-  if (!Number.isSafeInteger(id)) return errorResponse("bad-request", "An attachment id is a whole number.");
+export const GET = defineRoute({ permission: "signed-in", params: idParams("An attachment id is a whole number."), badParams: "bad-request", input: "none" }, async (_input, { user, params: { id } }) => {
   const attachment = await findAttachmentById({ id });
   if (!attachment) return errorResponse("not-found", `Attachment ${id} does not exist.`);
   const open = attachment.kind !== "qualification-evidence" && attachment.jointId !== null;
-  if (!open && attachment.uploadedBy !== user.id && !hasAnyRole(user, ["inspector", "admin"])) {
+  if (!open && attachment.uploadedBy !== user.id && !can(user, "openAnyFile")) {
     return errorResponse("forbidden", "You may not open this file.");
   }
   const object = await getObject({ key: attachment.objectKey });

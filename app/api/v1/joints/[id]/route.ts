@@ -1,15 +1,14 @@
 // /api/v1/joints/:id — one joint with its revisions, photos and the overrides it was made
 // under. Any signed-in person may read a joint (traceability is open inside the operator).
 import { defineRoute, errorResponse } from "@/app/_lib/guard";
+import { idParams } from "@/app/_lib/params";
 import { listAttachmentsForJoint } from "@/database/queries/attachments";
 import { findJointById, listJointRevisions, listOverrideUsesForJoint } from "@/database/queries/joints";
 import { jointJson } from "../_lib/json";
 
 export const dynamic = "force-dynamic";
 
-export const GET = defineRoute<never, { id: string }>({ audience: "signed-in", input: "none" }, async (_input, { user, params }) => {
-  const id = /^\d{1,15}$/.test(params.id) ? Number(params.id) : NaN;
-  if (!Number.isSafeInteger(id)) return errorResponse("bad-request", "A joint id is a whole number.", { id: ["A joint id is a whole number."] });
+export const GET = defineRoute({ permission: "signed-in", params: idParams("A joint id is a whole number."), badParams: "bad-request", input: "none" }, async (_input, { user, params: { id } }) => {
   const joint = await findJointById({ id });
   if (!joint) return errorResponse("not-found", `Joint ${id} does not exist.`);
   const [revisions, photos, overrides] = await Promise.all([listJointRevisions({ jointId: id }), listAttachmentsForJoint({ jointId: id }), listOverrideUsesForJoint({ jointId: id })]);

@@ -7,7 +7,7 @@ import { toQueueItemView } from "@/app/(signed-in)/review/_lib/view";
 
 export const dynamic = "force-dynamic";
 
-export const GET = defineRoute({ audience: ["inspector"], schema: reviewQueueFilterSchema, input: "query" }, async (input, { user }) => {
+export const GET = defineRoute({ permission: "viewReview", schema: reviewQueueFilterSchema, input: "query" }, async (input, { user }) => {
   const queue = await listReviewQueue({ filter: { jobId: input.job, fuserId: input.fuser, machineId: input.machine, finding: input.finding }, limit: input.limit });
   return Response.json(
     { total: queue.total, outOfLimits: queue.outOfLimits, items: queue.items.map((item) => toQueueItemView(item, user.unitSystem)) },

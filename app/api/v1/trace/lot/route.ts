@@ -6,7 +6,7 @@ import { traceSearchSchema } from "@/domain/coil-life/schemas";
 
 export const dynamic = "force-dynamic";
 
-export const GET = defineRoute({ audience: ["clerk", "inspector", "admin"], schema: traceSearchSchema, input: "query" }, async (input) => {
+export const GET = defineRoute({ permission: "traceLots", schema: traceSearchSchema, input: "query" }, async (input) => {
   const trace = await traceLot(input);
   return Response.json({
     matchedBy: trace.matchedBy,

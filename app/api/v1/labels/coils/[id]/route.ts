@@ -5,15 +5,14 @@ import { publicBaseUrl } from "@/app/(signed-in)/labels/_lib/base-url";
 import { coilLabelSvg, stockOrDefault, svgToPng } from "@/app/(signed-in)/labels/_lib/render";
 import { markLabelsPrinted } from "@/app/(signed-in)/coils/_lib/use-cases";
 import { findCoilById } from "@/database/queries/coils";
-import { idParam, labelDownloadSchema, labelFile } from "../../_lib";
+import { idParams } from "@/app/_lib/params";
+import { labelDownloadSchema, labelFile } from "../../_lib";
 
 export const dynamic = "force-dynamic";
 
-export const GET = defineRoute<typeof labelDownloadSchema, { id: string }>({ audience: ["clerk", "admin"], schema: labelDownloadSchema, input: "query" }, async (input, { params, request, user, requestId }) => {
-  const id = idParam.safeParse(params.id);
-  if (!id.success) return errorResponse("not-found", "No such coil.");
-  const coil = await findCoilById({ id: id.data });
-  if (!coil) return errorResponse("not-found", `Coil ${id.data} is not on file.`);
+export const GET = defineRoute({ permission: "printLabels", params: idParams("No such coil."), schema: labelDownloadSchema, input: "query" }, async (input, { params: { id }, request, user, requestId }) => {
+  const coil = await findCoilById({ id });
+  if (!coil) return errorResponse("not-found", `Coil ${id} is not on file.`);
   const label = coilLabelSvg(coil, { baseUrl: publicBaseUrl(request.headers, new URL(request.url).origin), stock: stockOrDefault(input.stock, user.unitSystem), system: user.unitSystem });
   const body = input.format === "png" ? await svgToPng(label.svg, input.dpi) : label.svg;
   await markLabelsPrinted([coil.id], input.format, { user, requestId });

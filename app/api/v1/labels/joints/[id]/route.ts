@@ -4,15 +4,14 @@ import { defineRoute, errorResponse } from "@/app/_lib/guard";
 import { publicBaseUrl } from "@/app/(signed-in)/labels/_lib/base-url";
 import { jointLabelSvg, stockOrDefault, svgToPng } from "@/app/(signed-in)/labels/_lib/render";
 import { findJointLabelFacts } from "@/database/queries/trace";
-import { idParam, labelDownloadSchema, labelFile } from "../../_lib";
+import { idParams } from "@/app/_lib/params";
+import { labelDownloadSchema, labelFile } from "../../_lib";
 
 export const dynamic = "force-dynamic";
 
-export const GET = defineRoute<typeof labelDownloadSchema, { id: string }>({ audience: ["clerk", "admin", "inspector"], schema: labelDownloadSchema, input: "query" }, async (input, { params, request, user }) => {
-  const id = idParam.safeParse(params.id);
-  if (!id.success) return errorResponse("not-found", "No such joint.");
-  const [joint] = await findJointLabelFacts({ jointIds: [id.data] });
-  if (!joint) return errorResponse("not-found", `Joint ${id.data} is not on file.`);
+export const GET = defineRoute({ permission: "printJointLabels", params: idParams("No such joint."), schema: labelDownloadSchema, input: "query" }, async (input, { params: { id }, request, user }) => {
+  const [joint] = await findJointLabelFacts({ jointIds: [id] });
+  if (!joint) return errorResponse("not-found", `Joint ${id} is not on file.`);
   const label = jointLabelSvg(joint, { baseUrl: publicBaseUrl(request.headers, new URL(request.url).origin), stock: stockOrDefault(input.stock, user.unitSystem) });
   const body = input.format === "png" ? await svgToPng(label.svg, input.dpi) : label.svg;
   return labelFile(body, input.format, label.name);

@@ -1,17 +1,14 @@
 // GET /api/v1/review/joints/:id — one joint's evidence and its revisions (inspector).
-import { z } from "zod";
 import { defineRoute, errorResponse } from "@/app/_lib/guard";
+import { idParams } from "@/app/_lib/params";
 import { findReviewItem, listJointRevisions } from "@/database/queries/reviews";
 import { toQueueItemView } from "@/app/(signed-in)/review/_lib/view";
 
 export const dynamic = "force-dynamic";
-const idSchema = z.coerce.number().int().positive();
 
-export const GET = defineRoute<z.ZodTypeAny, { id: string }>({ audience: ["inspector"], input: "none" }, async (_input, { user, params }) => {
-  const id = idSchema.safeParse(params.id);
-  if (!id.success) return errorResponse("not-found", "No such joint.");
-  const item = await findReviewItem({ jointId: id.data });
+export const GET = defineRoute({ permission: "viewReview", params: idParams("No such joint."), input: "none" }, async (_input, { user, params: { id } }) => {
+  const item = await findReviewItem({ jointId: id });
   if (!item) return errorResponse("not-found", "No such joint.");
-  const revisions = await listJointRevisions({ jointId: id.data });
+  const revisions = await listJointRevisions({ jointId: id });
   return Response.json({ item: toQueueItemView(item, user.unitSystem), revisions }, { headers: { "cache-control": "no-store" } });
 });

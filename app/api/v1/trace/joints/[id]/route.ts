@@ -3,14 +3,12 @@
 // the fuser and their qualification on that date, the procedure version.
 import { defineRoute, errorResponse } from "@/app/_lib/guard";
 import { traceJointOrigins } from "@/app/(signed-in)/trace/_lib/origins";
-import { z } from "zod";
+import { idParams } from "@/app/_lib/params";
 
 export const dynamic = "force-dynamic";
 
-export const GET = defineRoute<z.ZodObject, { id: string }>({ audience: ["clerk", "inspector", "admin"] }, async (_input, { params }) => {
-  const id = z.coerce.number().int().positive().safeParse(params.id);
-  if (!id.success) return errorResponse("not-found", "No such joint.");
-  const origins = await traceJointOrigins(id.data);
-  if (!origins) return errorResponse("not-found", `Joint ${id.data} is not on file.`);
+export const GET = defineRoute({ permission: "traceLots", params: idParams("No such joint.") }, async (_input, { params: { id } }) => {
+  const origins = await traceJointOrigins(id);
+  if (!origins) return errorResponse("not-found", `Joint ${id} is not on file.`);
   return Response.json(origins);
 });

@@ -7,7 +7,7 @@ import { traceSearchSchema } from "@/domain/coil-life/schemas";
 
 export const dynamic = "force-dynamic";
 
-export const GET = defineRoute({ audience: ["clerk", "inspector", "admin"], schema: traceSearchSchema, input: "query" }, async (input, { user, requestId }) => {
+export const GET = defineRoute({ permission: "traceLots", schema: traceSearchSchema, input: "query" }, async (input, { user, requestId }) => {
   const trace = await traceLot(input);
   const body = await traceWorkbook(trace);
   await insertAuditEntry({ actorUserId: user.id, action: "trace-exported", entityType: "lot", entityId: trace.lots.map((l) => l.lot).join(",").slice(0, 64) || null, details: { search: input, joints: trace.joints.length, coils: trace.coils.length }, requestId });

@@ -1,22 +1,16 @@
 // POST /api/v1/review/joints/:id/decision { decision, note, expectedRevisionNo } — the same
 // decision as the review screen's action, for API clients. 409 when the joint moved on.
-import { defineRoute, errorResponse } from "@/app/_lib/guard";
+import { z } from "zod";
+import { defineRoute, parseInput } from "@/app/_lib/guard";
 import { decideJointSchema } from "@/domain/review/schemas";
-import { fieldErrorsFromIssues, describeFieldErrors } from "@/domain/result";
 import { decideJoint } from "@/app/(signed-in)/review/_lib/decide-joint";
 
-export const POST = defineRoute<typeof decideJointSchema, { id: string }>({ audience: ["inspector"], input: "raw" }, async (_input, { user, requestId, params, request }) => {
-  let body: unknown;
-  try {
-    body = await request.json();
-  } catch {
-    return errorResponse("bad-request", "The request body is not valid JSON.", { _body: ["The request body is not valid JSON."] });
-  }
-  const parsed = decideJointSchema.safeParse({ ...(body as object), jointId: params.id });
-  if (!parsed.success) {
-    const fields = fieldErrorsFromIssues(parsed.error.issues);
-    return errorResponse("invalid", describeFieldErrors(fields), fields);
-  }
-  const result = await decideJoint(parsed.data, { user, requestId });
+// The joint id is checked with the decision itself (decideJointSchema), so a bad id is
+// named among the other fields (422), as the review screen's action names it.
+const params = z.object({ id: z.string() });
+
+export const POST = defineRoute({ permission: "decideJoint", params, input: "json" }, async (body, { user, requestId, params: { id } }) => {
+  const input = parseInput(decideJointSchema, { ...(body as object), jointId: id });
+  const result = await decideJoint(input, { user, requestId });
   return Response.json(result);
 });
