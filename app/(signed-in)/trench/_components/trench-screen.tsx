@@ -13,7 +13,7 @@ import { Button } from "@/components/ui/button";
 import { Cautions } from "@/components/ui/caution";
 import { checkJoint } from "@/domain/fusion/check";
 import { planButtFusion, type FusionPlan } from "@/domain/fusion/plan";
-import { jointMeasurements } from "@/domain/joints/measurements";
+import { pickRecordedValues } from "@/domain/joints/values";
 import { applyOverrides, blockReasons, componentMismatch } from "@/domain/joints/rules";
 import { JOINT_KIND_LABELS, JOINT_KINDS, PHASE_LABELS, recordJointFormSchema, TIMED_PHASES, type RecordJointFormInput, type RecordJointFormValues, type TimedPhase } from "@/domain/joints/schemas";
 import { phaseLimits, timedDurationS, type PhaseTiming } from "@/domain/joints/timer";
@@ -218,7 +218,7 @@ export function TrenchScreen({ setup }: { setup: TrenchSetup }) {
     const madeAt = new Date().toISOString();
     let preliminary: OutboxEntry["preliminary"] = null;
     if (plan) {
-      const check = checkJoint(plan, jointMeasurements({ ...v, beadUpGaugeMpa: v.beadUpGaugeMpa ?? null, heatSoakS: v.heatSoakS ?? null }), { system });
+      const check = checkJoint(plan, pickRecordedValues(v), { system });
       preliminary = { outcome: check.outcome, findings: check.findings.map((f) => f.message) };
     }
     const label = `${v.coilA} + ${v.kind === "coil-to-coil" ? v.coilB : v.componentBText}`;
