@@ -4,7 +4,7 @@
 // including the recorded values of a joint, whose columns come from domain/joints/values.
 import type { Knex } from "knex";
 import type { JointParameter } from "@/domain/fusion/check";
-import { RECORDED_VALUES, type RecordedValues, type RecordedValuesInput } from "@/domain/joints/values";
+import { RECORDED_VALUES, recordedValuesToColumns, type RecordedValues } from "@/domain/joints/values";
 
 /** A row as the driver gives it: column name → DECIMAL text, number, 0/1, Date, text or null. */
 export type DbRow = Record<string, unknown>;
@@ -50,10 +50,7 @@ export function toRecordedValues(row: DbRow): RecordedValues {
 }
 
 /** RecordedValues → the columns of `joints` for an insert (absent values stored as NULL). */
-export function recordedValueRow(values: RecordedValuesInput): Record<string, number | boolean | null> {
-  const src = values as Record<string, number | boolean | null | undefined>;
-  return Object.fromEntries(RECORDED_VALUES.map((d) => [d.column, src[d.key] ?? null]));
-}
+export const recordedValueRow = recordedValuesToColumns;
 
 /**
  * "The joint has a finding on this parameter", as a condition on `joints` under `alias`:

@@ -188,6 +188,17 @@ export function jointMeasurements(v: RecordedValuesInput): JointMeasurements {
   return out as unknown as JointMeasurements;
 }
 
+/** Every yes/no check answered yes (a joint made by the book; fixtures and demo data). */
+export function allChecksPassed(): { [K in CheckValueKey]: boolean } {
+  return Object.fromEntries(CHECK_VALUES.map((d) => [d.key, true])) as { [K in CheckValueKey]: boolean };
+}
+
+/** Recorded values → the columns of `joints` that hold them (absent values as NULL). */
+export function recordedValuesToColumns(v: RecordedValuesInput): Record<string, number | boolean | null> {
+  const src = v as Record<string, number | boolean | null | undefined>;
+  return Object.fromEntries(RECORDED_VALUES.map((d) => [d.column, src[d.key] ?? null]));
+}
+
 /** Deprecated JSON API names → current keys (`fusionGaugeMpa` → `fusionGaugePressureMpa`). */
 export const DEPRECATED_WIRE_NAMES: Readonly<Record<string, RecordedValueKey>> = Object.fromEntries(
   RECORDED_VALUE_DEFINITIONS.filter((d) => d.deprecatedWireName).map((d) => [d.deprecatedWireName as string, d.key as RecordedValueKey]),
