@@ -150,6 +150,7 @@ function buildBase(resolved: Resolved, sort: RegisterSort): Built {
     idCol = "s.joint_id";
     dateCol = "s.made_at";
   } else if (driver === "findings") {
+    // joint_findings: findings at recording and of later pressure traces (rows.ts jointHasFinding).
     from = "joint_findings f";
     if (needsStates) from += " STRAIGHT_JOIN joint_states s ON s.joint_id = f.joint_id";
     keyCols = ["f.made_at"];

@@ -9,7 +9,7 @@ import type { ReviewState } from "@/domain/review/labels";
 import type { RecordedValues } from "@/domain/joints/values";
 import type { ChartPoint } from "@/domain/review/trace-check";
 import { conn, type Db } from "../client";
-import { num, parseJson, text, toRecordedValues, whereJointHasFinding, type DbRow } from "./rows";
+import { addJointFindings, jointHasFinding, num, parseJson, text, toRecordedValues, type DbRow } from "./rows";
 
 export type RevisionKind = "recorded" | "corrected" | "accepted" | "cut-out" | "trace-attached";
 
@@ -154,7 +154,10 @@ function applyFilter(q: ReturnType<typeof baseJointQuery>, filter: QueueFilter) 
   if (filter.jobId) q.where("j.job_id", filter.jobId);
   if (filter.fuserId) q.where("j.fuser_id", filter.fuserId);
   if (filter.machineId) q.where("j.machine_id", filter.machineId);
-  if (filter.finding) whereJointHasFinding(q, "j", filter.finding);
+  if (filter.finding) {
+    const finding = jointHasFinding("j", filter.finding);
+    q.whereRaw(finding.sql, finding.bindings);
+  }
   return q;
 }
 
@@ -284,6 +287,7 @@ export async function insertJointTrace(
     uploaded_by: t.uploadedBy,
     uploaded_at: t.at,
   });
+  await addJointFindings({ jointId: t.jointId, parameters: t.findings.map((f) => f.parameter) }, trx);
   return Number(id);
 }
 

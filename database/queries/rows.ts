@@ -53,23 +53,19 @@ export function toRecordedValues(row: DbRow): RecordedValues {
 export const recordedValueRow = recordedValuesToColumns;
 
 /**
- * "The joint has a finding on this parameter", as a condition on `joints` under `alias`:
- * the finding was raised when the joint was recorded, or by a pressure trace checked
- * later (joint_traces). The review queue and the Register filter by the same condition.
+ * "The joint has a finding on this parameter", as SQL on `joints` under `alias`: a row of
+ * joint_findings, which holds the findings raised when the joint was recorded (a trigger
+ * on joints) and those of every pressure trace checked later (insertJointTrace). The
+ * review queue filters by this condition; the Register walks the same table by its
+ * (parameter, made_at) index.
  */
-export function whereJointHasFinding<Q extends Knex.QueryBuilder>(q: Q, alias: string, parameter: JointParameter): Q {
-  q.where((w) => {
-    w.whereRaw(`FIND_IN_SET(?, ${alias}.finding_parameters) > 0`, [parameter]).orWhereExists(function () {
-      this.select(1).from("joint_traces as jt").whereRaw(`jt.joint_id = ${alias}.id`).whereRaw("FIND_IN_SET(?, jt.finding_parameters) > 0", [parameter]);
-    });
-  });
-  return q;
+export function jointHasFinding(alias: string, parameter: JointParameter): { sql: string; bindings: string[] } {
+  return { sql: `EXISTS (SELECT 1 FROM joint_findings jf WHERE jf.joint_id = ${alias}.id AND jf.parameter = ?)`, bindings: [parameter] };
 }
 
-/** The same condition as SQL text for the Register's hand-written queries. */
-export function jointHasFindingSql(alias: string, parameter: JointParameter): { text: string; bindings: string[] } {
-  return {
-    text: `(FIND_IN_SET(?, ${alias}.finding_parameters) > 0 OR EXISTS (SELECT 1 FROM joint_traces jt WHERE jt.joint_id = ${alias}.id AND FIND_IN_SET(?, jt.finding_parameters) > 0))`,
-    bindings: [parameter, parameter],
-  };
+/** Adds findings to joint_findings (a trace's, after the joint was recorded); one row per parameter. */
+export async function addJointFindings({ jointId, parameters }: { jointId: number; parameters: readonly JointParameter[] }, trx: Knex): Promise<void> {
+  for (const parameter of new Set(parameters)) {
+    await trx.raw("INSERT IGNORE INTO joint_findings (joint_id, parameter, made_at) SELECT id, ?, made_at FROM joints WHERE id = ?", [parameter, jointId]);
+  }
 }
