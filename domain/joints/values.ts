@@ -146,14 +146,6 @@ export const RECORDED_VALUE_DEFINITIONS: readonly RecordedValueDefinition[] = RE
 export const QUANTITY_VALUES = RECORDED_VALUE_DEFINITIONS.filter((d): d is QuantityValueDefinition => d.type === 'quantity');
 export const CHECK_VALUES = RECORDED_VALUE_DEFINITIONS.filter((d): d is CheckValueDefinition => d.type === 'check');
 
-/** The database columns of the recorded values, in table order. */
-export const RECORDED_VALUE_COLUMNS: readonly string[] = RECORDED_VALUES.map((d) => d.column);
-
-/** Every key null: a joint with nothing recorded. */
-export function emptyRecordedValues(): RecordedValues {
-  return Object.fromEntries(RECORDED_VALUES.map((d) => [d.key, null])) as RecordedValues;
-}
-
 /** Picks the recorded values out of a larger object (a joint, a form's values); absent keys become null. */
 export function pickRecordedValues(source: RecordedValuesInput): RecordedValues {
   const src = source as Record<string, number | boolean | null | undefined>;
