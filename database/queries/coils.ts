@@ -7,6 +7,7 @@ import type { PipeSeries } from "@/domain/pipe/catalogue";
 import { AppError } from "@/domain/result";
 import type { UnitSystem } from "@/domain/units/format";
 import { conn, type Db } from "../client";
+import { num } from "./rows";
 import { insertAuditEntry } from "./audit-log";
 
 export type CoilInspection = {
@@ -68,7 +69,6 @@ export function isoDay(value: unknown): string | null {
   return String(value).slice(0, 10);
 }
 
-const num = (v: unknown): number | null => (v == null ? null : Number(v));
 
 function parseFlags(text: unknown): TraceCodeFlag[] {
   if (typeof text !== "string" || !text) return [];

@@ -2,6 +2,7 @@
 // rows were written), each start and finish audited in the same transaction.
 import { conn, db, type Db } from "../client";
 import { insertAuditEntry } from "./audit-log";
+import { num, parseJson, type DbRow } from "./rows";
 
 export type ExportFormat = "xlsx" | "csv";
 export type ExportStatus = "running" | "done" | "failed";
@@ -17,14 +18,14 @@ export type ExportRecord = {
   finishedAt: Date | null;
 };
 
-function toExport(r: Record<string, unknown>): ExportRecord {
+function toExport(r: DbRow): ExportRecord {
   return {
     id: Number(r.id),
     userId: Number(r.user_id),
     format: r.format as ExportFormat,
-    filter: JSON.parse(r.filter as string) as Record<string, unknown>,
+    filter: parseJson<Record<string, unknown>>(r.filter, {}),
     status: r.status as ExportStatus,
-    rowCount: r.row_count === null ? null : Number(r.row_count),
+    rowCount: num(r.row_count),
     startedAt: r.started_at as Date,
     finishedAt: (r.finished_at as Date | null) ?? null,
   };

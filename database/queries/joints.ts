@@ -6,14 +6,17 @@ import type { Knex } from "knex";
 import type { FusionPlan } from "@/domain/fusion/plan";
 import type { JointFinding, JointOutcome } from "@/domain/fusion/check";
 import type { JointKind, Shelter, TimedPhase } from "@/domain/joints/schemas";
+import type { RecordedValues } from "@/domain/joints/values";
 import type { OverrideGrant } from "@/domain/joints/rules";
 import { conn, type Db } from "../client";
 import { toCoil, type Coil } from "./coils";
+import { num, parseJson, recordedValueRow, setList, text, toRecordedValues, type DbRow } from "./rows";
 
 export type ReviewState = "pending-review" | "accepted" | "cut-out";
 export type RevisionKind = "recorded" | "corrected" | "accepted" | "cut-out" | "trace-attached";
 
-export type JointRecord = {
+/** A joint as stored, with its recorded values (domain/joints/values) spread in. */
+export type JointRecord = RecordedValues & {
   id: number;
   clientId: string;
   jobId: number;
@@ -41,18 +44,6 @@ export type JointRecord = {
   longitude: number | null;
   ambientC: number | null;
   shelter: Shelter | null;
-  heaterTemperatureC: number | null;
-  dragPressureMpa: number | null;
-  beadUpGaugeMpa: number | null;
-  fusionGaugeMpa: number | null;
-  beadMm: number | null;
-  heatSoakS: number | null;
-  changeoverS: number | null;
-  coolingS: number | null;
-  facingOk: boolean | null;
-  alignmentOk: boolean | null;
-  beadRollbackOk: boolean | null;
-  vGrooveOk: boolean | null;
   timedFields: TimedPhase[];
   plan: FusionPlan;
   outcome: JointOutcome;
@@ -66,19 +57,7 @@ export type JointRecord = {
   recordedAt: Date;
 };
 
-type Row = Record<string, unknown>;
-
-const num = (v: unknown): number | null => (v == null ? null : Number(v));
-const bool = (v: unknown): boolean | null => (v == null ? null : Boolean(v));
-
-function parseJson<T>(text: unknown, fallback: T): T {
-  if (typeof text !== "string" || !text) return fallback;
-  try {
-    return JSON.parse(text) as T;
-  } catch {
-    return fallback;
-  }
-}
+type Row = DbRow;
 
 function toJoint(r: Row): JointRecord {
   const coil = (prefix: "ca" | "cb") =>
@@ -95,7 +74,7 @@ function toJoint(r: Row): JointRecord {
     kind: r.kind as JointKind,
     coilA: coil("ca"),
     coilB: coil("cb"),
-    componentBText: (r.component_b_text as string | null) ?? null,
+    componentBText: text(r.component_b_text),
     lengthAM: num(r.length_a_m),
     lengthBM: num(r.length_b_m),
     outsideDiameterMm: Number(r.outside_diameter_mm),
@@ -108,26 +87,13 @@ function toJoint(r: Row): JointRecord {
     heater: { id: Number(r.heater_id), assetTag: r.heater_tag as string },
     fuser: { id: Number(r.fuser_id), name: r.fuser_name as string },
     madeAt: r.made_at as Date,
-    station: (r.station as string | null) ?? null,
+    station: text(r.station),
     latitude: num(r.latitude),
     longitude: num(r.longitude),
     ambientC: num(r.ambient_c),
     shelter: (r.shelter as Shelter | null) ?? null,
-    heaterTemperatureC: num(r.heater_temperature_c),
-    dragPressureMpa: num(r.drag_pressure_mpa),
-    beadUpGaugeMpa: num(r.bead_up_gauge_mpa),
-    fusionGaugeMpa: num(r.fusion_gauge_mpa),
-    beadMm: num(r.bead_mm),
-    heatSoakS: num(r.heat_soak_s),
-    changeoverS: num(r.changeover_s),
-    coolingS: num(r.cooling_s),
-    facingOk: bool(r.facing_ok),
-    alignmentOk: bool(r.alignment_ok),
-    beadRollbackOk: bool(r.bead_rollback_ok),
-    vGrooveOk: bool(r.v_groove_ok),
-    timedFields: String(r.timed_fields ?? "")
-      .split(",")
-      .filter(Boolean) as TimedPhase[],
+    ...toRecordedValues(r),
+    timedFields: setList<TimedPhase>(r.timed_fields),
     plan: parseJson<FusionPlan>(r.plan, null as unknown as FusionPlan),
     outcome: r.outcome as JointOutcome,
     findings: parseJson<JointFinding[]>(r.findings, []),
@@ -247,7 +213,7 @@ export async function takeNextJointNo({ jobId }: { jobId: number }, trx: Knex.Tr
   return next;
 }
 
-export type NewJoint = {
+export type NewJoint = RecordedValues & {
   clientId: string;
   jobId: number;
   jointNo: number;
@@ -269,18 +235,6 @@ export type NewJoint = {
   longitude: number | null;
   ambientC: number | null;
   shelter: Shelter | null;
-  heaterTemperatureC: number | null;
-  dragPressureMpa: number | null;
-  beadUpGaugeMpa: number | null;
-  fusionGaugeMpa: number | null;
-  beadMm: number | null;
-  heatSoakS: number | null;
-  changeoverS: number | null;
-  coolingS: number | null;
-  facingOk: boolean | null;
-  alignmentOk: boolean | null;
-  beadRollbackOk: boolean | null;
-  vGrooveOk: boolean | null;
   timedFields: TimedPhase[];
   plan: FusionPlan;
   outcome: JointOutcome;
@@ -313,18 +267,7 @@ export async function insertJoint(j: NewJoint, trx: Db): Promise<number> {
     longitude: j.longitude,
     ambient_c: j.ambientC,
     shelter: j.shelter,
-    heater_temperature_c: j.heaterTemperatureC,
-    drag_pressure_mpa: j.dragPressureMpa,
-    bead_up_gauge_mpa: j.beadUpGaugeMpa,
-    fusion_gauge_mpa: j.fusionGaugeMpa,
-    bead_mm: j.beadMm,
-    heat_soak_s: j.heatSoakS,
-    changeover_s: j.changeoverS,
-    cooling_s: j.coolingS,
-    facing_ok: j.facingOk,
-    alignment_ok: j.alignmentOk,
-    bead_rollback_ok: j.beadRollbackOk,
-    v_groove_ok: j.vGrooveOk,
+    ...recordedValueRow(j),
     timed_fields: j.timedFields.length ? j.timedFields.join(",") : null,
     plan: JSON.stringify(j.plan),
     outcome: j.outcome,

@@ -20,6 +20,7 @@ import {
 } from "@/domain/register";
 import type { Knex } from "knex";
 import { conn, type Db } from "../client";
+import { num, recordedValueColumns, setList, text, toRecordedValues, type DbRow } from "./rows";
 
 type SortKey = { col: string; nullable: boolean; isDate?: boolean };
 
@@ -149,6 +150,7 @@ function buildBase(resolved: Resolved, sort: RegisterSort): Built {
     idCol = "s.joint_id";
     dateCol = "s.made_at";
   } else if (driver === "findings") {
+    // joint_findings: findings at recording and of later pressure traces (rows.ts jointHasFinding).
     from = "joint_findings f";
     if (needsStates) from += " STRAIGHT_JOIN joint_states s ON s.joint_id = f.joint_id";
     keyCols = ["f.made_at"];
@@ -286,7 +288,7 @@ async function pageIds(resolved: Resolved, sort: RegisterSort, dir: SortDirectio
   }
   const select = [`${built.idCol} AS id`, ...built.keyCols.map((c, i) => `${c} AS k${i}`)].join(", ");
   const sql = `SELECT ${select} FROM ${built.from}${where.length ? ` WHERE ${where.join(" AND ")}` : ""} ORDER BY ${orderBy(built, dir)} LIMIT ${limit + 1}`;
-  const [rows] = (await conn(trx).raw(sql, bindings)) as unknown as [Record<string, unknown>[]];
+  const [rows] = (await conn(trx).raw(sql, bindings)) as unknown as [DbRow[]];
   const hasMore = rows.length > limit;
   const page = hasMore ? rows.slice(0, limit) : rows;
   const lastRow = page[page.length - 1];
@@ -303,7 +305,7 @@ async function pageIds(resolved: Resolved, sort: RegisterSort, dir: SortDirectio
   return { ids: page.map((r) => Number(r.id)), last, hasMore };
 }
 
-type JointRow = Record<string, unknown>;
+type JointRow = DbRow;
 
 const ROW_SELECT = `
   j.id, j.job_id, jb.code AS job_code, j.joint_no, j.kind, j.made_at, j.station, j.latitude, j.longitude,
@@ -312,8 +314,7 @@ const ROW_SELECT = `
   cb.coil_code AS coil_b_code, cb.lot AS coil_b_lot, j.component_b_text,
   j.outside_diameter_mm, j.sdr, j.procedure_version_id, p.code AS procedure_code, pv.version_no AS procedure_version_no,
   COALESCE(s.outcome, j.outcome) AS outcome, COALESCE(s.review_state, 'pending-review') AS review_state, j.finding_parameters,
-  j.heater_temperature_c, j.drag_pressure_mpa, j.bead_up_gauge_mpa, j.fusion_gauge_mpa, j.bead_mm,
-  j.heat_soak_s, j.changeover_s, j.cooling_s, j.ambient_c, j.facing_ok, j.alignment_ok, j.bead_rollback_ok, j.v_groove_ok`;
+  j.ambient_c, ${recordedValueColumns("j").join(", ")}`;
 
 const ROW_FROM = `
   joints j
@@ -327,9 +328,6 @@ const ROW_FROM = `
   JOIN procedure_versions pv ON pv.id = j.procedure_version_id
   JOIN procedures p ON p.id = pv.procedure_id`;
 
-const num = (v: unknown): number | null => (v === null || v === undefined ? null : Number(v));
-const bool = (v: unknown): boolean | null => (v === null || v === undefined ? null : Boolean(v));
-
 function toRegisterRow(r: JointRow): RegisterRow {
   return {
     id: Number(r.id),
@@ -338,7 +336,7 @@ function toRegisterRow(r: JointRow): RegisterRow {
     jointNo: Number(r.joint_no),
     kind: r.kind as RegisterRow["kind"],
     madeAt: r.made_at as Date,
-    station: (r.station as string | null) ?? null,
+    station: text(r.station),
     latitude: num(r.latitude),
     longitude: num(r.longitude),
     fuserId: Number(r.fuser_id),
@@ -346,13 +344,13 @@ function toRegisterRow(r: JointRow): RegisterRow {
     machineId: Number(r.machine_id),
     machineTag: r.machine_tag as string,
     heaterTag: r.heater_tag as string,
-    coilACode: (r.coil_a_code as string | null) ?? null,
-    coilALot: (r.coil_a_lot as string | null) ?? null,
-    coilBCode: (r.coil_b_code as string | null) ?? null,
-    coilBLot: (r.coil_b_lot as string | null) ?? null,
-    componentBText: (r.component_b_text as string | null) ?? null,
-    nominalSize: (r.coil_a_nominal_size as string | null) ?? null,
-    series: (r.coil_a_series as string | null) ?? null,
+    coilACode: text(r.coil_a_code),
+    coilALot: text(r.coil_a_lot),
+    coilBCode: text(r.coil_b_code),
+    coilBLot: text(r.coil_b_lot),
+    componentBText: text(r.component_b_text),
+    nominalSize: text(r.coil_a_nominal_size),
+    series: text(r.coil_a_series),
     outsideDiameterMm: Number(r.outside_diameter_mm),
     sdr: Number(r.sdr),
     procedureVersionId: Number(r.procedure_version_id),
@@ -360,25 +358,9 @@ function toRegisterRow(r: JointRow): RegisterRow {
     procedureVersionNo: Number(r.procedure_version_no),
     outcome: r.outcome as RegisterRow["outcome"],
     reviewState: r.review_state as RegisterRow["reviewState"],
-    findingParameters: r.finding_parameters
-      ? ((r.finding_parameters as string)
-          .split(",")
-          .map((s) => s.trim())
-          .filter(Boolean) as JointParameter[])
-      : [],
-    heaterTemperatureC: num(r.heater_temperature_c),
-    dragPressureMpa: num(r.drag_pressure_mpa),
-    beadUpGaugeMpa: num(r.bead_up_gauge_mpa),
-    fusionGaugeMpa: num(r.fusion_gauge_mpa),
-    beadMm: num(r.bead_mm),
-    heatSoakS: num(r.heat_soak_s),
-    changeoverS: num(r.changeover_s),
-    coolingS: num(r.cooling_s),
+    findingParameters: setList<JointParameter>(r.finding_parameters),
     ambientC: num(r.ambient_c),
-    facingOk: bool(r.facing_ok),
-    alignmentOk: bool(r.alignment_ok),
-    beadRollbackOk: bool(r.bead_rollback_ok),
-    vGrooveOk: bool(r.v_groove_ok),
+    ...toRecordedValues(r),
   };
 }
 

@@ -6,9 +6,10 @@ import type { JointFinding, JointOutcome, JointParameter } from "@/domain/fusion
 import type { FusionPlan } from "@/domain/fusion/plan";
 import type { PressureTraceReading } from "@/domain/pressure-trace/read";
 import type { ReviewState } from "@/domain/review/labels";
-import type { RecordedValues } from "@/domain/review/queue";
+import type { RecordedValues } from "@/domain/joints/values";
 import type { ChartPoint } from "@/domain/review/trace-check";
 import { conn, type Db } from "../client";
+import { addJointFindings, jointHasFinding, num, parseJson, text, toRecordedValues, type DbRow } from "./rows";
 
 export type RevisionKind = "recorded" | "corrected" | "accepted" | "cut-out" | "trace-attached";
 
@@ -63,19 +64,7 @@ export type ReviewItem = {
 
 export type RevisionRecord = { id: number; revisionNo: number; kind: RevisionKind; byUserId: number; byName: string; at: Date; reason: string | null; reviewState: ReviewState; changes: Record<string, unknown> | null };
 
-type Row = Record<string, unknown>;
-
-const bool = (v: unknown): boolean | null => (v === null || v === undefined ? null : Boolean(v));
-const num = (v: unknown): number | null => (v === null || v === undefined ? null : Number(v));
-
-function parseJson<T>(text: unknown, fallback: T): T {
-  if (typeof text !== "string" || text === "") return fallback;
-  try {
-    return JSON.parse(text) as T;
-  } catch {
-    return fallback;
-  }
-}
+type Row = DbRow;
 
 function baseJointQuery(k: Db) {
   return k("joint_states as js")
@@ -114,7 +103,7 @@ function toItem(r: Row): Omit<ReviewItem, "photos" | "trace"> {
     heaterTag: r.heater_tag as string,
     procedureLabel: plan?.procedureLabel ?? null,
     madeAt: r.made_at as Date,
-    station: (r.station as string | null) ?? null,
+    station: text(r.station),
     outsideDiameterMm: Number(r.outside_diameter_mm),
     sdr: Number(r.sdr),
     outcome: r.state_outcome as JointOutcome,
@@ -123,20 +112,7 @@ function toItem(r: Row): Omit<ReviewItem, "photos" | "trace"> {
     revisionNo: Number(r.revision_no),
     findings: parseJson<JointFinding[]>(r.findings, []),
     plan,
-    recorded: {
-      heaterTemperatureC: num(r.heater_temperature_c),
-      dragPressureMpa: num(r.drag_pressure_mpa),
-      beadUpGaugeMpa: num(r.bead_up_gauge_mpa),
-      fusionGaugeMpa: num(r.fusion_gauge_mpa),
-      beadMm: num(r.bead_mm),
-      heatSoakS: num(r.heat_soak_s),
-      changeoverS: num(r.changeover_s),
-      coolingS: num(r.cooling_s),
-      facingOk: bool(r.facing_ok),
-      alignmentOk: bool(r.alignment_ok),
-      beadRollbackOk: bool(r.bead_rollback_ok),
-      vGrooveOk: bool(r.v_groove_ok),
-    },
+    recorded: toRecordedValues(r),
     replacesJointId: num(r.replaces_joint_id),
     replacedByJointId: num(r.replaced_by_joint_id),
   };
@@ -179,12 +155,8 @@ function applyFilter(q: ReturnType<typeof baseJointQuery>, filter: QueueFilter) 
   if (filter.fuserId) q.where("j.fuser_id", filter.fuserId);
   if (filter.machineId) q.where("j.machine_id", filter.machineId);
   if (filter.finding) {
-    const finding = filter.finding;
-    q.where((w) => {
-      w.whereRaw("FIND_IN_SET(?, j.finding_parameters) > 0", [finding]).orWhereExists(function () {
-        this.select(1).from("joint_traces as jt").whereRaw("jt.joint_id = j.id").whereRaw("FIND_IN_SET(?, jt.finding_parameters) > 0", [finding]);
-      });
-    });
+    const finding = jointHasFinding("j", filter.finding);
+    q.whereRaw(finding.sql, finding.bindings);
   }
   return q;
 }
@@ -315,6 +287,7 @@ export async function insertJointTrace(
     uploaded_by: t.uploadedBy,
     uploaded_at: t.at,
   });
+  await addJointFindings({ jointId: t.jointId, parameters: t.findings.map((f) => f.parameter) }, trx);
   return Number(id);
 }
 

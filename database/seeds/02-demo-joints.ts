@@ -10,7 +10,7 @@ import type { Knex } from "knex";
 import { checkJoint } from "@/domain/fusion/check";
 import { planButtFusion, type FusionPlan } from "@/domain/fusion/plan";
 import type { ProcedureDefinition } from "@/domain/fusion/procedures";
-import { jointMeasurements } from "@/domain/joints/measurements";
+import { allChecksPassed } from "@/domain/joints/values";
 import type { Shelter, TimedPhase } from "@/domain/joints/schemas";
 import { qualificationStatus } from "@/domain/qualifications/status";
 import { isoDaysFrom } from "@/fixtures/demo-scenario";
@@ -55,7 +55,7 @@ function values(plan: FusionPlan, i: number, fault: Fault) {
   const f = 0.35 + ((i * 7) % 5) * 0.07;
   const v = {
     heaterTemperatureC: Math.round(mid(plan.heaterTemperatureC, f)),
-    fusionGaugeMpa: Math.round(mid(plan.fusionGaugePressureMpa, f) * 1000) / 1000,
+    fusionGaugePressureMpa: Math.round(mid(plan.fusionGaugePressureMpa, f) * 1000) / 1000,
     beadMm: Math.round(((plan.minBeadMm ?? 2) + 0.8 + (i % 3) * 0.3) * 10) / 10,
     heatSoakS: plan.heatSoakTargetS ?? 45 + (i % 4) * 5,
     changeoverS: Math.max(2, (plan.maxChangeoverS ?? 10) - 3 - (i % 3)),
@@ -71,7 +71,7 @@ function values(plan: FusionPlan, i: number, fault: Fault) {
     case "bead-small":
       return { ...v, beadMm: Math.round((plan.minBeadMm ?? 2) * 0.5 * 10) / 10 };
     case "pressure-low":
-      return { ...v, fusionGaugeMpa: Math.round(plan.fusionGaugePressureMpa.min * 0.85 * 1000) / 1000 };
+      return { ...v, fusionGaugePressureMpa: Math.round(plan.fusionGaugePressureMpa.min * 0.85 * 1000) / 1000 };
     default:
       return v;
   }
@@ -120,8 +120,8 @@ export async function seed(knex: Knex, today = new Date()): Promise<void> {
     const drag = Math.round((0.06 + (i % 4) * 0.01) * 1000) / 1000;
     const plan = planButtFusion({ procedure: version.definition, outsideDiameterMm: a.od, sdr: a.sdr, pistonAreaMm2: Number(eq.machine.piston_area_mm2), dragPressureMpa: drag });
     const v = values(plan, i, replaces ? null : p.fault);
-    const recorded = { ...v, beadUpGaugeMpa: null, facingOk: true, alignmentOk: true, beadRollbackOk: true, vGrooveOk: true };
-    const check = checkJoint(plan, jointMeasurements(recorded), { system: "si" });
+    const recorded = { ...v, dragPressureMpa: drag, beadUpGaugePressureMpa: null, ...allChecksPassed() };
+    const check = checkJoint(plan, recorded, { system: "si" });
     const jointNo = (counters.get(job.id) ?? 0) + 1;
     counters.set(job.id, jointNo);
     const timed: TimedPhase[] = p.typed ? [] : ["heatSoak", "changeover", "cooling"];
@@ -150,18 +150,7 @@ export async function seed(knex: Knex, today = new Date()): Promise<void> {
         longitude: null,
         ambientC: 4 + (i % 9),
         shelter: shelters[i % shelters.length]!,
-        heaterTemperatureC: v.heaterTemperatureC,
-        dragPressureMpa: drag,
-        beadUpGaugeMpa: null,
-        fusionGaugeMpa: v.fusionGaugeMpa,
-        beadMm: v.beadMm,
-        heatSoakS: v.heatSoakS,
-        changeoverS: v.changeoverS,
-        coolingS: v.coolingS,
-        facingOk: true,
-        alignmentOk: true,
-        beadRollbackOk: true,
-        vGrooveOk: true,
+        ...recorded,
         timedFields: timed,
         plan,
         outcome: check.outcome,

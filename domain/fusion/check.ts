@@ -3,6 +3,7 @@
 // A value exactly on a limit passes; a value not recorded is a finding of its own.
 
 import type { FusionPlan } from '@/domain/fusion/plan';
+import { jointMeasurements, type RecordedValues } from '@/domain/joints/values';
 import {
   formatQuantity,
   formatRange,
@@ -93,9 +94,11 @@ const isRecorded = (value: number | null | undefined): value is number =>
  * On-limit rule: a value passes when it is inside the limit, or when it reads the same as
  * the limit at display precision in the user's units (0.1 mm / 0.001 in, 0.01 MPa / 1 psi,
  * 1 °C / 1 °F, 1 s), so a value typed as the limit shown on screen is on the limit.
- * Outcome is out-of-limits when there is at least one finding.
+ * Outcome is out-of-limits when there is at least one finding. A joint's RecordedValues
+ * (domain/joints/values) are taken as they are: the two bead checks become the visual bead.
  */
-export function checkJoint(plan: FusionPlan, measured: JointMeasurements, options: CheckJointOptions = {}): JointCheck {
+export function checkJoint(plan: FusionPlan, values: JointMeasurements | RecordedValues, options: CheckJointOptions = {}): JointCheck {
+  const measured = isRecordedValues(values) ? jointMeasurements(values) : values;
   const system = options.system ?? 'si';
   const findings: JointFinding[] = [];
   const fmt = (value: number, kind: QuantityKind) => formatQuantity(value, kind, system);
@@ -197,6 +200,11 @@ export function checkJoint(plan: FusionPlan, measured: JointMeasurements, option
   booleanCheck('visualBead', measured.visualBeadOk, 'Visual bead check', 'Visual bead check did not pass');
 
   return { outcome: findings.length === 0 ? 'within-limits' : 'out-of-limits', findings };
+}
+
+/** A joint's record (two bead checks) rather than the check's own input (one visual bead). */
+function isRecordedValues(values: JointMeasurements | RecordedValues): values is RecordedValues {
+  return !('visualBeadOk' in values) && ('beadRollbackOk' in values || 'vGrooveOk' in values);
 }
 
 /** True when a check has at least one finding. */

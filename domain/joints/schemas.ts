@@ -3,6 +3,8 @@
 // is canonical SI (°C, MPa, mm, s, m); the screen converts at its edges. Numbers must be
 // numbers: a string "450" is refused here, so an API caller learns of the mistake.
 import { z } from 'zod';
+import { unitLabel } from '@/domain/units/format';
+import { DEPRECATED_WIRE_NAMES, RECORDED_VALUE_DEFINITIONS, RECORDED_VALUES } from '@/domain/joints/values';
 
 export const JOINT_KINDS = ['coil-to-coil', 'tie-in', 'fitting'] as const;
 export type JointKind = (typeof JOINT_KINDS)[number];
@@ -64,7 +66,21 @@ const optionalText = (name: string, max: number) =>
     .optional()
     .transform((v) => (v ? v : null));
 
-const check = (question: string) => z.boolean({ error: `Answer: ${question}` });
+const check = (question: string) => z.boolean({ error: `Answer: ${question.charAt(0).toLowerCase()}${question.slice(1)}` });
+
+type ValueField = ReturnType<typeof measured> | ReturnType<typeof optionalMeasured> | ReturnType<typeof check>;
+type ValueDefinition = (typeof RECORDED_VALUES)[number];
+type FieldOf<D> = D extends { type: 'check' } ? ReturnType<typeof check> : D extends { required: true } ? ReturnType<typeof measured> : ReturnType<typeof optionalMeasured>;
+type ValueFields = { [D in ValueDefinition as D['key']]: FieldOf<D> };
+
+/** The recorded values' fields, one per row of domain/joints/values (bounds in canonical SI). */
+const valueFields = Object.fromEntries(
+  RECORDED_VALUE_DEFINITIONS.map((d): [string, ValueField] => {
+    if (d.type === 'check') return [d.key, check(d.question)];
+    const range = { ...d.bounds, unit: unitLabel(d.quantity, 'si') };
+    return [d.key, d.required ? measured(d.inputName, range) : optionalMeasured(d.inputName, range)];
+  }),
+) as ValueFields;
 
 /** Fields shared by the device form and the server; see recordJointSchema. */
 const jointFields = {
@@ -83,14 +99,8 @@ const jointFields = {
   lengthBM: optionalMeasured('length laid from coil B', { min: 0, max: 2000, unit: 'm' }),
   machineId: idOf('fusion machine'),
   heaterId: idOf('heater plate'),
-  dragPressureMpa: measured('drag pressure', { min: 0, max: 20, unit: 'MPa' }),
-  heaterTemperatureC: measured('heater temperature', { min: 0, max: 400, unit: '°C' }),
-  beadUpGaugeMpa: optionalMeasured('bead-up gauge pressure', { min: 0, max: 40, unit: 'MPa' }),
-  fusionGaugeMpa: measured('fusion gauge pressure', { min: 0, max: 40, unit: 'MPa' }),
-  beadMm: measured('bead size', { min: 0, max: 100, unit: 'mm' }),
-  heatSoakS: optionalMeasured('heat-soak time', { min: 0, max: 7200, unit: 's' }),
-  changeoverS: measured('changeover time', { min: 0, max: 600, unit: 's' }),
-  coolingS: measured('cooling time', { min: 0, max: 36_000, unit: 's' }),
+  /** Heater temperature, pressures, bead, durations and the yes/no checks (domain/joints/values). */
+  ...valueFields,
   /** Which durations came from the phase timer; the others were typed. */
   timedFields: z.array(z.enum(TIMED_PHASES, { error: 'Unknown timed phase.' }), { error: 'Timed phases must be a list.' }).max(3).default([]),
   station: optionalText('station', 120),
@@ -98,10 +108,6 @@ const jointFields = {
   longitude: z.number({ error: 'Longitude must be a number.' }).min(-180, { error: 'Longitude must be −180 to 180.' }).max(180, { error: 'Longitude must be −180 to 180.' }).nullable().optional(),
   ambientC: measured('ambient temperature', { min: -50, max: 60, unit: '°C' }),
   shelter: z.enum(SHELTERS, { error: 'Say what shelter there was (none, windbreak, tent, heated tent).' }),
-  facingOk: check('were both ends faced complete and square?'),
-  alignmentOk: check('did the alignment check pass (high-low within limits)?'),
-  beadRollbackOk: check('is the bead a uniform double roll-back?'),
-  vGrooveOk: check('is the V-groove between the beads not below the pipe surface?'),
   /** The cut-out joint this one remakes. */
   replacesJointId: idOf('joint this remakes').nullable().optional(),
 };
@@ -150,20 +156,50 @@ export const recordJointFormSchema = formObject.superRefine(checkSides, sidesWhe
 export type RecordJointFormInput = z.input<typeof recordJointFormSchema>;
 export type RecordJointFormValues = z.output<typeof recordJointFormSchema>;
 
+/**
+ * Deprecated JSON API names of recorded values (`fusionGaugeMpa`, `beadUpGaugeMpa`; see
+ * README "JSON API"): renamed to the current key before parsing, unless the current key is
+ * given too. Joints queued on a device before the rename are accepted the same way.
+ */
+function acceptDeprecatedNames(input: unknown): unknown {
+  if (typeof input !== 'object' || input === null || Array.isArray(input)) return input;
+  const out: Record<string, unknown> = { ...input };
+  for (const [old, key] of Object.entries(DEPRECATED_WIRE_NAMES)) {
+    if (!(old in out)) continue;
+    if (!(key in out)) out[key] = out[old];
+    delete out[old];
+  }
+  return out;
+}
+
+const deprecatedNameOf = new Map(Object.entries(DEPRECATED_WIRE_NAMES).map(([old, key]) => [key as string, old]));
+
+/** An error on a renamed value is named by both names, so a caller of either finds it. */
+function nameDeprecatedToo(_value: unknown, ctx: z.RefinementCtx): void {
+  for (const issue of [...ctx.issues]) {
+    const [head, ...rest] = issue.path ?? [];
+    const old = typeof head === 'string' ? deprecatedNameOf.get(head) : undefined;
+    if (old) ctx.issues.push({ ...issue, path: [old, ...rest] });
+  }
+}
+
+const recordObject = formObject.extend({
+  /** When the joint was made, from the device (ISO 8601 with zone); offline joints keep it. */
+  madeAt: z.iso.datetime({ offset: true, error: 'When the joint was made must be an ISO date-time such as 2026-12-02T09:30:00Z.' }),
+  /** Uploaded bead photos (POST /api/v1/attachments), at most 6. */
+  photoIds: z
+    .array(z.number({ error: 'Photo ids must be numbers.' }).int().positive(), { error: 'Photo ids must be a list.' })
+    .max(MAX_PHOTOS_PER_JOINT, { error: `At most ${MAX_PHOTOS_PER_JOINT} photos per joint.` })
+    .default([]),
+});
+
 /** One joint as recorded at the trench (server action and POST /api/v1/joints). */
-export const recordJointSchema = formObject
-  .extend({
-    /** When the joint was made, from the device (ISO 8601 with zone); offline joints keep it. */
-    madeAt: z.iso.datetime({ offset: true, error: 'When the joint was made must be an ISO date-time such as 2026-12-02T09:30:00Z.' }),
-    /** Uploaded bead photos (POST /api/v1/attachments), at most 6. */
-    photoIds: z
-      .array(z.number({ error: 'Photo ids must be numbers.' }).int().positive(), { error: 'Photo ids must be a list.' })
-      .max(MAX_PHOTOS_PER_JOINT, { error: `At most ${MAX_PHOTOS_PER_JOINT} photos per joint.` })
-      .default([]),
-  })
-  .superRefine(checkSides, sidesWhen);
+export const recordJointSchema = z
+  .preprocess(acceptDeprecatedNames, recordObject)
+  .superRefine(checkSides, sidesWhen)
+  .superRefine(nameDeprecatedToo, { when: () => true });
 export type RecordJointInput = z.output<typeof recordJointSchema>;
-export type RecordJointRawInput = z.input<typeof recordJointSchema>;
+export type RecordJointRawInput = z.input<typeof recordObject>;
 
 /** GET /api/v1/fusion-plan: a pipe on a machine under the job's procedure. */
 export const fusionPlanQuerySchema = z

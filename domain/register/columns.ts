@@ -3,10 +3,14 @@
 // values are converted from canonical SI at this edge (domain/units, NIST SP 811 factors).
 import type { JointParameter } from '@/domain/fusion/check';
 import { FINDING_PARAMETER_LABELS, OUTCOME_LABELS, REVIEW_STATE_LABELS, type RegisterOutcome, type RegisterSort, type ReviewState } from '@/domain/register/filter';
+import { CHECK_VALUES, QUANTITY_VALUES, type CheckValueDefinition, type QuantityValueDefinition, type RecordedValues } from '@/domain/joints/values';
 import { displayDecimals, roundTo, toDisplay, unitLabel, type QuantityKind, type UnitSystem } from '@/domain/units/format';
 
 /** One joint as the Register shows it (canonical SI, as stored). */
-export interface RegisterRow {
+export type RegisterRow = RecordedValues & RegisterJoint;
+
+/** What the Register shows of a joint besides its recorded values. */
+export interface RegisterJoint {
   id: number;
   jobId: number;
   jobCode: string;
@@ -37,19 +41,7 @@ export interface RegisterRow {
   outcome: RegisterOutcome;
   reviewState: ReviewState;
   findingParameters: JointParameter[];
-  heaterTemperatureC: number | null;
-  dragPressureMpa: number | null;
-  beadUpGaugeMpa: number | null;
-  fusionGaugeMpa: number | null;
-  beadMm: number | null;
-  heatSoakS: number | null;
-  changeoverS: number | null;
-  coolingS: number | null;
   ambientC: number | null;
-  facingOk: boolean | null;
-  alignmentOk: boolean | null;
-  beadRollbackOk: boolean | null;
-  vGrooveOk: boolean | null;
 }
 
 /** The same row as the JSON API sends it (dates as ISO 8601 text). */
@@ -122,6 +114,18 @@ export const KIND_LABELS: Record<RegisterRow['kind'], string> = {
   fitting: 'Fitting',
 };
 
+/** A recorded value's column (domain/joints/values): quantities converted, checks as yes/no. */
+function valueColumn(d: QuantityValueDefinition | CheckValueDefinition): RegisterColumn {
+  const read = (row: RegisterRow) => (row as unknown as Record<string, number | boolean | null>)[d.key] ?? null;
+  const base = { key: d.register.key, title: d.label, inGrid: d.register.inGrid, width: d.register.width };
+  if (d.type === 'check') return { ...base, type: 'text', value: (r) => check(read(r) as boolean | null) };
+  const sort = SORT_OF_VALUE[d.key];
+  return { ...base, type: 'quantity', quantity: d.quantity, ...(sort ? { sort } : {}), value: (r, s) => quantity(read(r) as number | null, d.quantity, s) };
+}
+
+/** The server-side sorts on a recorded value (database/queries/register.ts SORT_KEYS). */
+const SORT_OF_VALUE: Partial<Record<string, RegisterSort>> = { heaterTemperatureC: 'heaterTemperature' };
+
 export const REGISTER_COLUMNS: readonly RegisterColumn[] = [
   { key: 'jointNo', title: 'Joint', type: 'integer', sort: 'number', inGrid: true, width: 8, value: (r) => r.jointNo },
   { key: 'job', title: 'Job', type: 'text', inGrid: true, width: 12, value: (r) => r.jobCode },
@@ -152,19 +156,9 @@ export const REGISTER_COLUMNS: readonly RegisterColumn[] = [
     width: 22,
     value: (r) => (r.findingParameters.length ? r.findingParameters.map((p) => FINDING_PARAMETER_LABELS[p] ?? p).join(', ') : null),
   },
-  { key: 'heaterTemperature', title: 'Heater temperature', type: 'quantity', quantity: 'temperature', sort: 'heaterTemperature', inGrid: true, width: 10, value: (r, s) => quantity(r.heaterTemperatureC, 'temperature', s) },
-  { key: 'dragPressure', title: 'Drag pressure', type: 'quantity', quantity: 'pressure', inGrid: true, width: 9, value: (r, s) => quantity(r.dragPressureMpa, 'pressure', s) },
-  { key: 'beadUpGauge', title: 'Bead-up gauge pressure', type: 'quantity', quantity: 'pressure', inGrid: true, width: 9, value: (r, s) => quantity(r.beadUpGaugeMpa, 'pressure', s) },
-  { key: 'fusionGauge', title: 'Fusion gauge pressure', type: 'quantity', quantity: 'pressure', inGrid: true, width: 9, value: (r, s) => quantity(r.fusionGaugeMpa, 'pressure', s) },
-  { key: 'bead', title: 'Bead size', type: 'quantity', quantity: 'length-mm', inGrid: true, width: 8, value: (r, s) => quantity(r.beadMm, 'length-mm', s) },
-  { key: 'heatSoak', title: 'Heat soak', type: 'quantity', quantity: 'duration', inGrid: true, width: 8, value: (r, s) => quantity(r.heatSoakS, 'duration', s) },
-  { key: 'changeover', title: 'Changeover', type: 'quantity', quantity: 'duration', inGrid: true, width: 8, value: (r, s) => quantity(r.changeoverS, 'duration', s) },
-  { key: 'cooling', title: 'Cooling', type: 'quantity', quantity: 'duration', inGrid: true, width: 8, value: (r, s) => quantity(r.coolingS, 'duration', s) },
+  ...QUANTITY_VALUES.map(valueColumn),
   { key: 'ambient', title: 'Ambient temperature', type: 'quantity', quantity: 'temperature', inGrid: true, width: 8, value: (r, s) => quantity(r.ambientC, 'temperature', s) },
-  { key: 'facingOk', title: 'Facing complete', type: 'text', inGrid: false, width: 7, value: (r) => check(r.facingOk) },
-  { key: 'alignmentOk', title: 'Alignment within limits', type: 'text', inGrid: false, width: 7, value: (r) => check(r.alignmentOk) },
-  { key: 'beadRollbackOk', title: 'Bead rolled back', type: 'text', inGrid: false, width: 7, value: (r) => check(r.beadRollbackOk) },
-  { key: 'vGrooveOk', title: 'V-groove above surface', type: 'text', inGrid: false, width: 7, value: (r) => check(r.vGrooveOk) },
+  ...CHECK_VALUES.map(valueColumn),
 ];
 
 /** The column's unit in the reader's system, or null (text, dates, plain numbers). */

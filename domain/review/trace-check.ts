@@ -7,8 +7,7 @@ import type { FusionPlan } from "@/domain/fusion/plan";
 import type { PressureSample } from "@/domain/pressure-trace/parse";
 import { measurementsFromTraceReading, type PressureTraceReading } from "@/domain/pressure-trace/read";
 import type { UnitSystem } from "@/domain/units/format";
-import type { RecordedValues } from "@/domain/review/queue";
-import { jointMeasurements } from "@/domain/joints/measurements";
+import { jointMeasurements, type RecordedValues } from "@/domain/joints/values";
 
 /** The joint's typed values as the joint check takes them (the trench's own mapping). */
 export function measurementsFromRecorded(recorded: RecordedValues): JointMeasurements {
@@ -48,8 +47,8 @@ export function traceVersusTyped(reading: PressureTraceReading, recorded: Record
     { key: "changeover", label: "Changeover", kind: "duration", typed: recorded.changeoverS, trace: reading.changeoverS },
     { key: "pressureBuildUp", label: "Pressure build-up", kind: "duration", typed: null, trace: reading.pressureBuildUpS },
     { key: "cooling", label: "Cooling under pressure", kind: "duration", typed: recorded.coolingS, trace: reading.coolingS },
-    { key: "beadUpPressure", label: "Bead-up gauge pressure", kind: "pressure", typed: recorded.beadUpGaugeMpa, trace: reading.beadUpGaugePressureMpa },
-    { key: "fusionPressure", label: "Fusion gauge pressure", kind: "pressure", typed: recorded.fusionGaugeMpa, trace: reading.fusionGaugePressureMpa },
+    { key: "beadUpPressure", label: "Bead-up gauge pressure", kind: "pressure", typed: recorded.beadUpGaugePressureMpa, trace: reading.beadUpGaugePressureMpa },
+    { key: "fusionPressure", label: "Fusion gauge pressure", kind: "pressure", typed: recorded.fusionGaugePressureMpa, trace: reading.fusionGaugePressureMpa },
   ];
   if (reading.heaterTemperatureC !== null) rows.unshift({ key: "heaterTemperature", label: "Heater temperature", kind: "temperature", typed: recorded.heaterTemperatureC, trace: reading.heaterTemperatureC });
   return rows;

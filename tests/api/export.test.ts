@@ -153,7 +153,7 @@ describe("register API and export", () => {
       }
       const gauge = row.getCell(col("fusionGauge")).value as number;
       // source: NIST SP 811 (2008) Appendix B.8 — 1 psi = 6.894757 kPa
-      expect(gauge).toBeCloseTo((want.fusionGaugeMpa as number) / 0.006894757, 0);
+      expect(gauge).toBeCloseTo((want.fusionGaugePressureMpa as number) / 0.006894757, 0);
       const bead = row.getCell(col("bead")).value as number;
       // source: NIST SP 811 (2008) — 1 in = 25.4 mm exactly
       expect(bead).toBeCloseTo((want.beadMm as number) / 25.4, 3);

@@ -6,7 +6,7 @@
 // procedure's (see tests/domain for their sources).
 import { beforeAll, describe, expect, it } from "vitest";
 import { checkJoint } from "@/domain/fusion/check";
-import { jointMeasurements } from "@/domain/joints/measurements";
+import { jointMeasurements } from "@/domain/joints/values";
 import { ownerDb, resetDatabase, seedDemo } from "../support/db";
 
 const TODAY = new Date("2026-12-02T12:00:00Z");
@@ -37,7 +37,7 @@ describe("demo joints seed", () => {
     const rows = await ownerDb()("joints").select("*");
     let out = 0;
     for (const r of rows) {
-      const again = checkJoint(JSON.parse(r.plan), jointMeasurements({ heaterTemperatureC: r.heater_temperature_c, beadUpGaugeMpa: r.bead_up_gauge_mpa, fusionGaugeMpa: r.fusion_gauge_mpa, beadMm: r.bead_mm, heatSoakS: r.heat_soak_s, changeoverS: r.changeover_s, coolingS: r.cooling_s, facingOk: Boolean(r.facing_ok), alignmentOk: Boolean(r.alignment_ok), beadRollbackOk: Boolean(r.bead_rollback_ok), vGrooveOk: Boolean(r.v_groove_ok) }));
+      const again = checkJoint(JSON.parse(r.plan), jointMeasurements({ heaterTemperatureC: r.heater_temperature_c, beadUpGaugePressureMpa: r.bead_up_gauge_mpa, fusionGaugePressureMpa: r.fusion_gauge_mpa, beadMm: r.bead_mm, heatSoakS: r.heat_soak_s, changeoverS: r.changeover_s, coolingS: r.cooling_s, facingOk: Boolean(r.facing_ok), alignmentOk: Boolean(r.alignment_ok), beadRollbackOk: Boolean(r.bead_rollback_ok), vGrooveOk: Boolean(r.v_groove_ok) }));
       expect(again.outcome).toBe(r.outcome);
       if (r.outcome === "out-of-limits") out += 1;
     }

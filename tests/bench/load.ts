@@ -10,6 +10,7 @@ import { randomUUID } from "node:crypto";
 import { readFileSync } from "node:fs";
 import type { Knex } from "knex";
 import type { BenchContext, BenchFigure } from "./context";
+import { demoJointBody } from "../support/joint-body";
 
 type Autocannon = (opts: Record<string, unknown>, cb: (err: Error | null, result: AutocannonResult) => void) => unknown;
 type AutocannonResult = {
@@ -76,33 +77,7 @@ async function submissionSetup(owner: Knex): Promise<{ body: (clientId: string) 
     jobIds.push(Number(id));
   }
   let n = 0;
-  const body = (clientId: string) => ({
-    clientId,
-    jobId: jobIds[n++ % jobIds.length],
-    kind: "coil-to-coil",
-    coilA: "LV-C0001",
-    coilB: "LV-C0002",
-    machineId: machine.id,
-    heaterId: heater.id,
-    dragPressureMpa: 0.05,
-    heaterTemperatureC: 218,
-    beadUpGaugeMpa: 0.53,
-    fusionGaugeMpa: 0.53,
-    beadMm: 3,
-    heatSoakS: 90,
-    changeoverS: 5,
-    coolingS: 600,
-    timedFields: [],
-    station: "Load 1+00",
-    ambientC: 12,
-    shelter: "none",
-    facingOk: true,
-    alignmentOk: true,
-    beadRollbackOk: true,
-    vGrooveOk: true,
-    madeAt: new Date(Date.now() - 60_000).toISOString(),
-    photoIds: [],
-  });
+  const body = (clientId: string) => demoJointBody({ clientId, jobId: jobIds[n++ % jobIds.length], machineId: machine.id, heaterId: heater.id, station: "Load 1+00" });
   return { body, jobIds };
 }
 

@@ -20,6 +20,7 @@ import { startLocalStack, type LocalStack } from "../../database/local/stack";
 import { migrateLatest, ownerKnex } from "../../database/migrate";
 import type { BenchContext, BenchFigure } from "./context";
 import { loadSyntheticRegister, type SyntheticRegister } from "./synthetic-register";
+import { demoJointBody, signInCookie, waitForServer } from "../support/joint-body";
 
 const ROOT = path.resolve(__dirname, "..", "..");
 const args = process.argv.slice(2);
@@ -129,30 +130,10 @@ function sampleRss(pid: number, everyMs = 20): { stop: () => { peakMb: number; s
   };
 }
 
-async function waitForHttp(url: string, timeoutMs: number, child: ChildProcess): Promise<void> {
-  const deadline = Date.now() + timeoutMs;
-  while (Date.now() < deadline) {
-    if (child.exitCode !== null) throw new Error(`next start exited with code ${child.exitCode}`);
-    try {
-      const res = await fetch(url, { redirect: "manual" });
-      if (res.status < 500) return;
-    } catch {
-      /* not yet */
-    }
-    await new Promise((r) => setTimeout(r, 250));
-  }
-  throw new Error(`${url} did not answer within ${timeoutMs / 1000} s`);
-}
 
 // ---------------------------------------------------------------------------------------
 
-async function signIn(baseUrl: string, email: string, password: string): Promise<string> {
-  const res = await fetch(`${baseUrl}/api/v1/session`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ email, password }) });
-  if (res.status !== 200) throw new Error(`sign-in of ${email} answered ${res.status}: ${await res.text()}`);
-  const cookie = (res.headers.getSetCookie?.() ?? [res.headers.get("set-cookie") ?? ""]).map((c) => c.split(";")[0]).find((c) => c.startsWith("beadline_session="));
-  if (!cookie) throw new Error("sign-in gave no session cookie");
-  return cookie;
-}
+const signIn = signInCookie;
 
 type View = { name: string; params: Record<string, string>; sort: "madeAt" | "number" | "pipeSize" | "heaterTemperature"; dir: "asc" | "desc"; deepKeys: (number | null)[]; deepId: number };
 
@@ -384,33 +365,7 @@ async function measureSubmission(baseUrl: string, owner: Knex, serverPid: number
   }
   const cookie = await signIn(baseUrl, "fuser@larkmoor-gas.example", DEMO_PASSWORD);
   let n = 0;
-  const body = (clientId: string) => ({
-    clientId,
-    jobId: jobIds[n++ % jobIds.length],
-    kind: "coil-to-coil",
-    coilA: "LV-C0001",
-    coilB: "LV-C0002",
-    machineId: machine.id,
-    heaterId: heater.id,
-    dragPressureMpa: 0.05,
-    heaterTemperatureC: 218,
-    beadUpGaugeMpa: 0.53,
-    fusionGaugeMpa: 0.53,
-    beadMm: 3,
-    heatSoakS: 90,
-    changeoverS: 5,
-    coolingS: 600,
-    timedFields: [],
-    station: "Bench 1+00",
-    ambientC: 12,
-    shelter: "none",
-    facingOk: true,
-    alignmentOk: true,
-    beadRollbackOk: true,
-    vGrooveOk: true,
-    madeAt: new Date(Date.now() - 60_000).toISOString(),
-    photoIds: [],
-  });
+  const body = (clientId: string) => demoJointBody({ clientId, jobId: jobIds[n++ % jobIds.length], machineId: machine.id, heaterId: heater.id, station: "Bench 1+00" });
   const headers = { cookie, "content-type": "application/json" };
   const probe = await fetch(`${baseUrl}/api/v1/joints`, { method: "POST", headers, body: JSON.stringify(body(randomUUID())) });
   const probeBody = await probe.text();
@@ -561,7 +516,7 @@ async function main(): Promise<number> {
     }
     const child = spawn(process.execPath, [nextBin, "start", "-H", "127.0.0.1", "-p", String(port)], { cwd: ROOT, env: serverEnv, stdio: ["ignore", "ignore", "inherit"] });
     server = child;
-    await waitForHttp(`${baseUrl}/sign-in`, 60_000, child);
+    await waitForServer(`${baseUrl}/sign-in`, child, 60_000);
     const serverPid = serverPidOf(child.pid ?? 0);
     log(`next start on ${baseUrl} (server pid ${serverPid}, RSS ${round(statusOf(serverPid).VmRSS ?? 0)} MB)`);
     if (KEEP) console.log(Object.entries(stack.env).map(([k, v]) => `export ${k}='${v}'`).join("\n"));

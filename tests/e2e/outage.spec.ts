@@ -18,6 +18,7 @@ import type { Knex } from "knex";
 import { freePort, startMariadb, type MariadbServer } from "../../database/local/mariadb";
 import { startLocalStack, type LocalStack } from "../../database/local/stack";
 import { ownerKnex } from "../../database/migrate";
+import { demoJointBody, waitForServer } from "../support/joint-body";
 
 const ROOT = process.cwd();
 const CLIENTS = 4;
@@ -26,21 +27,6 @@ const HANG_LIMIT_MS = 10_000;
 
 type Attempt = { clientId: string; started: number; ms: number; status: number; code?: string; retryAfter?: string | null; error?: string; body?: string };
 
-async function waitFor(url: string, child: ChildProcess, timeoutMs: number): Promise<void> {
-  const deadline = Date.now() + timeoutMs;
-  while (Date.now() < deadline) {
-    if (child.exitCode !== null) throw new Error(`next start exited with ${child.exitCode}`);
-    try {
-      const res = await fetch(url, { redirect: "manual" });
-      await res.arrayBuffer();
-      if (res.status < 500) return;
-    } catch {
-      /* not listening yet */
-    }
-    await new Promise((r) => setTimeout(r, 200));
-  }
-  throw new Error(`${url} did not answer in time`);
-}
 
 test.describe("database outage while joints are submitted", () => {
   test.setTimeout(240_000);
@@ -87,7 +73,7 @@ test.describe("database outage while joints are submitted", () => {
     });
     server.stdout!.on("data", (d: Buffer) => output.push(d.toString()));
     server.stderr!.on("data", (d: Buffer) => output.push(d.toString()));
-    await waitFor(`${baseUrl}/sign-in`, server, 60_000);
+    await waitForServer(`${baseUrl}/sign-in`, server, 60_000);
 
     const signIn = await fetch(`${baseUrl}/api/v1/session`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ email: "fuser@larkmoor-gas.example", password: "beadline-demo-2026" }) });
     expect(signIn.status).toBe(200);
@@ -97,33 +83,7 @@ test.describe("database outage while joints are submitted", () => {
     const job = await owner("jobs").where({ code: "WO-24117" }).first("id");
     const bodies = new Map<string, Record<string, unknown>>();
     const body = (clientId: string) => {
-      const b = {
-        clientId,
-        jobId: job.id,
-        kind: "coil-to-coil",
-        coilA: "LV-C0001",
-        coilB: "LV-C0002",
-        machineId: machine.id,
-        heaterId: heater.id,
-        dragPressureMpa: 0.05,
-        heaterTemperatureC: 218,
-        beadUpGaugeMpa: 0.53,
-        fusionGaugeMpa: 0.53,
-        beadMm: 3,
-        heatSoakS: 90,
-        changeoverS: 5,
-        coolingS: 600,
-        timedFields: [],
-        station: "Outage 1+00",
-        ambientC: 12,
-        shelter: "none",
-        facingOk: true,
-        alignmentOk: true,
-        beadRollbackOk: true,
-        vGrooveOk: true,
-        madeAt: new Date(Date.now() - 60_000).toISOString(),
-        photoIds: [],
-      };
+      const b = demoJointBody({ clientId, jobId: job.id, machineId: machine.id, heaterId: heater.id, station: "Outage 1+00" });
       bodies.set(clientId, b);
       return b;
     };

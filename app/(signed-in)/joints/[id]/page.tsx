@@ -4,7 +4,8 @@ import { notFound } from "next/navigation";
 import { requireUser } from "@/app/_lib/page-guard";
 import { listAttachmentsForJoint } from "@/database/queries/attachments";
 import { findJointById, listJointRevisions, listOverrideUsesForJoint, type JointRecord } from "@/database/queries/joints";
-import { JOINT_KIND_LABELS, PHASE_LABELS, SHELTER_LABELS, type TimedPhase } from "@/domain/joints/schemas";
+import { JOINT_KIND_LABELS, SHELTER_LABELS, type TimedPhase } from "@/domain/joints/schemas";
+import { RECORDED_VALUE_DEFINITIONS } from "@/domain/joints/values";
 import { formatQuantity, type QuantityKind, type UnitSystem } from "@/domain/units/format";
 import { verdictOf } from "../../trench/_lib/record-joint";
 import { PlanPanel } from "../../trench/_components/plan-panel";
@@ -152,24 +153,16 @@ export default async function JointPage({ params }: Params) {
           <Value name="Ambient / shelter">
             {q(joint.ambientC, "temperature")} · {joint.shelter ? SHELTER_LABELS[joint.shelter] : "not recorded"}
           </Value>
-          <Value name="Heater temperature at the face">{q(joint.heaterTemperatureC, "temperature")}</Value>
-          <Value name="Drag pressure">{q(joint.dragPressureMpa, "pressure")}</Value>
-          <Value name="Bead-up gauge pressure">{joint.beadUpGaugeMpa === null ? "at fusion pressure (not recorded separately)" : q(joint.beadUpGaugeMpa, "pressure")}</Value>
-          <Value name="Fusion gauge pressure">{q(joint.fusionGaugeMpa, "pressure")}</Value>
-          <Value name="Bead size">{q(joint.beadMm, "length-mm")}</Value>
-          {(["heatSoak", "changeover", "cooling"] as const).map((phase) => {
-            const v = phase === "heatSoak" ? joint.heatSoakS : phase === "changeover" ? joint.changeoverS : joint.coolingS;
+          {RECORDED_VALUE_DEFINITIONS.map((d) => {
+            const v = (joint as unknown as Record<string, number | boolean | null>)[d.key] ?? null;
+            if (d.type === "check") return <Value key={d.key} name={d.label}>{check(v as boolean | null)}</Value>;
             return (
-              <Value key={phase} name={`${PHASE_LABELS[phase]} time`}>
-                {q(v, "duration")}
-                {timedMark(joint, phase, v)}
+              <Value key={d.key} name={d.label}>
+                {v === null && d.whenMissing ? d.whenMissing : q(v as number | null, d.quantity)}
+                {d.phase ? timedMark(joint, d.phase, v as number | null) : ""}
               </Value>
             );
           })}
-          <Value name="Faced complete and square">{check(joint.facingOk)}</Value>
-          <Value name="Alignment check passed">{check(joint.alignmentOk)}</Value>
-          <Value name="Uniform double roll-back bead">{check(joint.beadRollbackOk)}</Value>
-          <Value name="V-groove not below the pipe surface">{check(joint.vGrooveOk)}</Value>
           <Value name="Recorded">
             {joint.recordedAt.toISOString().replace("T", " ").slice(0, 19)} UTC · submission {joint.clientId}
           </Value>

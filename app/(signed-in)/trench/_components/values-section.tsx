@@ -1,10 +1,11 @@
 "use client";
 // Step 4 of the Trench form: the values measured and checked at the joint, the place
 // (station, and the device's location when the fuser allows it) and the bead photos.
-import { useState } from "react";
+import { Fragment, useState } from "react";
 import { Controller, useWatch, type UseFormReturn } from "react-hook-form";
 import { Button } from "@/components/ui/button";
 import { SHELTER_LABELS, SHELTERS, type RecordJointFormInput, type RecordJointFormValues } from "@/domain/joints/schemas";
+import { CHECK_VALUES, QUANTITY_VALUES, type CheckValueKey, type QuantityValueKey } from "@/domain/joints/values";
 import { formatQuantity, type UnitSystem } from "@/domain/units/format";
 import type { PhotoRef } from "../_lib/device-store";
 import { PhotoPicker } from "./photo-picker";
@@ -12,12 +13,9 @@ import { SelectField } from "@/components/form/controls";
 import { UnitController } from "./unit-controller";
 import { YesNo } from "./yes-no";
 
-const CHECKS = [
-  ["facingOk", "Were both ends faced complete and square?"],
-  ["alignmentOk", "Did the alignment check pass (high-low within limits)?"],
-  ["beadRollbackOk", "Is the bead a uniform double roll-back all round?"],
-  ["vGrooveOk", "Is the V-groove between the beads not below the pipe surface?"],
-] as const;
+/** What step 4 asks: the typed values and yes/no checks of domain/joints/values (drag is asked with the machine, durations by the timer). */
+const TYPED = QUANTITY_VALUES.filter((d) => d.step === "values");
+const CHECKS = CHECK_VALUES.filter((d) => d.step === "values");
 
 export function ValuesSection({ form, system, photos, onPhotos }: { form: UseFormReturn<RecordJointFormInput, unknown, RecordJointFormValues>; system: UnitSystem; photos: PhotoRef[]; onPhotos: (photos: PhotoRef[]) => void }) {
   const { control, register, setValue, formState } = form;
@@ -40,17 +38,16 @@ export function ValuesSection({ form, system, photos, onPhotos }: { form: UseFor
     );
   };
 
-  const unit = (name: "heaterTemperatureC" | "beadUpGaugeMpa" | "fusionGaugeMpa" | "beadMm" | "ambientC", label: string, kind: Parameters<typeof UnitController>[0]["kind"], opts: { hint?: string; allowNegative?: boolean } = {}) => (
+  const unit = (name: "ambientC" | QuantityValueKey, label: string, kind: Parameters<typeof UnitController>[0]["kind"], opts: { hint?: string; allowNegative?: boolean } = {}) => (
     <UnitController control={control} name={name} label={label} kind={kind} system={system} error={err(name)} hint={opts.hint} allowNegative={opts.allowNegative} />
   );
 
   return (
     <fieldset className="flex flex-col gap-4">
       <legend className="mb-2 text-xl font-bold">4. Record the values</legend>
-      {unit("heaterTemperatureC", "Heater temperature measured at the face", "temperature")}
-      {unit("beadUpGaugeMpa", "Bead-up gauge pressure (if different from fusion)", "pressure", { hint: "Leave empty when bead-up was at fusion pressure." })}
-      {unit("fusionGaugeMpa", "Fusion gauge pressure", "pressure")}
-      {unit("beadMm", "Bead size", "length-mm")}
+      {TYPED.map((d) => (
+        <Fragment key={d.key}>{unit(d.key as QuantityValueKey, d.prompt, d.quantity, { hint: d.hint })}</Fragment>
+      ))}
       {unit("ambientC", "Ambient temperature", "temperature", { allowNegative: true })}
       <SelectField id="shelter" label="Weather shelter" error={err("shelter")} {...register("shelter", { setValueAs: (v) => (v === "" ? undefined : v) })}>
         <option value="">Choose …</option>
@@ -60,9 +57,10 @@ export function ValuesSection({ form, system, photos, onPhotos }: { form: UseFor
           </option>
         ))}
       </SelectField>
-      {CHECKS.map(([name, question]) => (
-        <Controller key={name} control={control} name={name} render={({ field }) => <YesNo name={name} question={question} value={field.value as boolean | undefined} onChange={field.onChange} error={err(name)} />} />
-      ))}
+      {CHECKS.map(({ key, question }) => {
+        const name = key as CheckValueKey;
+        return <Controller key={name} control={control} name={name} render={({ field }) => <YesNo name={name} question={question} value={field.value as boolean | undefined} onChange={field.onChange} error={err(name)} />} />;
+      })}
       <div className="flex flex-col gap-1">
         <label htmlFor="station" className="text-sm font-semibold text-ink">
           Station (place along the job)

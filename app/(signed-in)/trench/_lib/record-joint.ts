@@ -33,7 +33,7 @@ import { listUsersWithRole, type UserRecord } from "@/database/queries/users";
 import { checkJoint, type JointCheck } from "@/domain/fusion/check";
 import { planButtFusion, type FusionPlan } from "@/domain/fusion/plan";
 import { applyOverrides, blockReasons, componentMismatch, madeAtProblem } from "@/domain/joints/rules";
-import { jointMeasurements } from "@/domain/joints/measurements";
+import { pickRecordedValues, type RecordedValues } from "@/domain/joints/values";
 import type { RecordJointInput } from "@/domain/joints/schemas";
 import { jobBlockReason } from "@/domain/office/rules";
 import { qualificationStatus } from "@/domain/qualifications/status";
@@ -63,8 +63,8 @@ export type RecordedJoint = {
 export type RecordJointResult = { created: boolean; joint: RecordedJoint };
 
 /** Re-check a stored joint for display in `system` (messages in the reader's units). */
-export function verdictOf(joint: Pick<JointRecord, "plan" | "heaterTemperatureC" | "beadUpGaugeMpa" | "fusionGaugeMpa" | "beadMm" | "heatSoakS" | "changeoverS" | "coolingS" | "facingOk" | "alignmentOk" | "beadRollbackOk" | "vGrooveOk">, system: UnitSystem): JointCheck {
-  return checkJoint(joint.plan, jointMeasurements(joint), { system });
+export function verdictOf(joint: Pick<JointRecord, "plan"> & RecordedValues, system: UnitSystem): JointCheck {
+  return checkJoint(joint.plan, pickRecordedValues(joint), { system });
 }
 
 export function describeRecordedJoint(joint: JointRecord, system: UnitSystem): RecordedJoint {
@@ -184,7 +184,7 @@ async function prepare(input: RecordJointInput, user: UserRecord, madeAt: Date):
   // An impossible pipe for this procedure throws a DomainError: the wrapper answers 422.
   const plan = planButtFusion({ procedure: version.definition, outsideDiameterMm: coilA.outsideDiameterMm, sdr: coilA.sdr, pistonAreaMm2: machine.pistonAreaMm2 as number, dragPressureMpa: input.dragPressureMpa });
   // The server's own check, messages in SI for the record (screens re-check in their units).
-  const check = checkJoint(plan, jointMeasurements({ ...input, beadUpGaugeMpa: input.beadUpGaugeMpa ?? null, heatSoakS: input.heatSoakS ?? null }), { system: "si" });
+  const check = checkJoint(plan, pickRecordedValues(input), { system: "si" });
   return { plan, check, coilA, coilB, procedureVersionId: version.id, jobCode: job.code, covered };
 }
 
@@ -295,18 +295,7 @@ async function writeJoint(
       longitude: input.longitude ?? null,
       ambientC: input.ambientC,
       shelter: input.shelter,
-      heaterTemperatureC: input.heaterTemperatureC,
-      dragPressureMpa: input.dragPressureMpa,
-      beadUpGaugeMpa: input.beadUpGaugeMpa ?? null,
-      fusionGaugeMpa: input.fusionGaugeMpa,
-      beadMm: input.beadMm,
-      heatSoakS: input.heatSoakS ?? null,
-      changeoverS: input.changeoverS,
-      coolingS: input.coolingS,
-      facingOk: input.facingOk,
-      alignmentOk: input.alignmentOk,
-      beadRollbackOk: input.beadRollbackOk,
-      vGrooveOk: input.vGrooveOk,
+      ...pickRecordedValues(input),
       timedFields: [...new Set(input.timedFields)],
       plan: p.plan,
       outcome: p.check.outcome,

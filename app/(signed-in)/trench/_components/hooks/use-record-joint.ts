@@ -6,7 +6,7 @@
 import { useMemo, useRef, useState, type Dispatch, type SetStateAction } from "react";
 import { checkJoint } from "@/domain/fusion/check";
 import type { FusionPlan } from "@/domain/fusion/plan";
-import { jointMeasurements } from "@/domain/joints/measurements";
+import { pickRecordedValues } from "@/domain/joints/values";
 import { saveRemembered, type OutboxEntry, type PhotoRef, type Remembered } from "../../_lib/device-store";
 import { findLocalCoil } from "../../_lib/find-coil";
 import type { TrenchSetup } from "../../_lib/types";
@@ -49,7 +49,7 @@ export function useRecordJoint({ setup, outbox, jobId, job, plan, cannotRecord, 
     const madeAt = new Date().toISOString();
     let preliminary: OutboxEntry["preliminary"] = null;
     if (plan) {
-      const check = checkJoint(plan, jointMeasurements({ ...v, beadUpGaugeMpa: v.beadUpGaugeMpa ?? null, heatSoakS: v.heatSoakS ?? null }), { system });
+      const check = checkJoint(plan, pickRecordedValues(v), { system });
       preliminary = { outcome: check.outcome, findings: check.findings.map((f) => f.message) };
     }
     const label = `${v.coilA} + ${v.kind === "coil-to-coil" ? v.coilB : v.componentBText}`;

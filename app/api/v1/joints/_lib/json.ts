@@ -3,7 +3,19 @@
 // caller's units so messages read naturally.
 import { verdictOf } from "@/app/(signed-in)/trench/_lib/record-joint";
 import type { JointRecord } from "@/database/queries/joints";
+import { DEPRECATED_WIRE_NAMES, pickRecordedValues, type RecordedValues } from "@/domain/joints/values";
 import type { UnitSystem } from "@/domain/units/format";
+
+/**
+ * The recorded values (domain/joints/values) under their current names, and again under
+ * their deprecated names (`fusionGaugeMpa`, `beadUpGaugeMpa`) for callers written before
+ * the rename (README "JSON API").
+ */
+function valuesJson(j: RecordedValues) {
+  const values: Record<string, number | boolean | null> = pickRecordedValues(j);
+  for (const [old, key] of Object.entries(DEPRECATED_WIRE_NAMES)) values[old] = values[key];
+  return values;
+}
 
 export function jointJson(j: JointRecord, system: UnitSystem) {
   const verdict = verdictOf(j, system);
@@ -30,20 +42,7 @@ export function jointJson(j: JointRecord, system: UnitSystem) {
     place: { station: j.station, latitude: j.latitude, longitude: j.longitude },
     ambientC: j.ambientC,
     shelter: j.shelter,
-    values: {
-      heaterTemperatureC: j.heaterTemperatureC,
-      dragPressureMpa: j.dragPressureMpa,
-      beadUpGaugeMpa: j.beadUpGaugeMpa,
-      fusionGaugeMpa: j.fusionGaugeMpa,
-      beadMm: j.beadMm,
-      heatSoakS: j.heatSoakS,
-      changeoverS: j.changeoverS,
-      coolingS: j.coolingS,
-      facingOk: j.facingOk,
-      alignmentOk: j.alignmentOk,
-      beadRollbackOk: j.beadRollbackOk,
-      vGrooveOk: j.vGrooveOk,
-    },
+    values: valuesJson(j),
     timedFields: j.timedFields,
     outcome: j.outcome,
     findings: verdict.findings,
