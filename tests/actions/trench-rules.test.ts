@@ -5,8 +5,8 @@
 import QRCode from "qrcode";
 import { BinaryBitmap, HybridBinarizer, QRCodeReader, RGBLuminanceSource } from "@zxing/library";
 import { describe, expect, it } from "vitest";
-import { findLocalCoil } from "@/app/(signed-in)/trench/_lib/find-coil";
-import type { TrenchCoil } from "@/app/(signed-in)/trench/_lib/types";
+import { findLocalCoil } from "@/app/(signed-in)/trench/_client/find-coil";
+import type { TrenchCoil } from "@/app/(signed-in)/trench/_client/types";
 import { planButtFusion } from "@/domain/fusion/plan";
 import { applyOverrides, blockReasons, componentMismatch, madeAtProblem, OVERRIDE_LOOKBACK_MS } from "@/domain/joints/rules";
 import { recordJointFormSchema } from "@/domain/joints/schemas";

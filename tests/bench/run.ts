@@ -277,7 +277,7 @@ async function measureTrace(baseUrl: string, cookie: string, data: SyntheticRegi
 
 async function measureExport(baseUrl: string, cookie: string, data: SyntheticRegister, serverPid: number, owner: Knex): Promise<void> {
   const { iterateRegisterRows } = await import("../../database/queries/register");
-  const { writeRegisterXlsx } = await import("../../app/api/v1/exports/_lib/register-files");
+  const { writeRegisterXlsx } = await import("../../app/_server/register/export-files");
   const { findProcedureVersionById } = await import("../../database/queries/procedures");
   const filter = { machine: data.exportMachineId };
   const params = new URLSearchParams({ format: "xlsx", machine: String(data.exportMachineId) });

@@ -11,8 +11,8 @@ import { startLocalMailServer, type LocalMailServer } from "@/database/local/mai
 import { db } from "@/database/client";
 import { listDevMail } from "@/database/queries/dev-mailbox";
 import { enqueueJointAlert, enqueueMail, foldDailyDigests, listOutbox } from "@/database/queries/outbox";
-import { sendDueMails } from "@/database/mail/sender";
-import { createSmtpTransport, type MailTransport } from "@/database/mail/transport";
+import { sendDueMails } from "@/app/_server/mail/send-due-mails";
+import { createSmtpTransport, type MailTransport } from "@/app/_server/mail/transport";
 import { MAX_MAIL_ATTEMPTS, retryDelayS } from "@/domain/review/backoff";
 import { makeReviewBase, makeReviewJoint, type ReviewBase } from "@/fixtures/review-joints";
 import { ownerDb, resetDatabase } from "../support/db";

@@ -5,8 +5,8 @@ import { z } from "zod";
 import { defineAction } from "@/app/_lib/guard";
 import { addPersonSchema, resetPasswordSchema, updatePersonSchema } from "@/domain/crew/schemas";
 import { recordQualificationFailureSchema, recordQualificationSchema } from "@/domain/office/schemas";
-import { addPerson, resetPassword, updatePersonAccess } from "./_lib/people";
-import { recordQualification, recordQualificationFailure } from "./_lib/qualifications";
+import { addPerson, resetPassword, updatePersonAccess } from "@/app/_server/crew/people";
+import { recordQualification, recordQualificationFailure } from "@/app/_server/crew/qualifications";
 
 const done = <T>(value: T): T => {
   revalidatePath("/crew");

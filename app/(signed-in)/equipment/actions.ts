@@ -3,7 +3,7 @@
 import { revalidatePath } from "next/cache";
 import { defineAction } from "@/app/_lib/guard";
 import { createHeaterSchema, createMachineSchema, recordHeaterCheckSchema, updateHeaterSchema, updateMachineSchema } from "@/domain/office/schemas";
-import { createHeater, createMachine, editHeater, editMachine, recordHeaterCheck } from "./_lib/equipment";
+import { createHeater, createMachine, editHeater, editMachine, recordHeaterCheck } from "@/app/_server/equipment/equipment";
 
 const done = <T>(value: T): T => {
   revalidatePath("/equipment");

@@ -3,7 +3,7 @@
 import { revalidatePath } from "next/cache";
 import { defineAction } from "@/app/_lib/guard";
 import { createJobSchema, setJobStatusSchema, updateJobSchema } from "@/domain/office/schemas";
-import { createJob, editJob, setJobStatus } from "./_lib/jobs";
+import { createJob, editJob, setJobStatus } from "@/app/_server/jobs/jobs";
 
 export const createJobAction = defineAction({ audience: ["admin"], schema: createJobSchema }, async (input, ctx) => {
   const result = await createJob(input, ctx);

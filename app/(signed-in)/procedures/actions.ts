@@ -3,7 +3,7 @@
 import { revalidatePath } from "next/cache";
 import { defineAction } from "@/app/_lib/guard";
 import { createProcedureSchema, editVersionNotesSchema, tightenProcedureSchema } from "@/domain/office/schemas";
-import { createProcedure, editVersionNotes, publishTightenedVersion } from "./_lib/procedures";
+import { createProcedure, editVersionNotes, publishTightenedVersion } from "@/app/_server/procedures/procedures";
 
 const done = <T>(value: T): T => {
   revalidatePath("/procedures");

@@ -2,12 +2,13 @@
 // JPEG, PNG, WebP or HEIC/HEIF only, stored privately in the S3-compatible store under a
 // generated key (never the file's name), then described by an attachments row. Nothing is
 // written when any check fails; a store that fails leaves no row behind.
+import "server-only";
 import { createHash, randomUUID } from "node:crypto";
 import { fileTypeFromBuffer } from "file-type";
 import { db } from "@/database/client";
 import { insertAttachment, type AttachmentKind } from "@/database/queries/attachments";
 import { insertAuditEntry } from "@/database/queries/audit-log";
-import { putObject } from "@/database/storage";
+import { putObject } from "@/app/_server/storage/object-store";
 import type { UserRecord } from "@/database/queries/users";
 import { AppError } from "@/domain/result";
 

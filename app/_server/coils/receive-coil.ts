@@ -1,13 +1,13 @@
-// Coil use cases: receive (with the receipt inspection and the F2897 cross-check), move to
-// another status, mark labels printed. Each is one transaction with its audit entry.
+// Receive a coil (with the receipt inspection and the F2897 cross-check): one transaction
+// that writes the coil, its first event and the audit entry.
+import "server-only";
 import { db } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
-import { insertCoil, lockCoil, markCoilLabelsPrinted, updateCoilStatus, type Coil } from "@/database/queries/coils";
-import { judgeReceiptInspection, statusMoveProblem, traceCodeDisagreements } from "@/domain/coil-life/rules";
+import { insertCoil, type Coil } from "@/database/queries/coils";
+import { judgeReceiptInspection, traceCodeDisagreements } from "@/domain/coil-life/rules";
 import type { MoveCoil, ReceiveCoil } from "@/domain/coil-life/schemas";
-import { AppError } from "@/domain/result";
 
-type Actor = { user: { id: number }; requestId: string };
+export type Actor = { user: { id: number }; requestId: string };
 
 export type ReceivedCoil = { id: number; coilCode: string; status: Coil["status"]; inspectionPassed: boolean; reasons: string[]; traceCodeFlags: { field: string; message: string }[] };
 
@@ -72,26 +72,4 @@ export async function receiveCoil(input: ReceiveCoil, { user, requestId }: Actor
     );
     return { id, coilCode: input.coilCode, status: verdict.passed ? "in-yard" : "quarantined", inspectionPassed: verdict.passed, reasons: verdict.reasons, traceCodeFlags: flags };
   });
-}
-
-/** Moves a coil to another status under the domain rules, with optimistic locking on its version. */
-export async function moveCoil(input: MoveCoil, { user, requestId }: Actor): Promise<{ id: number; coilCode: string; status: Coil["status"] }> {
-  return db().transaction(async (trx) => {
-    const coil = await lockCoil({ id: input.coilId }, trx);
-    if (!coil) throw new AppError("not-found", `Coil ${input.coilId} is not on file.`);
-    if (coil.version !== input.version) throw new AppError("conflict", `${coil.coilCode} was changed by someone else since you opened it; reload the page and try again.`);
-    const problem = statusMoveProblem({ from: coil.status, to: input.to, reason: input.reason, crewId: input.crewId ?? coil.crewId, jobId: input.jobId ?? coil.jobId });
-    if (problem) throw new AppError("invalid", problem.message, { [problem.field]: [problem.message] });
-    await updateCoilStatus({ coil, to: input.to, reason: input.reason ?? null, crewId: input.crewId, jobId: input.jobId, userId: user.id }, trx);
-    await insertAuditEntry(
-      { actorUserId: user.id, action: "coil-status-changed", entityType: "coil", entityId: coil.id, details: { coilCode: coil.coilCode, from: coil.status, to: input.to, reason: input.reason ?? null, crewId: input.crewId ?? null, jobId: input.jobId ?? null }, requestId },
-      trx,
-    );
-    return { id: coil.id, coilCode: coil.coilCode, status: input.to };
-  });
-}
-
-/** Stamps label_printed_at on the coils whose labels were printed or downloaded. */
-export async function markLabelsPrinted(coilIds: number[], how: "print" | "png" | "svg", { user, requestId }: Actor): Promise<number> {
-  return db().transaction((trx) => markCoilLabelsPrinted({ coilIds, userId: user.id, requestId, how }, trx));
 }

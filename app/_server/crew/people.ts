@@ -2,6 +2,7 @@
 // flag, reset a password. Nobody can remove the last active admin (domain/roles
 // wouldRemoveLastAdmin, checked with the admins' rows locked). Deactivation and password
 // resets bump the session version, so the person's open sessions end at once.
+import "server-only";
 import { db, isDuplicateKey } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { findUserById, insertUser, isEmailTaken, listCrews, lockActiveAdminIds, updateUserAccess, updateUserPassword } from "@/database/queries/users";
@@ -12,7 +13,7 @@ import { AppError } from "@/domain/result";
 import { hashPassword } from "@/app/_lib/auth";
 import { assertPasswordAllowed } from "@/app/_lib/common-passwords";
 import { logger } from "@/app/_lib/log";
-import { CONFLICT_MESSAGE } from "../../jobs/_lib/jobs";
+import { CONFLICT_MESSAGE } from "@/app/_server/jobs/jobs";
 
 type Ctx = { user: { id: number }; requestId: string };
 

@@ -2,6 +2,7 @@
 // requalification (49 CFR 192.285(b): a specimen joint examined visually and tested by
 // bend, tensile or ultrasonic), with optional evidence, and record production joints found
 // unacceptable by test (which end the qualification until the person requalifies).
+import "server-only";
 import { createHash, randomUUID } from "node:crypto";
 import { db, isDuplicateKey } from "@/database/client";
 import { insertAttachment } from "@/database/queries/attachments";
@@ -9,7 +10,7 @@ import { insertAuditEntry } from "@/database/queries/audit-log";
 import { findProcedureById } from "@/database/queries/procedures";
 import { findJointFuserId, insertQualification, insertQualificationFailure, listQualificationFailuresForUser, listQualificationsForUser } from "@/database/queries/qualifications";
 import { findUserById } from "@/database/queries/users";
-import { putObject } from "@/database/storage";
+import { putObject } from "@/app/_server/storage/object-store";
 import { isoDateOf } from "@/domain/office/dates";
 import type { RecordQualificationFailureInput, RecordQualificationInput } from "@/domain/office/schemas";
 import { qualificationStatus, type QualificationStatus } from "@/domain/qualifications/status";

@@ -1,6 +1,7 @@
 // Use cases of the Equipment screen: fusion machines (with their total effective piston
 // area), heater plates, and heater surface-temperature checks judged against the chosen
 // procedure's heater window. One transaction per change, audited; optimistic locking.
+import "server-only";
 import { db, isDuplicateKey } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import {
@@ -17,7 +18,7 @@ import { isoDateOf } from "@/domain/office/dates";
 import { heaterNextDueOn, judgeHeaterCheck } from "@/domain/office/rules";
 import type { CreateHeaterInput, CreateMachineInput, RecordHeaterCheckInput, UpdateHeaterInput, UpdateMachineInput } from "@/domain/office/schemas";
 import { AppError } from "@/domain/result";
-import { CONFLICT_MESSAGE } from "../../jobs/_lib/jobs";
+import { CONFLICT_MESSAGE } from "@/app/_server/jobs/jobs";
 
 type Ctx = { user: { id: number }; requestId: string };
 

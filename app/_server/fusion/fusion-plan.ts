@@ -1,6 +1,7 @@
 // The pressure plan for a pipe on a machine under a job's current procedure version: the
 // use case behind GET /api/v1/fusion-plan (the Trench screen computes the same plan on the
 // device with the same domain function, so it works without signal).
+import "server-only";
 import { findCoilByCodeOrTrace } from "@/database/queries/coils";
 import { findMachineById } from "@/database/queries/equipment";
 import { findJobById } from "@/database/queries/jobs";

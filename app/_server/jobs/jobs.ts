@@ -1,5 +1,6 @@
 // Use cases of the Jobs screen: create, edit, close/reopen a job and assign its coils.
 // Each change and its audit entry are one transaction; edits use optimistic locking.
+import "server-only";
 import { db, isDuplicateKey, type Db } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { coilAssignmentProblems, findJobById, insertJob, setCoilsForJob, updateJob, updateJobStatus } from "@/database/queries/jobs";

@@ -2,6 +2,7 @@
 // failed, a quarantined or used-up coil) for one job for a few hours. The grant is its own
 // record with who, why and until when, audited in the same transaction; every joint made
 // under it names it (joint_override_uses), written by the record-joint transaction.
+import "server-only";
 import { db } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { findCoilById } from "@/database/queries/coils";

@@ -1,7 +1,8 @@
 // The JSON shape of a joint in the API: every stored value (canonical SI, field names
 // carry units), the plan it was checked against, and the verdict re-checked in the
 // caller's units so messages read naturally.
-import { verdictOf } from "@/app/(signed-in)/trench/_lib/record-joint";
+import "server-only";
+import { verdictOf } from "@/app/_server/joints/record-joint";
 import type { JointRecord } from "@/database/queries/joints";
 import type { UnitSystem } from "@/domain/units/format";
 

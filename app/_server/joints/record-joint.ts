@@ -6,6 +6,7 @@
 // the inspectors' alert in ONE transaction. Joint numbers come from the job's counter row
 // locked FOR UPDATE, so they are gap-free under concurrent submissions. A client id seen
 // before returns the joint it made (idempotent), also when two copies race.
+import "server-only";
 import type { Knex } from "knex";
 import { db, isDuplicateKey } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";

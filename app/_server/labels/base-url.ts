@@ -1,5 +1,6 @@
 // The address labels point to: BEADLINE_PUBLIC_URL when the operator set it (the address
 // phones reach), else the origin of the request that asked for the label.
+import "server-only";
 export function publicBaseUrl(headers: Headers, fallbackOrigin?: string): string {
   const configured = process.env.BEADLINE_PUBLIC_URL?.trim();
   if (configured) return configured.replace(/\/+$/, "");

@@ -1,4 +1,5 @@
 // Shared by the single-label downloads: the query schema and the file response.
+import "server-only";
 import { z } from "zod";
 
 export const labelDownloadSchema = z.object({

@@ -1,6 +1,7 @@
 // Label rendering at the edge: the QR module matrix from the qrcode package, the SVG from
 // domain/labels, and PNG through sharp (librsvg) at print resolution. Used by the print
 // page and by the single-label downloads (app/api/v1/labels/**).
+import "server-only";
 import QRCode from "qrcode";
 import type { Coil } from "@/database/queries/coils";
 import { coilLabelText, coilLabelUrl, jointLabelText, jointLabelUrl, renderLabelSvg, type QrMatrix } from "@/domain/labels/label";

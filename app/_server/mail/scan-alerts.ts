@@ -1,12 +1,13 @@
 // The periodic alert scan: queues qualification and heater-check alerts (deduplicated, so
 // running it often is harmless) and folds the daily digests. Run by the mail worker.
+import "server-only";
 import type { Knex } from "knex";
 import { isoDateOf } from "@/domain/office/dates";
 import { heaterAlerts, qualificationAlerts, type AlertMail } from "@/domain/review/alerts";
-import { db } from "../client";
-import { listHeatersWithLastCheck } from "../queries/equipment";
-import { enqueueUserEvent, foldDailyDigests, listAlertAdmins, type Recipient } from "../queries/outbox";
-import { qualificationStatusOverview } from "../queries/qualifications";
+import { db } from "@/database/client";
+import { listHeatersWithLastCheck } from "@/database/queries/equipment";
+import { enqueueUserEvent, foldDailyDigests, listAlertAdmins, type Recipient } from "@/database/queries/outbox";
+import { qualificationStatusOverview } from "@/database/queries/qualifications";
 
 export type ScanReport = { alerts: number; queued: number; digests: number };
 

@@ -1,8 +1,9 @@
 // The outbox sender: claims due mails (FOR UPDATE SKIP LOCKED, so several app instances
 // share the work without sending a mail twice), sends each over SMTP, and marks it sent —
 // or records the failure for a retry with back-off (domain/review/backoff.ts).
+import "server-only";
 import type { Knex } from "knex";
-import { claimDueMails, markMailFailed, markMailSent } from "../queries/outbox";
+import { claimDueMails, markMailFailed, markMailSent } from "@/database/queries/outbox";
 import { createSmtpTransport, type MailTransport } from "./transport";
 
 export type SendReport = { claimed: number; sent: number; failed: number; gaveUp: number };

@@ -1,6 +1,7 @@
 // The SMTP transport (nodemailer), configured from SMTP_HOST, SMTP_PORT and MAIL_FROM. In
 // development and tests these point at the local fake server (database/local/mail-server.ts).
 // Short timeouts: a mail server that hangs must not hold an outbox claim for long.
+import "server-only";
 import nodemailer, { type Transporter } from "nodemailer";
 
 export type MailTransport = { send: (mail: { to: string; subject: string; text: string }) => Promise<void>; close: () => void };

@@ -2,8 +2,9 @@
 // MAIL_SEND_INTERVAL_MS (default 2 s) it sends due outbox mail, and every
 // MAIL_SCAN_INTERVAL_MS (default 10 min) it runs the alert scan. Safe with several
 // instances: claims use SKIP LOCKED and alerts are deduplicated in the database.
-import { scanAndEnqueueAlerts } from "./alerts";
-import { sendDueMails } from "./sender";
+import "server-only";
+import { scanAndEnqueueAlerts } from "./scan-alerts";
+import { sendDueMails } from "./send-due-mails";
 
 type Log = { info: (o: object, msg: string) => void; warn: (o: object, msg: string) => void };
 

@@ -2,6 +2,7 @@
 // standard (version 1 = the standard's windows), publish a tightened version (deriveProcedure
 // refuses any loosening; the previous version is superseded, never changed), and correct
 // the notes of a version no joint uses yet.
+import "server-only";
 import { db, isDuplicateKey } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import {

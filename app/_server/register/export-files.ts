@@ -2,6 +2,7 @@
 // CSV into a Node stream, batch by batch, waiting for the reader between batches so the
 // file never sits whole in memory. The columns, headers (with units) and cell values are
 // the grid's (domain/register/columns.ts).
+import "server-only";
 import type { Writable } from "node:stream";
 import ExcelJS from "exceljs";
 import type { ProcedureDefinition } from "@/domain/fusion/procedures";

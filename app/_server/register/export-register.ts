@@ -1,6 +1,7 @@
 // The Register export use case: record and audit the export, then stream the file of
 // exactly the rows of the view's filter (in the view's order) to the HTTP response as it
 // is written, and record how it ended (rows written, done or failed) when the stream ends.
+import "server-only";
 import { PassThrough, Readable } from "node:stream";
 import type { UserRecord } from "@/database/queries/users";
 import { finishExport, startExport } from "@/database/queries/exports";
@@ -8,7 +9,7 @@ import { findProcedureVersionById } from "@/database/queries/procedures";
 import { countRegister, findRegisterFilterNames, iterateRegisterRows } from "@/database/queries/register";
 import { describeFilter, describeSort, pickFilter, type RegisterExportQuery } from "@/domain/register";
 import { logger } from "@/app/_lib/log";
-import { ExportCancelledError, writeRegisterCsv, writeRegisterXlsx, type ExportProcedure } from "./register-files";
+import { ExportCancelledError, writeRegisterCsv, writeRegisterXlsx, type ExportProcedure } from "./export-files";
 
 /** Rows per keyset batch read from the database while writing. */
 const BATCH_SIZE = 1000;

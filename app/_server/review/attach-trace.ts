@@ -3,6 +3,7 @@
 // joint's plan like typed values; then the file goes to the object store and, in one
 // transaction, the attachment row, the trace reading, a "trace-attached" revision, the
 // projection (out of limits when the trace is) and the audit entry are written.
+import "server-only";
 import { createHash, randomUUID } from "node:crypto";
 import { db } from "@/database/client";
 import { insertAttachment } from "@/database/queries/attachments";
@@ -10,7 +11,7 @@ import { insertAuditEntry } from "@/database/queries/audit-log";
 import { enqueueJointAlert } from "@/database/queries/outbox";
 import { findReviewItem, insertJointRevision, insertJointTrace, lockJointState, updateJointState } from "@/database/queries/reviews";
 import type { UserRecord } from "@/database/queries/users";
-import { putObject } from "@/database/storage";
+import { putObject } from "@/app/_server/storage/object-store";
 import { parsePressureTraceCsv } from "@/domain/pressure-trace/parse";
 import { readPressureTrace } from "@/domain/pressure-trace/read";
 import { AppError } from "@/domain/result";

@@ -2,6 +2,7 @@
 // remake it). One transaction: lock the joint's state, check who may decide and that the
 // joint has not moved on since the inspector saw it (optimistic locking on revision_no),
 // append the revision, move the projection, audit, and queue the fuser's notice on cut-out.
+import "server-only";
 import { db, isDuplicateKey } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { enqueueCutOutNotice } from "@/database/queries/outbox";

@@ -1,6 +1,7 @@
 // What the review screen shows of a joint, in the viewer's units: findings in plain words,
 // plan next to recorded values, the trace's values next to the typed ones, photo links.
 // Plain JSON (dates as ISO strings) for the queue API and the page.
+import "server-only";
 import type { ReviewItem } from "@/database/queries/reviews";
 import type { JointFinding } from "@/domain/fusion/check";
 import { findingsForViewer, planVersusRecorded, type ComparisonRow } from "@/domain/review/queue";

@@ -3,6 +3,7 @@
 // loopback in development and tests), S3_BUCKET, S3_REGION, S3_ACCESS_KEY_ID,
 // S3_SECRET_ACCESS_KEY. The bucket is private: objects are only ever served through an
 // authorised route handler, never by a public or pre-signed address.
+import "server-only";
 import { GetObjectCommand, PutObjectCommand, S3Client } from "@aws-sdk/client-s3";
 
 const globalForS3 = globalThis as unknown as { beadlineS3?: S3Client };

@@ -1,5 +1,6 @@
 // Lot → ground as a spreadsheet: one sheet of joints (place, job, date, fuser, outcome,
 // both components) and one of the lot's coils. Built with exceljs.
+import "server-only";
 import ExcelJS from "exceljs";
 import type { traceLot } from "@/database/queries/trace";
 

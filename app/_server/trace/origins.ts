@@ -1,6 +1,7 @@
 // Joint → origins: the records of findJointOrigins plus what they meant on the day the
 // joint was made — the fuser's qualification status (49 CFR 192.285 via domain
 // qualificationStatus) and whether the heater plate's last check was still in date.
+import "server-only";
 import { findJointOrigins, type JointOrigins } from "@/database/queries/trace";
 import { qualificationStatus, type QualificationStatus } from "@/domain/qualifications/status";
 

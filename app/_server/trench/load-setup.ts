@@ -2,13 +2,14 @@
 // fuser can keep working when the signal drops: open jobs with their procedure and the
 // fuser's qualification dates, machines, heater plates with their last check, the crew's
 // coils, current overrides, joints waiting for a remake and the fuser's latest joints.
+import "server-only";
 import { listHeatersWithLastCheck, listMachines } from "@/database/queries/equipment";
 import { listOpenJobsForFuser } from "@/database/queries/jobs";
 import { listCoilsForTrench, listJoints, listJointsAwaitingRemake, listOverridesForJobs } from "@/database/queries/joints";
 import { currentProcedureVersionForJob } from "@/database/queries/procedures";
 import { listQualificationFailuresForUser, listQualificationsForUser } from "@/database/queries/qualifications";
 import { listUsersWithRole, type UserRecord } from "@/database/queries/users";
-import { toTrenchCoil, type TrenchSetup } from "./types";
+import { toTrenchCoil, type TrenchSetup } from "@/app/(signed-in)/trench/_client/types";
 
 export async function loadTrenchSetup(user: UserRecord, now = new Date()): Promise<TrenchSetup> {
   const jobs = await listOpenJobsForFuser({ userId: user.id });

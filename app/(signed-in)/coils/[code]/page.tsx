@@ -9,8 +9,8 @@ import { COIL_STATUS_LABELS, DAMAGE_LABELS, statusMovesFrom } from "@/domain/coi
 import { describeSize } from "@/domain/labels/label";
 import { bendRatio, minimumBendRadiusMm } from "@/domain/pipe/bending";
 import { formatQuantity } from "@/domain/units/format";
-import { publicBaseUrl } from "../../labels/_lib/base-url";
-import { coilLabelSvg, stockOrDefault } from "../../labels/_lib/render";
+import { publicBaseUrl } from "@/app/_server/labels/base-url";
+import { coilLabelSvg, stockOrDefault } from "@/app/_server/labels/render";
 import { CoilStatusBadge } from "../_components/coil-status-badge";
 import { MoveCoilForm } from "../_components/move-coil-form";
 import { NextRunCheck } from "../_components/next-run-check";

@@ -6,7 +6,7 @@ import { listAttachmentsForJoint } from "@/database/queries/attachments";
 import { findJointById, listJointRevisions, listOverrideUsesForJoint, type JointRecord } from "@/database/queries/joints";
 import { JOINT_KIND_LABELS, PHASE_LABELS, SHELTER_LABELS, type TimedPhase } from "@/domain/joints/schemas";
 import { formatQuantity, type QuantityKind, type UnitSystem } from "@/domain/units/format";
-import { verdictOf } from "../../trench/_lib/record-joint";
+import { verdictOf } from "@/app/_server/joints/record-joint";
 import { PlanPanel } from "../../trench/_components/plan-panel";
 
 export const dynamic = "force-dynamic";

@@ -6,7 +6,7 @@
 import { del, get, set } from "idb-keyval";
 import type { PhaseTiming } from "@/domain/joints/timer";
 import type { RecordJointFormInput, RecordJointRawInput, TimedPhase } from "@/domain/joints/schemas";
-import type { RecordedJoint } from "./record-joint";
+import type { RecordedJoint } from "@/app/_server/joints/record-joint";
 import type { TrenchCoil } from "./types";
 
 export const KEY_PREFIX = "beadline.trench.";

@@ -5,7 +5,7 @@
 // client id, so a retry after a timeout returns the joint already made instead of a
 // second one. Photos upload first (their ids are kept, so a retry does not upload twice).
 import { useCallback, useEffect, useRef, useState } from "react";
-import type { RecordedJoint } from "./record-joint";
+import type { RecordedJoint } from "@/app/_server/joints/record-joint";
 import { dropPhoto, loadOutbox, outboxKey, readPhoto, saveOutbox, type OutboxEntry } from "./device-store";
 
 const RETRY_MS = 15_000;

@@ -18,10 +18,10 @@ import { applyOverrides, blockReasons, componentMismatch } from "@/domain/joints
 import { JOINT_KIND_LABELS, JOINT_KINDS, PHASE_LABELS, recordJointFormSchema, TIMED_PHASES, type RecordJointFormInput, type RecordJointFormValues, type TimedPhase } from "@/domain/joints/schemas";
 import { phaseLimits, timedDurationS, type PhaseTiming } from "@/domain/joints/timer";
 import { qualificationStatus } from "@/domain/qualifications/status";
-import { clearDraft, emptyTimers, loadDraft, loadRemembered, saveDraft, saveRemembered, type OutboxEntry, type PhotoRef, type Remembered } from "../_lib/device-store";
-import { findLocalCoil } from "../_lib/find-coil";
-import type { TrenchCoil, TrenchSetup } from "../_lib/types";
-import { useOutbox } from "../_lib/use-outbox";
+import { clearDraft, emptyTimers, loadDraft, loadRemembered, saveDraft, saveRemembered, type OutboxEntry, type PhotoRef, type Remembered } from "../_client/device-store";
+import { findLocalCoil } from "../_client/find-coil";
+import type { TrenchCoil, TrenchSetup } from "../_client/types";
+import { useOutbox } from "../_client/use-outbox";
 import { BlocksPanel } from "./blocks-panel";
 import { CoilPicker } from "./coil-picker";
 import { OutboxPanel } from "./outbox-panel";

@@ -1,7 +1,7 @@
 // Qualification evidence, served only to admins through this handler (the bucket is private).
 import { defineRoute, errorResponse } from "@/app/_lib/guard";
 import { findAttachmentById } from "@/database/queries/attachments";
-import { getObject } from "@/database/storage";
+import { getObject } from "@/app/_server/storage/object-store";
 
 export const GET = defineRoute<never, { id: string }>({ audience: ["admin"], input: "none" }, async (_input, { params }) => {
   const id = Number(params.id);

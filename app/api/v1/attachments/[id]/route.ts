@@ -4,9 +4,9 @@
 // what was detected at upload, never from the request; nosniff stops browsers guessing.
 import { defineRoute, errorResponse } from "@/app/_lib/guard";
 import { findAttachmentById } from "@/database/queries/attachments";
-import { getObject } from "@/database/storage";
+import { getObject } from "@/app/_server/storage/object-store";
 import { hasAnyRole } from "@/domain/roles";
-import { PHOTO_TYPES } from "../_lib/upload";
+import { PHOTO_TYPES } from "@/app/_server/attachments/upload-photo";
 
 export const dynamic = "force-dynamic";
 

@@ -3,7 +3,7 @@
 import { defineRoute, errorResponse } from "@/app/_lib/guard";
 import { listAttachmentsForJoint } from "@/database/queries/attachments";
 import { findJointById, listJointRevisions, listOverrideUsesForJoint } from "@/database/queries/joints";
-import { jointJson } from "../_lib/json";
+import { jointJson } from "@/app/_server/joints/joint-json";
 
 export const dynamic = "force-dynamic";
 

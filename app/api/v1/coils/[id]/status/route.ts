@@ -2,7 +2,7 @@
 // (clerk, admin): 422 with per-field messages for a move the coil rules refuse, 409 when
 // the version is stale.
 import { defineRoute, errorResponse } from "@/app/_lib/guard";
-import { moveCoil } from "@/app/(signed-in)/coils/_lib/use-cases";
+import { moveCoil } from "@/app/_server/coils/move-coil";
 import { moveCoilSchema } from "@/domain/coil-life/schemas";
 import { z } from "zod";
 

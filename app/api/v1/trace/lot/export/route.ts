@@ -1,6 +1,6 @@
 // GET /api/v1/trace/lot/export?… (same search as /api/v1/trace/lot) → .xlsx of the joints and coils.
 import { defineRoute } from "@/app/_lib/guard";
-import { traceWorkbook } from "@/app/(signed-in)/trace/_lib/export";
+import { traceWorkbook } from "@/app/_server/trace/lot-export";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { traceLot } from "@/database/queries/trace";
 import { traceSearchSchema } from "@/domain/coil-life/schemas";

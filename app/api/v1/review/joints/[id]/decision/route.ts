@@ -3,7 +3,7 @@
 import { defineRoute, errorResponse } from "@/app/_lib/guard";
 import { decideJointSchema } from "@/domain/review/schemas";
 import { fieldErrorsFromIssues, describeFieldErrors } from "@/domain/result";
-import { decideJoint } from "@/app/(signed-in)/review/_lib/decide-joint";
+import { decideJoint } from "@/app/_server/review/decide-joint";
 
 export const POST = defineRoute<typeof decideJointSchema, { id: string }>({ audience: ["inspector"], input: "raw" }, async (_input, { user, requestId, params, request }) => {
   let body: unknown;
