@@ -5,7 +5,7 @@
 import { expect, test } from "@playwright/test";
 import type { Knex } from "knex";
 import { ownerKnex } from "@/database/migrate";
-import { enqueueJointAlert } from "@/database/queries/outbox";
+import { enqueueJointAlert } from "@/app/_server/mail/joint-alert";
 import { makeReviewJoint, type FaultName, type ReviewBase } from "@/fixtures/review-joints";
 import { MailboxPage, ReviewPage } from "./pages/review-page";
 import { SignInPage } from "./pages/sign-in-page";

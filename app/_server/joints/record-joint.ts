@@ -11,7 +11,7 @@ import type { Knex } from "knex";
 import { db, isDuplicateKey } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { attachPhotosToJoint } from "@/database/queries/attachments";
-import { drawDownCoil, findCoilByCodeOrTrace, lockCoil, type Coil } from "@/database/queries/coils";
+import { findCoilByCodeOrTrace, lockCoil, type Coil } from "@/database/queries/coils";
 import { findHeaterWithLastCheck, findMachineById } from "@/database/queries/equipment";
 import { findJobById } from "@/database/queries/jobs";
 import {
@@ -27,7 +27,6 @@ import {
   takeNextJointNo,
   type JointRecord,
 } from "@/database/queries/joints";
-import { enqueueJointAlert } from "@/database/queries/outbox";
 import { currentProcedureVersionForJob } from "@/database/queries/procedures";
 import { listQualificationFailuresForUser, listQualificationsForUser } from "@/database/queries/qualifications";
 import { listUsersWithRole, type UserRecord } from "@/database/queries/users";
@@ -42,6 +41,8 @@ import { qualificationStatus } from "@/domain/qualifications/status";
 import { AppError } from "@/domain/result";
 import { formatQuantity, type UnitSystem } from "@/domain/units/format";
 import { isoDateOf } from "@/domain/office/dates";
+import { drawDownCoil } from "@/app/_server/coils/draw-down-coil";
+import { enqueueJointAlert } from "@/app/_server/mail/joint-alert";
 
 /** What the device and the API get back: the server's verdict in the caller's units. */
 export type RecordedJoint = {

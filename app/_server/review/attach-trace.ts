@@ -8,7 +8,7 @@ import { createHash, randomUUID } from "node:crypto";
 import { db } from "@/database/client";
 import { insertAttachment } from "@/database/queries/attachments";
 import { insertAuditEntry } from "@/database/queries/audit-log";
-import { enqueueJointAlert } from "@/database/queries/outbox";
+import { enqueueJointAlert } from "@/app/_server/mail/joint-alert";
 import { findReviewItem, insertJointRevision, insertJointTrace, lockJointState, updateJointState } from "@/database/queries/reviews";
 import type { UserRecord } from "@/database/queries/users";
 import { putObject } from "@/app/_server/storage/object-store";

@@ -5,7 +5,7 @@
 import "server-only";
 import { db, isDuplicateKey } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
-import { enqueueCutOutNotice } from "@/database/queries/outbox";
+import { enqueueCutOutNotice } from "@/app/_server/mail/cut-out-notice";
 import { insertJointRevision, latestJointRevision, lockJointState, updateJointState } from "@/database/queries/reviews";
 import type { UserRecord } from "@/database/queries/users";
 import { AppError } from "@/domain/result";
