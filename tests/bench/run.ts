@@ -8,6 +8,7 @@
 // JSON under tests/bench/results/. Not part of `npm test`.
 //
 // Flags: --joints <n> (default 1,000,000)  --skip-build (reuse .next-bench)  --keep (leave the stack up, print its env)
+import "../support/server-only-outside-next";
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { randomUUID } from "node:crypto";
 import { existsSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from "node:fs";
