@@ -2,6 +2,7 @@
 // m (DECIMAL(9,2) in the table), diameters in mm. The trench's record-joint transaction
 // writes a pull (writeCoilPull) for each coil a joint lays pipe from.
 import type { Knex } from "knex";
+import { resolveScannedCoil } from "@/domain/coils/scanned-coil";
 import { readScannedCoilText, type CoilStatus, type DamageKind, type PullPlan, type TraceCodeFlag } from "@/domain/coil-life/rules";
 import type { PipeSeries } from "@/domain/pipe/catalogue";
 import { AppError } from "@/domain/result";
@@ -151,28 +152,20 @@ export async function listCoilsByTraceCode({ traceCode }: { traceCode: string },
   return rows.map(toCoil);
 }
 
-const STATUS_PREFERENCE: Record<CoilStatus, number> = { "in-use": 0, "on-trailer": 1, "in-yard": 2, "used-up": 3, quarantined: 4 };
-
 /**
  * The coil a scanned or typed text names: our coil id, a URL ending in /coils/<code> (the
- * label's QR), or an F2897 16-character code. A code shared by several coils of one lot
- * picks the coil most likely at the trench: the preferred crew's first, then in use, on a
- * trailer, in the yard (used-up and quarantined last, so the caller can refuse them by
- * status), then the lowest id. null when nothing matches.
+ * label's QR), or an F2897 16-character code. Reads the coils the text could name and lets
+ * the domain's resolver pick (domain/coils/scanned-coil.ts: the same preference order the
+ * Trench screen applies on the device). null when nothing matches.
  */
 export async function findCoilByCodeOrTrace({ code, preferCrewId }: { code: string; preferCrewId?: number | null }, trx?: Db): Promise<Coil | null> {
   const scanned = readScannedCoilText(code);
   if (scanned.kind === "empty") return null;
   const byCode = await findCoilByCode({ coilCode: scanned.code }, trx);
-  if (byCode || scanned.kind === "coil-code") return byCode;
-  const candidates = await listCoilsByTraceCode({ traceCode: scanned.code }, trx);
-  candidates.sort(
-    (a, b) =>
-      Number(preferCrewId != null && b.crewId === preferCrewId) - Number(preferCrewId != null && a.crewId === preferCrewId) ||
-      STATUS_PREFERENCE[a.status] - STATUS_PREFERENCE[b.status] ||
-      a.id - b.id,
-  );
-  return candidates[0] ?? null;
+  const candidates = byCode || scanned.kind === "coil-code" ? [] : await listCoilsByTraceCode({ traceCode: scanned.code }, trx);
+  const coils = [...(byCode ? [byCode] : []), ...candidates];
+  const picked = resolveScannedCoil(code, coils.map((c) => ({ id: c.id, code: c.coilCode, traceCode: c.traceCode, status: c.status, crewId: c.crewId })), { preferCrewId });
+  return coils.find((c) => c.id === picked?.id) ?? null;
 }
 
 export type CoilListFilter = { status?: CoilStatus | "all"; search?: string; limit?: number };

@@ -12,6 +12,7 @@ import { checkJoint } from "@/domain/fusion/check";
 import { planButtFusion, type FusionPlan } from "@/domain/fusion/plan";
 import type { ProcedureDefinition } from "@/domain/fusion/procedures";
 import { jointMeasurements } from "@/domain/joints/measurements";
+import { buttFusionPlanInput } from "@/domain/joints/pre-record";
 import type { Shelter, TimedPhase } from "@/domain/joints/schemas";
 import { qualificationStatus } from "@/domain/qualifications/status";
 import { isoDaysFrom } from "@/fixtures/demo-scenario";
@@ -119,7 +120,7 @@ export async function seed(knex: Knex, today = new Date()): Promise<void> {
     const q = qualificationStatus({ qualifiedOn: await qualifiedOn(fuserId, job.procedure_id), on: madeAt.toISOString().slice(0, 10) });
     if (!q.qualified) return null;
     const drag = Math.round((0.06 + (i % 4) * 0.01) * 1000) / 1000;
-    const plan = planButtFusion({ procedure: version.definition, outsideDiameterMm: a.od, sdr: a.sdr, pistonAreaMm2: Number(eq.machine.piston_area_mm2), dragPressureMpa: drag });
+    const plan = planButtFusion(buttFusionPlanInput({ procedure: version.definition, pipe: { outsideDiameterMm: a.od, sdr: a.sdr }, machine: { pistonAreaMm2: Number(eq.machine.piston_area_mm2) }, dragPressureMpa: drag }));
     const v = values(plan, i, replaces ? null : p.fault);
     const recorded = { ...v, beadUpGaugeMpa: null, facingOk: true, alignmentOk: true, beadRollbackOk: true, vGrooveOk: true };
     const check = checkJoint(plan, jointMeasurements(recorded), { system: "si" });

@@ -9,6 +9,7 @@ import { currentProcedureVersionForJob } from "@/database/queries/procedures";
 import type { UserRecord } from "@/database/queries/users";
 import { isDomainError } from "@/domain/errors";
 import { planButtFusion, type FusionPlan } from "@/domain/fusion/plan";
+import { buttFusionPlanInput, NO_PUBLISHED_VERSION_FIELD_MESSAGE, noPublishedVersionMessage } from "@/domain/joints/pre-record";
 import type { FusionPlanQuery } from "@/domain/joints/schemas";
 import { AppError } from "@/domain/result";
 import { formatQuantity, formatRange, type UnitSystem } from "@/domain/units/format";
@@ -42,7 +43,7 @@ export async function fusionPlanFor(q: FusionPlanQuery, user: UserRecord): Promi
   const job = await findJobById({ id: q.jobId });
   if (!job) throw new AppError("not-found", `Job ${q.jobId} does not exist.`, { jobId: ["No such job."] });
   const version = await currentProcedureVersionForJob({ jobId: job.id });
-  if (!version) throw new AppError("conflict", `Job ${job.code} has no published procedure version.`, { jobId: ["No published procedure."] });
+  if (!version) throw new AppError("conflict", noPublishedVersionMessage(job.code), { jobId: [NO_PUBLISHED_VERSION_FIELD_MESSAGE] });
   const machine = await findMachineById({ id: q.machineId });
   if (!machine) throw new AppError("not-found", `Machine ${q.machineId} does not exist.`, { machineId: ["No such machine."] });
   if (!machine.isUsable) throw new AppError("invalid", machine.problems.join(" "), { machineId: machine.problems });
@@ -58,7 +59,7 @@ export async function fusionPlanFor(q: FusionPlanQuery, user: UserRecord): Promi
   }
   let plan: FusionPlan;
   try {
-    plan = planButtFusion({ procedure: version.definition, outsideDiameterMm: od as number, sdr: sdr as number, pistonAreaMm2: machine.pistonAreaMm2 as number, dragPressureMpa: q.dragPressureMpa });
+    plan = planButtFusion(buttFusionPlanInput({ procedure: version.definition, pipe: { outsideDiameterMm: od as number, sdr: sdr as number }, machine: { pistonAreaMm2: machine.pistonAreaMm2 as number }, dragPressureMpa: q.dragPressureMpa }));
   } catch (error) {
     if (isDomainError(error)) throw new AppError("invalid", error.message, { [q.coil ? "coil" : "outsideDiameterMm"]: [error.message] });
     throw error;

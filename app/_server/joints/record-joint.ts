@@ -33,13 +33,14 @@ import { listUsersWithRole, type UserRecord } from "@/database/queries/users";
 import { checkJoint, type JointCheck } from "@/domain/fusion/check";
 import { planButtFusion, type FusionPlan } from "@/domain/fusion/plan";
 import { isDomainError } from "@/domain/errors";
-import { applyOverrides, blockReasons, componentMismatch, madeAtProblem } from "@/domain/joints/rules";
+import { buttFusionPlanInput, NO_PUBLISHED_VERSION_FIELD_MESSAGE, noPublishedVersionMessage, preRecordProblems } from "@/domain/joints/pre-record";
+import { applyOverrides, blockReasons, madeAtProblem } from "@/domain/joints/rules";
 import { jointMeasurements } from "@/domain/joints/measurements";
 import type { RecordJointInput } from "@/domain/joints/schemas";
 import { jobBlockReason } from "@/domain/office/rules";
 import { qualificationStatus } from "@/domain/qualifications/status";
 import { AppError } from "@/domain/result";
-import { formatQuantity, type UnitSystem } from "@/domain/units/format";
+import type { UnitSystem } from "@/domain/units/format";
 import { isoDateOf } from "@/domain/office/dates";
 import { drawDownCoil } from "@/app/_server/coils/draw-down-coil";
 import { enqueueJointAlert } from "@/app/_server/mail/joint-alert";
@@ -107,6 +108,8 @@ async function resolveCoil(text: string, field: "coilA" | "coilB", user: UserRec
   return coil;
 }
 
+const toSide = (c: Coil) => ({ id: c.id, code: c.coilCode, outsideDiameterMm: c.outsideDiameterMm, sdr: c.sdr });
+
 type Prepared = {
   plan: FusionPlan;
   check: JointCheck;
@@ -128,7 +131,7 @@ async function prepare(input: RecordJointInput, user: UserRecord, madeAt: Date):
     throw new AppError("forbidden", `Job ${job.code} belongs to the ${job.crewName ?? "another"} crew; you can record joints only on your own crew's jobs.`, { jobId: [`Job ${job.code} is not one of your crew's jobs.`] });
   }
   const version = await currentProcedureVersionForJob({ jobId: job.id });
-  if (!version) throw new AppError("conflict", `Job ${job.code} has no published procedure version; ask an administrator.`, { jobId: ["The job's procedure has no published version."] });
+  if (!version) throw new AppError("conflict", noPublishedVersionMessage(job.code), { jobId: [NO_PUBLISHED_VERSION_FIELD_MESSAGE] });
 
   const [qualifications, failures, admins, inspectors, machine, heater] = await Promise.all([
     listQualificationsForUser({ userId: user.id, procedureId: job.procedureId }),
@@ -146,20 +149,8 @@ async function prepare(input: RecordJointInput, user: UserRecord, madeAt: Date):
 
   const coilA = await resolveCoil(input.coilA, "coilA", user);
   const coilB = input.kind === "coil-to-coil" && input.coilB ? await resolveCoil(input.coilB, "coilB", user) : null;
-  if (coilB && coilB.id === coilA.id) throw invalid("coilB", `Side B is the same coil as side A (${coilA.coilCode}).`);
-  if (coilB) {
-    const mismatch = componentMismatch(
-      { label: `Side A (${coilA.coilCode})`, outsideDiameterMm: coilA.outsideDiameterMm, sdr: coilA.sdr },
-      { label: `side B (${coilB.coilCode})`, outsideDiameterMm: coilB.outsideDiameterMm, sdr: coilB.sdr },
-      user.unitSystem,
-    );
-    if (mismatch.length) throw invalid("coilB", mismatch.map((m) => m.message).join(" "));
-  }
-  const od = coilA.outsideDiameterMm;
-  if ((machine.minOdMm !== null && od < machine.minOdMm - 0.05) || (machine.maxOdMm !== null && od > machine.maxOdMm + 0.05)) {
-    const fmt = (v: number | null) => (v === null ? "any" : formatQuantity(v, "length-mm", user.unitSystem));
-    throw invalid("machineId", `Machine ${machine.assetTag} takes pipe from ${fmt(machine.minOdMm)} to ${fmt(machine.maxOdMm)} OD; this pipe is ${fmt(od)}.`);
-  }
+  const problem = preRecordProblems({ sideA: toSide(coilA), sideB: coilB ? toSide(coilB) : null, machine }, user.unitSystem)[0];
+  if (problem) throw invalid(problem.field, problem.message);
 
   const reasons = blockReasons({
     qualification,
@@ -186,7 +177,7 @@ async function prepare(input: RecordJointInput, user: UserRecord, madeAt: Date):
 
   let plan: FusionPlan;
   try {
-    plan = planButtFusion({ procedure: version.definition, outsideDiameterMm: coilA.outsideDiameterMm, sdr: coilA.sdr, pistonAreaMm2: machine.pistonAreaMm2 as number, dragPressureMpa: input.dragPressureMpa });
+    plan = planButtFusion(buttFusionPlanInput({ procedure: version.definition, pipe: coilA, machine: { pistonAreaMm2: machine.pistonAreaMm2 as number }, dragPressureMpa: input.dragPressureMpa }));
   } catch (error) {
     if (isDomainError(error)) throw invalid("coilA", error.message);
     throw error;

@@ -28,7 +28,7 @@ export async function loadTrenchSetup(user: UserRecord, now = new Date()): Promi
   ]);
   const versions = await Promise.all(jobs.map((j) => currentProcedureVersionForJob({ jobId: j.id })));
   return {
-    user: { id: user.id, name: user.name, unitSystem: user.unitSystem },
+    user: { id: user.id, name: user.name, unitSystem: user.unitSystem, crewId: user.crewId },
     jobs: jobs.map((j, i) => {
       const v = versions[i];
       return {

@@ -1,14 +1,10 @@
 // Finding a scanned or typed coil among the coils the page brought to the device, so a
-// scan works without signal. The text is read the way the coil labels are written
-// (domain/coil-life readScannedCoilText): the label QR's /coils/<id> address, our coil
-// id, or the manufacturer's F2897 code (case-sensitive).
-import { readScannedCoilText } from "@/domain/coil-life/rules";
+// scan works without signal. The choice is the domain's resolver (domain/coils/
+// scanned-coil.ts), the same one the server applies when the joint is recorded, so the
+// preview shows the coil that will be recorded.
+import { resolveScannedCoil } from "@/domain/coils/scanned-coil";
 import type { TrenchCoil } from "./types";
 
-export function findLocalCoil(coils: TrenchCoil[], text: string): TrenchCoil | null {
-  const scanned = readScannedCoilText(text);
-  if (scanned.kind === "empty") return null;
-  const byCode = coils.find((c) => c.code.toLowerCase() === scanned.code.toLowerCase()) ?? null;
-  if (scanned.kind === "trace-code") return coils.find((c) => c.traceCode === scanned.code) ?? byCode;
-  return byCode;
+export function findLocalCoil(coils: TrenchCoil[], text: string, preferCrewId: number | null = null): TrenchCoil | null {
+  return resolveScannedCoil(text, coils, { preferCrewId });
 }

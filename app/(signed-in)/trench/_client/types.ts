@@ -18,6 +18,7 @@ export type TrenchCoil = {
   remainingM: number;
   status: CoilStatus;
   statusReason: string | null;
+  crewId: number | null;
 };
 
 export function toTrenchCoil(c: Coil): TrenchCoil {
@@ -35,6 +36,7 @@ export function toTrenchCoil(c: Coil): TrenchCoil {
     remainingM: c.remainingM,
     status: c.status,
     statusReason: c.statusReason,
+    crewId: c.crewId,
   };
 }
 
@@ -60,7 +62,7 @@ export type TrenchRemake = { id: number; jobId: number; jointNo: number; madeAt:
 export type TrenchRecent = { id: number; jobCode: string; jointNo: number; madeAt: string; outcome: string; reviewState: string };
 
 export type TrenchSetup = {
-  user: { id: number; name: string; unitSystem: "si" | "us" };
+  user: { id: number; name: string; unitSystem: "si" | "us"; crewId: number | null };
   jobs: TrenchJob[];
   machines: TrenchMachine[];
   heaters: TrenchHeater[];

@@ -28,6 +28,7 @@ export function CoilPicker({
   value,
   coil,
   coils,
+  preferCrewId = null,
   system,
   error,
   onText,
@@ -37,6 +38,8 @@ export function CoilPicker({
   value: string;
   coil: TrenchCoil | null;
   coils: TrenchCoil[];
+  /** The fuser's crew: its coils win when a lot's F2897 code names several. */
+  preferCrewId?: number | null;
   system: UnitSystem;
   error?: string;
   onText: (text: string) => void;
@@ -54,7 +57,7 @@ export function CoilPicker({
         onCoil(null);
         return;
       }
-      const local = findLocalCoil(coils, text);
+      const local = findLocalCoil(coils, text, preferCrewId);
       if (local) {
         onText(local.code);
         onCoil(local);
@@ -82,7 +85,7 @@ export function CoilPicker({
         setLooking(false);
       }
     },
-    [coils, onCoil, onText],
+    [coils, preferCrewId, onCoil, onText],
   );
 
   const scanned = useCallback(

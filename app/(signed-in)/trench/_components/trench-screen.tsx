@@ -14,7 +14,8 @@ import { Cautions } from "@/components/ui/caution";
 import { checkJoint } from "@/domain/fusion/check";
 import { planButtFusion, type FusionPlan } from "@/domain/fusion/plan";
 import { jointMeasurements } from "@/domain/joints/measurements";
-import { applyOverrides, blockReasons, componentMismatch } from "@/domain/joints/rules";
+import { buttFusionPlanInput, noPublishedVersionMessage, preRecordProblems } from "@/domain/joints/pre-record";
+import { applyOverrides, blockReasons } from "@/domain/joints/rules";
 import { JOINT_KIND_LABELS, JOINT_KINDS, PHASE_LABELS, recordJointFormSchema, TIMED_PHASES, type RecordJointFormInput, type RecordJointFormValues, type TimedPhase } from "@/domain/joints/schemas";
 import { phaseLimits, timedDurationS, type PhaseTiming } from "@/domain/joints/timer";
 import { qualificationStatus } from "@/domain/qualifications/status";
@@ -136,13 +137,13 @@ export function TrenchScreen({ setup }: { setup: TrenchSetup }) {
 
   const { plan, planProblem } = useMemo((): { plan: FusionPlan | null; planProblem: string | null } => {
     if (!job) return { plan: null, planProblem: "Choose the job: its procedure sets the limits." };
-    if (!job.procedure) return { plan: null, planProblem: `Job ${job.code} has no published procedure version; ask an administrator.` };
+    if (!job.procedure) return { plan: null, planProblem: noPublishedVersionMessage(job.code) };
     if (!machine) return { plan: null, planProblem: "Choose the fusion machine: its piston area turns pressures into gauge readings." };
     if (!machine.isUsable || machine.pistonAreaMm2 === null) return { plan: null, planProblem: machine.problems.join(" ") };
     if (!coils.A) return { plan: null, planProblem: "Scan or type coil A: its size sets the plan." };
     if (typeof drag !== "number") return { plan: null, planProblem: "Enter the drag pressure you measured to see the gauge pressures to set." };
     try {
-      return { plan: planButtFusion({ procedure: job.procedure.definition, outsideDiameterMm: coils.A.outsideDiameterMm, sdr: coils.A.sdr, pistonAreaMm2: machine.pistonAreaMm2, dragPressureMpa: drag }), planProblem: null };
+      return { plan: planButtFusion(buttFusionPlanInput({ procedure: job.procedure.definition, pipe: coils.A, machine: { pistonAreaMm2: machine.pistonAreaMm2 }, dragPressureMpa: drag })), planProblem: null };
     } catch (error) {
       return { plan: null, planProblem: (error as Error).message };
     }
@@ -166,10 +167,12 @@ export function TrenchScreen({ setup }: { setup: TrenchSetup }) {
     return applyOverrides(reasons, grants, { jobId: job.id, madeAt: new Date(now || Date.parse(setup.loadedAt)) });
   }, [job, heater, coils.A, sideB, today, now, setup, userId]);
 
-  const mismatch = coils.A && sideB ? componentMismatch({ label: `Side A (${coils.A.code})`, outsideDiameterMm: coils.A.outsideDiameterMm, sdr: coils.A.sdr }, { label: `side B (${sideB.code})`, outsideDiameterMm: sideB.outsideDiameterMm, sdr: sideB.sdr }, system) : [];
-  const sameCoil = coils.A && sideB && coils.A.id === sideB.id;
-  const odOutsideMachine = machine && coils.A && ((machine.minOdMm !== null && coils.A.outsideDiameterMm < machine.minOdMm - 0.05) || (machine.maxOdMm !== null && coils.A.outsideDiameterMm > machine.maxOdMm + 0.05));
-  const cannotRecord = blocks.open.length > 0 || mismatch.length > 0 || Boolean(sameCoil) || Boolean(odOutsideMachine);
+  // The same checks, in the same order, as the server's record-joint (domain/joints/pre-record.ts).
+  const problems = preRecordProblems({ sideA: coils.A, sideB, machine }, system);
+  const mismatch = problems.flatMap((p) => (p.kind === "size-mismatch" ? p.mismatches : []));
+  const sameCoil = problems.find((p) => p.kind === "same-coil") ?? null;
+  const odOutsideMachine = problems.some((p) => p.kind === "machine-size");
+  const cannotRecord = blocks.open.length > 0 || problems.length > 0;
 
   const startPhase = (phase: TimedPhase) => setTimers((t) => ({ ...t, [phase]: { startedAt: Date.now(), endedAt: null } }));
   const endPhase = (phase: TimedPhase) => {
@@ -249,8 +252,8 @@ export function TrenchScreen({ setup }: { setup: TrenchSetup }) {
   const remake = (entry: OutboxEntry) => {
     const p = entry.payload;
     const keep = { jobId: p.jobId as number, machineId: p.machineId as number, heaterId: p.heaterId as number };
-    const a = findLocalCoil(setup.coils, String(p.coilA ?? ""));
-    const b = p.coilB ? findLocalCoil(setup.coils, String(p.coilB)) : null;
+    const a = findLocalCoil(setup.coils, String(p.coilA ?? ""), setup.user.crewId);
+    const b = p.coilB ? findLocalCoil(setup.coils, String(p.coilB), setup.user.crewId) : null;
     startNewDraft(keep, { kind: p.kind as FormIn["kind"], coilA: String(p.coilA ?? ""), coilB: (p.coilB as string | null) ?? "", componentBText: (p.componentBText as string | null) ?? "", replacesJointId: entry.result!.id, station: (p.station as string | null) ?? "" });
     setCoils({ A: a, B: b });
     setShownResult(null);
@@ -342,11 +345,11 @@ export function TrenchScreen({ setup }: { setup: TrenchSetup }) {
             ))}
           </SelectField>
           <Cautions kinds={["coil", "static"]} title="Before cutting bands or pipe" />
-          <CoilPicker side="A" value={coilAText ?? ""} coil={coils.A} coils={setup.coils} system={system} error={err("coilA")} onText={onTextA} onCoil={onCoilA} />
+          <CoilPicker side="A" value={coilAText ?? ""} coil={coils.A} coils={setup.coils} preferCrewId={setup.user.crewId} system={system} error={err("coilA")} onText={onTextA} onCoil={onCoilA} />
           {unitField("lengthAM", "Pipe laid from coil A with this joint", "length-m", { hint: "Drawn off the coil's length left. Leave empty if none was pulled." })}
           {kind === "coil-to-coil" ? (
             <>
-              <CoilPicker side="B" value={(coilBText as string | null) ?? ""} coil={coils.B} coils={setup.coils} system={system} error={err("coilB")} onText={onTextB} onCoil={onCoilB} />
+              <CoilPicker side="B" value={(coilBText as string | null) ?? ""} coil={coils.B} coils={setup.coils} preferCrewId={setup.user.crewId} system={system} error={err("coilB")} onText={onTextB} onCoil={onCoilB} />
               {unitField("lengthBM", "Pipe laid from coil B with this joint", "length-m")}
             </>
           ) : (
@@ -364,7 +367,7 @@ export function TrenchScreen({ setup }: { setup: TrenchSetup }) {
           )}
           {mismatch.length || sameCoil ? (
             <div role="alert" className="rounded-md border-2 border-fail bg-fail-light p-3 font-semibold text-fail">
-              {sameCoil ? <p>Side B is the same coil as side A.</p> : null}
+              {sameCoil ? <p>{sameCoil.message}</p> : null}
               {mismatch.map((m) => (
                 <p key={m.field}>{m.message}</p>
               ))}
