@@ -1,6 +1,6 @@
 "use client";
 import { useState, useTransition } from "react";
-import { setMailPreferenceAction } from "../actions";
+import { setMailPreferenceAction } from "../mailbox/actions";
 
 /** One mail per alert, or one summary a day (the daily digest). */
 export function MailPreference({ dailyDigest }: { dailyDigest: boolean }) {

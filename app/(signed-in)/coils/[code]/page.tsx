@@ -11,7 +11,7 @@ import { bendRatio, minimumBendRadiusMm } from "@/domain/pipe/bending";
 import { formatQuantity } from "@/domain/units/format";
 import { publicBaseUrl } from "@/app/_server/labels/base-url";
 import { coilLabelSvg, stockOrDefault } from "@/app/_server/labels/render";
-import { CoilStatusBadge } from "../_components/coil-status-badge";
+import { CoilStatusBadge } from "@/components/coils/coil-status-badge";
 import { MoveCoilForm } from "../_components/move-coil-form";
 import { NextRunCheck } from "../_components/next-run-check";
 

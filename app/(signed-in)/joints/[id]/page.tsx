@@ -7,7 +7,7 @@ import { findJointById, listJointRevisions, listOverrideUsesForJoint, type Joint
 import { JOINT_KIND_LABELS, PHASE_LABELS, SHELTER_LABELS, type TimedPhase } from "@/domain/joints/schemas";
 import { formatQuantity, type QuantityKind, type UnitSystem } from "@/domain/units/format";
 import { verdictOf } from "@/app/_server/joints/record-joint";
-import { PlanPanel } from "../../trench/_components/plan-panel";
+import { PlanPanel } from "@/components/fusion/plan-panel";
 
 export const dynamic = "force-dynamic";
 

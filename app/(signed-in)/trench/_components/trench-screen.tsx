@@ -27,7 +27,7 @@ import { BlocksPanel } from "./blocks-panel";
 import { CoilPicker } from "./coil-picker";
 import { OutboxPanel } from "./outbox-panel";
 import { PhaseTimer } from "./phase-timer";
-import { PlanPanel } from "./plan-panel";
+import { PlanPanel } from "@/components/fusion/plan-panel";
 import { ResultPanel } from "./result-panel";
 import { SelectField } from "@/components/form/controls";
 import { UnitController } from "./unit-controller";
