@@ -6,7 +6,7 @@ import QRCode from "qrcode";
 import { BinaryBitmap, HybridBinarizer, QRCodeReader, RGBLuminanceSource } from "@zxing/library";
 import { describe, expect, it } from "vitest";
 import { findLocalCoil } from "@/app/(signed-in)/trench/_client/find-coil";
-import type { TrenchCoil } from "@/app/(signed-in)/trench/_client/types";
+import type { TrenchCoil } from "@/app/_server/trench/setup-types";
 import { planButtFusion } from "@/domain/fusion/plan";
 import { applyOverrides, blockReasons, componentMismatch, madeAtProblem, OVERRIDE_LOOKBACK_MS } from "@/domain/joints/rules";
 import { recordJointFormSchema } from "@/domain/joints/schemas";

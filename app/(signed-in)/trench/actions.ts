@@ -7,7 +7,7 @@ import { findCoilByCodeOrTrace } from "@/database/queries/coils";
 import { grantOverrideSchema, recordJointSchema } from "@/domain/joints/schemas";
 import { grantOverride } from "@/app/_server/joints/grant-override";
 import { recordJoint } from "@/app/_server/joints/record-joint";
-import { toTrenchCoil, type TrenchCoil } from "./_client/types";
+import { toTrenchCoil, type TrenchCoil } from "@/app/_server/trench/setup-types";
 
 /** Record a joint (the same use case as POST /api/v1/joints). */
 export const recordJointAction = defineAction({ audience: ["fuser"], schema: recordJointSchema }, async (input, ctx) => recordJoint(input, ctx));

@@ -5,7 +5,7 @@ import { db } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { insertCoil, type Coil } from "@/database/queries/coils";
 import { judgeReceiptInspection, traceCodeDisagreements } from "@/domain/coil-life/rules";
-import type { MoveCoil, ReceiveCoil } from "@/domain/coil-life/schemas";
+import type { ReceiveCoil } from "@/domain/coil-life/schemas";
 
 export type Actor = { user: { id: number }; requestId: string };
 

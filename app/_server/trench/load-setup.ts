@@ -9,7 +9,7 @@ import { listCoilsForTrench, listJoints, listJointsAwaitingRemake, listOverrides
 import { currentProcedureVersionForJob } from "@/database/queries/procedures";
 import { listQualificationFailuresForUser, listQualificationsForUser } from "@/database/queries/qualifications";
 import { listUsersWithRole, type UserRecord } from "@/database/queries/users";
-import { toTrenchCoil, type TrenchSetup } from "@/app/(signed-in)/trench/_client/types";
+import { toTrenchCoil, type TrenchSetup } from "./setup-types";
 
 export async function loadTrenchSetup(user: UserRecord, now = new Date()): Promise<TrenchSetup> {
   const jobs = await listOpenJobsForFuser({ userId: user.id });

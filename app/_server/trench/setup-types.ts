@@ -1,5 +1,7 @@
 // Plain, serialisable data the Trench page hands to its client components (and that the
 // device keeps in its draft for offline use). Dates are ISO strings; values canonical SI.
+// Client code imports these as types only (erased in the bundle).
+import "server-only";
 import type { Coil } from "@/database/queries/coils";
 import type { ProcedureDefinition } from "@/domain/fusion/procedures";
 import type { CoilStatus } from "@/domain/joints/rules";

@@ -7,7 +7,7 @@ import { del, get, set } from "idb-keyval";
 import type { PhaseTiming } from "@/domain/joints/timer";
 import type { RecordJointFormInput, RecordJointRawInput, TimedPhase } from "@/domain/joints/schemas";
 import type { RecordedJoint } from "@/app/_server/joints/record-joint";
-import type { TrenchCoil } from "./types";
+import type { TrenchCoil } from "@/app/_server/trench/setup-types";
 
 export const KEY_PREFIX = "beadline.trench.";
 export const draftKey = (userId: number) => `${KEY_PREFIX}draft.${userId}`;

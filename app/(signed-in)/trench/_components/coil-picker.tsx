@@ -7,7 +7,7 @@ import { Button } from "@/components/ui/button";
 import { formatQuantity, type UnitSystem } from "@/domain/units/format";
 import { lookupCoilAction } from "../actions";
 import { findLocalCoil } from "../_client/find-coil";
-import type { TrenchCoil } from "../_client/types";
+import type { TrenchCoil } from "@/app/_server/trench/setup-types";
 import { CameraScanner } from "@/components/ui/camera-scanner";
 
 const STATUS_WORDS: Record<TrenchCoil["status"], string> = { "in-yard": "in the yard", "on-trailer": "on a trailer", "in-use": "in use", "used-up": "used up", quarantined: "quarantined" };

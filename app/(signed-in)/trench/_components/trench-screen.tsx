@@ -21,7 +21,7 @@ import { phaseLimits, timedDurationS, type PhaseTiming } from "@/domain/joints/t
 import { qualificationStatus } from "@/domain/qualifications/status";
 import { clearDraft, emptyTimers, loadDraft, loadRemembered, saveDraft, saveRemembered, type OutboxEntry, type PhotoRef, type Remembered } from "../_client/device-store";
 import { findLocalCoil } from "../_client/find-coil";
-import type { TrenchCoil, TrenchSetup } from "../_client/types";
+import type { TrenchCoil, TrenchSetup } from "@/app/_server/trench/setup-types";
 import { useOutbox } from "../_client/use-outbox";
 import { BlocksPanel } from "./blocks-panel";
 import { CoilPicker } from "./coil-picker";
