@@ -77,7 +77,7 @@ describe("Crew actions: people", () => {
     const other = await makeUser({ roles: ["admin"] });
     const a = (await findUserById({ id: admin.id }))!;
     const b = (await findUserById({ id: other.id }))!;
-    const { updatePersonAccess } = await import("@/app/_server/crew/people");
+    const { updatePersonAccess } = await import("@/app/_server/crew/update-person-access");
     const results = await Promise.allSettled([
       updatePersonAccess({ id: b.id, version: b.version, roles: ["admin"], isActive: false, crewId: null }, { user: a, requestId: "a" }),
       updatePersonAccess({ id: a.id, version: a.version, roles: ["admin"], isActive: false, crewId: null }, { user: b, requestId: "b" }),
