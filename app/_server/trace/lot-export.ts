@@ -2,7 +2,9 @@
 // both components) and one of the lot's coils. Built with exceljs.
 import "server-only";
 import ExcelJS from "exceljs";
-import type { traceLot } from "@/database/queries/trace";
+import { insertAuditEntry } from "@/database/queries/audit-log";
+import { traceLot } from "@/database/queries/trace";
+import type { TraceSearch } from "@/domain/coil-life/schemas";
 
 type Trace = Awaited<ReturnType<typeof traceLot>>;
 
@@ -71,4 +73,16 @@ export async function traceWorkbook(trace: Trace): Promise<Buffer> {
   }
   const out = await book.xlsx.writeBuffer();
   return Buffer.from(out as ArrayBuffer);
+}
+
+/**
+ * The lot-trace export (GET /api/v1/trace/lot/export): the same search as the lot trace,
+ * as a workbook with its file name; the export is audited.
+ */
+export async function exportLotTrace(search: TraceSearch, { user, requestId }: { user: { id: number }; requestId: string }): Promise<{ body: Buffer; name: string }> {
+  const trace = await traceLot(search);
+  const body = await traceWorkbook(trace);
+  await insertAuditEntry({ actorUserId: user.id, action: "trace-exported", entityType: "lot", entityId: trace.lots.map((l) => l.lot).join(",").slice(0, 64) || null, details: { search, joints: trace.joints.length, coils: trace.coils.length }, requestId });
+  const name = `trace-${(trace.lots.map((l) => l.lot).join("-") || "none").replace(/[^A-Za-z0-9-]+/g, "-").slice(0, 60)}.xlsx`;
+  return { body, name };
 }
