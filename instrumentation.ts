@@ -11,6 +11,6 @@ export async function register(): Promise<void> {
     process.exit(1);
   }
   if (process.env.MAIL_WORKER === "off") return;
-  const [{ startMailWorker }, { logger }] = await Promise.all([import("./database/mail/worker"), import("./app/_lib/log")]);
+  const [{ startMailWorker }, { logger }] = await Promise.all([import("./app/_server/mail/worker"), import("./app/_lib/log")]);
   startMailWorker({ log: logger.child({ part: "mail-worker" }) });
 }

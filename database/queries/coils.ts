@@ -1,11 +1,11 @@
 // Coils: receipt, status, length remaining and the event history of each coil. Lengths in
 // m (DECIMAL(9,2) in the table), diameters in mm. The trench's record-joint transaction
-// calls drawDownCoil for each coil a joint lays pipe from.
+// writes a pull (writeCoilPull) for each coil a joint lays pipe from.
 import type { Knex } from "knex";
-import { planPull, readScannedCoilText, type CoilStatus, type DamageKind, type TraceCodeFlag } from "@/domain/coil-life/rules";
+import { resolveScannedCoil } from "@/domain/coils/scanned-coil";
+import { readScannedCoilText, type CoilStatus, type DamageKind, type PullPlan, type TraceCodeFlag } from "@/domain/coil-life/rules";
 import type { PipeSeries } from "@/domain/pipe/catalogue";
 import { AppError } from "@/domain/result";
-import type { UnitSystem } from "@/domain/units/format";
 import { conn, type Db } from "../client";
 import { num } from "./rows";
 import { insertAuditEntry } from "./audit-log";
@@ -152,28 +152,20 @@ export async function listCoilsByTraceCode({ traceCode }: { traceCode: string },
   return rows.map(toCoil);
 }
 
-const STATUS_PREFERENCE: Record<CoilStatus, number> = { "in-use": 0, "on-trailer": 1, "in-yard": 2, "used-up": 3, quarantined: 4 };
-
 /**
  * The coil a scanned or typed text names: our coil id, a URL ending in /coils/<code> (the
- * label's QR), or an F2897 16-character code. A code shared by several coils of one lot
- * picks the coil most likely at the trench: the preferred crew's first, then in use, on a
- * trailer, in the yard (used-up and quarantined last, so the caller can refuse them by
- * status), then the lowest id. null when nothing matches.
+ * label's QR), or an F2897 16-character code. Reads the coils the text could name and lets
+ * the domain's resolver pick (domain/coils/scanned-coil.ts: the same preference order the
+ * Trench screen applies on the device). null when nothing matches.
  */
 export async function findCoilByCodeOrTrace({ code, preferCrewId }: { code: string; preferCrewId?: number | null }, trx?: Db): Promise<Coil | null> {
   const scanned = readScannedCoilText(code);
   if (scanned.kind === "empty") return null;
   const byCode = await findCoilByCode({ coilCode: scanned.code }, trx);
-  if (byCode || scanned.kind === "coil-code") return byCode;
-  const candidates = await listCoilsByTraceCode({ traceCode: scanned.code }, trx);
-  candidates.sort(
-    (a, b) =>
-      Number(preferCrewId != null && b.crewId === preferCrewId) - Number(preferCrewId != null && a.crewId === preferCrewId) ||
-      STATUS_PREFERENCE[a.status] - STATUS_PREFERENCE[b.status] ||
-      a.id - b.id,
-  );
-  return candidates[0] ?? null;
+  const candidates = byCode || scanned.kind === "coil-code" ? [] : await listCoilsByTraceCode({ traceCode: scanned.code }, trx);
+  const coils = [...(byCode ? [byCode] : []), ...candidates];
+  const picked = resolveScannedCoil(code, coils.map((c) => ({ id: c.id, code: c.coilCode, traceCode: c.traceCode, status: c.status, crewId: c.crewId })), { preferCrewId });
+  return coils.find((c) => c.id === picked?.id) ?? null;
 }
 
 export type CoilListFilter = { status?: CoilStatus | "all"; search?: string; limit?: number };
@@ -345,52 +337,38 @@ export async function updateCoilStatus(
 export type DrawDownResult = { coilId: number; coilCode: string; pulledM: number; remainingM: number; status: CoilStatus; fromStatus: CoilStatus };
 
 /**
- * Draws a pull recorded at the trench off a coil, inside the caller's transaction: locks
- * the coil row FOR UPDATE, refuses a pull that is not positive, longer than what is left
- * ("LV-C0001 has only 12.00 m left; the pull of 20.00 m is longer"), or from a quarantined or
- * used-up coil — AppError("invalid", message, { [field]: [message] }), `field` defaulting
- * to "pullM" — then subtracts (never below 0), sets the coil in use (used up at 0), takes
- * the joint's job when the coil had none, and writes a coil_events row with the pull, the
- * length left and the joint. The audit entry is the caller's (the joint record).
+ * Writes a pull already judged by planPull (domain/coil-life/rules) off a coil locked FOR
+ * UPDATE in the caller's transaction: the length left, the status (in use, used up at 0),
+ * the joint's job when the coil had none, and a coil_events row with the pull, the length
+ * left and the joint. The refusals and their words are the caller's
+ * (app/_server/coils/draw-down-coil.ts); so is the audit entry (the joint record).
  */
-export async function drawDownCoil(
-  {
-    coilId,
-    pullM,
-    jointId,
-    userId,
-    jobId,
-    field = "pullM",
-    unitSystem = "si",
-  }: { coilId: number; pullM: number; jointId?: number | null; userId: number; jobId?: number | null; field?: string; unitSystem?: UnitSystem },
+export async function writeCoilPull(
+  { coil, pull, pullM, jointId, userId, jobId }: { coil: Coil; pull: Extract<PullPlan, { ok: true }>; pullM: number; jointId?: number | null; userId: number; jobId?: number | null },
   trx: Knex.Transaction,
 ): Promise<DrawDownResult> {
-  const coil = await lockCoil({ id: coilId }, trx);
-  if (!coil) throw new AppError("invalid", `Coil ${coilId} is not on file.`, { [field]: [`Coil ${coilId} is not on file.`] });
-  const plan = planPull(coil, pullM, unitSystem);
-  if (!plan.ok) throw new AppError("invalid", plan.message, { [field]: [plan.message] });
   let useJobId = jobId ?? null;
   if (useJobId == null && jointId != null) {
     const joint = (await trx("joints").select("job_id").where("id", jointId).first()) as { job_id: number } | undefined;
     useJobId = joint ? Number(joint.job_id) : null;
   }
-  const patch: Record<string, unknown> = { remaining_m: plan.remainingM, status: plan.status, version: coil.version + 1 };
+  const patch: Record<string, unknown> = { remaining_m: pull.remainingM, status: pull.status, version: coil.version + 1 };
   if (coil.jobId == null && useJobId != null) patch.job_id = useJobId;
-  patch.status_reason = plan.isUsedUp ? "All of the coil has been laid" : null;
+  patch.status_reason = pull.isUsedUp ? "All of the coil has been laid" : null;
   await trx("coils").where({ id: coil.id }).update(patch);
   await trx("coil_events").insert({
     coil_id: coil.id,
     by_user_id: userId,
     from_status: coil.status,
-    to_status: plan.status,
+    to_status: pull.status,
     reason: jointId != null ? `Pulled ${pullM.toFixed(2)} m for joint ${jointId}` : `Pulled ${pullM.toFixed(2)} m`,
     job_id: useJobId ?? coil.jobId,
     crew_id: coil.crewId,
     pull_m: Math.round(pullM * 100) / 100,
-    remaining_m: plan.remainingM,
+    remaining_m: pull.remainingM,
     joint_id: jointId ?? null,
   });
-  return { coilId: coil.id, coilCode: coil.coilCode, pulledM: Math.round(pullM * 100) / 100, remainingM: plan.remainingM, status: plan.status, fromStatus: coil.status };
+  return { coilId: coil.id, coilCode: coil.coilCode, pulledM: Math.round(pullM * 100) / 100, remainingM: pull.remainingM, status: pull.status, fromStatus: coil.status };
 }
 
 export type CoilEvent = {

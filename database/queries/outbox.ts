@@ -1,6 +1,6 @@
 // The mail outbox: every e-mail Beadline sends is first a row here, written in the same
 // transaction as the change that caused it, so a mail is never lost and never blocks the
-// change. A sender (database/mail/sender.ts) claims due rows with
+// change. The texts are composed in app/_server/mail/. A sender (app/_server/mail/send-due-mails.ts) claims due rows with
 // SELECT … FOR UPDATE SKIP LOCKED, so several app instances never send one mail twice.
 // People with daily digest on get their events folded into one mail a day instead
 // (mail_digest_items, see migration 20261202000700).
@@ -59,11 +59,6 @@ function toMail(row: OutboxRow): OutboxMail {
 }
 
 const clip = (text: string, max: number) => (text.length > max ? text.slice(0, max - 1) + "…" : text);
-
-/** Public address of the app for links in mail (BEADLINE_PUBLIC_URL), without a trailing slash. */
-export function publicUrl(): string {
-  return (process.env.BEADLINE_PUBLIC_URL || "http://127.0.0.1:3000").replace(/\/+$/, "");
-}
 
 export type EnqueueMailInput = { to: string; subject: string; bodyText: string; kind: string; dedupeKey?: string | null };
 
@@ -129,14 +124,40 @@ async function activeUsersWithRole(role: string, k: Db): Promise<Recipient[]> {
   return rows.map((r) => ({ id: r.id, email: r.email, dailyDigest: Boolean(r.daily_digest) }));
 }
 
-/**
- * Alert for an out-of-limits joint: one mail to each active inspector (except the fuser
- * who made it, who may not review it), dedupe key `joint-alert:<jointId>:<inspectorId>`.
- * A joint within limits sends nothing. Call it inside the transaction that records the
- * joint: the mail is queued with the joint, and sending happens later, so a mail server
- * that is down never blocks recording.
- */
-export async function enqueueJointAlert({ jointId }: { jointId: number }, trx?: Db): Promise<{ queued: number }> {
+/** Active inspectors as recipients (alerts on out-of-limits joints). */
+export async function listAlertInspectors(_: Record<string, never> = {}, trx?: Db): Promise<Recipient[]> {
+  return activeUsersWithRole("inspector", conn(trx));
+}
+
+/** What an out-of-limits alert tells about a joint; findings are the recorded ones, then the latest pressure trace's. */
+export type JointAlertFacts = {
+  id: number;
+  jointNo: number;
+  /** The joint's outcome now: the projection's when it exists (a trace may have changed it), else the recorded one. */
+  outcome: string;
+  madeAt: Date;
+  station: string | null;
+  fuserId: number;
+  fuserName: string;
+  outsideDiameterMm: number;
+  sdr: number;
+  jobCode: string;
+  jobName: string;
+  machineTag: string | null;
+  findingMessages: (string | null)[];
+  traceFindingMessages: (string | null)[];
+};
+
+function parseFindings(text: string | null | undefined): (string | null)[] {
+  try {
+    return (JSON.parse(text ?? "") as { message?: string }[]).map((f) => f.message ?? null);
+  } catch {
+    return [];
+  }
+}
+
+/** The facts an out-of-limits alert needs; null when the joint does not exist. Inside the recording transaction the projection row may not exist yet. */
+export async function findJointAlertFacts({ jointId }: { jointId: number }, trx?: Db): Promise<JointAlertFacts | null> {
   const k = conn(trx);
   const joint = (await k("joints as j")
     .join("jobs", "jobs.id", "j.job_id")
@@ -177,79 +198,41 @@ export async function enqueueJointAlert({ jointId }: { jointId: number }, trx?: 
         machine_tag: string | null;
       }
     | undefined;
-  // Out of limits when recorded, or since (a pressure trace found it); the projection row
-  // may not exist yet inside the recording transaction.
-  if (!joint || (joint.state_outcome ?? joint.outcome) !== "out-of-limits") return { queued: 0 };
-  let findings: { message?: string }[] = [];
-  try {
-    findings = JSON.parse(joint.findings) as { message?: string }[];
-  } catch {
-    findings = [];
-  }
+  if (!joint) return null;
   const trace = (await k("joint_traces").where({ joint_id: jointId }).orderBy("id", "desc").first("findings")) as { findings: string } | undefined;
-  if (trace) {
-    try {
-      findings = [...findings, ...(JSON.parse(trace.findings) as { message?: string }[]).map((f) => ({ message: `Pressure trace: ${f.message ?? ""}` }))];
-    } catch {
-      // a trace row without readable findings adds nothing
-    }
-  }
-  const label = `${joint.job_code} joint ${joint.joint_no}`;
-  const subject = `Out of limits: ${label} (${findings.length} ${findings.length === 1 ? "finding" : "findings"})`;
-  const bodyText = [
-    `${label} was recorded out of limits and waits for your review.`,
-    "",
-    `Job: ${joint.job_code} ${joint.job_name}`,
-    `Made: ${joint.made_at.toISOString().replace("T", " ").slice(0, 16)} UTC by ${joint.fuser_name}`,
-    `Pipe: OD ${joint.outside_diameter_mm} mm, SDR ${joint.sdr}${joint.machine_tag ? `, machine ${joint.machine_tag}` : ""}${joint.station ? `, station ${joint.station}` : ""}`,
-    "",
-    "Findings:",
-    ...findings.map((f) => `- ${f.message ?? "(no message)"}`),
-    "",
-    `Review it: ${publicUrl()}/review?joint=${joint.id}`,
-  ].join("\n");
-  let queued = 0;
-  for (const inspector of await activeUsersWithRole("inspector", k)) {
-    if (inspector.id === joint.fuser_id) continue;
-    const result = await enqueueUserEvent({ recipient: inspector, subject, bodyText, kind: "joint-out-of-limits", dedupeKey: `joint-alert:${joint.id}:${inspector.id}` }, k);
-    if (result.queued) queued += 1;
-  }
-  return { queued };
+  return {
+    id: joint.id,
+    jointNo: joint.joint_no,
+    outcome: joint.state_outcome ?? joint.outcome,
+    madeAt: joint.made_at,
+    station: joint.station,
+    fuserId: joint.fuser_id,
+    fuserName: joint.fuser_name,
+    outsideDiameterMm: joint.outside_diameter_mm,
+    sdr: joint.sdr,
+    jobCode: joint.job_code,
+    jobName: joint.job_name,
+    machineTag: joint.machine_tag,
+    findingMessages: parseFindings(joint.findings),
+    // a trace row without readable findings adds nothing
+    traceFindingMessages: trace ? parseFindings(trace.findings) : [],
+  };
 }
 
-/**
- * Tells the fuser their joint was cut out and must be remade (dedupe key
- * `joint-cut-out:<jointId>`). Call it in the decision's transaction.
- */
-export async function enqueueCutOutNotice({ jointId, reason, inspectorName }: { jointId: number; reason: string; inspectorName: string }, trx?: Db): Promise<{ queued: number }> {
-  const k = conn(trx);
-  const row = (await k("joints as j")
+/** The fuser of a joint as a recipient, with what a cut-out notice names; null when the joint is missing or its fuser inactive. */
+export async function findCutOutNoticeFacts(
+  { jointId }: { jointId: number },
+  trx?: Db,
+): Promise<{ id: number; jointNo: number; station: string | null; jobCode: string; jobName: string; fuser: Recipient } | null> {
+  const row = (await conn(trx)("joints as j")
     .join("jobs", "jobs.id", "j.job_id")
     .join("users as f", "f.id", "j.fuser_id")
     .where("j.id", jointId)
     .first("j.id", "j.joint_no", "j.station", "jobs.code as job_code", "jobs.name as job_name", "f.id as fuser_id", "f.email", "f.daily_digest", "f.is_active")) as
     | { id: number; joint_no: number; station: string | null; job_code: string; job_name: string; fuser_id: number; email: string; daily_digest: number; is_active: number }
     | undefined;
-  if (!row || !row.is_active) return { queued: 0 };
-  const label = `${row.job_code} joint ${row.joint_no}`;
-  const result = await enqueueUserEvent(
-    {
-      recipient: { id: row.fuser_id, email: row.email, dailyDigest: Boolean(row.daily_digest) },
-      subject: `Cut out: ${label} must be remade`,
-      bodyText: [
-        `${inspectorName} cut out ${label}${row.station ? ` at station ${row.station}` : ""} (${row.job_name}).`,
-        "",
-        `Reason: ${reason}`,
-        "",
-        "Remake the joint and record the remake as replacing this one on the Trench screen.",
-        `Details: ${publicUrl()}/review?joint=${row.id}`,
-      ].join("\n"),
-      kind: "joint-cut-out",
-      dedupeKey: `joint-cut-out:${row.id}`,
-    },
-    k,
-  );
-  return { queued: result.queued ? 1 : 0 };
+  if (!row || !row.is_active) return null;
+  return { id: row.id, jointNo: row.joint_no, station: row.station, jobCode: row.job_code, jobName: row.job_name, fuser: { id: row.fuser_id, email: row.email, dailyDigest: Boolean(row.daily_digest) } };
 }
 
 /** Active admins as recipients (qualification and heater alerts). */

@@ -7,15 +7,17 @@
 // remade, and the remake links to it. Deterministic for a given `today`; skipped when the
 // demo jobs already have joints.
 import type { Knex } from "knex";
+import { planPull } from "@/domain/coil-life/rules";
 import { checkJoint } from "@/domain/fusion/check";
 import { planButtFusion, type FusionPlan } from "@/domain/fusion/plan";
 import type { ProcedureDefinition } from "@/domain/fusion/procedures";
 import { allChecksPassed } from "@/domain/joints/values";
+import { buttFusionPlanInput } from "@/domain/joints/pre-record";
 import type { Shelter, TimedPhase } from "@/domain/joints/schemas";
 import { qualificationStatus } from "@/domain/qualifications/status";
 import { isoDaysFrom } from "@/fixtures/demo-scenario";
 import { insertAuditEntry } from "../queries/audit-log";
-import { drawDownCoil } from "../queries/coils";
+import { lockCoil, writeCoilPull } from "../queries/coils";
 import { insertJoint, insertJointRevision, insertJointState, markJointReplaced } from "../queries/joints";
 
 type Fault = "heater-cold" | "changeover-long" | "cooling-short" | "bead-small" | "pressure-low" | null;
@@ -118,7 +120,7 @@ export async function seed(knex: Knex, today = new Date()): Promise<void> {
     const q = qualificationStatus({ qualifiedOn: await qualifiedOn(fuserId, job.procedure_id), on: madeAt.toISOString().slice(0, 10) });
     if (!q.qualified) return null;
     const drag = Math.round((0.06 + (i % 4) * 0.01) * 1000) / 1000;
-    const plan = planButtFusion({ procedure: version.definition, outsideDiameterMm: a.od, sdr: a.sdr, pistonAreaMm2: Number(eq.machine.piston_area_mm2), dragPressureMpa: drag });
+    const plan = planButtFusion(buttFusionPlanInput({ procedure: version.definition, pipe: { outsideDiameterMm: a.od, sdr: a.sdr }, machine: { pistonAreaMm2: Number(eq.machine.piston_area_mm2) }, dragPressureMpa: drag }));
     const v = values(plan, i, replaces ? null : p.fault);
     const recorded = { ...v, dragPressureMpa: drag, beadUpGaugePressureMpa: null, ...allChecksPassed() };
     const check = checkJoint(plan, recorded, { system: "si" });
@@ -163,7 +165,10 @@ export async function seed(knex: Knex, today = new Date()): Promise<void> {
     await insertJointRevision({ jointId, revisionNo: 1, kind: "recorded", byUserId: fuserId, reviewState: "pending-review", changes: { outcome: check.outcome, timedFields: timed }, at: madeAt }, trx);
     await insertJointState({ jointId, reviewState: "pending-review", revisionNo: 1, outcome: check.outcome, madeAt }, trx);
     if (replaces) await markJointReplaced({ jointId: replaces.jointId, replacedByJointId: jointId }, trx);
-    await drawDownCoil({ coilId: a.id, pullM: lengthAM, jointId, userId: fuserId, jobId: job.id }, trx);
+    const coil = (await lockCoil({ id: a.id }, trx))!;
+    const pull = planPull(coil, lengthAM);
+    if (!pull.ok) throw new Error(`demo seed: ${pull.message}`);
+    await writeCoilPull({ coil, pull, pullM: lengthAM, jointId, userId: fuserId, jobId: job.id }, trx);
     await insertAuditEntry({ actorUserId: fuserId, action: "joint-recorded", entityType: "joint", entityId: jointId, details: { jobCode: p.job, jointNo, outcome: check.outcome, demo: true } }, trx);
     return { jointId, jointNo, outcome: check.outcome };
   };

@@ -4,3 +4,4 @@ export * from '@/domain/joints/schemas';
 export * from '@/domain/joints/rules';
 export * from '@/domain/joints/timer';
 export * from '@/domain/joints/values';
+export * from '@/domain/joints/pre-record';

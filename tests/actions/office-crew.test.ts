@@ -7,7 +7,7 @@ import { userFromSealedCookie } from "@/app/_lib/session";
 import { findAttachmentById } from "@/database/queries/attachments";
 import { listQualificationsForUser, qualificationStatusOverview } from "@/database/queries/qualifications";
 import { findUserById } from "@/database/queries/users";
-import { getObject } from "@/database/storage";
+import { getObject } from "@/app/_server/storage/object-store";
 import { ownerDb, resetDatabase } from "../support/db";
 import { actAs, sealedCookieFor } from "../support/session";
 import { makeUser, TEST_PASSWORD } from "../support/users";
@@ -77,7 +77,7 @@ describe("Crew actions: people", () => {
     const other = await makeUser({ roles: ["admin"] });
     const a = (await findUserById({ id: admin.id }))!;
     const b = (await findUserById({ id: other.id }))!;
-    const { updatePersonAccess } = await import("@/app/(signed-in)/crew/_lib/people");
+    const { updatePersonAccess } = await import("@/app/_server/crew/update-person-access");
     const results = await Promise.allSettled([
       updatePersonAccess({ id: b.id, version: b.version, roles: ["admin"], isActive: false, crewId: null }, { user: a, requestId: "a" }),
       updatePersonAccess({ id: a.id, version: a.version, roles: ["admin"], isActive: false, crewId: null }, { user: b, requestId: "b" }),

@@ -3,7 +3,7 @@
 // judged against the procedure's heater window (flagged until a passing check).
 import { beforeEach, describe, expect, it } from "vitest";
 import { createHeaterAction, createMachineAction, recordHeaterCheckAction, updateHeaterAction, updateMachineAction } from "@/app/(signed-in)/equipment/actions";
-import { recordHeaterCheck } from "@/app/(signed-in)/equipment/_lib/equipment";
+import { recordHeaterCheck } from "@/app/_server/equipment/record-heater-check";
 import { findHeaterWithLastCheck, findMachineById, listHeatersNeedingCheck, listMachinesWithoutPistonArea } from "@/database/queries/equipment";
 import { ownerDb, resetDatabase } from "../support/db";
 import { actAs } from "../support/session";

@@ -5,7 +5,7 @@
 import { beforeEach, describe, expect, it } from "vitest";
 import { decideJointAction } from "@/app/(signed-in)/review/actions";
 import { POST as decisionPost } from "@/app/api/v1/review/joints/[id]/decision/route";
-import { decideJoint } from "@/app/(signed-in)/review/_lib/decide-joint";
+import { decideJoint } from "@/app/_server/review/decide-joint";
 import { findUserById } from "@/database/queries/users";
 import { makeReviewBase, makeReviewJoint, type ReviewBase } from "@/fixtures/review-joints";
 import { actAs, requestAs } from "../support/session";

@@ -6,7 +6,7 @@ import { beforeEach, describe, expect, it } from "vitest";
 import { POST as tracePost } from "@/app/api/v1/traces/route";
 import { GET as traceGet } from "@/app/api/v1/review/joints/[id]/trace/route";
 import { GET as queueGet } from "@/app/api/v1/review/queue/route";
-import { getObject } from "@/database/storage";
+import { getObject } from "@/app/_server/storage/object-store";
 import { pressureTraceToCsv } from "@/domain/pressure-trace/parse";
 import { synthesizePressureTrace, type SyntheticTraceInput } from "@/domain/pressure-trace/synthesize";
 import { makeReviewBase, makeReviewJoint, type MadeJoint, type ReviewBase } from "@/fixtures/review-joints";

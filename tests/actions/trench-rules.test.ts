@@ -5,8 +5,8 @@
 import QRCode from "qrcode";
 import { BinaryBitmap, HybridBinarizer, QRCodeReader, RGBLuminanceSource } from "@zxing/library";
 import { describe, expect, it } from "vitest";
-import { findLocalCoil } from "@/app/(signed-in)/trench/_lib/find-coil";
-import type { TrenchCoil } from "@/app/(signed-in)/trench/_lib/types";
+import { findLocalCoil } from "@/app/(signed-in)/trench/_client/find-coil";
+import type { TrenchCoil } from "@/app/_server/trench/setup-types";
 import { planButtFusion } from "@/domain/fusion/plan";
 import { applyOverrides, blockReasons, componentMismatch, madeAtProblem, OVERRIDE_LOOKBACK_MS } from "@/domain/joints/rules";
 import { recordJointFormSchema } from "@/domain/joints/schemas";
@@ -142,8 +142,8 @@ describe("coil label scanning", () => {
   // PE4710 (Table 4 "H"), coiled pipe (Table 5 "12"), 2" IPS SDR 11 size factor 38 (Table 6).
   const trace = buildTraceCode({ manufacturer: "QF", lot: "4410021", productionDate: "2026-08-14", material: "PE4710", componentType: "12", sizeFactors: [38, 0] });
   const coils: TrenchCoil[] = [
-    { id: 1, code: "LV-C0001", traceCode: null, manufacturer: "Quillfield Polymers", lot: "4410021", material: "PE4710", series: "ips", nominalSize: "2", outsideDiameterMm: TWO_IN, sdr: 11, remainingM: 152.4, status: "in-use", statusReason: null },
-    { id: 2, code: "LV-C0002", traceCode: trace, manufacturer: "Quillfield Polymers", lot: "4410021", material: "PE4710", series: "ips", nominalSize: "2", outsideDiameterMm: TWO_IN, sdr: 11, remainingM: 152.4, status: "in-use", statusReason: null },
+    { id: 1, code: "LV-C0001", traceCode: null, manufacturer: "Quillfield Polymers", lot: "4410021", material: "PE4710", series: "ips", nominalSize: "2", outsideDiameterMm: TWO_IN, sdr: 11, remainingM: 152.4, status: "in-use", statusReason: null, crewId: null },
+    { id: 2, code: "LV-C0002", traceCode: trace, manufacturer: "Quillfield Polymers", lot: "4410021", material: "PE4710", series: "ips", nominalSize: "2", outsideDiameterMm: TWO_IN, sdr: 11, remainingM: 152.4, status: "in-use", statusReason: null, crewId: null },
   ];
 
   async function decodeQr(text: string): Promise<string> {

@@ -8,6 +8,7 @@
 // JSON under tests/bench/results/. Not part of `npm test`.
 //
 // Flags: --joints <n> (default 1,000,000)  --skip-build (reuse .next-bench)  --keep (leave the stack up, print its env)
+import "../support/server-only-outside-next";
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { randomUUID } from "node:crypto";
 import { existsSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from "node:fs";
@@ -258,7 +259,7 @@ async function measureTrace(baseUrl: string, cookie: string, data: SyntheticRegi
 
 async function measureExport(baseUrl: string, cookie: string, data: SyntheticRegister, serverPid: number, owner: Knex): Promise<void> {
   const { iterateRegisterRows } = await import("../../database/queries/register");
-  const { writeRegisterXlsx } = await import("../../app/api/v1/exports/_lib/register-files");
+  const { writeRegisterXlsx } = await import("../../app/_server/register/export-files");
   const { findProcedureVersionById } = await import("../../database/queries/procedures");
   const filter = { machine: data.exportMachineId };
   const params = new URLSearchParams({ format: "xlsx", machine: String(data.exportMachineId) });

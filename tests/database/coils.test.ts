@@ -2,9 +2,11 @@
 // trench draw-down (locked, never negative, a pull longer than what is left refused and
 // nothing written), receiving with the inspection verdict, and status moves.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { moveCoil, receiveCoil } from "@/app/(signed-in)/coils/_lib/use-cases";
+import { moveCoil } from "@/app/_server/coils/move-coil";
+import { receiveCoil } from "@/app/_server/coils/receive-coil";
 import { closeDb, db } from "@/database/client";
-import { drawDownCoil, findCoilByCode, findCoilByCodeOrTrace, findCoilById, listCoilEvents } from "@/database/queries/coils";
+import { drawDownCoil } from "@/app/_server/coils/draw-down-coil";
+import { findCoilByCode, findCoilByCodeOrTrace, findCoilById, listCoilEvents } from "@/database/queries/coils";
 import { receiveCoilSchema } from "@/domain/coil-life/schemas";
 import { AppError } from "@/domain/result";
 import { seed as seedScenario } from "@/database/seeds/01-demo";

@@ -5,7 +5,7 @@
 // fuser's qualification on that day and the procedure version. Joints are inserted
 // directly with the owner connection (the trench's own tests cover recording them).
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { traceJointOrigins } from "@/app/(signed-in)/trace/_lib/origins";
+import { traceJointOrigins } from "@/app/_server/trace/origins";
 import { closeDb } from "@/database/client";
 import { findJointIdByReference, findLotCoils, listJointsForCoils, traceLot } from "@/database/queries/trace";
 import { seed as seedScenario } from "@/database/seeds/01-demo";

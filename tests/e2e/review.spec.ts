@@ -2,10 +2,11 @@
 // shrinks; a joint recorded meanwhile appears without a reload; the alert mail for an
 // out-of-limits joint reaches the development mailbox. Joints are written straight into
 // the test database with the fixture builder (the way the trench records them).
+import "../support/server-only-outside-next";
 import { expect, test } from "@playwright/test";
 import type { Knex } from "knex";
 import { ownerKnex } from "@/database/migrate";
-import { enqueueJointAlert } from "@/database/queries/outbox";
+import { enqueueJointAlert } from "@/app/_server/mail/joint-alert";
 import { makeReviewJoint, type FaultName, type ReviewBase } from "@/fixtures/review-joints";
 import { MailboxPage, ReviewPage } from "./pages/review-page";
 import { SignInPage } from "./pages/sign-in-page";

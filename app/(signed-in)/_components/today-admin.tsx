@@ -3,7 +3,7 @@
 import Link from "next/link";
 import { listHeatersNeedingCheck, listMachinesWithoutPistonArea } from "@/database/queries/equipment";
 import { qualificationStatusOverview } from "@/database/queries/qualifications";
-import { QualificationBadge } from "../crew/_components/qualification-badge";
+import { QualificationBadge } from "@/components/qualifications/qualification-badge";
 import { TodayPanel } from "./today-panel";
 
 export async function TodayAdmin({ now }: { now: Date }) {

@@ -1,7 +1,7 @@
 // Today for a fuser: their open jobs, their drafts on this device, their qualification status.
 import { listOpenJobsForFuser } from "@/database/queries/jobs";
 import { qualificationStatusOverview } from "@/database/queries/qualifications";
-import { QualificationBadge } from "../crew/_components/qualification-badge";
+import { QualificationBadge } from "@/components/qualifications/qualification-badge";
 import { TodayDrafts } from "./today-drafts";
 import { TodayPanel } from "./today-panel";
 

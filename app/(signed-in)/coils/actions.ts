@@ -4,7 +4,8 @@
 import { revalidatePath } from "next/cache";
 import { defineAction } from "@/app/_lib/guard";
 import { moveCoilSchema, receiveCoilSchema } from "@/domain/coil-life/schemas";
-import { moveCoil, receiveCoil } from "./_lib/use-cases";
+import { moveCoil } from "@/app/_server/coils/move-coil";
+import { receiveCoil } from "@/app/_server/coils/receive-coil";
 
 export const receiveCoilAction = defineAction({ permission: "receiveCoils", schema: receiveCoilSchema }, async (input, ctx) => {
   const received = await receiveCoil(input, ctx);

@@ -4,7 +4,7 @@ import { countCoilsByStatus, listCoils } from "@/database/queries/coils";
 import { COIL_STATUSES, COIL_STATUS_LABELS, type CoilStatus } from "@/domain/coil-life/rules";
 import { describeSize } from "@/domain/labels/label";
 import { formatQuantity } from "@/domain/units/format";
-import { CoilStatusBadge } from "./_components/coil-status-badge";
+import { CoilStatusBadge } from "@/components/coils/coil-status-badge";
 
 export const dynamic = "force-dynamic";
 

@@ -5,8 +5,11 @@ import { z } from "zod";
 import { defineAction } from "@/app/_lib/guard";
 import { addPersonSchema, resetPasswordSchema, updatePersonSchema } from "@/domain/crew/schemas";
 import { recordQualificationFailureSchema, recordQualificationSchema } from "@/domain/office/schemas";
-import { addPerson, resetPassword, updatePersonAccess } from "./_lib/people";
-import { recordQualification, recordQualificationFailure } from "./_lib/qualifications";
+import { addPerson } from "@/app/_server/crew/add-person";
+import { resetPassword } from "@/app/_server/crew/reset-password";
+import { updatePersonAccess } from "@/app/_server/crew/update-person-access";
+import { recordQualification } from "@/app/_server/crew/record-qualification";
+import { recordQualificationFailure } from "@/app/_server/crew/record-qualification-failure";
 
 const done = <T>(value: T): T => {
   revalidatePath("/crew");

@@ -4,7 +4,7 @@ import { qualificationStatusOverview } from "@/database/queries/qualifications";
 import { listCrews, listUsers } from "@/database/queries/users";
 import { ROLE_LABELS } from "@/domain/roles";
 import { AddPersonForm } from "./_components/add-person-form";
-import { QualificationBadge } from "./_components/qualification-badge";
+import { QualificationBadge } from "@/components/qualifications/qualification-badge";
 
 export const dynamic = "force-dynamic";
 

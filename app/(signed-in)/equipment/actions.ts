@@ -3,7 +3,11 @@
 import { revalidatePath } from "next/cache";
 import { defineAction } from "@/app/_lib/guard";
 import { createHeaterSchema, createMachineSchema, recordHeaterCheckSchema, updateHeaterSchema, updateMachineSchema } from "@/domain/office/schemas";
-import { createHeater, createMachine, editHeater, editMachine, recordHeaterCheck } from "./_lib/equipment";
+import { createHeater } from "@/app/_server/equipment/create-heater";
+import { createMachine } from "@/app/_server/equipment/create-machine";
+import { editHeater } from "@/app/_server/equipment/edit-heater";
+import { editMachine } from "@/app/_server/equipment/edit-machine";
+import { recordHeaterCheck } from "@/app/_server/equipment/record-heater-check";
 
 const done = <T>(value: T): T => {
   revalidatePath("/equipment");

@@ -3,7 +3,9 @@
 import { revalidatePath } from "next/cache";
 import { defineAction } from "@/app/_lib/guard";
 import { createJobSchema, setJobStatusSchema, updateJobSchema } from "@/domain/office/schemas";
-import { createJob, editJob, setJobStatus } from "./_lib/jobs";
+import { createJob } from "@/app/_server/jobs/create-job";
+import { editJob } from "@/app/_server/jobs/edit-job";
+import { setJobStatus } from "@/app/_server/jobs/set-job-status";
 
 export const createJobAction = defineAction({ permission: "manageJobs", schema: createJobSchema }, async (input, ctx) => {
   const result = await createJob(input, ctx);

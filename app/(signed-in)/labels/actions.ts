@@ -3,7 +3,7 @@
 import { revalidatePath } from "next/cache";
 import { defineAction } from "@/app/_lib/guard";
 import { markLabelsPrintedSchema } from "@/domain/coil-life/schemas";
-import { markLabelsPrinted } from "../coils/_lib/use-cases";
+import { markLabelsPrinted } from "@/app/_server/coils/mark-labels-printed";
 
 export const markLabelsPrintedAction = defineAction({ permission: "printLabels", schema: markLabelsPrintedSchema }, async (input, ctx) => {
   const count = await markLabelsPrinted(input.coilIds, "print", ctx);

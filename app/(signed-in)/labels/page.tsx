@@ -6,8 +6,8 @@ import { findCoilById, type Coil } from "@/database/queries/coils";
 import { findJointLabelFacts } from "@/database/queries/trace";
 import { can } from "@/domain/roles";
 import { LABEL_STOCKS, SHEETS, SHEET_IDS, layoutSheet, placeLabels, type SheetId } from "@/domain/labels/sheets";
-import { publicBaseUrl } from "./_lib/base-url";
-import { coilLabelSvg, jointLabelSvg, stockOrDefault } from "./_lib/render";
+import { publicBaseUrl } from "@/app/_server/labels/base-url";
+import { coilLabelSvg, jointLabelSvg, stockOrDefault } from "@/app/_server/labels/render";
 import { PrintLabelsButton } from "./_components/print-button";
 
 export const dynamic = "force-dynamic";

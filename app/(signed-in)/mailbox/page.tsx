@@ -3,7 +3,7 @@ import { listDevMail, spoolDir } from "@/database/queries/dev-mailbox";
 import { countOutboxByStatus, listOutbox, type MailStatus, type OutboxMail } from "@/database/queries/outbox";
 import { mailKindLabel } from "@/domain/review/digest";
 import { RetryButton } from "./_components/retry-button";
-import { MailPreference } from "./_components/mail-preference";
+import { MailPreference } from "../_components/mail-preference";
 
 export const dynamic = "force-dynamic";
 

@@ -3,7 +3,9 @@
 import { revalidatePath } from "next/cache";
 import { defineAction } from "@/app/_lib/guard";
 import { createProcedureSchema, editVersionNotesSchema, tightenProcedureSchema } from "@/domain/office/schemas";
-import { createProcedure, editVersionNotes, publishTightenedVersion } from "./_lib/procedures";
+import { createProcedure } from "@/app/_server/procedures/create-procedure";
+import { editVersionNotes } from "@/app/_server/procedures/edit-version-notes";
+import { publishTightenedVersion } from "@/app/_server/procedures/publish-tightened-version";
 
 const done = <T>(value: T): T => {
   revalidatePath("/procedures");

@@ -4,7 +4,7 @@
 import { revalidatePath } from "next/cache";
 import { defineAction } from "@/app/_lib/guard";
 import { decideJointSchema } from "@/domain/review/schemas";
-import { decideJoint } from "./_lib/decide-joint";
+import { decideJoint } from "@/app/_server/review/decide-joint";
 
 export const decideJointAction = defineAction({ permission: "decideJoint", schema: decideJointSchema }, async (input, { user, requestId }) => {
   const result = await decideJoint(input, { user, requestId });

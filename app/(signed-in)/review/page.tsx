@@ -3,8 +3,8 @@ import { listQueueFilterOptions, listReviewQueue } from "@/database/queries/revi
 import { reviewQueueFilterSchema } from "@/domain/review/schemas";
 import { PARAMETER_LABELS } from "@/domain/review/labels";
 import { ReviewQueue } from "./_components/review-queue";
-import { toQueueItemView } from "./_lib/view";
-import { MailPreference } from "../mailbox/_components/mail-preference";
+import { toQueueItemView } from "@/app/_server/review/queue-item-view";
+import { MailPreference } from "../_components/mail-preference";
 
 export const dynamic = "force-dynamic";
 

@@ -6,7 +6,7 @@ import { traceSearchSchema } from "@/domain/coil-life/schemas";
 import { describeSize } from "@/domain/labels/label";
 import { fieldErrorsFromIssues } from "@/domain/result";
 import { formatQuantity } from "@/domain/units/format";
-import { CoilStatusBadge } from "../coils/_components/coil-status-badge";
+import { CoilStatusBadge } from "@/components/coils/coil-status-badge";
 import { RunSchematic } from "./_components/run-schematic";
 
 export const dynamic = "force-dynamic";

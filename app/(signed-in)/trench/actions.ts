@@ -5,9 +5,9 @@ import { z } from "zod";
 import { defineAction } from "@/app/_lib/guard";
 import { findCoilByCodeOrTrace } from "@/database/queries/coils";
 import { grantOverrideSchema, recordJointSchema } from "@/domain/joints/schemas";
-import { grantOverride } from "./_lib/overrides";
-import { recordJoint } from "./_lib/record-joint";
-import { toTrenchCoil, type TrenchCoil } from "./_lib/types";
+import { grantOverride } from "@/app/_server/joints/grant-override";
+import { recordJoint } from "@/app/_server/joints/record-joint";
+import { toTrenchCoil, type TrenchCoil } from "@/app/_server/trench/setup-types";
 
 /** Record a joint (the same use case as POST /api/v1/joints). */
 export const recordJointAction = defineAction({ permission: "recordJoint", schema: recordJointSchema }, async (input, ctx) => recordJoint(input, ctx));

@@ -2,7 +2,7 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { Cautions } from "@/components/ui/caution";
 import { requireUser } from "@/app/_lib/page-guard";
-import { loadTrenchSetup } from "./_lib/load-setup";
+import { loadTrenchSetup } from "@/app/_server/trench/load-setup";
 import { TrenchScreen } from "./_components/trench-screen";
 
 export const metadata: Metadata = { title: "Trench · Beadline" };

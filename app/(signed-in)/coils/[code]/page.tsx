@@ -10,9 +10,9 @@ import { describeSize } from "@/domain/labels/label";
 import { bendRatio, minimumBendRadiusMm } from "@/domain/pipe/bending";
 import { can } from "@/domain/roles";
 import { formatQuantity } from "@/domain/units/format";
-import { publicBaseUrl } from "../../labels/_lib/base-url";
-import { coilLabelSvg, stockOrDefault } from "../../labels/_lib/render";
-import { CoilStatusBadge } from "../_components/coil-status-badge";
+import { publicBaseUrl } from "@/app/_server/labels/base-url";
+import { coilLabelSvg, stockOrDefault } from "@/app/_server/labels/render";
+import { CoilStatusBadge } from "@/components/coils/coil-status-badge";
 import { MoveCoilForm } from "../_components/move-coil-form";
 import { NextRunCheck } from "../_components/next-run-check";
 

@@ -9,7 +9,7 @@ import { QUALIFICATION_METHOD_LABELS } from "@/domain/office/schemas";
 import { ROLE_LABELS } from "@/domain/roles";
 import { FailureForm } from "../_components/failure-form";
 import { PersonAccessForm } from "../_components/person-access-form";
-import { QualificationBadge } from "../_components/qualification-badge";
+import { QualificationBadge } from "@/components/qualifications/qualification-badge";
 import { QualificationForm } from "../_components/qualification-form";
 import { ResetPasswordForm } from "../_components/reset-password-form";
 

@@ -7,8 +7,8 @@ import { findJointById, listJointRevisions, listOverrideUsesForJoint, type Joint
 import { JOINT_KIND_LABELS, SHELTER_LABELS, type TimedPhase } from "@/domain/joints/schemas";
 import { RECORDED_VALUE_DEFINITIONS } from "@/domain/joints/values";
 import { formatQuantity, type QuantityKind, type UnitSystem } from "@/domain/units/format";
-import { verdictOf } from "../../trench/_lib/record-joint";
-import { PlanPanel } from "../../trench/_components/plan-panel";
+import { verdictOf } from "@/app/_server/joints/record-joint";
+import { PlanPanel } from "@/components/fusion/plan-panel";
 
 export const dynamic = "force-dynamic";
 

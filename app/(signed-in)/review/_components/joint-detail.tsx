@@ -1,5 +1,5 @@
 "use client";
-import type { QueueItemView } from "../_lib/view";
+import type { QueueItemView } from "@/app/_server/review/queue-item-view";
 import { OUTCOME_LABELS } from "@/domain/review/labels";
 import { formatQuantity } from "@/domain/units/format";
 import { Cautions } from "@/components/ui/caution";

@@ -1,7 +1,7 @@
 "use client";
 import { useEffect, useMemo, useState } from "react";
 import useSWR from "swr";
-import type { QueueItemView } from "../_lib/view";
+import type { QueueItemView } from "@/app/_server/review/queue-item-view";
 import { OUTCOME_LABELS } from "@/domain/review/labels";
 import { formatInstant } from "./format";
 import { JointDetail } from "./joint-detail";

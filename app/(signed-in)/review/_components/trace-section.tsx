@@ -1,6 +1,6 @@
 "use client";
 import { useRef, useState } from "react";
-import type { QueueItemView } from "../_lib/view";
+import type { QueueItemView } from "@/app/_server/review/queue-item-view";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/form/field";
 import { OUTCOME_LABELS } from "@/domain/review/labels";

@@ -3,7 +3,7 @@
 // admin must clear them for this job) before fusing, and the overrides that cleared them.
 import { Button } from "@/components/ui/button";
 import type { BlockReason, OverrideGrant } from "@/domain/joints/rules";
-import type { TrenchOverride } from "../_lib/types";
+import type { TrenchOverride } from "@/app/_server/trench/setup-types";
 
 export function BlocksPanel({ open, covered, overrides, onCheckAgain, checking }: { open: BlockReason[]; covered: { reason: BlockReason; grant: OverrideGrant }[]; overrides: TrenchOverride[]; onCheckAgain: () => void; checking: boolean }) {
   if (!open.length && !covered.length) return null;

@@ -6,8 +6,8 @@ import { useCallback, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { formatQuantity, type UnitSystem } from "@/domain/units/format";
 import { lookupCoilAction } from "../actions";
-import { findLocalCoil } from "../_lib/find-coil";
-import type { TrenchCoil } from "../_lib/types";
+import { findLocalCoil } from "../_client/find-coil";
+import type { TrenchCoil } from "@/app/_server/trench/setup-types";
 import { CameraScanner } from "@/components/ui/camera-scanner";
 
 const STATUS_WORDS: Record<TrenchCoil["status"], string> = { "in-yard": "in the yard", "on-trailer": "on a trailer", "in-use": "in use", "used-up": "used up", quarantined: "quarantined" };
@@ -28,6 +28,7 @@ export function CoilPicker({
   value,
   coil,
   coils,
+  preferCrewId = null,
   system,
   error,
   onText,
@@ -37,6 +38,8 @@ export function CoilPicker({
   value: string;
   coil: TrenchCoil | null;
   coils: TrenchCoil[];
+  /** The fuser's crew: its coils win when a lot's F2897 code names several. */
+  preferCrewId?: number | null;
   system: UnitSystem;
   error?: string;
   onText: (text: string) => void;
@@ -54,7 +57,7 @@ export function CoilPicker({
         onCoil(null);
         return;
       }
-      const local = findLocalCoil(coils, text);
+      const local = findLocalCoil(coils, text, preferCrewId);
       if (local) {
         onText(local.code);
         onCoil(local);
@@ -82,7 +85,7 @@ export function CoilPicker({
         setLooking(false);
       }
     },
-    [coils, onCoil, onText],
+    [coils, preferCrewId, onCoil, onText],
   );
 
   const scanned = useCallback(

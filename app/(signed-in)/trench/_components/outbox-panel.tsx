@@ -2,7 +2,7 @@
 // What is waiting on this device, what was sent and what was refused and why — in words.
 import Link from "next/link";
 import { Button } from "@/components/ui/button";
-import type { OutboxEntry } from "../_lib/device-store";
+import type { OutboxEntry } from "../_client/device-store";
 
 const STATE_WORDS: Record<OutboxEntry["state"], string> = {
   waiting: "Waiting to send",

@@ -5,7 +5,7 @@
 import { useEffect, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { MAX_PHOTOS_PER_JOINT } from "@/domain/joints/schemas";
-import { dropPhoto, readPhoto, storePhoto, type PhotoRef } from "../_lib/device-store";
+import { dropPhoto, readPhoto, storePhoto, type PhotoRef } from "../_client/device-store";
 
 const MAX_BYTES = 10 * 1024 * 1024;
 const MAX_SIDE_PX = 2400;

@@ -4,7 +4,7 @@
 // and remake it per the procedure; the remake links to the joint it replaces.
 import Link from "next/link";
 import { Button } from "@/components/ui/button";
-import type { OutboxEntry } from "../_lib/device-store";
+import type { OutboxEntry } from "../_client/device-store";
 
 export function ResultPanel({ entry, onRemake, onDismiss }: { entry: OutboxEntry; onRemake: (entry: OutboxEntry) => void; onDismiss: () => void }) {
   const result = entry.result;

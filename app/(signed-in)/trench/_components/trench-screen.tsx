@@ -13,13 +13,13 @@ import { FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
 import { Cautions } from "@/components/ui/caution";
 import { JOINT_KIND_LABELS, JOINT_KINDS, PHASE_LABELS, TIMED_PHASES, type TimedPhase } from "@/domain/joints/schemas";
-import type { TrenchCoil, TrenchSetup } from "../_lib/types";
-import { useOutbox } from "../_lib/use-outbox";
+import type { TrenchCoil, TrenchSetup } from "@/app/_server/trench/setup-types";
+import { useOutbox } from "../_client/use-outbox";
 import { BlocksPanel } from "./blocks-panel";
 import { CoilPicker } from "./coil-picker";
 import { OutboxPanel } from "./outbox-panel";
 import { PhaseTimer } from "./phase-timer";
-import { PlanPanel } from "./plan-panel";
+import { PlanPanel } from "@/components/fusion/plan-panel";
 import { ResultPanel } from "./result-panel";
 import { SelectField } from "@/components/form/controls";
 import { UnitController } from "./unit-controller";
@@ -142,11 +142,11 @@ export function TrenchScreen({ setup }: { setup: TrenchSetup }) {
             ))}
           </SelectField>
           <Cautions kinds={["coil", "static"]} title="Before cutting bands or pipe" />
-          <CoilPicker side="A" value={coilAText ?? ""} coil={coils.A} coils={setup.coils} system={system} error={err("coilA")} onText={onTextA} onCoil={onCoilA} />
+          <CoilPicker side="A" value={coilAText ?? ""} coil={coils.A} coils={setup.coils} preferCrewId={setup.user.crewId} system={system} error={err("coilA")} onText={onTextA} onCoil={onCoilA} />
           {unitField("lengthAM", "Pipe laid from coil A with this joint", "length-m", { hint: "Drawn off the coil's length left. Leave empty if none was pulled." })}
           {kind === "coil-to-coil" ? (
             <>
-              <CoilPicker side="B" value={(coilBText as string | null) ?? ""} coil={coils.B} coils={setup.coils} system={system} error={err("coilB")} onText={onTextB} onCoil={onCoilB} />
+              <CoilPicker side="B" value={(coilBText as string | null) ?? ""} coil={coils.B} coils={setup.coils} preferCrewId={setup.user.crewId} system={system} error={err("coilB")} onText={onTextB} onCoil={onCoilB} />
               {unitField("lengthBM", "Pipe laid from coil B with this joint", "length-m")}
             </>
           ) : (
@@ -164,7 +164,7 @@ export function TrenchScreen({ setup }: { setup: TrenchSetup }) {
           )}
           {mismatch.length || sameCoil ? (
             <div role="alert" className="rounded-md border-2 border-fail bg-fail-light p-3 font-semibold text-fail">
-              {sameCoil ? <p>Side B is the same coil as side A.</p> : null}
+              {sameCoil ? <p>{sameCoil.message}</p> : null}
               {mismatch.map((m) => (
                 <p key={m.field}>{m.message}</p>
               ))}

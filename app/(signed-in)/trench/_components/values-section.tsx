@@ -7,7 +7,7 @@ import { Button } from "@/components/ui/button";
 import { SHELTER_LABELS, SHELTERS, type RecordJointFormInput, type RecordJointFormValues } from "@/domain/joints/schemas";
 import { CHECK_VALUES, QUANTITY_VALUES, type CheckValueKey, type QuantityValueKey } from "@/domain/joints/values";
 import { formatQuantity, type UnitSystem } from "@/domain/units/format";
-import type { PhotoRef } from "../_lib/device-store";
+import type { PhotoRef } from "../_client/device-store";
 import { PhotoPicker } from "./photo-picker";
 import { SelectField } from "@/components/form/controls";
 import { UnitController } from "./unit-controller";

@@ -1,7 +1,7 @@
 // /api/v1/attachments — POST uploads one bead photo (multipart/form-data, field "file";
 // 10 MB at most; JPEG, PNG, WebP or HEIC by the file's bytes). 201 with the attachment.
 import { defineRoute } from "@/app/_lib/guard";
-import { uploadBeadPhoto } from "./_lib/upload";
+import { uploadBeadPhoto } from "@/app/_server/attachments/upload-photo";
 
 export const dynamic = "force-dynamic";
 

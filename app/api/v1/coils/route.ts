@@ -3,7 +3,7 @@
 //        the trench scans labels); without code → the list (clerk, admin; ?status=&q=).
 //   POST (clerk, admin) → receive a coil (same schema as the Receive form).
 import { defineRoute, errorResponse } from "@/app/_lib/guard";
-import { receiveCoil } from "@/app/(signed-in)/coils/_lib/use-cases";
+import { receiveCoil } from "@/app/_server/coils/receive-coil";
 import { findCoilByCodeOrTrace, listCoils } from "@/database/queries/coils";
 import { COIL_STATUSES } from "@/domain/coil-life/rules";
 import { receiveCoilSchema } from "@/domain/coil-life/schemas";

@@ -1,11 +1,11 @@
 // /api/v1/joints — POST records a joint (fuser; 201 new, 200 when the client id was seen
 // before), GET lists joints newest first (fusers see their own; others every joint).
-import { recordJoint } from "@/app/(signed-in)/trench/_lib/record-joint";
+import { recordJoint } from "@/app/_server/joints/record-joint";
 import { defineRoute } from "@/app/_lib/guard";
 import { listJoints } from "@/database/queries/joints";
 import { listJointsQuerySchema, recordJointSchema } from "@/domain/joints/schemas";
 import { can } from "@/domain/roles";
-import { jointJson } from "./_lib/json";
+import { jointJson } from "@/app/_server/joints/joint-json";
 
 export const dynamic = "force-dynamic";
 

@@ -4,7 +4,7 @@
 import { defineRoute, errorResponse } from "@/app/_lib/guard";
 import { attachTraceSchema, MAX_TRACE_FILE_BYTES } from "@/domain/review/schemas";
 import { describeFieldErrors, fieldErrorsFromIssues } from "@/domain/result";
-import { attachTrace } from "@/app/(signed-in)/review/_lib/attach-trace";
+import { attachTrace } from "@/app/_server/review/attach-trace";
 
 export const POST = defineRoute({ permission: "attachTrace", input: "raw" }, async (_input, { user, requestId, request }) => {
   const length = Number(request.headers.get("content-length") ?? 0);

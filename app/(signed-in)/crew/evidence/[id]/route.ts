@@ -2,7 +2,7 @@
 import { defineRoute, errorResponse } from "@/app/_lib/guard";
 import { idParams } from "@/app/_lib/params";
 import { findAttachmentById } from "@/database/queries/attachments";
-import { getObject } from "@/database/storage";
+import { getObject } from "@/app/_server/storage/object-store";
 
 export const GET = defineRoute({ permission: "manageCrew", params: idParams("No such evidence file."), input: "none" }, async (_input, { params: { id } }) => {
   const attachment = await findAttachmentById({ id });

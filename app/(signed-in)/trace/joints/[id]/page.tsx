@@ -5,8 +5,8 @@ import type { Coil } from "@/database/queries/coils";
 import { DAMAGE_LABELS } from "@/domain/coil-life/rules";
 import { describeSize } from "@/domain/labels/label";
 import { formatQuantity } from "@/domain/units/format";
-import { CoilStatusBadge } from "../../../coils/_components/coil-status-badge";
-import { traceJointOrigins } from "../../_lib/origins";
+import { CoilStatusBadge } from "@/components/coils/coil-status-badge";
+import { traceJointOrigins } from "@/app/_server/trace/origins";
 
 export const dynamic = "force-dynamic";
 

@@ -4,8 +4,9 @@
 // the phase limits; until then, the one thing still missing is named.
 import { useMemo } from "react";
 import { planButtFusion, type FusionPlan } from "@/domain/fusion/plan";
+import { buttFusionPlanInput, noPublishedVersionMessage } from "@/domain/joints/pre-record";
 import { phaseLimits } from "@/domain/joints/timer";
-import type { TrenchCoil, TrenchSetup } from "../../_lib/types";
+import type { TrenchCoil, TrenchSetup } from "@/app/_server/trench/setup-types";
 
 export interface PlanInputs {
   jobId: unknown;
@@ -22,13 +23,13 @@ export function useFusionPlanPreview(setup: TrenchSetup, { jobId, machineId, hea
 
   const { plan, planProblem } = useMemo((): { plan: FusionPlan | null; planProblem: string | null } => {
     if (!job) return { plan: null, planProblem: "Choose the job: its procedure sets the limits." };
-    if (!job.procedure) return { plan: null, planProblem: `Job ${job.code} has no published procedure version; ask an administrator.` };
+    if (!job.procedure) return { plan: null, planProblem: noPublishedVersionMessage(job.code) };
     if (!machine) return { plan: null, planProblem: "Choose the fusion machine: its piston area turns pressures into gauge readings." };
     if (!machine.isUsable || machine.pistonAreaMm2 === null) return { plan: null, planProblem: machine.problems.join(" ") };
     if (!coilA) return { plan: null, planProblem: "Scan or type coil A: its size sets the plan." };
     if (typeof drag !== "number") return { plan: null, planProblem: "Enter the drag pressure you measured to see the gauge pressures to set." };
     try {
-      return { plan: planButtFusion({ procedure: job.procedure.definition, outsideDiameterMm: coilA.outsideDiameterMm, sdr: coilA.sdr, pistonAreaMm2: machine.pistonAreaMm2, dragPressureMpa: drag }), planProblem: null };
+      return { plan: planButtFusion(buttFusionPlanInput({ procedure: job.procedure.definition, pipe: coilA, machine: { pistonAreaMm2: machine.pistonAreaMm2 }, dragPressureMpa: drag })), planProblem: null };
     } catch (error) {
       return { plan: null, planProblem: (error as Error).message };
     }

@@ -3,9 +3,10 @@
 // coil states) less the overrides granted by someone else, sides that do not match, the
 // same coil on both sides, and a pipe size the machine does not take.
 import { useMemo } from "react";
-import { applyOverrides, blockReasons, componentMismatch } from "@/domain/joints/rules";
+import { preRecordProblems } from "@/domain/joints/pre-record";
+import { applyOverrides, blockReasons } from "@/domain/joints/rules";
 import { qualificationStatus } from "@/domain/qualifications/status";
-import type { TrenchCoil, TrenchSetup } from "../../_lib/types";
+import type { TrenchCoil, TrenchSetup } from "@/app/_server/trench/setup-types";
 import type { useFusionPlanPreview } from "./use-fusion-plan-preview";
 import type { SideCoils } from "./use-trench-draft";
 
@@ -35,10 +36,12 @@ export function useRecordBlocks(setup: TrenchSetup, { job, machine, heater }: Pi
     return applyOverrides(reasons, grants, { jobId: job.id, madeAt: new Date(now || Date.parse(setup.loadedAt)) });
   }, [job, heater, coils.A, sideB, today, now, setup, userId]);
 
-  const mismatch = coils.A && sideB ? componentMismatch({ label: `Side A (${coils.A.code})`, outsideDiameterMm: coils.A.outsideDiameterMm, sdr: coils.A.sdr }, { label: `side B (${sideB.code})`, outsideDiameterMm: sideB.outsideDiameterMm, sdr: sideB.sdr }, system) : [];
-  const sameCoil = coils.A && sideB && coils.A.id === sideB.id;
-  const odOutsideMachine = machine && coils.A && ((machine.minOdMm !== null && coils.A.outsideDiameterMm < machine.minOdMm - 0.05) || (machine.maxOdMm !== null && coils.A.outsideDiameterMm > machine.maxOdMm + 0.05));
-  const cannotRecord = blocks.open.length > 0 || mismatch.length > 0 || Boolean(sameCoil) || Boolean(odOutsideMachine);
+  // The same checks, in the same order, as the server's record-joint (domain/joints/pre-record.ts).
+  const problems = preRecordProblems({ sideA: coils.A, sideB, machine }, system);
+  const mismatch = problems.flatMap((p) => (p.kind === "size-mismatch" ? p.mismatches : []));
+  const sameCoil = problems.find((p) => p.kind === "same-coil") ?? null;
+  const odOutsideMachine = problems.some((p) => p.kind === "machine-size");
+  const cannotRecord = blocks.open.length > 0 || problems.length > 0;
 
   return { blocks, mismatch, sameCoil, odOutsideMachine, cannotRecord };
 }

@@ -7,10 +7,10 @@ import { useMemo, useRef, useState, type Dispatch, type SetStateAction } from "r
 import { checkJoint } from "@/domain/fusion/check";
 import type { FusionPlan } from "@/domain/fusion/plan";
 import { pickRecordedValues } from "@/domain/joints/values";
-import { saveRemembered, type OutboxEntry, type PhotoRef, type Remembered } from "../../_lib/device-store";
-import { findLocalCoil } from "../../_lib/find-coil";
-import type { TrenchSetup } from "../../_lib/types";
-import type { useOutbox } from "../../_lib/use-outbox";
+import { saveRemembered, type OutboxEntry, type PhotoRef, type Remembered } from "../../_client/device-store";
+import { findLocalCoil } from "../../_client/find-coil";
+import type { TrenchSetup } from "@/app/_server/trench/setup-types";
+import type { useOutbox } from "../../_client/use-outbox";
 import type { FormIn, FormOut, SideCoils } from "./use-trench-draft";
 
 interface RecordJointDeps {
@@ -80,8 +80,8 @@ export function useRecordJoint({ setup, outbox, jobId, job, plan, cannotRecord, 
   const remake = (entry: OutboxEntry) => {
     const p = entry.payload;
     const keep = { jobId: p.jobId as number, machineId: p.machineId as number, heaterId: p.heaterId as number };
-    const a = findLocalCoil(setup.coils, String(p.coilA ?? ""));
-    const b = p.coilB ? findLocalCoil(setup.coils, String(p.coilB)) : null;
+    const a = findLocalCoil(setup.coils, String(p.coilA ?? ""), setup.user.crewId);
+    const b = p.coilB ? findLocalCoil(setup.coils, String(p.coilB), setup.user.crewId) : null;
     startNewDraft(keep, { kind: p.kind as FormIn["kind"], coilA: String(p.coilA ?? ""), coilB: (p.coilB as string | null) ?? "", componentBText: (p.componentBText as string | null) ?? "", replacesJointId: entry.result!.id, station: (p.station as string | null) ?? "" });
     setCoils({ A: a, B: b });
     setShownResult(null);

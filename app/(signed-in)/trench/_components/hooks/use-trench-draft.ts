@@ -7,8 +7,8 @@ import { useEffect, useState } from "react";
 import { useForm, type UseFormReturn } from "react-hook-form";
 import { recordJointFormSchema, type RecordJointFormInput, type RecordJointFormValues, type TimedPhase } from "@/domain/joints/schemas";
 import type { PhaseTiming } from "@/domain/joints/timer";
-import { clearDraft, emptyTimers, loadDraft, loadRemembered, saveDraft, type PhotoRef, type Remembered } from "../../_lib/device-store";
-import type { TrenchCoil, TrenchSetup } from "../../_lib/types";
+import { clearDraft, emptyTimers, loadDraft, loadRemembered, saveDraft, type PhotoRef, type Remembered } from "../../_client/device-store";
+import type { TrenchCoil, TrenchSetup } from "@/app/_server/trench/setup-types";
 
 export type FormIn = RecordJointFormInput;
 export type FormOut = RecordJointFormValues;

@@ -5,9 +5,9 @@
 import { defineRoute, errorResponse } from "@/app/_lib/guard";
 import { idParams } from "@/app/_lib/params";
 import { findAttachmentById } from "@/database/queries/attachments";
-import { getObject } from "@/database/storage";
+import { getObject } from "@/app/_server/storage/object-store";
 import { can } from "@/domain/roles";
-import { PHOTO_TYPES } from "../_lib/upload";
+import { PHOTO_TYPES } from "@/app/_server/attachments/upload-photo";
 
 export const dynamic = "force-dynamic";
 

@@ -4,7 +4,7 @@ import { defineRoute, errorResponse } from "@/app/_lib/guard";
 import { idParams } from "@/app/_lib/params";
 import { listAttachmentsForJoint } from "@/database/queries/attachments";
 import { findJointById, listJointRevisions, listOverrideUsesForJoint } from "@/database/queries/joints";
-import { jointJson } from "../_lib/json";
+import { jointJson } from "@/app/_server/joints/joint-json";
 
 export const dynamic = "force-dynamic";
 

@@ -3,7 +3,7 @@
 import { defineRoute } from "@/app/_lib/guard";
 import { listReviewQueue } from "@/database/queries/reviews";
 import { reviewQueueFilterSchema } from "@/domain/review/schemas";
-import { toQueueItemView } from "@/app/(signed-in)/review/_lib/view";
+import { toQueueItemView } from "@/app/_server/review/queue-item-view";
 
 export const dynamic = "force-dynamic";
 

@@ -3,7 +3,7 @@
 // the version is stale.
 import { defineRoute } from "@/app/_lib/guard";
 import { idParams } from "@/app/_lib/params";
-import { moveCoil } from "@/app/(signed-in)/coils/_lib/use-cases";
+import { moveCoil } from "@/app/_server/coils/move-coil";
 import { moveCoilSchema } from "@/domain/coil-life/schemas";
 
 export const dynamic = "force-dynamic";

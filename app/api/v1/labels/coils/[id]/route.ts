@@ -1,12 +1,12 @@
 // GET /api/v1/labels/coils/:id?format=png|svg&stock=<label stock>&dpi=300 — one coil label
 // as a file; stamps the coil's label_printed_at.
 import { defineRoute, errorResponse } from "@/app/_lib/guard";
-import { publicBaseUrl } from "@/app/(signed-in)/labels/_lib/base-url";
-import { coilLabelSvg, stockOrDefault, svgToPng } from "@/app/(signed-in)/labels/_lib/render";
-import { markLabelsPrinted } from "@/app/(signed-in)/coils/_lib/use-cases";
+import { publicBaseUrl } from "@/app/_server/labels/base-url";
+import { coilLabelSvg, stockOrDefault, svgToPng } from "@/app/_server/labels/render";
+import { markLabelsPrinted } from "@/app/_server/coils/mark-labels-printed";
 import { findCoilById } from "@/database/queries/coils";
 import { idParams } from "@/app/_lib/params";
-import { labelDownloadSchema, labelFile } from "../../_lib";
+import { labelDownloadSchema, labelFile } from "@/app/_server/labels/download";
 
 export const dynamic = "force-dynamic";
 

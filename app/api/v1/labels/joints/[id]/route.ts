@@ -1,11 +1,11 @@
 // GET /api/v1/labels/joints/:id?format=png|svg&stock=<label stock> — one joint tag (joint
 // number, job, date, QR to /joints/:id) for the as-built package.
 import { defineRoute, errorResponse } from "@/app/_lib/guard";
-import { publicBaseUrl } from "@/app/(signed-in)/labels/_lib/base-url";
-import { jointLabelSvg, stockOrDefault, svgToPng } from "@/app/(signed-in)/labels/_lib/render";
+import { publicBaseUrl } from "@/app/_server/labels/base-url";
+import { jointLabelSvg, stockOrDefault, svgToPng } from "@/app/_server/labels/render";
 import { findJointLabelFacts } from "@/database/queries/trace";
 import { idParams } from "@/app/_lib/params";
-import { labelDownloadSchema, labelFile } from "../../_lib";
+import { labelDownloadSchema, labelFile } from "@/app/_server/labels/download";
 
 export const dynamic = "force-dynamic";
 

@@ -2,7 +2,7 @@
 import { defineRoute, errorResponse } from "@/app/_lib/guard";
 import { idParams } from "@/app/_lib/params";
 import { findReviewItem, listJointRevisions } from "@/database/queries/reviews";
-import { toQueueItemView } from "@/app/(signed-in)/review/_lib/view";
+import { toQueueItemView } from "@/app/_server/review/queue-item-view";
 
 export const dynamic = "force-dynamic";
 

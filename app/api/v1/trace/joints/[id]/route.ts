@@ -2,7 +2,7 @@
 // inspections, machine and piston area, heater plate and its last check before the joint,
 // the fuser and their qualification on that date, the procedure version.
 import { defineRoute, errorResponse } from "@/app/_lib/guard";
-import { traceJointOrigins } from "@/app/(signed-in)/trace/_lib/origins";
+import { traceJointOrigins } from "@/app/_server/trace/origins";
 import { idParams } from "@/app/_lib/params";
 
 export const dynamic = "force-dynamic";

@@ -3,7 +3,7 @@
 import { z } from "zod";
 import { defineRoute, parseInput } from "@/app/_lib/guard";
 import { decideJointSchema } from "@/domain/review/schemas";
-import { decideJoint } from "@/app/(signed-in)/review/_lib/decide-joint";
+import { decideJoint } from "@/app/_server/review/decide-joint";
 
 // The joint id is checked with the decision itself (decideJointSchema), so a bad id is
 // named among the other fields (422), as the review screen's action names it.

@@ -1,0 +1,91 @@
+// What the Trench screen keeps on the device, so nothing is lost when the signal drops or
+// the page reloads: the draft (form values, phase-timer start/end instants, chosen coils,
+// photo references) and the outbox of joints waiting to be sent live in localStorage
+// under keys starting "beadline.trench."; photo bytes live in IndexedDB (idb-keyval),
+// because localStorage holds only text. Browser-only module (used by client components).
+import { del, get, set } from "idb-keyval";
+import type { PhaseTiming } from "@/domain/joints/timer";
+import type { RecordJointFormInput, RecordJointRawInput, TimedPhase } from "@/domain/joints/schemas";
+import type { RecordedJoint } from "@/app/_server/joints/record-joint";
+import type { TrenchCoil } from "@/app/_server/trench/setup-types";
+
+export const KEY_PREFIX = "beadline.trench.";
+export const draftKey = (userId: number) => `${KEY_PREFIX}draft.${userId}`;
+export const outboxKey = (userId: number) => `${KEY_PREFIX}outbox.${userId}`;
+export const rememberKey = (userId: number) => `${KEY_PREFIX}last.${userId}`;
+const photoKey = (id: string) => `${KEY_PREFIX}photo.${id}`;
+
+export type PhotoRef = { key: string; name: string; type: string; size: number; uploadedId: number | null };
+
+export type Draft = {
+  version: 1;
+  values: RecordJointFormInput;
+  timers: Record<TimedPhase, PhaseTiming>;
+  coils: { A: TrenchCoil | null; B: TrenchCoil | null };
+  photos: PhotoRef[];
+  savedAt: string;
+};
+
+export type OutboxState = "waiting" | "sending" | "sent" | "refused";
+
+export type OutboxEntry = {
+  clientId: string;
+  createdAt: string;
+  jobCode: string;
+  /** "LV-C0001 + LV-C0002" */
+  label: string;
+  payload: Omit<RecordJointRawInput, "photoIds">;
+  photos: PhotoRef[];
+  state: OutboxState;
+  attempts: number;
+  lastTriedAt: string | null;
+  /** What the screen says about this entry (why it waits, why it was refused). */
+  message: string | null;
+  fields?: Record<string, string[]>;
+  /** The device's own check when it was recorded (the server's verdict is final). */
+  preliminary: { outcome: string; findings: string[] } | null;
+  result?: RecordedJoint;
+};
+
+export type Remembered = { jobId?: number; machineId?: number; heaterId?: number };
+
+function readJson<T>(key: string, fallback: T): T {
+  try {
+    const text = window.localStorage.getItem(key);
+    return text ? (JSON.parse(text) as T) : fallback;
+  } catch {
+    return fallback;
+  }
+}
+
+function writeJson(key: string, value: unknown): void {
+  try {
+    window.localStorage.setItem(key, JSON.stringify(value));
+  } catch {
+    // Storage full or disabled: the screen keeps working from memory.
+  }
+}
+
+export const loadDraft = (userId: number) => readJson<Draft | null>(draftKey(userId), null);
+export const saveDraft = (userId: number, draft: Draft) => writeJson(draftKey(userId), draft);
+export const clearDraft = (userId: number) => window.localStorage.removeItem(draftKey(userId));
+
+export const loadOutbox = (userId: number) => readJson<OutboxEntry[]>(outboxKey(userId), []);
+export const saveOutbox = (userId: number, entries: OutboxEntry[]) => writeJson(outboxKey(userId), entries);
+
+export const loadRemembered = (userId: number) => readJson<Remembered>(rememberKey(userId), {});
+export const saveRemembered = (userId: number, value: Remembered) => writeJson(rememberKey(userId), value);
+
+/** Keeps a photo's bytes on the device until its joint is sent. */
+export async function storePhoto(blob: Blob, name: string): Promise<PhotoRef> {
+  const key = photoKey(crypto.randomUUID());
+  await set(key, blob);
+  return { key, name, type: blob.type, size: blob.size, uploadedId: null };
+}
+
+export const readPhoto = (ref: PhotoRef) => get<Blob>(ref.key);
+export const dropPhoto = (ref: PhotoRef) => del(ref.key).catch(() => undefined);
+
+export function emptyTimers(): Record<TimedPhase, PhaseTiming> {
+  return { heatSoak: { startedAt: null, endedAt: null }, changeover: { startedAt: null, endedAt: null }, cooling: { startedAt: null, endedAt: null } };
+}

@@ -1,0 +1,71 @@
+// Use case: an inspector decides a joint — accepted (with a note) or cut out (the fuser must
+// remake it). One transaction: lock the joint's state, check who may decide and that the
+// joint has not moved on since the inspector saw it (optimistic locking on revision_no),
+// append the revision, move the projection, audit, and queue the fuser's notice on cut-out.
+import "server-only";
+import { db, isDuplicateKey } from "@/database/client";
+import { insertAuditEntry } from "@/database/queries/audit-log";
+import { enqueueCutOutNotice } from "@/app/_server/mail/cut-out-notice";
+import { insertJointRevision, latestJointRevision, lockJointState, updateJointState } from "@/database/queries/reviews";
+import type { UserRecord } from "@/database/queries/users";
+import { AppError } from "@/domain/result";
+import { REVIEW_STATE_LABELS, REVISION_KIND_LABELS } from "@/domain/review/labels";
+import { acceptNeedsNote, type DecideJointValues } from "@/domain/review/schemas";
+import { can, canReview } from "@/domain/roles";
+import type { Db } from "@/database/client";
+
+export type DecisionResult = { jointId: number; revisionNo: number; reviewState: "accepted" | "cut-out" };
+
+async function conflict(jointId: number, trx: Db, label: string): Promise<AppError> {
+  const latest = await latestJointRevision({ jointId }, trx);
+  const who = latest ? ` (${REVISION_KIND_LABELS[latest.kind] ?? latest.kind} by ${latest.byName} at ${latest.at.toISOString().replace("T", " ").slice(0, 16)} UTC)` : "";
+  return new AppError("conflict", `${label} changed while you were looking at it${who}. Nothing was saved; the queue now shows the joint as it is.`);
+}
+
+export async function decideJoint(input: DecideJointValues, { user, requestId, now = new Date() }: { user: UserRecord; requestId: string; now?: Date }): Promise<DecisionResult> {
+  return db().transaction(async (trx) => {
+    const state = await lockJointState({ jointId: input.jointId }, trx);
+    if (!state) throw new AppError("not-found", `Joint ${input.jointId} was not found.`);
+    const label = `${state.jobCode} joint ${state.jointNo}`;
+    if (!canReview(user, { fuserId: state.fuserId })) {
+      throw new AppError(
+        "forbidden",
+        can(user, "decideJoint") ? `You made ${label} yourself; another inspector must decide it.` : "Only an inspector may decide a joint.",
+      );
+    }
+    if (state.revisionNo !== input.expectedRevisionNo) throw await conflict(state.jointId, trx, label);
+    if (state.reviewState !== "pending-review") {
+      throw new AppError("conflict", `${label} is already ${REVIEW_STATE_LABELS[state.reviewState].toLowerCase()}; it is no longer waiting for a decision.`);
+    }
+    if (input.decision === "accepted" && acceptNeedsNote(state.outcome) && input.note.length < 3) {
+      const message = "Say why a joint out of limits is accepted (at least 3 characters)";
+      throw new AppError("invalid", `Check note: ${message}.`, { note: [message] });
+    }
+    const revisionNo = state.revisionNo + 1;
+    try {
+      await insertJointRevision(
+        { jointId: state.jointId, revisionNo, kind: input.decision, byUserId: user.id, at: now, reason: input.note || null, reviewState: input.decision, changes: { decision: input.decision, outcome: state.outcome } },
+        trx,
+      );
+    } catch (error) {
+      // Another decision took this revision number first (the unique key): one wins.
+      if (isDuplicateKey(error)) throw await conflict(state.jointId, trx, label);
+      throw error;
+    }
+    const moved = await updateJointState({ jointId: state.jointId, expectedRevisionNo: state.revisionNo, revisionNo, reviewState: input.decision, at: now }, trx);
+    if (!moved) throw await conflict(state.jointId, trx, label);
+    await insertAuditEntry(
+      {
+        actorUserId: user.id,
+        action: input.decision === "accepted" ? "joint-accepted" : "joint-cut-out",
+        entityType: "joint",
+        entityId: state.jointId,
+        details: { revisionNo, outcome: state.outcome, note: input.note || null },
+        requestId,
+      },
+      trx,
+    );
+    if (input.decision === "cut-out") await enqueueCutOutNotice({ jointId: state.jointId, reason: input.note, inspectorName: user.name }, trx);
+    return { jointId: state.jointId, revisionNo, reviewState: input.decision };
+  });
+}

@@ -1,0 +1,55 @@
+// What the review screen shows of a joint, in the viewer's units: findings in plain words,
+// plan next to recorded values, the trace's values next to the typed ones, photo links.
+// Plain JSON (dates as ISO strings) for the queue API and the page.
+import "server-only";
+import type { ReviewItem } from "@/database/queries/reviews";
+import type { JointFinding } from "@/domain/fusion/check";
+import { findingsForViewer, planVersusRecorded, type ComparisonRow } from "@/domain/review/queue";
+import { checkTraceReading, traceVersusTyped, type TraceValueRow } from "@/domain/review/trace-check";
+import type { UnitSystem } from "@/domain/units/format";
+
+export type QueueItemView = Omit<ReviewItem, "madeAt" | "trace" | "findings" | "photos"> & {
+  madeAt: string;
+  findings: JointFinding[];
+  comparison: ComparisonRow[];
+  photos: { id: number; name: string; url: string }[];
+  trace: null | {
+    id: number;
+    attachmentId: number;
+    url: string;
+    sampleCount: number;
+    outcome: "within-limits" | "out-of-limits";
+    findings: JointFinding[];
+    rows: TraceValueRow[];
+    uploadedAt: string;
+    uploadedByName: string;
+  };
+};
+
+export function toQueueItemView(item: ReviewItem, system: UnitSystem): QueueItemView {
+  const { trace, photos, madeAt, findings, ...rest } = item;
+  const shown = findingsForViewer(item.plan, item.recorded, findings, system);
+  let traceView: QueueItemView["trace"] = null;
+  if (trace && trace.reading) {
+    const again = item.plan ? checkTraceReading(item.plan, trace.reading, item.recorded, system) : null;
+    traceView = {
+      id: trace.id,
+      attachmentId: trace.attachmentId,
+      url: `/api/v1/attachments/${trace.attachmentId}`,
+      sampleCount: trace.sampleCount,
+      outcome: trace.outcome,
+      findings: again ? again.findings : trace.findings,
+      rows: traceVersusTyped(trace.reading, item.recorded),
+      uploadedAt: trace.uploadedAt.toISOString(),
+      uploadedByName: trace.uploadedByName,
+    };
+  }
+  return {
+    ...rest,
+    madeAt: madeAt.toISOString(),
+    findings: shown,
+    comparison: item.plan ? planVersusRecorded(item.plan, item.recorded, shown, system) : [],
+    photos: photos.map((p, i) => ({ id: p.id, name: p.originalName ?? `Bead photo ${i + 1}`, url: `/api/v1/attachments/${p.id}` })),
+    trace: traceView,
+  };
+}
