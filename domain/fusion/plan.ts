@@ -153,7 +153,7 @@ function resolveProcedure(input: PlanButtFusionInput): ProcedureDefinition {
 // artefact of 397.5) from rounding down, so a minimum on a half second rounds up.
 /**
  * The plan's wall: the caller's, else the published table wall found by the given catalogue
- * size or by matching the OD to a catalogued size (within 0.05 mm), else undefined (OD / SDR).
+ * size or by matching the OD to a catalogued size (within 0.06 mm), else undefined (OD / SDR).
  * Throws DomainError when a given size does not have the given OD.
  */
 function resolveWall(input: PlanButtFusionInput): { wallMm: number | undefined; wallSource: WallSource } {

@@ -225,10 +225,11 @@ export function tableWall(query: TableWallQuery): TableWall | null {
 }
 
 // IPS, CTS and metric ODs of the catalogue lie at least 0.125 mm apart (CTS ½" 15.875 mm vs
-// 16 mm); a stored OD within 0.05 mm (e.g. 60.33 mm for 2" IPS = 60.325 mm) is that size.
-const OD_MATCH_MM = 0.05;
+// 16 mm); a stored OD within 0.06 mm is that size: 60.33 mm (2 decimals) for 2" IPS =
+// 60.325 mm, and the ASME B36.10 metric roundings such as 273.0 mm for 10" = 273.05 mm.
+const OD_MATCH_MM = 0.06;
 
-/** Catalogue size whose OD is within 0.05 mm of the given OD, or null. */
+/** Catalogue size whose OD is within 0.06 mm of the given OD, or null. */
 export function sizeForOutsideDiameter(outsideDiameterMm: number, series?: PipeSeries): PipeSize | null {
   const all = (series ? [series] : (['metric', 'ips', 'cts'] as const)).flatMap((entry) => pipeSizes(entry));
   return all.find((size) => Math.abs(size.outsideDiameterMm - outsideDiameterMm) <= OD_MATCH_MM) ?? null;
@@ -236,7 +237,7 @@ export function sizeForOutsideDiameter(outsideDiameterMm: number, series?: PipeS
 
 /**
  * Table wall for a pipe known only by OD (mm) and SDR: finds the catalogue size by OD (within
- * 0.05 mm) and looks the wall up. Null when the OD is not a catalogued size or no table lists
+ * 0.06 mm) and looks the wall up. Null when the OD is not a catalogued size or no table lists
  * that SDR.
  */
 export function tableWallForOutsideDiameter(outsideDiameterMm: number, sdr: number): TableWall | null {

@@ -254,6 +254,8 @@ describe('finding the size by OD', () => {
     // a stored OD (2 decimals) finds its catalogue size: 2" IPS = 2.375 in = 60.325 mm
     [60.33, 'ips', '2'],
     [60.325, 'ips', '2'],
+    // ASME B36.10 metric OD of 10" IPS (273.0 mm for 10.750 in = 273.05 mm)
+    [273.0, 'ips', '10'],
     [63, 'metric', '63'],
     [15.88, 'cts', '1/2'],
     [16, 'metric', '16'],
