@@ -8,6 +8,7 @@ const STYLE: Record<QualificationStatus["state"], string> = {
   lapsed: "border-fail bg-fail-light text-fail",
   "requalification-needed": "border-fail bg-fail-light text-fail",
   "never-qualified": "border-slate-400 bg-white text-ink",
+  "needs-legacy-data": "border-caution bg-caution-light text-caution",
 };
 
 export function QualificationBadge({ status }: { status: Pick<QualificationStatus, "state" | "until"> }) {

@@ -6,6 +6,13 @@
 
 import { DomainError } from '@/domain/errors';
 import { pipeGeometry } from '@/domain/pipe/geometry';
+import type { PipeSeries } from '@/domain/pipe/catalogue';
+import {
+  sizeForOutsideDiameter,
+  tableWall,
+  tableWallForOutsideDiameter,
+  type WallSource,
+} from '@/domain/pipe/walls';
 import type { Sourced } from '@/domain/sources';
 import { formatQuantity } from '@/domain/units/format';
 import {
@@ -26,8 +33,13 @@ export interface PlanButtFusionInput {
   procedure?: ProcedureDefinition;
   outsideDiameterMm: number;
   sdr: number;
-  /** A table wall (e.g. IPS 0.001 in rounding or ISO e_min); defaults to OD / SDR. */
+  /**
+   * A wall the caller knows (e.g. measured); without it the wall is looked up in the published
+   * tables by `size` or, failing that, by the OD, and is OD / SDR only when no table lists it.
+   */
   wallMm?: number;
+  /** The catalogue size, when known; `wallIn` names a fixed wall (IPS 0.090 in, CTS walls). */
+  size?: { series: PipeSeries; nominal: string; wallIn?: number };
   /** Total effective piston area of the machine's carriage cylinders, mm². */
   pistonAreaMm2: number;
   /** Gauge pressure measured just to move the carriage, MPa. */
@@ -64,6 +76,8 @@ export interface FusionPlan {
   outsideDiameterMm: number;
   sdr: number;
   wallMm: number;
+  /** Where `wallMm` came from: a published table (named), the caller, or OD / SDR. */
+  wallSource: WallSource;
   fusionAreaMm2: number;
   pistonAreaMm2: number;
   dragPressureMpa: number;
@@ -137,11 +151,36 @@ function resolveProcedure(input: PlanButtFusionInput): ProcedureDefinition {
 
 // Round half up to the whole second; the 1e-6 s pre-rounding keeps 397.4999999 (a binary
 // artefact of 397.5) from rounding down, so a minimum on a half second rounds up.
+/**
+ * The plan's wall: the caller's, else the published table wall found by the given catalogue
+ * size or by matching the OD to a catalogued size (within 0.06 mm), else undefined (OD / SDR).
+ * Throws DomainError when a given size does not have the given OD.
+ */
+function resolveWall(input: PlanButtFusionInput): { wallMm: number | undefined; wallSource: WallSource } {
+  if (input.wallMm !== undefined) return { wallMm: input.wallMm, wallSource: { kind: 'given' } };
+  if (input.size) {
+    const size = sizeForOutsideDiameter(input.outsideDiameterMm, input.size.series);
+    const table = tableWall({ ...input.size, sdr: input.sdr });
+    if (!size || (table && size.nominal !== table.nominal)) {
+      throw new DomainError('invalid-input', `The ${input.outsideDiameterMm} mm outside diameter is not ${input.size.series.toUpperCase()} size "${input.size.nominal}"`);
+    }
+    if (table) return { wallMm: table.wallMm, wallSource: table.source };
+    return { wallMm: undefined, wallSource: { kind: 'od-over-sdr' } };
+  }
+  const table = Number.isFinite(input.outsideDiameterMm) && Number.isFinite(input.sdr) && input.sdr > 2
+    ? tableWallForOutsideDiameter(input.outsideDiameterMm, input.sdr)
+    : null;
+  return table ? { wallMm: table.wallMm, wallSource: table.source } : { wallMm: undefined, wallSource: { kind: 'od-over-sdr' } };
+}
+
 const roundSeconds = (value: number | null): number | null =>
   value === null ? null : Math.round(Math.round(value * 1e6) / 1e6);
 
 /**
- * Plan a butt-fusion joint. Inputs in SI: OD mm, SDR, optional table wall mm, piston area
+ * Plan a butt-fusion joint. The wall is the published table wall when the OD (or the given
+ * `size`) is a catalogued size whose SDR a table lists (ISO 4427-2 Table 2 / ISO 4437-2,
+ * ASTM D3035 / D2513, ASTM F2897-23a Table 6), else OD / SDR; `wallSource` says which.
+ * Inputs in SI: OD mm, SDR, optional known wall mm, piston area
  * mm², drag MPa; either a built-in `standard` or an operator's `procedure`.
  * Throws DomainError for impossible input (OD ≤ 0, SDR ≤ 2, piston area ≤ 0, negative
  * drag) and for a pipe outside the procedure's wall or OD range.
@@ -149,7 +188,8 @@ const roundSeconds = (value: number | null): number | null =>
  */
 export function planButtFusion(input: PlanButtFusionInput): FusionPlan {
   const procedure = resolveProcedure(input);
-  const geometry = pipeGeometry({ outsideDiameterMm: input.outsideDiameterMm, sdr: input.sdr, wallMm: input.wallMm });
+  const wall = resolveWall(input);
+  const geometry = pipeGeometry({ outsideDiameterMm: input.outsideDiameterMm, sdr: input.sdr, wallMm: wall.wallMm });
   assertPositive(input.pistonAreaMm2, 'Piston area', 'mm²');
   if (typeof input.dragPressureMpa !== 'number' || !Number.isFinite(input.dragPressureMpa) || input.dragPressureMpa < 0) {
     throw new DomainError('invalid-input', `Drag pressure must be 0 MPa or more (got ${String(input.dragPressureMpa)})`);
@@ -204,6 +244,7 @@ export function planButtFusion(input: PlanButtFusionInput): FusionPlan {
     outsideDiameterMm: input.outsideDiameterMm,
     sdr: input.sdr,
     wallMm: geometry.wallMm,
+    wallSource: wall.wallSource,
     fusionAreaMm2: geometry.fusionAreaMm2,
     pistonAreaMm2: input.pistonAreaMm2,
     dragPressureMpa: input.dragPressureMpa,

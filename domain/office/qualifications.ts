@@ -47,4 +47,5 @@ export const QUALIFICATION_STATE_LABELS: Record<QualificationStatus['state'], st
   lapsed: 'Lapsed',
   'requalification-needed': 'Requalification needed',
   'never-qualified': 'Not qualified',
+  'needs-legacy-data': "Needs the older rule's data (before 2019-01-22)",
 };

@@ -80,10 +80,10 @@ export const METRIC_SDR_SERIES: readonly number[] = [6, 7.4, 9, 11, 13.6, 17, 21
 export const IPS_SDR_SERIES: readonly number[] = [7, 9, 9.33, 11, 13.5, 17, 21, 26, 32.5];
 
 /**
- * Metric minimum wall e_min, mm, by d_n — ISO 4427-2 / ISO 4437-2 tables as read in
- * stored reproductions (CONFIRMED-2nd). The tables are not a single
- * rounding of d_n/SDR and small sizes are floored at 2.0 mm, so they are looked up.
- * 500 mm SDR 17 is 29.7 (one reproduction reads 27.7, most likely a misprint; 500/17 = 29.4).
+ * Metric minimum wall e_min, mm, by d_n — the printed ISO 4427-2 Table 2 / ISO 4437-2 values
+ * read in reproductions (CONFIRMED-2nd). domain/pipe/walls computes every SDR from the
+ * ISO 4065 S series and checks it against these; where the two differ the printed value wins.
+ * 500 mm SDR 17 is 29.7 (one reproduction reads 27.7, most likely a misprint; the rule gives 29.7).
  */
 export const METRIC_MINIMUM_WALL_MM: Readonly<Record<11 | 17, Readonly<Record<number, number>>>> = {
   11: {

@@ -1,12 +1,21 @@
 // Fuser qualification status for plastic-pipe joining under US 49 CFR 192.285(c):
-// the current rule (Plastic Pipe Rule, 83 FR 58694, effective 2019-01-22) and the legacy
-// rule that governs records made before that date (49 CFR 192.285(c), CONFIRMED).
+// the current rule (Plastic Pipe Rule, Amdt. 192-124, 83 FR 58694, §192.285 at 83 FR 58718,
+// effective 2019-01-22) and the older rule that governs records made before that date
+// (49 CFR 192.285(c) as amended by Amdt. 192-34A, 45 FR 9935, 1980). A status before
+// 2019-01-22 without the data the older rule needs says so instead of using today's rule.
 // Dates are ISO 'YYYY-MM-DD' civil dates; "on" is passed in (no clock).
 
 import { DomainError } from '@/domain/errors';
 import { addMonths, daysBetween, earlierDate, parseIsoDate } from '@/domain/qualifications/dates';
 
-export type QualificationState = 'current' | 'due-soon' | 'lapsed' | 'requalification-needed' | 'never-qualified';
+export type QualificationState =
+  | 'current'
+  | 'due-soon'
+  | 'lapsed'
+  | 'requalification-needed'
+  | 'never-qualified'
+  /** Before 2019-01-22 the older §192.285(c) decides, and its data (joints made, joints failed) is missing. */
+  | 'needs-legacy-data';
 
 /** Which text of §192.285(c) decided the status. */
 export type QualificationRule = 'current' | 'legacy';
@@ -19,10 +28,14 @@ export interface QualificationStatus {
   state: QualificationState;
   rule: QualificationRule;
   lastQualifiedOn: string | null;
+  /** With state 'needs-legacy-data': the inputs the older rule needs and did not get. */
+  missing?: string[];
 }
 
 /** Date the current §192.285(c) text took effect (83 FR 58694). */
 export const CURRENT_RULE_EFFECTIVE_ON = '2019-01-22';
+/** Last day the older §192.285(c) text governed. */
+const lastOldDay = '2019-01-21';
 /** Longest requalification interval under the current rule, months (49 CFR 192.285(c)). */
 export const MAX_REQUALIFICATION_MONTHS = 15;
 /** A qualification that runs out within this many days of `on` is due soon (our choice). */
@@ -37,9 +50,12 @@ export interface QualificationStatusInput {
   on: string;
   /** Operator's own interval, 1–15 months; shorter than 15 tightens. */
   intervalMonths?: number;
-  /** Joint data for the legacy rule; used when `on` is before 2019-01-22. */
+  /**
+   * Older rule (status dates before 2019-01-22): dates of the joints the person made under the
+   * procedure. Without it such a status is 'needs-legacy-data'.
+   */
   jointsMadeOn?: string[];
-  /** Legacy rule: dates joints were found unacceptable (defaults to failedTestsOn). */
+  /** Older rule: dates joints were found unacceptable (defaults to failedTestsOn; one is needed). */
   failedJointsOn?: string[];
 }
 
@@ -66,24 +82,44 @@ const NEVER = (on: string, rule: QualificationRule): QualificationStatus => ({
 });
 
 /**
- * Qualification status on a date. Current rule (on ≥ 2019-01-22, or no joint data):
- * qualified through the earlier of last qualification + 15 months (or the operator's
- * shorter `intervalMonths`; month ends clamp: 2025-11-30 + 15 → 2027-02-28) and 31 Dec of
- * the next calendar year ("once each calendar year at intervals not exceeding 15 months");
- * a failed production-joint test dated after the last qualification ends it until the
- * person requalifies (a requalification dated the same day as a failure is taken to follow
- * it). Due soon = runs out within 30 days of `on`. When `on` is before 2019-01-22 and
- * `jointsMadeOn` is given, the legacy rule applies instead (legacyQualificationStatus).
- * Source: 49 CFR 192.285(c) current and legacy texts (CONFIRMED).
+ * Qualification status on a date. Current rule (on ≥ 2019-01-22): qualified through the
+ * earlier of last qualification + 15 months (or the operator's shorter `intervalMonths`;
+ * month ends clamp: 2025-11-30 + 15 → 2027-02-28) and 31 Dec of the next calendar year
+ * ("once each calendar year at intervals not exceeding 15 months"); a failed production-joint
+ * test dated after the last qualification ends it until the person requalifies (a
+ * requalification dated the same day as a failure is taken to follow it). Due soon = runs
+ * out within 30 days of `on`.
+ * Before 2019-01-22 the older text of §192.285(c) applies (legacyQualificationStatus); it
+ * needs the joints made (`jointsMadeOn`) and the joints found unacceptable (`failedJointsOn`
+ * or `failedTestsOn`). Without them the state is 'needs-legacy-data' (not qualified, no
+ * date), naming what is missing; today's rule is never used for such a date.
+ * Source: 49 CFR 192.285(c), current text (eCFR) and the text before 83 FR 58694.
  * Throws DomainError for a malformed date or an interval outside 1–15 months.
  */
 export function qualificationStatus(input: QualificationStatusInput): QualificationStatus {
   parseIsoDate(input.on, 'Status date');
-  if (input.on < CURRENT_RULE_EFFECTIVE_ON && input.jointsMadeOn !== undefined) {
+  if (input.on < CURRENT_RULE_EFFECTIVE_ON) {
+    const failed = input.failedJointsOn ?? input.failedTestsOn;
+    const missing = [
+      ...(input.jointsMadeOn === undefined ? ['the dates of the joints made under the procedure'] : []),
+      ...(failed === undefined ? ['the dates of joints found unacceptable by testing'] : []),
+    ];
+    if (input.jointsMadeOn === undefined || failed === undefined) {
+      const qualifiedOn = validDates(input.qualifiedOn, 'Qualification date');
+      return {
+        qualified: false,
+        until: null,
+        reason: `Needs the older rule's data: ${missing.join(' and ')}. On ${input.on} 49 CFR 192.285(c) as in force before ${CURRENT_RULE_EFFECTIVE_ON} decides (requalify after 12 months without joints under the procedure, or after 3 joints or 3 % of the joints made, whichever is greater, found unacceptable); today's rule does not apply`,
+        state: 'needs-legacy-data',
+        rule: 'legacy',
+        lastQualifiedOn: lastOnOrBefore(qualifiedOn, input.on),
+        missing,
+      };
+    }
     return legacyQualificationStatus({
       qualifiedOn: input.qualifiedOn,
       jointsMadeOn: input.jointsMadeOn,
-      failedJointsOn: input.failedJointsOn ?? input.failedTestsOn ?? [],
+      failedJointsOn: failed,
       on: input.on,
     });
   }
@@ -145,14 +181,15 @@ export interface LegacyQualificationStatusInput {
 }
 
 /**
- * Status under the legacy §192.285(c) text (before 2019-01-22): a person must requalify
+ * Status under the older §192.285(c) text (in force until 2019-01-21): a person must requalify
  * if during any 12-month period they (1) make no joints under the procedure, or (2) have
  * 3 joints or 3 % of the joints made, whichever is greater, found unacceptable by testing.
  * Reading (our choice, documented): the 12-month clock runs from the last qualification
  * or joint — qualified through that date + 12 months; failures and joints count only after
  * the last qualification; failures are counted over the shortest span that holds them
  * within 12 months, with the joints made in that span as the 3 % base (the strictest
- * reading). Source: 49 CFR 192.285(c) legacy text (CONFIRMED).
+ * reading). Source: 49 CFR 192.285(c) as amended by Amdt. 192-34A (45 FR 9935, 1980), the
+ * text replaced by 83 FR 58694 (from memory: the 1980–2018 text was not found in a public copy).
  */
 export function legacyQualificationStatus(input: LegacyQualificationStatusInput): QualificationStatus {
   const on = input.on;
@@ -205,11 +242,23 @@ export function legacyQualificationStatus(input: LegacyQualificationStatusInput)
       lastQualifiedOn: last,
     };
   }
-  const daysLeft = daysBetween(on, until);
+  // The older text governs only until 2019-01-21; from 2019-01-22 the current text decides,
+  // which counts from the last qualification (15 months / end of the next calendar year)
+  // whatever joints were made. So a qualification the older rule would carry past that date
+  // ends on 2019-01-21 unless the current rule keeps it longer.
+  const currentUntil = earlierDate(addMonths(last, MAX_REQUALIFICATION_MONTHS), `${parseIsoDate(last).year + 1}-12-31`);
+  const carried = until >= CURRENT_RULE_EFFECTIVE_ON;
+  const effectiveUntil = !carried ? until : currentUntil >= CURRENT_RULE_EFFECTIVE_ON ? currentUntil : lastOldDay;
+  const daysLeft = daysBetween(on, effectiveUntil);
+  const why = !carried
+    ? `unless a joint is made under the procedure before then (12 months after ${activity}; 49 CFR 192.285(c), text before 2019-01-22)`
+    : effectiveUntil === lastOldDay
+      ? `the text of 49 CFR 192.285(c) before 2019-01-22 ends then; under the current text the qualification on ${last} has run out`
+      : `from 2019-01-22 the current 49 CFR 192.285(c) counts from the qualification on ${last}`;
   return {
     qualified: true,
-    until,
-    reason: `Qualified until ${until} unless a joint is made under the procedure before then (12 months after ${activity}; 49 CFR 192.285(c), text before 2019-01-22)`,
+    until: effectiveUntil,
+    reason: `Qualified until ${effectiveUntil} (${why})`,
     state: daysLeft <= DUE_SOON_DAYS ? 'due-soon' : 'current',
     rule: 'legacy',
     lastQualifiedOn: last,

@@ -8,6 +8,7 @@
 
 import { DomainError } from '@/domain/errors';
 import { formatIsoDate, isLeapYear } from '@/domain/qualifications/dates';
+import { COMPONENT_TYPE_CODES } from '@/domain/trace-code/component-types';
 
 /** Base-62 digits in value order: 0–9 → 0–9, a–z → 10–35, A–Z → 36–61 (F2897 Table 2). */
 export const BASE62_ALPHABET = '0123456789abcdefghijklmnopqrstuvwxyzABCDEFGHIJKLMNOPQRSTUVWXYZ';
@@ -22,22 +23,6 @@ export const MATERIAL_CODES: Readonly<Record<string, string>> = {
   R: 'malleable iron', S: 'ductile iron', T: 'reinforced epoxy resin', U: 'nylon', V: 'glass-filled nylon',
   X: 'other', '0': 'steel grade A', '1': 'steel grade B', '2': 'steel grade C', '3': 'steel X42',
   '4': 'steel X46', '5': 'steel X52', '6': 'steel X56', '7': 'steel X60', '8': 'steel X65', '9': 'steel X70',
-};
-
-/**
- * Component type codes — the subset of F2897-23a Table 5 that Beadline needs
- * (CONFIRMED). Codes outside this subset are refused as unknown.
- */
-export const COMPONENT_TYPE_CODES: Readonly<Record<string, string>> = {
-  '10': 'pipe, other', '11': 'pipe, straight', '12': 'pipe, coiled', '13': 'pipe, casing',
-  ...Object.fromEntries('ABCDEFGHIJKLM'.split('').map((letter) => [`1${letter}`, 'steel line pipe'])),
-  '20': 'coupling, other', '21': 'coupling, socket fusion', '23': 'coupling, electrofusion',
-  '25': 'coupling, mechanical compression', '41': 'end cap, butt fusion', '51': 'elbow, butt fusion 90°',
-  '5A': 'elbow, butt fusion 45°', '61': 'tee, butt fusion', '71': 'reducer, butt fusion',
-  '81': 'tapping tee, saddle heat fusion with butt-fusion outlet', V1: 'valve, ball',
-  T0: 'transition fitting', T1: 'transition fitting', T2: 'transition fitting', T3: 'transition fitting',
-  TX: 'transition fitting, other', R0: 'riser', R1: 'riser', R2: 'riser', R3: 'riser', R4: 'riser',
-  R5: 'riser', R6: 'riser', EF: 'excess-flow valve',
 };
 
 /** A size factor of F2897-23a Table 6 (a selection; §5.7, CONFIRMED). */

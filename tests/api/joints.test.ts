@@ -7,7 +7,7 @@
 // - Heater surface window 400–450 °F = 204.4–232.2 °C for ASTM F2620 butt fusion
 //   // source: ASTM F2620 via the PPI "Melt Procedure" page (CONFIRMED)
 // - Gauge pressure = interfacial pressure × fusion area ÷ total effective piston area + drag;
-//   fusion area = π·(OD − t)·t with t = OD/SDR
+//   fusion area = π·(OD − t)·t with t the published minimum wall (ASTM F2897-23a Table 6: 2" IPS DR 11 0.216 in)
 //   // source: PPI generic butt-fusion procedure as reproduced in a pipe maker's manual §6.2.5 (PPI TR-33)
 // - A fuser's qualification runs at most 15 months and to 31 Dec of the next year
 //   // source: 49 CFR 192.285(c) (CONFIRMED)
@@ -68,7 +68,7 @@ async function qualify(userId: number, procedureId: number, daysAgo: number) {
 
 /** Expected fusion gauge window, computed here from the PPI formula (not by Beadline's code). */
 function expectedFusionGaugeMpa(ifpPsi: number): number {
-  const t = OD_MM / SDR;
+  const t = 0.216 * 25.4; // 2" IPS DR 11 minimum wall 0.216 in (ASTM F2897-23a Table 6)
   const area = Math.PI * (OD_MM - t) * t;
   const ifpMpa = (ifpPsi * 4.4482216152605) / (25.4 * 25.4);
   return (ifpMpa * area) / PISTON_AREA_MM2 + DRAG_MPA;
@@ -337,7 +337,7 @@ describe("recording a joint", () => {
     // By size instead of a coil: 4" IPS SDR 11 under the same procedure.
     const bySize = await planGet(await requestAs(fuser, `/api/v1/fusion-plan?jobId=${base.jobId}&machineId=${base.machineId}&outsideDiameterMm=114.3&sdr=11`), noParams);
     expect(bySize.status).toBe(200);
-    expect(((await bySize.json()) as ApiBody).plan.wallMm).toBeCloseTo(114.3 / 11, 6); // wall = OD / SDR (ASTM D3035 definition of SDR)
+    expect(((await bySize.json()) as ApiBody).plan.wallMm).toBeCloseTo(0.409 * 25.4, 6); // 4" IPS DR 11 minimum wall 0.409 in (ASTM F2897-23a Table 6)
     expect((await jointGet(await requestAs(fuser, "/api/v1/joints/999999"), idParams(999999))).status).toBe(404);
     expect((await jointGet(await requestAs(fuser, "/api/v1/joints/abc"), { params: Promise.resolve({ id: "abc" }) })).status).toBe(400);
   });

@@ -22,13 +22,14 @@ describe('gauge pressure = IFP × fusion area ÷ piston area + drag', () => {
   // The same joint worked in inch-pound units, independently of the domain's SI code.
   // Machine: total effective piston area 4.71 in², drag 30 psi (our own example values).
   test.each([
-    ['2', 11],
-    ['6', 11],
-    ['8', 13.5],
-    ['12', 17],
-  ])('%s" IPS SDR %s under ASTM F2620', (nominal, sdr) => {
+    // source: walls from ASTM F2897-23a Table 6 (CONFIRMED-2nd): 2" DR 11 0.216, 6" DR 11 0.602,
+    // 8" DR 13.5 0.639, 12" DR 17 0.750 in; ODs ASME B36.10 (CONFIRMED)
+    ['2', 11, 0.216],
+    ['6', 11, 0.602],
+    ['8', 13.5, 0.639],
+    ['12', 17, 0.75],
+  ])('%s" IPS SDR %s under ASTM F2620 (table wall %s in)', (nominal, sdr, tIn) => {
     const odIn = Number(nominal === '2' ? 2.375 : nominal === '6' ? 6.625 : nominal === '8' ? 8.625 : 12.75);
-    const tIn = odIn / sdr;
     const areaIn2 = Math.PI * (odIn - tIn) * tIn;
     const tepaIn2 = 4.71;
     const dragPsi = 30;
@@ -47,6 +48,24 @@ describe('gauge pressure = IFP × fusion area ÷ piston area + drag', () => {
     expectClose(plan.fusionGaugePressureMpa.max, mpa(gaugeMaxPsi));
     expect(plan.beadUpGaugePressureMpa).toEqual(plan.fusionGaugePressureMpa);
     expect(plan.coolingGaugePressureMpa).toBeNull();
+    expect(plan.wallSource).toEqual({ kind: 'table', source: 'ASTM F2897-23a Table 6', status: 'confirmed-2nd' });
+  });
+
+  test('worked example: 8" IPS DR 11 at 75 psi on 4.71 in² with 30 psi drag → 337.5 psi', () => {
+    // source: a pipe maker's manual reproducing the PPI TR-33 gauge method (worked example,
+    // CONFIRMED-2nd); the wall 0.784 in is ASTM F2897-23a Table 6. The manual prints 337.5 psi;
+    // the table wall gives 337.52 psi, OD/DR (0.7841 in) would give 337.56 psi, so ±0.05 psi
+    // tells the two apart.
+    const plan = planButtFusion({
+      standard: 'astm-f2620',
+      outsideDiameterMm: nominalOutsideDiameterMm('ips', '8'),
+      sdr: 11,
+      pistonAreaMm2: mm2(4.71),
+      dragPressureMpa: mpa(30),
+    });
+    expect(plan.wallMm).toBeCloseTo(inToMm(0.784), 12);
+    const gaugePsi = gaugePressureForInterfacialPressure({ interfacialPressureMpa: mpa(75), fusionAreaMm2: plan.fusionAreaMm2, pistonAreaMm2: plan.pistonAreaMm2, dragPressureMpa: plan.dragPressureMpa }) / mpa(1);
+    expect(Math.abs(gaugePsi - 337.5)).toBeLessThanOrEqual(0.05);
   });
 
   test('the inverse gives the interfacial pressure back', () => {
@@ -66,22 +85,26 @@ describe('plans per procedure', () => {
   const machine = { pistonAreaMm2: 3000, dragPressureMpa: 0.2 };
   test.each([
     // from memory, unconfirmed: F2620 minimum melt-bead, heater-removal time and cooling tables; 142.5 s rounds half up to 143 (our rounding)
-    { name: 'F2620 2" IPS SDR 11', standard: 'astm-f2620', od: inToMm(2.375), sdr: 11, wall: undefined, bead: inToMm(1 / 16), soak: null, changeover: 8, buildUp: null, cooling: 143 },
+    // source: wall ASTM F2897-23a Table 6: 2" DR 11 0.216 in (CONFIRMED-2nd)
+    { name: 'F2620 2" IPS SDR 11', standard: 'astm-f2620', od: inToMm(2.375), sdr: 11, wall: undefined, expectedWall: inToMm(0.216), bead: inToMm(1 / 16), soak: null, changeover: 8, buildUp: null, cooling: 143 },
     // from memory, unconfirmed: table wall 0.602 in × 11 min/in = 397.3 s → 397 s
-    { name: 'F2620 6" IPS SDR 11 (table wall)', standard: 'astm-f2620', od: inToMm(6.625), sdr: 11, wall: inToMm(0.602), bead: inToMm(3 / 16), soak: null, changeover: 15, buildUp: null, cooling: 397 },
-    // from memory, unconfirmed: wall 0.076 in is under the 0.17 in start of the removal table
-    { name: 'F2620 ½" IPS SDR 11', standard: 'astm-f2620', od: inToMm(0.84), sdr: 11, wall: undefined, bead: inToMm(1 / 32), soak: null, changeover: null, buildUp: null, cooling: Math.round((0.84 / 11) * 660) },
+    { name: 'F2620 6" IPS SDR 11 (table wall)', standard: 'astm-f2620', od: inToMm(6.625), sdr: 11, wall: inToMm(0.602), expectedWall: inToMm(0.602), bead: inToMm(3 / 16), soak: null, changeover: 15, buildUp: null, cooling: 397 },
+    // from memory, unconfirmed: wall 0.076 in is under the 0.17 in start of the removal table;
+    // source: wall ASTM F2897-23a Table 6: ½" DR 11 0.076 in (CONFIRMED-2nd) → cooling 0.076 × 660 s
+    { name: 'F2620 ½" IPS SDR 11', standard: 'astm-f2620', od: inToMm(0.84), sdr: 11, wall: undefined, expectedWall: inToMm(0.076), bead: inToMm(1 / 32), soak: null, changeover: null, buildUp: null, cooling: Math.round(0.076 * 660) },
     // from memory, unconfirmed: DVS 2207-1 wall 10 mm row 7–12 mm, linear within the band
-    { name: 'DVS 110 SDR 11', standard: 'dvs-2207-1', od: 110, sdr: 11, wall: undefined, bead: 1.5, soak: { target: 100, min: 100, max: null }, changeover: 7, buildUp: 7, cooling: 816 },
+    // source: wall ISO 4427-2 Table 2: 110 SDR 11 e_min 10.0 mm (CONFIRMED-2nd)
+    { name: 'DVS 110 SDR 11', standard: 'dvs-2207-1', od: 110, sdr: 11, wall: undefined, expectedWall: 10.0, bead: 1.5, soak: { target: 100, min: 100, max: null }, changeover: 7, buildUp: 7, cooling: 816 },
     // from memory, unconfirmed: ISO 21307 SLP t2 = (11 ± 1)·e, t3 = 4 + 0.3·e, cooling e + 3 min
-    { name: 'ISO SLP 110 SDR 11', standard: 'iso-21307-slp', od: 110, sdr: 11, wall: undefined, bead: null, soak: { target: 110, min: 100, max: 120 }, changeover: 7, buildUp: null, cooling: 780 },
+    { name: 'ISO SLP 110 SDR 11', standard: 'iso-21307-slp', od: 110, sdr: 11, wall: undefined, expectedWall: 10.0, bead: null, soak: { target: 110, min: 100, max: 120 }, changeover: 7, buildUp: null, cooling: 780 },
     // from memory, unconfirmed: ISO 21307 SHP t3 = 8 + 0.1·e, cooling 0.43·e min
-    { name: 'ISO SHP 110 SDR 11', standard: 'iso-21307-shp', od: 110, sdr: 11, wall: undefined, bead: null, soak: null, changeover: 9, buildUp: null, cooling: 258 },
-    // from memory, unconfirmed: ISO 21307 DLP t3 ≈ 10 s, cooling e + 3 min; wall 500/17 = 29.41 mm
-    { name: 'ISO DLP 500 SDR 17', standard: 'iso-21307-dlp', od: 500, sdr: 17, wall: undefined, bead: null, soak: null, changeover: 10, buildUp: null, cooling: Math.round((500 / 17 + 3) * 60) },
+    { name: 'ISO SHP 110 SDR 11', standard: 'iso-21307-shp', od: 110, sdr: 11, wall: undefined, expectedWall: 10.0, bead: null, soak: null, changeover: 9, buildUp: null, cooling: 258 },
+    // from memory, unconfirmed: ISO 21307 DLP t3 ≈ 10 s, cooling e + 3 min;
+    // source: wall ISO 4437-2 / ISO 4427-2 Table 2: 500 SDR 17 e_min 29.7 mm (CONFIRMED-2nd)
+    { name: 'ISO DLP 500 SDR 17', standard: 'iso-21307-dlp', od: 500, sdr: 17, wall: undefined, expectedWall: 29.7, bead: null, soak: null, changeover: 10, buildUp: null, cooling: Math.round((29.7 + 3) * 60) },
   ] as const)('$name', (row) => {
     const plan = planButtFusion({ standard: row.standard, outsideDiameterMm: row.od, sdr: row.sdr, wallMm: row.wall, ...machine });
-    expect(plan.wallMm).toBeCloseTo(row.wall ?? row.od / row.sdr, 12);
+    expect(plan.wallMm).toBeCloseTo(row.expectedWall, 12);
     if (row.bead === null) expect(plan.minBeadMm).toBeNull();
     else expect(plan.minBeadMm).toBeCloseTo(row.bead, 12);
     expect(plan.heatSoakTargetS).toBe(row.soak?.target ?? null);
@@ -119,6 +142,51 @@ describe('plans per procedure', () => {
     // source: ASTM F2897-23a Table 6: 2" SDR 11 wall 0.216 in (CONFIRMED)
     const plan = planButtFusion({ standard: 'astm-f2620', outsideDiameterMm: inToMm(2.375), sdr: 11, wallMm: inToMm(ipsMinimumWallIn('2', 11)), ...machine });
     expect(plan.wallMm).toBeCloseTo(inToMm(0.216), 12);
+    expect(plan.wallSource).toEqual({ kind: 'given' });
+  });
+
+  test.each([
+    // source: ISO 4427-2 Table 2 / ISO 4437-2 e_min (CONFIRMED-2nd)
+    [20, 11, 2.0],
+    [63, 11, 5.8],
+    [75, 11, 6.8],
+    [160, 11, 14.6],
+    [250, 11, 22.7],
+    [110, 17, 6.6],
+    [500, 17, 29.7],
+  ])('metric d_n %s SDR %s plans on the ISO e_min %s mm', (od, sdr, wall) => {
+    const plan = planButtFusion({ standard: 'iso-21307-slp', outsideDiameterMm: od, sdr, ...machine });
+    expect(plan.wallMm).toBe(wall);
+    expect(plan.wallSource).toEqual({ kind: 'table', source: 'ISO 4427-2 Table 2 / ISO 4437-2 (e_min)', status: 'confirmed-2nd' });
+  });
+
+  test.each([
+    // source: ASTM F2897-23a Table 6 (CONFIRMED-2nd): ¾" DR 11 0.095, 2" DR 9.33 0.255, 2" DR 11 0.216, 4" DR 17 0.265, 8" DR 11 0.784 in
+    ['3/4', 11, 0.095],
+    ['2', 9.33, 0.255],
+    ['2', 11, 0.216],
+    ['4', 17, 0.265],
+    ['8', 11, 0.784],
+  ])('IPS %s" DR %s plans on the Table 6 wall %s in (OD as stored, 2 decimals)', (nominal, sdr, wallIn) => {
+    const od = Math.round(nominalOutsideDiameterMm('ips', nominal) * 100) / 100;
+    const plan = planButtFusion({ standard: 'astm-f2620', outsideDiameterMm: od, sdr, ...machine });
+    expect(plan.wallMm).toBeCloseTo(inToMm(wallIn), 12);
+    expect(plan.wallSource).toEqual({ kind: 'table', source: 'ASTM F2897-23a Table 6', status: 'confirmed-2nd' });
+  });
+
+  test('a named size with a fixed wall plans on that wall', () => {
+    // source: ASTM F2897-23a Table 6: 1" CTS 0.099 in (CONFIRMED-2nd)
+    const plan = planButtFusion({ standard: 'astm-f2620', outsideDiameterMm: nominalOutsideDiameterMm('cts', '1'), sdr: 11, size: { series: 'cts', nominal: '1', wallIn: 0.099 }, ...machine });
+    expect(plan.wallMm).toBeCloseTo(inToMm(0.099), 12);
+    expect(plan.wallSource).toMatchObject({ kind: 'table', source: 'ASTM F2897-23a Table 6' });
+    expect(() => planButtFusion({ standard: 'astm-f2620', outsideDiameterMm: 63, sdr: 11, size: { series: 'ips', nominal: '2' }, ...machine })).toThrow(/not IPS size "2"/);
+  });
+
+  test('a size no table lists plans on OD/SDR and says so', () => {
+    // source: SDR = OD / minimum wall (ASTM D3035, CONFIRMED)
+    const plan = planButtFusion({ standard: 'dvs-2207-1', outsideDiameterMm: 61, sdr: 11, ...machine });
+    expect(plan.wallMm).toBeCloseTo(61 / 11, 12);
+    expect(plan.wallSource).toEqual({ kind: 'od-over-sdr' });
   });
 });
 

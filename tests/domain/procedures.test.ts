@@ -254,7 +254,8 @@ describe('deriveProcedure tightens and refuses loosening', () => {
     const result = deriveProcedure(base, { outsideDiameterRangeMm: { max: 115 } });
     if (!result.ok) throw new Error('derivation failed');
     expect(() => planButtFusion({ ...twoInch, outsideDiameterMm: inToMm(6.625), procedure: result.procedure })).toThrow(/applies to outside diameters up to 115.0 mm/);
-    expect(planButtFusion({ ...twoInch, procedure: result.procedure }).wallMm).toBeCloseTo(inToMm(2.375) / 11, 12);
+    // source: ASTM F2897-23a Table 6: 2" IPS DR 11 minimum wall 0.216 in (CONFIRMED-2nd)
+    expect(planButtFusion({ ...twoInch, procedure: result.procedure }).wallMm).toBeCloseTo(inToMm(0.216), 12);
     const wider = deriveProcedure(builtInProcedure('iso-21307-slp'), { wallRangeMm: { max: 80 } });
     expect(wider).toMatchObject({ ok: false, errors: [{ field: 'wallRangeMm.max' }] });
   });

@@ -88,8 +88,12 @@ describe('current rule, 49 CFR 192.285(c) since 2019-01-22', () => {
 
 describe('legacy rule, 49 CFR 192.285(c) before 2019-01-22', () => {
   test.each([
-    // source: 49 CFR 192.285(c) legacy text (CONFIRMED): requalify if in any 12 months no joints are made
-    ['joints keep the qualification alive', ['2016-01-10'], ['2016-05-01', '2017-04-01', '2018-03-15'], '2018-06-01', '2019-03-15', 'current', true],
+    // source: 49 CFR 192.285(c) text before 83 FR 58694 (from memory, not found in a public copy): requalify if in any 12 months no joints are made
+    // source: 83 FR 58694, effective 2019-01-22 (49 CFR 192.285(c) current text): the older text ends on 2019-01-21, and
+    // the current text counts 15 months / next calendar year from the 2016-01-10 qualification, long past — so 2019-01-21, not 2019-03-15
+    ['joints keep the qualification alive (to the end of the older text)', ['2016-01-10'], ['2016-05-01', '2017-04-01', '2018-03-15'], '2018-06-01', '2019-01-21', 'current', true],
+    // source: 49 CFR 192.285(c) current text: qualified 2018-03-01 → earlier of 2019-06-01 and 2019-12-31, past 2019-01-22
+    ['the current text carries a recent qualification past 2019-01-22', ['2018-03-01'], ['2018-05-01', '2018-11-15'], '2018-12-01', '2019-06-01', 'current', true],
     ['12 months without joints lapses it', ['2016-01-10'], ['2016-05-01', '2017-04-01'], '2018-06-01', '2018-04-01', 'lapsed', false],
     ['a joint on the 12-month day still counts', ['2016-01-10'], ['2017-01-10'], '2017-06-01', '2018-01-10', 'current', true],
     ['a joint after a gap does not revive it', ['2016-01-10'], ['2017-01-11', '2017-05-01'], '2017-06-01', '2017-01-10', 'lapsed', false],
@@ -102,7 +106,7 @@ describe('legacy rule, 49 CFR 192.285(c) before 2019-01-22', () => {
 
   const jointsIn2017 = (count: number) => Array.from({ length: count }, (_, i) => `2017-${String(1 + Math.floor(i / 28)).padStart(2, '0')}-${String(1 + (i % 28)).padStart(2, '0')}`);
   test.each([
-    // source: 49 CFR 192.285(c) legacy text (CONFIRMED): 3 joints or 3 % of joints made, whichever is greater, found unacceptable
+    // source: 49 CFR 192.285(c) text before 83 FR 58694 (from memory, not found in a public copy): 3 joints or 3 % of joints made, whichever is greater, found unacceptable
     ['2 failures of 50 joints is fine', 50, ['2017-01-05', '2017-01-20'], 'current'],
     ['3 failures of 50 joints needs requalification', 50, ['2017-01-05', '2017-01-20', '2017-02-10'], 'requalification-needed'],
     // about 100 joints between failures: any 3 of them span ≥ 200 joints, 3 % of which is ≥ 6 > 3
@@ -122,6 +126,20 @@ describe('legacy rule, 49 CFR 192.285(c) before 2019-01-22', () => {
     // source: 49 CFR 192.285(c) and 83 FR 58694: the superseded text applies only to records made before 22 Jan 2019
     const status = qualificationStatus({ qualifiedOn: ['2016-01-10'], jointsMadeOn: ['2016-05-01'], failedTestsOn: [], on: '2017-06-01' });
     expect(status).toMatchObject({ rule: 'legacy', until: '2017-05-01', state: 'lapsed' });
-    expect(qualificationStatus({ qualifiedOn: ['2016-01-10'], on: '2017-06-01' }).rule).toBe('current');
+  });
+  test.each([
+    // source: 83 FR 58694 (effective 2019-01-22): before that date 49 CFR 192.285(c) in its older text decides, and it
+    // needs the joints made and the joints found unacceptable; today's rule is not applied in their place
+    [{ qualifiedOn: ['2016-01-10'], on: '2017-06-01' }, ['the dates of the joints made under the procedure', 'the dates of joints found unacceptable by testing']],
+    [{ qualifiedOn: ['2016-01-10'], jointsMadeOn: ['2016-05-01'], on: '2017-06-01' }, ['the dates of joints found unacceptable by testing']],
+    [{ qualifiedOn: ['2016-01-10'], failedTestsOn: [], on: '2019-01-21' }, ['the dates of the joints made under the procedure']],
+  ])('missing older-rule data is named, not replaced by today\'s rule (%o)', (input, missing) => {
+    const status = qualificationStatus(input);
+    expect(status).toMatchObject({ state: 'needs-legacy-data', rule: 'legacy', qualified: false, until: null, lastQualifiedOn: '2016-01-10', missing });
+    expect(status.reason).toMatch(/^Needs the older rule's data: /);
+  });
+  test('on 2019-01-22 the current rule needs no joint data', () => {
+    // source: 49 CFR 192.285(c) current text, effective 2019-01-22 (83 FR 58694)
+    expect(qualificationStatus({ qualifiedOn: ['2018-06-01'], on: '2019-01-22' })).toMatchObject({ rule: 'current', state: 'current', until: '2019-09-01' });
   });
 });

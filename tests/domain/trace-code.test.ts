@@ -3,6 +3,7 @@ import {
   BASE62_ALPHABET,
   buildTraceCode,
   COMPONENT_TYPE_CODES,
+  COMPONENT_TYPES,
   decodeBase62,
   encodeBase62,
   MATERIAL_CODES,
@@ -98,6 +99,56 @@ describe('tables', () => {
     ['EF', 'excess-flow valve'],
   ])('component type %s is %s', (code, description) => {
     expect(COMPONENT_TYPE_CODES[code]).toBe(description);
+  });
+  test.each([
+    // source: ASTM F2897-23a Table 5, read in the text of the standard (CONFIRMED)
+    ['10', 'pipe, other', 'confirmed'],
+    ['13', 'pipe, casing', 'confirmed'],
+    ['41', 'end cap, butt fusion', 'confirmed'],
+    ['51', 'elbow, butt fusion 90°', 'confirmed'],
+    ['61', 'tee, butt fusion', 'confirmed'],
+    ['71', 'reducer, butt fusion', 'confirmed'],
+    ['V1', 'valve, ball', 'confirmed'],
+    ['EF', 'excess-flow valve', 'confirmed'],
+    // source: ASTM F2897-23a Table 5: codes 1A–1M, T0–T3, TX, R0–R6 read in the text (CONFIRMED); their individual
+    // meanings, and every other code, read only in a public transcription of the table (CONFIRMED-2nd).
+    // TX is the butt-fusion socket-weld transition, not "other".
+    ['1A', 'pipe, steel line pipe, seamless, API 5L PSL1, single coat', 'confirmed-2nd'],
+    ['1M', 'pipe, steel line pipe, high-frequency welded, API 5L PSL2, dual coat', 'confirmed-2nd'],
+    ['T0', 'transition fitting, other', 'confirmed-2nd'],
+    ['T3', 'transition fitting, flanged end', 'confirmed-2nd'],
+    ['TX', 'transition fitting, socket weld by butt fusion', 'confirmed-2nd'],
+    ['R1', 'riser, factory assembled, anodeless', 'confirmed-2nd'],
+    ['R6', 'riser, field assembled, not anodeless', 'confirmed-2nd'],
+    ['22', 'coupling, socket fusion with excess-flow valve', 'confirmed-2nd'],
+    ['2D', 'coupling, flanged', 'confirmed-2nd'],
+    ['43', 'end cap, electrofusion', 'confirmed-2nd'],
+    ['5J', 'elbow, fabricated 45°', 'confirmed-2nd'],
+    ['63', 'tee, electrofusion', 'confirmed-2nd'],
+    ['73', 'reducer, electrofusion', 'confirmed-2nd'],
+    ['89', 'tapping tee, electrofusion with butt-fusion outlet', 'confirmed-2nd'],
+    ['8S', 'tapping tee, mechanical with mechanical interference fit outlet and excess-flow valve', 'confirmed-2nd'],
+    ['91', 'high-volume tapping tee, electrofusion with butt-fusion outlet', 'confirmed-2nd'],
+    ['B1', 'branch saddle, electrofusion', 'confirmed-2nd'],
+    ['V7', 'valve, plug', 'confirmed-2nd'],
+    ['UX', 'union, insulated', 'confirmed-2nd'],
+  ])('Table 5 code %s is "%s" (%s)', (code, label, status) => {
+    expect(COMPONENT_TYPES[code]).toMatchObject({ code, label, status });
+  });
+  test.each(['1I', '1N', '5I', '8I', '8O', '98', '99', 'T4', 'R7', 'EE', 'V8', 'ZZ'])('%s is not an ASTM F2897-23a Table 5 code', (code) => {
+    // source: ASTM F2897-23a Table 5 lists 1A–1H and 1J–1M (no 1I), 5A–5H and 5J, 8A–8H and 8J–8S (no I or O)
+    expect(COMPONENT_TYPES[code]).toBeUndefined();
+    expect(() => buildTraceCode({ manufacturer: 'AB', lot: '1', productionDate: '2012-09-01', material: 'H', componentType: code, sizeFactors: null })).toThrow(/is not a known ASTM F2897 Table 5 code/);
+  });
+  test('the table has every group and 211 codes', () => {
+    // source: ASTM F2897-23a Table 5 (groups as in the table; count of codes in the public transcription)
+    const groups = new Set(Object.values(COMPONENT_TYPES).map((type) => type.group));
+    expect([...groups]).toEqual([
+      'pipe', 'coupling', 'adapter coupling', 'end cap', 'elbow', 'tee', 'reducer', 'tapping tee', 'high-volume tapping tee',
+      'branch saddle', 'mechanical saddle', 'service tee', 'service saddle', 'flange', 'transition fitting', 'riser', 'valve',
+      'meter set', 'regulator', 'filter', 'anode', 'pressure control fitting', 'union', 'repair clamp', 'excess-flow valve',
+    ]);
+    expect(Object.keys(COMPONENT_TYPES)).toHaveLength(211);
   });
 });
 

@@ -21,7 +21,7 @@ const PISTON_AREA_IN2 = 1006.5 / 25.4 ** 2;
 const DRAG_PSI = 10;
 
 function fusionGaugePsi(ifpPsi: number): number {
-  const t = OD_IN / 11;
+  const t = 0.216; // 2" IPS DR 11 minimum wall, in (ASTM F2897-23a Table 6)
   return (ifpPsi * Math.PI * (OD_IN - t) * t) / PISTON_AREA_IN2 + DRAG_PSI;
 }
 
