@@ -11,7 +11,7 @@ import { bendRatio, minimumBendRadiusMm } from "@/domain/pipe/bending";
 import { formatQuantity } from "@/domain/units/format";
 import { publicBaseUrl } from "../../labels/_lib/base-url";
 import { coilLabelSvg, stockOrDefault } from "../../labels/_lib/render";
-import { CoilStatusBadge } from "../_components/coil-status-badge";
+import { CoilStatusBadge } from "@/components/ui/badges";
 import { MoveCoilForm } from "../_components/move-coil-form";
 import { NextRunCheck } from "../_components/next-run-check";
 

@@ -5,7 +5,7 @@ import type { Coil } from "@/database/queries/coils";
 import { DAMAGE_LABELS } from "@/domain/coil-life/rules";
 import { describeSize } from "@/domain/labels/label";
 import { formatQuantity } from "@/domain/units/format";
-import { CoilStatusBadge } from "../../../coils/_components/coil-status-badge";
+import { CoilStatusBadge } from "@/components/ui/badges";
 import { traceJointOrigins } from "../../_lib/origins";
 
 export const dynamic = "force-dynamic";
