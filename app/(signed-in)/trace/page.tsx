@@ -6,6 +6,7 @@ import { traceSearchSchema } from "@/domain/coil-life/schemas";
 import { describeSize } from "@/domain/labels/label";
 import { fieldErrorsFromIssues } from "@/domain/result";
 import { formatQuantity } from "@/domain/units/format";
+import { FieldShell } from "@/components/form/field-shell";
 import { CoilStatusBadge, OutcomeBadge } from "@/components/ui/badges";
 import { DataTable } from "@/components/ui/data-table";
 import { SectionCard } from "@/components/ui/section-card";
@@ -48,73 +49,40 @@ export default async function TracePage({ searchParams }: { searchParams: Promis
     <div className="flex flex-col gap-6">
       <h1 className="text-2xl font-bold">Trace</h1>
       <div className="grid gap-6 lg:grid-cols-2">
-        <section aria-labelledby="lot-search" className="rounded-md border-2 border-slate-300 bg-white p-4">
-          <h2 id="lot-search" className="mb-2 text-lg font-bold">
-            Lot → ground
-          </h2>
+        <SectionCard id="lot-search" title="Lot → ground" tone="card" isCompact>
           <p className="mb-3 text-sm">Every coil of a lot and every joint made with them, with where, when, who and the outcome.</p>
           <form role="search" method="get" action="/trace" className="flex flex-col gap-3" aria-describedby="lot-search-errors">
             <div className="grid gap-3 sm:grid-cols-2">
-              <div className="flex flex-col gap-1">
-                <label htmlFor="manufacturer" className="text-sm font-semibold">
-                  Pipe maker
-                </label>
-                <input id="manufacturer" name="manufacturer" defaultValue={one("manufacturer") ?? ""} className={input} aria-invalid={fields.manufacturer ? true : undefined} aria-describedby={fields.manufacturer ? "manufacturer-error" : undefined} />
-                {fields.manufacturer ? (
-                  <p id="manufacturer-error" className="text-sm font-semibold text-fail">
-                    {fields.manufacturer[0]}
-                  </p>
-                ) : null}
-              </div>
-              <div className="flex flex-col gap-1">
-                <label htmlFor="lot" className="text-sm font-semibold">
-                  Lot
-                </label>
-                <input id="lot" name="lot" defaultValue={one("lot") ?? ""} className={input} aria-invalid={fields.lot ? true : undefined} aria-describedby={fields.lot ? "lot-error" : undefined} />
-                {fields.lot ? (
-                  <p id="lot-error" className="text-sm font-semibold text-fail">
-                    {fields.lot[0]}
-                  </p>
-                ) : null}
-              </div>
+              <FieldShell id="manufacturer" label="Pipe maker" error={fields.manufacturer?.[0]}>
+                {(control) => <input {...control} name="manufacturer" defaultValue={one("manufacturer") ?? ""} className={input} />}
+              </FieldShell>
+              <FieldShell id="lot" label="Lot" error={fields.lot?.[0]}>
+                {(control) => <input {...control} name="lot" defaultValue={one("lot") ?? ""} className={input} />}
+              </FieldShell>
             </div>
-            <div className="flex flex-col gap-1">
-              <label htmlFor="code" className="text-sm font-semibold">
-                Or a traceability code, coil id or label address
-              </label>
-              <input id="code" name="code" defaultValue={one("code") ?? ""} autoComplete="off" spellCheck={false} className={input} />
-            </div>
+            <FieldShell id="code" label="Or a traceability code, coil id or label address">
+              {(control) => <input {...control} name="code" defaultValue={one("code") ?? ""} autoComplete="off" spellCheck={false} className={input} />}
+            </FieldShell>
             <div>
               <button type="submit" className="min-h-touch rounded-md bg-brand px-4 font-semibold text-white hover:bg-brand-dark">
                 Trace lot
               </button>
             </div>
           </form>
-        </section>
-        <section aria-labelledby="joint-search" className="rounded-md border-2 border-slate-300 bg-white p-4">
-          <h2 id="joint-search" className="mb-2 text-lg font-bold">
-            Joint → origins
-          </h2>
+        </SectionCard>
+        <SectionCard id="joint-search" title="Joint → origins" tone="card" isCompact>
           <p className="mb-3 text-sm">The two components with their lots, the machine, heater plate, fuser and procedure of one joint.</p>
           <form method="get" action="/trace" className="flex flex-col gap-3">
-            <div className="flex flex-col gap-1">
-              <label htmlFor="joint" className="text-sm font-semibold">
-                Joint id, or job code and joint number
-              </label>
-              <input id="joint" name="joint" defaultValue={jointRef ?? ""} placeholder="WO-24117 #12" className={input} aria-invalid={jointMessage ? true : undefined} aria-describedby={jointMessage ? "joint-error" : undefined} />
-              {jointMessage ? (
-                <p id="joint-error" role="alert" className="text-sm font-semibold text-fail">
-                  {jointMessage}
-                </p>
-              ) : null}
-            </div>
+            <FieldShell id="joint" label="Joint id, or job code and joint number" error={jointMessage} errorRole="alert">
+              {(control) => <input {...control} name="joint" defaultValue={jointRef ?? ""} placeholder="WO-24117 #12" className={input} />}
+            </FieldShell>
             <div>
               <button type="submit" className="min-h-touch rounded-md bg-brand px-4 font-semibold text-white hover:bg-brand-dark">
                 Trace joint
               </button>
             </div>
           </form>
-        </section>
+        </SectionCard>
       </div>
 
       {trace ? (
