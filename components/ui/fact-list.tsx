@@ -8,7 +8,8 @@ const STACKED_COLUMNS = { 1: "", 2: "sm:grid-cols-2", 3: "sm:grid-cols-3" } as c
 /**
  * Term/description pairs as a description list. "inline": term beside its description
  * (stacked on a phone). "stacked": small term above a bold description, in 1–3 columns.
- * Pass `facts`, or FactRow / FactBlock children for descriptions with markup.
+ * "ruled": one pair a line with a rule between lines, as a record sheet.
+ * Pass `facts`, or FactRow / FactBlock / FactLine children for descriptions with markup.
  */
 export function FactList({
   facts,
@@ -18,15 +19,15 @@ export function FactList({
   children,
 }: {
   facts?: readonly (Fact | null | false | undefined)[];
-  layout?: "inline" | "stacked";
+  layout?: "inline" | "stacked" | "ruled";
   columns?: keyof typeof STACKED_COLUMNS;
   className?: string;
   children?: ReactNode;
 }) {
-  const Item = layout === "inline" ? FactRow : FactBlock;
-  const grid = layout === "inline" ? "gap-x-4 gap-y-1 sm:grid-cols-[max-content_1fr]" : `gap-2 ${STACKED_COLUMNS[columns]}`;
+  const Item = layout === "inline" ? FactRow : layout === "stacked" ? FactBlock : FactLine;
+  const grid = layout === "inline" ? "grid gap-x-4 gap-y-1 sm:grid-cols-[max-content_1fr]" : layout === "stacked" ? `grid gap-2 ${STACKED_COLUMNS[columns]}` : "";
   return (
-    <dl className={`grid ${grid} ${className}`}>
+    <dl className={`${grid} ${className}`}>
       {facts?.filter((f): f is Fact => Boolean(f)).map((f, i) => (
         <Item key={f.key ?? i} term={f.term}>
           {f.description}
@@ -53,6 +54,16 @@ export function FactBlock({ term, children }: { term: ReactNode; children: React
     <div className="flex flex-col">
       <dt className="text-sm text-slate-700">{term}</dt>
       <dd className="font-semibold">{children}</dd>
+    </div>
+  );
+}
+
+/** One ruled line: the term in a fixed column beside its description (stacked on a phone). */
+export function FactLine({ term, children }: { term: ReactNode; children: ReactNode }) {
+  return (
+    <div className="flex flex-col border-b border-slate-200 py-2 sm:flex-row sm:gap-4">
+      <dt className="font-semibold text-slate-700 sm:w-64">{term}</dt>
+      <dd className="text-ink">{children}</dd>
     </div>
   );
 }

@@ -1,4 +1,4 @@
-import { formatInstant, type InstantPrecision } from "./format-instant";
+import { formatInstant, type InstantPrecision } from "./display-format";
 
 /** An instant as a `<time>` element: machine-readable `dateTime`, the screen's text inside. */
 export function TimeDisplay({ at, precision = "minute", withZone = false }: { at: Date | string | number; precision?: InstantPrecision; withZone?: boolean }) {

@@ -6,7 +6,7 @@ import { describeSize } from "@/domain/labels/label";
 import { formatQuantity } from "@/domain/units/format";
 import { CoilStatusBadge } from "@/components/ui/badges";
 import { DataTable } from "@/components/ui/data-table";
-import { formatInstant } from "@/components/ui/format-instant";
+import { formatInstant } from "@/components/ui/display-format";
 
 export const dynamic = "force-dynamic";
 

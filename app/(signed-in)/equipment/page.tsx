@@ -4,7 +4,7 @@ import { requireUser } from "@/app/_lib/page-guard";
 import { listHeatersWithLastCheck, listMachines } from "@/database/queries/equipment";
 import { formatRange } from "@/domain/units/format";
 import { DataTable } from "@/components/ui/data-table";
-import { formatInstant } from "@/components/ui/format-instant";
+import { formatInstant } from "@/components/ui/display-format";
 import { SectionCard } from "@/components/ui/section-card";
 import { HeaterForm } from "./_components/heater-form";
 import { MachineForm } from "./_components/machine-form";

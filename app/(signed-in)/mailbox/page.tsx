@@ -3,7 +3,7 @@ import { listDevMail, spoolDir } from "@/database/queries/dev-mailbox";
 import { countOutboxByStatus, listOutbox, type MailStatus, type OutboxMail } from "@/database/queries/outbox";
 import { mailKindLabel } from "@/domain/review/digest";
 import { DataTable } from "@/components/ui/data-table";
-import { formatInstant } from "@/components/ui/format-instant";
+import { formatInstant } from "@/components/ui/display-format";
 import { SectionCard } from "@/components/ui/section-card";
 import { RetryButton } from "./_components/retry-button";
 import { MailPreference } from "./_components/mail-preference";

@@ -3,7 +3,7 @@ import { currentProcedureVersion, listProcedures } from "@/database/queries/proc
 import { builtInProcedure } from "@/domain/fusion/procedures";
 import { canManageOffice } from "@/domain/roles";
 import { DataTable } from "@/components/ui/data-table";
-import { formatInstant } from "@/components/ui/format-instant";
+import { formatInstant } from "@/components/ui/display-format";
 import { SectionCard } from "@/components/ui/section-card";
 import { AddProcedureForm } from "./_components/add-procedure-form";
 import { standardOptions } from "./_lib/views";

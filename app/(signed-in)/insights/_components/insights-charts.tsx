@@ -3,7 +3,7 @@ import type { ReactNode } from "react";
 import { Area, Bar, BarChart, CartesianGrid, ComposedChart, Legend, Line, ReferenceLine, ResponsiveContainer, Scatter, ScatterChart, Tooltip, XAxis, YAxis } from "recharts";
 import { formatDuration, toDisplay, unitLabel } from "@/domain/units/format";
 import { DataTable } from "@/components/ui/data-table";
-import { formatInstant } from "@/components/ui/format-instant";
+import { formatInstant } from "@/components/ui/display-format";
 import { SectionCard } from "@/components/ui/section-card";
 
 type Yield = { joints: number; firstPass: number; yieldPct: number };

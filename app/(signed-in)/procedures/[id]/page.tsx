@@ -5,7 +5,7 @@ import { findProcedureById, listProcedureVersions } from "@/database/queries/pro
 import { builtInProcedure, describeProcedureWindows } from "@/domain/fusion/procedures";
 import { canManageOffice } from "@/domain/roles";
 import { DataTable } from "@/components/ui/data-table";
-import { formatInstant } from "@/components/ui/format-instant";
+import { formatInstant } from "@/components/ui/display-format";
 import { SectionCard } from "@/components/ui/section-card";
 import { TightenForm } from "../_components/tighten-form";
 import { VersionNotesForm } from "../_components/version-notes-form";

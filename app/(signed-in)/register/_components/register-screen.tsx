@@ -34,6 +34,7 @@ import {
 import type { FieldErrors } from "@/domain/result";
 import type { UnitSystem } from "@/domain/units";
 import { ExportPanel } from "./export-panel";
+import { formatCount } from "@/components/ui/display-format";
 
 type Option = { id: number; label: string };
 type Options = { jobs: Option[]; fusers: Option[]; machines: Option[] };
@@ -155,7 +156,7 @@ export function RegisterScreen({ view, urlErrors, options, unitSystem }: { view:
   );
 
   const countText =
-    count === null ? "Counting joints …" : count.isEstimate ? `About ${count.value.toLocaleString("en-US")} joints (an estimate: the exact count is too slow to take at this size)` : `${count.value.toLocaleString("en-US")} ${count.value === 1 ? "joint" : "joints"}`;
+    count === null ? "Counting joints …" : count.isEstimate ? `About ${formatCount(count.value)} joints (an estimate: the exact count is too slow to take at this size)` : `${formatCount(count.value)} ${count.value === 1 ? "joint" : "joints"}`;
 
   return (
     <div className="flex flex-col gap-4">

@@ -7,7 +7,7 @@ import { describeSize } from "@/domain/labels/label";
 import { formatQuantity } from "@/domain/units/format";
 import { CoilStatusBadge } from "@/components/ui/badges";
 import { FactBlock, FactList } from "@/components/ui/fact-list";
-import { formatInstant } from "@/components/ui/format-instant";
+import { formatInstant } from "@/components/ui/display-format";
 import { TimeDisplay } from "@/components/ui/time-display";
 import { traceJointOrigins } from "../../_lib/origins";
 import { SectionCard } from "@/components/ui/section-card";

@@ -1,4 +1,4 @@
-// The one place an instant becomes text on a screen, a label or in a mail.
+// The one place an instant (and a count) becomes text on a screen, a label or in a mail.
 // Instants are shown in UTC as ISO 8601 calendar dates and times (ISO 8601-1:2019 §5.2.2,
 // §5.3) with a space for the "T"; a later issue shows them in the organisation's time zone,
 // and changes only this file.
