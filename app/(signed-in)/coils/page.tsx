@@ -4,6 +4,7 @@ import { countCoilsByStatus, listCoils } from "@/database/queries/coils";
 import { COIL_STATUSES, COIL_STATUS_LABELS, type CoilStatus } from "@/domain/coil-life/rules";
 import { describeSize } from "@/domain/labels/label";
 import { formatQuantity } from "@/domain/units/format";
+import { FieldShell } from "@/components/form/field-shell";
 import { CoilStatusBadge } from "@/components/ui/badges";
 import { DataTable } from "@/components/ui/data-table";
 import { formatInstant } from "@/components/ui/display-format";
@@ -45,12 +46,9 @@ export default async function CoilsPage({ searchParams }: { searchParams: Promis
       </nav>
       <form role="search" method="get" action="/coils" className="flex flex-wrap items-end gap-2">
         {status !== "all" ? <input type="hidden" name="status" value={status} /> : null}
-        <div className="flex flex-col gap-1">
-          <label htmlFor="coil-search" className="text-sm font-semibold">
-            Coil id, lot or traceability code
-          </label>
-          <input id="coil-search" name="q" defaultValue={search} className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-3" />
-        </div>
+        <FieldShell id="coil-search" label="Coil id, lot or traceability code">
+          {(control) => <input {...control} name="q" defaultValue={search} className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-3" />}
+        </FieldShell>
         <button type="submit" className="min-h-touch rounded-md border-2 border-brand bg-white px-4 font-semibold text-brand">
           Find coils
         </button>
