@@ -69,7 +69,7 @@ export function DataTable<Row>({
             <tr key={rowKey(row, r)} className={`border-b border-slate-200 align-top ${rowClassName?.(row, r) ?? ""}`}>
               {columns.map((c, i) => {
                 const content = c.href ? (
-                  <Link className="font-semibold text-brand underline" href={c.href(row)}>
+                  <Link className="whitespace-nowrap font-semibold text-brand underline" href={c.href(row)}>
                     {c.cell(row, r)}
                   </Link>
                 ) : (

@@ -67,7 +67,7 @@ export default async function CoilsPage({ searchParams }: { searchParams: Promis
             { header: "Label", cell: (c) => <input type="checkbox" name="ids" value={c.id} aria-label={`Print label for ${c.coilCode}`} className="h-6 w-6" /> },
             {
               header: "Coil id",
-              className: "font-semibold",
+              className: "whitespace-nowrap font-semibold",
               cell: (c) => (
                 <>
                   <Link href={`/coils/${encodeURIComponent(c.coilCode)}`} className="text-brand underline">
