@@ -150,26 +150,17 @@ export function InsightsCharts({ unitSystem, byWeek, byFuser, byMachine, finding
         title="Heater temperature of recorded joints"
         summary={`${heater.length} joints; the shaded band is each joint's procedure window; ${heater.filter((h) => (h.min !== null && h.c < h.min) || (h.max !== null && h.c > h.max)).length} outside it`}
         table={
-          <table className="w-full text-left text-sm">
-            <thead>
-              <tr>
-                <th scope="col">Day</th>
-                <th scope="col">Heater</th>
-                <th scope="col">Recorded ({tUnit})</th>
-                <th scope="col">Window ({tUnit})</th>
-              </tr>
-            </thead>
-            <tbody>
-              {heater.map((h) => (
-                <tr key={h.jointId}>
-                  <th scope="row">{day(h.t)}</th>
-                  <td>{h.heaterTag}</td>
-                  <td>{temp(h.c)}</td>
-                  <td>{h.min !== null && h.max !== null ? `${temp(h.min)?.toFixed(0)}–${temp(h.max)?.toFixed(0)}` : "—"}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+          <DataTable
+            isDense
+            rows={heater}
+            rowKey={(h) => h.jointId}
+            columns={[
+              { header: "Day", isRowHeader: true, cell: (h) => day(h.t) },
+              { header: "Heater", cell: (h) => h.heaterTag },
+              { header: `Recorded (${tUnit})`, cell: (h) => temp(h.c) },
+              { header: `Window (${tUnit})`, cell: (h) => (h.min !== null && h.max !== null ? `${temp(h.min)?.toFixed(0)}–${temp(h.max)?.toFixed(0)}` : "—") },
+            ]}
+          />
         }
       >
         {heater.length ? (
@@ -193,24 +184,17 @@ export function InsightsCharts({ unitSystem, byWeek, byFuser, byMachine, finding
         title="Cooling time: recorded against required"
         summary={`${cooling.length} joints; ${coolingShort.length} cooled for less than their plan's minimum (below the diagonal)`}
         table={
-          <table className="w-full text-left text-sm">
-            <thead>
-              <tr>
-                <th scope="col">Joint</th>
-                <th scope="col">Recorded</th>
-                <th scope="col">Required</th>
-              </tr>
-            </thead>
-            <tbody>
-              {cooling.map((c) => (
-                <tr key={c.label} className={c.recorded < c.required ? "text-fail" : ""}>
-                  <th scope="row">{c.label}</th>
-                  <td>{formatDuration(c.recorded)}</td>
-                  <td>at least {formatDuration(c.required)}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+          <DataTable
+            isDense
+            rows={cooling}
+            rowKey={(c) => c.label}
+            rowClassName={(c) => (c.recorded < c.required ? "text-fail" : "")}
+            columns={[
+              { header: "Joint", isRowHeader: true, cell: (c) => c.label },
+              { header: "Recorded", cell: (c) => formatDuration(c.recorded) },
+              { header: "Required", cell: (c) => `at least ${formatDuration(c.required)}` },
+            ]}
+          />
         }
       >
         {cooling.length ? (
