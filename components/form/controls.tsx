@@ -5,64 +5,40 @@
 import type { ReactNode, SelectHTMLAttributes, TextareaHTMLAttributes } from "react";
 import type { FieldValues, Path, UseFormSetError } from "react-hook-form";
 import type { ActionResult } from "@/domain/result";
+import { controlBorder, FieldShell } from "./field-shell";
 
 export function SelectField({
   id,
   label,
   error,
   hint,
+  className = "",
   children,
   ...select
-}: SelectHTMLAttributes<HTMLSelectElement> & { id: string; label: ReactNode; error?: string; hint?: string; children: ReactNode }) {
-  const describedBy = [error ? `${id}-error` : null, hint ? `${id}-hint` : null].filter(Boolean).join(" ") || undefined;
+}: SelectHTMLAttributes<HTMLSelectElement> & { id: string; label: ReactNode; error?: string; hint?: ReactNode; children: ReactNode }) {
   return (
-    <div className="flex flex-col gap-1">
-      <label htmlFor={id} className="text-sm font-semibold text-ink">
-        {label}
-      </label>
-      <select
-        id={id}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={describedBy}
-        {...select}
-        className={`min-h-touch w-full rounded-md border-2 bg-white px-3 py-2 text-base ${error ? "border-fail" : "border-slate-400"}`}
-      >
-        {children}
-      </select>
-      {hint ? (
-        <p id={`${id}-hint`} className="text-sm text-slate-700">
-          {hint}
-        </p>
-      ) : null}
-      {error ? (
-        <p id={`${id}-error`} className="text-sm font-semibold text-fail">
-          {error}
-        </p>
-      ) : null}
-    </div>
+    <FieldShell id={id} label={label} hint={hint} error={error} className={className}>
+      {(control) => (
+        <select {...control} {...select} className={`min-h-touch w-full rounded-md border-2 bg-white px-3 py-2 text-base ${controlBorder(error)}`}>
+          {children}
+        </select>
+      )}
+    </FieldShell>
   );
 }
 
-export function TextAreaField({ id, label, error, ...area }: TextareaHTMLAttributes<HTMLTextAreaElement> & { id: string; label: ReactNode; error?: string }) {
+export function TextAreaField({
+  id,
+  label,
+  error,
+  hint,
+  className = "",
+  ...area
+}: TextareaHTMLAttributes<HTMLTextAreaElement> & { id: string; label: ReactNode; error?: string; hint?: ReactNode }) {
   return (
-    <div className="flex flex-col gap-1">
-      <label htmlFor={id} className="text-sm font-semibold text-ink">
-        {label}
-      </label>
-      <textarea
-        id={id}
-        rows={3}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={error ? `${id}-error` : undefined}
-        {...area}
-        className={`w-full rounded-md border-2 bg-white px-3 py-2 text-base ${error ? "border-fail" : "border-slate-400"}`}
-      />
-      {error ? (
-        <p id={`${id}-error`} className="text-sm font-semibold text-fail">
-          {error}
-        </p>
-      ) : null}
-    </div>
+    <FieldShell id={id} label={label} hint={hint} error={error} className={className}>
+      {(control) => <textarea {...control} rows={3} {...area} className={`w-full rounded-md border-2 bg-white px-3 py-2 text-base ${controlBorder(error)}`} />}
+    </FieldShell>
   );
 }
 

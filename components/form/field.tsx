@@ -1,4 +1,5 @@
 import type { InputHTMLAttributes, ReactNode } from "react";
+import { controlBorder, FieldShell } from "./field-shell";
 
 /**
  * A labelled input with its unit beside it and its error tied by aria-describedby.
@@ -13,36 +14,18 @@ export function Field({
   numeric,
   className = "",
   ...input
-}: InputHTMLAttributes<HTMLInputElement> & { id: string; label: ReactNode; unit?: string; error?: string; hint?: string; numeric?: boolean }) {
-  const describedBy = [error ? `${id}-error` : null, hint ? `${id}-hint` : null].filter(Boolean).join(" ") || undefined;
+}: InputHTMLAttributes<HTMLInputElement> & { id: string; label: ReactNode; unit?: string; error?: string; hint?: ReactNode; numeric?: boolean }) {
   return (
-    <div className={`flex flex-col gap-1 ${className}`}>
-      <label htmlFor={id} className="text-sm font-semibold text-ink">
-        {label}
-        {unit ? <span className="ml-1 font-normal text-slate-700">({unit})</span> : null}
-      </label>
-      <div className="flex items-center gap-2">
+    <FieldShell id={id} label={label} unit={unit} hint={hint} error={error} className={className}>
+      {(control) => (
         <input
-          id={id}
-          aria-invalid={error ? true : undefined}
-          aria-describedby={describedBy}
+          {...control}
           inputMode={numeric ? "decimal" : input.inputMode}
           {...input}
-          className={`min-h-touch w-full rounded-md border-2 px-3 py-2 text-base ${error ? "border-fail" : "border-slate-400"} bg-white focus:border-brand`}
+          className={`min-h-touch w-full rounded-md border-2 px-3 py-2 text-base ${controlBorder(error)} bg-white focus:border-brand`}
         />
-        {unit ? <span className="shrink-0 text-sm text-slate-700" aria-hidden="true">{unit}</span> : null}
-      </div>
-      {hint ? (
-        <p id={`${id}-hint`} className="text-sm text-slate-700">
-          {hint}
-        </p>
-      ) : null}
-      {error ? (
-        <p id={`${id}-error`} className="text-sm font-semibold text-fail">
-          {error}
-        </p>
-      ) : null}
-    </div>
+      )}
+    </FieldShell>
   );
 }
 

@@ -1,5 +1,6 @@
 // Today for a records clerk: coils received but not labelled, exports still running.
 import { listCoilsAwaitingLabel, listRunningExports } from "@/database/queries/today";
+import { TimeDisplay } from "@/components/ui/time-display";
 import { TodayPanel } from "./today-panel";
 
 export async function TodayClerk({ userId }: { userId: number }) {
@@ -14,7 +15,7 @@ export async function TodayClerk({ userId }: { userId: number }) {
           <ul className="list-disc pl-5">
             {coils.coils.map((c) => (
               <li key={c.id}>
-                {c.coilCode} · lot {c.lot} · {c.nominalSize}&quot; · received {c.receivedAt.toISOString().slice(0, 10)}
+                {c.coilCode} · lot {c.lot} · {c.nominalSize}&quot; · received <TimeDisplay at={c.receivedAt} precision="date" />
               </li>
             ))}
           </ul>
@@ -25,7 +26,7 @@ export async function TodayClerk({ userId }: { userId: number }) {
           <ul className="list-disc pl-5">
             {exports.exports.map((e) => (
               <li key={e.id}>
-                {e.format.toUpperCase()} export started {e.startedAt.toISOString().slice(0, 16).replace("T", " ")} UTC: still running
+                {e.format.toUpperCase()} export started <TimeDisplay at={e.startedAt} withZone />: still running
               </li>
             ))}
           </ul>

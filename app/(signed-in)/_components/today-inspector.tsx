@@ -1,5 +1,6 @@
 // Today for an inspector: how many joints wait for review and which has waited longest.
 import { reviewQueueSummary } from "@/database/queries/today";
+import { TimeDisplay } from "@/components/ui/time-display";
 import { TodayPanel } from "./today-panel";
 
 export async function TodayInspector() {
@@ -11,7 +12,7 @@ export async function TodayInspector() {
       </p>
       {queue.oldest ? (
         <p>
-          Oldest: job {queue.oldest.jobCode} joint {queue.oldest.jointNo}, made {queue.oldest.madeAt.toISOString().slice(0, 16).replace("T", " ")} UTC ({queue.oldest.outcome === "out-of-limits" ? "out of limits" : "within limits"}).
+          Oldest: job {queue.oldest.jobCode} joint {queue.oldest.jointNo}, made <TimeDisplay at={queue.oldest.madeAt} withZone /> ({queue.oldest.outcome === "out-of-limits" ? "out of limits" : "within limits"}).
         </p>
       ) : null}
     </TodayPanel>

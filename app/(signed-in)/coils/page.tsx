@@ -4,7 +4,10 @@ import { countCoilsByStatus, listCoils } from "@/database/queries/coils";
 import { COIL_STATUSES, COIL_STATUS_LABELS, type CoilStatus } from "@/domain/coil-life/rules";
 import { describeSize } from "@/domain/labels/label";
 import { formatQuantity } from "@/domain/units/format";
-import { CoilStatusBadge } from "@/components/coils/coil-status-badge";
+import { FieldShell } from "@/components/form/field-shell";
+import { CoilStatusBadge } from "@/components/ui/badges";
+import { DataTable } from "@/components/ui/data-table";
+import { formatInstant } from "@/components/ui/display-format";
 
 export const dynamic = "force-dynamic";
 
@@ -43,73 +46,46 @@ export default async function CoilsPage({ searchParams }: { searchParams: Promis
       </nav>
       <form role="search" method="get" action="/coils" className="flex flex-wrap items-end gap-2">
         {status !== "all" ? <input type="hidden" name="status" value={status} /> : null}
-        <div className="flex flex-col gap-1">
-          <label htmlFor="coil-search" className="text-sm font-semibold">
-            Coil id, lot or traceability code
-          </label>
-          <input id="coil-search" name="q" defaultValue={search} className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-3" />
-        </div>
+        <FieldShell id="coil-search" label="Coil id, lot or traceability code">
+          {(control) => <input {...control} name="q" defaultValue={search} className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-3" />}
+        </FieldShell>
         <button type="submit" className="min-h-touch rounded-md border-2 border-brand bg-white px-4 font-semibold text-brand">
           Find coils
         </button>
       </form>
       <form method="get" action="/labels" className="flex flex-col gap-2">
         <input type="hidden" name="kind" value="coil" />
-        <div className="overflow-x-auto rounded-md border-2 border-slate-300 bg-white">
-          <table className="w-full text-left text-sm">
-            <caption className="sr-only">Coils</caption>
-            <thead className="bg-slate-100">
-              <tr>
-                <th scope="col" className="p-2">
-                  Label
-                </th>
-                <th scope="col" className="p-2">Coil id</th>
-                <th scope="col" className="p-2">Size</th>
-                <th scope="col" className="p-2">Material</th>
-                <th scope="col" className="p-2">Maker and lot</th>
-                <th scope="col" className="p-2 text-right">Left of length</th>
-                <th scope="col" className="p-2">Status</th>
-                <th scope="col" className="p-2">Crew / job</th>
-                <th scope="col" className="p-2">Label printed</th>
-              </tr>
-            </thead>
-            <tbody>
-              {coils.map((c) => (
-                <tr key={c.id} className="border-t border-slate-200">
-                  <td className="p-2">
-                    <input type="checkbox" name="ids" value={c.id} aria-label={`Print label for ${c.coilCode}`} className="h-6 w-6" />
-                  </td>
-                  <td className="p-2 font-semibold">
-                    <Link href={`/coils/${encodeURIComponent(c.coilCode)}`} className="text-brand underline">
-                      {c.coilCode}
-                    </Link>
-                    {c.traceCodeFlags.length ? <span className="ml-1 text-caution">(code disagrees)</span> : null}
-                  </td>
-                  <td className="p-2">{describeSize(c)}</td>
-                  <td className="p-2">{c.material}</td>
-                  <td className="p-2">
-                    {c.manufacturer} · lot {c.lot}
-                  </td>
-                  <td className="p-2 text-right">
-                    {formatQuantity(c.remainingM, "length-m", user.unitSystem)} of {formatQuantity(c.lengthM, "length-m", user.unitSystem)}
-                  </td>
-                  <td className="p-2">
-                    <CoilStatusBadge status={c.status} />
-                  </td>
-                  <td className="p-2">{[c.crewName, c.jobCode].filter(Boolean).join(" · ") || "—"}</td>
-                  <td className="p-2">{c.labelPrintedAt ? c.labelPrintedAt.toISOString().slice(0, 10) : "not yet"}</td>
-                </tr>
-              ))}
-              {coils.length === 0 ? (
-                <tr>
-                  <td colSpan={9} className="p-4 text-center">
-                    No coils match.
-                  </td>
-                </tr>
-              ) : null}
-            </tbody>
-          </table>
-        </div>
+        <DataTable
+          caption="Coils"
+          isCaptionHidden
+          isDense
+          className="rounded-md border-2 border-slate-300 bg-white"
+          rows={coils}
+          rowKey={(c) => c.id}
+          empty={<span className="block text-center">No coils match.</span>}
+          columns={[
+            { header: "Label", cell: (c) => <input type="checkbox" name="ids" value={c.id} aria-label={`Print label for ${c.coilCode}`} className="h-6 w-6" /> },
+            {
+              header: "Coil id",
+              className: "whitespace-nowrap font-semibold",
+              cell: (c) => (
+                <>
+                  <Link href={`/coils/${encodeURIComponent(c.coilCode)}`} className="text-brand underline">
+                    {c.coilCode}
+                  </Link>
+                  {c.traceCodeFlags.length ? <span className="ml-1 text-caution">(code disagrees)</span> : null}
+                </>
+              ),
+            },
+            { header: "Size", cell: (c) => describeSize(c) },
+            { header: "Material", cell: (c) => c.material },
+            { header: "Maker and lot", cell: (c) => `${c.manufacturer} · lot ${c.lot}` },
+            { header: "Left of length", align: "right", cell: (c) => `${formatQuantity(c.remainingM, "length-m", user.unitSystem)} of ${formatQuantity(c.lengthM, "length-m", user.unitSystem)}` },
+            { header: "Status", cell: (c) => <CoilStatusBadge status={c.status} /> },
+            { header: "Crew / job", cell: (c) => [c.crewName, c.jobCode].filter(Boolean).join(" · ") || "—" },
+            { header: "Label printed", cell: (c) => (c.labelPrintedAt ? formatInstant(c.labelPrintedAt, "date") : "not yet") },
+          ]}
+        />
         <div>
           <button type="submit" className="min-h-touch rounded-md bg-brand px-4 font-semibold text-white hover:bg-brand-dark">
             Print labels for the chosen coils

@@ -10,6 +10,8 @@ import {
   insightsSummary,
 } from "@/database/queries/insights";
 import { PARAMETER_LABELS } from "@/domain/review/labels";
+import { FieldShell } from "@/components/form/field-shell";
+import { TimeDisplay } from "@/components/ui/time-display";
 import { InsightsCharts } from "./_components/insights-charts";
 
 export const dynamic = "force-dynamic";
@@ -42,37 +44,35 @@ export default async function InsightsPage({ searchParams }: { searchParams: Pro
     <div className="flex flex-col gap-4">
       <h1 className="text-2xl font-bold">Insights</h1>
       <form method="get" className="flex flex-wrap items-end gap-3" aria-label="Choose the period and job">
-        <div className="flex flex-col gap-1">
-          <label htmlFor="weeks" className="text-sm font-semibold">
-            Period
-          </label>
-          <select id="weeks" name="weeks" defaultValue={String(weeks)} className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-2">
-            {PERIODS.map((p) => (
-              <option key={p} value={p}>
-                Last {p} weeks
-              </option>
-            ))}
-          </select>
-        </div>
-        <div className="flex flex-col gap-1">
-          <label htmlFor="job" className="text-sm font-semibold">
-            Job
-          </label>
-          <select id="job" name="job" defaultValue={jobId ? String(jobId) : ""} className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-2">
-            <option value="">All jobs</option>
-            {jobs.map((j) => (
-              <option key={j.id} value={j.id}>
-                {j.code} {j.name}
-              </option>
-            ))}
-          </select>
-        </div>
+        <FieldShell id="weeks" label="Period">
+          {(control) => (
+            <select {...control} name="weeks" defaultValue={String(weeks)} className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-2">
+              {PERIODS.map((p) => (
+                <option key={p} value={p}>
+                  Last {p} weeks
+                </option>
+              ))}
+            </select>
+          )}
+        </FieldShell>
+        <FieldShell id="job" label="Job">
+          {(control) => (
+            <select {...control} name="job" defaultValue={jobId ? String(jobId) : ""} className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-2">
+              <option value="">All jobs</option>
+              {jobs.map((j) => (
+                <option key={j.id} value={j.id}>
+                  {j.code} {j.name}
+                </option>
+              ))}
+            </select>
+          )}
+        </FieldShell>
         <button type="submit" className="min-h-touch rounded-md bg-brand px-4 font-semibold text-white">
           Show
         </button>
       </form>
       <p>
-        {from.toISOString().slice(0, 10)} to {new Date(to.getTime() - 86_400_000).toISOString().slice(0, 10)}: <strong>{summary.joints}</strong> joints, first-pass yield{" "}
+        <TimeDisplay at={from} precision="date" /> to <TimeDisplay at={to.getTime() - 86_400_000} precision="date" />: <strong>{summary.joints}</strong> joints, first-pass yield{" "}
         <strong>{summary.joints ? `${summary.yieldPct} %` : "—"}</strong>, {summary.outOfLimits} out of limits, {summary.cutOut} cut out, {summary.pending} waiting for review.
       </p>
       <p className="text-sm text-slate-700">First-pass yield: joints within limits (when recorded and, where a pressure trace is attached, by the trace) and not cut out, as a share of all joints made.</p>

@@ -9,6 +9,7 @@ import { LABEL_STOCKS, SHEETS, SHEET_IDS, layoutSheet, placeLabels, type SheetId
 import { publicBaseUrl } from "@/app/_server/labels/base-url";
 import { coilLabelSvg, jointLabelSvg, stockOrDefault } from "@/app/_server/labels/render";
 import { PrintLabelsButton } from "./_components/print-button";
+import { FieldShell } from "@/components/form/field-shell";
 
 export const dynamic = "force-dynamic";
 
@@ -69,36 +70,31 @@ export default async function LabelsPage({ searchParams }: { searchParams: Promi
         <form method="get" action="/labels" className="flex flex-wrap items-end gap-3">
           <input type="hidden" name="kind" value={kind} />
           <input type="hidden" name="ids" value={ids.join(",")} />
-          <div className="flex flex-col gap-1">
-            <label htmlFor="sheet" className="text-sm font-semibold">
-              Paper
-            </label>
-            <select id="sheet" name="sheet" defaultValue={sheetId} className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-3">
-              {SHEET_IDS.map((id) => (
-                <option key={id} value={id}>
-                  {SHEETS[id].label}
-                </option>
-              ))}
-            </select>
-          </div>
-          <div className="flex flex-col gap-1">
-            <label htmlFor="stock" className="text-sm font-semibold">
-              Label size
-            </label>
-            <select id="stock" name="stock" defaultValue={stock.id} className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-3">
-              {LABEL_STOCKS.map((s) => (
-                <option key={s.id} value={s.id}>
-                  {s.label}
-                </option>
-              ))}
-            </select>
-          </div>
-          <div className="flex flex-col gap-1">
-            <label htmlFor="skip" className="text-sm font-semibold">
-              Labels already used on the first sheet
-            </label>
-            <input id="skip" name="skip" inputMode="numeric" defaultValue={skip} className="min-h-touch w-24 rounded-md border-2 border-slate-400 bg-white px-3" />
-          </div>
+          <FieldShell id="sheet" label="Paper">
+            {(control) => (
+              <select {...control} name="sheet" defaultValue={sheetId} className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-3">
+                {SHEET_IDS.map((id) => (
+                  <option key={id} value={id}>
+                    {SHEETS[id].label}
+                  </option>
+                ))}
+              </select>
+            )}
+          </FieldShell>
+          <FieldShell id="stock" label="Label size">
+            {(control) => (
+              <select {...control} name="stock" defaultValue={stock.id} className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-3">
+                {LABEL_STOCKS.map((s) => (
+                  <option key={s.id} value={s.id}>
+                    {s.label}
+                  </option>
+                ))}
+              </select>
+            )}
+          </FieldShell>
+          <FieldShell id="skip" label="Labels already used on the first sheet">
+            {(control) => <input {...control} name="skip" inputMode="numeric" defaultValue={skip} className="min-h-touch w-24 rounded-md border-2 border-slate-400 bg-white px-3" />}
+          </FieldShell>
           <button type="submit" className="min-h-touch rounded-md border-2 border-brand bg-white px-4 font-semibold text-brand">
             Lay out labels
           </button>

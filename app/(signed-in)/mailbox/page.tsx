@@ -2,12 +2,15 @@ import { requireUser } from "@/app/_lib/page-guard";
 import { listDevMail, spoolDir } from "@/database/queries/dev-mailbox";
 import { countOutboxByStatus, listOutbox, type MailStatus, type OutboxMail } from "@/database/queries/outbox";
 import { mailKindLabel } from "@/domain/review/digest";
+import { DataTable } from "@/components/ui/data-table";
+import { formatInstant } from "@/components/ui/display-format";
+import { SectionCard } from "@/components/ui/section-card";
 import { RetryButton } from "./_components/retry-button";
 import { MailPreference } from "../_components/mail-preference";
 
 export const dynamic = "force-dynamic";
 
-const at = (d: Date | null) => (d ? `${d.toISOString().slice(0, 10)} ${d.toISOString().slice(11, 19)} UTC` : "—");
+const at = (d: Date | null) => (d ? formatInstant(d, "second", true) : "—");
 
 function stateWords(m: OutboxMail): string {
   switch (m.status) {
@@ -39,10 +42,7 @@ export default async function MailboxPage({ searchParams }: { searchParams: Prom
       <div className="max-w-md">
         <MailPreference dailyDigest={user.dailyDigest} />
       </div>
-      <section aria-labelledby="outbox-heading" className="flex flex-col gap-2">
-        <h2 id="outbox-heading" className="text-xl font-bold">
-          Outbox
-        </h2>
+      <SectionCard id="outbox-heading" title="Outbox" className="flex flex-col gap-2">
         <p>
           Alerts wait here until the mail server takes them; a mail that cannot be sent is retried with growing pauses and, after the last attempt, stays here as failed.
         </p>
@@ -66,49 +66,27 @@ export default async function MailboxPage({ searchParams }: { searchParams: Prom
             ))}
           </ul>
         </nav>
-        {outbox.length ? (
-          <div className="overflow-x-auto">
-            <table className="w-full text-left text-sm">
-              <caption className="sr-only">Outbox mail, newest first</caption>
-              <thead>
-                <tr className="border-b-2 border-slate-300">
-                  <th scope="col" className="pr-2">Queued</th>
-                  <th scope="col" className="pr-2">To</th>
-                  <th scope="col" className="pr-2">Subject</th>
-                  <th scope="col" className="pr-2">Kind</th>
-                  <th scope="col" className="pr-2">State</th>
-                  <th scope="col" className="pr-2">Last error</th>
-                  <th scope="col">
-                    <span className="sr-only">Actions</span>
-                  </th>
-                </tr>
-              </thead>
-              <tbody>
-                {outbox.map((m) => (
-                  <tr key={m.id} className={`border-b border-slate-200 align-top ${m.status === "failed" ? "bg-fail-light" : ""}`}>
-                    <td className="pr-2 whitespace-nowrap">{at(m.createdAt)}</td>
-                    <td className="pr-2">{m.to}</td>
-                    <th scope="row" className="pr-2 font-normal">
-                      {m.subject}
-                    </th>
-                    <td className="pr-2">{mailKindLabel(m.kind)}</td>
-                    <td className={`pr-2 font-semibold ${m.status === "failed" ? "text-fail" : m.status === "sent" ? "text-pass" : ""}`}>{stateWords(m)}</td>
-                    <td className="pr-2">{m.lastError ?? ""}</td>
-                    <td>{m.status === "failed" ? <RetryButton id={m.id} subject={m.subject} /> : null}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
-        ) : (
-          <p className="text-slate-700">No mail {status ? `is ${STATUS_LABELS[status].toLowerCase()}` : "has been queued yet"}.</p>
-        )}
-      </section>
+        <DataTable
+          caption="Outbox mail, newest first"
+          isCaptionHidden
+          isDense
+          rows={outbox}
+          rowKey={(m) => m.id}
+          rowClassName={(m) => (m.status === "failed" ? "bg-fail-light" : "")}
+          empty={<span className="text-slate-700">No mail {status ? `is ${STATUS_LABELS[status].toLowerCase()}` : "has been queued yet"}.</span>}
+          columns={[
+            { header: "Queued", className: "whitespace-nowrap", cell: (m) => at(m.createdAt) },
+            { header: "To", cell: (m) => m.to },
+            { header: "Subject", isRowHeader: true, cell: (m) => m.subject },
+            { header: "Kind", cell: (m) => mailKindLabel(m.kind) },
+            { header: "State", cell: (m) => <span className={`font-semibold ${m.status === "failed" ? "text-fail" : m.status === "sent" ? "text-pass" : ""}`}>{stateWords(m)}</span> },
+            { header: "Last error", cell: (m) => m.lastError ?? "" },
+            { header: <span className="sr-only">Actions</span>, cell: (m) => (m.status === "failed" ? <RetryButton id={m.id} subject={m.subject} /> : null) },
+          ]}
+        />
+      </SectionCard>
 
-      <section aria-labelledby="dev-heading" className="flex flex-col gap-2">
-        <h2 id="dev-heading" className="text-xl font-bold">
-          Development mail received
-        </h2>
+      <SectionCard id="dev-heading" title="Development mail received" className="flex flex-col gap-2">
         {hasSpool ? (
           <>
             <p>Messages the local fake mail server received (development and tests only; nothing leaves this machine).</p>
@@ -135,7 +113,7 @@ export default async function MailboxPage({ searchParams }: { searchParams: Prom
         ) : (
           <p className="text-slate-700">This server sends through a real mail server (MAIL_SPOOL_DIR is not set), so there is no development mailbox to show.</p>
         )}
-      </section>
+      </SectionCard>
     </div>
   );
 }

@@ -1,8 +1,10 @@
-import Link from "next/link";
 import { requireUser } from "@/app/_lib/page-guard";
 import { currentProcedureVersion, listProcedures } from "@/database/queries/procedures";
 import { builtInProcedure } from "@/domain/fusion/procedures";
 import { can } from "@/domain/roles";
+import { DataTable } from "@/components/ui/data-table";
+import { formatInstant } from "@/components/ui/display-format";
+import { SectionCard } from "@/components/ui/section-card";
 import { AddProcedureForm } from "./_components/add-procedure-form";
 import { standardOptions } from "./_lib/views";
 
@@ -17,29 +19,32 @@ export default async function ProceduresPage() {
     <div className="flex flex-col gap-6">
       <h1 className="text-2xl font-bold">Procedures</h1>
       <p>Each procedure is based on a published standard&apos;s windows and may only tighten them. A version used by any joint is never changed: tightening publishes a new version.</p>
-      <ul className="grid gap-3 sm:grid-cols-2">
-        {procedures.map((p, i) => (
-          <li key={p.id} className="rounded-md border-2 border-slate-300 bg-white p-4">
-            <h2 className="text-lg font-bold">
-              <Link className="text-brand underline" href={`/procedures/${p.id}`}>
-                {p.code}
-              </Link>
-            </h2>
-            <p>{p.name}</p>
-            <p className="text-sm text-slate-700">
-              Based on {builtInProcedure(p.standard).label}. {current[i] ? `Current version ${current[i]!.versionNo}, published ${current[i]!.publishedAt.toISOString().slice(0, 10)}.` : "No version published."}
-              {p.isActive ? "" : " Retired."}
-            </p>
-          </li>
-        ))}
-      </ul>
+      <SectionCard id="procedure-list" title="Written procedures">
+        <DataTable
+          labelledBy="procedure-list"
+          rows={procedures.map((p, i) => ({ ...p, current: current[i] }))}
+          rowKey={(p) => p.id}
+          empty="No procedures yet."
+          columns={[
+            { header: "Code", isRowHeader: true, cell: (p) => p.code, href: (p) => `/procedures/${p.id}` },
+            { header: "Name", cell: (p) => p.name },
+            {
+              header: "Versions",
+              className: "text-sm text-slate-700",
+              cell: (p) => (
+                <>
+                  Based on {builtInProcedure(p.standard).label}. {p.current ? `Current version ${p.current.versionNo}, published ${formatInstant(p.current.publishedAt, "date")}.` : "No version published."}
+                  {p.isActive ? "" : " Retired."}
+                </>
+              ),
+            },
+          ]}
+        />
+      </SectionCard>
       {can(user, "manageProcedures") ? (
-        <section aria-labelledby="add-procedure" className="rounded-md border-2 border-slate-300 bg-white p-4">
-          <h2 id="add-procedure" className="mb-2 text-xl font-bold">
-            Add a procedure
-          </h2>
+        <SectionCard id="add-procedure" title="Add a procedure" tone="card">
           <AddProcedureForm standards={standardOptions()} />
-        </section>
+        </SectionCard>
       ) : null}
     </div>
   );

@@ -6,7 +6,11 @@ import { traceSearchSchema } from "@/domain/coil-life/schemas";
 import { describeSize } from "@/domain/labels/label";
 import { fieldErrorsFromIssues } from "@/domain/result";
 import { formatQuantity } from "@/domain/units/format";
-import { CoilStatusBadge } from "@/components/coils/coil-status-badge";
+import { FieldShell } from "@/components/form/field-shell";
+import { CoilStatusBadge, OutcomeBadge } from "@/components/ui/badges";
+import { DataTable } from "@/components/ui/data-table";
+import { SectionCard } from "@/components/ui/section-card";
+import { TimeDisplay } from "@/components/ui/time-display";
 import { RunSchematic } from "./_components/run-schematic";
 
 export const dynamic = "force-dynamic";
@@ -45,82 +49,52 @@ export default async function TracePage({ searchParams }: { searchParams: Promis
     <div className="flex flex-col gap-6">
       <h1 className="text-2xl font-bold">Trace</h1>
       <div className="grid gap-6 lg:grid-cols-2">
-        <section aria-labelledby="lot-search" className="rounded-md border-2 border-slate-300 bg-white p-4">
-          <h2 id="lot-search" className="mb-2 text-lg font-bold">
-            Lot → ground
-          </h2>
+        <SectionCard id="lot-search" title="Lot → ground" tone="card" isCompact>
           <p className="mb-3 text-sm">Every coil of a lot and every joint made with them, with where, when, who and the outcome.</p>
           <form role="search" method="get" action="/trace" className="flex flex-col gap-3" aria-describedby="lot-search-errors">
             <div className="grid gap-3 sm:grid-cols-2">
-              <div className="flex flex-col gap-1">
-                <label htmlFor="manufacturer" className="text-sm font-semibold">
-                  Pipe maker
-                </label>
-                <input id="manufacturer" name="manufacturer" defaultValue={one("manufacturer") ?? ""} className={input} aria-invalid={fields.manufacturer ? true : undefined} aria-describedby={fields.manufacturer ? "manufacturer-error" : undefined} />
-                {fields.manufacturer ? (
-                  <p id="manufacturer-error" className="text-sm font-semibold text-fail">
-                    {fields.manufacturer[0]}
-                  </p>
-                ) : null}
-              </div>
-              <div className="flex flex-col gap-1">
-                <label htmlFor="lot" className="text-sm font-semibold">
-                  Lot
-                </label>
-                <input id="lot" name="lot" defaultValue={one("lot") ?? ""} className={input} aria-invalid={fields.lot ? true : undefined} aria-describedby={fields.lot ? "lot-error" : undefined} />
-                {fields.lot ? (
-                  <p id="lot-error" className="text-sm font-semibold text-fail">
-                    {fields.lot[0]}
-                  </p>
-                ) : null}
-              </div>
+              <FieldShell id="manufacturer" label="Pipe maker" error={fields.manufacturer?.[0]}>
+                {(control) => <input {...control} name="manufacturer" defaultValue={one("manufacturer") ?? ""} className={input} />}
+              </FieldShell>
+              <FieldShell id="lot" label="Lot" error={fields.lot?.[0]}>
+                {(control) => <input {...control} name="lot" defaultValue={one("lot") ?? ""} className={input} />}
+              </FieldShell>
             </div>
-            <div className="flex flex-col gap-1">
-              <label htmlFor="code" className="text-sm font-semibold">
-                Or a traceability code, coil id or label address
-              </label>
-              <input id="code" name="code" defaultValue={one("code") ?? ""} autoComplete="off" spellCheck={false} className={input} />
-            </div>
+            <FieldShell id="code" label="Or a traceability code, coil id or label address">
+              {(control) => <input {...control} name="code" defaultValue={one("code") ?? ""} autoComplete="off" spellCheck={false} className={input} />}
+            </FieldShell>
             <div>
               <button type="submit" className="min-h-touch rounded-md bg-brand px-4 font-semibold text-white hover:bg-brand-dark">
                 Trace lot
               </button>
             </div>
           </form>
-        </section>
-        <section aria-labelledby="joint-search" className="rounded-md border-2 border-slate-300 bg-white p-4">
-          <h2 id="joint-search" className="mb-2 text-lg font-bold">
-            Joint → origins
-          </h2>
+        </SectionCard>
+        <SectionCard id="joint-search" title="Joint → origins" tone="card" isCompact>
           <p className="mb-3 text-sm">The two components with their lots, the machine, heater plate, fuser and procedure of one joint.</p>
           <form method="get" action="/trace" className="flex flex-col gap-3">
-            <div className="flex flex-col gap-1">
-              <label htmlFor="joint" className="text-sm font-semibold">
-                Joint id, or job code and joint number
-              </label>
-              <input id="joint" name="joint" defaultValue={jointRef ?? ""} placeholder="WO-24117 #12" className={input} aria-invalid={jointMessage ? true : undefined} aria-describedby={jointMessage ? "joint-error" : undefined} />
-              {jointMessage ? (
-                <p id="joint-error" role="alert" className="text-sm font-semibold text-fail">
-                  {jointMessage}
-                </p>
-              ) : null}
-            </div>
+            <FieldShell id="joint" label="Joint id, or job code and joint number" error={jointMessage} errorRole="alert">
+              {(control) => <input {...control} name="joint" defaultValue={jointRef ?? ""} placeholder="WO-24117 #12" className={input} />}
+            </FieldShell>
             <div>
               <button type="submit" className="min-h-touch rounded-md bg-brand px-4 font-semibold text-white hover:bg-brand-dark">
                 Trace joint
               </button>
             </div>
           </form>
-        </section>
+        </SectionCard>
       </div>
 
       {trace ? (
-        <section aria-labelledby="lot-results" className="flex flex-col gap-4">
-          <h2 id="lot-results" className="text-xl font-bold">
-            {trace.lots.length === 0
+        <SectionCard
+          id="lot-results"
+          className="flex flex-col gap-4"
+          title={
+            trace.lots.length === 0
               ? "No lot matches this search."
-              : `${trace.lots.map((l) => `${l.manufacturer} lot ${l.lot}`).join("; ")}: ${trace.coils.length} coil${trace.coils.length === 1 ? "" : "s"}, ${trace.joints.length}${trace.truncated ? "+" : ""} joint${trace.joints.length === 1 ? "" : "s"}${outOfLimits ? ` (${outOfLimits} out of limits)` : ""}`}
-          </h2>
+              : `${trace.lots.map((l) => `${l.manufacturer} lot ${l.lot}`).join("; ")}: ${trace.coils.length} coil${trace.coils.length === 1 ? "" : "s"}, ${trace.joints.length}${trace.truncated ? "+" : ""} joint${trace.joints.length === 1 ? "" : "s"}${outOfLimits ? ` (${outOfLimits} out of limits)` : ""}`
+          }
+        >
           {trace.lots.length ? <p className="text-sm">{MATCHED_BY[trace.matchedBy]}</p> : null}
           {trace.lots.length ? (
             <p>
@@ -130,39 +104,21 @@ export default async function TracePage({ searchParams }: { searchParams: Promis
             </p>
           ) : null}
           {trace.coils.length ? (
-            <div className="overflow-x-auto rounded-md border-2 border-slate-300 bg-white">
-              <table className="w-full text-left text-sm">
-                <caption className="p-2 text-left font-bold">Coils of the lot</caption>
-                <thead className="bg-slate-100">
-                  <tr>
-                    <th scope="col" className="p-2">Coil id</th>
-                    <th scope="col" className="p-2">Size</th>
-                    <th scope="col" className="p-2">Code</th>
-                    <th scope="col" className="p-2">Status</th>
-                    <th scope="col" className="p-2">Job</th>
-                    <th scope="col" className="p-2 text-right">Left</th>
-                  </tr>
-                </thead>
-                <tbody>
-                  {trace.coils.map((c) => (
-                    <tr key={c.id} className="border-t border-slate-200">
-                      <td className="p-2 font-semibold">
-                        <Link href={`/coils/${encodeURIComponent(c.coilCode)}`} className="text-brand underline">
-                          {c.coilCode}
-                        </Link>
-                      </td>
-                      <td className="p-2">{describeSize(c)}</td>
-                      <td className="p-2 font-mono">{c.traceCode ?? "—"}</td>
-                      <td className="p-2">
-                        <CoilStatusBadge status={c.status} />
-                      </td>
-                      <td className="p-2">{c.jobCode ?? "—"}</td>
-                      <td className="p-2 text-right">{formatQuantity(c.remainingM, "length-m", system)}</td>
-                    </tr>
-                  ))}
-                </tbody>
-              </table>
-            </div>
+            <DataTable
+              caption="Coils of the lot"
+              isDense
+              className="rounded-md border-2 border-slate-300 bg-white"
+              rows={trace.coils}
+              rowKey={(c) => c.id}
+              columns={[
+                { header: "Coil id", cell: (c) => c.coilCode, href: (c) => `/coils/${encodeURIComponent(c.coilCode)}` },
+                { header: "Size", cell: (c) => describeSize(c) },
+                { header: "Code", className: "font-mono", cell: (c) => c.traceCode ?? "—" },
+                { header: "Status", cell: (c) => <CoilStatusBadge status={c.status} /> },
+                { header: "Job", cell: (c) => c.jobCode ?? "—" },
+                { header: "Left", align: "right", cell: (c) => formatQuantity(c.remainingM, "length-m", system) },
+              ]}
+            />
           ) : null}
           {jobs.map((job) => (
             <RunSchematic
@@ -174,42 +130,24 @@ export default async function TracePage({ searchParams }: { searchParams: Promis
             />
           ))}
           {trace.joints.length ? (
-            <div className="overflow-x-auto rounded-md border-2 border-slate-300 bg-white">
-              <table className="w-full text-left text-sm">
-                <caption className="p-2 text-left font-bold">Joints made with the lot</caption>
-                <thead className="bg-slate-100">
-                  <tr>
-                    <th scope="col" className="p-2">Job</th>
-                    <th scope="col" className="p-2">Joint</th>
-                    <th scope="col" className="p-2">Made</th>
-                    <th scope="col" className="p-2">Station</th>
-                    <th scope="col" className="p-2">Lat, long</th>
-                    <th scope="col" className="p-2">Fuser</th>
-                    <th scope="col" className="p-2">Outcome</th>
-                    <th scope="col" className="p-2">Components</th>
-                  </tr>
-                </thead>
-                <tbody>
-                  {trace.joints.slice(0, 2000).map((j) => (
-                    <tr key={j.id} className="border-t border-slate-200">
-                      <td className="p-2">{j.jobCode}</td>
-                      <td className="p-2 font-semibold">
-                        <Link href={`/trace/joints/${j.id}`} className="text-brand underline">
-                          {j.jobCode} joint {j.jointNo}
-                        </Link>
-                      </td>
-                      <td className="p-2">{j.madeAt.toISOString().slice(0, 16).replace("T", " ")}</td>
-                      <td className="p-2">{j.station ?? "—"}</td>
-                      <td className="p-2">{j.latitude != null && j.longitude != null ? `${j.latitude.toFixed(5)}, ${j.longitude.toFixed(5)}` : "—"}</td>
-                      <td className="p-2">{j.fuserName}</td>
-                      <td className={`p-2 font-semibold ${j.outcome === "out-of-limits" ? "text-fail" : "text-pass"}`}>{j.outcome === "out-of-limits" ? "Out of limits" : "Within limits"}</td>
-                      <td className="p-2">
-                        {j.coilACode ?? "—"} × {j.coilBCode ?? j.componentBText ?? "—"}
-                      </td>
-                    </tr>
-                  ))}
-                </tbody>
-              </table>
+            <div className="flex flex-col gap-2">
+              <DataTable
+                caption="Joints made with the lot"
+                isDense
+                className="rounded-md border-2 border-slate-300 bg-white"
+                rows={trace.joints.slice(0, 2000)}
+                rowKey={(j) => j.id}
+                columns={[
+                  { header: "Job", cell: (j) => j.jobCode },
+                  { header: "Joint", cell: (j) => `${j.jobCode} joint ${j.jointNo}`, href: (j) => `/trace/joints/${j.id}` },
+                  { header: "Made", cell: (j) => <TimeDisplay at={j.madeAt} /> },
+                  { header: "Station", cell: (j) => j.station ?? "—" },
+                  { header: "Lat, long", cell: (j) => (j.latitude != null && j.longitude != null ? `${j.latitude.toFixed(5)}, ${j.longitude.toFixed(5)}` : "—") },
+                  { header: "Fuser", cell: (j) => j.fuserName },
+                  { header: "Outcome", cell: (j) => <OutcomeBadge outcome={j.outcome} /> },
+                  { header: "Components", cell: (j) => `${j.coilACode ?? "—"} × ${j.coilBCode ?? j.componentBText ?? "—"}` },
+                ]}
+              />
               {trace.joints.length > 2000 ? <p className="p-2">The first 2,000 joints are shown; the spreadsheet has all {trace.joints.length}.</p> : null}
             </div>
           ) : null}
@@ -220,7 +158,7 @@ export default async function TracePage({ searchParams }: { searchParams: Promis
               </Link>
             </p>
           ) : null}
-        </section>
+        </SectionCard>
       ) : null}
     </div>
   );

@@ -7,6 +7,7 @@ import type { Coil } from "@/database/queries/coils";
 import { coilLabelText, coilLabelUrl, jointLabelText, jointLabelUrl, renderLabelSvg, type QrMatrix } from "@/domain/labels/label";
 import { findLabelStock, LABEL_STOCKS, type LabelStock } from "@/domain/labels/sheets";
 import type { UnitSystem } from "@/domain/units/format";
+import { formatInstant } from "@/components/ui/display-format";
 
 /** QR with error correction level M (about 15 % of the symbol may be damaged and still read). */
 export function qrMatrix(text: string): QrMatrix {
@@ -32,7 +33,7 @@ export function jointLabelSvg(
   { baseUrl, stock, standalone = true }: { baseUrl: string; stock: LabelStock; standalone?: boolean },
 ): { svg: string; url: string; name: string } {
   const url = jointLabelUrl(baseUrl, joint.id);
-  const text = jointLabelText({ id: joint.id, jointNo: joint.jointNo, jobCode: joint.jobCode, jobName: joint.jobName, madeOn: joint.madeAt.toISOString().slice(0, 10), station: joint.station });
+  const text = jointLabelText({ id: joint.id, jointNo: joint.jointNo, jobCode: joint.jobCode, jobName: joint.jobName, madeOn: formatInstant(joint.madeAt, "date"), station: joint.station });
   return { svg: renderLabelSvg({ widthMm: stock.widthMm, heightMm: stock.heightMm, qr: qrMatrix(url), text, url, standalone }), url, name: text.name };
 }
 

@@ -9,6 +9,7 @@ import type { ProcedureDefinition } from "@/domain/fusion/procedures";
 import { describeProcedureWindows } from "@/domain/fusion/procedures";
 import { REGISTER_COLUMNS, columnHeader, columnNumberFormat, type FilterLine, type RegisterColumn, type RegisterRow } from "@/domain/register";
 import type { UnitSystem } from "@/domain/units";
+import { formatCount } from "@/components/ui/display-format";
 
 /** Excel's rows per sheet (1,048,576) less the header row. */
 export const XLSX_MAX_ROWS = 1_048_575;
@@ -150,7 +151,7 @@ export async function writeRegisterXlsx({ out, batches, meta, maxRows = XLSX_MAX
   add(["Units", UNITS_TEXT[meta.system]]);
   add(["Times", "Made-at times are UTC."]);
   add(["Sort", meta.sortText]);
-  if (isTruncated) add(["Note", `Stopped at Excel's limit of ${maxRows.toLocaleString("en-US")} rows: export as CSV for every row of this filter.`], true);
+  if (isTruncated) add(["Note", `Stopped at Excel's limit of ${formatCount(maxRows)} rows: export as CSV for every row of this filter.`], true);
   add([]);
   add(["Filter used"], true);
   if (meta.filterLines.length === 0) add(["(none)", "Every joint in the register"]);

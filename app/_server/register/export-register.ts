@@ -10,6 +10,7 @@ import { countRegister, findRegisterFilterNames, iterateRegisterRows } from "@/d
 import { describeFilter, describeSort, pickFilter, type RegisterExportQuery } from "@/domain/register";
 import { logger } from "@/app/_lib/log";
 import { ExportCancelledError, writeRegisterCsv, writeRegisterXlsx, type ExportProcedure } from "./export-files";
+import { formatInstant } from "@/components/ui/display-format";
 
 /** Rows per keyset batch read from the database while writing. */
 const BATCH_SIZE = 1000;
@@ -87,7 +88,7 @@ export async function exportRegister({ query, user, requestId, now = new Date() 
     },
   );
 
-  const day = now.toISOString().slice(0, 10);
+  const day = formatInstant(now, "date");
   return new Response(Readable.toWeb(out) as unknown as ReadableStream<Uint8Array>, {
     status: 200,
     headers: {

@@ -13,12 +13,13 @@ import { REVIEW_STATE_LABELS, REVISION_KIND_LABELS } from "@/domain/review/label
 import { acceptNeedsNote, type DecideJointValues } from "@/domain/review/schemas";
 import { can, canReview } from "@/domain/roles";
 import type { Db } from "@/database/client";
+import { formatInstant } from "@/components/ui/display-format";
 
 export type DecisionResult = { jointId: number; revisionNo: number; reviewState: "accepted" | "cut-out" };
 
 async function conflict(jointId: number, trx: Db, label: string): Promise<AppError> {
   const latest = await latestJointRevision({ jointId }, trx);
-  const who = latest ? ` (${REVISION_KIND_LABELS[latest.kind] ?? latest.kind} by ${latest.byName} at ${latest.at.toISOString().replace("T", " ").slice(0, 16)} UTC)` : "";
+  const who = latest ? ` (${REVISION_KIND_LABELS[latest.kind] ?? latest.kind} by ${latest.byName} at ${formatInstant(latest.at, "minute", true)})` : "";
   return new AppError("conflict", `${label} changed while you were looking at it${who}. Nothing was saved; the queue now shows the joint as it is.`);
 }
 

@@ -4,6 +4,7 @@
 import "server-only";
 import { findJointOrigins, type JointOrigins } from "@/database/queries/trace";
 import { qualificationStatus, type QualificationStatus } from "@/domain/qualifications/status";
+import { formatInstant } from "@/components/ui/display-format";
 
 export type TracedOrigins = JointOrigins & {
   madeOn: string;
@@ -14,7 +15,7 @@ export type TracedOrigins = JointOrigins & {
 export async function traceJointOrigins(jointId: number): Promise<TracedOrigins | null> {
   const origins = await findJointOrigins({ jointId });
   if (!origins) return null;
-  const madeOn = origins.joint.madeAt.toISOString().slice(0, 10);
+  const madeOn = formatInstant(origins.joint.madeAt, "date");
   let qualification: TracedOrigins["qualification"];
   try {
     qualification = qualificationStatus({ qualifiedOn: origins.fuser.qualifiedOn, failedTestsOn: origins.fuser.failedTestsOn, on: madeOn });

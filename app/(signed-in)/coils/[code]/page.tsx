@@ -2,7 +2,11 @@ import { headers } from "next/headers";
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requireUser } from "@/app/_lib/page-guard";
+import { CoilStatusBadge } from "@/components/ui/badges";
 import { Cautions } from "@/components/ui/caution";
+import { FactBlock, FactList } from "@/components/ui/fact-list";
+import { formatInstant } from "@/components/ui/display-format";
+import { TimeDisplay } from "@/components/ui/time-display";
 import { findCoilByCode, listCoilEvents, listCoilMoveOptions } from "@/database/queries/coils";
 import { listJointsForCoil } from "@/database/queries/trace";
 import { COIL_STATUS_LABELS, DAMAGE_LABELS, statusMovesFrom } from "@/domain/coil-life/rules";
@@ -12,20 +16,11 @@ import { can } from "@/domain/roles";
 import { formatQuantity } from "@/domain/units/format";
 import { publicBaseUrl } from "@/app/_server/labels/base-url";
 import { coilLabelSvg, stockOrDefault } from "@/app/_server/labels/render";
-import { CoilStatusBadge } from "@/components/coils/coil-status-badge";
 import { MoveCoilForm } from "../_components/move-coil-form";
 import { NextRunCheck } from "../_components/next-run-check";
+import { SectionCard } from "@/components/ui/section-card";
 
 export const dynamic = "force-dynamic";
-
-function Fact({ label, children }: { label: string; children: React.ReactNode }) {
-  return (
-    <div className="flex flex-col">
-      <dt className="text-sm text-slate-700">{label}</dt>
-      <dd className="font-semibold">{children}</dd>
-    </div>
-  );
-}
 
 function bendCaution(coil: { outsideDiameterMm: number; sdr: number }, system: "si" | "us"): string {
   try {
@@ -85,35 +80,29 @@ export default async function CoilPage({ params, searchParams }: { params: Promi
         </div>
       ) : null}
 
-      <section aria-labelledby="facts" className="rounded-md border-2 border-slate-300 bg-white p-4">
-        <h2 id="facts" className="mb-3 text-lg font-bold">
-          Pipe
-        </h2>
-        <dl className="grid gap-3 sm:grid-cols-3">
-          <Fact label="Size">{describeSize(coil)}</Fact>
-          <Fact label="Outside diameter">{formatQuantity(coil.outsideDiameterMm, "length-mm", system)}</Fact>
-          <Fact label="Material">{coil.material}</Fact>
-          <Fact label="Pipe maker">
+      <SectionCard id="facts" title="Pipe" tone="card" isCompact>
+        <FactList layout="stacked" columns={3} className="gap-3">
+          <FactBlock term="Size">{describeSize(coil)}</FactBlock>
+          <FactBlock term="Outside diameter">{formatQuantity(coil.outsideDiameterMm, "length-mm", system)}</FactBlock>
+          <FactBlock term="Material">{coil.material}</FactBlock>
+          <FactBlock term="Pipe maker">
             {coil.manufacturer}
             {coil.manufacturerCode ? ` (${coil.manufacturerCode})` : ""}
-          </Fact>
-          <Fact label="Lot">{coil.lot}</Fact>
-          <Fact label="Production date">{coil.productionDate ?? "not recorded"}</Fact>
-          <Fact label="Traceability code">{coil.traceCode ? <code>{coil.traceCode}</code> : "none"}</Fact>
-          <Fact label="Crew and trailer">{coil.crewName ? `${coil.crewName}${coil.trailer ? ` — ${coil.trailer}` : ""}` : "—"}</Fact>
-          <Fact label="Job">{coil.jobCode ? `${coil.jobCode} — ${coil.jobName}` : "—"}</Fact>
-        </dl>
+          </FactBlock>
+          <FactBlock term="Lot">{coil.lot}</FactBlock>
+          <FactBlock term="Production date">{coil.productionDate ?? "not recorded"}</FactBlock>
+          <FactBlock term="Traceability code">{coil.traceCode ? <code>{coil.traceCode}</code> : "none"}</FactBlock>
+          <FactBlock term="Crew and trailer">{coil.crewName ? `${coil.crewName}${coil.trailer ? ` — ${coil.trailer}` : ""}` : "—"}</FactBlock>
+          <FactBlock term="Job">{coil.jobCode ? `${coil.jobCode} — ${coil.jobName}` : "—"}</FactBlock>
+        </FactList>
         {coil.printLine ? (
           <p className="mt-3 text-sm">
             Print line: <span className="font-mono">{coil.printLine}</span>
           </p>
         ) : null}
-      </section>
+      </SectionCard>
 
-      <section aria-labelledby="left" className="rounded-md border-2 border-slate-300 bg-white p-4">
-        <h2 id="left" className="mb-3 text-lg font-bold">
-          Length left
-        </h2>
+      <SectionCard id="left" title="Length left" tone="card" isCompact>
         <p className="text-xl font-bold">
           {m(coil.remainingM)} left of {m(coil.lengthM)}
         </p>
@@ -121,54 +110,43 @@ export default async function CoilPage({ params, searchParams }: { params: Promi
           <div className="h-4 rounded bg-brand" style={{ width: `${usedPct}%` }} />
         </div>
         <NextRunCheck coilCode={coil.coilCode} remainingM={coil.remainingM} unitSystem={system} />
-      </section>
+      </SectionCard>
 
-      <section aria-labelledby="handling" className="flex flex-col gap-2">
-        <h2 id="handling" className="text-lg font-bold">
-          Handling
-        </h2>
+      <SectionCard id="handling" title="Handling" isCompact className="flex flex-col gap-2">
         <p className="rounded-md border-2 border-caution bg-caution-light p-3 font-semibold text-caution">Bending: {bendCaution(coil, system)}</p>
         <Cautions kinds={["coil", "static"]} title="Before you cut the bands" />
-      </section>
+      </SectionCard>
 
-      <section aria-labelledby="inspection" className="rounded-md border-2 border-slate-300 bg-white p-4">
-        <h2 id="inspection" className="mb-3 text-lg font-bold">
-          Receipt inspection
-        </h2>
-        <dl className="grid gap-3 sm:grid-cols-3">
-          <Fact label="Result">{coil.inspection.passed ? "Passed" : "Failed"}</Fact>
-          <Fact label="Damage">{coil.inspection.damageKinds.length ? coil.inspection.damageKinds.map((k) => DAMAGE_LABELS[k]).join(", ") : "none found"}</Fact>
-          <Fact label="Deepest gouge">
+      <SectionCard id="inspection" title="Receipt inspection" tone="card" isCompact>
+        <FactList layout="stacked" columns={3} className="gap-3">
+          <FactBlock term="Result">{coil.inspection.passed ? "Passed" : "Failed"}</FactBlock>
+          <FactBlock term="Damage">{coil.inspection.damageKinds.length ? coil.inspection.damageKinds.map((k) => DAMAGE_LABELS[k]).join(", ") : "none found"}</FactBlock>
+          <FactBlock term="Deepest gouge">
             {coil.inspection.gougeDepthMm != null ? `${formatQuantity(coil.inspection.gougeDepthMm, "length-mm", system)}${coil.inspection.gougeLimitPct != null ? ` (limit ${coil.inspection.gougeLimitPct} % of wall)` : ""}` : "not measured"}
-          </Fact>
-          <Fact label="Ovality at the end">
+          </FactBlock>
+          <FactBlock term="Ovality at the end">
             {coil.inspection.ovalityPct != null ? `${coil.inspection.ovalityPct} %${coil.inspection.ovalityLimitPct != null ? ` (limit ${coil.inspection.ovalityLimitPct} %)` : ""}` : "not measured"}
-          </Fact>
-          <Fact label="End caps">{coil.inspection.endCapsInPlace ? "in place" : "missing"}</Fact>
-          <Fact label="Received">
-            {coil.inspection.receivedAt.toISOString().slice(0, 16).replace("T", " ")} UTC{coil.inspection.receivedByName ? ` by ${coil.inspection.receivedByName}` : ""}
-          </Fact>
-        </dl>
+          </FactBlock>
+          <FactBlock term="End caps">{coil.inspection.endCapsInPlace ? "in place" : "missing"}</FactBlock>
+          <FactBlock term="Received">
+            <TimeDisplay at={coil.inspection.receivedAt} withZone />
+            {coil.inspection.receivedByName ? ` by ${coil.inspection.receivedByName}` : ""}
+          </FactBlock>
+        </FactList>
         {coil.inspection.damageNotes ? <p className="mt-2">Notes: {coil.inspection.damageNotes}</p> : null}
-      </section>
+      </SectionCard>
 
       {canMove && options ? (
-        <section aria-labelledby="move" className="max-w-xl rounded-md border-2 border-slate-300 bg-white p-4">
-          <h2 id="move" className="mb-3 text-lg font-bold">
-            Move coil
-          </h2>
+        <SectionCard id="move" title="Move coil" isCompact className="max-w-xl rounded-md border-2 border-slate-300 bg-white p-4">
           <MoveCoilForm coil={coil} moves={statusMovesFrom(coil.status)} crews={options.crews} jobs={options.jobs} />
-        </section>
+        </SectionCard>
       ) : null}
 
       {can(user, "printLabels") ? (
-        <section aria-labelledby="label" className="rounded-md border-2 border-slate-300 bg-white p-4">
-          <h2 id="label" className="mb-3 text-lg font-bold">
-            Label
-          </h2>
+        <SectionCard id="label" title="Label" tone="card" isCompact>
           <div className="max-w-md border border-slate-300" dangerouslySetInnerHTML={{ __html: label.svg }} />
           <p className="mt-2 text-sm">
-            The QR opens <span className="font-mono">{label.url}</span>. {coil.labelPrintedAt ? `Label last printed ${coil.labelPrintedAt.toISOString().slice(0, 10)}.` : "The label has not been printed yet."}
+            The QR opens <span className="font-mono">{label.url}</span>. {coil.labelPrintedAt ? `Label last printed ${formatInstant(coil.labelPrintedAt, "date")}.` : "The label has not been printed yet."}
           </p>
           <div className="mt-3 flex flex-wrap gap-2">
             <Link href={`/labels?kind=coil&ids=${coil.id}`} className="inline-flex min-h-touch items-center rounded-md bg-brand px-4 font-semibold text-white hover:bg-brand-dark">
@@ -186,14 +164,11 @@ export default async function CoilPage({ params, searchParams }: { params: Promi
               </Link>
             ) : null}
           </div>
-        </section>
+        </SectionCard>
       ) : null}
 
-      <section aria-labelledby="joints" className="rounded-md border-2 border-slate-300 bg-white p-4">
-        <h2 id="joints" className="mb-3 text-lg font-bold">
-          Joints made with this coil ({joints.length}
-          {joints.length === 100 ? "+" : ""})
-        </h2>
+      <SectionCard id="joints" title={<>Joints made with this coil ({joints.length}
+          {joints.length === 100 ? "+" : ""})</>} tone="card" isCompact>
         {joints.length ? (
           <ul className="flex flex-col gap-1">
             {joints.map((j) => (
@@ -205,7 +180,7 @@ export default async function CoilPage({ params, searchParams }: { params: Promi
                 ) : (
                   `${j.jobCode} joint ${j.jointNo}`
                 )}{" "}
-                · {j.madeAt.toISOString().slice(0, 10)} · {j.station ?? "no station"} · {j.fuserName} · {j.outcome === "within-limits" ? "within limits" : "out of limits"}
+                · <TimeDisplay at={j.madeAt} precision="date" /> · {j.station ?? "no station"} · {j.fuserName} · {j.outcome === "within-limits" ? "within limits" : "out of limits"}
                 {j.side === "a" && j.lengthAM != null ? ` · ${m(j.lengthAM)} laid` : j.side === "b" && j.lengthBM != null ? ` · ${m(j.lengthBM)} laid` : ""}
               </li>
             ))}
@@ -213,16 +188,15 @@ export default async function CoilPage({ params, searchParams }: { params: Promi
         ) : (
           <p>No joints yet.</p>
         )}
-      </section>
+      </SectionCard>
 
-      <section aria-labelledby="history" className="rounded-md border-2 border-slate-300 bg-white p-4">
-        <h2 id="history" className="mb-3 text-lg font-bold">
-          History
-        </h2>
+      <SectionCard id="history" title="History" tone="card" isCompact>
         <ol className="flex flex-col gap-1">
           {events.map((e) => (
             <li key={e.id}>
-              <span className="font-semibold">{e.at.toISOString().slice(0, 16).replace("T", " ")}</span> · {e.fromStatus ? `${COIL_STATUS_LABELS[e.fromStatus]} → ` : ""}
+              <span className="font-semibold">
+                <TimeDisplay at={e.at} />
+              </span> · {e.fromStatus ? `${COIL_STATUS_LABELS[e.fromStatus]} → ` : ""}
               {COIL_STATUS_LABELS[e.toStatus]}
               {e.pullM != null ? ` · pulled ${m(e.pullM)}${e.jointNo != null ? ` for ${e.jobCode ?? "job"} joint ${e.jointNo}` : ""}` : ""}
               {e.remainingM != null ? ` · ${m(e.remainingM)} left` : ""}
@@ -232,7 +206,7 @@ export default async function CoilPage({ params, searchParams }: { params: Promi
             </li>
           ))}
         </ol>
-      </section>
+      </SectionCard>
     </div>
   );
 }

@@ -11,6 +11,7 @@ import { Button } from "@/components/ui/button";
 import { COIL_STATUS_LABELS, type CoilStatus } from "@/domain/coil-life/rules";
 import { moveCoilSchema } from "@/domain/coil-life/schemas";
 import { moveCoilAction } from "../actions";
+import { FieldShell } from "@/components/form/field-shell";
 
 type Input = z.input<typeof moveCoilSchema>;
 type Output = z.output<typeof moveCoilSchema>;
@@ -48,69 +49,53 @@ export function MoveCoilForm({
   });
   if (!moves.length) return <p>No status moves are open for this coil.</p>;
   const selectClass = "min-h-touch rounded-md border-2 border-slate-400 bg-white px-3";
-  const errorOf = (name: string) =>
-    errors[name]?.message ? (
-      <p id={`move-${name}-error`} className="text-sm font-semibold text-fail">
-        {errors[name]?.message}
-      </p>
-    ) : null;
   return (
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-3">
       <input type="hidden" {...register("coilId")} />
       <input type="hidden" {...register("version")} />
-      <div className="flex flex-col gap-1">
-        <label htmlFor="move-to" className="text-sm font-semibold">
-          New status
-        </label>
-        <select id="move-to" className={selectClass} aria-describedby={errors.to ? "move-to-error" : undefined} {...register("to")}>
-          {moves.map((m) => (
-            <option key={m} value={m}>
-              {COIL_STATUS_LABELS[m]}
-            </option>
-          ))}
-        </select>
-        {errorOf("to")}
-      </div>
-      {to === "on-trailer" || to === "in-use" ? (
-        <div className="flex flex-col gap-1">
-          <label htmlFor="move-crew" className="text-sm font-semibold">
-            Crew and trailer
-          </label>
-          <select id="move-crew" className={selectClass} aria-describedby={errors.crewId ? "move-crewId-error" : undefined} {...register("crewId")}>
-            <option value="">Choose a crew</option>
-            {crews.map((c) => (
-              <option key={c.id} value={c.id}>
-                {c.name}
-                {c.trailer ? ` — ${c.trailer}` : ""}
+      <FieldShell id="move-to" label="New status" error={errors.to?.message}>
+        {(control) => (
+          <select {...control} className={selectClass} {...register("to")}>
+            {moves.map((m) => (
+              <option key={m} value={m}>
+                {COIL_STATUS_LABELS[m]}
               </option>
             ))}
           </select>
-          {errorOf("crewId")}
-        </div>
+        )}
+      </FieldShell>
+      {to === "on-trailer" || to === "in-use" ? (
+        <FieldShell id="move-crew" label="Crew and trailer" error={errors.crewId?.message}>
+          {(control) => (
+            <select {...control} className={selectClass} {...register("crewId")}>
+              <option value="">Choose a crew</option>
+              {crews.map((c) => (
+                <option key={c.id} value={c.id}>
+                  {c.name}
+                  {c.trailer ? ` — ${c.trailer}` : ""}
+                </option>
+              ))}
+            </select>
+          )}
+        </FieldShell>
       ) : null}
       {to === "in-use" ? (
-        <div className="flex flex-col gap-1">
-          <label htmlFor="move-job" className="text-sm font-semibold">
-            Job
-          </label>
-          <select id="move-job" className={selectClass} aria-describedby={errors.jobId ? "move-jobId-error" : undefined} {...register("jobId")}>
-            <option value="">Choose a job</option>
-            {jobs.map((j) => (
-              <option key={j.id} value={j.id}>
-                {j.code} — {j.name}
-              </option>
-            ))}
-          </select>
-          {errorOf("jobId")}
-        </div>
+        <FieldShell id="move-job" label="Job" error={errors.jobId?.message}>
+          {(control) => (
+            <select {...control} className={selectClass} {...register("jobId")}>
+              <option value="">Choose a job</option>
+              {jobs.map((j) => (
+                <option key={j.id} value={j.id}>
+                  {j.code} — {j.name}
+                </option>
+              ))}
+            </select>
+          )}
+        </FieldShell>
       ) : null}
-      <div className="flex flex-col gap-1">
-        <label htmlFor="move-reason" className="text-sm font-semibold">
-          Reason {needsReason ? "(required)" : "(optional)"}
-        </label>
-        <input id="move-reason" className={`${selectClass} w-full`} aria-describedby={errors.reason ? "move-reason-error" : undefined} aria-invalid={errors.reason ? true : undefined} {...register("reason")} />
-        {errorOf("reason")}
-      </div>
+      <FieldShell id="move-reason" label={`Reason ${needsReason ? "(required)" : "(optional)"}`} error={errors.reason?.message}>
+        {(control) => <input {...control} className={`${selectClass} w-full`} {...register("reason")} />}
+      </FieldShell>
       <FormMessage message={message?.text} tone={message?.tone} />
       <Button type="submit" variant={to === "quarantined" ? "danger" : "primary"} disabled={formState.isSubmitting}>
         {to === "quarantined" ? "Quarantine coil" : "Move coil"}

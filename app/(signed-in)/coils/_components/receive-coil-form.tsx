@@ -16,6 +16,7 @@ import { parseTraceCode } from "@/domain/trace-code/trace-code";
 import { fromDisplay } from "@/domain/units/format";
 import { receiveCoilAction } from "../actions";
 import { CameraScanner } from "@/components/ui/camera-scanner";
+import { FieldShell } from "@/components/form/field-shell";
 
 type Input = z.input<typeof receiveCoilSchema>;
 type Output = z.output<typeof receiveCoilSchema>;
@@ -211,53 +212,39 @@ export function ReceiveCoilForm({
             <option key={m} value={m} />
           ))}
         </datalist>
-        <div className="flex flex-col gap-1">
-          <label htmlFor="series" className="text-sm font-semibold">
-            Size series
-          </label>
-          <select id="series" className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-3" {...register("series")}>
-            {PIPE_SERIES.map((s) => (
-              <option key={s} value={s}>
-                {SERIES_NAMES[s]}
-              </option>
-            ))}
-          </select>
-        </div>
-        <div className="flex flex-col gap-1">
-          <label htmlFor="nominalSize" className="text-sm font-semibold">
-            Nominal size
-          </label>
-          <select
-            id="nominalSize"
-            aria-invalid={errors.nominalSize || flagFor("nominalSize") ? true : undefined}
-            aria-describedby={errors.nominalSize || flagFor("nominalSize") ? "nominalSize-error" : undefined}
-            className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-3"
-            {...register("nominalSize")}
-          >
-            {pipeSizes(series).map((size) => (
-              <option key={size.nominal} value={size.nominal}>
-                {size.label}
-              </option>
-            ))}
-          </select>
-          {errors.nominalSize?.message || flagFor("nominalSize") ? (
-            <p id="nominalSize-error" className="text-sm font-semibold text-fail">
-              {errors.nominalSize?.message ?? flagFor("nominalSize")}
-            </p>
-          ) : null}
-        </div>
+        <FieldShell id="series" label="Size series">
+          {(control) => (
+            <select {...control} className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-3" {...register("series")}>
+              {PIPE_SERIES.map((s) => (
+                <option key={s} value={s}>
+                  {SERIES_NAMES[s]}
+                </option>
+              ))}
+            </select>
+          )}
+        </FieldShell>
+        <FieldShell id="nominalSize" label="Nominal size" error={errors.nominalSize?.message ?? flagFor("nominalSize")}>
+          {(control) => (
+            <select {...control} className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-3" {...register("nominalSize")}>
+              {pipeSizes(series).map((size) => (
+                <option key={size.nominal} value={size.nominal}>
+                  {size.label}
+                </option>
+              ))}
+            </select>
+          )}
+        </FieldShell>
         <Field id="sdr" label="SDR (DR)" numeric autoComplete="off" {...register("sdr")} error={errors.sdr?.message} />
         <div className="flex items-end gap-2">
           <Field id="length" label="Coil length" numeric autoComplete="off" className="flex-1" {...register("length")} error={errors.length?.message} />
-          <div className="flex flex-col gap-1">
-            <label htmlFor="lengthUnit" className="text-sm font-semibold">
-              Unit
-            </label>
-            <select id="lengthUnit" className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-3" {...register("lengthUnit")}>
-              <option value="m">m</option>
-              <option value="ft">ft</option>
-            </select>
-          </div>
+          <FieldShell id="lengthUnit" label="Unit">
+            {(control) => (
+              <select {...control} className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-3" {...register("lengthUnit")}>
+                <option value="m">m</option>
+                <option value="ft">ft</option>
+              </select>
+            )}
+          </FieldShell>
         </div>
         <Field id="printLine" label="Print line as written on the pipe" autoComplete="off" className="sm:col-span-2" {...register("printLine")} error={errors.printLine?.message} />
       </fieldset>

@@ -12,6 +12,8 @@ import { PersonAccessForm } from "../_components/person-access-form";
 import { QualificationBadge } from "@/components/qualifications/qualification-badge";
 import { QualificationForm } from "../_components/qualification-form";
 import { ResetPasswordForm } from "../_components/reset-password-form";
+import { DataTable } from "@/components/ui/data-table";
+import { SectionCard } from "@/components/ui/section-card";
 
 export const dynamic = "force-dynamic";
 
@@ -41,10 +43,7 @@ export default async function PersonPage({ params }: { params: Promise<{ id: str
       <p>
         {person.email} · {person.roles.map((r) => ROLE_LABELS[r]).join(", ")} · {person.crewName ?? "no crew"} · {person.isActive ? "active" : "deactivated"}
       </p>
-      <section aria-labelledby="status" className="rounded-md border-2 border-slate-300 bg-white p-4">
-        <h2 id="status" className="mb-2 text-xl font-bold">
-          Qualification status
-        </h2>
+      <SectionCard id="status" title="Qualification status" tone="card">
         {statuses.length ? (
           <ul className="flex flex-col gap-2">
             {statuses.map((s) => (
@@ -57,52 +56,36 @@ export default async function PersonPage({ params }: { params: Promise<{ id: str
         ) : (
           <p>No qualification on record: {person.name} may not make joints.</p>
         )}
-      </section>
-      <section aria-labelledby="record-qualification" className="rounded-md border-2 border-slate-300 bg-white p-4">
-        <h2 id="record-qualification" className="mb-2 text-xl font-bold">
-          Record a qualification or requalification
-        </h2>
+      </SectionCard>
+      <SectionCard id="record-qualification" title="Record a qualification or requalification" tone="card">
         <QualificationForm person={{ id: person.id, name: person.name }} procedures={procedureOptions} today={today} />
-      </section>
-      <section aria-labelledby="history">
-        <h2 id="history" className="mb-2 text-xl font-bold">
-          Qualification record
-        </h2>
-        <div className="overflow-x-auto">
-          <table className="w-full border-collapse text-left text-sm">
-            <thead>
-              <tr className="border-b-2 border-slate-400">
-                <th className="p-2">Date</th>
-                <th className="p-2">Procedure</th>
-                <th className="p-2">Test</th>
-                <th className="p-2">Specimen result</th>
-                <th className="p-2">Evaluator</th>
-                <th className="p-2">Evidence</th>
-              </tr>
-            </thead>
-            <tbody>
-              {qualifications.map((q) => (
-                <tr key={q.id} className="border-b border-slate-200">
-                  <td className="p-2">{q.qualifiedOn}</td>
-                  <td className="p-2">{q.procedureCode}</td>
-                  <td className="p-2">{QUALIFICATION_METHOD_LABELS[q.method]}</td>
-                  <td className="p-2">{q.specimenResult}</td>
-                  <td className="p-2">{q.evaluator}</td>
-                  <td className="p-2">
-                    {q.evidenceAttachmentId ? (
-                      <a className="text-brand underline" href={`/crew/evidence/${q.evidenceAttachmentId}`}>
-                        Open evidence
-                      </a>
-                    ) : (
-                      "—"
-                    )}
-                  </td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-          {qualifications.length === 0 ? <p className="p-2">None recorded.</p> : null}
-        </div>
+      </SectionCard>
+      <SectionCard id="history" title="Qualification record">
+        <DataTable
+          labelledBy="history"
+          isDense
+          rows={qualifications}
+          rowKey={(q) => q.id}
+          empty="None recorded."
+          columns={[
+            { header: "Date", cell: (q) => q.qualifiedOn },
+            { header: "Procedure", cell: (q) => q.procedureCode },
+            { header: "Test", cell: (q) => QUALIFICATION_METHOD_LABELS[q.method] },
+            { header: "Specimen result", cell: (q) => q.specimenResult },
+            { header: "Evaluator", cell: (q) => q.evaluator },
+            {
+              header: "Evidence",
+              cell: (q) =>
+                q.evidenceAttachmentId ? (
+                  <a className="text-brand underline" href={`/crew/evidence/${q.evidenceAttachmentId}`}>
+                    Open evidence
+                  </a>
+                ) : (
+                  "—"
+                ),
+            },
+          ]}
+        />
         {failures.length ? (
           <>
             <h3 className="mb-1 mt-4 font-bold">Production joints found unacceptable by test</h3>
@@ -116,25 +99,16 @@ export default async function PersonPage({ params }: { params: Promise<{ id: str
             </ul>
           </>
         ) : null}
-      </section>
-      <section aria-labelledby="record-failure" className="rounded-md border-2 border-slate-300 bg-white p-4">
-        <h2 id="record-failure" className="mb-2 text-xl font-bold">
-          Record a failed production-joint test
-        </h2>
+      </SectionCard>
+      <SectionCard id="record-failure" title="Record a failed production-joint test" tone="card">
         <FailureForm person={{ id: person.id, name: person.name }} procedures={procedureOptions} today={today} />
-      </section>
-      <section aria-labelledby="access" className="rounded-md border-2 border-slate-300 bg-white p-4">
-        <h2 id="access" className="mb-2 text-xl font-bold">
-          Roles and access
-        </h2>
+      </SectionCard>
+      <SectionCard id="access" title="Roles and access" tone="card">
         <PersonAccessForm key={person.version} person={{ id: person.id, version: person.version, name: person.name, roles: person.roles, isActive: person.isActive, crewId: person.crewId }} crews={crews} />
-      </section>
-      <section aria-labelledby="password" className="rounded-md border-2 border-slate-300 bg-white p-4">
-        <h2 id="password" className="mb-2 text-xl font-bold">
-          Reset password
-        </h2>
+      </SectionCard>
+      <SectionCard id="password" title="Reset password" tone="card">
         <ResetPasswordForm person={{ id: person.id, name: person.name }} />
-      </section>
+      </SectionCard>
     </div>
   );
 }

@@ -5,12 +5,12 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
-import { Field, FormMessage } from "@/components/form/field";
-import { Button } from "@/components/ui/button";
+import { Field } from "@/components/form/field";
 import { addPersonSchema, MIN_PASSWORD_LENGTH } from "@/domain/crew/schemas";
-import { ROLES, ROLE_LABELS } from "@/domain/roles";
 import { addPersonAction } from "../actions";
-import { ChoiceGroup, SelectField, applyActionResult, errorText } from "@/components/form/controls";
+import { SelectField, applyActionResult, errorText } from "@/components/form/controls";
+import { FormFrame, type FormOutcome } from "@/components/form/form-frame";
+import { CrewSelect, RoleChoices, crewIdValue } from "./person-fields";
 
 type Input = z.input<typeof addPersonSchema>;
 type Output = z.output<typeof addPersonSchema>;
@@ -18,7 +18,7 @@ const FIELDS = ["name", "email", "roles", "password", "unitSystem", "crewId"] as
 
 export function AddPersonForm({ crews }: { crews: { id: number; name: string }[] }) {
   const router = useRouter();
-  const [message, setMessage] = useState<{ text: string; tone: "error" | "success" } | null>(null);
+  const [message, setMessage] = useState<FormOutcome>(null);
   const { register, handleSubmit, formState, setError, reset } = useForm<Input, unknown, Output>({
     resolver: zodResolver(addPersonSchema),
     defaultValues: { roles: [], unitSystem: "si", crewId: null },
@@ -34,38 +34,18 @@ export function AddPersonForm({ crews }: { crews: { id: number; name: string }[]
     } else setMessage({ text: applyActionResult(result, setError, FIELDS) ?? result.message, tone: "error" });
   });
   return (
-    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Add a person">
+    <FormFrame label="Add a person" onSubmit={onSubmit} message={message} isBusy={formState.isSubmitting} submitLabel="Add person" busyLabel="Adding …">
       <div className="grid gap-4 sm:grid-cols-2">
         <Field id="person-name" label="Name" autoComplete="off" {...register("name")} error={e.name?.message} />
         <Field id="person-email" label="E-mail" type="email" autoComplete="off" {...register("email")} error={e.email?.message} />
         <Field id="person-password" label="First password" type="password" autoComplete="new-password" hint={`At least ${MIN_PASSWORD_LENGTH} characters; not a common password or the person's name`} {...register("password")} error={e.password?.message} />
-        <SelectField id="person-crew" label="Crew" {...register("crewId", { setValueAs: (v) => (v === "" || v === null ? null : Number(v)) })} error={e.crewId?.message}>
-          <option value="">No crew (office)</option>
-          {crews.map((c) => (
-            <option key={c.id} value={c.id}>
-              {c.name}
-            </option>
-          ))}
-        </SelectField>
+        <CrewSelect id="person-crew" registration={register("crewId", { setValueAs: crewIdValue })} error={e.crewId?.message} crews={crews} />
         <SelectField id="person-units" label="Units" {...register("unitSystem")} error={e.unitSystem?.message}>
           <option value="si">SI (mm, MPa, °C)</option>
           <option value="us">US customary (in, psi, °F)</option>
         </SelectField>
       </div>
-      <ChoiceGroup id="person-roles" legend="Roles" error={errorText(e.roles)}>
-        {ROLES.map((r) => (
-          <label key={r} className="flex min-h-touch items-center gap-2 rounded-md border-2 border-slate-300 px-3">
-            <input type="checkbox" className="h-5 w-5" value={r} {...register("roles")} />
-            {ROLE_LABELS[r]}
-          </label>
-        ))}
-      </ChoiceGroup>
-      <FormMessage message={message?.text} tone={message?.tone} />
-      <div>
-        <Button type="submit" disabled={formState.isSubmitting}>
-          {formState.isSubmitting ? "Adding …" : "Add person"}
-        </Button>
-      </div>
-    </form>
+      <RoleChoices id="person-roles" registration={register("roles")} error={errorText(e.roles)} />
+    </FormFrame>
   );
 }

@@ -6,11 +6,12 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
-import { Field, FormMessage } from "@/components/form/field";
-import { Button } from "@/components/ui/button";
+import { Field } from "@/components/form/field";
 import { recordQualificationFailureSchema } from "@/domain/office/schemas";
 import { recordQualificationFailureAction } from "../actions";
-import { SelectField, TextAreaField, applyActionResult } from "@/components/form/controls";
+import { TextAreaField, applyActionResult } from "@/components/form/controls";
+import { FormFrame, type FormOutcome } from "@/components/form/form-frame";
+import { ProcedureSelect } from "./person-fields";
 
 type Input = z.input<typeof recordQualificationFailureSchema>;
 type Output = z.output<typeof recordQualificationFailureSchema>;
@@ -18,7 +19,7 @@ const FIELDS = ["procedureId", "failedOn", "jointId", "notes"] as const;
 
 export function FailureForm({ person, procedures, today }: { person: { id: number; name: string }; procedures: { id: number; label: string }[]; today: string }) {
   const router = useRouter();
-  const [message, setMessage] = useState<{ text: string; tone: "error" | "success" } | null>(null);
+  const [message, setMessage] = useState<FormOutcome>(null);
   const { register, handleSubmit, formState, setError, reset } = useForm<Input, unknown, Output>({
     resolver: zodResolver(recordQualificationFailureSchema),
     defaultValues: { userId: person.id, failedOn: today },
@@ -34,27 +35,14 @@ export function FailureForm({ person, procedures, today }: { person: { id: numbe
     } else setMessage({ text: applyActionResult(result, setError, FIELDS) ?? result.message, tone: "error" });
   });
   return (
-    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label={`Record a failed production joint of ${person.name}`}>
+    <FormFrame label={`Record a failed production joint of ${person.name}`} onSubmit={onSubmit} message={message} isBusy={formState.isSubmitting} submitLabel="Record failed joint test" variant="danger">
       <input type="hidden" {...register("userId")} />
       <div className="grid gap-4 sm:grid-cols-3">
-        <SelectField id="failure-procedure" label="Procedure" {...register("procedureId")} error={e.procedureId?.message}>
-          <option value="">Choose a procedure …</option>
-          {procedures.map((p) => (
-            <option key={p.id} value={p.id}>
-              {p.label}
-            </option>
-          ))}
-        </SelectField>
+        <ProcedureSelect id="failure-procedure" registration={register("procedureId")} error={e.procedureId?.message} procedures={procedures} />
         <Field id="failure-date" label="Date the joint failed its test" type="date" max={today} {...register("failedOn")} error={e.failedOn?.message} />
         <Field id="failure-joint" label="Joint id" numeric hint="Optional" {...register("jointId")} error={e.jointId?.message} />
       </div>
       <TextAreaField id="failure-notes" label="What was found" {...register("notes")} error={e.notes?.message} />
-      <FormMessage message={message?.text} tone={message?.tone} />
-      <div>
-        <Button type="submit" variant="danger" disabled={formState.isSubmitting}>
-          Record failed joint test
-        </Button>
-      </div>
-    </form>
+    </FormFrame>
   );
 }

@@ -6,12 +6,12 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
-import { FormMessage } from "@/components/form/field";
-import { Button } from "@/components/ui/button";
 import { updatePersonSchema } from "@/domain/crew/schemas";
-import { ROLES, ROLE_LABELS, type Role } from "@/domain/roles";
+import type { Role } from "@/domain/roles";
 import { updatePersonAction } from "../actions";
-import { ChoiceGroup, SelectField, applyActionResult, errorText } from "@/components/form/controls";
+import { applyActionResult, errorText } from "@/components/form/controls";
+import { FormFrame, type FormOutcome } from "@/components/form/form-frame";
+import { CrewSelect, RoleChoices, crewIdValue } from "./person-fields";
 
 type Input = z.input<typeof updatePersonSchema>;
 type Output = z.output<typeof updatePersonSchema>;
@@ -19,7 +19,7 @@ const FIELDS = ["roles", "isActive", "crewId"] as const;
 
 export function PersonAccessForm({ person, crews }: { person: { id: number; version: number; name: string; roles: Role[]; isActive: boolean; crewId: number | null }; crews: { id: number; name: string }[] }) {
   const router = useRouter();
-  const [message, setMessage] = useState<{ text: string; tone: "error" | "success" } | null>(null);
+  const [message, setMessage] = useState<FormOutcome>(null);
   const { register, handleSubmit, formState, setError } = useForm<Input, unknown, Output>({
     resolver: zodResolver(updatePersonSchema),
     defaultValues: { id: person.id, version: person.version, roles: person.roles, isActive: person.isActive, crewId: person.crewId },
@@ -34,25 +34,11 @@ export function PersonAccessForm({ person, crews }: { person: { id: number; vers
     } else setMessage({ text: applyActionResult(result, setError, FIELDS) ?? result.message, tone: "error" });
   });
   return (
-    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label={`Access of ${person.name}`}>
+    <FormFrame label={`Access of ${person.name}`} onSubmit={onSubmit} message={message} isBusy={formState.isSubmitting} submitLabel="Save access" busyLabel="Saving …">
       <input type="hidden" {...register("id")} />
       <input type="hidden" {...register("version")} />
-      <ChoiceGroup id="access-roles" legend="Roles" error={errorText(e.roles)}>
-        {ROLES.map((r) => (
-          <label key={r} className="flex min-h-touch items-center gap-2 rounded-md border-2 border-slate-300 px-3">
-            <input type="checkbox" className="h-5 w-5" value={r} {...register("roles")} />
-            {ROLE_LABELS[r]}
-          </label>
-        ))}
-      </ChoiceGroup>
-      <SelectField id="access-crew" label="Crew" {...register("crewId", { setValueAs: (v) => (v === "" || v === null ? null : Number(v)) })} error={e.crewId?.message}>
-        <option value="">No crew (office)</option>
-        {crews.map((c) => (
-          <option key={c.id} value={c.id}>
-            {c.name}
-          </option>
-        ))}
-      </SelectField>
+      <RoleChoices id="access-roles" registration={register("roles")} error={errorText(e.roles)} />
+      <CrewSelect id="access-crew" registration={register("crewId", { setValueAs: crewIdValue })} error={e.crewId?.message} crews={crews} />
       <div className="flex flex-col gap-1">
         <label className="flex min-h-touch items-center gap-2">
           <input type="checkbox" className="h-5 w-5" aria-describedby={e.isActive ? "access-active-error" : undefined} {...register("isActive")} />
@@ -64,12 +50,6 @@ export function PersonAccessForm({ person, crews }: { person: { id: number; vers
           </p>
         ) : null}
       </div>
-      <FormMessage message={message?.text} tone={message?.tone} />
-      <div>
-        <Button type="submit" disabled={formState.isSubmitting}>
-          {formState.isSubmitting ? "Saving …" : "Save access"}
-        </Button>
-      </div>
-    </form>
+    </FormFrame>
   );
 }

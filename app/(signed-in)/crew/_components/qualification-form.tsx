@@ -6,11 +6,13 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
-import { Field, FormMessage } from "@/components/form/field";
-import { Button } from "@/components/ui/button";
+import { Field } from "@/components/form/field";
 import { QUALIFICATION_METHODS, QUALIFICATION_METHOD_LABELS, recordQualificationSchema } from "@/domain/office/schemas";
 import { recordQualificationAction } from "../actions";
-import { ChoiceGroup, SelectField, applyActionResult } from "@/components/form/controls";
+import { ChoiceGroup, applyActionResult } from "@/components/form/controls";
+import { FormFrame, type FormOutcome } from "@/components/form/form-frame";
+import { ProcedureSelect } from "./person-fields";
+import { FieldShell } from "@/components/form/field-shell";
 
 type Input = z.input<typeof recordQualificationSchema>;
 type Output = z.output<typeof recordQualificationSchema>;
@@ -20,7 +22,7 @@ export function QualificationForm({ person, procedures, today }: { person: { id:
   const router = useRouter();
   const [file, setFile] = useState<File | null>(null);
   const [fileKey, setFileKey] = useState(0);
-  const [message, setMessage] = useState<{ text: string; tone: "error" | "success" } | null>(null);
+  const [message, setMessage] = useState<FormOutcome>(null);
   const { register, handleSubmit, formState, setError, reset } = useForm<Input, unknown, Output>({
     resolver: zodResolver(recordQualificationSchema),
     defaultValues: { userId: person.id, qualifiedOn: today },
@@ -42,17 +44,10 @@ export function QualificationForm({ person, procedures, today }: { person: { id:
     } else setMessage({ text: applyActionResult(result, setError, FIELDS) ?? result.message, tone: "error" });
   });
   return (
-    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label={`Record a qualification of ${person.name}`}>
+    <FormFrame label={`Record a qualification of ${person.name}`} onSubmit={onSubmit} message={message} isBusy={formState.isSubmitting} submitLabel="Record qualification" busyLabel="Recording …">
       <input type="hidden" {...register("userId")} />
       <div className="grid gap-4 sm:grid-cols-2">
-        <SelectField id="qualification-procedure" label="Procedure" {...register("procedureId")} error={e.procedureId?.message}>
-          <option value="">Choose a procedure …</option>
-          {procedures.map((p) => (
-            <option key={p.id} value={p.id}>
-              {p.label}
-            </option>
-          ))}
-        </SelectField>
+        <ProcedureSelect id="qualification-procedure" registration={register("procedureId")} error={e.procedureId?.message} procedures={procedures} />
         <Field id="qualification-date" label="Qualification date" type="date" max={today} {...register("qualifiedOn")} error={e.qualifiedOn?.message} />
       </div>
       <ChoiceGroup id="qualification-method" legend="Test of the specimen joint" error={e.method?.message}>
@@ -67,31 +62,9 @@ export function QualificationForm({ person, procedures, today }: { person: { id:
         <Field id="qualification-result" label="Specimen joint's result" hint='For example "3 straps bent, no voids, failure outside the joint"' {...register("specimenResult")} error={e.specimenResult?.message} />
         <Field id="qualification-evaluator" label="Evaluator" hint="The qualified person who examined the specimen" {...register("evaluator")} error={e.evaluator?.message} />
       </div>
-      <div className="flex flex-col gap-1">
-        <label htmlFor="qualification-evidence" className="text-sm font-semibold">
-          Evidence (optional: PDF, JPEG or PNG, at most 10 MB)
-        </label>
-        <input
-          id="qualification-evidence"
-          key={fileKey}
-          onChange={(ev) => setFile(ev.target.files?.[0] ?? null)}
-          type="file"
-          accept="application/pdf,image/jpeg,image/png"
-          aria-describedby={e.evidence ? "qualification-evidence-error" : undefined}
-          className="min-h-touch"
-        />
-        {e.evidence ? (
-          <p id="qualification-evidence-error" className="text-sm font-semibold text-fail">
-            {e.evidence.message}
-          </p>
-        ) : null}
-      </div>
-      <FormMessage message={message?.text} tone={message?.tone} />
-      <div>
-        <Button type="submit" disabled={formState.isSubmitting}>
-          {formState.isSubmitting ? "Recording …" : "Record qualification"}
-        </Button>
-      </div>
-    </form>
+      <FieldShell id="qualification-evidence" label="Evidence (optional: PDF, JPEG or PNG, at most 10 MB)" error={e.evidence?.message}>
+        {(control) => <input {...control} key={fileKey} onChange={(ev) => setFile(ev.target.files?.[0] ?? null)} type="file" accept="application/pdf,image/jpeg,image/png" className="min-h-touch" />}
+      </FieldShell>
+    </FormFrame>
   );
 }

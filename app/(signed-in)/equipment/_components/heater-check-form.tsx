@@ -6,12 +6,12 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm, useWatch } from "react-hook-form";
 import type { z } from "zod";
-import { Field, FormMessage } from "@/components/form/field";
-import { Button } from "@/components/ui/button";
+import { Field } from "@/components/form/field";
 import { MAX_POINTS_PER_FACE, recordHeaterCheckSchema } from "@/domain/office/schemas";
 import { formatRange, unitLabel, type UnitSystem } from "@/domain/units/format";
 import { recordHeaterCheckAction } from "../actions";
 import { SelectField, TextAreaField, applyActionResult, errorText } from "@/components/form/controls";
+import { FormFrame, type FormOutcome } from "@/components/form/form-frame";
 
 type Input = z.input<typeof recordHeaterCheckSchema>;
 type Output = z.output<typeof recordHeaterCheckSchema>;
@@ -28,7 +28,7 @@ export function HeaterCheckForm({
   procedures: { id: number; label: string; minC: number; maxC: number }[];
 }) {
   const router = useRouter();
-  const [message, setMessage] = useState<{ text: string; tone: "error" | "success" } | null>(null);
+  const [message, setMessage] = useState<FormOutcome>(null);
   const { register, handleSubmit, formState, setError, reset, getValues, control } = useForm<Input, unknown, Output>({
     resolver: zodResolver(recordHeaterCheckSchema),
     defaultValues: { units, heaterId: heater.id, procedureId: procedures[0]?.id, faceA: Array(POINTS).fill(""), faceB: Array(POINTS).fill("") },
@@ -69,7 +69,7 @@ export function HeaterCheckForm({
     </fieldset>
   );
   return (
-    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label={`Record a surface-temperature check of ${heater.assetTag}`}>
+    <FormFrame label={`Record a surface-temperature check of ${heater.assetTag}`} onSubmit={onSubmit} message={message} isBusy={formState.isSubmitting} submitLabel="Record heater check" busyLabel="Recording …">
       <input type="hidden" {...register("units")} />
       <input type="hidden" {...register("heaterId")} />
       <div className="grid gap-4 sm:grid-cols-2">
@@ -91,12 +91,6 @@ export function HeaterCheckForm({
       {face("faceA", "A")}
       {face("faceB", "B")}
       <TextAreaField id="check-notes" label="Notes" {...register("notes")} error={e.notes?.message} />
-      <FormMessage message={message?.text} tone={message?.tone} />
-      <div>
-        <Button type="submit" disabled={formState.isSubmitting}>
-          {formState.isSubmitting ? "Recording …" : "Record heater check"}
-        </Button>
-      </div>
-    </form>
+    </FormFrame>
   );
 }

@@ -6,10 +6,11 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
-import { Field, FormMessage } from "@/components/form/field";
-import { Button } from "@/components/ui/button";
+import { Field } from "@/components/form/field";
+import { FormFrame, InServiceCheckbox, type FormOutcome } from "@/components/form/form-frame";
 import { createHeaterSchema } from "@/domain/office/schemas";
 import { createHeaterAction, updateHeaterAction } from "../actions";
+import { AssetFields } from "./asset-fields";
 import { applyActionResult } from "@/components/form/controls";
 
 type Input = z.input<typeof createHeaterSchema>;
@@ -18,7 +19,7 @@ const FIELDS = ["assetTag", "description", "checkIntervalDays", "isActive"] as c
 
 export function HeaterForm({ heater }: { heater?: { id: number; version: number; isActive: boolean; values: Input } }) {
   const router = useRouter();
-  const [message, setMessage] = useState<{ text: string; tone: "error" | "success" } | null>(null);
+  const [message, setMessage] = useState<FormOutcome>(null);
   const [isActive, setIsActive] = useState(heater?.isActive ?? true);
   const { register, handleSubmit, formState, setError, reset } = useForm<Input, unknown, Output>({
     resolver: zodResolver(createHeaterSchema),
@@ -36,24 +37,23 @@ export function HeaterForm({ heater }: { heater?: { id: number; version: number;
     } else setMessage({ text: applyActionResult(result, setError, FIELDS) ?? result.message, tone: "error" });
   });
   return (
-    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label={heater ? "Edit heater plate" : "Add a heater plate"}>
+    <FormFrame
+      label={heater ? "Edit heater plate" : "Add a heater plate"}
+      onSubmit={onSubmit}
+      message={message}
+      isBusy={formState.isSubmitting}
+      submitLabel={heater ? "Save heater plate" : "Add heater plate"}
+      busyLabel="Saving …"
+    >
       <div className="grid gap-4 sm:grid-cols-3">
-        <Field id={`${prefix}-tag`} label="Asset tag" {...register("assetTag")} error={e.assetTag?.message} />
-        <Field id={`${prefix}-description`} label="Description" {...register("description")} error={e.description?.message} />
+        <AssetFields prefix={prefix} tag={register("assetTag")} description={register("description")} errors={{ assetTag: e.assetTag?.message, description: e.description?.message }} />
         <Field id={`${prefix}-interval`} label="Check interval" unit="days" numeric hint="1 = a check every working day, before the first joint" {...register("checkIntervalDays")} error={e.checkIntervalDays?.message} />
       </div>
       {heater ? (
-        <label className="flex min-h-touch items-center gap-2">
-          <input type="checkbox" className="h-5 w-5" checked={isActive} onChange={(ev) => setIsActive(ev.target.checked)} />
+        <InServiceCheckbox checked={isActive} onChange={setIsActive}>
           In service (untick to retire the plate; it stays on record for its joints)
-        </label>
+        </InServiceCheckbox>
       ) : null}
-      <FormMessage message={message?.text} tone={message?.tone} />
-      <div>
-        <Button type="submit" disabled={formState.isSubmitting}>
-          {formState.isSubmitting ? "Saving …" : heater ? "Save heater plate" : "Add heater plate"}
-        </Button>
-      </div>
-    </form>
+    </FormFrame>
   );
 }

@@ -6,11 +6,12 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
-import { Field, FormMessage } from "@/components/form/field";
-import { Button } from "@/components/ui/button";
+import { Field } from "@/components/form/field";
+import { FormFrame, InServiceCheckbox, type FormOutcome } from "@/components/form/form-frame";
 import { createMachineSchema } from "@/domain/office/schemas";
 import { unitLabel, type UnitSystem } from "@/domain/units/format";
 import { createMachineAction, updateMachineAction } from "../actions";
+import { AssetFields } from "./asset-fields";
 import { applyActionResult } from "@/components/form/controls";
 
 type Input = z.input<typeof createMachineSchema>;
@@ -19,7 +20,7 @@ const FIELDS = ["assetTag", "description", "minOd", "maxOd", "pistonArea", "last
 
 export function MachineForm({ units, machine }: { units: UnitSystem; machine?: { id: number; version: number; isActive: boolean; values: Omit<Input, "units"> } }) {
   const router = useRouter();
-  const [message, setMessage] = useState<{ text: string; tone: "error" | "success" } | null>(null);
+  const [message, setMessage] = useState<FormOutcome>(null);
   const [isActive, setIsActive] = useState(machine?.isActive ?? true);
   const { register, handleSubmit, formState, setError, reset, getValues } = useForm<Input, unknown, Output>({
     resolver: zodResolver(createMachineSchema),
@@ -43,11 +44,17 @@ export function MachineForm({ units, machine }: { units: UnitSystem; machine?: {
   });
 
   return (
-    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label={machine ? "Edit machine" : "Add a machine"}>
+    <FormFrame
+      label={machine ? "Edit machine" : "Add a machine"}
+      onSubmit={onSubmit}
+      message={message}
+      isBusy={formState.isSubmitting}
+      submitLabel={machine ? "Save machine" : "Add machine"}
+      busyLabel="Saving …"
+    >
       <input type="hidden" {...register("units")} />
       <div className="grid gap-4 sm:grid-cols-2">
-        <Field id={`${prefix}-tag`} label="Asset tag" {...register("assetTag")} error={e.assetTag?.message} />
-        <Field id={`${prefix}-description`} label="Description" {...register("description")} error={e.description?.message} />
+        <AssetFields prefix={prefix} tag={register("assetTag")} description={register("description")} errors={{ assetTag: e.assetTag?.message, description: e.description?.message }} />
         <Field id={`${prefix}-min-od`} label="Smallest pipe OD" unit={length} numeric {...register("minOd")} error={e.minOd?.message} />
         <Field id={`${prefix}-max-od`} label="Largest pipe OD" unit={length} numeric {...register("maxOd")} error={e.maxOd?.message} />
         <Field
@@ -64,17 +71,10 @@ export function MachineForm({ units, machine }: { units: UnitSystem; machine?: {
         <Field id={`${prefix}-next-service`} label="Next service due" type="date" {...register("nextServiceDue")} error={e.nextServiceDue?.message} />
       </div>
       {machine ? (
-        <label className="flex min-h-touch items-center gap-2">
-          <input type="checkbox" className="h-5 w-5" checked={isActive} onChange={(ev) => setIsActive(ev.target.checked)} />
+        <InServiceCheckbox checked={isActive} onChange={setIsActive}>
           In service (untick to retire the machine; it stays on record for its joints)
-        </label>
+        </InServiceCheckbox>
       ) : null}
-      <FormMessage message={message?.text} tone={message?.tone} />
-      <div>
-        <Button type="submit" disabled={formState.isSubmitting}>
-          {formState.isSubmitting ? "Saving …" : machine ? "Save machine" : "Add machine"}
-        </Button>
-      </div>
-    </form>
+    </FormFrame>
   );
 }

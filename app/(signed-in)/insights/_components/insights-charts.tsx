@@ -2,6 +2,9 @@
 import type { ReactNode } from "react";
 import { Area, Bar, BarChart, CartesianGrid, ComposedChart, Legend, Line, ReferenceLine, ResponsiveContainer, Scatter, ScatterChart, Tooltip, XAxis, YAxis } from "recharts";
 import { formatDuration, toDisplay, unitLabel } from "@/domain/units/format";
+import { DataTable } from "@/components/ui/data-table";
+import { formatInstant } from "@/components/ui/display-format";
+import { SectionCard } from "@/components/ui/section-card";
 
 type Yield = { joints: number; firstPass: number; yieldPct: number };
 type Props = {
@@ -20,10 +23,7 @@ const FAIL = "#b91c1c";
 
 function Panel({ id, title, summary, children, table }: { id: string; title: string; summary: string; children: ReactNode; table: ReactNode }) {
   return (
-    <section aria-labelledby={`${id}-heading`} className="flex flex-col gap-2 rounded-md border-2 border-slate-300 bg-white p-3">
-      <h2 id={`${id}-heading`} className="text-lg font-bold">
-        {title}
-      </h2>
+    <SectionCard id={`${id}-heading`} title={title} tone="card" isCompact className="flex flex-col gap-2">
       <div className="h-72 w-full" role="img" aria-label={`${title}: ${summary}`}>
         {children}
       </div>
@@ -31,32 +31,23 @@ function Panel({ id, title, summary, children, table }: { id: string; title: str
         <summary className="min-h-touch cursor-pointer py-2 font-semibold text-brand">Numbers behind the chart</summary>
         <div className="max-h-64 overflow-auto">{table}</div>
       </details>
-    </section>
+    </SectionCard>
   );
 }
 
 function YieldTable({ rows, first }: { rows: (Yield & { key: string; label: string })[]; first: string }) {
   return (
-    <table className="w-full text-left text-sm">
-      <thead>
-        <tr>
-          <th scope="col">{first}</th>
-          <th scope="col">Joints</th>
-          <th scope="col">First pass</th>
-          <th scope="col">Yield</th>
-        </tr>
-      </thead>
-      <tbody>
-        {rows.map((r) => (
-          <tr key={r.key}>
-            <th scope="row">{r.label}</th>
-            <td>{r.joints}</td>
-            <td>{r.firstPass}</td>
-            <td>{r.yieldPct} %</td>
-          </tr>
-        ))}
-      </tbody>
-    </table>
+    <DataTable
+      isDense
+      rows={rows}
+      rowKey={(r) => r.key}
+      columns={[
+        { header: first, isRowHeader: true, cell: (r) => r.label },
+        { header: "Joints", cell: (r) => r.joints },
+        { header: "First pass", cell: (r) => r.firstPass },
+        { header: "Yield", cell: (r) => `${r.yieldPct} %` },
+      ]}
+    />
   );
 }
 
@@ -66,7 +57,7 @@ export function InsightsCharts({ unitSystem, byWeek, byFuser, byMachine, finding
   const tUnit = unitLabel("temperature", unitSystem);
   const temp = (c: number | null) => (c === null ? null : Math.round(toDisplay(c, "temperature", unitSystem) * 10) / 10);
   const heaterData = heater.map((h) => ({ t: h.t, c: temp(h.c), band: h.min !== null && h.max !== null ? [temp(h.min), temp(h.max)] : null, jointId: h.jointId }));
-  const day = (t: number) => new Date(t).toISOString().slice(0, 10);
+  const day = (t: number) => formatInstant(t, "date");
   const coolingOk = cooling.filter((c) => c.recorded >= c.required);
   const coolingShort = cooling.filter((c) => c.recorded < c.required);
   // Axis end rounded up to a whole minute, so the ticks read as plain seconds.
@@ -113,22 +104,15 @@ export function InsightsCharts({ unitSystem, byWeek, byFuser, byMachine, finding
         title="Findings by parameter"
         summary={findings.map((f) => `${f.label}: ${f.joints}`).join("; ") || "no findings"}
         table={
-          <table className="w-full text-left text-sm">
-            <thead>
-              <tr>
-                <th scope="col">Parameter</th>
-                <th scope="col">Joints with a finding</th>
-              </tr>
-            </thead>
-            <tbody>
-              {findings.map((f) => (
-                <tr key={f.label}>
-                  <th scope="row">{f.label}</th>
-                  <td>{f.joints}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+          <DataTable
+            isDense
+            rows={findings}
+            rowKey={(f) => f.label}
+            columns={[
+              { header: "Parameter", isRowHeader: true, cell: (f) => f.label },
+              { header: "Joints with a finding", cell: (f) => f.joints },
+            ]}
+          />
         }
       >
         {findings.length ? (
@@ -166,26 +150,17 @@ export function InsightsCharts({ unitSystem, byWeek, byFuser, byMachine, finding
         title="Heater temperature of recorded joints"
         summary={`${heater.length} joints; the shaded band is each joint's procedure window; ${heater.filter((h) => (h.min !== null && h.c < h.min) || (h.max !== null && h.c > h.max)).length} outside it`}
         table={
-          <table className="w-full text-left text-sm">
-            <thead>
-              <tr>
-                <th scope="col">Day</th>
-                <th scope="col">Heater</th>
-                <th scope="col">Recorded ({tUnit})</th>
-                <th scope="col">Window ({tUnit})</th>
-              </tr>
-            </thead>
-            <tbody>
-              {heater.map((h) => (
-                <tr key={h.jointId}>
-                  <th scope="row">{day(h.t)}</th>
-                  <td>{h.heaterTag}</td>
-                  <td>{temp(h.c)}</td>
-                  <td>{h.min !== null && h.max !== null ? `${temp(h.min)?.toFixed(0)}–${temp(h.max)?.toFixed(0)}` : "—"}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+          <DataTable
+            isDense
+            rows={heater}
+            rowKey={(h) => h.jointId}
+            columns={[
+              { header: "Day", isRowHeader: true, cell: (h) => day(h.t) },
+              { header: "Heater", cell: (h) => h.heaterTag },
+              { header: `Recorded (${tUnit})`, cell: (h) => temp(h.c) },
+              { header: `Window (${tUnit})`, cell: (h) => (h.min !== null && h.max !== null ? `${temp(h.min)?.toFixed(0)}–${temp(h.max)?.toFixed(0)}` : "—") },
+            ]}
+          />
         }
       >
         {heater.length ? (
@@ -209,24 +184,17 @@ export function InsightsCharts({ unitSystem, byWeek, byFuser, byMachine, finding
         title="Cooling time: recorded against required"
         summary={`${cooling.length} joints; ${coolingShort.length} cooled for less than their plan's minimum (below the diagonal)`}
         table={
-          <table className="w-full text-left text-sm">
-            <thead>
-              <tr>
-                <th scope="col">Joint</th>
-                <th scope="col">Recorded</th>
-                <th scope="col">Required</th>
-              </tr>
-            </thead>
-            <tbody>
-              {cooling.map((c) => (
-                <tr key={c.label} className={c.recorded < c.required ? "text-fail" : ""}>
-                  <th scope="row">{c.label}</th>
-                  <td>{formatDuration(c.recorded)}</td>
-                  <td>at least {formatDuration(c.required)}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+          <DataTable
+            isDense
+            rows={cooling}
+            rowKey={(c) => c.label}
+            rowClassName={(c) => (c.recorded < c.required ? "text-fail" : "")}
+            columns={[
+              { header: "Joint", isRowHeader: true, cell: (c) => c.label },
+              { header: "Recorded", cell: (c) => formatDuration(c.recorded) },
+              { header: "Required", cell: (c) => `at least ${formatDuration(c.required)}` },
+            ]}
+          />
         }
       >
         {cooling.length ? (

@@ -7,6 +7,7 @@ import { listCrews } from "@/database/queries/users";
 import { canRecordOnJob } from "@/domain/office/rules";
 import { JobForm } from "../_components/job-form";
 import { JobStatusButton } from "../_components/job-status-button";
+import { SectionCard } from "@/components/ui/section-card";
 
 export const dynamic = "force-dynamic";
 
@@ -39,10 +40,7 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
         {canRecordOnJob(job) ? "Open: fusers of the crew can record joints on it." : "Closed: this job takes no new joints."} {joints} joint{joints === 1 ? "" : "s"} recorded.
       </p>
       <JobStatusButton job={{ id: job.id, version: job.version, code: job.code, status: job.status }} />
-      <section aria-labelledby="edit-job" className="rounded-md border-2 border-slate-300 bg-white p-4">
-        <h2 id="edit-job" className="mb-2 text-xl font-bold">
-          Edit job
-        </h2>
+      <SectionCard id="edit-job" title="Edit job" tone="card">
         <JobForm
           key={job.version}
           procedures={procedures.map((p) => ({ id: p.procedureId, label: `${p.procedureCode} — ${p.procedureName} (version ${p.versionNo})` }))}
@@ -66,7 +64,7 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
             },
           }}
         />
-      </section>
+      </SectionCard>
     </div>
   );
 }

@@ -6,11 +6,11 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm, useWatch } from "react-hook-form";
 import type { z } from "zod";
-import { Field, FormMessage } from "@/components/form/field";
-import { Button } from "@/components/ui/button";
+import { Field } from "@/components/form/field";
 import { createJobSchema } from "@/domain/office/schemas";
 import { createJobAction, updateJobAction } from "../actions";
 import { ChoiceGroup, SelectField, applyActionResult, errorText } from "@/components/form/controls";
+import { FormFrame, type FormOutcome } from "@/components/form/form-frame";
 
 type Input = z.input<typeof createJobSchema>;
 type Output = z.output<typeof createJobSchema>;
@@ -32,7 +32,7 @@ export function JobForm({
   job?: { id: number; version: number; values: Input };
 }) {
   const router = useRouter();
-  const [message, setMessage] = useState<{ text: string; tone: "error" | "success" } | null>(null);
+  const [message, setMessage] = useState<FormOutcome>(null);
   const { register, handleSubmit, formState, setError, setValue, control, reset } = useForm<Input, unknown, Output>({
     resolver: zodResolver(createJobSchema),
     defaultValues: job?.values ?? { coilIds: [] },
@@ -61,7 +61,7 @@ export function JobForm({
 
   const e = formState.errors;
   return (
-    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label={job ? "Edit job" : "Add a job"}>
+    <FormFrame label={job ? "Edit job" : "Add a job"} onSubmit={onSubmit} message={message} isBusy={formState.isSubmitting} submitLabel={job ? "Save job" : "Add job"} busyLabel="Saving …">
       <div className="grid gap-4 sm:grid-cols-2">
         <Field id={`${prefix}-code`} label="Job code" {...register("code")} error={e.code?.message} />
         <Field id={`${prefix}-name`} label="Job name" {...register("name")} error={e.name?.message} />
@@ -97,12 +97,6 @@ export function JobForm({
           </label>
         ))}
       </ChoiceGroup>
-      <FormMessage message={message?.text} tone={message?.tone} />
-      <div>
-        <Button type="submit" disabled={formState.isSubmitting}>
-          {formState.isSubmitting ? "Saving …" : job ? "Save job" : "Add job"}
-        </Button>
-      </div>
-    </form>
+    </FormFrame>
   );
 }

@@ -7,8 +7,13 @@ import { findJointById, listJointRevisions, listOverrideUsesForJoint, type Joint
 import { JOINT_KIND_LABELS, SHELTER_LABELS, type TimedPhase } from "@/domain/joints/schemas";
 import { RECORDED_VALUE_DEFINITIONS } from "@/domain/joints/values";
 import { formatQuantity, type QuantityKind, type UnitSystem } from "@/domain/units/format";
+import { OutcomeBadge, ReviewStateBadge } from "@/components/ui/badges";
+import { FactLine, FactList } from "@/components/ui/fact-list";
+import { TimeDisplay } from "@/components/ui/time-display";
+import { REVIEW_STATE_LABELS } from "@/domain/review/labels";
 import { verdictOf } from "@/app/_server/joints/record-joint";
 import { PlanPanel } from "@/components/fusion/plan-panel";
+import { SectionCard } from "@/components/ui/section-card";
 
 export const dynamic = "force-dynamic";
 
@@ -19,15 +24,8 @@ export async function generateMetadata({ params }: Params): Promise<Metadata> {
   return { title: `Joint ${id} · Beadline` };
 }
 
-const REVIEW_WORDS = { "pending-review": "Pending review", accepted: "Accepted", "cut-out": "Cut out" } as const;
-
 function Value({ name, children }: { name: string; children: React.ReactNode }) {
-  return (
-    <div className="flex flex-col border-b border-slate-200 py-2 sm:flex-row sm:gap-4">
-      <dt className="font-semibold text-slate-700 sm:w-64">{name}</dt>
-      <dd className="text-ink">{children}</dd>
-    </div>
-  );
+  return <FactLine term={name}>{children}</FactLine>;
 }
 
 function quantity(v: number | null, kind: QuantityKind, system: UnitSystem): string {
@@ -64,11 +62,11 @@ export default async function JointPage({ params }: Params) {
           Joint {joint.jointNo} on {joint.jobCode}
         </h1>
         <p className="text-ink">
-          {joint.jobName} · made {joint.madeAt.toISOString().replace("T", " ").slice(0, 16)} UTC by {joint.fuser.name}
+          {joint.jobName} · made <TimeDisplay at={joint.madeAt} withZone /> by {joint.fuser.name}
         </p>
         <div className="flex flex-wrap gap-2">
-          <span className={`rounded-md border-2 px-3 py-1 font-bold ${within ? "border-pass bg-pass-light text-pass" : "border-fail bg-fail-light text-fail"}`}>{within ? "Within limits" : "Out of limits"}</span>
-          <span className="rounded-md border-2 border-brand bg-brand-light px-3 py-1 font-bold text-brand-dark">{REVIEW_WORDS[joint.reviewState]}</span>
+          <OutcomeBadge outcome={verdict.outcome} size="lg" />
+          <ReviewStateBadge state={joint.reviewState} size="lg" />
         </div>
         {joint.replacesJointId ? (
           <p>
@@ -105,11 +103,8 @@ export default async function JointPage({ params }: Params) {
         )}
       </section>
 
-      <section aria-labelledby="values-heading">
-        <h2 id="values-heading" className="text-xl font-bold">
-          Recorded values
-        </h2>
-        <dl>
+      <SectionCard id="values-heading" title="Recorded values">
+        <FactList layout="ruled">
           <Value name="Kind">{JOINT_KIND_LABELS[joint.kind]}</Value>
           <Value name="Side A">
             {joint.coilA ? (
@@ -164,10 +159,10 @@ export default async function JointPage({ params }: Params) {
             );
           })}
           <Value name="Recorded">
-            {joint.recordedAt.toISOString().replace("T", " ").slice(0, 19)} UTC · submission {joint.clientId}
+            <TimeDisplay at={joint.recordedAt} precision="second" withZone /> · submission {joint.clientId}
           </Value>
-        </dl>
-      </section>
+        </FactList>
+      </SectionCard>
 
       {overrides.length ? (
         <section aria-labelledby="overrides-heading" className="rounded-md border-2 border-caution bg-caution-light p-3">
@@ -177,17 +172,14 @@ export default async function JointPage({ params }: Params) {
           <ul className="list-disc pl-5">
             {overrides.map((o) => (
               <li key={o.id}>
-                {o.message} Cleared by {o.grantedByName} at {o.grantedAt.toISOString().replace("T", " ").slice(0, 16)} UTC: “{o.reason}”
+                {o.message} Cleared by {o.grantedByName} at <TimeDisplay at={o.grantedAt} withZone />: “{o.reason}”
               </li>
             ))}
           </ul>
         </section>
       ) : null}
 
-      <section aria-labelledby="photos-heading">
-        <h2 id="photos-heading" className="text-xl font-bold">
-          Photos of the bead
-        </h2>
+      <SectionCard id="photos-heading" title="Photos of the bead">
         {photos.length === 0 ? <p>No photos.</p> : null}
         <ul className="grid grid-cols-2 gap-2 sm:grid-cols-3">
           {photos.map((p, i) => (
@@ -199,30 +191,24 @@ export default async function JointPage({ params }: Params) {
             </li>
           ))}
         </ul>
-      </section>
+      </SectionCard>
 
-      <section aria-labelledby="plan-heading" className="flex flex-col gap-2">
-        <h2 id="plan-heading" className="text-xl font-bold">
-          The plan it was checked against
-        </h2>
+      <SectionCard id="plan-heading" title="The plan it was checked against" className="flex flex-col gap-2">
         <PlanPanel plan={joint.plan} system={system} procedure={`${joint.procedureCode} v${joint.procedureVersionNo}`} />
-      </section>
+      </SectionCard>
 
-      <section aria-labelledby="revisions-heading">
-        <h2 id="revisions-heading" className="text-xl font-bold">
-          Revisions
-        </h2>
+      <SectionCard id="revisions-heading" title="Revisions">
         <ol className="flex flex-col gap-2">
           {revisions.map((r) => (
             <li key={r.id} className="rounded-md border-2 border-slate-300 bg-white p-3">
               <p className="font-semibold">
-                {r.revisionNo}. {r.kind} by {r.byUserName} at {r.at.toISOString().replace("T", " ").slice(0, 16)} UTC → {REVIEW_WORDS[r.reviewState]}
+                {r.revisionNo}. {r.kind} by {r.byUserName} at <TimeDisplay at={r.at} withZone /> → {REVIEW_STATE_LABELS[r.reviewState]}
               </p>
               {r.reason ? <p>“{r.reason}”</p> : null}
             </li>
           ))}
         </ol>
-      </section>
+      </SectionCard>
     </article>
   );
 }

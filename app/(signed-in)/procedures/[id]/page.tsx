@@ -4,6 +4,9 @@ import { requireUser } from "@/app/_lib/page-guard";
 import { findProcedureById, listProcedureVersions } from "@/database/queries/procedures";
 import { builtInProcedure, describeProcedureWindows } from "@/domain/fusion/procedures";
 import { can } from "@/domain/roles";
+import { DataTable } from "@/components/ui/data-table";
+import { formatInstant } from "@/components/ui/display-format";
+import { SectionCard } from "@/components/ui/section-card";
 import { TightenForm } from "../_components/tighten-form";
 import { VersionNotesForm } from "../_components/version-notes-form";
 import { tighteningFieldViews } from "../_lib/views";
@@ -39,42 +42,38 @@ export default async function ProcedurePage({ params }: { params: Promise<{ id: 
             Version {v.versionNo} {v.isCurrent ? "(current)" : "(superseded)"}
           </h2>
           <p className="text-sm text-slate-700">
-            {v.definition.label}. Published {v.publishedAt.toISOString().slice(0, 10)}
+            {v.definition.label}. Published {formatInstant(v.publishedAt, "date")}
             {v.publishedByName ? ` by ${v.publishedByName}` : ""}
-            {v.supersededAt ? `; superseded ${v.supersededAt.toISOString().slice(0, 10)}` : ""}. Used for {v.jointCount} joint{v.jointCount === 1 ? "" : "s"}.
+            {v.supersededAt ? `; superseded ${formatInstant(v.supersededAt, "date")}` : ""}. Used for {v.jointCount} joint{v.jointCount === 1 ? "" : "s"}.
           </p>
           {v.notes ? <p className="mt-1">Note: {v.notes}</p> : null}
-          <div className="mt-3 overflow-x-auto">
-            <table className="w-full border-collapse text-left text-sm" aria-label={`Windows of version ${v.versionNo}`}>
-              <thead>
-                <tr className="border-b-2 border-slate-400">
-                  <th className="p-2">Parameter</th>
-                  <th className="p-2">Window</th>
-                  <th className="p-2">Source</th>
-                  <th className="p-2">Status</th>
-                </tr>
-              </thead>
-              <tbody>
-                {describeProcedureWindows(v.definition, units).map((row) => (
-                  <tr key={row.parameter} className="border-b border-slate-200 align-top">
-                    <td className="p-2 font-semibold">{row.label}</td>
-                    <td className="p-2">
-                      {row.value}
-                      {row.details.length ? (
-                        <ul className="mt-1 list-disc pl-5 text-slate-700">
-                          {row.details.map((d) => (
-                            <li key={d}>{d}</li>
-                          ))}
-                        </ul>
-                      ) : null}
-                    </td>
-                    <td className="p-2">{row.source}</td>
-                    <td className={`p-2 font-semibold ${STATUS_STYLE[row.status]}`}>{row.statusText}</td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
-          </div>
+          <DataTable
+            className="mt-3"
+            label={`Windows of version ${v.versionNo}`}
+            isDense
+            rows={describeProcedureWindows(v.definition, units)}
+            rowKey={(row) => row.parameter}
+            columns={[
+              { header: "Parameter", className: "font-semibold", cell: (row) => row.label },
+              {
+                header: "Window",
+                cell: (row) => (
+                  <>
+                    {row.value}
+                    {row.details.length ? (
+                      <ul className="mt-1 list-disc pl-5 text-slate-700">
+                        {row.details.map((d) => (
+                          <li key={d}>{d}</li>
+                        ))}
+                      </ul>
+                    ) : null}
+                  </>
+                ),
+              },
+              { header: "Source", cell: (row) => row.source },
+              { header: "Status", cell: (row) => <span className={`font-semibold ${STATUS_STYLE[row.status]}`}>{row.statusText}</span> },
+            ]}
+          />
           {v.definition.notes.length ? (
             <ul className="mt-2 list-disc pl-5 text-sm">
               {v.definition.notes.map((n) => (
@@ -94,16 +93,13 @@ export default async function ProcedurePage({ params }: { params: Promise<{ id: 
         </section>
       ))}
       {isAdmin && current && procedure.isActive ? (
-        <section aria-labelledby="tighten" className="rounded-md border-2 border-slate-300 bg-white p-4">
-          <h2 id="tighten" className="mb-2 text-xl font-bold">
-            Tighten and publish a new version
-          </h2>
+        <SectionCard id="tighten" title="Tighten and publish a new version" tone="card">
           <TightenForm
             procedure={{ id: procedure.id, code: procedure.code, currentVersionId: current.id, currentVersionNo: current.versionNo }}
             units={units}
             fields={tighteningFieldViews(current.definition, units)}
           />
-        </section>
+        </SectionCard>
       ) : null}
     </div>
   );

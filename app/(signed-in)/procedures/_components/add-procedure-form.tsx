@@ -6,11 +6,11 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
-import { Field, FormMessage } from "@/components/form/field";
-import { Button } from "@/components/ui/button";
+import { Field } from "@/components/form/field";
 import { createProcedureSchema } from "@/domain/office/schemas";
 import { createProcedureAction } from "../actions";
 import { SelectField, TextAreaField, applyActionResult } from "@/components/form/controls";
+import { FormFrame, type FormOutcome } from "@/components/form/form-frame";
 
 type Input = z.input<typeof createProcedureSchema>;
 type Output = z.output<typeof createProcedureSchema>;
@@ -18,7 +18,7 @@ const FIELDS = ["code", "name", "standard", "notes"] as const;
 
 export function AddProcedureForm({ standards }: { standards: { id: string; label: string }[] }) {
   const router = useRouter();
-  const [message, setMessage] = useState<{ text: string; tone: "error" | "success" } | null>(null);
+  const [message, setMessage] = useState<FormOutcome>(null);
   const { register, handleSubmit, formState, setError, reset } = useForm<Input, unknown, Output>({ resolver: zodResolver(createProcedureSchema) });
   const e = formState.errors;
   const onSubmit = handleSubmit(async (values) => {
@@ -31,7 +31,7 @@ export function AddProcedureForm({ standards }: { standards: { id: string; label
     } else setMessage({ text: applyActionResult(result, setError, FIELDS) ?? result.message, tone: "error" });
   });
   return (
-    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Add a procedure">
+    <FormFrame label="Add a procedure" onSubmit={onSubmit} message={message} isBusy={formState.isSubmitting} submitLabel="Add procedure" busyLabel="Adding …">
       <div className="grid gap-4 sm:grid-cols-3">
         <Field id="procedure-code" label="Procedure code" {...register("code")} error={e.code?.message} />
         <Field id="procedure-name" label="Procedure name" {...register("name")} error={e.name?.message} />
@@ -45,12 +45,6 @@ export function AddProcedureForm({ standards }: { standards: { id: string; label
         </SelectField>
       </div>
       <TextAreaField id="procedure-notes" label="Notes for version 1" {...register("notes")} error={e.notes?.message} />
-      <FormMessage message={message?.text} tone={message?.tone} />
-      <div>
-        <Button type="submit" disabled={formState.isSubmitting}>
-          {formState.isSubmitting ? "Adding …" : "Add procedure"}
-        </Button>
-      </div>
-    </form>
+    </FormFrame>
   );
 }

@@ -4,6 +4,7 @@
 // then hands the finished file to the browser as a download. A long export can be stopped.
 import { useRef, useState } from "react";
 import { Button } from "@/components/ui/button";
+import { formatCount } from "@/components/ui/display-format";
 
 type State =
   | { kind: "idle" }
@@ -100,8 +101,8 @@ export function ExportPanel({ query }: { query: string }) {
             <progress max={state.estimate ?? undefined} value={progressValue} aria-label="Export progress" className="w-40" />
             <span>
               Exporting {state.format === "xlsx" ? "spreadsheet" : "CSV"}: {megabytes(state.bytes)} received
-              {state.rows !== null ? `, ${state.rows.toLocaleString("en-US")} rows` : ""}
-              {state.estimate !== null ? ` of ${state.isEstimate ? "about " : ""}${state.estimate.toLocaleString("en-US")} joints` : ""} …
+              {state.rows !== null ? `, ${formatCount(state.rows)} rows` : ""}
+              {state.estimate !== null ? ` of ${state.isEstimate ? "about " : ""}${formatCount(state.estimate)} joints` : ""} …
             </span>
           </div>
         ) : state.kind === "done" ? (

@@ -34,6 +34,8 @@ import {
 import type { FieldErrors } from "@/domain/result";
 import type { UnitSystem } from "@/domain/units";
 import { ExportPanel } from "./export-panel";
+import { formatCount } from "@/components/ui/display-format";
+import { controlBorder, FieldShell } from "@/components/form/field-shell";
 
 type Option = { id: number; label: string };
 type Options = { jobs: Option[]; fusers: Option[]; machines: Option[] };
@@ -52,22 +54,6 @@ function toForm(view: RegisterView): FormValues {
 }
 
 const inputClass = "min-h-touch w-full rounded-md border-2 bg-white px-3 py-2 text-base focus:border-brand";
-
-function Labelled({ id, label, error, children }: { id: string; label: string; error?: string; children: React.ReactNode }) {
-  return (
-    <div className="flex flex-col gap-1">
-      <label htmlFor={id} className="text-sm font-semibold text-ink">
-        {label}
-      </label>
-      {children}
-      {error ? (
-        <p id={`${id}-error`} className="text-sm font-semibold text-fail">
-          {error}
-        </p>
-      ) : null}
-    </div>
-  );
-}
 
 function JointLink(p: ICellRendererParams<RegisterRow>) {
   if (!p.data) return null;
@@ -127,35 +113,28 @@ export function RegisterScreen({ view, urlErrors, options, unitSystem }: { view:
 
   const fieldError = (name: keyof FormValues) => formState.errors[name]?.message ?? urlErrors[name]?.[0];
   const hasUrlErrors = Object.keys(urlErrors).length > 0;
-  const describedBy = (name: keyof FormValues) => (fieldError(name) ? `f-${name}-error` : undefined);
   const select = (name: keyof FormValues, label: string, items: { value: string; label: string }[], anyLabel: string) => (
-    <Labelled id={`f-${name}`} label={label} error={fieldError(name)}>
-      <select id={`f-${name}`} {...register(name)} className={`${inputClass} ${fieldError(name) ? "border-fail" : "border-slate-400"}`} aria-invalid={fieldError(name) ? true : undefined} aria-describedby={describedBy(name)}>
-        <option value="">{anyLabel}</option>
-        {items.map((i) => (
-          <option key={i.value} value={i.value}>
-            {i.label}
-          </option>
-        ))}
-      </select>
-    </Labelled>
+    <FieldShell id={`f-${name}`} label={label} error={fieldError(name)}>
+      {(control) => (
+        <select {...control} {...register(name)} className={`${inputClass} ${controlBorder(fieldError(name))}`}>
+          <option value="">{anyLabel}</option>
+          {items.map((i) => (
+            <option key={i.value} value={i.value}>
+              {i.label}
+            </option>
+          ))}
+        </select>
+      )}
+    </FieldShell>
   );
   const text = (name: keyof FormValues, label: string, type: "text" | "date" | "search" = "text", placeholder?: string) => (
-    <Labelled id={`f-${name}`} label={label} error={fieldError(name)}>
-      <input
-        id={`f-${name}`}
-        type={type}
-        placeholder={placeholder}
-        {...register(name)}
-        className={`${inputClass} ${fieldError(name) ? "border-fail" : "border-slate-400"}`}
-        aria-invalid={fieldError(name) ? true : undefined}
-        aria-describedby={describedBy(name)}
-      />
-    </Labelled>
+    <FieldShell id={`f-${name}`} label={label} error={fieldError(name)}>
+      {(control) => <input {...control} type={type} placeholder={placeholder} {...register(name)} className={`${inputClass} ${controlBorder(fieldError(name))}`} />}
+    </FieldShell>
   );
 
   const countText =
-    count === null ? "Counting joints …" : count.isEstimate ? `About ${count.value.toLocaleString("en-US")} joints (an estimate: the exact count is too slow to take at this size)` : `${count.value.toLocaleString("en-US")} ${count.value === 1 ? "joint" : "joints"}`;
+    count === null ? "Counting joints …" : count.isEstimate ? `About ${formatCount(count.value)} joints (an estimate: the exact count is too slow to take at this size)` : `${formatCount(count.value)} ${count.value === 1 ? "joint" : "joints"}`;
 
   return (
     <div className="flex flex-col gap-4">

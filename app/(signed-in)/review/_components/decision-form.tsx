@@ -5,6 +5,7 @@ import { zodResolver } from "@hookform/resolvers/zod";
 import type { z } from "zod";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/form/field";
+import { TextAreaField } from "@/components/form/controls";
 import { decideJointSchema } from "@/domain/review/schemas";
 import { decideJointAction } from "../actions";
 
@@ -74,27 +75,7 @@ export function DecisionForm({
           </p>
         ) : null}
       </fieldset>
-      <div className="flex flex-col gap-1">
-        <label htmlFor={`note-${jointId}`} className="text-sm font-semibold">
-          Note
-        </label>
-        <textarea
-          id={`note-${jointId}`}
-          rows={3}
-          {...register("note")}
-          aria-invalid={errors.note ? true : undefined}
-          aria-describedby={`note-${jointId}-hint${errors.note ? ` note-${jointId}-error` : ""}`}
-          className={`rounded-md border-2 px-3 py-2 ${errors.note ? "border-fail" : "border-slate-400"}`}
-        />
-        <p id={`note-${jointId}-hint`} className="text-sm text-slate-700">
-          {noteHint}
-        </p>
-        {errors.note ? (
-          <p id={`note-${jointId}-error`} className="text-sm font-semibold text-fail">
-            {errors.note.message}
-          </p>
-        ) : null}
-      </div>
+      <TextAreaField id={`note-${jointId}`} label="Note" hint={noteHint} {...register("note")} error={errors.note?.message} />
       <FormMessage message={message} />
       <div>
         <Button type="submit" disabled={isSubmitting} variant={decision === "cut-out" ? "danger" : "primary"}>

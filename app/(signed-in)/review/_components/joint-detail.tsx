@@ -1,9 +1,11 @@
 "use client";
 import type { QueueItemView } from "@/app/_server/review/queue-item-view";
-import { OUTCOME_LABELS } from "@/domain/review/labels";
 import { formatQuantity } from "@/domain/units/format";
+import { OutcomeBadge } from "@/components/ui/badges";
 import { Cautions } from "@/components/ui/caution";
-import { formatInstant } from "./format";
+import { DataTable } from "@/components/ui/data-table";
+import { FactList } from "@/components/ui/fact-list";
+import { TimeDisplay } from "@/components/ui/time-display";
 import { DecisionForm } from "./decision-form";
 import { TraceSection } from "./trace-section";
 
@@ -31,44 +33,20 @@ export function JointDetail({
         <h2 id="joint-heading" className="text-xl font-bold">
           {label}
         </h2>
-        <span className={`rounded px-2 py-1 font-semibold ${isOut ? "bg-fail-light text-fail" : "bg-pass-light text-pass"}`}>{OUTCOME_LABELS[item.outcome]}</span>
+        <OutcomeBadge outcome={item.outcome} />
       </header>
-      <dl className="grid grid-cols-[max-content_1fr] gap-x-4 gap-y-1 text-sm">
-        <dt className="font-semibold">Job</dt>
-        <dd>
-          {item.jobCode} {item.jobName}
-        </dd>
-        <dt className="font-semibold">Made</dt>
-        <dd>
-          {formatInstant(item.madeAt)} by {item.fuserName}
-        </dd>
-        <dt className="font-semibold">Pipe</dt>
-        <dd>
-          OD {formatQuantity(item.outsideDiameterMm, "length-mm", unitSystem)}, SDR {item.sdr} ({item.kind.replace(/-/g, " ")})
-        </dd>
-        <dt className="font-semibold">Equipment</dt>
-        <dd>
-          Machine {item.machineTag}, heater {item.heaterTag}
-        </dd>
-        {item.procedureLabel ? (
-          <>
-            <dt className="font-semibold">Procedure</dt>
-            <dd>{item.procedureLabel}</dd>
-          </>
-        ) : null}
-        {item.station ? (
-          <>
-            <dt className="font-semibold">Station</dt>
-            <dd>{item.station}</dd>
-          </>
-        ) : null}
-        {item.replacesJointId ? (
-          <>
-            <dt className="font-semibold">Remake of</dt>
-            <dd>joint record {item.replacesJointId} (cut out)</dd>
-          </>
-        ) : null}
-      </dl>
+      <FactList
+        className="text-sm"
+        facts={[
+          { term: "Job", description: `${item.jobCode} ${item.jobName}` },
+          { term: "Made", description: <><TimeDisplay at={item.madeAt} withZone /> by {item.fuserName}</> },
+          { term: "Pipe", description: `OD ${formatQuantity(item.outsideDiameterMm, "length-mm", unitSystem)}, SDR ${item.sdr} (${item.kind.replace(/-/g, " ")})` },
+          { term: "Equipment", description: `Machine ${item.machineTag}, heater ${item.heaterTag}` },
+          item.procedureLabel ? { term: "Procedure", description: item.procedureLabel } : null,
+          item.station ? { term: "Station", description: item.station } : null,
+          item.replacesJointId ? { term: "Remake of", description: `joint record ${item.replacesJointId} (cut out)` } : null,
+        ]}
+      />
 
       <section aria-labelledby="findings-heading">
         <h3 id="findings-heading" className="font-bold">
@@ -87,41 +65,24 @@ export function JointDetail({
         )}
       </section>
 
-      <section aria-labelledby="values-heading" className="overflow-x-auto">
+      <section aria-labelledby="values-heading">
         <h3 id="values-heading" className="font-bold">
           Plan and recorded values
         </h3>
         {item.comparison.length ? (
-          <table className="w-full text-left text-sm">
-            <thead>
-              <tr className="border-b-2 border-slate-300">
-                <th scope="col" className="py-1 pr-2">
-                  Value
-                </th>
-                <th scope="col" className="py-1 pr-2">
-                  Plan
-                </th>
-                <th scope="col" className="py-1 pr-2">
-                  Recorded
-                </th>
-                <th scope="col" className="py-1">
-                  Check
-                </th>
-              </tr>
-            </thead>
-            <tbody>
-              {item.comparison.map((row) => (
-                <tr key={row.key} className={`border-b border-slate-200 ${row.status === "finding" || row.status === "not-recorded" ? "bg-fail-light" : ""}`}>
-                  <th scope="row" className="py-1 pr-2 font-semibold">
-                    {row.label}
-                  </th>
-                  <td className="py-1 pr-2">{row.planText}</td>
-                  <td className="py-1 pr-2">{row.recordedText}</td>
-                  <td className={`py-1 font-semibold ${row.status === "ok" ? "text-pass" : row.status === "info" ? "" : "text-fail"}`}>{STATUS_WORDS[row.status]}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+          <DataTable
+            labelledBy="values-heading"
+            isDense
+            rows={item.comparison}
+            rowKey={(row) => row.key}
+            rowClassName={(row) => (row.status === "finding" || row.status === "not-recorded" ? "bg-fail-light" : "")}
+            columns={[
+              { header: "Value", isRowHeader: true, cell: (row) => <span className="font-semibold">{row.label}</span> },
+              { header: "Plan", cell: (row) => row.planText },
+              { header: "Recorded", cell: (row) => row.recordedText },
+              { header: "Check", cell: (row) => <span className={`font-semibold ${row.status === "ok" ? "text-pass" : row.status === "info" ? "" : "text-fail"}`}>{STATUS_WORDS[row.status]}</span> },
+            ]}
+          />
         ) : (
           <p>This joint has no stored plan to compare with.</p>
         )}

@@ -2,8 +2,9 @@
 import { useEffect, useMemo, useState } from "react";
 import useSWR from "swr";
 import type { QueueItemView } from "@/app/_server/review/queue-item-view";
-import { OUTCOME_LABELS } from "@/domain/review/labels";
-import { formatInstant } from "./format";
+import { FieldShell } from "@/components/form/field-shell";
+import { OutcomeBadge } from "@/components/ui/badges";
+import { TimeDisplay } from "@/components/ui/time-display";
 import { JointDetail } from "./joint-detail";
 
 type Queue = { total: number; outOfLimits: number; items: QueueItemView[] };
@@ -66,24 +67,18 @@ export function ReviewQueue({
   const current = items.find((i) => i.jointId === selected) ?? null;
 
   const select = (name: keyof Filter, label: string, list: Option[]) => (
-    <div className="flex flex-col gap-1">
-      <label htmlFor={`filter-${name}`} className="text-sm font-semibold">
-        {label}
-      </label>
-      <select
-        id={`filter-${name}`}
-        value={filter[name]}
-        onChange={(e) => setFilter((f) => ({ ...f, [name]: e.target.value }))}
-        className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-2"
-      >
-        <option value="">Any</option>
-        {list.map((o) => (
-          <option key={o.id} value={String(o.id)}>
-            {o.label}
-          </option>
-        ))}
-      </select>
-    </div>
+    <FieldShell id={`filter-${name}`} label={label}>
+      {(control) => (
+        <select {...control} value={filter[name]} onChange={(e) => setFilter((f) => ({ ...f, [name]: e.target.value }))} className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-2">
+          <option value="">Any</option>
+          {list.map((o) => (
+            <option key={o.id} value={String(o.id)}>
+              {o.label}
+            </option>
+          ))}
+        </select>
+      )}
+    </FieldShell>
   );
 
   return (
@@ -123,16 +118,15 @@ export function ReviewQueue({
         <ul aria-label="Joints waiting for review" className="flex flex-col gap-2">
           {items.map((item) => {
             const label = `${item.jobCode} joint ${item.jointNo}`;
-            const isOut = item.outcome === "out-of-limits";
             return (
               <li key={item.jointId}>
                 <article aria-label={label} className={`rounded-md border-2 p-3 ${item.jointId === selected ? "border-brand bg-brand-light" : "border-slate-300 bg-white"}`}>
                   <div className="flex flex-wrap items-baseline justify-between gap-2">
                     <h3 className="font-bold">{label}</h3>
-                    <span className={`rounded px-2 py-0.5 text-sm font-semibold ${isOut ? "bg-fail-light text-fail" : "bg-pass-light text-pass"}`}>{OUTCOME_LABELS[item.outcome]}</span>
+                    <OutcomeBadge outcome={item.outcome} />
                   </div>
                   <p className="text-sm text-slate-700">
-                    {formatInstant(item.madeAt)} · {item.fuserName} · {item.machineTag}
+                    <TimeDisplay at={item.madeAt} withZone /> · {item.fuserName} · {item.machineTag}
                     {item.station ? ` · station ${item.station}` : ""}
                     {item.trace ? " · pressure trace attached" : ""}
                     {item.photos.length ? ` · ${item.photos.length} ${item.photos.length === 1 ? "photo" : "photos"}` : ""}

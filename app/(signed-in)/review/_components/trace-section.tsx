@@ -3,9 +3,11 @@ import { useRef, useState } from "react";
 import type { QueueItemView } from "@/app/_server/review/queue-item-view";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/form/field";
-import { OUTCOME_LABELS } from "@/domain/review/labels";
+import { FieldShell } from "@/components/form/field-shell";
+import { OutcomeBadge } from "@/components/ui/badges";
+import { DataTable } from "@/components/ui/data-table";
+import { TimeDisplay } from "@/components/ui/time-display";
 import { formatQuantity } from "@/domain/units/format";
-import { formatInstant } from "./format";
 import { TraceChart } from "./trace-chart";
 
 /** The joint's pressure trace (chart, values read, their check) and the form to attach one. */
@@ -56,31 +58,21 @@ export function TraceSection({ item, unitSystem, onAttached }: { item: QueueItem
       {trace ? (
         <>
           <p className="text-sm">
-            {trace.sampleCount} samples, attached {formatInstant(trace.uploadedAt)} by {trace.uploadedByName} (<a className="text-brand underline" href={trace.url}>download the file</a>). Check of the trace:{" "}
-            <strong className={trace.outcome === "out-of-limits" ? "text-fail" : "text-pass"}>{OUTCOME_LABELS[trace.outcome]}</strong>.
+            {trace.sampleCount} samples, attached <TimeDisplay at={trace.uploadedAt} withZone /> by {trace.uploadedByName} (<a className="text-brand underline" href={trace.url}>download the file</a>). Check of the trace:{" "}
+            <OutcomeBadge outcome={trace.outcome} />.
           </p>
           <TraceChart jointId={item.jointId} traceId={trace.id} unitSystem={unitSystem} label={label} />
-          <table className="w-full text-left text-sm">
-            <caption className="text-left font-semibold">Typed values and what the trace shows</caption>
-            <thead>
-              <tr className="border-b-2 border-slate-300">
-                <th scope="col">Value</th>
-                <th scope="col">Typed</th>
-                <th scope="col">From the trace</th>
-              </tr>
-            </thead>
-            <tbody>
-              {trace.rows.map((row) => (
-                <tr key={row.key} className="border-b border-slate-200">
-                  <th scope="row" className="font-semibold">
-                    {row.label}
-                  </th>
-                  <td>{row.typed === null ? "not typed" : formatQuantity(row.typed, row.kind, unitSystem)}</td>
-                  <td>{row.trace === null ? "—" : formatQuantity(row.trace, row.kind, unitSystem)}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
+          <DataTable
+            caption={<span className="font-semibold">Typed values and what the trace shows</span>}
+            isDense
+            rows={trace.rows}
+            rowKey={(row) => row.key}
+            columns={[
+              { header: "Value", isRowHeader: true, cell: (row) => <span className="font-semibold">{row.label}</span> },
+              { header: "Typed", cell: (row) => (row.typed === null ? "not typed" : formatQuantity(row.typed, row.kind, unitSystem)) },
+              { header: "From the trace", cell: (row) => (row.trace === null ? "—" : formatQuantity(row.trace, row.kind, unitSystem)) },
+            ]}
+          />
           {trace.findings.length ? (
             <ul className="list-disc pl-5 text-sm text-fail" aria-label="Findings from the trace">
               {trace.findings.map((f, i) => (
@@ -93,20 +85,17 @@ export function TraceSection({ item, unitSystem, onAttached }: { item: QueueItem
         <p className="text-sm text-slate-700">No pressure trace is attached.</p>
       )}
       <form onSubmit={upload} className="flex flex-col gap-2" aria-label={`Attach a pressure trace to ${label}`}>
-        <label htmlFor={`trace-file-${item.jointId}`} className="text-sm font-semibold">
-          Pressure trace file (CSV)
-        </label>
-        <input
-          ref={input}
+        <FieldShell
           id={`trace-file-${item.jointId}`}
-          type="file"
-          accept=".csv,text/csv,text/plain"
-          aria-describedby={`trace-file-${item.jointId}-hint`}
-          className="min-h-touch rounded-md border-2 border-slate-400 bg-white p-2"
-        />
-        <p id={`trace-file-${item.jointId}-hint`} className="text-sm text-slate-700">
-          Columns: <code>seconds,gauge_pressure_mpa</code> (or <code>gauge_pressure_psi</code>), optionally <code>,heater_temperature_c</code>; one sample per line.
-        </p>
+          label="Pressure trace file (CSV)"
+          hint={
+            <>
+              Columns: <code>seconds,gauge_pressure_mpa</code> (or <code>gauge_pressure_psi</code>), optionally <code>,heater_temperature_c</code>; one sample per line.
+            </>
+          }
+        >
+          {(control) => <input ref={input} {...control} type="file" accept=".csv,text/csv,text/plain" className="min-h-touch rounded-md border-2 border-slate-400 bg-white p-2" />}
+        </FieldShell>
         <FormMessage message={message?.text} tone={message?.tone} />
         {lines.length ? (
           <ul className="list-disc pl-5 text-sm font-semibold text-fail" aria-label="Problems in the file">

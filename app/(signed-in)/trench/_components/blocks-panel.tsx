@@ -4,6 +4,7 @@
 import { Button } from "@/components/ui/button";
 import type { BlockReason, OverrideGrant } from "@/domain/joints/rules";
 import type { TrenchOverride } from "@/app/_server/trench/setup-types";
+import { formatDeviceInstant } from "@/components/ui/display-format";
 
 export function BlocksPanel({ open, covered, overrides, onCheckAgain, checking }: { open: BlockReason[]; covered: { reason: BlockReason; grant: OverrideGrant }[]; overrides: TrenchOverride[]; onCheckAgain: () => void; checking: boolean }) {
   if (!open.length && !covered.length) return null;
@@ -43,7 +44,7 @@ export function BlocksPanel({ open, covered, overrides, onCheckAgain, checking }
               const o = overrides.find((x) => x.id === grant.id);
               return (
                 <li key={grant.id + reason.kind}>
-                  {reason.message} Cleared by {o?.grantedByName ?? "an inspector"} until {new Date(grant.expiresAt).toLocaleString()}: “{o?.reason}”.
+                  {reason.message} Cleared by {o?.grantedByName ?? "an inspector"} until {formatDeviceInstant(grant.expiresAt)}: “{o?.reason}”.
                 </li>
               );
             })}

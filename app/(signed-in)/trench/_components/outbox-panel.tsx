@@ -3,6 +3,7 @@
 import Link from "next/link";
 import { Button } from "@/components/ui/button";
 import type { OutboxEntry } from "../_client/device-store";
+import { formatDeviceInstant } from "@/components/ui/display-format";
 
 const STATE_WORDS: Record<OutboxEntry["state"], string> = {
   waiting: "Waiting to send",
@@ -42,7 +43,7 @@ export function OutboxPanel({ entries, online, onRetry, onRemove, onSendNow }: {
               {STATE_WORDS[e.state]}
               {e.result ? `: joint ${e.result.jointNo} on ${e.result.jobCode}` : ` · ${e.jobCode ?? ""}`} · {e.label}
             </p>
-            <p className="text-sm">Recorded {new Date(e.createdAt).toLocaleString()}</p>
+            <p className="text-sm">Recorded {formatDeviceInstant(e.createdAt)}</p>
             {e.result ? (
               <p className="text-sm font-semibold">
                 {e.result.outcome === "within-limits" ? "Within limits" : `Out of limits: ${e.result.findings.map((f) => f.message).join("; ")}`} ·{" "}

@@ -5,6 +5,8 @@ import { listJobs } from "@/database/queries/jobs";
 import { listOverridesForJobs } from "@/database/queries/joints";
 import { listCoils } from "@/database/queries/coils";
 import { GrantOverrideForm } from "./_components/grant-override-form";
+import { SectionCard } from "@/components/ui/section-card";
+import { TimeDisplay } from "@/components/ui/time-display";
 
 export const metadata: Metadata = { title: "Overrides · Trench · Beadline" };
 export const dynamic = "force-dynamic";
@@ -29,10 +31,7 @@ export default async function OverridesPage() {
         heaters={blockedHeaters.map((h) => ({ id: h.id, label: `${h.assetTag}: ${h.problems.join(" ")}` }))}
         coils={[...quarantined, ...usedUp].map((c) => ({ id: c.id, label: `${c.coilCode}: ${c.status}${c.statusReason ? ` (${c.statusReason})` : ""}` }))}
       />
-      <section aria-labelledby="active-heading" className="flex flex-col gap-2">
-        <h2 id="active-heading" className="text-xl font-bold">
-          Overrides in force
-        </h2>
+      <SectionCard id="active-heading" title="Overrides in force" className="flex flex-col gap-2">
         {active.length === 0 ? <p>None.</p> : null}
         <ul className="flex flex-col gap-2">
           {active.map((o) => (
@@ -41,12 +40,12 @@ export default async function OverridesPage() {
                 {o.jobCode}: {o.subjectType === "heater" ? "heater plate" : "coil"} {o.subjectLabel}
               </p>
               <p className="text-sm">
-                By {o.grantedByName} at {o.grantedAt.toISOString().replace("T", " ").slice(0, 16)} UTC, until {o.expiresAt.toISOString().replace("T", " ").slice(0, 16)} UTC: “{o.reason}”
+                By {o.grantedByName} at <TimeDisplay at={o.grantedAt} withZone />, until <TimeDisplay at={o.expiresAt} withZone />: “{o.reason}”
               </p>
             </li>
           ))}
         </ul>
-      </section>
+      </SectionCard>
     </div>
   );
 }

@@ -5,6 +5,9 @@ import { requireUser } from "@/app/_lib/page-guard";
 import { findHeaterWithLastCheck, listHeaterChecks } from "@/database/queries/equipment";
 import { listCurrentProcedureVersions } from "@/database/queries/procedures";
 import { formatQuantity, formatRange } from "@/domain/units/format";
+import { DataTable } from "@/components/ui/data-table";
+import { SectionCard } from "@/components/ui/section-card";
+import { TimeDisplay } from "@/components/ui/time-display";
 import { HeaterCheckForm } from "../../_components/heater-check-form";
 import { HeaterForm } from "../../_components/heater-form";
 
@@ -32,10 +35,7 @@ export default async function HeaterPage({ params }: { params: Promise<{ id: str
       </p>
       <Cautions kinds={["heater"]} />
       {heater.isActive ? (
-        <section aria-labelledby="record-check" className="rounded-md border-2 border-slate-300 bg-white p-4">
-          <h2 id="record-check" className="mb-2 text-xl font-bold">
-            Record a surface-temperature check
-          </h2>
+        <SectionCard id="record-check" title="Record a surface-temperature check" tone="card">
           <p className="mb-3 text-sm">Check the heater faces with a pyrometer or other surface thermometer before the first joint of the day and periodically; the built-in dial is only a general indicator.</p>
           <HeaterCheckForm
             heater={{ id: heater.id, assetTag: heater.assetTag }}
@@ -47,53 +47,33 @@ export default async function HeaterPage({ params }: { params: Promise<{ id: str
               maxC: p.definition.windows.heaterTemperatureC.max,
             }))}
           />
-        </section>
+        </SectionCard>
       ) : null}
-      <section aria-labelledby="check-log">
-        <h2 id="check-log" className="mb-2 text-xl font-bold">
-          Check log
-        </h2>
-        <div className="overflow-x-auto">
-          <table className="w-full border-collapse text-left text-sm">
-            <thead>
-              <tr className="border-b-2 border-slate-400">
-                <th className="p-2">When (UTC)</th>
-                <th className="p-2">Who</th>
-                <th className="p-2">Instrument</th>
-                <th className="p-2">Face A</th>
-                <th className="p-2">Face B</th>
-                <th className="p-2">Window</th>
-                <th className="p-2">Result</th>
-                <th className="p-2">Next due</th>
-              </tr>
-            </thead>
-            <tbody>
-              {checks.map((c) => (
-                <tr key={c.id} className="border-b border-slate-200">
-                  <td className="p-2">{c.checkedAt.toISOString().slice(0, 16).replace("T", " ")}</td>
-                  <td className="p-2">{c.checkedByName ?? "—"}</td>
-                  <td className="p-2">{c.instrument}</td>
-                  <td className="p-2">{c.readings.faceA.map(t).join(", ")}</td>
-                  <td className="p-2">{c.readings.faceB.map(t).join(", ")}</td>
-                  <td className="p-2">{formatRange(c.windowMinC, c.windowMaxC, "temperature", units)}</td>
-                  <td className="p-2">{c.passed ? <span className="font-semibold text-pass">Passed</span> : <span className="font-semibold text-fail">Failed</span>}</td>
-                  <td className="p-2">{c.nextDueOn}</td>
-                </tr>
-              ))}
-            </tbody>
-          </table>
-          {checks.length === 0 ? <p className="p-2">No checks recorded yet.</p> : null}
-        </div>
-      </section>
-      <section aria-labelledby="edit-heater" className="rounded-md border-2 border-slate-300 bg-white p-4">
-        <h2 id="edit-heater" className="mb-2 text-xl font-bold">
-          Edit heater plate
-        </h2>
+      <SectionCard id="check-log" title="Check log">
+        <DataTable
+          labelledBy="check-log"
+          isDense
+          rows={checks}
+          rowKey={(c) => c.id}
+          empty="No checks recorded yet."
+          columns={[
+            { header: "When (UTC)", cell: (c) => <TimeDisplay at={c.checkedAt} /> },
+            { header: "Who", cell: (c) => c.checkedByName ?? "—" },
+            { header: "Instrument", cell: (c) => c.instrument },
+            { header: "Face A", cell: (c) => c.readings.faceA.map(t).join(", ") },
+            { header: "Face B", cell: (c) => c.readings.faceB.map(t).join(", ") },
+            { header: "Window", cell: (c) => formatRange(c.windowMinC, c.windowMaxC, "temperature", units) },
+            { header: "Result", cell: (c) => (c.passed ? <span className="font-semibold text-pass">Passed</span> : <span className="font-semibold text-fail">Failed</span>) },
+            { header: "Next due", cell: (c) => c.nextDueOn },
+          ]}
+        />
+      </SectionCard>
+      <SectionCard id="edit-heater" title="Edit heater plate" tone="card">
         <HeaterForm
           key={heater.version}
           heater={{ id: heater.id, version: heater.version, isActive: heater.isActive, values: { assetTag: heater.assetTag, description: heater.description ?? "", checkIntervalDays: String(heater.checkIntervalDays) } }}
         />
-      </section>
+      </SectionCard>
     </div>
   );
 }

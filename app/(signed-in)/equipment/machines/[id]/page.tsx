@@ -4,6 +4,7 @@ import { requireUser } from "@/app/_lib/page-guard";
 import { findMachineById } from "@/database/queries/equipment";
 import { MachineForm } from "../../_components/machine-form";
 import { editValue, pistonArea } from "../../_components/format";
+import { SectionCard } from "@/components/ui/section-card";
 
 export const dynamic = "force-dynamic";
 
@@ -26,10 +27,7 @@ export default async function MachinePage({ params }: { params: Promise<{ id: st
         Total effective piston area: <strong>{pistonArea(machine.pistonAreaMm2, units)}</strong>.{" "}
         {machine.isUsable ? "The machine can be used for joints." : machine.problems.join(" ")}
       </p>
-      <section aria-labelledby="edit-machine" className="rounded-md border-2 border-slate-300 bg-white p-4">
-        <h2 id="edit-machine" className="mb-2 text-xl font-bold">
-          Edit machine
-        </h2>
+      <SectionCard id="edit-machine" title="Edit machine" tone="card">
         <MachineForm
           key={`${machine.version}-${units}`}
           units={units}
@@ -48,7 +46,7 @@ export default async function MachinePage({ params }: { params: Promise<{ id: st
             },
           }}
         />
-      </section>
+      </SectionCard>
     </div>
   );
 }

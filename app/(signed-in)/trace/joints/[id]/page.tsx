@@ -5,56 +5,50 @@ import type { Coil } from "@/database/queries/coils";
 import { DAMAGE_LABELS } from "@/domain/coil-life/rules";
 import { describeSize } from "@/domain/labels/label";
 import { formatQuantity } from "@/domain/units/format";
-import { CoilStatusBadge } from "@/components/coils/coil-status-badge";
+import { CoilStatusBadge } from "@/components/ui/badges";
+import { FactBlock, FactList } from "@/components/ui/fact-list";
+import { formatInstant } from "@/components/ui/display-format";
+import { TimeDisplay } from "@/components/ui/time-display";
 import { traceJointOrigins } from "@/app/_server/trace/origins";
+import { SectionCard } from "@/components/ui/section-card";
 
 export const dynamic = "force-dynamic";
 
-function Fact({ label, children }: { label: string; children: React.ReactNode }) {
-  return (
-    <div className="flex flex-col">
-      <dt className="text-sm text-slate-700">{label}</dt>
-      <dd className="font-semibold">{children}</dd>
-    </div>
-  );
-}
-
 function Component({ title, coil, text, lengthM, system }: { title: string; coil: Coil | null; text?: string | null; lengthM: number | null; system: "si" | "us" }) {
   return (
-    <section aria-label={title} className="rounded-md border-2 border-slate-300 bg-white p-4">
-      <h3 className="mb-2 text-lg font-bold">{title}</h3>
+    <SectionCard id={title.toLowerCase().replace(/\W+/g, "-")} title={title} tone="card" level={3}>
       {coil ? (
-        <dl className="grid gap-2 sm:grid-cols-2">
-          <Fact label="Coil">
+        <FactList layout="stacked" columns={2}>
+          <FactBlock term="Coil">
             <Link href={`/coils/${encodeURIComponent(coil.coilCode)}`} className="text-brand underline">
               {coil.coilCode}
             </Link>{" "}
             <CoilStatusBadge status={coil.status} />
-          </Fact>
-          <Fact label="Pipe maker and lot">
+          </FactBlock>
+          <FactBlock term="Pipe maker and lot">
             <Link href={`/trace?manufacturer=${encodeURIComponent(coil.manufacturer)}&lot=${encodeURIComponent(coil.lot)}`} className="text-brand underline">
               {coil.manufacturer} lot {coil.lot}
             </Link>
-          </Fact>
-          <Fact label="Size and material">
+          </FactBlock>
+          <FactBlock term="Size and material">
             {describeSize(coil)} {coil.material}
-          </Fact>
-          <Fact label="Traceability code">{coil.traceCode ?? "none"}</Fact>
-          <Fact label="Production date">{coil.productionDate ?? "not recorded"}</Fact>
-          <Fact label="Laid from it with this joint">{lengthM != null ? formatQuantity(lengthM, "length-m", system) : "not recorded"}</Fact>
-          <Fact label="Receipt inspection">
-            {coil.inspection.passed ? "Passed" : "Failed"} on {coil.inspection.receivedAt.toISOString().slice(0, 10)}
+          </FactBlock>
+          <FactBlock term="Traceability code">{coil.traceCode ?? "none"}</FactBlock>
+          <FactBlock term="Production date">{coil.productionDate ?? "not recorded"}</FactBlock>
+          <FactBlock term="Laid from it with this joint">{lengthM != null ? formatQuantity(lengthM, "length-m", system) : "not recorded"}</FactBlock>
+          <FactBlock term="Receipt inspection">
+            {coil.inspection.passed ? "Passed" : "Failed"} on <TimeDisplay at={coil.inspection.receivedAt} precision="date" />
             {coil.inspection.receivedByName ? ` by ${coil.inspection.receivedByName}` : ""}
-          </Fact>
-          <Fact label="Damage, ovality, end caps">
+          </FactBlock>
+          <FactBlock term="Damage, ovality, end caps">
             {coil.inspection.damageKinds.length ? coil.inspection.damageKinds.map((k) => DAMAGE_LABELS[k]).join(", ") : "no damage"}; ovality {coil.inspection.ovalityPct != null ? `${coil.inspection.ovalityPct} %` : "not measured"}; end caps{" "}
             {coil.inspection.endCapsInPlace ? "in place" : "missing"}
-          </Fact>
-        </dl>
+          </FactBlock>
+        </FactList>
       ) : (
         <p>{text ? `Not a coil: ${text}` : "Not recorded"}</p>
       )}
-    </section>
+    </SectionCard>
   );
 }
 
@@ -79,99 +73,86 @@ export default async function JointOriginsPage({ params }: { params: Promise<{ i
       <h1 className="text-2xl font-bold">
         {o.joint.jobCode} joint {o.joint.jointNo}: origins
       </h1>
-      <section aria-labelledby="joint" className="rounded-md border-2 border-slate-300 bg-white p-4">
-        <h2 id="joint" className="mb-2 text-lg font-bold">
-          Joint
-        </h2>
-        <dl className="grid gap-2 sm:grid-cols-3">
-          <Fact label="Job">
+      <SectionCard id="joint" title="Joint" tone="card" isCompact>
+        <FactList layout="stacked" columns={3}>
+          <FactBlock term="Job">
             {o.joint.jobCode} — {o.joint.jobName}
-          </Fact>
-          <Fact label="Made">{o.joint.madeAt.toISOString().slice(0, 16).replace("T", " ")} UTC</Fact>
-          <Fact label="Place">
+          </FactBlock>
+          <FactBlock term="Made">
+            <TimeDisplay at={o.joint.madeAt} withZone />
+          </FactBlock>
+          <FactBlock term="Place">
             {o.joint.station ? `Station ${o.joint.station}` : "no station"}
             {o.joint.latitude != null && o.joint.longitude != null ? ` · ${o.joint.latitude.toFixed(5)}, ${o.joint.longitude.toFixed(5)}` : ""}
-          </Fact>
-          <Fact label="Kind">{o.joint.kind}</Fact>
-          <Fact label="Pipe">
+          </FactBlock>
+          <FactBlock term="Kind">{o.joint.kind}</FactBlock>
+          <FactBlock term="Pipe">
             {formatQuantity(o.joint.outsideDiameterMm, "length-mm", system)} OD, SDR {o.joint.sdr}
-          </Fact>
-          <Fact label="Outcome">
+          </FactBlock>
+          <FactBlock term="Outcome">
             {o.joint.outcome === "within-limits" ? "Within limits" : "Out of limits"}
             {o.joint.reviewState ? ` · ${o.joint.reviewState.replace("-", " ")}` : ""}
-          </Fact>
-        </dl>
+          </FactBlock>
+        </FactList>
         <p className="mt-2">
           <Link href={`/labels?kind=joint&ids=${o.joint.id}`} className="font-semibold text-brand underline">
             Print joint tag
           </Link>
         </p>
-      </section>
+      </SectionCard>
       <h2 className="text-xl font-bold">Components</h2>
       <div className="grid gap-4 lg:grid-cols-2">
         <Component title="Component A" coil={o.coilA} lengthM={o.joint.lengthAM} system={system} />
         <Component title="Component B" coil={o.coilB} text={o.joint.componentBText} lengthM={o.joint.lengthBM} system={system} />
       </div>
       <div className="grid gap-4 lg:grid-cols-2">
-        <section aria-labelledby="machine" className="rounded-md border-2 border-slate-300 bg-white p-4">
-          <h2 id="machine" className="mb-2 text-lg font-bold">
-            Fusion machine
-          </h2>
-          <dl className="grid gap-2">
-            <Fact label="Machine">
+        <SectionCard id="machine" title="Fusion machine" tone="card" isCompact>
+          <FactList layout="stacked">
+            <FactBlock term="Machine">
               {o.machine.assetTag}
               {o.machine.description ? ` — ${o.machine.description}` : ""}
-            </Fact>
-            <Fact label="Total effective piston area">{o.machine.pistonAreaMm2 != null ? formatQuantity(o.machine.pistonAreaMm2, "area", system) : "not on file"}</Fact>
-            <Fact label="Service">
+            </FactBlock>
+            <FactBlock term="Total effective piston area">{o.machine.pistonAreaMm2 != null ? formatQuantity(o.machine.pistonAreaMm2, "area", system) : "not on file"}</FactBlock>
+            <FactBlock term="Service">
               last {o.machine.lastServiceOn ?? "not recorded"}, next due {o.machine.nextServiceDue ?? "not recorded"}
-            </Fact>
-          </dl>
-        </section>
-        <section aria-labelledby="heater" className="rounded-md border-2 border-slate-300 bg-white p-4">
-          <h2 id="heater" className="mb-2 text-lg font-bold">
-            Heater plate
-          </h2>
-          <dl className="grid gap-2">
-            <Fact label="Plate">
+            </FactBlock>
+          </FactList>
+        </SectionCard>
+        <SectionCard id="heater" title="Heater plate" tone="card" isCompact>
+          <FactList layout="stacked">
+            <FactBlock term="Plate">
               {o.heater.assetTag}
               {o.heater.description ? ` — ${o.heater.description}` : ""}
-            </Fact>
-            <Fact label="Last temperature check before the joint">
+            </FactBlock>
+            <FactBlock term="Last temperature check before the joint">
               {check
-                ? `${check.checkedAt.toISOString().slice(0, 16).replace("T", " ")} UTC, ${check.passed ? "passed" : "failed"} (${formatQuantity(check.windowMinC, "temperature", system)}–${formatQuantity(check.windowMaxC, "temperature", system)}, ${check.instrument}${check.checkedByName ? `, by ${check.checkedByName}` : ""}); next due ${check.nextDueOn}`
+                ? `${formatInstant(check.checkedAt, "minute", true)}, ${check.passed ? "passed" : "failed"} (${formatQuantity(check.windowMinC, "temperature", system)}–${formatQuantity(check.windowMaxC, "temperature", system)}, ${check.instrument}${check.checkedByName ? `, by ${check.checkedByName}` : ""}); next due ${check.nextDueOn}`
                 : "No check on file before the joint"}
-            </Fact>
-            <Fact label="Check in date when the joint was made">{o.heaterCheckInDate == null ? "no check" : o.heaterCheckInDate ? "yes" : "no — the check was overdue or failed"}</Fact>
-          </dl>
-        </section>
-        <section aria-labelledby="fuser" className="rounded-md border-2 border-slate-300 bg-white p-4">
-          <h2 id="fuser" className="mb-2 text-lg font-bold">
-            Fuser
-          </h2>
-          <dl className="grid gap-2">
-            <Fact label="Name">{o.fuser.name}</Fact>
-            <Fact label={`Qualification on ${o.madeOn}`}>
+            </FactBlock>
+            <FactBlock term="Check in date when the joint was made">{o.heaterCheckInDate == null ? "no check" : o.heaterCheckInDate ? "yes" : "no — the check was overdue or failed"}</FactBlock>
+          </FactList>
+        </SectionCard>
+        <SectionCard id="fuser" title="Fuser" tone="card" isCompact>
+          <FactList layout="stacked">
+            <FactBlock term="Name">{o.fuser.name}</FactBlock>
+            <FactBlock term={`Qualification on ${o.madeOn}`}>
               <span className={q.qualified ? "text-pass" : "text-fail"}>{q.qualified ? "Qualified" : "Not qualified"}</span> — {q.reason}
-            </Fact>
-            <Fact label="Qualified on">{o.fuser.qualifiedOn.length ? o.fuser.qualifiedOn.join(", ") : "never"}</Fact>
-          </dl>
-        </section>
-        <section aria-labelledby="procedure" className="rounded-md border-2 border-slate-300 bg-white p-4">
-          <h2 id="procedure" className="mb-2 text-lg font-bold">
-            Procedure
-          </h2>
-          <dl className="grid gap-2">
-            <Fact label="Procedure">
+            </FactBlock>
+            <FactBlock term="Qualified on">{o.fuser.qualifiedOn.length ? o.fuser.qualifiedOn.join(", ") : "never"}</FactBlock>
+          </FactList>
+        </SectionCard>
+        <SectionCard id="procedure" title="Procedure" tone="card" isCompact>
+          <FactList layout="stacked">
+            <FactBlock term="Procedure">
               {o.procedure.code} — {o.procedure.name}
-            </Fact>
-            <Fact label="Version">
-              {o.procedure.versionNo}, published {o.procedure.publishedAt.toISOString().slice(0, 10)}
-              {o.procedure.supersededAt ? `, superseded ${o.procedure.supersededAt.toISOString().slice(0, 10)}` : ""}
-            </Fact>
-            <Fact label="Based on">{o.procedure.standard}</Fact>
-          </dl>
-        </section>
+            </FactBlock>
+            <FactBlock term="Version">
+              {o.procedure.versionNo}, published <TimeDisplay at={o.procedure.publishedAt} precision="date" />
+              {o.procedure.supersededAt ? `, superseded ${formatInstant(o.procedure.supersededAt, "date")}` : ""}
+            </FactBlock>
+            <FactBlock term="Based on">{o.procedure.standard}</FactBlock>
+          </FactList>
+        </SectionCard>
       </div>
     </div>
   );

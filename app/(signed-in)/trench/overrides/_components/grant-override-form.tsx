@@ -9,6 +9,7 @@ import { Button } from "@/components/ui/button";
 import { grantOverrideSchema } from "@/domain/joints/schemas";
 import { grantOverrideAction } from "../../actions";
 import { SelectField } from "@/components/form/controls";
+import { formatDeviceInstant } from "@/components/ui/display-format";
 
 type In = z.input<typeof grantOverrideSchema>;
 type Out = z.output<typeof grantOverrideSchema>;
@@ -27,7 +28,7 @@ export function GrantOverrideForm({ jobs, heaters, coils, userName }: { jobs: Op
     setMessage(null);
     const r = await grantOverrideAction(values);
     if (r.ok) {
-      setMessage({ tone: "success", text: `Cleared ${r.data.subjectLabel} on ${r.data.jobCode} until ${new Date(r.data.expiresAt).toLocaleString()}, recorded as ${userName}.` });
+      setMessage({ tone: "success", text: `Cleared ${r.data.subjectLabel} on ${r.data.jobCode} until ${formatDeviceInstant(r.data.expiresAt)}, recorded as ${userName}.` });
       reset({ subject: values.subject, hours: 12 });
       router.refresh();
     } else {
