@@ -42,12 +42,15 @@ export function TextAreaField({
   );
 }
 
-/** A group of checkboxes or radios with a legend and one error line. */
-export function ChoiceGroup({ legend, error, id, children }: { legend: ReactNode; error?: string; id: string; children: ReactNode }) {
+/**
+ * A group of checkboxes or radios with a legend and one error line. `options` "fill" puts
+ * the choices on one row, sharing its width (the Trench's large yes/no buttons).
+ */
+export function ChoiceGroup({ legend, error, id, options = "wrap", children }: { legend: ReactNode; error?: string; id: string; options?: "wrap" | "fill"; children: ReactNode }) {
   return (
-    <fieldset className="flex flex-col gap-1" aria-describedby={error ? `${id}-error` : undefined}>
+    <fieldset className="flex flex-col gap-1" aria-invalid={error ? true : undefined} aria-describedby={error ? `${id}-error` : undefined}>
       <legend className="text-sm font-semibold text-ink">{legend}</legend>
-      <div className="flex flex-wrap gap-3">{children}</div>
+      <div className={options === "fill" ? "flex gap-2" : "flex flex-wrap gap-3"}>{children}</div>
       {error ? (
         <p id={`${id}-error`} className="text-sm font-semibold text-fail">
           {error}

@@ -9,6 +9,7 @@ import { lookupCoilAction } from "../actions";
 import { findLocalCoil } from "../_client/find-coil";
 import type { TrenchCoil } from "@/app/_server/trench/setup-types";
 import { CameraScanner } from "@/components/ui/camera-scanner";
+import { controlBorder, FieldShell } from "@/components/form/field-shell";
 
 const STATUS_WORDS: Record<TrenchCoil["status"], string> = { "in-yard": "in the yard", "on-trailer": "on a trailer", "in-use": "in use", "used-up": "used up", quarantined: "quarantined" };
 
@@ -97,52 +98,40 @@ export function CoilPicker({
     [onText, resolve],
   );
 
-  const describedBy = [error ? `${id}-error` : null, note ? `${id}-note` : null].filter(Boolean).join(" ") || undefined;
   return (
-    <div className="flex flex-col gap-2">
-      <label htmlFor={id} className="text-sm font-semibold text-ink">
-        Coil on side {side} (coil id, label address or F2897 code)
-      </label>
-      <div className="flex gap-2">
-        <input
-          id={id}
-          value={value}
-          autoComplete="off"
-          autoCapitalize="characters"
-          aria-invalid={error ? true : undefined}
-          aria-describedby={describedBy}
-          onChange={(e) => {
-            onText(e.target.value);
-            if (coil) onCoil(null);
-          }}
-          onBlur={(e) => void resolve(e.target.value)}
-          onKeyDown={(e) => {
-            if (e.key === "Enter") {
-              e.preventDefault();
-              void resolve((e.target as HTMLInputElement).value);
-            }
-          }}
-          className={`min-h-touch w-full rounded-md border-2 px-3 py-2 text-base ${error ? "border-fail" : "border-slate-400"} bg-white`}
-        />
-        <Button type="button" variant="secondary" onClick={() => void resolve(value)} disabled={looking}>
-          {looking ? "Looking …" : `Look up coil ${side}`}
-        </Button>
-      </div>
-      <Button type="button" variant="secondary" onClick={() => setScanning((s) => !s)}>
-        {scanning ? `Stop scanning coil ${side}` : `Scan coil ${side} label with the camera`}
-      </Button>
-      {scanning ? <CameraScanner label={`Scanning coil ${side}`} instruction={`Scanning coil ${side}: point the camera at the coil label's QR code.`} fallback="Type the coil id from the label instead." onResult={scanned} onClose={() => setScanning(false)} /> : null}
-      {coil ? <CoilSummary coil={coil} system={system} /> : null}
-      {note ? (
-        <p id={`${id}-note`} className="text-sm font-semibold text-caution">
-          {note}
-        </p>
-      ) : null}
-      {error ? (
-        <p id={`${id}-error`} className="text-sm font-semibold text-fail">
-          {error}
-        </p>
-      ) : null}
-    </div>
+    <FieldShell id={id} label={`Coil on side ${side} (coil id, label address or F2897 code)`} note={note} error={error} size="large">
+      {(control) => (
+        <>
+          <div className="flex gap-2">
+            <input
+              {...control}
+              value={value}
+              autoComplete="off"
+              autoCapitalize="characters"
+              onChange={(e) => {
+                onText(e.target.value);
+                if (coil) onCoil(null);
+              }}
+              onBlur={(e) => void resolve(e.target.value)}
+              onKeyDown={(e) => {
+                if (e.key === "Enter") {
+                  e.preventDefault();
+                  void resolve((e.target as HTMLInputElement).value);
+                }
+              }}
+              className={`min-h-touch w-full rounded-md border-2 px-3 py-2 text-base ${controlBorder(error)} bg-white`}
+            />
+            <Button type="button" variant="secondary" onClick={() => void resolve(value)} disabled={looking}>
+              {looking ? "Looking …" : `Look up coil ${side}`}
+            </Button>
+          </div>
+          <Button type="button" variant="secondary" onClick={() => setScanning((s) => !s)}>
+            {scanning ? `Stop scanning coil ${side}` : `Scan coil ${side} label with the camera`}
+          </Button>
+          {scanning ? <CameraScanner label={`Scanning coil ${side}`} instruction={`Scanning coil ${side}: point the camera at the coil label's QR code.`} fallback="Type the coil id from the label instead." onResult={scanned} onClose={() => setScanning(false)} /> : null}
+          {coil ? <CoilSummary coil={coil} system={system} /> : null}
+        </>
+      )}
+    </FieldShell>
   );
 }

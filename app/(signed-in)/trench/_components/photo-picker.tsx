@@ -5,6 +5,7 @@
 import { useEffect, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { MAX_PHOTOS_PER_JOINT } from "@/domain/joints/schemas";
+import { FieldShell } from "@/components/form/field-shell";
 import { dropPhoto, readPhoto, storePhoto, type PhotoRef } from "../_client/device-store";
 
 const MAX_BYTES = 10 * 1024 * 1024;
@@ -76,27 +77,23 @@ export function PhotoPicker({ photos, onChange }: { photos: PhotoRef[]; onChange
 
   return (
     <div className="flex flex-col gap-2">
-      <label htmlFor="photos" className="text-sm font-semibold text-ink">
-        Photos of the bead ({photos.length} of {MAX_PHOTOS_PER_JOINT}; JPEG, PNG, WebP or HEIC, 10 MB each at most)
-      </label>
-      <input
-        id="photos"
-        type="file"
-        accept={ACCEPT}
-        capture="environment"
-        multiple
-        disabled={photos.length >= MAX_PHOTOS_PER_JOINT}
-        onChange={(e) => {
-          void add(e.target.files);
-          e.target.value = "";
-        }}
-        className="min-h-touch rounded-md border-2 border-slate-400 bg-white p-2 text-base"
-      />
-      {message ? (
-        <p role="alert" className="text-sm font-semibold text-fail">
-          {message}
-        </p>
-      ) : null}
+      <FieldShell id="photos" label={`Photos of the bead (${photos.length} of ${MAX_PHOTOS_PER_JOINT}; JPEG, PNG, WebP or HEIC, 10 MB each at most)`} error={message} errorRole="alert" size="large">
+        {(control) => (
+          <input
+            {...control}
+            type="file"
+            accept={ACCEPT}
+            capture="environment"
+            multiple
+            disabled={photos.length >= MAX_PHOTOS_PER_JOINT}
+            onChange={(e) => {
+              void add(e.target.files);
+              e.target.value = "";
+            }}
+            className="min-h-touch rounded-md border-2 border-slate-400 bg-white p-2 text-base"
+          />
+        )}
+      </FieldShell>
       {photos.length ? (
         <ul className="grid grid-cols-3 gap-2">
           {photos.map((p, i) => (

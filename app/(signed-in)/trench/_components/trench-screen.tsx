@@ -8,11 +8,11 @@
 // recording, and recording itself; this file is the layout.
 import { useRouter } from "next/navigation";
 import { useCallback, useTransition } from "react";
-import { Controller, useWatch } from "react-hook-form";
-import { FormMessage } from "@/components/form/field";
+import { useWatch } from "react-hook-form";
+import { Field, FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
 import { Cautions } from "@/components/ui/caution";
-import { JOINT_KIND_LABELS, JOINT_KINDS, PHASE_LABELS, TIMED_PHASES, type TimedPhase } from "@/domain/joints/schemas";
+import { JOINT_KIND_LABELS, JOINT_KINDS, type TimedPhase } from "@/domain/joints/schemas";
 import type { TrenchCoil, TrenchSetup } from "@/app/_server/trench/setup-types";
 import { useOutbox } from "../_client/use-outbox";
 import { BlocksPanel } from "./blocks-panel";
@@ -23,10 +23,10 @@ import { PlanPanel } from "@/components/fusion/plan-panel";
 import { ResultPanel } from "./result-panel";
 import { SelectField } from "@/components/form/controls";
 import { UnitController } from "./unit-controller";
-import { UnitInput } from "./unit-input";
+import { quantitiesAskedIn, RecordedValueField } from "./recorded-value-field";
 import { ValuesSection } from "./values-section";
 import { useFusionPlanPreview } from "./hooks/use-fusion-plan-preview";
-import { DURATION_FIELD, usePhaseTimers } from "./hooks/use-phase-timers";
+import { TIMED_VALUES, usePhaseTimers } from "./hooks/use-phase-timers";
 import { useRecordBlocks } from "./hooks/use-record-blocks";
 import { useRecordJoint } from "./hooks/use-record-joint";
 import { useTrenchDraft } from "./hooks/use-trench-draft";
@@ -62,33 +62,7 @@ export function TrenchScreen({ setup }: { setup: TrenchSetup }) {
   const timedBadge = (phase: TimedPhase, value: unknown) =>
     (timedFields ?? []).includes(phase) ? <span className="rounded bg-pass-light px-2 py-0.5 text-xs font-bold text-pass">timed</span> : value !== undefined && value !== null && value !== "" ? <span className="rounded bg-slate-200 px-2 py-0.5 text-xs font-bold text-ink">typed</span> : null;
 
-  const durationField = (phase: TimedPhase, label: string, hint?: string) => (
-    <Controller
-      control={control}
-      name={DURATION_FIELD[phase]}
-      render={({ field }) => (
-        <UnitInput
-          id={DURATION_FIELD[phase]}
-          label={label}
-          kind="duration"
-          system={system}
-          value={field.value as number | string | undefined}
-          onChange={(v) => {
-            field.onChange(v);
-            untime(phase);
-          }}
-          onBlur={field.onBlur}
-          error={err(DURATION_FIELD[phase])}
-          hint={hint}
-          badge={timedBadge(phase, field.value)}
-        />
-      )}
-    />
-  );
-
-  const unitField = (name: "lengthAM" | "lengthBM" | "dragPressureMpa", label: string, kind: "length-m" | "pressure", opts: { hint?: string } = {}) => (
-    <UnitController control={control} name={name} label={label} kind={kind} system={system} error={err(name)} hint={opts.hint} />
-  );
+  const unitField = (name: "lengthAM" | "lengthBM", label: string, opts: { hint?: string } = {}) => <UnitController control={control} name={name} label={label} kind="length-m" system={system} error={err(name)} hint={opts.hint} />;
 
   if (setup.jobs.length === 0) {
     return <p className="rounded-md border-2 border-caution bg-caution-light p-3 font-semibold text-caution">No open job is assigned to your crew. Ask an administrator to open a job for your crew.</p>;
@@ -143,24 +117,14 @@ export function TrenchScreen({ setup }: { setup: TrenchSetup }) {
           </SelectField>
           <Cautions kinds={["coil", "static"]} title="Before cutting bands or pipe" />
           <CoilPicker side="A" value={coilAText ?? ""} coil={coils.A} coils={setup.coils} preferCrewId={setup.user.crewId} system={system} error={err("coilA")} onText={onTextA} onCoil={onCoilA} />
-          {unitField("lengthAM", "Pipe laid from coil A with this joint", "length-m", { hint: "Drawn off the coil's length left. Leave empty if none was pulled." })}
+          {unitField("lengthAM", "Pipe laid from coil A with this joint", { hint: "Drawn off the coil's length left. Leave empty if none was pulled." })}
           {kind === "coil-to-coil" ? (
             <>
               <CoilPicker side="B" value={(coilBText as string | null) ?? ""} coil={coils.B} coils={setup.coils} preferCrewId={setup.user.crewId} system={system} error={err("coilB")} onText={onTextB} onCoil={onCoilB} />
-              {unitField("lengthBM", "Pipe laid from coil B with this joint", "length-m")}
+              {unitField("lengthBM", "Pipe laid from coil B with this joint")}
             </>
           ) : (
-            <div className="flex flex-col gap-1">
-              <label htmlFor="componentBText" className="text-sm font-semibold text-ink">
-                {kind === "fitting" ? "Fitting on side B (type and size)" : "Pipe in the ground on side B (what and where)"}
-              </label>
-              <input id="componentBText" {...register("componentBText")} aria-invalid={err("componentBText") ? true : undefined} aria-describedby={err("componentBText") ? "componentBText-error" : undefined} className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-3 py-2 text-base" />
-              {err("componentBText") ? (
-                <p id="componentBText-error" className="text-sm font-semibold text-fail">
-                  {err("componentBText")}
-                </p>
-              ) : null}
-            </div>
+            <Field id="componentBText" label={kind === "fitting" ? "Fitting on side B (type and size)" : "Pipe in the ground on side B (what and where)"} error={err("componentBText")} {...register("componentBText")} />
           )}
           {mismatch.length || sameCoil ? (
             <div role="alert" className="rounded-md border-2 border-fail bg-fail-light p-3 font-semibold text-fail">
@@ -185,17 +149,27 @@ export function TrenchScreen({ setup }: { setup: TrenchSetup }) {
 
         <fieldset className="flex flex-col gap-4">
           <legend className="mb-2 text-xl font-bold">2. Pressure plan</legend>
-          {unitField("dragPressureMpa", "Drag pressure measured", "pressure", { hint: "The gauge reading just to move the carriage." })}
+          {quantitiesAskedIn("machine").map((d) => (
+            <RecordedValueField key={d.key} definition={d} control={control} system={system} error={err(d.key)} />
+          ))}
           {plan && job?.procedure ? <PlanPanel plan={plan} system={system} procedure={`${job.procedure.code} v${job.procedure.versionNo}`} /> : <p className="rounded-md border-2 border-slate-300 bg-white p-3 text-ink">{planProblem}</p>}
         </fieldset>
 
         <fieldset className="flex flex-col gap-4">
           <legend className="mb-2 text-xl font-bold">3. Phase timer</legend>
           <Cautions kinds={["heater", "pinch"]} title="While fusing" />
-          {TIMED_PHASES.map((phase) => (
+          {TIMED_VALUES.map(({ phase, definition }) => (
             <div key={phase} className="flex flex-col gap-2">
               <PhaseTimer phase={phase} timing={timers[phase]} limits={limits[phase]} now={now} onStart={() => startPhase(phase)} onEnd={() => endPhase(phase)} onClear={() => clearPhase(phase)} />
-              {durationField(phase, `${PHASE_LABELS[phase]} time`, phase === "heatSoak" && plan && plan.heatSoakTargetS === null && !plan.heatSoakS ? "This procedure ends heat soak by bead size; time it for the record." : "Filled by the timer, or type it.")}
+              <RecordedValueField
+                definition={definition}
+                control={control}
+                system={system}
+                error={err(definition.key)}
+                hint={phase === "heatSoak" && plan && plan.heatSoakTargetS === null && !plan.heatSoakS ? "This procedure ends heat soak by bead size; time it for the record." : "Filled by the timer, or type it."}
+                badge={(value) => timedBadge(phase, value)}
+                onTyped={() => untime(phase)}
+              />
             </div>
           ))}
         </fieldset>

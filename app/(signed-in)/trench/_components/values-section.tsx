@@ -1,20 +1,22 @@
 "use client";
 // Step 4 of the Trench form: the values measured and checked at the joint, the place
 // (station, and the device's location when the fuser allows it) and the bead photos.
-import { Fragment, useState } from "react";
+import { useState } from "react";
 import { Controller, useWatch, type UseFormReturn } from "react-hook-form";
 import { Button } from "@/components/ui/button";
 import { SHELTER_LABELS, SHELTERS, type RecordJointFormInput, type RecordJointFormValues } from "@/domain/joints/schemas";
-import { CHECK_VALUES, QUANTITY_VALUES, type CheckValueKey, type QuantityValueKey } from "@/domain/joints/values";
+import { CHECK_VALUES, type CheckValueKey } from "@/domain/joints/values";
 import { formatQuantity, type UnitSystem } from "@/domain/units/format";
 import type { PhotoRef } from "../_client/device-store";
 import { PhotoPicker } from "./photo-picker";
 import { SelectField } from "@/components/form/controls";
 import { UnitController } from "./unit-controller";
+import { quantitiesAskedIn, RecordedValueField } from "./recorded-value-field";
+import { Field } from "@/components/form/field";
 import { YesNo } from "./yes-no";
 
 /** What step 4 asks: the typed values and yes/no checks of domain/joints/values (drag is asked with the machine, durations by the timer). */
-const TYPED = QUANTITY_VALUES.filter((d) => d.step === "values");
+const TYPED = quantitiesAskedIn("values");
 const CHECKS = CHECK_VALUES.filter((d) => d.step === "values");
 
 export function ValuesSection({ form, system, photos, onPhotos }: { form: UseFormReturn<RecordJointFormInput, unknown, RecordJointFormValues>; system: UnitSystem; photos: PhotoRef[]; onPhotos: (photos: PhotoRef[]) => void }) {
@@ -38,17 +40,13 @@ export function ValuesSection({ form, system, photos, onPhotos }: { form: UseFor
     );
   };
 
-  const unit = (name: "ambientC" | QuantityValueKey, label: string, kind: Parameters<typeof UnitController>[0]["kind"], opts: { hint?: string; allowNegative?: boolean } = {}) => (
-    <UnitController control={control} name={name} label={label} kind={kind} system={system} error={err(name)} hint={opts.hint} allowNegative={opts.allowNegative} />
-  );
-
   return (
     <fieldset className="flex flex-col gap-4">
       <legend className="mb-2 text-xl font-bold">4. Record the values</legend>
       {TYPED.map((d) => (
-        <Fragment key={d.key}>{unit(d.key as QuantityValueKey, d.prompt, d.quantity, { hint: d.hint })}</Fragment>
+        <RecordedValueField key={d.key} definition={d} control={control} system={system} error={err(d.key)} />
       ))}
-      {unit("ambientC", "Ambient temperature", "temperature", { allowNegative: true })}
+      <UnitController control={control} name="ambientC" label="Ambient temperature" kind="temperature" system={system} error={err("ambientC")} allowNegative />
       <SelectField id="shelter" label="Weather shelter" error={err("shelter")} {...register("shelter", { setValueAs: (v) => (v === "" ? undefined : v) })}>
         <option value="">Choose …</option>
         {SHELTERS.map((s) => (
@@ -61,12 +59,7 @@ export function ValuesSection({ form, system, photos, onPhotos }: { form: UseFor
         const name = key as CheckValueKey;
         return <Controller key={name} control={control} name={name} render={({ field }) => <YesNo name={name} question={question} value={field.value as boolean | undefined} onChange={field.onChange} error={err(name)} />} />;
       })}
-      <div className="flex flex-col gap-1">
-        <label htmlFor="station" className="text-sm font-semibold text-ink">
-          Station (place along the job)
-        </label>
-        <input id="station" {...register("station")} autoComplete="off" className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-3 py-2 text-base" />
-      </div>
+      <Field id="station" label="Station (place along the job)" autoComplete="off" {...register("station")} />
       <div className="flex flex-col gap-1">
         <Button type="button" variant="secondary" onClick={locate}>
           {typeof latitude === "number" ? "Update my location" : "Add my location"}

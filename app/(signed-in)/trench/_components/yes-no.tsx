@@ -1,5 +1,7 @@
 "use client";
 // A yes/no question with two large radio buttons (gloved hands), its error tied to it.
+import { ChoiceGroup } from "@/components/form/controls";
+
 export function YesNo({ name, question, value, onChange, error }: { name: string; question: string; value: boolean | undefined | null; onChange: (value: boolean) => void; error?: string }) {
   const option = (answer: boolean, text: string) => {
     const checked = value === answer;
@@ -13,17 +15,9 @@ export function YesNo({ name, question, value, onChange, error }: { name: string
     );
   };
   return (
-    <fieldset className="flex flex-col gap-1" aria-invalid={error ? true : undefined}>
-      <legend className="text-sm font-semibold text-ink">{question}</legend>
-      <div className="flex gap-2">
-        {option(true, "Yes")}
-        {option(false, "No")}
-      </div>
-      {error ? (
-        <p id={`${name}-error`} className="text-sm font-semibold text-fail">
-          {error}
-        </p>
-      ) : null}
-    </fieldset>
+    <ChoiceGroup id={name} legend={question} error={error} options="fill">
+      {option(true, "Yes")}
+      {option(false, "No")}
+    </ChoiceGroup>
   );
 }

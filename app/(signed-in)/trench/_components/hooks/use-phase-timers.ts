@@ -5,9 +5,16 @@
 import { useEffect, useState, type Dispatch, type SetStateAction } from "react";
 import { TIMED_PHASES, type TimedPhase } from "@/domain/joints/schemas";
 import { timedDurationS } from "@/domain/joints/timer";
+import { QUANTITY_VALUES, type RECORDED_VALUES } from "@/domain/joints/values";
 import type { PhaseTimings, TrenchForm } from "./use-trench-draft";
 
-export const DURATION_FIELD: Record<TimedPhase, "heatSoakS" | "changeoverS" | "coolingS"> = { heatSoak: "heatSoakS", changeover: "changeoverS", cooling: "coolingS" };
+type TimedValueKey = Extract<(typeof RECORDED_VALUES)[number], { entry: "timed" }>["key"];
+
+/** The values the timer fills (domain/joints/values, entry "timed"), with their phase, in the table's order. */
+export const TIMED_VALUES = QUANTITY_VALUES.flatMap((d) => (d.entry === "timed" && d.phase ? [{ phase: d.phase, definition: d }] : []));
+
+/** Each timed phase's duration field (seconds). */
+export const DURATION_FIELD = Object.fromEntries(TIMED_VALUES.map(({ phase, definition }) => [phase, definition.key])) as Record<TimedPhase, TimedValueKey>;
 
 export function usePhaseTimers(form: TrenchForm, timers: PhaseTimings, setTimers: Dispatch<SetStateAction<PhaseTimings>>) {
   const { getValues, setValue } = form;

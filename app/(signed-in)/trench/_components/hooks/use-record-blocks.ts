@@ -5,6 +5,7 @@
 import { useMemo } from "react";
 import { preRecordProblems } from "@/domain/joints/pre-record";
 import { applyOverrides, blockReasons } from "@/domain/joints/rules";
+import { isoDateOf } from "@/domain/office/dates";
 import { qualificationStatus } from "@/domain/qualifications/status";
 import type { TrenchCoil, TrenchSetup } from "@/app/_server/trench/setup-types";
 import type { useFusionPlanPreview } from "./use-fusion-plan-preview";
@@ -12,14 +13,14 @@ import type { SideCoils } from "./use-trench-draft";
 
 type Preview = ReturnType<typeof useFusionPlanPreview>;
 
-const isoToday = (ms: number) => new Date(ms).toISOString().slice(0, 10);
-
 export function useRecordBlocks(setup: TrenchSetup, { job, machine, heater }: Pick<Preview, "job" | "machine" | "heater">, coils: SideCoils, kind: unknown, now: number) {
   const system = setup.user.unitSystem;
   const userId = setup.user.id;
   const sideB = kind === "coil-to-coil" ? coils.B : null;
 
-  const today = isoToday(now || Date.parse(setup.loadedAt));
+  // The calendar day the qualification and heater checks are judged on, taken as the
+  // server's record-joint takes it (not a display text, so not components/ui/display-format).
+  const today = isoDateOf(new Date(now || Date.parse(setup.loadedAt)));
   const blocks = useMemo(() => {
     if (!job) return { open: [], covered: [] };
     const qualification = qualificationStatus({ qualifiedOn: job.qualifiedOn, failedTestsOn: job.failedOn, on: today });
