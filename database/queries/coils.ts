@@ -62,14 +62,6 @@ type CoilRow = Record<string, unknown> & {
   status: CoilStatus;
 };
 
-/** DATE column (a Date at UTC midnight with timezone Z, or a string) → 'YYYY-MM-DD'. */
-export function isoDay(value: unknown): string | null {
-  if (value == null) return null;
-  if (value instanceof Date) return value.toISOString().slice(0, 10);
-  return String(value).slice(0, 10);
-}
-
-
 function parseFlags(text: unknown): TraceCodeFlag[] {
   if (typeof text !== "string" || !text) return [];
   try {
