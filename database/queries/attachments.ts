@@ -2,6 +2,7 @@
 // pressure traces, qualification evidence). The object key is a generated id; the file's
 // own name is kept for display only.
 import { conn, type Db } from "../client";
+import type { AttachmentRow as AttachmentTableRow } from "../tables";
 
 export type AttachmentKind = "bead-photo" | "pressure-trace" | "qualification-evidence";
 
@@ -18,18 +19,8 @@ export type Attachment = {
   uploadedAt: Date;
 };
 
-type AttachmentRow = {
-  id: number | string;
-  kind: AttachmentKind;
-  object_key: string;
-  content_type: string;
-  size_bytes: number;
-  sha256: string;
-  original_name: string | null;
-  joint_id: number | string | null;
-  uploaded_by: number | null;
-  uploaded_at: Date;
-};
+/** An attachments row; kind holds an AttachmentKind (written from it only). */
+type AttachmentRow = AttachmentTableRow & { kind: AttachmentKind };
 
 function toAttachment(row: AttachmentRow): Attachment {
   return {

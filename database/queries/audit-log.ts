@@ -1,6 +1,7 @@
 // The audit log: who did what, when, to which record. Append-only: there is no update or
 // delete function, and the application's database user has no DELETE right on the table.
 import { conn, type Db } from "../client";
+import type { AuditLogRow } from "../tables";
 
 export type AuditEntry = {
   id: number;
@@ -35,15 +36,15 @@ export async function listAuditEntries(
   if (entityType) q.where("entity_type", entityType);
   if (entityId != null) q.where("entity_id", String(entityId));
   if (action) q.where("action", action);
-  const rows = await q;
-  return rows.map((r: Record<string, unknown>) => ({
+  const rows = (await q) as AuditLogRow[];
+  return rows.map((r) => ({
     id: Number(r.id),
-    at: r.at as Date,
-    actorUserId: (r.actor_user_id as number | null) ?? null,
-    action: r.action as string,
-    entityType: r.entity_type as string,
-    entityId: (r.entity_id as string | null) ?? null,
-    details: r.details ? (JSON.parse(r.details as string) as Record<string, unknown>) : null,
-    requestId: (r.request_id as string | null) ?? null,
+    at: r.at,
+    actorUserId: r.actor_user_id ?? null,
+    action: r.action,
+    entityType: r.entity_type,
+    entityId: r.entity_id ?? null,
+    details: r.details ? (JSON.parse(r.details) as AuditEntry["details"]) : null,
+    requestId: r.request_id ?? null,
   }));
 }

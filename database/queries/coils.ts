@@ -5,9 +5,9 @@ import type { Knex } from "knex";
 import { resolveScannedCoil } from "@/domain/coils/scanned-coil";
 import { readScannedCoilText, type CoilStatus, type DamageKind, type PullPlan, type TraceCodeFlag } from "@/domain/coil-life/rules";
 import type { PipeSeries } from "@/domain/pipe/catalogue";
-import { AppError } from "@/domain/result";
-import { conn, type Db } from "../client";
-import { num } from "./rows";
+import { conn, isDuplicateKey, type Db } from "../client";
+import type { CoilEventRow, CoilTableRow } from "../tables";
+import { bool, isoDay, num, parseJson, setList } from "./rows";
 import { insertAuditEntry } from "./audit-log";
 
 export type CoilInspection = {
@@ -56,73 +56,62 @@ export type Coil = {
   version: number;
 };
 
-type CoilRow = Record<string, unknown> & {
-  id: number;
-  coil_code: string;
+/** A coils row with its crew, job and receiver (coilQuery). */
+export type CoilRow = CoilTableRow & {
   status: CoilStatus;
+  crew_name: string | null;
+  crew_trailer: string | null;
+  job_code: string | null;
+  job_name: string | null;
+  received_by_name: string | null;
 };
 
-/** DATE column (a Date at UTC midnight with timezone Z, or a string) → 'YYYY-MM-DD'. */
-export function isoDay(value: unknown): string | null {
-  if (value == null) return null;
-  if (value instanceof Date) return value.toISOString().slice(0, 10);
-  return String(value).slice(0, 10);
-}
-
-
-function parseFlags(text: unknown): TraceCodeFlag[] {
-  if (typeof text !== "string" || !text) return [];
-  try {
-    const parsed = JSON.parse(text) as unknown;
-    return Array.isArray(parsed) ? (parsed as TraceCodeFlag[]) : [];
-  } catch {
-    return [];
-  }
+function parseFlags(text: string | null): TraceCodeFlag[] {
+  const parsed = parseJson<unknown>(text, []);
+  return Array.isArray(parsed) ? (parsed as TraceCodeFlag[]) : [];
 }
 
 export function toCoil(row: CoilRow): Coil {
   return {
     id: Number(row.id),
     coilCode: row.coil_code,
-    manufacturer: row.manufacturer as string,
-    manufacturerCode: (row.manufacturer_code as string | null) ?? null,
-    lot: row.lot as string,
+    manufacturer: row.manufacturer,
+    manufacturerCode: row.manufacturer_code ?? null,
+    lot: row.lot,
     productionDate: isoDay(row.production_date),
-    material: row.material as string,
-    series: row.series as PipeSeries,
-    nominalSize: row.nominal_size as string,
+    material: row.material,
+    series: row.series,
+    nominalSize: row.nominal_size,
     outsideDiameterMm: Number(row.outside_diameter_mm),
     sdr: Number(row.sdr),
     lengthM: Number(row.length_m),
     remainingM: Number(row.remaining_m),
-    printLine: (row.print_line as string | null) ?? null,
-    traceCode: (row.trace_code as string | null) ?? null,
+    printLine: row.print_line ?? null,
+    traceCode: row.trace_code ?? null,
     traceCodeFlags: parseFlags(row.trace_code_flags),
     status: row.status,
-    statusReason: (row.status_reason as string | null) ?? null,
+    statusReason: row.status_reason ?? null,
     crewId: num(row.crew_id),
-    crewName: (row.crew_name as string | null) ?? null,
-    trailer: (row.crew_trailer as string | null) ?? null,
+    crewName: row.crew_name ?? null,
+    trailer: row.crew_trailer ?? null,
     jobId: num(row.job_id),
-    jobCode: (row.job_code as string | null) ?? null,
-    jobName: (row.job_name as string | null) ?? null,
+    jobCode: row.job_code ?? null,
+    jobName: row.job_name ?? null,
     inspection: {
       hasDamage: Boolean(row.has_damage),
-      damageKinds: String(row.damage_kinds ?? "")
-        .split(",")
-        .filter(Boolean) as DamageKind[],
-      damageNotes: (row.damage_notes as string | null) ?? null,
+      damageKinds: setList<DamageKind>(row.damage_kinds),
+      damageNotes: row.damage_notes ?? null,
       gougeDepthMm: num(row.gouge_depth_mm),
       gougeLimitPct: num(row.gouge_limit_pct),
       ovalityPct: num(row.ovality_pct),
       ovalityLimitPct: num(row.ovality_limit_pct),
-      endCapsInPlace: Boolean(row.end_caps_in_place),
-      passed: Boolean(row.inspection_passed),
+      endCapsInPlace: bool(row.end_caps_in_place) ?? false,
+      passed: bool(row.inspection_passed) ?? false,
       receivedById: num(row.received_by),
-      receivedByName: (row.received_by_name as string | null) ?? null,
-      receivedAt: row.received_at as Date,
+      receivedByName: row.received_by_name ?? null,
+      receivedAt: row.received_at,
     },
-    labelPrintedAt: (row.label_printed_at as Date | null) ?? null,
+    labelPrintedAt: row.label_printed_at ?? null,
     version: Number(row.version),
   };
 }
@@ -244,11 +233,15 @@ export type NewCoil = {
   receivedAt?: Date;
 };
 
+/** insertCoil's answer: the new coil's id, or that the coil id is already on file. */
+export type InsertCoilResult = { ok: true; id: number } | { ok: false; reason: "duplicate-coil-code" };
+
 /**
  * Inserts a received coil (in the yard, or quarantined when its inspection failed) with
- * its first coil event. Inside the caller's transaction. A duplicate coil id → conflict.
+ * its first coil event. Inside the caller's transaction. A duplicate coil id writes
+ * nothing and answers { ok: false } (the caller words the conflict).
  */
-export async function insertCoil(coil: NewCoil, trx: Db): Promise<number> {
+export async function insertCoil(coil: NewCoil, trx: Db): Promise<InsertCoilResult> {
   const status: CoilStatus = coil.inspectionPassed ? "in-yard" : "quarantined";
   let id: number;
   try {
@@ -284,9 +277,7 @@ export async function insertCoil(coil: NewCoil, trx: Db): Promise<number> {
     });
     id = Number(inserted);
   } catch (error) {
-    if ((error as { code?: string })?.code === "ER_DUP_ENTRY") {
-      throw new AppError("conflict", `Coil id ${coil.coilCode} is already on file; choose another id.`, { coilCode: [`Coil id ${coil.coilCode} is already on file.`] });
-    }
+    if (isDuplicateKey(error)) return { ok: false, reason: "duplicate-coil-code" };
     throw error;
   }
   await trx("coil_events").insert({
@@ -297,7 +288,7 @@ export async function insertCoil(coil: NewCoil, trx: Db): Promise<number> {
     reason: coil.quarantineReason ?? "Received",
     remaining_m: coil.lengthM,
   });
-  return id;
+  return { ok: true, id };
 }
 
 /** Locks a coil row for the rest of the transaction (SELECT … FOR UPDATE). */
@@ -310,28 +301,30 @@ export async function lockCoil({ id }: { id: number }, trx: Knex.Transaction): P
 /**
  * Moves a locked coil to a status (the caller has checked the move against the domain
  * rules and the version), bumps its version and writes the coil event. On trailer keeps
- * the crew; in the yard clears crew and job.
+ * the crew; in the yard clears crew and job. false (nothing written) when the coil's
+ * version is no longer `coil.version`: someone else changed it.
  */
 export async function updateCoilStatus(
   { coil, to, reason, crewId, jobId, userId }: { coil: Coil; to: CoilStatus; reason: string | null; crewId?: number | null; jobId?: number | null; userId: number },
   trx: Db,
-): Promise<void> {
-  const patch: Record<string, unknown> = { status: to, status_reason: reason, version: coil.version + 1 };
+): Promise<boolean> {
+  const patch: Partial<CoilTableRow> = { status: to, status_reason: reason, version: coil.version + 1 };
   if (to === "in-yard") Object.assign(patch, { crew_id: null, job_id: null });
   if (to === "on-trailer") Object.assign(patch, { crew_id: crewId ?? coil.crewId, job_id: null });
   if (to === "in-use") Object.assign(patch, { job_id: jobId ?? coil.jobId, ...(crewId ? { crew_id: crewId } : {}) });
   const changed = await trx("coils").where({ id: coil.id, version: coil.version }).update(patch);
-  if (changed !== 1) throw new AppError("conflict", `${coil.coilCode} was changed by someone else; reload the page and try again.`);
+  if (changed !== 1) return false;
   await trx("coil_events").insert({
     coil_id: coil.id,
     by_user_id: userId,
     from_status: coil.status,
     to_status: to,
     reason,
-    job_id: (patch.job_id as number | null | undefined) ?? coil.jobId,
-    crew_id: (patch.crew_id as number | null | undefined) ?? coil.crewId,
+    job_id: patch.job_id ?? coil.jobId,
+    crew_id: patch.crew_id ?? coil.crewId,
     remaining_m: coil.remainingM,
   });
+  return true;
 }
 
 export type DrawDownResult = { coilId: number; coilCode: string; pulledM: number; remainingM: number; status: CoilStatus; fromStatus: CoilStatus };
@@ -352,7 +345,7 @@ export async function writeCoilPull(
     const joint = (await trx("joints").select("job_id").where("id", jointId).first()) as { job_id: number } | undefined;
     useJobId = joint ? Number(joint.job_id) : null;
   }
-  const patch: Record<string, unknown> = { remaining_m: pull.remainingM, status: pull.status, version: coil.version + 1 };
+  const patch: Partial<CoilTableRow> = { remaining_m: pull.remainingM, status: pull.status, version: coil.version + 1 };
   if (coil.jobId == null && useJobId != null) patch.job_id = useJobId;
   patch.status_reason = pull.isUsedUp ? "All of the coil has been laid" : null;
   await trx("coils").where({ id: coil.id }).update(patch);
@@ -387,6 +380,16 @@ export type CoilEvent = {
   crewName: string | null;
 };
 
+/** A coil_events row with who made it, the joint's number, the job's code and the crew's name. */
+type CoilEventListRow = CoilEventRow & {
+  from_status: CoilStatus | null;
+  to_status: CoilStatus;
+  by_user_name: string | null;
+  joint_no: number | null;
+  job_code: string | null;
+  crew_name: string | null;
+};
+
 /** The history of a coil, newest first: receipt, moves and each pull with the joint it went into. */
 export async function listCoilEvents({ coilId, limit = 200 }: { coilId: number; limit?: number }, trx?: Db): Promise<CoilEvent[]> {
   const rows = (await conn(trx)("coil_events as e")
@@ -398,21 +401,21 @@ export async function listCoilEvents({ coilId, limit = 200 }: { coilId: number; 
     .where("e.coil_id", coilId)
     .orderBy("e.at", "desc")
     .orderBy("e.id", "desc")
-    .limit(limit)) as Record<string, unknown>[];
+    .limit(limit)) as CoilEventListRow[];
   return rows.map((r) => ({
     id: Number(r.id),
-    at: r.at as Date,
+    at: r.at,
     byUserId: num(r.by_user_id),
-    byUserName: (r.by_user_name as string | null) ?? null,
-    fromStatus: (r.from_status as CoilStatus | null) ?? null,
-    toStatus: r.to_status as CoilStatus,
-    reason: (r.reason as string | null) ?? null,
+    byUserName: r.by_user_name ?? null,
+    fromStatus: r.from_status ?? null,
+    toStatus: r.to_status,
+    reason: r.reason ?? null,
     pullM: num(r.pull_m),
     remainingM: num(r.remaining_m),
     jointId: num(r.joint_id),
     jointNo: num(r.joint_no),
-    jobCode: (r.job_code as string | null) ?? null,
-    crewName: (r.crew_name as string | null) ?? null,
+    jobCode: r.job_code ?? null,
+    crewName: r.crew_name ?? null,
   }));
 }
 

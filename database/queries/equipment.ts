@@ -5,7 +5,8 @@ import { heaterProblems, isHeaterCheckOverdue, isHeaterFlagged, isMachineUsable,
 import { isoDateOf } from "@/domain/office/dates";
 import { roundTo } from "@/domain/units/format";
 import { conn, type Db } from "../client";
-import { isoDay } from "./jobs";
+import type { FusionMachineRow, HeaterCheckRow, HeaterPlateRow } from "../tables";
+import { day, isoDay, num } from "./rows";
 
 export type MachineRecord = {
   id: number;
@@ -25,19 +26,19 @@ export type MachineRecord = {
   problems: string[];
 };
 
-function toMachine(r: Record<string, unknown>): MachineRecord {
+function toMachine(r: FusionMachineRow): MachineRecord {
   const base = {
-    id: r.id as number,
-    assetTag: r.asset_tag as string,
-    description: (r.description as string | null) ?? null,
-    minOdMm: r.min_od_mm == null ? null : Number(r.min_od_mm),
-    maxOdMm: r.max_od_mm == null ? null : Number(r.max_od_mm),
-    pistonAreaMm2: r.piston_area_mm2 == null ? null : Number(r.piston_area_mm2),
-    lastServiceOn: isoDay(r.last_service_on as Date | null),
-    nextServiceDue: isoDay(r.next_service_due as Date | null),
+    id: r.id,
+    assetTag: r.asset_tag,
+    description: r.description ?? null,
+    minOdMm: num(r.min_od_mm),
+    maxOdMm: num(r.max_od_mm),
+    pistonAreaMm2: num(r.piston_area_mm2),
+    lastServiceOn: isoDay(r.last_service_on),
+    nextServiceDue: isoDay(r.next_service_due),
     isActive: Boolean(r.is_active),
-    version: r.version as number,
-    createdAt: r.created_at as Date,
+    version: r.version,
+    createdAt: r.created_at,
   };
   return { ...base, isUsable: isMachineUsable(base), problems: machineProblems(base) };
 }
@@ -45,20 +46,20 @@ function toMachine(r: Record<string, unknown>): MachineRecord {
 export async function findMachineById({ id, forUpdate = false }: { id: number; forUpdate?: boolean }, trx?: Db): Promise<MachineRecord | null> {
   const q = conn(trx)("fusion_machines").where({ id });
   if (forUpdate) q.forUpdate();
-  const row = await q.first();
+  const row = (await q.first()) as FusionMachineRow | undefined;
   return row ? toMachine(row) : null;
 }
 
 export async function listMachines({ activeOnly = false }: { activeOnly?: boolean } = {}, trx?: Db): Promise<MachineRecord[]> {
   const q = conn(trx)("fusion_machines").orderBy([{ column: "is_active", order: "desc" }, { column: "asset_tag" }]);
   if (activeOnly) q.where("is_active", true);
-  return (await q).map(toMachine);
+  return ((await q) as FusionMachineRow[]).map(toMachine);
 }
 
 /** Active machines with no piston area on record (they cannot be used for a joint). */
 export async function listMachinesWithoutPistonArea(_: Record<string, never> = {}, trx?: Db): Promise<MachineRecord[]> {
   const rows = await conn(trx)("fusion_machines").where("is_active", true).where((w) => w.whereNull("piston_area_mm2").orWhere("piston_area_mm2", "<=", 0)).orderBy("asset_tag");
-  return rows.map(toMachine);
+  return (rows as FusionMachineRow[]).map(toMachine);
 }
 
 export type MachineFields = {
@@ -144,39 +145,42 @@ export type HeaterRecord = {
   problems: string[];
 };
 
-function toCheck(r: Record<string, unknown>): HeaterCheckRecord {
+/** A heater_checks row with the name of who made the check (checksQuery). */
+type CheckRow = HeaterCheckRow & { checked_by_name: string | null };
+
+function toCheck(r: CheckRow): HeaterCheckRecord {
   return {
     id: Number(r.id),
-    heaterId: r.heater_id as number,
-    checkedAt: r.checked_at as Date,
-    checkedBy: (r.checked_by as number | null) ?? null,
-    checkedByName: (r.checked_by_name as string | null) ?? null,
-    instrument: r.instrument as string,
-    readings: JSON.parse(r.readings as string) as HeaterReadings,
+    heaterId: r.heater_id,
+    checkedAt: r.checked_at,
+    checkedBy: r.checked_by ?? null,
+    checkedByName: r.checked_by_name ?? null,
+    instrument: r.instrument,
+    readings: JSON.parse(r.readings) as HeaterReadings,
     windowMinC: Number(r.window_min_c),
     windowMaxC: Number(r.window_max_c),
     passed: Boolean(r.passed),
-    nextDueOn: isoDay(r.next_due_on as Date) as string,
-    notes: (r.notes as string | null) ?? null,
-    procedureVersionId: (r.procedure_version_id as number | null) ?? null,
+    nextDueOn: day(r.next_due_on),
+    notes: r.notes ?? null,
+    procedureVersionId: r.procedure_version_id ?? null,
   };
 }
 
-function toHeater(r: Record<string, unknown>, lastCheck: HeaterCheckRecord | null, on: string): HeaterRecord {
+function toHeater(r: HeaterPlateRow, lastCheck: HeaterCheckRecord | null, on: string): HeaterRecord {
   const state = { isActive: Boolean(r.is_active), lastCheck: lastCheck ? { passed: lastCheck.passed, nextDueOn: lastCheck.nextDueOn } : null };
   return {
-    id: r.id as number,
-    assetTag: r.asset_tag as string,
-    description: (r.description as string | null) ?? null,
-    checkIntervalDays: r.check_interval_days as number,
+    id: r.id,
+    assetTag: r.asset_tag,
+    description: r.description ?? null,
+    checkIntervalDays: r.check_interval_days,
     isActive: state.isActive,
-    version: r.version as number,
-    createdAt: r.created_at as Date,
+    version: r.version,
+    createdAt: r.created_at,
     lastCheck,
     nextDueOn: lastCheck?.nextDueOn ?? null,
     isCheckOverdue: isHeaterCheckOverdue(state, on),
     isFlagged: isHeaterFlagged(state),
-    problems: heaterProblems({ ...state, assetTag: r.asset_tag as string }, on),
+    problems: heaterProblems({ ...state, assetTag: r.asset_tag }, on),
   };
 }
 
@@ -188,8 +192,8 @@ async function lastChecks(heaterIds: number[], trx?: Db): Promise<Map<number, He
   if (!heaterIds.length) return new Map();
   const k = conn(trx);
   const latest = k("heater_checks").whereIn("heater_id", heaterIds).groupBy("heater_id").select("heater_id").max({ max_id: "id" });
-  const rows = await checksQuery(trx).whereIn("heater_checks.id", k.from(latest.as("l")).select("max_id"));
-  return new Map(rows.map((r: Record<string, unknown>) => [r.heater_id as number, toCheck(r)]));
+  const rows = (await checksQuery(trx).whereIn("heater_checks.id", k.from(latest.as("l")).select("max_id"))) as CheckRow[];
+  return new Map(rows.map((r) => [r.heater_id, toCheck(r)]));
 }
 
 /**
@@ -199,7 +203,7 @@ async function lastChecks(heaterIds: number[], trx?: Db): Promise<Map<number, He
 export async function findHeaterWithLastCheck({ id, now = new Date(), forUpdate = false }: { id: number; now?: Date; forUpdate?: boolean }, trx?: Db): Promise<HeaterRecord | null> {
   const q = conn(trx)("heater_plates").where({ id });
   if (forUpdate) q.forUpdate();
-  const row = await q.first();
+  const row = (await q.first()) as HeaterPlateRow | undefined;
   if (!row) return null;
   const last = (await lastChecks([id], trx)).get(id) ?? null;
   return toHeater(row, last, isoDateOf(now));
@@ -208,10 +212,10 @@ export async function findHeaterWithLastCheck({ id, now = new Date(), forUpdate 
 export async function listHeatersWithLastCheck({ now = new Date(), activeOnly = false }: { now?: Date; activeOnly?: boolean } = {}, trx?: Db): Promise<HeaterRecord[]> {
   const q = conn(trx)("heater_plates").orderBy([{ column: "is_active", order: "desc" }, { column: "asset_tag" }]);
   if (activeOnly) q.where("is_active", true);
-  const rows = await q;
-  const last = await lastChecks(rows.map((r: { id: number }) => r.id), trx);
+  const rows = (await q) as HeaterPlateRow[];
+  const last = await lastChecks(rows.map((r) => r.id), trx);
   const on = isoDateOf(now);
-  return rows.map((r: Record<string, unknown>) => toHeater(r, last.get(r.id as number) ?? null, on));
+  return rows.map((r) => toHeater(r, last.get(r.id) ?? null, on));
 }
 
 /** Active plates that need a check now: overdue, never checked, or flagged by a failed check. */
@@ -221,7 +225,7 @@ export async function listHeatersNeedingCheck({ now = new Date() }: { now?: Date
 
 export async function listHeaterChecks({ heaterId, limit = 50 }: { heaterId: number; limit?: number }, trx?: Db): Promise<HeaterCheckRecord[]> {
   const rows = await checksQuery(trx).where("heater_checks.heater_id", heaterId).orderBy("heater_checks.id", "desc").limit(limit);
-  return rows.map(toCheck);
+  return (rows as CheckRow[]).map(toCheck);
 }
 
 export type HeaterFields = { assetTag: string; description?: string | null; checkIntervalDays: number };

@@ -2,7 +2,8 @@
 // rows were written), each start and finish audited in the same transaction.
 import { conn, db, type Db } from "../client";
 import { insertAuditEntry } from "./audit-log";
-import { num, parseJson, type DbRow } from "./rows";
+import { num, parseJson } from "./rows";
+import type { ExportRow } from "../tables";
 
 export type ExportFormat = "xlsx" | "csv";
 export type ExportStatus = "running" | "done" | "failed";
@@ -18,16 +19,16 @@ export type ExportRecord = {
   finishedAt: Date | null;
 };
 
-function toExport(r: DbRow): ExportRecord {
+function toExport(r: ExportRow): ExportRecord {
   return {
     id: Number(r.id),
     userId: Number(r.user_id),
-    format: r.format as ExportFormat,
-    filter: parseJson<Record<string, unknown>>(r.filter, {}),
-    status: r.status as ExportStatus,
+    format: r.format,
+    filter: parseJson<ExportRecord["filter"]>(r.filter, {}),
+    status: r.status,
     rowCount: num(r.row_count),
-    startedAt: r.started_at as Date,
-    finishedAt: (r.finished_at as Date | null) ?? null,
+    startedAt: r.started_at,
+    finishedAt: r.finished_at ?? null,
   };
 }
 

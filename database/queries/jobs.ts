@@ -2,6 +2,8 @@
 // the coils assigned to them. Edits use optimistic locking on `version`.
 import type { JobStatus } from "@/domain/office/rules";
 import { conn, type Db } from "../client";
+import type { CoilTableRow, JobRow as JobTableRow } from "../tables";
+import { isoDay } from "./rows";
 
 export type JobRecord = {
   id: number;
@@ -24,33 +26,8 @@ export type JobRecord = {
   updatedAt: Date;
 };
 
-type JobRow = {
-  id: number;
-  code: string;
-  name: string;
-  place: string | null;
-  latitude: number | null;
-  longitude: number | null;
-  starts_on: Date | string | null;
-  ends_on: Date | string | null;
-  status: JobStatus;
-  procedure_id: number;
-  procedure_code: string;
-  procedure_name: string;
-  crew_id: number | null;
-  crew_name: string | null;
-  pipe_sizes: string | null;
-  version: number;
-  created_at: Date;
-  updated_at: Date;
-};
-
-/** DATE column → 'YYYY-MM-DD' (the driver runs in UTC, so the Date is UTC midnight). */
-export function isoDay(value: Date | string | null | undefined): string | null {
-  if (value == null) return null;
-  if (typeof value === "string") return value.slice(0, 10);
-  return value.toISOString().slice(0, 10);
-}
+/** A jobs row with its procedure's code and name and its crew's name. */
+type JobRow = JobTableRow & { procedure_code: string; procedure_name: string; crew_name: string | null };
 
 function toJob(row: JobRow): JobRecord {
   return {
@@ -178,16 +155,16 @@ export async function listAssignableCoils({ jobId }: { jobId?: number } = {}, tr
   return (await q).map(toJobCoil);
 }
 
-function toJobCoil(r: Record<string, unknown>): JobCoil {
+function toJobCoil(r: Pick<CoilTableRow, "id" | "coil_code" | "lot" | "nominal_size" | "sdr" | "status" | "remaining_m" | "version">): JobCoil {
   return {
-    id: r.id as number,
-    coilCode: r.coil_code as string,
-    lot: r.lot as string,
-    nominalSize: r.nominal_size as string,
+    id: r.id,
+    coilCode: r.coil_code,
+    lot: r.lot,
+    nominalSize: r.nominal_size,
     sdr: Number(r.sdr),
-    status: r.status as string,
+    status: r.status,
     remainingM: Number(r.remaining_m),
-    version: r.version as number,
+    version: r.version,
   };
 }
 

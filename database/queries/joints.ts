@@ -11,6 +11,7 @@ import type { OverrideGrant } from "@/domain/joints/rules";
 import { conn, type Db } from "../client";
 import { toCoil, type Coil } from "./coils";
 import { num, parseJson, recordedValueRow, setList, text, toRecordedValues, type DbRow } from "./rows";
+import type { JointOverrideRow, JointRevisionRow, JointRow } from "../tables";
 
 export type ReviewState = "pending-review" | "accepted" | "cut-out";
 export type RevisionKind = "recorded" | "corrected" | "accepted" | "cut-out" | "trace-attached";
@@ -59,17 +60,40 @@ export type JointRecord = RecordedValues & {
 
 type Row = DbRow;
 
-function toJoint(r: Row): JointRecord {
-  const coil = (prefix: "ca" | "cb") =>
-    r[`${prefix}_id`] == null
-      ? null
-      : { id: Number(r[`${prefix}_id`]), code: r[`${prefix}_code`] as string, lot: r[`${prefix}_lot`] as string, manufacturer: r[`${prefix}_manufacturer`] as string };
+/** The coil columns jointQuery reads for side `ca` or `cb` (null when the side has no coil). */
+type CoilSide<P extends string> = { [K in `${P}_id`]: number | null } & { [K in `${P}_code` | `${P}_lot` | `${P}_manufacturer`]: string | null };
+
+/** A row of jointQuery: the joint with its job, procedure, equipment, fuser, coils and state. */
+type JointQueryRow = JointRow &
+  CoilSide<"ca"> &
+  CoilSide<"cb"> & {
+    job_code: string;
+    job_name: string;
+    procedure_code: string;
+    procedure_name: string;
+    procedure_version_no: number;
+    machine_tag: string;
+    heater_tag: string;
+    fuser_name: string;
+    review_state: ReviewState | null;
+    revision_no: number | null;
+    replaced_by_joint_id: number | null;
+    replaces_joint_no: number | null;
+    replaced_by_joint_no: number | null;
+  };
+
+function toJoint(r: JointQueryRow): JointRecord {
+  // The coil columns are NOT NULL: with a coil id (the LEFT JOIN found the coil) they are set.
+  const coil = (prefix: "ca" | "cb") => {
+    const id = r[`${prefix}_id`];
+    return id == null ? null : { id: Number(id), code: r[`${prefix}_code`] ?? "", lot: r[`${prefix}_lot`] ?? "", manufacturer: r[`${prefix}_manufacturer`] ?? "" };
+  };
   return {
     id: Number(r.id),
-    clientId: r.client_id as string,
+    clientId: r.client_id,
     jobId: Number(r.job_id),
-    jobCode: r.job_code as string,
-    jobName: r.job_name as string,
+    jobCode: r.job_code,
+    jobName: r.job_name,
     jointNo: Number(r.joint_no),
     kind: r.kind as JointKind,
     coilA: coil("ca"),
@@ -80,30 +104,30 @@ function toJoint(r: Row): JointRecord {
     outsideDiameterMm: Number(r.outside_diameter_mm),
     sdr: Number(r.sdr),
     procedureVersionId: Number(r.procedure_version_id),
-    procedureCode: r.procedure_code as string,
-    procedureName: r.procedure_name as string,
+    procedureCode: r.procedure_code,
+    procedureName: r.procedure_name,
     procedureVersionNo: Number(r.procedure_version_no),
-    machine: { id: Number(r.machine_id), assetTag: r.machine_tag as string },
-    heater: { id: Number(r.heater_id), assetTag: r.heater_tag as string },
-    fuser: { id: Number(r.fuser_id), name: r.fuser_name as string },
-    madeAt: r.made_at as Date,
+    machine: { id: Number(r.machine_id), assetTag: r.machine_tag },
+    heater: { id: Number(r.heater_id), assetTag: r.heater_tag },
+    fuser: { id: Number(r.fuser_id), name: r.fuser_name },
+    madeAt: r.made_at,
     station: text(r.station),
     latitude: num(r.latitude),
     longitude: num(r.longitude),
     ambientC: num(r.ambient_c),
-    shelter: (r.shelter as Shelter | null) ?? null,
+    shelter: r.shelter ?? null,
     ...toRecordedValues(r),
     timedFields: setList<TimedPhase>(r.timed_fields),
     plan: parseJson<FusionPlan>(r.plan, null as unknown as FusionPlan),
-    outcome: r.outcome as JointOutcome,
+    outcome: r.outcome,
     findings: parseJson<JointFinding[]>(r.findings, []),
     replacesJointId: num(r.replaces_joint_id),
     replacesJointNo: num(r.replaces_joint_no),
     replacedByJointId: num(r.replaced_by_joint_id),
     replacedByJointNo: num(r.replaced_by_joint_no),
-    reviewState: (r.review_state as ReviewState) ?? "pending-review",
+    reviewState: r.review_state ?? "pending-review",
     revisionNo: Number(r.revision_no ?? 1),
-    recordedAt: r.recorded_at as Date,
+    recordedAt: r.recorded_at,
   };
 }
 
@@ -147,13 +171,13 @@ function jointQuery(trx?: Db) {
 }
 
 export async function findJointById({ id }: { id: number }, trx?: Db): Promise<JointRecord | null> {
-  const row = (await jointQuery(trx).where("j.id", id).first()) as Row | undefined;
+  const row = (await jointQuery(trx).where("j.id", id).first()) as JointQueryRow | undefined;
   return row ? toJoint(row) : null;
 }
 
 /** The joint a device submission created (idempotency key), with the fuser who made it. */
 export async function findJointByClientId({ clientId }: { clientId: string }, trx?: Db): Promise<JointRecord | null> {
-  const row = (await jointQuery(trx).where("j.client_id", clientId).first()) as Row | undefined;
+  const row = (await jointQuery(trx).where("j.client_id", clientId).first()) as JointQueryRow | undefined;
   return row ? toJoint(row) : null;
 }
 
@@ -169,7 +193,7 @@ export async function listJoints({ jobId, fuserId, clientId, beforeId, limit = 5
     const anchor = (await conn(trx)("joints").where({ id: beforeId }).first("made_at")) as { made_at: Date } | undefined;
     if (anchor) q.where((w) => w.where("j.made_at", "<", anchor.made_at).orWhere((o) => o.where("j.made_at", anchor.made_at).andWhere("j.id", "<", beforeId)));
   }
-  return ((await q) as Row[]).map(toJoint);
+  return ((await q) as JointQueryRow[]).map(toJoint);
 }
 
 /** Out-of-limits joints on these jobs that no remake has replaced yet (newest first). */
@@ -184,14 +208,14 @@ export async function listJointsAwaitingRemake({ jobIds, limit = 50 }: { jobIds:
     .whereNot("s.review_state", "accepted")
     .orderBy([{ column: "j.made_at", order: "desc" }, { column: "j.id", order: "desc" }])
     .limit(limit)
-    .select("j.id", "j.job_id", "j.joint_no", "j.made_at", "j.findings", "s.review_state", "ca.coil_code")) as Row[];
+    .select("j.id", "j.job_id", "j.joint_no", "j.made_at", "j.findings", "s.review_state", "ca.coil_code")) as (Pick<JointRow, "id" | "job_id" | "joint_no" | "made_at" | "findings"> & { review_state: ReviewState; coil_code: string | null })[];
   return rows.map((r) => ({
     id: Number(r.id),
     jobId: Number(r.job_id),
     jointNo: Number(r.joint_no),
-    madeAt: r.made_at as Date,
-    reviewState: r.review_state as ReviewState,
-    coilACode: (r.coil_code as string | null) ?? null,
+    madeAt: r.made_at,
+    reviewState: r.review_state,
+    coilACode: r.coil_code ?? null,
     findings: parseJson<JointFinding[]>(r.findings, []),
   }));
 }
@@ -336,17 +360,17 @@ export type JointRevision = {
 };
 
 export async function listJointRevisions({ jointId }: { jointId: number }, trx?: Db): Promise<JointRevision[]> {
-  const rows = (await conn(trx)("joint_revisions as r").join("users as u", "u.id", "r.by_user_id").where("r.joint_id", jointId).orderBy("r.revision_no").select("r.*", "u.name as by_user_name")) as Row[];
+  const rows = (await conn(trx)("joint_revisions as r").join("users as u", "u.id", "r.by_user_id").where("r.joint_id", jointId).orderBy("r.revision_no").select("r.*", "u.name as by_user_name")) as (JointRevisionRow & { by_user_name: string })[];
   return rows.map((r) => ({
     id: Number(r.id),
     revisionNo: Number(r.revision_no),
-    kind: r.kind as RevisionKind,
+    kind: r.kind,
     byUserId: Number(r.by_user_id),
-    byUserName: r.by_user_name as string,
-    at: r.at as Date,
-    reason: (r.reason as string | null) ?? null,
-    changes: parseJson<Record<string, unknown> | null>(r.changes, null),
-    reviewState: r.review_state as ReviewState,
+    byUserName: r.by_user_name,
+    at: r.at,
+    reason: r.reason ?? null,
+    changes: parseJson<JointRevision["changes"]>(r.changes, null),
+    reviewState: r.review_state,
   }));
 }
 
@@ -362,19 +386,22 @@ export async function countJoints({ jobId }: { jobId?: number } = {}, trx?: Db):
 
 export type OverrideRecord = OverrideGrant & { reason: string; grantedById: number; grantedByName: string; jobCode: string; subjectLabel: string };
 
-function toOverride(r: Row): OverrideRecord {
+/** A row of overrideQuery: the override with its job code, grantor and subject's tag or coil id. */
+type OverrideRow = JointOverrideRow & { job_code: string; granted_by_name: string; heater_tag: string | null; coil_code: string | null };
+
+function toOverride(r: OverrideRow): OverrideRecord {
   return {
     id: Number(r.id),
     jobId: Number(r.job_id),
-    jobCode: r.job_code as string,
-    subjectType: r.subject_type as "heater" | "coil",
+    jobCode: r.job_code,
+    subjectType: r.subject_type,
     subjectId: Number(r.subject_id),
-    subjectLabel: ((r.subject_type === "heater" ? r.heater_tag : r.coil_code) as string | null) ?? `#${String(r.subject_id)}`,
-    reason: r.reason as string,
+    subjectLabel: (r.subject_type === "heater" ? r.heater_tag : r.coil_code) ?? `#${String(r.subject_id)}`,
+    reason: r.reason,
     grantedById: Number(r.granted_by),
-    grantedByName: r.granted_by_name as string,
-    grantedAt: r.granted_at as Date,
-    expiresAt: r.expires_at as Date,
+    grantedByName: r.granted_by_name,
+    grantedAt: r.granted_at,
+    expiresAt: r.expires_at,
   };
 }
 
@@ -406,7 +433,7 @@ export async function insertJointOverride(
 /** Overrides on these jobs that have not expired by `at` (newest first). */
 export async function listOverridesForJobs({ jobIds, at }: { jobIds: number[]; at: Date }, trx?: Db): Promise<OverrideRecord[]> {
   if (jobIds.length === 0) return [];
-  const rows = (await overrideQuery(trx).whereIn("o.job_id", jobIds).where("o.expires_at", ">=", at).orderBy("o.id", "desc")) as Row[];
+  const rows = (await overrideQuery(trx).whereIn("o.job_id", jobIds).where("o.expires_at", ">=", at).orderBy("o.id", "desc")) as OverrideRow[];
   return rows.map(toOverride);
 }
 
@@ -420,7 +447,7 @@ export async function listOverridesForSubjects(
   q.where((w) => {
     for (const s of subjects) w.orWhere((o) => o.where("o.subject_type", s.type).andWhere("o.subject_id", s.id));
   });
-  return ((await q.orderBy("o.id", "desc")) as Row[]).map(toOverride);
+  return ((await q.orderBy("o.id", "desc")) as OverrideRow[]).map(toOverride);
 }
 
 export async function insertOverrideUse(u: { jointId: number; overrideId: number; blockKind: string; message: string }, trx: Db): Promise<void> {
@@ -428,8 +455,8 @@ export async function insertOverrideUse(u: { jointId: number; overrideId: number
 }
 
 export async function listOverrideUsesForJoint({ jointId }: { jointId: number }, trx?: Db): Promise<(OverrideRecord & { blockKind: string; message: string })[]> {
-  const rows = (await overrideQuery(trx).join("joint_override_uses as ou", "ou.override_id", "o.id").where("ou.joint_id", jointId).select("ou.block_kind", "ou.message").orderBy("o.id")) as Row[];
-  return rows.map((r) => ({ ...toOverride(r), blockKind: r.block_kind as string, message: r.message as string }));
+  const rows = (await overrideQuery(trx).join("joint_override_uses as ou", "ou.override_id", "o.id").where("ou.joint_id", jointId).select("ou.block_kind", "ou.message").orderBy("o.id")) as (OverrideRow & { block_kind: string; message: string })[];
+  return rows.map((r) => ({ ...toOverride(r), blockKind: r.block_kind, message: r.message }));
 }
 
 // ---------------------------------------------------------------------------------------

@@ -8,6 +8,7 @@ import type { Knex } from "knex";
 import { afterFailedAttempt, MAX_MAIL_ATTEMPTS } from "@/domain/review/backoff";
 import { composeDigest, latestDigestCutoff, type DigestEvent } from "@/domain/review/digest";
 import { conn, db, isDuplicateKey, type Db } from "../client";
+import type { MailOutboxRow } from "../tables";
 
 export type MailStatus = "queued" | "sending" | "sent" | "failed";
 
@@ -26,20 +27,7 @@ export type OutboxMail = {
   sentAt: Date | null;
 };
 
-type OutboxRow = {
-  id: number;
-  to_address: string;
-  subject: string;
-  body_text: string;
-  kind: string;
-  dedupe_key: string | null;
-  status: MailStatus;
-  attempts: number;
-  next_attempt_at: Date;
-  last_error: string | null;
-  created_at: Date;
-  sent_at: Date | null;
-};
+type OutboxRow = MailOutboxRow;
 
 function toMail(row: OutboxRow): OutboxMail {
   return {

@@ -5,6 +5,7 @@
 import type { FusionStandard, ProcedureDefinition } from "@/domain/fusion/procedures";
 import { readProcedureDefinition } from "@/domain/office/procedures";
 import { conn, type Db } from "../client";
+import type { ProcedureRow, ProcedureVersionRow } from "../tables";
 
 export type ProcedureRecord = {
   id: number;
@@ -30,32 +31,36 @@ export type ProcedureVersionRecord = {
   isCurrent: boolean;
 };
 
-function toProcedure(r: Record<string, unknown>): ProcedureRecord {
+function toProcedure(r: ProcedureRow): ProcedureRecord {
   return {
-    id: r.id as number,
-    code: r.code as string,
-    name: r.name as string,
+    id: r.id,
+    code: r.code,
+    name: r.name,
+    // The column holds a domain/fusion standard id (written from FusionStandard only).
     standard: r.standard as FusionStandard,
     isActive: Boolean(r.is_active),
-    createdAt: r.created_at as Date,
+    createdAt: r.created_at,
   };
 }
 
-function toVersion(r: Record<string, unknown>): ProcedureVersionRecord {
-  const parsed = readProcedureDefinition(r.definition as string);
+/** A procedure_versions row with its procedure's code and name and the publisher's name (versionQuery). */
+type VersionRow = ProcedureVersionRow & { procedure_code: string; procedure_name: string; published_by_name: string | null };
+
+function toVersion(r: VersionRow): ProcedureVersionRecord {
+  const parsed = readProcedureDefinition(r.definition);
   if (!parsed.ok) throw new Error(`Procedure version ${String(r.id)}: ${parsed.message}`);
   return {
-    id: r.id as number,
-    procedureId: r.procedure_id as number,
-    procedureCode: r.procedure_code as string,
-    procedureName: r.procedure_name as string,
-    versionNo: r.version_no as number,
+    id: r.id,
+    procedureId: r.procedure_id,
+    procedureCode: r.procedure_code,
+    procedureName: r.procedure_name,
+    versionNo: r.version_no,
     definition: parsed.definition,
-    notes: (r.notes as string | null) ?? null,
-    publishedBy: (r.published_by as number | null) ?? null,
-    publishedByName: (r.published_by_name as string | null) ?? null,
-    publishedAt: r.published_at as Date,
-    supersededAt: (r.superseded_at as Date | null) ?? null,
+    notes: r.notes ?? null,
+    publishedBy: r.published_by ?? null,
+    publishedByName: r.published_by_name ?? null,
+    publishedAt: r.published_at,
+    supersededAt: r.superseded_at ?? null,
     isCurrent: r.superseded_at == null,
   };
 }
@@ -109,7 +114,7 @@ export async function listProcedureVersions({ procedureId }: { procedureId: numb
     .where("procedure_versions.procedure_id", procedureId)
     .orderBy("procedure_versions.version_no", "desc")
     .select(k("joints").count("*").whereRaw("joints.procedure_version_id = procedure_versions.id").as("joint_count"));
-  return rows.map((r: Record<string, unknown>) => ({ ...toVersion(r), jointCount: Number(r.joint_count ?? 0) }));
+  return rows.map((r: VersionRow & { joint_count: number | null }) => ({ ...toVersion(r), jointCount: Number(r.joint_count ?? 0) }));
 }
 
 /** Current versions of all active procedures (for pickers: jobs, heater checks). */

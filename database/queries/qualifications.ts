@@ -5,7 +5,8 @@ import type { QualificationMethod } from "@/domain/office/schemas";
 import { qualificationOverview, type PersonProcedureStatus } from "@/domain/office/qualifications";
 import { isoDateOf } from "@/domain/office/dates";
 import { conn, type Db } from "../client";
-import { isoDay } from "./jobs";
+import type { QualificationFailureRow, QualificationRow } from "../tables";
+import { day, num } from "./rows";
 
 export type QualificationRecord = {
   id: number;
@@ -49,35 +50,38 @@ function failureQuery(trx?: Db) {
     .select("qualification_failures.*", "users.name as user_name", "procedures.code as procedure_code");
 }
 
-function toQualification(r: Record<string, unknown>): QualificationRecord {
+/** A qualifications or qualification_failures row with the person's name and the procedure's code. */
+type Named = { user_name: string; procedure_code: string };
+
+function toQualification(r: QualificationRow & Named): QualificationRecord {
   return {
-    id: r.id as number,
-    userId: r.user_id as number,
-    userName: r.user_name as string,
-    procedureId: r.procedure_id as number,
-    procedureCode: r.procedure_code as string,
-    qualifiedOn: isoDay(r.qualified_on as Date) as string,
-    method: r.method as QualificationMethod,
-    specimenResult: r.specimen_result as string,
-    evaluator: r.evaluator as string,
-    evidenceAttachmentId: r.evidence_attachment_id == null ? null : Number(r.evidence_attachment_id),
-    recordedBy: (r.recorded_by as number | null) ?? null,
-    recordedAt: r.recorded_at as Date,
+    id: r.id,
+    userId: r.user_id,
+    userName: r.user_name,
+    procedureId: r.procedure_id,
+    procedureCode: r.procedure_code,
+    qualifiedOn: day(r.qualified_on),
+    method: r.method,
+    specimenResult: r.specimen_result,
+    evaluator: r.evaluator,
+    evidenceAttachmentId: num(r.evidence_attachment_id),
+    recordedBy: r.recorded_by ?? null,
+    recordedAt: r.recorded_at,
   };
 }
 
-function toFailure(r: Record<string, unknown>): QualificationFailureRecord {
+function toFailure(r: QualificationFailureRow & Named): QualificationFailureRecord {
   return {
-    id: r.id as number,
-    userId: r.user_id as number,
-    userName: r.user_name as string,
-    procedureId: r.procedure_id as number,
-    procedureCode: r.procedure_code as string,
-    failedOn: isoDay(r.failed_on as Date) as string,
-    jointId: r.joint_id == null ? null : Number(r.joint_id),
-    notes: (r.notes as string | null) ?? null,
-    recordedBy: (r.recorded_by as number | null) ?? null,
-    recordedAt: r.recorded_at as Date,
+    id: r.id,
+    userId: r.user_id,
+    userName: r.user_name,
+    procedureId: r.procedure_id,
+    procedureCode: r.procedure_code,
+    failedOn: day(r.failed_on),
+    jointId: num(r.joint_id),
+    notes: r.notes ?? null,
+    recordedBy: r.recorded_by ?? null,
+    recordedAt: r.recorded_at,
   };
 }
 
@@ -85,22 +89,22 @@ function toFailure(r: Record<string, unknown>): QualificationFailureRecord {
 export async function listQualificationsForUser({ userId, procedureId }: { userId: number; procedureId?: number }, trx?: Db): Promise<QualificationRecord[]> {
   const q = qualificationQuery(trx).where("qualifications.user_id", userId).orderBy([{ column: "qualifications.qualified_on", order: "desc" }, { column: "qualifications.id", order: "desc" }]);
   if (procedureId) q.where("qualifications.procedure_id", procedureId);
-  return (await q).map(toQualification);
+  return ((await q) as (QualificationRow & Named)[]).map(toQualification);
 }
 
 /** A person's production-joint test failures (optionally for one procedure), newest first. */
 export async function listQualificationFailuresForUser({ userId, procedureId }: { userId: number; procedureId?: number }, trx?: Db): Promise<QualificationFailureRecord[]> {
   const q = failureQuery(trx).where("qualification_failures.user_id", userId).orderBy([{ column: "qualification_failures.failed_on", order: "desc" }, { column: "qualification_failures.id", order: "desc" }]);
   if (procedureId) q.where("qualification_failures.procedure_id", procedureId);
-  return (await q).map(toFailure);
+  return ((await q) as (QualificationFailureRow & Named)[]).map(toFailure);
 }
 
 export async function listAllQualifications({ limit = 500 }: { limit?: number } = {}, trx?: Db): Promise<QualificationRecord[]> {
-  return (await qualificationQuery(trx).orderBy([{ column: "qualifications.qualified_on", order: "desc" }, { column: "qualifications.id", order: "desc" }]).limit(limit)).map(toQualification);
+  return ((await qualificationQuery(trx).orderBy([{ column: "qualifications.qualified_on", order: "desc" }, { column: "qualifications.id", order: "desc" }]).limit(limit)) as (QualificationRow & Named)[]).map(toQualification);
 }
 
 export async function listAllQualificationFailures({ limit = 500 }: { limit?: number } = {}, trx?: Db): Promise<QualificationFailureRecord[]> {
-  return (await failureQuery(trx).orderBy([{ column: "qualification_failures.failed_on", order: "desc" }, { column: "qualification_failures.id", order: "desc" }]).limit(limit)).map(toFailure);
+  return ((await failureQuery(trx).orderBy([{ column: "qualification_failures.failed_on", order: "desc" }, { column: "qualification_failures.id", order: "desc" }]).limit(limit)) as (QualificationFailureRow & Named)[]).map(toFailure);
 }
 
 export type QualificationStatusRow = PersonProcedureStatus & { userName: string; userIsActive: boolean; procedureCode: string; procedureName: string };
@@ -117,10 +121,10 @@ export async function qualificationStatusOverview({ now = new Date(), on, userId
     qq.where({ user_id: userId });
     fq.where({ user_id: userId });
   }
-  const [qs, fs] = await Promise.all([qq, fq]);
+  const [qs, fs] = (await Promise.all([qq, fq])) as [Pick<QualificationRow, "user_id" | "procedure_id" | "qualified_on">[], Pick<QualificationFailureRow, "user_id" | "procedure_id" | "failed_on">[]];
   const rows = qualificationOverview({
-    qualifications: qs.map((r: Record<string, unknown>) => ({ userId: r.user_id as number, procedureId: r.procedure_id as number, qualifiedOn: isoDay(r.qualified_on as Date) as string })),
-    failures: fs.map((r: Record<string, unknown>) => ({ userId: r.user_id as number, procedureId: r.procedure_id as number, failedOn: isoDay(r.failed_on as Date) as string })),
+    qualifications: qs.map((r) => ({ userId: r.user_id, procedureId: r.procedure_id, qualifiedOn: day(r.qualified_on) })),
+    failures: fs.map((r) => ({ userId: r.user_id, procedureId: r.procedure_id, failedOn: day(r.failed_on) })),
     on: on ?? isoDateOf(now),
   });
   if (!rows.length) return [];

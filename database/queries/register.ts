@@ -21,6 +21,7 @@ import {
 import type { Knex } from "knex";
 import { conn, type Db } from "../client";
 import { num, recordedValueColumns, setList, text, toRecordedValues, type DbRow } from "./rows";
+import type { FusionMachineRow, JobRow, JointRow as JointTableRow, UserRow } from "../tables";
 
 type SortKey = { col: string; nullable: boolean; isDate?: boolean };
 
@@ -305,7 +306,23 @@ async function pageIds(resolved: Resolved, sort: RegisterSort, dir: SortDirectio
   return { ids: page.map((r) => Number(r.id)), last, hasMore };
 }
 
-type JointRow = DbRow;
+/** A row of ROW_SELECT: the joint with its job, fuser, equipment, coils, procedure and state. */
+type JointRow = Omit<JointTableRow, "outcome"> & {
+  job_code: string;
+  fuser_name: string;
+  machine_tag: string;
+  heater_tag: string;
+  coil_a_code: string | null;
+  coil_a_lot: string | null;
+  coil_a_nominal_size: string | null;
+  coil_a_series: string | null;
+  coil_b_code: string | null;
+  coil_b_lot: string | null;
+  procedure_code: string;
+  procedure_version_no: number;
+  outcome: RegisterRow["outcome"];
+  review_state: RegisterRow["reviewState"];
+};
 
 const ROW_SELECT = `
   j.id, j.job_id, jb.code AS job_code, j.joint_no, j.kind, j.made_at, j.station, j.latitude, j.longitude,
@@ -332,18 +349,18 @@ function toRegisterRow(r: JointRow): RegisterRow {
   return {
     id: Number(r.id),
     jobId: Number(r.job_id),
-    jobCode: r.job_code as string,
+    jobCode: r.job_code,
     jointNo: Number(r.joint_no),
-    kind: r.kind as RegisterRow["kind"],
-    madeAt: r.made_at as Date,
+    kind: r.kind,
+    madeAt: r.made_at,
     station: text(r.station),
     latitude: num(r.latitude),
     longitude: num(r.longitude),
     fuserId: Number(r.fuser_id),
-    fuserName: r.fuser_name as string,
+    fuserName: r.fuser_name,
     machineId: Number(r.machine_id),
-    machineTag: r.machine_tag as string,
-    heaterTag: r.heater_tag as string,
+    machineTag: r.machine_tag,
+    heaterTag: r.heater_tag,
     coilACode: text(r.coil_a_code),
     coilALot: text(r.coil_a_lot),
     coilBCode: text(r.coil_b_code),
@@ -354,10 +371,10 @@ function toRegisterRow(r: JointRow): RegisterRow {
     outsideDiameterMm: Number(r.outside_diameter_mm),
     sdr: Number(r.sdr),
     procedureVersionId: Number(r.procedure_version_id),
-    procedureCode: r.procedure_code as string,
+    procedureCode: r.procedure_code,
     procedureVersionNo: Number(r.procedure_version_no),
-    outcome: r.outcome as RegisterRow["outcome"],
-    reviewState: r.review_state as RegisterRow["reviewState"],
+    outcome: r.outcome,
+    reviewState: r.review_state,
     findingParameters: setList<JointParameter>(r.finding_parameters),
     ambientC: num(r.ambient_c),
     ...toRecordedValues(r),
@@ -502,13 +519,13 @@ export type RegisterFilterNames = { job: string | null; fuser: string | null; ma
 export async function findRegisterFilterNames({ filter }: { filter: RegisterFilter }, trx?: Db): Promise<RegisterFilterNames> {
   const k = conn(trx);
   const [job, fuser, machine] = await Promise.all([
-    filter.job ? k("jobs").where("id", filter.job).first("code", "name") : null,
-    filter.fuser ? k("users").where("id", filter.fuser).first("name") : null,
-    filter.machine ? k("fusion_machines").where("id", filter.machine).first("asset_tag") : null,
+    filter.job ? (k("jobs").where("id", filter.job).first("code", "name") as Promise<Pick<JobRow, "code" | "name"> | undefined>) : null,
+    filter.fuser ? (k("users").where("id", filter.fuser).first("name") as Promise<Pick<UserRow, "name"> | undefined>) : null,
+    filter.machine ? (k("fusion_machines").where("id", filter.machine).first("asset_tag") as Promise<Pick<FusionMachineRow, "asset_tag"> | undefined>) : null,
   ]);
   return {
     job: job ? `${job.code} — ${job.name}` : null,
-    fuser: fuser ? (fuser.name as string) : null,
-    machine: machine ? (machine.asset_tag as string) : null,
+    fuser: fuser ? fuser.name : null,
+    machine: machine ? machine.asset_tag : null,
   };
 }

@@ -9,7 +9,8 @@ import type { ReviewState } from "@/domain/review/labels";
 import type { RecordedValues } from "@/domain/joints/values";
 import type { ChartPoint } from "@/domain/review/trace-check";
 import { conn, type Db } from "../client";
-import { addJointFindings, jointHasFinding, num, parseJson, text, toRecordedValues, type DbRow } from "./rows";
+import { addJointFindings, jointHasFinding, num, parseJson, text, toRecordedValues } from "./rows";
+import type { AttachmentRow, JointRevisionRow, JointRow, JointTraceRow } from "../tables";
 
 export type RevisionKind = "recorded" | "corrected" | "accepted" | "cut-out" | "trace-attached";
 
@@ -64,7 +65,21 @@ export type ReviewItem = {
 
 export type RevisionRecord = { id: number; revisionNo: number; kind: RevisionKind; byUserId: number; byName: string; at: Date; reason: string | null; reviewState: ReviewState; changes: Record<string, unknown> | null };
 
-type Row = DbRow;
+/** A row of baseJointQuery: the joint with its state, job, fuser and equipment tags. */
+type QueueRow = JointRow & {
+  review_state: ReviewState;
+  revision_no: number;
+  state_outcome: JointOutcome;
+  replaced_by_joint_id: number | null;
+  job_code: string;
+  job_name: string;
+  fuser_name: string;
+  machine_tag: string;
+  heater_tag: string;
+};
+
+/** A joint_traces row with the uploader's name. */
+type TraceRow = Omit<JointTraceRow, "chart" | "finding_parameters" | "joint_id" | "uploaded_by"> & { joint_id?: number; chart?: string; uploaded_by_name: string | null };
 
 function baseJointQuery(k: Db) {
   return k("joint_states as js")
@@ -87,28 +102,28 @@ function baseJointQuery(k: Db) {
     );
 }
 
-function toItem(r: Row): Omit<ReviewItem, "photos" | "trace"> {
+function toItem(r: QueueRow): Omit<ReviewItem, "photos" | "trace"> {
   const plan = parseJson<FusionPlan | null>(r.plan, null);
   return {
     jointId: Number(r.id),
     jobId: Number(r.job_id),
-    jobCode: r.job_code as string,
-    jobName: r.job_name as string,
+    jobCode: r.job_code,
+    jobName: r.job_name,
     jointNo: Number(r.joint_no),
-    kind: r.kind as string,
+    kind: r.kind,
     fuserId: Number(r.fuser_id),
-    fuserName: r.fuser_name as string,
+    fuserName: r.fuser_name,
     machineId: Number(r.machine_id),
-    machineTag: r.machine_tag as string,
-    heaterTag: r.heater_tag as string,
+    machineTag: r.machine_tag,
+    heaterTag: r.heater_tag,
     procedureLabel: plan?.procedureLabel ?? null,
-    madeAt: r.made_at as Date,
+    madeAt: r.made_at,
     station: text(r.station),
     outsideDiameterMm: Number(r.outside_diameter_mm),
     sdr: Number(r.sdr),
-    outcome: r.state_outcome as JointOutcome,
-    recordedOutcome: r.outcome as JointOutcome,
-    reviewState: r.review_state as ReviewState,
+    outcome: r.state_outcome,
+    recordedOutcome: r.outcome,
+    reviewState: r.review_state,
     revisionNo: Number(r.revision_no),
     findings: parseJson<JointFinding[]>(r.findings, []),
     plan,
@@ -118,34 +133,34 @@ function toItem(r: Row): Omit<ReviewItem, "photos" | "trace"> {
   };
 }
 
-function toTrace(r: Row): TraceSummary {
+function toTrace(r: TraceRow): TraceSummary {
   return {
     id: Number(r.id),
     attachmentId: Number(r.attachment_id),
     revisionNo: Number(r.revision_no),
     sampleCount: Number(r.sample_count),
-    pressureUnit: r.pressure_unit as "mpa" | "psi",
-    outcome: r.outcome as JointOutcome,
+    pressureUnit: r.pressure_unit,
+    outcome: r.outcome,
     findings: parseJson<JointFinding[]>(r.findings, []),
     reading: parseJson<PressureTraceReading>(r.reading, null as unknown as PressureTraceReading),
-    uploadedAt: r.uploaded_at as Date,
-    uploadedByName: (r.uploaded_by_name as string) ?? "",
+    uploadedAt: r.uploaded_at,
+    uploadedByName: r.uploaded_by_name ?? "",
   };
 }
 
 async function withEvidence(k: Db, items: Omit<ReviewItem, "photos" | "trace">[]): Promise<ReviewItem[]> {
   if (items.length === 0) return [];
   const ids = items.map((i) => i.jointId);
-  const photos = (await k("attachments").whereIn("joint_id", ids).where("kind", "bead-photo").orderBy("id").select("id", "joint_id", "original_name", "content_type")) as Row[];
+  const photos = (await k("attachments").whereIn("joint_id", ids).where("kind", "bead-photo").orderBy("id").select("id", "joint_id", "original_name", "content_type")) as Pick<AttachmentRow, "id" | "joint_id" | "original_name" | "content_type">[];
   const latest = k("joint_traces").whereIn("joint_id", ids).groupBy("joint_id").select("joint_id").max({ max_id: "id" });
   const traces = (await k("joint_traces as t")
     .join("users as u", "u.id", "t.uploaded_by")
     .whereIn("t.id", k.from(latest.as("l")).select("max_id"))
-    .select("t.id", "t.joint_id", "t.attachment_id", "t.revision_no", "t.sample_count", "t.pressure_unit", "t.outcome", "t.findings", "t.reading", "t.uploaded_at", "u.name as uploaded_by_name")) as Row[];
+    .select("t.id", "t.joint_id", "t.attachment_id", "t.revision_no", "t.sample_count", "t.pressure_unit", "t.outcome", "t.findings", "t.reading", "t.uploaded_at", "u.name as uploaded_by_name")) as TraceRow[];
   const traceBy = new Map(traces.map((t) => [Number(t.joint_id), toTrace(t)]));
   return items.map((item) => ({
     ...item,
-    photos: photos.filter((p) => Number(p.joint_id) === item.jointId).map((p) => ({ id: Number(p.id), originalName: (p.original_name as string | null) ?? null, contentType: p.content_type as string })),
+    photos: photos.filter((p) => Number(p.joint_id) === item.jointId).map((p) => ({ id: Number(p.id), originalName: p.original_name ?? null, contentType: p.content_type })),
     trace: traceBy.get(item.jointId) ?? null,
   }));
 }
@@ -176,8 +191,8 @@ export async function listReviewQueue({ filter = {}, limit = 50 }: { filter?: Qu
       .where("js.outcome", outcome)
       .orderBy([{ column: "js.made_at" }, { column: "js.joint_id" }])
       .limit(n);
-  const out = ((await part("out-of-limits", limit)) as Row[]).map(toItem);
-  const within = out.length < limit ? ((await part("within-limits", limit - out.length)) as Row[]).map(toItem) : [];
+  const out = ((await part("out-of-limits", limit)) as QueueRow[]).map(toItem);
+  const within = out.length < limit ? ((await part("within-limits", limit - out.length)) as QueueRow[]).map(toItem) : [];
   const counts = (await applyFilter(baseJointQuery(k).clearSelect(), filter)
     .where("js.review_state", "pending-review")
     .select("js.outcome")
@@ -189,23 +204,23 @@ export async function listReviewQueue({ filter = {}, limit = 50 }: { filter?: Qu
 
 export async function findReviewItem({ jointId }: { jointId: number }, trx?: Db): Promise<ReviewItem | null> {
   const k = conn(trx);
-  const row = (await baseJointQuery(k).where("j.id", jointId).first()) as Row | undefined;
+  const row = (await baseJointQuery(k).where("j.id", jointId).first()) as QueueRow | undefined;
   if (!row) return null;
   return (await withEvidence(k, [toItem(row)]))[0] ?? null;
 }
 
 export async function listJointRevisions({ jointId }: { jointId: number }, trx?: Db): Promise<RevisionRecord[]> {
-  const rows = (await conn(trx)("joint_revisions as r").join("users as u", "u.id", "r.by_user_id").where("r.joint_id", jointId).orderBy("r.revision_no").select("r.*", "u.name as by_name")) as Row[];
+  const rows = (await conn(trx)("joint_revisions as r").join("users as u", "u.id", "r.by_user_id").where("r.joint_id", jointId).orderBy("r.revision_no").select("r.*", "u.name as by_name")) as (JointRevisionRow & { by_name: string })[];
   return rows.map((r) => ({
     id: Number(r.id),
     revisionNo: Number(r.revision_no),
-    kind: r.kind as RevisionKind,
+    kind: r.kind,
     byUserId: Number(r.by_user_id),
-    byName: r.by_name as string,
-    at: r.at as Date,
-    reason: (r.reason as string | null) ?? null,
-    reviewState: r.review_state as ReviewState,
-    changes: parseJson<Record<string, unknown> | null>(r.changes, null),
+    byName: r.by_name,
+    at: r.at,
+    reason: r.reason ?? null,
+    reviewState: r.review_state,
+    changes: parseJson<RevisionRecord["changes"]>(r.changes, null),
   }));
 }
 
@@ -217,16 +232,16 @@ export type JointStateLock = { jointId: number; fuserId: number; reviewState: Re
  */
 export async function lockJointState({ jointId }: { jointId: number }, trx: Db): Promise<JointStateLock | null> {
   // Lock only the projection row (joints and jobs are read without locks: joints is append-only).
-  const state = (await trx("joint_states").where("joint_id", jointId).forUpdate().first("joint_id", "review_state", "revision_no", "outcome")) as Row | undefined;
+  const state = (await trx("joint_states").where("joint_id", jointId).forUpdate().first("joint_id", "review_state", "revision_no", "outcome")) as Pick<QueueRow, "review_state" | "revision_no" | "outcome"> & { joint_id: number } | undefined;
   if (!state) return null;
-  const joint = (await trx("joints as j").join("jobs", "jobs.id", "j.job_id").where("j.id", jointId).first("j.fuser_id", "j.joint_no", "jobs.code as job_code")) as Row;
+  const joint = (await trx("joints as j").join("jobs", "jobs.id", "j.job_id").where("j.id", jointId).first("j.fuser_id", "j.joint_no", "jobs.code as job_code")) as Pick<QueueRow, "fuser_id" | "joint_no" | "job_code">;
   return {
     jointId: Number(state.joint_id),
     fuserId: Number(joint.fuser_id),
-    reviewState: state.review_state as ReviewState,
+    reviewState: state.review_state,
     revisionNo: Number(state.revision_no),
-    outcome: state.outcome as JointOutcome,
-    jobCode: joint.job_code as string,
+    outcome: state.outcome,
+    jobCode: joint.job_code,
     jointNo: Number(joint.joint_no),
   };
 }
@@ -293,7 +308,7 @@ export async function insertJointTrace(
 
 /** The newest trace of a joint with its chart points. */
 export async function findLatestJointTrace({ jointId }: { jointId: number }, trx?: Db): Promise<(TraceSummary & { chart: ChartPoint[] }) | null> {
-  const row = (await conn(trx)("joint_traces as t").join("users as u", "u.id", "t.uploaded_by").where("t.joint_id", jointId).orderBy("t.id", "desc").first("t.*", "u.name as uploaded_by_name")) as Row | undefined;
+  const row = (await conn(trx)("joint_traces as t").join("users as u", "u.id", "t.uploaded_by").where("t.joint_id", jointId).orderBy("t.id", "desc").first("t.*", "u.name as uploaded_by_name")) as TraceRow | undefined;
   if (!row) return null;
   return { ...toTrace(row), chart: parseJson<ChartPoint[]>(row.chart, []) };
 }
@@ -310,8 +325,8 @@ export async function listQueueFilterOptions(_: Record<string, never> = {}, trx?
     pending().join("fusion_machines as m", "m.id", "j.machine_id").distinct("m.id", "m.asset_tag").orderBy("m.asset_tag"),
   ]);
   return {
-    jobs: (jobs as Row[]).map((r) => ({ id: Number(r.id), label: `${r.code} ${r.name}` })),
-    fusers: (fusers as Row[]).map((r) => ({ id: Number(r.id), label: r.name as string })),
-    machines: (machines as Row[]).map((r) => ({ id: Number(r.id), label: r.asset_tag as string })),
+    jobs: (jobs as { id: number; code: string; name: string }[]).map((r) => ({ id: Number(r.id), label: `${r.code} ${r.name}` })),
+    fusers: (fusers as { id: number; name: string }[]).map((r) => ({ id: Number(r.id), label: r.name })),
+    machines: (machines as { id: number; asset_tag: string }[]).map((r) => ({ id: Number(r.id), label: r.asset_tag })),
   };
 }

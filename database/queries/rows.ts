@@ -21,6 +21,16 @@ export const text = (v: unknown): string | null => (v === null || v === undefine
 /** DATETIME → Date (the driver already gives Dates; NULL → null). */
 export const date = (v: unknown): Date | null => (v === null || v === undefined ? null : v instanceof Date ? v : new Date(String(v)));
 
+/** DATE column (a Date at UTC midnight, the driver running with timezone Z, or text) → 'YYYY-MM-DD'; NULL → null. */
+export function isoDay(value: Date | string | null | undefined): string | null {
+  if (value == null) return null;
+  if (typeof value === "string") return value.slice(0, 10);
+  return value.toISOString().slice(0, 10);
+}
+
+/** NOT NULL DATE column → 'YYYY-MM-DD'. */
+export const day = (value: Date | string): string => isoDay(value) ?? "";
+
 /** JSON text → value; the fallback for NULL, empty or unreadable text. */
 export function parseJson<T>(value: unknown, fallback: T): T {
   if (typeof value !== "string" || value === "") return fallback;

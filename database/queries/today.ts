@@ -1,6 +1,7 @@
 // The Today page's counts per role: review queue, coils waiting for labels, exports still
 // running. (Qualification, heater and machine lists come from their own query modules.)
 import { conn, type Db } from "../client";
+import type { CoilTableRow, ExportRow } from "../tables";
 
 export type ReviewQueueSummary = {
   count: number;
@@ -33,7 +34,7 @@ export async function listCoilsAwaitingLabel({ limit = 10 }: { limit?: number } 
   const rows = await k("coils").whereNull("label_printed_at").orderBy([{ column: "received_at" }, { column: "id" }]).limit(limit).select("id", "coil_code", "lot", "nominal_size", "received_at");
   return {
     count: Number(countRow?.n ?? 0),
-    coils: rows.map((r: Record<string, unknown>) => ({ id: r.id as number, coilCode: r.coil_code as string, lot: r.lot as string, nominalSize: r.nominal_size as string, receivedAt: r.received_at as Date })),
+    coils: rows.map((r: Pick<CoilTableRow, "id" | "coil_code" | "lot" | "nominal_size" | "received_at">) => ({ id: r.id, coilCode: r.coil_code, lot: r.lot, nominalSize: r.nominal_size, receivedAt: r.received_at })),
   };
 }
 
@@ -51,6 +52,6 @@ export async function listRunningExports({ userId, limit = 10 }: { userId?: numb
   const rows = await base().join("users", "users.id", "exports.user_id").orderBy("exports.started_at").limit(limit).select("exports.id", "exports.user_id", "exports.format", "exports.started_at", "users.name as user_name");
   return {
     count: Number(countRow?.n ?? 0),
-    exports: rows.map((r: Record<string, unknown>) => ({ id: Number(r.id), userId: r.user_id as number, userName: r.user_name as string, format: r.format as "xlsx" | "csv", startedAt: r.started_at as Date })),
+    exports: rows.map((r: Pick<ExportRow, "id" | "user_id" | "format" | "started_at"> & { user_name: string }) => ({ id: Number(r.id), userId: r.user_id, userName: r.user_name, format: r.format, startedAt: r.started_at })),
   };
 }

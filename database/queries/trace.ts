@@ -5,7 +5,9 @@
 // last check before the joint, the fuser's qualification records, the procedure version.
 import { readScannedCoilText } from "@/domain/coil-life/rules";
 import { conn, type Db } from "../client";
-import { findCoilByCode, isoDay, listCoilsByTraceCode, toCoil, type Coil } from "./coils";
+import { findCoilByCode, listCoilsByTraceCode, toCoil, type Coil } from "./coils";
+import type { FusionMachineRow, HeaterCheckRow, HeaterPlateRow, JointRow } from "../tables";
+import { day, isoDay, num } from "./rows";
 
 export type LotKey = { manufacturer: string; lot: string };
 
@@ -102,6 +104,27 @@ export type TracedJoint = {
 
 export const TRACE_JOINT_LIMIT = 50_000;
 
+/** A row of listJointsForCoils' SELECT (joints with their job, fuser, state and coils). */
+type TracedJointRow = Pick<JointRow, "id" | "job_id" | "joint_no" | "kind" | "made_at" | "station" | "latitude" | "longitude" | "fuser_id" | "outcome" | "coil_a_id" | "coil_b_id" | "component_b_text" | "length_a_m" | "length_b_m"> & {
+  job_code: string;
+  job_name: string;
+  fuser_name: string;
+  review_state: TracedJoint["reviewState"];
+  coil_a_code: string | null;
+  coil_a_lot: string | null;
+  coil_b_code: string | null;
+  coil_b_lot: string | null;
+};
+
+/** findJointOrigins' joint row: the joint with its job and review state. */
+type OriginJointRow = JointRow & { job_code: string; job_name: string; review_state: TracedJoint["reviewState"] };
+
+/** The heater check row with the name of who made it. */
+type CheckRow = HeaterCheckRow & { checked_by_name: string | null };
+
+/** The procedure version row with its procedure's code, name and standard. */
+type VersionRow = { id: number; procedure_id: number; version_no: number; published_at: Date; superseded_at: Date | null; code: string; name: string; standard: string };
+
 /**
  * Every joint made with any of the coils, on either side, ordered by job, time, id. The
  * ids come from `coil_a_id IN (…) UNION coil_b_id IN (…)` — each arm uses its own index.
@@ -130,7 +153,7 @@ export async function listJointsForCoils({ coilIds, limit = TRACE_JOINT_LIMIT }:
       ORDER BY jb.code, j.made_at, j.id
       LIMIT ?`,
     [...ids, ...ids, limit + 1],
-  )) as [Record<string, unknown>[]];
+  )) as [TracedJointRow[]];
   const traced = new Set(ids);
   const joints = rows.slice(0, limit).map((r) => {
     const a = r.coil_a_id == null ? null : Number(r.coil_a_id);
@@ -140,27 +163,27 @@ export async function listJointsForCoils({ coilIds, limit = TRACE_JOINT_LIMIT }:
     return {
       id: Number(r.id),
       jobId: Number(r.job_id),
-      jobCode: r.job_code as string,
-      jobName: r.job_name as string,
+      jobCode: r.job_code,
+      jobName: r.job_name,
       jointNo: Number(r.joint_no),
-      kind: r.kind as TracedJoint["kind"],
-      madeAt: r.made_at as Date,
-      station: (r.station as string | null) ?? null,
-      latitude: r.latitude == null ? null : Number(r.latitude),
-      longitude: r.longitude == null ? null : Number(r.longitude),
+      kind: r.kind,
+      madeAt: r.made_at,
+      station: r.station ?? null,
+      latitude: num(r.latitude),
+      longitude: num(r.longitude),
       fuserId: Number(r.fuser_id),
-      fuserName: r.fuser_name as string,
-      outcome: r.outcome as TracedJoint["outcome"],
-      reviewState: (r.review_state as TracedJoint["reviewState"]) ?? null,
+      fuserName: r.fuser_name,
+      outcome: r.outcome,
+      reviewState: r.review_state ?? null,
       coilAId: a,
-      coilACode: (r.coil_a_code as string | null) ?? null,
-      coilALot: (r.coil_a_lot as string | null) ?? null,
+      coilACode: r.coil_a_code ?? null,
+      coilALot: r.coil_a_lot ?? null,
       coilBId: b,
-      coilBCode: (r.coil_b_code as string | null) ?? null,
-      coilBLot: (r.coil_b_lot as string | null) ?? null,
-      componentBText: (r.component_b_text as string | null) ?? null,
-      lengthAM: r.length_a_m == null ? null : Number(r.length_a_m),
-      lengthBM: r.length_b_m == null ? null : Number(r.length_b_m),
+      coilBCode: r.coil_b_code ?? null,
+      coilBLot: r.coil_b_lot ?? null,
+      componentBText: r.component_b_text ?? null,
+      lengthAM: num(r.length_a_m),
+      lengthBM: num(r.length_b_m),
       side: onA && onB ? "both" : onA ? "a" : "b",
     } satisfies TracedJoint;
   });
@@ -237,7 +260,7 @@ export async function findJointOrigins({ jointId }: { jointId: number }, trx?: D
     .join("jobs as jb", "jb.id", "j.job_id")
     .leftJoin("joint_states as s", "s.joint_id", "j.id")
     .where("j.id", jointId)
-    .first("j.*", "jb.code as job_code", "jb.name as job_name", "s.review_state")) as Record<string, unknown> | undefined;
+    .first("j.*", "jb.code as job_code", "jb.name as job_name", "s.review_state")) as OriginJointRow | undefined;
   if (!j) return null;
   const coilIds = [j.coil_a_id, j.coil_b_id].filter((v) => v != null).map(Number);
   const coils = coilIds.length ? ((await coilRowsQuery(trx).whereIn("coils.id", coilIds)) as Parameters<typeof toCoil>[0][]).map(toCoil) : [];
@@ -246,80 +269,80 @@ export async function findJointOrigins({ jointId }: { jointId: number }, trx?: D
   const heaterId = Number(j.heater_id);
   const versionId = Number(j.procedure_version_id);
   const fuserId = Number(j.fuser_id);
-  const machine = (await k("fusion_machines").where("id", machineId).first()) as Record<string, unknown>;
-  const heater = (await k("heater_plates").where("id", heaterId).first()) as Record<string, unknown>;
+  const machine = (await k("fusion_machines").where("id", machineId).first()) as FusionMachineRow;
+  const heater = (await k("heater_plates").where("id", heaterId).first()) as HeaterPlateRow;
   const check = (await k("heater_checks as h")
     .leftJoin("users as u", "u.id", "h.checked_by")
     .where("h.heater_id", heaterId)
-    .where("h.checked_at", "<=", j.made_at as Date)
+    .where("h.checked_at", "<=", j.made_at)
     .orderBy("h.checked_at", "desc")
     .orderBy("h.id", "desc")
-    .first("h.*", "u.name as checked_by_name")) as Record<string, unknown> | undefined;
+    .first("h.*", "u.name as checked_by_name")) as CheckRow | undefined;
   const version = (await k("procedure_versions as v")
     .join("procedures as p", "p.id", "v.procedure_id")
     .where("v.id", versionId)
-    .first("v.id", "v.procedure_id", "v.version_no", "v.published_at", "v.superseded_at", "p.code", "p.name", "p.standard")) as Record<string, unknown>;
+    .first("v.id", "v.procedure_id", "v.version_no", "v.published_at", "v.superseded_at", "p.code", "p.name", "p.standard")) as VersionRow;
   const procedureId = Number(version.procedure_id);
   const fuser = (await k("users").where("id", fuserId).first("id", "name", "email")) as { id: number; name: string; email: string };
-  const quals = (await k("qualifications").where({ user_id: fuserId, procedure_id: procedureId }).orderBy("qualified_on").select("qualified_on")) as { qualified_on: unknown }[];
-  const fails = (await k("qualification_failures").where({ user_id: fuserId, procedure_id: procedureId }).orderBy("failed_on").select("failed_on")) as { failed_on: unknown }[];
+  const quals = (await k("qualifications").where({ user_id: fuserId, procedure_id: procedureId }).orderBy("qualified_on").select("qualified_on")) as { qualified_on: Date }[];
+  const fails = (await k("qualification_failures").where({ user_id: fuserId, procedure_id: procedureId }).orderBy("failed_on").select("failed_on")) as { failed_on: Date }[];
   return {
     joint: {
       id: Number(j.id),
       jobId: Number(j.job_id),
-      jobCode: j.job_code as string,
-      jobName: j.job_name as string,
+      jobCode: j.job_code,
+      jobName: j.job_name,
       jointNo: Number(j.joint_no),
-      kind: j.kind as TracedJoint["kind"],
-      madeAt: j.made_at as Date,
-      station: (j.station as string | null) ?? null,
-      latitude: j.latitude == null ? null : Number(j.latitude),
-      longitude: j.longitude == null ? null : Number(j.longitude),
+      kind: j.kind,
+      madeAt: j.made_at,
+      station: j.station ?? null,
+      latitude: num(j.latitude),
+      longitude: num(j.longitude),
       outsideDiameterMm: Number(j.outside_diameter_mm),
       sdr: Number(j.sdr),
-      outcome: j.outcome as TracedJoint["outcome"],
-      reviewState: (j.review_state as TracedJoint["reviewState"]) ?? null,
-      componentBText: (j.component_b_text as string | null) ?? null,
-      lengthAM: j.length_a_m == null ? null : Number(j.length_a_m),
-      lengthBM: j.length_b_m == null ? null : Number(j.length_b_m),
+      outcome: j.outcome,
+      reviewState: j.review_state ?? null,
+      componentBText: j.component_b_text ?? null,
+      lengthAM: num(j.length_a_m),
+      lengthBM: num(j.length_b_m),
     },
     coilA: coil(j.coil_a_id),
     coilB: coil(j.coil_b_id),
     machine: {
       id: Number(machine.id),
-      assetTag: machine.asset_tag as string,
-      description: (machine.description as string | null) ?? null,
-      pistonAreaMm2: machine.piston_area_mm2 == null ? null : Number(machine.piston_area_mm2),
+      assetTag: machine.asset_tag,
+      description: machine.description ?? null,
+      pistonAreaMm2: num(machine.piston_area_mm2),
       lastServiceOn: isoDay(machine.last_service_on),
       nextServiceDue: isoDay(machine.next_service_due),
     },
     heater: {
       id: Number(heater.id),
-      assetTag: heater.asset_tag as string,
-      description: (heater.description as string | null) ?? null,
+      assetTag: heater.asset_tag,
+      description: heater.description ?? null,
       checkIntervalDays: Number(heater.check_interval_days),
       lastCheck: check
         ? {
-            checkedAt: check.checked_at as Date,
+            checkedAt: check.checked_at,
             passed: Boolean(check.passed),
-            instrument: check.instrument as string,
+            instrument: check.instrument,
             windowMinC: Number(check.window_min_c),
             windowMaxC: Number(check.window_max_c),
-            nextDueOn: isoDay(check.next_due_on) as string,
-            checkedByName: (check.checked_by_name as string | null) ?? null,
+            nextDueOn: day(check.next_due_on),
+            checkedByName: check.checked_by_name ?? null,
           }
         : null,
     },
-    fuser: { id: Number(fuser.id), name: fuser.name, email: fuser.email, qualifiedOn: quals.map((q) => isoDay(q.qualified_on) as string), failedTestsOn: fails.map((f) => isoDay(f.failed_on) as string) },
+    fuser: { id: Number(fuser.id), name: fuser.name, email: fuser.email, qualifiedOn: quals.map((q) => day(q.qualified_on)), failedTestsOn: fails.map((f) => day(f.failed_on)) },
     procedure: {
       versionId: Number(version.id),
       procedureId: Number(version.procedure_id),
-      code: version.code as string,
-      name: version.name as string,
-      standard: version.standard as string,
+      code: version.code,
+      name: version.name,
+      standard: version.standard,
       versionNo: Number(version.version_no),
-      publishedAt: version.published_at as Date,
-      supersededAt: (version.superseded_at as Date | null) ?? null,
+      publishedAt: version.published_at,
+      supersededAt: version.superseded_at ?? null,
     },
   };
 }
@@ -330,16 +353,18 @@ export async function listJointsForCoil({ coilId, limit = 200 }: { coilId: numbe
   return joints.sort((a, b) => b.madeAt.getTime() - a.madeAt.getTime() || b.id - a.id);
 }
 
+type LabelRow = Pick<JointRow, "id" | "joint_no" | "made_at" | "station"> & { job_code: string; job_name: string };
+
 /** Facts a joint tag label prints (joint number, job, date, station). */
 export async function findJointLabelFacts({ jointIds }: { jointIds: number[] }, trx?: Db): Promise<{ id: number; jointNo: number; jobCode: string; jobName: string; madeAt: Date; station: string | null }[]> {
   if (!jointIds.length) return [];
   const rows = (await conn(trx)("joints as j")
     .join("jobs as jb", "jb.id", "j.job_id")
     .whereIn("j.id", jointIds)
-    .select("j.id", "j.joint_no", "jb.code as job_code", "jb.name as job_name", "j.made_at", "j.station")) as Record<string, unknown>[];
+    .select("j.id", "j.joint_no", "jb.code as job_code", "jb.name as job_name", "j.made_at", "j.station")) as LabelRow[];
   const byId = new Map(rows.map((r) => [Number(r.id), r]));
   return jointIds
     .map((id) => byId.get(id))
-    .filter((r): r is Record<string, unknown> => Boolean(r))
-    .map((r) => ({ id: Number(r.id), jointNo: Number(r.joint_no), jobCode: r.job_code as string, jobName: r.job_name as string, madeAt: r.made_at as Date, station: (r.station as string | null) ?? null }));
+    .filter((r): r is LabelRow => Boolean(r))
+    .map((r) => ({ id: Number(r.id), jointNo: Number(r.joint_no), jobCode: r.job_code, jobName: r.job_name, madeAt: r.made_at, station: r.station ?? null }));
 }

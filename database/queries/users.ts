@@ -2,6 +2,7 @@
 import type { Actor, Role } from "@/domain/roles";
 import { isRole } from "@/domain/roles";
 import { conn, type Db } from "../client";
+import type { UserRow as UserTableRow } from "../tables";
 
 export type UserRecord = Actor & {
   crewId: number | null;
@@ -12,21 +13,8 @@ export type UserRecord = Actor & {
   createdAt: Date;
 };
 
-type UserRow = {
-  id: number;
-  name: string;
-  email: string;
-  password_hash: string;
-  roles: string;
-  unit_system: "si" | "us";
-  is_active: number | boolean;
-  session_version: number;
-  crew_id: number | null;
-  crew_name?: string | null;
-  daily_digest: number | boolean;
-  version: number;
-  created_at: Date;
-};
+/** A users row, with the crew's name where the query joins crews. */
+type UserRow = UserTableRow & { crew_name?: string | null };
 
 export function parseRoles(value: string): Role[] {
   return value

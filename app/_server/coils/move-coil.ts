@@ -17,7 +17,8 @@ export async function moveCoil(input: MoveCoil, { user, requestId }: Actor): Pro
     if (coil.version !== input.version) throw new AppError("conflict", `${coil.coilCode} was changed by someone else since you opened it; reload the page and try again.`);
     const problem = statusMoveProblem({ from: coil.status, to: input.to, reason: input.reason, crewId: input.crewId ?? coil.crewId, jobId: input.jobId ?? coil.jobId });
     if (problem) throw new AppError("invalid", problem.message, { [problem.field]: [problem.message] });
-    await updateCoilStatus({ coil, to: input.to, reason: input.reason ?? null, crewId: input.crewId, jobId: input.jobId, userId: user.id }, trx);
+    const moved = await updateCoilStatus({ coil, to: input.to, reason: input.reason ?? null, crewId: input.crewId, jobId: input.jobId, userId: user.id }, trx);
+    if (!moved) throw new AppError("conflict", `${coil.coilCode} was changed by someone else; reload the page and try again.`);
     await insertAuditEntry(
       { actorUserId: user.id, action: "coil-status-changed", entityType: "coil", entityId: coil.id, details: { coilCode: coil.coilCode, from: coil.status, to: input.to, reason: input.reason ?? null, crewId: input.crewId ?? null, jobId: input.jobId ?? null }, requestId },
       trx,

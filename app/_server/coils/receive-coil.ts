@@ -6,6 +6,7 @@ import { insertAuditEntry } from "@/database/queries/audit-log";
 import { insertCoil, type Coil } from "@/database/queries/coils";
 import { judgeReceiptInspection, traceCodeDisagreements } from "@/domain/coil-life/rules";
 import type { ReceiveCoil } from "@/domain/coil-life/schemas";
+import { AppError } from "@/domain/result";
 
 export type Actor = { user: { id: number }; requestId: string };
 
@@ -30,7 +31,7 @@ export async function receiveCoil(input: ReceiveCoil, { user, requestId }: Actor
   const flags = input.traceCode ? traceCodeDisagreements(input.traceCode, input) : [];
   const quarantineReason = verdict.passed ? null : `Failed receipt inspection: ${verdict.reasons.join("; ")}`.slice(0, 300);
   return db().transaction(async (trx) => {
-    const id = await insertCoil(
+    const inserted = await insertCoil(
       {
         coilCode: input.coilCode,
         manufacturer: input.manufacturer,
@@ -59,6 +60,8 @@ export async function receiveCoil(input: ReceiveCoil, { user, requestId }: Actor
       },
       trx,
     );
+    if (!inserted.ok) throw new AppError("conflict", `Coil id ${input.coilCode} is already on file; choose another id.`, { coilCode: [`Coil id ${input.coilCode} is already on file.`] });
+    const id = inserted.id;
     await insertAuditEntry(
       {
         actorUserId: user.id,
