@@ -17,13 +17,12 @@
 // pressure), because the procedures require cooling under pressure (ASTM F2620; PPI generic
 // procedure "Hold"; ISO 21307:2017) — a hold that leaks down to drag is not cooling under
 // pressure. "Held" is the running median over HOLD_WINDOW_S, so a sample's noise neither
-// ends nor extends the hold, and a level reading the same as the minimum at 0.01 MPa counts
-// as at the minimum (the joint check's on-limit rule).
+// ends nor extends the hold; the minimum is taken as it is (no instrument tolerance: the
+// plan carries none).
 
 import type { PressureSample } from '@/domain/pressure-trace/parse';
 import { coolingHoldMinimumGaugePressureMpa, type JointMeasurements } from '@/domain/fusion/check';
 import type { FusionPlan } from '@/domain/fusion/plan';
-import { roundForDisplay } from '@/domain/units/format';
 
 export interface TracePhase {
   startS: number;
@@ -236,7 +235,7 @@ export function readPressureTrace(samples: readonly PressureSample[], options: R
       while (b < n - 1 && (t[b + 1] as number) - (t[k] as number) <= half) b += 1;
       return median(raw.slice(a, b + 1));
     };
-    const holds = (level: number) => level >= minimum || roundForDisplay(level, 'pressure', 'si') === roundForDisplay(minimum, 'pressure', 'si');
+    const holds = (level: number) => level >= minimum;
     let k = 0;
     while (k < n && (t[k] as number) < buildUpEnd) k += 1;
     const windowEnd = plan.minCoolingS !== null ? buildUpEnd + plan.minCoolingS : released ? fusionEnd - half : (t[n - 1] as number);
