@@ -280,6 +280,45 @@ describe('hand-made traces read against the plan', () => {
   });
 });
 
+describe('ISO 21307 dual low-pressure: cooling is held at the reduced pressure P5', () => {
+  // from memory, unconfirmed: ISO 21307 DLP fusion P4 0.15 ± 0.02 MPa for about 10 s, then
+  // P5 = 0.025 MPa; cooling e_n + 3 min. 315 mm SDR 11, ISO 4427-2 wall 28.6 mm, 4000 mm²
+  // pistons, drag 0.3 MPa. By hand: fusion area π·(315 − 28.6)·28.6 = 25 732.7 mm²; P5 gauge
+  // 0.025 × 25 732.7 / 4000 + 0.3 = 0.4608 MPa; minimum cooling (28.6 + 3) × 60 = 1896 s.
+  const plan = planButtFusion({ standard: 'iso-21307-dlp', outsideDiameterMm: 315, sdr: 11, pistonAreaMm2: 4000, dragPressureMpa: 0.3 });
+  // Bead-up 1.3 MPa 5–24 s, soak 0.3 (drag) 25–114 s, open 115–122 s, ramp 0.325 MPa/s to
+  // 1.3 MPa at 126 s, P4 126–135 s, then `reduced` until released at 2100 s. Build-up ends
+  // at 126 s (as in the F2620 traces above, scaled).
+  const trace = (reduced: number) =>
+    Array.from({ length: 2111 }, (_, t) => ({
+      seconds: t,
+      gaugePressureMpa: t < 5 ? 0 : t < 25 ? 1.3 : t < 115 ? 0.3 : t < 123 ? 0 : t < 126 ? 0.325 * (t - 122) : t < 136 ? 1.3 : t < 2100 ? reduced : 0,
+    }));
+  const read = (reduced: number) => {
+    const result = readPressureTrace(trace(reduced), { dragPressureMpa: 0.3, plan });
+    if (!result.ok) throw new Error(result.error);
+    return result.reading;
+  };
+  test('the plan values computed by hand', () => {
+    expect(plan.coolingGaugePressureMpa?.min).toBeCloseTo(0.4608, 4);
+    expect(plan.minCoolingS).toBe(1896);
+  });
+  test('held at 0.6 MPa after P4: cooling runs to the release', () => {
+    const reading = read(0.6);
+    // Held until 2099 + (0.6 − 0.4608)/0.6 = 2099.23 s → 2099.23 − 126 = 1973.2 s.
+    expect(reading.coolingHoldMinimumGaugePressureMpa).toBe(plan.coolingGaugePressureMpa?.min);
+    expect(reading.coolingS).toBe(1973.2);
+    expect(reading.lowestCoolingGaugePressureMpa).toBe(0.6);
+    expect(reading.fusionGaugePressureMpa).toBe(1.3);
+  });
+  test('dropped to drag after P4: cooling is the 10 s at P4 only', () => {
+    const reading = read(0.3);
+    // Held until 135 + (1.3 − 0.4608)/(1.3 − 0.3) = 135.84 s → 9.8 s; lowest held 0.3 (drag).
+    expect(reading.coolingS).toBe(9.8);
+    expect(reading.lowestCoolingGaugePressureMpa).toBe(0.3);
+  });
+});
+
 describe('the generator is deterministic', () => {
   test('same seed, same samples; other seed, other noise', () => {
     expect(synthesizePressureTrace(base).samples).toEqual(synthesizePressureTrace(base).samples);
