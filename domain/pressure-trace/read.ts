@@ -235,18 +235,17 @@ export function readPressureTrace(samples: readonly PressureSample[], options: R
       while (b < n - 1 && (t[b + 1] as number) - (t[k] as number) <= half) b += 1;
       return median(raw.slice(a, b + 1));
     };
-    const holds = (level: number) => level >= minimum;
     let k = 0;
     while (k < n && (t[k] as number) < buildUpEnd) k += 1;
     const windowEnd = plan.minCoolingS !== null ? buildUpEnd + plan.minCoolingS : released ? fusionEnd - half : (t[n - 1] as number);
-    coolingEnd = released ? fusionEnd : (t[n - 1] as number);
+    // Never lost before the record ends: held to the end (fusionEnd), a lower bound.
     let previous: { time: number; level: number } | null = null;
     let lost = false;
     for (; k < n; k += 1) {
       const time = t[k] as number;
       const level = held(k);
       if (time <= windowEnd || lowestHeld === null) lowestHeld = lowestHeld === null ? level : Math.min(lowestHeld, level);
-      if (!lost && !holds(level)) {
+      if (!lost && level < minimum) {
         lost = true;
         // Interpolated between the last held sample and this one; at once when never held.
         const fraction = previous ? Math.min(Math.max((previous.level - minimum) / (previous.level - level), 0), 1) : 0;
@@ -255,7 +254,7 @@ export function readPressureTrace(samples: readonly PressureSample[], options: R
       if (lost && time > windowEnd) break;
       previous = { time, level };
     }
-    coolingEnd = Math.min(Math.max(coolingEnd, buildUpEnd), released ? fusionEnd : (t[n - 1] as number));
+    coolingEnd = Math.min(Math.max(coolingEnd, buildUpEnd), fusionEnd);
   }
   const temperatures = samples
     .filter((sample) => sample.seconds >= beadUpEnd && sample.seconds <= changeoverStart && sample.heaterTemperatureC !== undefined)
