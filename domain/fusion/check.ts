@@ -20,9 +20,11 @@ export type JointParameter =
   | 'fusionPressure'
   | 'bead'
   | 'heatSoak'
+  | 'heatSoakPressure'
   | 'changeover'
   | 'pressureBuildUp'
   | 'cooling'
+  | 'coolingPressure'
   | 'facing'
   | 'alignment'
   | 'visualBead';
@@ -33,9 +35,11 @@ export const JOINT_PARAMETERS: readonly JointParameter[] = [
   'fusionPressure',
   'bead',
   'heatSoak',
+  'heatSoakPressure',
   'changeover',
   'pressureBuildUp',
   'cooling',
+  'coolingPressure',
   'facing',
   'alignment',
   'visualBead',
@@ -66,6 +70,8 @@ export interface JointCheck {
  * heat-soak window. Bead-up pressure and pressure build-up are checked when given.
  * Boolean checks (facing, alignment, visual bead) are checked when the key is present:
  * false fails, null is "not recorded"; an absent key is not part of this record.
+ * Heat-soak gauge pressure is checked when given (typed or read from a trace); the lowest
+ * pressure held during cooling comes only from a trace read against the plan.
  */
 export interface JointMeasurements {
   heaterTemperatureC: number | null | undefined;
@@ -76,6 +82,9 @@ export interface JointMeasurements {
   heatSoakS?: number | null;
   beadUpGaugePressureMpa?: number | null;
   pressureBuildUpS?: number | null;
+  heatSoakGaugePressureMpa?: number | null;
+  /** Lowest gauge pressure held during the plan's minimum cooling time, MPa (from a trace). */
+  lowestCoolingGaugePressureMpa?: number | null;
   facingOk?: boolean | null;
   alignmentOk?: boolean | null;
   visualBeadOk?: boolean | null;
@@ -84,6 +93,16 @@ export interface JointMeasurements {
 export interface CheckJointOptions {
   /** Units of the messages; SI by default. */
   system?: UnitSystem;
+}
+
+/**
+ * The gauge pressure the joint must be held at or above while it cools, MPa: the fusion
+ * gauge minimum, or for ISO 21307 dual low-pressure the reduced cooling pressure P5 that
+ * follows the full-pressure stretch (the plan's cooling gauge minimum). The duration of the
+ * full-pressure stretch is only a note of that procedure, so it is not checked here.
+ */
+export function coolingHoldMinimumGaugePressureMpa(plan: FusionPlan): number {
+  return plan.coolingGaugePressureMpa ? plan.coolingGaugePressureMpa.min : plan.fusionGaugePressureMpa.min;
 }
 
 const isRecorded = (value: number | null | undefined): value is number =>
@@ -184,11 +203,38 @@ export function checkJoint(plan: FusionPlan, values: JointMeasurements | Recorde
     }
   }
 
+  if (measured.heatSoakGaugePressureMpa !== undefined) {
+    const max = plan.maxHeatSoakGaugePressureMpa ?? null;
+    const value = measured.heatSoakGaugePressureMpa;
+    const limit = { min: null, max };
+    if (!isRecorded(value)) {
+      notRecorded('heatSoakPressure', 'Heat-soak gauge pressure', max === null ? null : limit);
+    } else if (max !== null && !passes(value, max, 'max', 'pressure')) {
+      // F2620 / ISO 21307 soak at drag ("without force"); DVS 2207-1 allows a little force.
+      const why = plan.maxHeatSoakInterfacialPressureMpa
+        ? `the ${fmt(max, 'pressure')} maximum for this pipe and machine (${fmt(plan.maxHeatSoakInterfacialPressureMpa, 'pressure')} at the pipe ends)`
+        : `the ${fmt(max, 'pressure')} drag: the ends must soak against the heater without force`;
+      findings.push({ parameter: 'heatSoakPressure', kind: 'above-maximum', measured: value, limit, message: `Heat-soak gauge pressure ${fmt(value, 'pressure')} is above ${why}` });
+    }
+  }
+
   maximumCheck('changeover', 'Changeover', measured.changeoverS, plan.maxChangeoverS, 'duration', { long: 'longer' }, wallText);
   if (measured.pressureBuildUpS !== undefined) {
     maximumCheck('pressureBuildUp', 'Pressure build-up', measured.pressureBuildUpS, plan.pressureBuildUpS, 'duration', { long: 'longer' }, wallText);
   }
   minimumCheck('cooling', 'Cooling', measured.coolingS, plan.minCoolingS, 'duration', { short: 'shorter' }, wallText);
+  if (isRecorded(measured.lowestCoolingGaugePressureMpa)) {
+    const lowest = measured.lowestCoolingGaugePressureMpa;
+    const min = coolingHoldMinimumGaugePressureMpa(plan);
+    if (!passes(lowest, min, 'min', 'pressure')) {
+      // At drag or less nothing pushes the ends together: released (or leaked right down).
+      const released = passes(lowest, plan.dragPressureMpa, 'max', 'pressure');
+      const message = released
+        ? `Pressure was lost during cooling: it fell to ${fmt(lowest, 'pressure')}, at or below the ${fmt(plan.dragPressureMpa, 'pressure')} drag, before the joint had cooled (early release or leak-down)`
+        : `Pressure during cooling fell to ${fmt(lowest, 'pressure')}, below the ${fmt(min, 'pressure')} minimum for this pipe and machine (leak-down)`;
+      findings.push({ parameter: 'coolingPressure', kind: 'below-minimum', measured: lowest, limit: { min, max: null }, message });
+    }
+  }
 
   const booleanCheck = (parameter: JointParameter, value: boolean | null | undefined, name: string, failed: string) => {
     if (value === undefined) return;

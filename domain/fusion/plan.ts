@@ -57,6 +57,8 @@ export interface PlanSources {
   beadUpPressure: Sourced;
   fusionPressure: Sourced;
   coolingPressure: Sourced | null;
+  /** Absent in plans stored before the heat-soak pressure was checked. */
+  heatSoakPressure?: Sourced | null;
   bead: Sourced | null;
   heatSoak: Sourced | null;
   changeover: Sourced | null;
@@ -90,6 +92,13 @@ export interface FusionPlan {
   /** Reduced cooling pressure (ISO 21307 dual low-pressure); null elsewhere. */
   coolingInterfacialPressureMpa: Window | null;
   coolingGaugePressureMpa: Window | null;
+  /**
+   * Highest gauge pressure during heat soak, MPa: drag + the procedure's heat-soak
+   * interfacial maximum × fusion area ÷ piston area (F2620 / ISO 21307: at drag; DVS 2207-1:
+   * drag + 0.02 N/mm² converted). Absent (undefined) in plans stored before it was checked.
+   */
+  maxHeatSoakGaugePressureMpa?: number | null;
+  maxHeatSoakInterfacialPressureMpa?: number | null;
   minBeadMm: number | null;
   /** Whether the bead minimum depends on the pipe's OD or its wall (for messages). */
   minBeadBasis: SizeBasis | null;
@@ -215,6 +224,11 @@ export function planButtFusion(input: PlanButtFusionInput): FusionPlan {
     max: gaugePressureForInterfacialPressure({ interfacialPressureMpa: window.max, fusionAreaMm2: geometry.fusionAreaMm2, pistonAreaMm2: input.pistonAreaMm2, dragPressureMpa: input.dragPressureMpa }),
   });
   const windowOf = (sourced: Window): Window => ({ min: sourced.min, max: sourced.max });
+  // A version stored before the soak pressure was modelled takes its base standard's value.
+  const soak = w.heatSoakInterfacialPressureMpa !== undefined ? w.heatSoakInterfacialPressureMpa : (builtInProcedure(procedure.standard).windows.heatSoakInterfacialPressureMpa ?? null);
+  const maxHeatSoakGaugePressureMpa = soak
+    ? gaugePressureForInterfacialPressure({ interfacialPressureMpa: soak.max, fusionAreaMm2: geometry.fusionAreaMm2, pistonAreaMm2: input.pistonAreaMm2, dragPressureMpa: input.dragPressureMpa })
+    : null;
 
   const notes = [...procedure.notes];
   const evaluate = (rule: SizeRule | null, what: string): number | null => {
@@ -255,6 +269,8 @@ export function planButtFusion(input: PlanButtFusionInput): FusionPlan {
     fusionGaugePressureMpa: gauge(w.fusionInterfacialPressureMpa),
     coolingInterfacialPressureMpa: w.coolingInterfacialPressureMpa ? windowOf(w.coolingInterfacialPressureMpa) : null,
     coolingGaugePressureMpa: w.coolingInterfacialPressureMpa ? gauge(w.coolingInterfacialPressureMpa) : null,
+    maxHeatSoakGaugePressureMpa,
+    maxHeatSoakInterfacialPressureMpa: soak ? soak.max : null,
     minBeadMm,
     minBeadBasis: w.minBeadMm ? ruleBasis(w.minBeadMm.rule) : null,
     heatSoakTargetS,
@@ -267,6 +283,7 @@ export function planButtFusion(input: PlanButtFusionInput): FusionPlan {
       beadUpPressure: sourceOf(w.beadUpInterfacialPressureMpa) as Sourced,
       fusionPressure: sourceOf(w.fusionInterfacialPressureMpa) as Sourced,
       coolingPressure: sourceOf(w.coolingInterfacialPressureMpa),
+      heatSoakPressure: sourceOf(soak),
       bead: sourceOf(w.minBeadMm),
       heatSoak: sourceOf(w.heatSoakS),
       changeover: sourceOf(w.maxChangeoverS),

@@ -124,6 +124,7 @@ export const procedureDefinitionSchema = z.object({
     beadUpInterfacialPressureMpa: sourcedWindow,
     fusionInterfacialPressureMpa: sourcedWindow,
     coolingInterfacialPressureMpa: sourcedWindow.nullable(),
+    heatSoakInterfacialPressureMpa: z.object({ max: finite, ...sourced }).nullable().optional(),
     minBeadMm: sourcedRule.nullable(),
     heatSoakS: z.object({ target: sizeRuleSchema.nullable(), min: sizeRuleSchema.nullable(), max: sizeRuleSchema.nullable(), ...sourced }).nullable(),
     maxChangeoverS: sourcedRule.nullable(),

@@ -99,6 +99,12 @@ export const RECORDED_VALUES = [
     register: { key: 'heatSoak', width: 8, inGrid: true },
   },
   {
+    key: 'heatSoakGaugePressureMpa', column: 'heat_soak_gauge_mpa', name: 'heatSoakPressure', label: 'Heat-soak gauge pressure', type: 'quantity', quantity: 'pressure', entry: 'typed', step: 'values',
+    required: false, bounds: { min: 0, max: 40 }, inputName: 'heat-soak gauge pressure', prompt: 'Heat-soak gauge pressure', hint: 'The gauge reading while the ends soak against the heater: drag, or no more than the plan allows.',
+    whenMissing: 'not read', parameter: 'heatSoakPressure', missingIsFinding: false,
+    register: { key: 'heatSoakGauge', width: 9, inGrid: true },
+  },
+  {
     key: 'changeoverS', column: 'changeover_s', name: 'changeover', label: 'Changeover', type: 'quantity', quantity: 'duration', entry: 'timed', phase: 'changeover', step: 'timer',
     required: true, bounds: { min: 0, max: 600 }, inputName: 'changeover time', prompt: 'Changeover time', parameter: 'changeover', missingIsFinding: true,
     register: { key: 'changeover', width: 8, inGrid: true },

@@ -11,9 +11,18 @@
 // samples, so a missing sample only widens the uncertainty to its gap. The start of the
 // fusion build-up is the ramp (through its 25 % and 75 % points) extended back to the
 // changeover level, and its end the ramp extended to the fusion level.
+//
+// Read against the joint's plan, cooling is the time the joint was held at or above the
+// plan's minimum (fusion gauge minimum; ISO 21307 dual low-pressure: its reduced cooling
+// pressure), because the procedures require cooling under pressure (ASTM F2620; PPI generic
+// procedure "Hold"; ISO 21307:2017) — a hold that leaks down to drag is not cooling under
+// pressure. "Held" is the running median over HOLD_WINDOW_S, so a sample's noise neither
+// ends nor extends the hold; the minimum is taken as it is (no instrument tolerance: the
+// plan carries none).
 
 import type { PressureSample } from '@/domain/pressure-trace/parse';
-import type { JointMeasurements } from '@/domain/fusion/check';
+import { coolingHoldMinimumGaugePressureMpa, type JointMeasurements } from '@/domain/fusion/check';
+import type { FusionPlan } from '@/domain/fusion/plan';
 
 export interface TracePhase {
   startS: number;
@@ -26,8 +35,23 @@ export interface PressureTraceReading {
   heatSoakS: number;
   changeoverS: number;
   pressureBuildUpS: number;
-  /** Time held under pressure after build-up until release, s. */
+  /**
+   * Time held under pressure after build-up, s: without a plan until release; with a plan
+   * until the held pressure first falls below `coolingHoldMinimumGaugePressureMpa`.
+   */
   coolingS: number;
+  /** With a plan: the minimum the hold was counted against, MPa; null without a plan. */
+  coolingHoldMinimumGaugePressureMpa: number | null;
+  /**
+   * With a plan: lowest pressure held (HOLD_WINDOW_S running median) from the end of the
+   * build-up through the plan's minimum cooling time (or to the release when the plan has
+   * none), MPa; an early release reads as the pressure after it. Null without a plan.
+   */
+  lowestCoolingGaugePressureMpa: number | null;
+  /** Median gauge pressure during heat soak, MPa. */
+  heatSoakGaugePressureMpa: number;
+  /** High-pressure stretches before the heat soak: 2 or more when bead-up was done again. */
+  beadUpCount: number;
   /** Median gauge pressure while held at fusion pressure, MPa. */
   fusionGaugePressureMpa: number;
   beadUpGaugePressureMpa: number;
@@ -44,12 +68,16 @@ export type ReadPressureTraceResult = { ok: true; reading: PressureTraceReading 
 export interface ReadPressureTraceOptions {
   /** Measured drag pressure, MPa; read from the trace when absent. */
   dragPressureMpa?: number;
+  /** The joint's plan: cooling is then counted only while its minimum pressure is held. */
+  plan?: FusionPlan;
 }
 
 /** Fewest samples the reader accepts. */
 export const MIN_TRACE_SAMPLES = 12;
 /** High stretches closer than this are one stretch (a brief dip is not a phase), s. */
 const MERGE_GAP_S = 3;
+/** Window of the running median that says what pressure was held, s (centred). */
+export const HOLD_WINDOW_S = 5;
 
 function median(values: readonly number[]): number {
   if (values.length === 0) return Number.NaN;
@@ -90,8 +118,19 @@ export function readPressureTrace(samples: readonly PressureSample[], options: R
   if (runs.length < 2) {
     return { ok: false, error: 'The trace shows only one pressure stretch; a bead-up and a fusion stretch separated by a heat soak are needed' };
   }
-  const beadRun = runs[0] as { start: number; end: number };
-  const fusionRun = runs[1] as { start: number; end: number };
+  // Heat soak and changeover lie in the first gap between stretches that falls close to
+  // zero from a level it mostly holds (the soak at drag, then the carriage open); a brief
+  // dip between two bead-ups, or a leak-down in the hold, holds no level above its lowest.
+  // Without such a gap, the first gap (as for two stretches).
+  const gapIsSoak = (g: number): boolean => {
+    const gap = s.slice((runs[g] as { end: number }).end + 1, (runs[g + 1] as { start: number }).start);
+    return gap.length > 0 && Math.min(...gap) < median(gap) / 4;
+  };
+  let split = 0;
+  while (split < runs.length - 1 && !gapIsSoak(split)) split += 1;
+  if (split === runs.length - 1) split = 0;
+  const beadRun = runs[split] as { start: number; end: number };
+  const fusionRun = runs[split + 1] as { start: number; end: number };
 
   const crossing = (i: number, level: number): number => {
     // Interpolated time where the smoothed pressure crosses `level` between samples i and i + 1.
@@ -178,6 +217,45 @@ export function readPressureTrace(samples: readonly PressureSample[], options: R
   const fusionEnd = released ? crossing(fall, holdLevel / 2) : (t[n - 1] as number);
 
   const holdSamples = raw.filter((_, k) => (t[k] as number) >= buildUpEnd && k <= fusionRun.end);
+  const soakSamples = raw.filter((_, k) => (t[k] as number) >= beadUpEnd && (t[k] as number) <= changeoverStart);
+
+  // Against a plan: the held level (centred running median) from the end of the build-up.
+  let coolingEnd = fusionEnd;
+  let holdMinimum: number | null = null;
+  let lowestHeld: number | null = null;
+  if (options.plan) {
+    const plan = options.plan;
+    const minimum = coolingHoldMinimumGaugePressureMpa(plan);
+    holdMinimum = minimum;
+    const half = HOLD_WINDOW_S / 2;
+    const held = (k: number): number => {
+      let a = k;
+      let b = k;
+      while (a > 0 && (t[k] as number) - (t[a - 1] as number) <= half) a -= 1;
+      while (b < n - 1 && (t[b + 1] as number) - (t[k] as number) <= half) b += 1;
+      return median(raw.slice(a, b + 1));
+    };
+    let k = 0;
+    while (k < n && (t[k] as number) < buildUpEnd) k += 1;
+    const windowEnd = plan.minCoolingS !== null ? buildUpEnd + plan.minCoolingS : released ? fusionEnd - half : (t[n - 1] as number);
+    // Never lost before the record ends: held to the end (fusionEnd), a lower bound.
+    let previous: { time: number; level: number } | null = null;
+    let lost = false;
+    for (; k < n; k += 1) {
+      const time = t[k] as number;
+      const level = held(k);
+      if (time <= windowEnd || lowestHeld === null) lowestHeld = lowestHeld === null ? level : Math.min(lowestHeld, level);
+      if (!lost && level < minimum) {
+        lost = true;
+        // Interpolated between the last held sample and this one; at once when never held.
+        const fraction = previous ? Math.min(Math.max((previous.level - minimum) / (previous.level - level), 0), 1) : 0;
+        coolingEnd = previous ? previous.time + fraction * (time - previous.time) : buildUpEnd;
+      }
+      if (lost && time > windowEnd) break;
+      previous = { time, level };
+    }
+    coolingEnd = Math.min(Math.max(coolingEnd, buildUpEnd), fusionEnd);
+  }
   const temperatures = samples
     .filter((sample) => sample.seconds >= beadUpEnd && sample.seconds <= changeoverStart && sample.heaterTemperatureC !== undefined)
     .map((sample) => sample.heaterTemperatureC as number);
@@ -195,7 +273,11 @@ export function readPressureTrace(samples: readonly PressureSample[], options: R
       heatSoakS: phases.heatSoak.durationS,
       changeoverS: phases.changeover.durationS,
       pressureBuildUpS: round1(buildUpEnd - fusionStart),
-      coolingS: round1(fusionEnd - buildUpEnd),
+      coolingS: round1(coolingEnd - buildUpEnd),
+      coolingHoldMinimumGaugePressureMpa: holdMinimum,
+      lowestCoolingGaugePressureMpa: lowestHeld,
+      heatSoakGaugePressureMpa: soakSamples.length > 0 ? median(soakSamples) : drag,
+      beadUpCount: split + 1,
       fusionGaugePressureMpa: holdSamples.length > 0 ? median(holdSamples) : fusionLevel,
       beadUpGaugePressureMpa: beadLevel,
       dragPressureMpa: drag,
@@ -217,7 +299,9 @@ export function measurementsFromTraceReading(reading: PressureTraceReading): Par
     coolingS: reading.coolingS,
     fusionGaugePressureMpa: reading.fusionGaugePressureMpa,
     beadUpGaugePressureMpa: reading.beadUpGaugePressureMpa,
+    heatSoakGaugePressureMpa: reading.heatSoakGaugePressureMpa,
   };
+  if (reading.lowestCoolingGaugePressureMpa !== null) values.lowestCoolingGaugePressureMpa = reading.lowestCoolingGaugePressureMpa;
   if (reading.heaterTemperatureC !== null) values.heaterTemperatureC = reading.heaterTemperatureC;
   return values;
 }

@@ -31,7 +31,7 @@ export type TraceCheck = {
 export function checkTraceReading(plan: FusionPlan, reading: PressureTraceReading, recorded: RecordedValues, system: UnitSystem = "si"): TraceCheck {
   const fromTrace = measurementsFromTraceReading(reading);
   const merged: JointMeasurements = { ...measurementsFromRecorded(recorded), ...fromTrace };
-  const parameters: JointParameter[] = ["beadUpPressure", "heatSoak", "changeover", "pressureBuildUp", "fusionPressure", "cooling"];
+  const parameters: JointParameter[] = ["beadUpPressure", "heatSoak", "heatSoakPressure", "changeover", "pressureBuildUp", "fusionPressure", "cooling", "coolingPressure"];
   if (reading.heaterTemperatureC !== null) parameters.unshift("heaterTemperature");
   const check = checkJoint(plan, merged, { system });
   const findings = check.findings.filter((f) => parameters.includes(f.parameter));
@@ -49,6 +49,7 @@ export function traceVersusTyped(reading: PressureTraceReading, recorded: Record
     { key: "cooling", label: "Cooling under pressure", kind: "duration", typed: recorded.coolingS, trace: reading.coolingS },
     { key: "beadUpPressure", label: "Bead-up gauge pressure", kind: "pressure", typed: recorded.beadUpGaugePressureMpa, trace: reading.beadUpGaugePressureMpa },
     { key: "fusionPressure", label: "Fusion gauge pressure", kind: "pressure", typed: recorded.fusionGaugePressureMpa, trace: reading.fusionGaugePressureMpa },
+    { key: "heatSoakPressure", label: "Heat-soak gauge pressure", kind: "pressure", typed: recorded.heatSoakGaugePressureMpa, trace: reading.heatSoakGaugePressureMpa },
   ];
   if (reading.heaterTemperatureC !== null) rows.unshift({ key: "heaterTemperature", label: "Heater temperature", kind: "temperature", typed: recorded.heaterTemperatureC, trace: reading.heaterTemperatureC });
   return rows;

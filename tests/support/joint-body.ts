@@ -15,6 +15,7 @@ export const DEMO_JOINT_VALUES: RecordedValues = {
   fusionGaugePressureMpa: 0.53,
   beadMm: 3,
   heatSoakS: 90,
+  heatSoakGaugePressureMpa: null,
   changeoverS: 5,
   coolingS: 600,
   ...allChecksPassed(),

@@ -46,7 +46,7 @@ export async function attachTrace(
     const first = parsed.errors[0]!;
     throw new AppError("invalid", `The trace file could not be read: line ${first.line}: ${first.message}${parsed.errors.length > 1 ? ` (and ${parsed.errors.length - 1} more)` : ""}.`, { file: lines });
   }
-  const read = readPressureTrace(parsed.samples, { dragPressureMpa: item.recorded.dragPressureMpa ?? item.plan.dragPressureMpa });
+  const read = readPressureTrace(parsed.samples, { dragPressureMpa: item.recorded.dragPressureMpa ?? item.plan.dragPressureMpa, plan: item.plan });
   if (!read.ok) throw new AppError("invalid", `The trace was read but its phases could not be found: ${read.error}.`, { file: [read.error] });
   const check = checkTraceReading(item.plan, read.reading, item.recorded, "si");
 

@@ -29,6 +29,11 @@ export const ASTM_F2620: ProcedureDefinition = {
       status: 'from-memory',
     },
     coolingInterfacialPressureMpa: null,
+    heatSoakInterfacialPressureMpa: {
+      max: 0,
+      source: `${F2620_SOURCE}: heat soak with the ends against the heater without force, at drag pressure (PPI "Melt Procedure" page)`,
+      status: 'confirmed',
+    },
     minBeadMm: {
       rule: {
         kind: 'bands',

@@ -18,6 +18,11 @@ export const DVS_2207_1: ProcedureDefinition = {
     },
     fusionInterfacialPressureMpa: { min: 0.14, max: 0.16, source: `${DVS_SOURCE}: joining pressure 0.15 ± 0.01 N/mm²`, status: 'from-memory' },
     coolingInterfacialPressureMpa: null,
+    heatSoakInterfacialPressureMpa: {
+      max: 0.02,
+      source: `${DVS_SOURCE}: heating (heat-soak) pressure at most 0.02 N/mm² (one reproduction gives 0.01)`,
+      status: 'confirmed-2nd',
+    },
     minBeadMm: {
       rule: {
         kind: 'bands',

@@ -19,6 +19,7 @@ export const ISO_21307_SLP: ProcedureDefinition = {
     beadUpInterfacialPressureMpa: { min: 0.15, max: 0.19, source: `${ISO_SOURCE} single low-pressure: bead-up P1 = 0.17 ± 0.02 MPa`, status: 'from-memory' },
     fusionInterfacialPressureMpa: { min: 0.15, max: 0.19, source: `${ISO_SOURCE} single low-pressure: fusion P4 = 0.17 ± 0.02 MPa`, status: 'from-memory' },
     coolingInterfacialPressureMpa: null,
+    heatSoakInterfacialPressureMpa: { max: 0, source: `${ISO_SOURCE} single low-pressure: heat soak at drag pressure or less (P2 ≈ 0; a pipe association's 2020 parameter card)`, status: 'confirmed-2nd' },
     minBeadMm: null,
     heatSoakS: {
       target: { kind: 'linear', basis: 'wall-mm', perMm: 11, offset: 0 },
@@ -52,6 +53,7 @@ export const ISO_21307_DLP: ProcedureDefinition = {
     beadUpInterfacialPressureMpa: { min: 0.13, max: 0.17, source: `${ISO_SOURCE} dual low-pressure: bead-up P1 = 0.15 ± 0.02 MPa`, status: 'from-memory' },
     fusionInterfacialPressureMpa: { min: 0.13, max: 0.17, source: `${ISO_SOURCE} dual low-pressure: fusion P4 = 0.15 ± 0.02 MPa for about 10 s`, status: 'from-memory' },
     coolingInterfacialPressureMpa: { min: 0.025, max: 0.025, source: `${ISO_SOURCE} dual low-pressure: reduced cooling pressure P5 = 0.025 MPa`, status: 'from-memory' },
+    heatSoakInterfacialPressureMpa: { max: 0, source: `${ISO_SOURCE} dual low-pressure: heat soak at drag pressure or less (P2 ≈ 0)`, status: 'from-memory' },
     minBeadMm: null,
     heatSoakS: null,
     maxChangeoverS: {
@@ -87,6 +89,7 @@ export const ISO_21307_SHP: ProcedureDefinition = {
     beadUpInterfacialPressureMpa: { min: 0.42, max: 0.62, source: `${ISO_SOURCE} single high-pressure: bead-up P1 = 0.52 ± 0.10 MPa`, status: 'from-memory' },
     fusionInterfacialPressureMpa: { min: 0.42, max: 0.62, source: `${ISO_SOURCE} single high-pressure: fusion P4 = 0.52 ± 0.10 MPa`, status: 'from-memory' },
     coolingInterfacialPressureMpa: null,
+    heatSoakInterfacialPressureMpa: { max: 0, source: `${ISO_SOURCE} single high-pressure: heat soak at drag pressure or less (P2 ≈ 0)`, status: 'from-memory' },
     minBeadMm: null,
     heatSoakS: null,
     maxChangeoverS: {

@@ -60,6 +60,11 @@ export interface Window {
 
 export interface SourcedWindow extends Window, Sourced {}
 
+/** A ceiling with its source (e.g. the heat-soak interfacial pressure, MPa). */
+export interface SourcedMaximum extends Sourced {
+  max: number;
+}
+
 export interface SourcedRule extends Sourced {
   rule: SizeRule;
 }
@@ -88,6 +93,12 @@ export interface ProcedureWindows {
   fusionInterfacialPressureMpa: SourcedWindow;
   /** Reduced pressure held while cooling (ISO 21307 dual low-pressure only). */
   coolingInterfacialPressureMpa: SourcedWindow | null;
+  /**
+   * Highest interfacial pressure during heat soak, MPa: 0 = at drag only ("without force").
+   * Absent in procedure versions stored before it was modelled; the plan then takes the
+   * value of the published procedure the version is based on.
+   */
+  heatSoakInterfacialPressureMpa?: SourcedMaximum | null;
   /** Minimum melt-bead size (F2620 by OD; DVS bead height by wall), mm. */
   minBeadMm: SourcedRule | null;
   heatSoakS: SourcedHeatSoak | null;
