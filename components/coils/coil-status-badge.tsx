@@ -1,4 +1,4 @@
-import { COIL_STATUS_LABELS, type CoilStatus } from "@/domain/coil-life/rules";
+import { COIL_STATUS_LABELS, type CoilStatus } from "@/domain/coils/life";
 
 const TONES: Record<CoilStatus, string> = {
   "in-yard": "border-slate-500 bg-white text-ink",

@@ -4,7 +4,10 @@
 // updatable projection of the latest revision. Values in canonical SI (°C, MPa, mm, s, m).
 import type { Knex } from "knex";
 import type { FusionPlan } from "@/domain/fusion/plan";
-import type { JointFinding, JointOutcome } from "@/domain/fusion/check";
+import type { JointFinding } from "@/domain/fusion/check";
+import type { JointOutcome } from "@/domain/joints/outcomes";
+import type { ReviewState } from "@/domain/joints/review-states";
+import type { RevisionKind } from "@/domain/joints/revision-kinds";
 import type { JointKind, Shelter, TimedPhase } from "@/domain/joints/schemas";
 import type { RecordedValues } from "@/domain/joints/values";
 import type { OverrideGrant } from "@/domain/joints/rules";
@@ -12,8 +15,8 @@ import { conn, type Db } from "../client";
 import { toCoil, type Coil } from "./coils";
 import { num, parseJson, recordedValueRow, setList, text, toRecordedValues, type DbRow } from "./rows";
 
-export type ReviewState = "pending-review" | "accepted" | "cut-out";
-export type RevisionKind = "recorded" | "corrected" | "accepted" | "cut-out" | "trace-attached";
+export type { ReviewState } from "@/domain/joints/review-states";
+export type { RevisionKind } from "@/domain/joints/revision-kinds";
 
 /** A joint as stored, with its recorded values (domain/joints/values) spread in. */
 export type JointRecord = RecordedValues & {

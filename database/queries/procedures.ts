@@ -2,8 +2,8 @@
 // (domain ProcedureDefinition, JSON) is never changed once published: tightening publishes
 // a new version and marks the previous one superseded. Joints keep the version id they
 // were checked against.
-import type { FusionStandard, ProcedureDefinition } from "@/domain/fusion/procedures";
-import { readProcedureDefinition } from "@/domain/office/procedures";
+import type { FusionStandard, ProcedureDefinition } from "@/domain/procedures";
+import { readProcedureDefinition } from "@/domain/procedures/form";
 import { conn, type Db } from "../client";
 
 export type ProcedureRecord = {

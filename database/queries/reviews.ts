@@ -2,12 +2,14 @@
 // one joint's evidence (plan, recorded values, photos, pressure trace, revisions), and the
 // writes a decision makes — a new joint revision and the joint_states projection — which
 // the caller puts in one transaction with the audit entry.
-import type { JointFinding, JointOutcome, JointParameter } from "@/domain/fusion/check";
+import type { JointFinding } from "@/domain/fusion/check";
+import type { JointOutcome } from "@/domain/joints/outcomes";
+import type { JointParameter } from "@/domain/fusion/parameters";
 import type { FusionPlan } from "@/domain/fusion/plan";
 import type { PressureTraceReading } from "@/domain/pressure-trace/read";
-import type { ReviewState } from "@/domain/review/labels";
+import type { ReviewState } from "@/domain/joints/review-states";
 import type { RecordedValues } from "@/domain/joints/values";
-import type { ChartPoint } from "@/domain/review/trace-check";
+import type { ChartPoint } from "@/domain/pressure-trace/check";
 import { conn, type Db } from "../client";
 import { addJointFindings, jointHasFinding, num, parseJson, text, toRecordedValues, type DbRow } from "./rows";
 

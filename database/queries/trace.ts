@@ -3,7 +3,7 @@
 // OR across the two columns, so it stays fast on millions of joints. Joint → origins: the
 // two components with their lots and receipt inspections, machine, heater plate and its
 // last check before the joint, the fuser's qualification records, the procedure version.
-import { readScannedCoilText } from "@/domain/coil-life/rules";
+import { readScannedCoilText } from "@/domain/coils/life";
 import { conn, type Db } from "../client";
 import { findCoilByCode, isoDay, listCoilsByTraceCode, toCoil, type Coil } from "./coils";
 

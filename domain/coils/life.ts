@@ -5,21 +5,13 @@
 // domain/coils, plus what each move needs: a crew for the trailer, a job for use).
 // Lengths in m, kept to the centimetre like the database (DECIMAL(9,2)).
 
-import { coilMoveProblem, type CoilStatus } from '@/domain/coils/planning';
+import { coilMoveProblem } from '@/domain/coils/planning';
+import { COIL_STATUSES, type CoilStatus } from '@/domain/coils/statuses';
 import { findPipeSize, type PipeSeries } from '@/domain/pipe/catalogue';
 import { MATERIAL_CODES, TABLE_6_SIZE_FACTORS, parseTraceCode, sizeFactorFor, type TraceCodeValue } from '@/domain/trace-code/trace-code';
 import { formatQuantity, type UnitSystem } from '@/domain/units/format';
 
-export type { CoilStatus } from '@/domain/coils/planning';
-export { COIL_STATUSES } from '@/domain/coils/planning';
-
-export const COIL_STATUS_LABELS: Readonly<Record<CoilStatus, string>> = {
-  'in-yard': 'In yard',
-  'on-trailer': 'On trailer',
-  'in-use': 'In use',
-  'used-up': 'Used up',
-  quarantined: 'Quarantined',
-};
+export { COIL_STATUSES, COIL_STATUS_LABELS, type CoilStatus } from '@/domain/coils/statuses';
 
 /** Metres → whole centimetres (the stored resolution), so comparisons never drift. */
 export function toCentimetres(m: number): number {
@@ -287,8 +279,7 @@ export function statusMoveProblem(input: StatusMoveInput): { field: string; mess
 
 /** Status a coil may move to from `from` (for the picker); quarantine is always offered. */
 export function statusMovesFrom(from: CoilStatus): CoilStatus[] {
-  const all: CoilStatus[] = ['in-yard', 'on-trailer', 'in-use', 'used-up', 'quarantined'];
-  return all.filter((to) => coilMoveProblem(from, to, 'x') === null);
+  return COIL_STATUSES.filter((to) => coilMoveProblem(from, to, 'x') === null);
 }
 
 /**

@@ -5,6 +5,7 @@
 
 import { DomainError } from '@/domain/errors';
 import { formatQuantity, type UnitSystem } from '@/domain/units/format';
+import { COIL_STATUS_PHRASES, type CoilStatus } from '@/domain/coils/statuses';
 
 /** Length tolerance, m, so that 304.8 m of 12.192 m sticks is exactly 25 pieces. */
 const LENGTH_TOLERANCE_M = 1e-9;
@@ -82,9 +83,7 @@ export function coilLengthAfterPull(input: { remainingM: number; pullM: number }
   return Math.max(0, input.remainingM - input.pullM);
 }
 
-export type CoilStatus = 'in-yard' | 'on-trailer' | 'in-use' | 'used-up' | 'quarantined';
-
-export const COIL_STATUSES: readonly CoilStatus[] = ['in-yard', 'on-trailer', 'in-use', 'used-up', 'quarantined'];
+export { COIL_STATUSES, type CoilStatus } from '@/domain/coils/statuses';
 
 /** What nextCoil needs to know of a coil. */
 export interface CoilForPlanning {
@@ -123,8 +122,8 @@ const MOVES: Readonly<Record<CoilStatus, readonly CoilStatus[]>> = {
 /** Plain-language reason a status move is refused, or null when it is allowed. */
 export function coilMoveProblem(from: CoilStatus, to: CoilStatus, reason?: string): string | null {
   if (!MOVES[from] || !MOVES[to]) return `Unknown coil status "${!MOVES[from] ? from : to}"`;
-  if (from === to) return `The coil is already ${words(from)}`;
-  if (!MOVES[from].includes(to)) return `A coil that is ${words(from)} cannot be moved to ${words(to)}`;
+  if (from === to) return `The coil is already ${COIL_STATUS_PHRASES[from]}`;
+  if (!MOVES[from].includes(to)) return `A coil that is ${COIL_STATUS_PHRASES[from]} cannot be moved to ${COIL_STATUS_PHRASES[to]}`;
   const needsReason = to === 'quarantined' || from === 'quarantined';
   if (needsReason && !(reason && reason.trim().length > 0)) {
     return to === 'quarantined' ? 'Say why the coil is quarantined' : 'Say why the coil leaves quarantine';
@@ -135,19 +134,4 @@ export function coilMoveProblem(from: CoilStatus, to: CoilStatus, reason?: strin
 /** Whether a coil may move from one status to another (see coilMoveProblem for the reason). */
 export function canMoveCoil(from: CoilStatus, to: CoilStatus, reason?: string): boolean {
   return coilMoveProblem(from, to, reason) === null;
-}
-
-function words(status: CoilStatus): string {
-  switch (status) {
-    case 'in-yard':
-      return 'in the yard';
-    case 'on-trailer':
-      return 'on the trailer';
-    case 'in-use':
-      return 'in use';
-    case 'used-up':
-      return 'used up';
-    case 'quarantined':
-      return 'quarantined';
-  }
 }

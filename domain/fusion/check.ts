@@ -3,6 +3,8 @@
 // A value exactly on a limit passes; a value not recorded is a finding of its own.
 
 import type { FusionPlan } from '@/domain/fusion/plan';
+import type { JointParameter } from '@/domain/fusion/parameters';
+import type { JointOutcome } from '@/domain/joints/outcomes';
 import { jointMeasurements, type RecordedValues } from '@/domain/joints/values';
 import {
   formatQuantity,
@@ -12,34 +14,8 @@ import {
   type UnitSystem,
 } from '@/domain/units/format';
 
-export type JointOutcome = 'within-limits' | 'out-of-limits';
-
-export type JointParameter =
-  | 'heaterTemperature'
-  | 'beadUpPressure'
-  | 'fusionPressure'
-  | 'bead'
-  | 'heatSoak'
-  | 'changeover'
-  | 'pressureBuildUp'
-  | 'cooling'
-  | 'facing'
-  | 'alignment'
-  | 'visualBead';
-
-export const JOINT_PARAMETERS: readonly JointParameter[] = [
-  'heaterTemperature',
-  'beadUpPressure',
-  'fusionPressure',
-  'bead',
-  'heatSoak',
-  'changeover',
-  'pressureBuildUp',
-  'cooling',
-  'facing',
-  'alignment',
-  'visualBead',
-];
+export type { JointOutcome } from '@/domain/joints/outcomes';
+export { JOINT_PARAMETERS, type JointParameter } from '@/domain/fusion/parameters';
 
 /** Why a finding was raised. */
 export type FindingKind = 'below-minimum' | 'above-maximum' | 'not-recorded' | 'check-failed';

@@ -8,9 +8,9 @@ import {
   type DeriveProcedureResult,
   type ProcedureDefinition,
   type ProcedureTightening,
-} from '@/domain/fusion/procedures';
+} from '@/domain/procedures';
 import { fromDisplay, type UnitSystem } from '@/domain/units/format';
-import { TIGHTENING_FIELDS, TIGHTENING_FORM_FIELDS, type TighteningFormField, type TightenProcedureInput } from '@/domain/office/schemas';
+import { TIGHTENING_FIELDS, TIGHTENING_FORM_FIELDS, type TighteningFormField, type TightenProcedureInput } from '@/domain/procedures/schemas';
 
 /** Form values (person's units) → ProcedureTightening in °C, MPa, mm, s. */
 export function tighteningFromForm(input: Pick<TightenProcedureInput, TighteningFormField | 'units'>): ProcedureTightening {

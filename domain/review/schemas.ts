@@ -1,7 +1,7 @@
 // Input schemas of the review screen: a decision on a joint, the queue's filter and a
 // pressure-trace upload. Used by the forms (zodResolver) and parsed again on the server.
 import { z } from "zod";
-import { JOINT_PARAMETERS, type JointParameter } from "@/domain/fusion/check";
+import { JOINT_PARAMETERS, type JointParameter } from "@/domain/fusion/parameters";
 
 export const REVIEW_DECISIONS = ["accepted", "cut-out"] as const;
 export type ReviewDecision = (typeof REVIEW_DECISIONS)[number];

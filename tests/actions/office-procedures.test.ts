@@ -4,7 +4,7 @@
 import { beforeEach, describe, expect, it } from "vitest";
 import { createProcedureAction, editVersionNotesAction, publishProcedureVersionAction } from "@/app/(signed-in)/procedures/actions";
 import { currentProcedureVersion, currentProcedureVersionForJob, findProcedureVersionById, listProcedureVersions } from "@/database/queries/procedures";
-import { builtInProcedure } from "@/domain/fusion/procedures";
+import { builtInProcedure } from "@/domain/procedures";
 import { ownerDb, resetDatabase } from "../support/db";
 import { actAs } from "../support/session";
 import { makeUser } from "../support/users";

@@ -9,7 +9,7 @@ import {
   heaterTemperatures,
   insightsSummary,
 } from "@/database/queries/insights";
-import { PARAMETER_LABELS } from "@/domain/review/labels";
+import { PARAMETER_LABELS } from "@/domain/fusion/parameters";
 import { InsightsCharts } from "./_components/insights-charts";
 
 export const dynamic = "force-dynamic";

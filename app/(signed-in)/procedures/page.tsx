@@ -1,7 +1,7 @@
 import Link from "next/link";
 import { requireUser } from "@/app/_lib/page-guard";
 import { currentProcedureVersion, listProcedures } from "@/database/queries/procedures";
-import { builtInProcedure } from "@/domain/fusion/procedures";
+import { builtInProcedure } from "@/domain/procedures";
 import { can } from "@/domain/roles";
 import { AddProcedureForm } from "./_components/add-procedure-form";
 import { standardOptions } from "./_lib/views";

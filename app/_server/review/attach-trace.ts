@@ -15,7 +15,7 @@ import { putObject } from "@/app/_server/storage/object-store";
 import { parsePressureTraceCsv } from "@/domain/pressure-trace/parse";
 import { readPressureTrace } from "@/domain/pressure-trace/read";
 import { AppError } from "@/domain/result";
-import { checkTraceReading, downsampleTrace } from "@/domain/review/trace-check";
+import { checkTraceReading, downsampleTrace } from "@/domain/pressure-trace/check";
 import { can, canAttachTraceTo } from "@/domain/roles";
 import { MAX_TRACE_FILE_BYTES } from "@/domain/review/schemas";
 

@@ -5,7 +5,7 @@ import "server-only";
 import type { ReviewItem } from "@/database/queries/reviews";
 import type { JointFinding } from "@/domain/fusion/check";
 import { findingsForViewer, planVersusRecorded, type ComparisonRow } from "@/domain/review/queue";
-import { checkTraceReading, traceVersusTyped, type TraceValueRow } from "@/domain/review/trace-check";
+import { checkTraceReading, traceVersusTyped, type TraceValueRow } from "@/domain/pressure-trace/check";
 import type { UnitSystem } from "@/domain/units/format";
 
 export type QueueItemView = Omit<ReviewItem, "madeAt" | "trace" | "findings" | "photos"> & {

@@ -3,7 +3,7 @@
 // Client code imports these as types only (erased in the bundle).
 import "server-only";
 import type { Coil } from "@/database/queries/coils";
-import type { ProcedureDefinition } from "@/domain/fusion/procedures";
+import type { ProcedureDefinition } from "@/domain/procedures";
 import type { CoilStatus } from "@/domain/joints/rules";
 
 export type TrenchCoil = {

@@ -5,7 +5,7 @@ import { requireUser } from "@/app/_lib/page-guard";
 import { Cautions } from "@/components/ui/caution";
 import { findCoilByCode, listCoilEvents, listCoilMoveOptions } from "@/database/queries/coils";
 import { listJointsForCoil } from "@/database/queries/trace";
-import { COIL_STATUS_LABELS, DAMAGE_LABELS, statusMovesFrom } from "@/domain/coil-life/rules";
+import { COIL_STATUS_LABELS, DAMAGE_LABELS, statusMovesFrom } from "@/domain/coils/life";
 import { describeSize } from "@/domain/labels/label";
 import { bendRatio, minimumBendRadiusMm } from "@/domain/pipe/bending";
 import { can } from "@/domain/roles";

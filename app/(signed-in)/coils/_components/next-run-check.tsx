@@ -1,7 +1,7 @@
 "use client";
 // "Is there enough left for the next run?" — typed in the person's units, warned in words.
 import { useId, useState } from "react";
-import { nextRunWarning } from "@/domain/coil-life/rules";
+import { nextRunWarning } from "@/domain/coils/life";
 import { fromDisplay, unitLabel } from "@/domain/units/format";
 
 export function NextRunCheck({ coilCode, remainingM, unitSystem }: { coilCode: string; remainingM: number; unitSystem: "si" | "us" }) {

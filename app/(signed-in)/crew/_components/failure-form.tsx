@@ -8,7 +8,7 @@ import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { Field, FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
-import { recordQualificationFailureSchema } from "@/domain/office/schemas";
+import { recordQualificationFailureSchema } from "@/domain/qualifications/schemas";
 import { recordQualificationFailureAction } from "../actions";
 import { SelectField, TextAreaField, applyActionResult } from "@/components/form/controls";
 

@@ -8,7 +8,7 @@ import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { Field, FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
-import { QUALIFICATION_METHODS, QUALIFICATION_METHOD_LABELS, recordQualificationSchema } from "@/domain/office/schemas";
+import { QUALIFICATION_METHODS, QUALIFICATION_METHOD_LABELS, recordQualificationSchema } from "@/domain/qualifications/schemas";
 import { recordQualificationAction } from "../actions";
 import { ChoiceGroup, SelectField, applyActionResult } from "@/components/form/controls";
 

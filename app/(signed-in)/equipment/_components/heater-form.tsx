@@ -8,7 +8,7 @@ import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { Field, FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
-import { createHeaterSchema } from "@/domain/office/schemas";
+import { createHeaterSchema } from "@/domain/equipment/schemas";
 import { createHeaterAction, updateHeaterAction } from "../actions";
 import { applyActionResult } from "@/components/form/controls";
 

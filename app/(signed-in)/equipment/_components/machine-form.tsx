@@ -8,7 +8,7 @@ import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { Field, FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
-import { createMachineSchema } from "@/domain/office/schemas";
+import { createMachineSchema } from "@/domain/equipment/schemas";
 import { unitLabel, type UnitSystem } from "@/domain/units/format";
 import { createMachineAction, updateMachineAction } from "../actions";
 import { applyActionResult } from "@/components/form/controls";

@@ -8,7 +8,7 @@ import { useForm, useWatch } from "react-hook-form";
 import type { z } from "zod";
 import { Field, FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
-import { createJobSchema } from "@/domain/office/schemas";
+import { createJobSchema } from "@/domain/jobs/schemas";
 import { createJobAction, updateJobAction } from "../actions";
 import { ChoiceGroup, SelectField, applyActionResult, errorText } from "@/components/form/controls";
 

@@ -8,7 +8,7 @@ import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { Field, FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
-import { createProcedureSchema } from "@/domain/office/schemas";
+import { createProcedureSchema } from "@/domain/procedures/schemas";
 import { createProcedureAction } from "../actions";
 import { SelectField, TextAreaField, applyActionResult } from "@/components/form/controls";
 

@@ -9,7 +9,7 @@ import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { Field, FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
-import { TIGHTENING_FORM_FIELDS, tightenProcedureSchema, type TighteningFormField } from "@/domain/office/schemas";
+import { TIGHTENING_FORM_FIELDS, tightenProcedureSchema, type TighteningFormField } from "@/domain/procedures/schemas";
 import { publishProcedureVersionAction } from "../actions";
 import { TextAreaField, applyActionResult } from "@/components/form/controls";
 

@@ -1,6 +1,6 @@
 "use client";
 import type { QueueItemView } from "@/app/_server/review/queue-item-view";
-import { OUTCOME_LABELS } from "@/domain/review/labels";
+import { OUTCOME_LABELS } from "@/domain/joints/outcomes";
 import { formatQuantity } from "@/domain/units/format";
 import { Cautions } from "@/components/ui/caution";
 import { formatInstant } from "./format";

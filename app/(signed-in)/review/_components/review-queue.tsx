@@ -2,7 +2,7 @@
 import { useEffect, useMemo, useState } from "react";
 import useSWR from "swr";
 import type { QueueItemView } from "@/app/_server/review/queue-item-view";
-import { OUTCOME_LABELS } from "@/domain/review/labels";
+import { OUTCOME_LABELS } from "@/domain/joints/outcomes";
 import { formatInstant } from "./format";
 import { JointDetail } from "./joint-detail";
 

@@ -1,7 +1,7 @@
 "use client";
 import useSWR from "swr";
 import { CartesianGrid, ComposedChart, Legend, Line, ReferenceArea, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
-import type { ChartBand, ChartMarker, ChartPoint, ChartTimeZone } from "@/domain/review/trace-check";
+import type { ChartBand, ChartMarker, ChartPoint, ChartTimeZone } from "@/domain/pressure-trace/check";
 import { toDisplay, unitLabel } from "@/domain/units/format";
 
 type TraceData = { points: ChartPoint[]; windows: { bands: ChartBand[]; markers: ChartMarker[]; zones: ChartTimeZone[] } };

@@ -3,7 +3,7 @@ import { useRef, useState } from "react";
 import type { QueueItemView } from "@/app/_server/review/queue-item-view";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/form/field";
-import { OUTCOME_LABELS } from "@/domain/review/labels";
+import { OUTCOME_LABELS } from "@/domain/joints/outcomes";
 import { formatQuantity } from "@/domain/units/format";
 import { formatInstant } from "./format";
 import { TraceChart } from "./trace-chart";

@@ -2,7 +2,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requireUser } from "@/app/_lib/page-guard";
 import type { Coil } from "@/database/queries/coils";
-import { DAMAGE_LABELS } from "@/domain/coil-life/rules";
+import { DAMAGE_LABELS } from "@/domain/coils/life";
 import { describeSize } from "@/domain/labels/label";
 import { formatQuantity } from "@/domain/units/format";
 import { CoilStatusBadge } from "@/components/coils/coil-status-badge";
