@@ -2,7 +2,7 @@
 // Qualifications): blank → undefined, numbers and dates with messages naming the field,
 // and the units the person typed values in (si or us) → canonical SI.
 import { z } from 'zod';
-import { fromDisplay, type QuantityKind } from '@/domain/units/format';
+import { fromDisplay, type QuantityKind, type UnitSystem, UNIT_SYSTEMS } from '@/domain/units/format';
 import { isIsoDate } from '@/domain/dates/civil';
 
 export const blankToUndefined = (value: unknown) => (value === '' || value === null || (typeof value === 'string' && value.trim() === '') ? undefined : value);
@@ -75,6 +75,6 @@ export const optionalIdField = (label: string) =>
 
 export const versionField = z.coerce.number({ error: 'Record version is missing; reload the page.' }).int().positive({ error: 'Record version is missing; reload the page.' });
 
-export const unitsField = z.enum(['si', 'us'], { error: 'Say which units the values are in (SI or US customary).' });
+export const unitsField = z.enum(UNIT_SYSTEMS, { error: 'Say which units the values are in (SI or US customary).' });
 
-export const toSi = (value: number | undefined, kind: QuantityKind, units: 'si' | 'us') => (value === undefined ? undefined : fromDisplay(value, kind, units));
+export const toSi = (value: number | undefined, kind: QuantityKind, units: UnitSystem) => (value === undefined ? undefined : fromDisplay(value, kind, units));

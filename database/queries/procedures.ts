@@ -3,7 +3,7 @@
 // a new version and marks the previous one superseded. Joints keep the version id they
 // were checked against.
 import type { FusionStandard, ProcedureDefinition } from "@/domain/procedures";
-import { readProcedureDefinition } from "@/domain/procedures/form";
+import { parseProcedureDefinition } from "@/domain/fusion/schemas";
 import { conn, type Db } from "../client";
 
 export type ProcedureRecord = {
@@ -42,15 +42,15 @@ function toProcedure(r: Record<string, unknown>): ProcedureRecord {
 }
 
 function toVersion(r: Record<string, unknown>): ProcedureVersionRecord {
-  const parsed = readProcedureDefinition(r.definition as string);
-  if (!parsed.ok) throw new Error(`Procedure version ${String(r.id)}: ${parsed.message}`);
+  const parsed = parseProcedureDefinition(r.definition as string);
+  if (!parsed.ok) throw new Error(`Procedure version ${String(r.id)}: ${parsed.errors.map((e) => (e.field ? `${e.field}: ${e.message}` : e.message)).join('; ')}`);
   return {
     id: r.id as number,
     procedureId: r.procedure_id as number,
     procedureCode: r.procedure_code as string,
     procedureName: r.procedure_name as string,
     versionNo: r.version_no as number,
-    definition: parsed.definition,
+    definition: parsed.procedure,
     notes: (r.notes as string | null) ?? null,
     publishedBy: (r.published_by as number | null) ?? null,
     publishedByName: (r.published_by_name as string | null) ?? null,

@@ -2,6 +2,7 @@
 import type { Actor, Role } from "@/domain/roles";
 import { isRole } from "@/domain/roles";
 import { conn, type Db } from "../client";
+import type { UnitSystem } from "@/domain/units/format";
 
 export type UserRecord = Actor & {
   crewId: number | null;
@@ -18,7 +19,7 @@ type UserRow = {
   email: string;
   password_hash: string;
   roles: string;
-  unit_system: "si" | "us";
+  unit_system: UnitSystem;
   is_active: number | boolean;
   session_version: number;
   crew_id: number | null;
@@ -84,7 +85,7 @@ export async function countActiveAdmins(_: Record<string, never> = {}, trx?: Db)
 }
 
 export async function insertUser(
-  input: { name: string; email: string; passwordHash: string; roles: Role[]; unitSystem?: "si" | "us"; crewId?: number | null; isActive?: boolean },
+  input: { name: string; email: string; passwordHash: string; roles: Role[]; unitSystem?: UnitSystem; crewId?: number | null; isActive?: boolean },
   trx?: Db,
 ): Promise<number> {
   const [id] = await conn(trx)("users").insert({
@@ -134,7 +135,7 @@ export async function bumpSessionVersion({ id }: { id: number }, trx?: Db): Prom
   await k("users").where({ id }).update({ session_version: k.raw("session_version + 1") });
 }
 
-export async function updateUnitSystem({ id, unitSystem }: { id: number; unitSystem: "si" | "us" }, trx?: Db): Promise<void> {
+export async function updateUnitSystem({ id, unitSystem }: { id: number; unitSystem: UnitSystem }, trx?: Db): Promise<void> {
   await conn(trx)("users").where({ id }).update({ unit_system: unitSystem });
 }
 

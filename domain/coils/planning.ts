@@ -1,10 +1,10 @@
 // Coil planning: joints and fusion time for a run laid from straight lengths versus coils,
-// coil length left after a pull, which coil to use next, and coil status moves.
+// which coil to use next, and coil status moves (the length left after a pull is
+// domain/coils/life's planPull).
 // Common practice of PE gas crews (no published source): a run of n pieces needs n − 1
 // butt-fusion joints between pieces plus the joints at its two ends (tie-ins/fittings).
 
 import { DomainError } from '@/domain/errors';
-import { formatQuantity, type UnitSystem } from '@/domain/units/format';
 import { COIL_STATUS_PHRASES, type CoilStatus } from '@/domain/coils/statuses';
 
 /** Length tolerance, m, so that 304.8 m of 12.192 m sticks is exactly 25 pieces. */
@@ -63,24 +63,6 @@ export function coilSavings(input: { runLengthM: number; stickLengthM: number; c
   const sticks = planCoilRun({ runLengthM: input.runLengthM, pieceLengthM: input.stickLengthM, endJoints: input.endJoints, minutesPerJoint: input.minutesPerJoint });
   const coils = planCoilRun({ runLengthM: input.runLengthM, pieceLengthM: input.coilLengthM, endJoints: input.endJoints, minutesPerJoint: input.minutesPerJoint });
   return { sticks, coils, jointsSaved: sticks.joints - coils.joints, minutesSaved: sticks.fusionMinutes - coils.fusionMinutes };
-}
-
-/**
- * Coil length left after pulling pipe off it, m (not rounded). Refuses, with a message in
- * the user's units, a pull that is not a number, is zero or negative, or is longer than
- * what is left. Throws DomainError.
- */
-export function coilLengthAfterPull(input: { remainingM: number; pullM: number }, system: UnitSystem = 'si'): number {
-  const m = (value: number) => formatQuantity(value, 'length-m', system);
-  assertNonNegative(input.remainingM, 'Length left on the coil');
-  if (typeof input.pullM !== 'number' || !Number.isFinite(input.pullM)) {
-    throw new DomainError('invalid-input', 'The length pulled must be a number');
-  }
-  if (input.pullM <= 0) throw new DomainError('invalid-input', `The length pulled must be more than 0 (got ${m(input.pullM)})`);
-  if (input.pullM > input.remainingM + LENGTH_TOLERANCE_M) {
-    throw new DomainError('invalid-input', `Cannot pull ${m(input.pullM)}: only ${m(input.remainingM)} is left on the coil`);
-  }
-  return Math.max(0, input.remainingM - input.pullM);
 }
 
 export { COIL_STATUSES, type CoilStatus } from '@/domain/coils/statuses';

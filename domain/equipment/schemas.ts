@@ -2,7 +2,7 @@
 // react-hook-form through zodResolver and parsed again on the server. Quantities arrive in
 // the units the person typed them in (`units`: si or us) and leave in canonical SI (mm², °C).
 import { z } from 'zod';
-import { fromDisplay } from '@/domain/units/format';
+import { fromDisplay, type UnitSystem } from '@/domain/units/format';
 import { toNumberInput, numberField, requiredNumber, optionalNumber, requiredText, optionalText, optionalDate, idField, versionField, unitsField, toSi } from '@/domain/form-fields';
 
 const machineFields = {
@@ -16,7 +16,7 @@ const machineFields = {
   nextServiceDue: optionalDate('Next service due'),
 };
 
-type MachineRaw = { units: 'si' | 'us'; minOd?: number; maxOd?: number; pistonArea?: number; lastServiceOn?: string; nextServiceDue?: string };
+type MachineRaw = { units: UnitSystem; minOd?: number; maxOd?: number; pistonArea?: number; lastServiceOn?: string; nextServiceDue?: string };
 
 function checkMachine(value: MachineRaw, ctx: z.RefinementCtx) {
   if (value.minOd !== undefined && value.maxOd !== undefined && value.minOd > value.maxOd) {

@@ -2,7 +2,7 @@
 // bookmarked and shared) by the page, the JSON API and the export alike. Plain-language
 // messages name the field. Dates are whole UTC days, inclusive at both ends.
 import { z } from 'zod';
-import { JOINT_PARAMETERS, type JointParameter } from '@/domain/fusion/parameters';
+import { JOINT_PARAMETERS } from '@/domain/fusion/parameters';
 import { JOINT_OUTCOMES as REGISTER_OUTCOMES } from '@/domain/joints/outcomes';
 import { REVIEW_STATES } from '@/domain/joints/review-states';
 

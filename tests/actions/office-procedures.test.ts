@@ -9,6 +9,7 @@ import { ownerDb, resetDatabase } from "../support/db";
 import { actAs } from "../support/session";
 import { makeUser } from "../support/users";
 import { countRows, insertJoint, makeJob, makeProcedure } from "./office-fixtures";
+import type { UnitSystem } from "@/domain/units/format";
 
 describe("Procedures actions", () => {
   let admin: { id: number };
@@ -17,7 +18,7 @@ describe("Procedures actions", () => {
     admin = await makeUser({ roles: ["admin"] });
   });
 
-  const tighten = (procedureId: number, basedOnVersionId: number, extra: Record<string, unknown> = {}) => ({ units: "si" as "si" | "us", procedureId, basedOnVersionId, note: "Operator tightening after the 2026 trial joints", ...extra });
+  const tighten = (procedureId: number, basedOnVersionId: number, extra: Record<string, unknown> = {}) => ({ units: "si" as UnitSystem, procedureId, basedOnVersionId, note: "Operator tightening after the 2026 trial joints", ...extra });
 
   it("adds a procedure whose version 1 is the published standard's windows", async () => {
     await actAs(admin);

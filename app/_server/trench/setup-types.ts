@@ -5,6 +5,7 @@ import "server-only";
 import type { Coil } from "@/database/queries/coils";
 import type { ProcedureDefinition } from "@/domain/procedures";
 import type { CoilStatus } from "@/domain/joints/rules";
+import type { UnitSystem } from "@/domain/units/format";
 
 export type TrenchCoil = {
   id: number;
@@ -64,7 +65,7 @@ export type TrenchRemake = { id: number; jobId: number; jointNo: number; madeAt:
 export type TrenchRecent = { id: number; jobCode: string; jointNo: number; madeAt: string; outcome: string; reviewState: string };
 
 export type TrenchSetup = {
-  user: { id: number; name: string; unitSystem: "si" | "us"; crewId: number | null };
+  user: { id: number; name: string; unitSystem: UnitSystem; crewId: number | null };
   jobs: TrenchJob[];
   machines: TrenchMachine[];
   heaters: TrenchHeater[];

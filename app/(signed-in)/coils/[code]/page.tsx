@@ -9,7 +9,7 @@ import { COIL_STATUS_LABELS, DAMAGE_LABELS, statusMovesFrom } from "@/domain/coi
 import { describeSize } from "@/domain/labels/label";
 import { bendRatio, minimumBendRadiusMm } from "@/domain/pipe/bending";
 import { can } from "@/domain/roles";
-import { formatQuantity } from "@/domain/units/format";
+import { formatQuantity, type UnitSystem } from "@/domain/units/format";
 import { publicBaseUrl } from "@/app/_server/labels/base-url";
 import { coilLabelSvg, stockOrDefault } from "@/app/_server/labels/render";
 import { CoilStatusBadge } from "@/components/coils/coil-status-badge";
@@ -27,7 +27,7 @@ function Fact({ label, children }: { label: string; children: React.ReactNode })
   );
 }
 
-function bendCaution(coil: { outsideDiameterMm: number; sdr: number }, system: "si" | "us"): string {
+function bendCaution(coil: { outsideDiameterMm: number; sdr: number }, system: UnitSystem): string {
   try {
     const radiusMm = minimumBendRadiusMm(coil);
     const shown = formatQuantity(radiusMm / 1000, "length-m", system, { decimals: system === "si" ? 2 : 1 });

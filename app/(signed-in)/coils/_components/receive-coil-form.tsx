@@ -13,7 +13,7 @@ import { DAMAGE_KINDS, DAMAGE_LABELS, DEFAULT_GOUGE_LIMIT_PCT, DEFAULT_OVALITY_L
 import { receiveCoilSchema } from "@/domain/coils/schemas";
 import { PIPE_SERIES, findPipeSize, pipeSizes, type PipeSeries } from "@/domain/pipe/catalogue";
 import { parseTraceCode } from "@/domain/trace-code/trace-code";
-import { fromDisplay } from "@/domain/units/format";
+import { fromDisplay, type UnitSystem } from "@/domain/units/format";
 import { receiveCoilAction } from "../actions";
 import { CameraScanner } from "@/components/ui/camera-scanner";
 
@@ -31,7 +31,7 @@ export function ReceiveCoilForm({
   suggestedCode: string;
   manufacturers: { name: string; code: string | null }[];
   materials: readonly string[];
-  unitSystem: "si" | "us";
+  unitSystem: UnitSystem;
 }) {
   const router = useRouter();
   const [message, setMessage] = useState<string | null>(null);

@@ -1,7 +1,7 @@
 "use client";
 import type { QueueItemView } from "@/app/_server/review/queue-item-view";
 import { OUTCOME_LABELS } from "@/domain/joints/outcomes";
-import { formatQuantity } from "@/domain/units/format";
+import { formatQuantity, type UnitSystem } from "@/domain/units/format";
 import { Cautions } from "@/components/ui/caution";
 import { formatInstant } from "./format";
 import { DecisionForm } from "./decision-form";
@@ -18,7 +18,7 @@ export function JointDetail({
   onChanged,
 }: {
   item: QueueItemView;
-  unitSystem: "si" | "us";
+  unitSystem: UnitSystem;
   isOwnJoint: boolean;
   onDecided: (message: string) => Promise<void>;
   onChanged: () => Promise<void>;

@@ -5,6 +5,7 @@ import type { QueueItemView } from "@/app/_server/review/queue-item-view";
 import { OUTCOME_LABELS } from "@/domain/joints/outcomes";
 import { formatInstant } from "./format";
 import { JointDetail } from "./joint-detail";
+import type { UnitSystem } from "@/domain/units/format";
 
 type Queue = { total: number; outOfLimits: number; items: QueueItemView[] };
 type Option = { id: number | string; label: string };
@@ -39,7 +40,7 @@ export function ReviewQueue({
   initial: Queue;
   initialFilter: Filter;
   options: { jobs: Option[]; fusers: Option[]; machines: Option[]; findings: Option[] };
-  unitSystem: "si" | "us";
+  unitSystem: UnitSystem;
   userId: number;
   initialSelected: number | null;
 }) {

@@ -4,12 +4,12 @@ import type { QueueItemView } from "@/app/_server/review/queue-item-view";
 import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/form/field";
 import { OUTCOME_LABELS } from "@/domain/joints/outcomes";
-import { formatQuantity } from "@/domain/units/format";
+import { formatQuantity, type UnitSystem } from "@/domain/units/format";
 import { formatInstant } from "./format";
 import { TraceChart } from "./trace-chart";
 
 /** The joint's pressure trace (chart, values read, their check) and the form to attach one. */
-export function TraceSection({ item, unitSystem, onAttached }: { item: QueueItemView; unitSystem: "si" | "us"; onAttached: () => Promise<void> }) {
+export function TraceSection({ item, unitSystem, onAttached }: { item: QueueItemView; unitSystem: UnitSystem; onAttached: () => Promise<void> }) {
   const label = `${item.jobCode} joint ${item.jointNo}`;
   const input = useRef<HTMLInputElement>(null);
   const [busy, setBusy] = useState(false);

@@ -4,7 +4,7 @@ import { requireUser } from "@/app/_lib/page-guard";
 import type { Coil } from "@/database/queries/coils";
 import { DAMAGE_LABELS } from "@/domain/coils/life";
 import { describeSize } from "@/domain/labels/label";
-import { formatQuantity } from "@/domain/units/format";
+import { formatQuantity, type UnitSystem } from "@/domain/units/format";
 import { CoilStatusBadge } from "@/components/coils/coil-status-badge";
 import { traceJointOrigins } from "@/app/_server/trace/origins";
 
@@ -19,7 +19,7 @@ function Fact({ label, children }: { label: string; children: React.ReactNode })
   );
 }
 
-function Component({ title, coil, text, lengthM, system }: { title: string; coil: Coil | null; text?: string | null; lengthM: number | null; system: "si" | "us" }) {
+function Component({ title, coil, text, lengthM, system }: { title: string; coil: Coil | null; text?: string | null; lengthM: number | null; system: UnitSystem }) {
   return (
     <section aria-label={title} className="rounded-md border-2 border-slate-300 bg-white p-4">
       <h3 className="mb-2 text-lg font-bold">{title}</h3>
