@@ -216,21 +216,11 @@ export async function listCoilMoveOptions(_: Record<string, never> = {}, trx?: D
   return { crews: crews.map((c) => ({ ...c, id: Number(c.id) })), jobs: jobs.map((j) => ({ ...j, id: Number(j.id) })) };
 }
 
-export type NewCoil = {
-  coilCode: string;
-  manufacturer: string;
-  manufacturerCode: string | null;
-  lot: string;
-  productionDate: string | null;
-  material: string;
-  series: PipeSeries;
-  nominalSize: string;
-  outsideDiameterMm: number;
-  sdr: number;
-  lengthM: number;
-  printLine: string | null;
-  traceCode: string | null;
-  traceCodeFlags: TraceCodeFlag[];
+/** A coil as received: the fields it shares with Coil, plus the receipt inspection. */
+export type NewCoil = Pick<
+  Coil,
+  "coilCode" | "manufacturer" | "manufacturerCode" | "lot" | "productionDate" | "material" | "series" | "nominalSize" | "outsideDiameterMm" | "sdr" | "lengthM" | "printLine" | "traceCode" | "traceCodeFlags"
+> & {
   damageKinds: DamageKind[];
   damageNotes: string | null;
   gougeDepthMm: number | null;

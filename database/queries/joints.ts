@@ -216,35 +216,20 @@ export async function takeNextJointNo({ jobId }: { jobId: number }, trx: Knex.Tr
   return next;
 }
 
-export type NewJoint = RecordedValues & {
-  clientId: string;
-  jobId: number;
-  jointNo: number;
-  kind: JointKind;
-  coilAId: number | null;
-  coilBId: number | null;
-  componentBText: string | null;
-  lengthAM: number | null;
-  lengthBM: number | null;
-  outsideDiameterMm: number;
-  sdr: number;
-  procedureVersionId: number;
-  machineId: number;
-  heaterId: number;
-  fuserId: number;
-  madeAt: Date;
-  station: string | null;
-  latitude: number | null;
-  longitude: number | null;
-  ambientC: number | null;
-  shelter: Shelter | null;
-  timedFields: TimedPhase[];
-  plan: FusionPlan;
-  outcome: JointOutcome;
-  findings: JointFinding[];
-  replacesJointId: number | null;
-  recordedAt?: Date;
-};
+/** A joint to insert: the fields it shares with JointRecord, with ids for its coils and equipment. */
+export type NewJoint = RecordedValues &
+  Pick<
+    JointRecord,
+    | "clientId" | "jobId" | "jointNo" | "kind" | "componentBText" | "lengthAM" | "lengthBM" | "outsideDiameterMm" | "sdr" | "procedureVersionId"
+    | "madeAt" | "station" | "latitude" | "longitude" | "ambientC" | "shelter" | "timedFields" | "plan" | "outcome" | "findings" | "replacesJointId"
+  > & {
+    coilAId: number | null;
+    coilBId: number | null;
+    machineId: number;
+    heaterId: number;
+    fuserId: number;
+    recordedAt?: Date;
+  };
 
 /** Inserts the joint row; a second insert with the same client id fails with a duplicate key. */
 export async function insertJoint(j: NewJoint, trx: Db): Promise<number> {

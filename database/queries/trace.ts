@@ -4,6 +4,8 @@
 // two components with their lots and receipt inspections, machine, heater plate and its
 // last check before the joint, the fuser's qualification records, the procedure version.
 import { readScannedCoilText } from "@/domain/coils/life";
+import type { JointOutcome } from "@/domain/joints/outcomes";
+import type { ReviewState } from "@/domain/joints/review-states";
 import { conn, type Db } from "../client";
 import { findCoilByCode, isoDay, listCoilsByTraceCode, toCoil, type Coil } from "./coils";
 
@@ -85,8 +87,8 @@ export type TracedJoint = {
   longitude: number | null;
   fuserId: number;
   fuserName: string;
-  outcome: "within-limits" | "out-of-limits";
-  reviewState: "pending-review" | "accepted" | "cut-out" | null;
+  outcome: JointOutcome;
+  reviewState: ReviewState | null;
   coilAId: number | null;
   coilACode: string | null;
   coilALot: string | null;
@@ -107,6 +109,30 @@ export const TRACE_JOINT_LIMIT = 50_000;
  * ids come from `coil_a_id IN (…) UNION coil_b_id IN (…)` — each arm uses its own index.
  * At most `limit` joints (default 50,000); `truncated` says when more exist.
  */
+/**
+ * The joint facts the lot trace and a joint's origins both show, from a row of joints with
+ * its job (job_code, job_name) and state (review_state; null when none yet).
+ */
+function jointFacts(r: Record<string, unknown>) {
+  return {
+    id: Number(r.id),
+    jobId: Number(r.job_id),
+    jobCode: r.job_code as string,
+    jobName: r.job_name as string,
+    jointNo: Number(r.joint_no),
+    kind: r.kind as TracedJoint["kind"],
+    madeAt: r.made_at as Date,
+    station: (r.station as string | null) ?? null,
+    latitude: r.latitude == null ? null : Number(r.latitude),
+    longitude: r.longitude == null ? null : Number(r.longitude),
+    outcome: r.outcome as TracedJoint["outcome"],
+    reviewState: (r.review_state as TracedJoint["reviewState"]) ?? null,
+    componentBText: (r.component_b_text as string | null) ?? null,
+    lengthAM: r.length_a_m == null ? null : Number(r.length_a_m),
+    lengthBM: r.length_b_m == null ? null : Number(r.length_b_m),
+  };
+}
+
 export async function listJointsForCoils({ coilIds, limit = TRACE_JOINT_LIMIT }: { coilIds: number[]; limit?: number }, trx?: Db): Promise<{ joints: TracedJoint[]; truncated: boolean }> {
   if (!coilIds.length) return { joints: [], truncated: false };
   const k = conn(trx);
@@ -138,29 +164,15 @@ export async function listJointsForCoils({ coilIds, limit = TRACE_JOINT_LIMIT }:
     const onA = a != null && traced.has(a);
     const onB = b != null && traced.has(b);
     return {
-      id: Number(r.id),
-      jobId: Number(r.job_id),
-      jobCode: r.job_code as string,
-      jobName: r.job_name as string,
-      jointNo: Number(r.joint_no),
-      kind: r.kind as TracedJoint["kind"],
-      madeAt: r.made_at as Date,
-      station: (r.station as string | null) ?? null,
-      latitude: r.latitude == null ? null : Number(r.latitude),
-      longitude: r.longitude == null ? null : Number(r.longitude),
+      ...jointFacts(r),
       fuserId: Number(r.fuser_id),
       fuserName: r.fuser_name as string,
-      outcome: r.outcome as TracedJoint["outcome"],
-      reviewState: (r.review_state as TracedJoint["reviewState"]) ?? null,
       coilAId: a,
       coilACode: (r.coil_a_code as string | null) ?? null,
       coilALot: (r.coil_a_lot as string | null) ?? null,
       coilBId: b,
       coilBCode: (r.coil_b_code as string | null) ?? null,
       coilBLot: (r.coil_b_lot as string | null) ?? null,
-      componentBText: (r.component_b_text as string | null) ?? null,
-      lengthAM: r.length_a_m == null ? null : Number(r.length_a_m),
-      lengthBM: r.length_b_m == null ? null : Number(r.length_b_m),
       side: onA && onB ? "both" : onA ? "a" : "b",
     } satisfies TracedJoint;
   });
@@ -265,23 +277,9 @@ export async function findJointOrigins({ jointId }: { jointId: number }, trx?: D
   const fails = (await k("qualification_failures").where({ user_id: fuserId, procedure_id: procedureId }).orderBy("failed_on").select("failed_on")) as { failed_on: unknown }[];
   return {
     joint: {
-      id: Number(j.id),
-      jobId: Number(j.job_id),
-      jobCode: j.job_code as string,
-      jobName: j.job_name as string,
-      jointNo: Number(j.joint_no),
-      kind: j.kind as TracedJoint["kind"],
-      madeAt: j.made_at as Date,
-      station: (j.station as string | null) ?? null,
-      latitude: j.latitude == null ? null : Number(j.latitude),
-      longitude: j.longitude == null ? null : Number(j.longitude),
+      ...jointFacts(j),
       outsideDiameterMm: Number(j.outside_diameter_mm),
       sdr: Number(j.sdr),
-      outcome: j.outcome as TracedJoint["outcome"],
-      reviewState: (j.review_state as TracedJoint["reviewState"]) ?? null,
-      componentBText: (j.component_b_text as string | null) ?? null,
-      lengthAM: j.length_a_m == null ? null : Number(j.length_a_m),
-      lengthBM: j.length_b_m == null ? null : Number(j.length_b_m),
     },
     coilA: coil(j.coil_a_id),
     coilB: coil(j.coil_b_id),
