@@ -5,6 +5,7 @@
 // last check before the joint, the fuser's qualification records, the procedure version.
 import { readScannedCoilText } from "@/domain/coils/life";
 import type { JointOutcome } from "@/domain/joints/outcomes";
+import type { JointKind } from "@/domain/joints/schemas";
 import type { ReviewState } from "@/domain/joints/review-states";
 import { conn, type Db } from "../client";
 import { findCoilByCode, isoDay, listCoilsByTraceCode, toCoil, type Coil } from "./coils";
@@ -80,7 +81,7 @@ export type TracedJoint = {
   jobCode: string;
   jobName: string;
   jointNo: number;
-  kind: "coil-to-coil" | "tie-in" | "fitting";
+  kind: JointKind;
   madeAt: Date;
   station: string | null;
   latitude: number | null;

@@ -1,5 +1,5 @@
 // Joint check: every recorded value of a butt-fusion joint against its pressure plan
-// (windows from the procedure the plan was made under; see procedures.ts for sources).
+// (windows from the procedure the plan was made under; see domain/procedures for sources).
 // A value exactly on a limit passes; a value not recorded is a finding of its own.
 
 import type { FusionPlan } from '@/domain/fusion/plan';
