@@ -1,4 +1,4 @@
-import { COIL_STATUS_LABELS, type CoilStatus } from "@/domain/coils/life";
+import { COIL_STATUS_LABELS, type CoilStatus } from "@/domain/coils/statuses";
 
 const TONES: Record<CoilStatus, string> = {
   "in-yard": "border-slate-500 bg-white text-ink",

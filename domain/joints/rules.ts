@@ -58,8 +58,6 @@ export function componentMismatch(a: ComponentSize, b: ComponentSize, system: Un
 // ---------------------------------------------------------------------------------------
 // Refusals and blocking warnings
 
-export type { CoilStatus } from '@/domain/coils/statuses';
-
 export interface BlockingCoil {
   id: number;
   code: string;

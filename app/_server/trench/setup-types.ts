@@ -4,7 +4,7 @@
 import "server-only";
 import type { Coil } from "@/database/queries/coils";
 import type { ProcedureDefinition } from "@/domain/procedures";
-import type { CoilStatus } from "@/domain/joints/rules";
+import type { CoilStatus } from "@/domain/coils/statuses";
 import type { UnitSystem } from "@/domain/units/format";
 
 export type TrenchCoil = {

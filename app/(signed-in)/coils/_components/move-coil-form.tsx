@@ -8,7 +8,7 @@ import { useForm, useWatch } from "react-hook-form";
 import type { z } from "zod";
 import { FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
-import { COIL_STATUS_LABELS, type CoilStatus } from "@/domain/coils/life";
+import { COIL_STATUS_LABELS, type CoilStatus } from "@/domain/coils/statuses";
 import { moveCoilSchema } from "@/domain/coils/schemas";
 import { moveCoilAction } from "../actions";
 
