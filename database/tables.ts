@@ -6,6 +6,7 @@
 // types (joined columns added as `& { crew_name: string | null }`) and turn them into
 // domain objects through database/queries/rows.ts.
 
+import type { UnitSystem } from "@/domain/units/format";
 /** TINYINT(1) as read: 0 or 1. */
 export type Tinyint = number;
 
@@ -18,7 +19,7 @@ export type UserRow = {
   password_hash: string;
   /** SET-like comma list of fuser,inspector,clerk,admin. */
   roles: string;
-  unit_system: "si" | "us";
+  unit_system: UnitSystem;
   is_active: Tinyint;
   session_version: number;
   crew_id: number | null;

@@ -6,6 +6,7 @@ export * from '@/domain/errors';
 export * from '@/domain/sources';
 export * from '@/domain/units';
 export * from '@/domain/pipe';
+export * from '@/domain/procedures';
 export * from '@/domain/fusion';
 export * from '@/domain/trace-code';
 export * from '@/domain/qualifications';

@@ -1,5 +1,5 @@
 // A qualification state in words and colour (never colour alone).
-import { QUALIFICATION_STATE_LABELS } from "@/domain/office/qualifications";
+import { QUALIFICATION_STATE_LABELS } from "@/domain/qualifications/overview";
 import type { QualificationStatus } from "@/domain/qualifications/status";
 
 const STYLE: Record<QualificationStatus["state"], string> = {

@@ -1,7 +1,8 @@
 // State badges: the word from the domain's label map first, a shape beside it, colour last,
 // so the state reads in sunlight, in greyscale and to a screen reader alike.
-import { COIL_STATUS_LABELS, type CoilStatus } from "@/domain/coil-life/rules";
-import { OUTCOME_LABELS, REVIEW_STATE_LABELS, type ReviewState } from "@/domain/review/labels";
+import { COIL_STATUS_LABELS, type CoilStatus } from "@/domain/coils/statuses";
+import { OUTCOME_LABELS } from "@/domain/joints/outcomes";
+import { REVIEW_STATE_LABELS, type ReviewState } from "@/domain/joints/review-states";
 
 type Shape = "circle" | "square" | "diamond" | "ring";
 

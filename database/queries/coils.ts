@@ -3,7 +3,8 @@
 // writes a pull (writeCoilPull) for each coil a joint lays pipe from.
 import type { Knex } from "knex";
 import { resolveScannedCoil } from "@/domain/coils/scanned-coil";
-import { readScannedCoilText, type CoilStatus, type DamageKind, type PullPlan, type TraceCodeFlag } from "@/domain/coil-life/rules";
+import { readScannedCoilText, type DamageKind, type PullPlan, type TraceCodeFlag } from "@/domain/coils/life";
+import type { CoilStatus } from "@/domain/coils/statuses";
 import type { PipeSeries } from "@/domain/pipe/catalogue";
 import { conn, isDuplicateKey, type Db } from "../client";
 import type { CoilEventRow, CoilTableRow } from "../tables";
@@ -204,21 +205,11 @@ export async function listCoilMoveOptions(_: Record<string, never> = {}, trx?: D
   return { crews: crews.map((c) => ({ ...c, id: Number(c.id) })), jobs: jobs.map((j) => ({ ...j, id: Number(j.id) })) };
 }
 
-export type NewCoil = {
-  coilCode: string;
-  manufacturer: string;
-  manufacturerCode: string | null;
-  lot: string;
-  productionDate: string | null;
-  material: string;
-  series: PipeSeries;
-  nominalSize: string;
-  outsideDiameterMm: number;
-  sdr: number;
-  lengthM: number;
-  printLine: string | null;
-  traceCode: string | null;
-  traceCodeFlags: TraceCodeFlag[];
+/** A coil as received: the fields it shares with Coil, plus the receipt inspection. */
+export type NewCoil = Pick<
+  Coil,
+  "coilCode" | "manufacturer" | "manufacturerCode" | "lot" | "productionDate" | "material" | "series" | "nominalSize" | "outsideDiameterMm" | "sdr" | "lengthM" | "printLine" | "traceCode" | "traceCodeFlags"
+> & {
   damageKinds: DamageKind[];
   damageNotes: string | null;
   gougeDepthMm: number | null;
@@ -330,7 +321,7 @@ export async function updateCoilStatus(
 export type DrawDownResult = { coilId: number; coilCode: string; pulledM: number; remainingM: number; status: CoilStatus; fromStatus: CoilStatus };
 
 /**
- * Writes a pull already judged by planPull (domain/coil-life/rules) off a coil locked FOR
+ * Writes a pull already judged by planPull (domain/coils/life) off a coil locked FOR
  * UPDATE in the caller's transaction: the length left, the status (in use, used up at 0),
  * the joint's job when the coil had none, and a coil_events row with the pull, the length
  * left and the joint. The refusals and their words are the caller's

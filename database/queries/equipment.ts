@@ -1,8 +1,8 @@
 // Equipment: fusion machines (total effective piston area, mm²) and heater plates with
 // their surface-temperature check log. Machines and plates are never deleted — they are
 // retired (is_active = false) because joints refer to them. Edits use optimistic locking.
-import { heaterProblems, isHeaterCheckOverdue, isHeaterFlagged, isMachineUsable, machineProblems, type HeaterReadings } from "@/domain/office/rules";
-import { isoDateOf } from "@/domain/office/dates";
+import { heaterProblems, isHeaterCheckOverdue, isHeaterFlagged, isMachineUsable, machineProblems, type HeaterReadings } from "@/domain/equipment/rules";
+import { isoDateOf } from "@/domain/dates/civil";
 import { roundTo } from "@/domain/units/format";
 import { conn, type Db } from "../client";
 import type { FusionMachineRow, HeaterCheckRow, HeaterPlateRow } from "../tables";
@@ -21,7 +21,7 @@ export type MachineRecord = {
   isActive: boolean;
   version: number;
   createdAt: Date;
-  /** Active and piston area known (domain/office isMachineUsable). */
+  /** Active and piston area known (domain/equipment isMachineUsable). */
   isUsable: boolean;
   problems: string[];
 };

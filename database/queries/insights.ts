@@ -3,7 +3,7 @@
 // check at recording, or since by their pressure trace) and were not cut out — our own
 // definition of "right first time" for a fusion joint (common practice, no published
 // source). Weeks start on Monday (ISO 8601), in UTC.
-import type { JointParameter } from "@/domain/fusion/check";
+import type { JointParameter } from "@/domain/fusion/parameters";
 import { conn, type Db } from "../client";
 
 export type InsightsFilter = { from: Date; to: Date; jobId?: number; procedureId?: number };

@@ -1,6 +1,6 @@
 // Jobs (work orders): code, name, place, dates, status, procedure, crew, pipe sizes, and
 // the coils assigned to them. Edits use optimistic locking on `version`.
-import type { JobStatus } from "@/domain/office/rules";
+import type { JobStatus } from "@/domain/jobs/rules";
 import { conn, type Db } from "../client";
 import type { CoilTableRow, JobRow as JobTableRow } from "../tables";
 import { isoDay } from "./rows";

@@ -4,7 +4,10 @@
 // updatable projection of the latest revision. Values in canonical SI (°C, MPa, mm, s, m).
 import type { Knex } from "knex";
 import type { FusionPlan } from "@/domain/fusion/plan";
-import type { JointFinding, JointOutcome } from "@/domain/fusion/check";
+import type { JointFinding } from "@/domain/fusion/check";
+import type { JointOutcome } from "@/domain/joints/outcomes";
+import type { ReviewState } from "@/domain/joints/review-states";
+import type { RevisionKind } from "@/domain/joints/revision-kinds";
 import type { JointKind, Shelter, TimedPhase } from "@/domain/joints/schemas";
 import type { RecordedValues } from "@/domain/joints/values";
 import type { OverrideGrant } from "@/domain/joints/rules";
@@ -13,8 +16,8 @@ import { toCoil, type Coil } from "./coils";
 import { num, parseJson, recordedValueRow, setList, text, toRecordedValues, type DbRow } from "./rows";
 import type { JointOverrideRow, JointRevisionRow, JointRow } from "../tables";
 
-export type ReviewState = "pending-review" | "accepted" | "cut-out";
-export type RevisionKind = "recorded" | "corrected" | "accepted" | "cut-out" | "trace-attached";
+export type { ReviewState } from "@/domain/joints/review-states";
+export type { RevisionKind } from "@/domain/joints/revision-kinds";
 
 /** A joint as stored, with its recorded values (domain/joints/values) spread in. */
 export type JointRecord = RecordedValues & {
@@ -237,35 +240,20 @@ export async function takeNextJointNo({ jobId }: { jobId: number }, trx: Knex.Tr
   return next;
 }
 
-export type NewJoint = RecordedValues & {
-  clientId: string;
-  jobId: number;
-  jointNo: number;
-  kind: JointKind;
-  coilAId: number | null;
-  coilBId: number | null;
-  componentBText: string | null;
-  lengthAM: number | null;
-  lengthBM: number | null;
-  outsideDiameterMm: number;
-  sdr: number;
-  procedureVersionId: number;
-  machineId: number;
-  heaterId: number;
-  fuserId: number;
-  madeAt: Date;
-  station: string | null;
-  latitude: number | null;
-  longitude: number | null;
-  ambientC: number | null;
-  shelter: Shelter | null;
-  timedFields: TimedPhase[];
-  plan: FusionPlan;
-  outcome: JointOutcome;
-  findings: JointFinding[];
-  replacesJointId: number | null;
-  recordedAt?: Date;
-};
+/** A joint to insert: the fields it shares with JointRecord, with ids for its coils and equipment. */
+export type NewJoint = RecordedValues &
+  Pick<
+    JointRecord,
+    | "clientId" | "jobId" | "jointNo" | "kind" | "componentBText" | "lengthAM" | "lengthBM" | "outsideDiameterMm" | "sdr" | "procedureVersionId"
+    | "madeAt" | "station" | "latitude" | "longitude" | "ambientC" | "shelter" | "timedFields" | "plan" | "outcome" | "findings" | "replacesJointId"
+  > & {
+    coilAId: number | null;
+    coilBId: number | null;
+    machineId: number;
+    heaterId: number;
+    fuserId: number;
+    recordedAt?: Date;
+  };
 
 /** Inserts the joint row; a second insert with the same client id fails with a duplicate key. */
 export async function insertJoint(j: NewJoint, trx: Db): Promise<number> {

@@ -5,8 +5,8 @@
 // People with daily digest on get their events folded into one mail a day instead
 // (mail_digest_items, see migration 20261202000700).
 import type { Knex } from "knex";
-import { afterFailedAttempt, MAX_MAIL_ATTEMPTS } from "@/domain/review/backoff";
-import { composeDigest, latestDigestCutoff, type DigestEvent } from "@/domain/review/digest";
+import { afterFailedAttempt, MAX_MAIL_ATTEMPTS } from "@/domain/mail/backoff";
+import { composeDigest, latestDigestCutoff, type DigestEvent } from "@/domain/mail/digest";
 import { conn, db, isDuplicateKey, type Db } from "../client";
 import type { MailOutboxRow } from "../tables";
 

@@ -2,8 +2,8 @@
 // (domain ProcedureDefinition, JSON) is never changed once published: tightening publishes
 // a new version and marks the previous one superseded. Joints keep the version id they
 // were checked against.
-import type { FusionStandard, ProcedureDefinition } from "@/domain/fusion/procedures";
-import { readProcedureDefinition } from "@/domain/office/procedures";
+import type { FusionStandard, ProcedureDefinition } from "@/domain/procedures";
+import { parseProcedureDefinition } from "@/domain/fusion/schemas";
 import { conn, type Db } from "../client";
 import type { ProcedureRow, ProcedureVersionRow } from "../tables";
 
@@ -47,15 +47,15 @@ function toProcedure(r: ProcedureRow): ProcedureRecord {
 type VersionRow = ProcedureVersionRow & { procedure_code: string; procedure_name: string; published_by_name: string | null };
 
 function toVersion(r: VersionRow): ProcedureVersionRecord {
-  const parsed = readProcedureDefinition(r.definition);
-  if (!parsed.ok) throw new Error(`Procedure version ${String(r.id)}: ${parsed.message}`);
+  const parsed = parseProcedureDefinition(r.definition);
+  if (!parsed.ok) throw new Error(`Procedure version ${String(r.id)}: ${parsed.errors.map((e) => (e.field ? `${e.field}: ${e.message}` : e.message)).join('; ')}`);
   return {
     id: r.id,
     procedureId: r.procedure_id,
     procedureCode: r.procedure_code,
     procedureName: r.procedure_name,
     versionNo: r.version_no,
-    definition: parsed.definition,
+    definition: parsed.procedure,
     notes: r.notes ?? null,
     publishedBy: r.published_by ?? null,
     publishedByName: r.published_by_name ?? null,

@@ -1,9 +1,9 @@
 // Qualifications of people to make joints under a procedure (49 CFR 192.285): each
 // qualification or requalification, and production joints found unacceptable by test.
 // Both are append-only records; status is computed by the domain (qualificationStatus).
-import type { QualificationMethod } from "@/domain/office/schemas";
-import { qualificationOverview, type PersonProcedureStatus } from "@/domain/office/qualifications";
-import { isoDateOf } from "@/domain/office/dates";
+import type { QualificationMethod } from "@/domain/qualifications/schemas";
+import { qualificationOverview, type PersonProcedureStatus } from "@/domain/qualifications/overview";
+import { isoDateOf } from "@/domain/dates/civil";
 import { conn, type Db } from "../client";
 import type { QualificationFailureRow, QualificationRow } from "../tables";
 import { day, num } from "./rows";

@@ -7,7 +7,7 @@
 // the seek condition is written out in its expanded form (`a < ? OR (a = ? AND id < ?)`)
 // because MariaDB does not turn a row-value comparison into an index range. Step 2 loads
 // those ids with every joined name. No OFFSET anywhere: page 5,000 costs what page 1 does.
-import type { JointParameter } from "@/domain/fusion/check";
+import type { JointParameter } from "@/domain/fusion/parameters";
 import {
   dayBounds,
   isEmptyFilter,

@@ -2,17 +2,20 @@
 // one joint's evidence (plan, recorded values, photos, pressure trace, revisions), and the
 // writes a decision makes — a new joint revision and the joint_states projection — which
 // the caller puts in one transaction with the audit entry.
-import type { JointFinding, JointOutcome, JointParameter } from "@/domain/fusion/check";
+import type { JointFinding } from "@/domain/fusion/check";
+import type { JointOutcome } from "@/domain/joints/outcomes";
+import type { JointParameter } from "@/domain/fusion/parameters";
 import type { FusionPlan } from "@/domain/fusion/plan";
 import type { PressureTraceReading } from "@/domain/pressure-trace/read";
-import type { ReviewState } from "@/domain/review/labels";
+import type { ReviewState } from "@/domain/joints/review-states";
 import type { RecordedValues } from "@/domain/joints/values";
-import type { ChartPoint } from "@/domain/review/trace-check";
+import type { ChartPoint } from "@/domain/pressure-trace/check";
 import { conn, type Db } from "../client";
-import { addJointFindings, jointHasFinding, num, parseJson, text, toRecordedValues } from "./rows";
 import type { AttachmentRow, JointRevisionRow, JointRow, JointTraceRow } from "../tables";
+import { listJointRevisions as listRevisionsOfJoint, type JointRevision } from "./joints";
+import { addJointFindings, jointHasFinding, num, parseJson, text, toRecordedValues, type DbRow } from "./rows";
 
-export type RevisionKind = "recorded" | "corrected" | "accepted" | "cut-out" | "trace-attached";
+export type { RevisionKind } from "@/domain/joints/revision-kinds";
 
 export type QueueFilter = { jobId?: number; fuserId?: number; machineId?: number; finding?: JointParameter };
 
@@ -63,7 +66,7 @@ export type ReviewItem = {
   replacedByJointId: number | null;
 };
 
-export type RevisionRecord = { id: number; revisionNo: number; kind: RevisionKind; byUserId: number; byName: string; at: Date; reason: string | null; reviewState: ReviewState; changes: Record<string, unknown> | null };
+export type RevisionRecord = Omit<JointRevision, "byUserName"> & { byName: string };
 
 /** A row of baseJointQuery: the joint with its state, job, fuser and equipment tags. */
 type QueueRow = JointRow & {
@@ -209,19 +212,9 @@ export async function findReviewItem({ jointId }: { jointId: number }, trx?: Db)
   return (await withEvidence(k, [toItem(row)]))[0] ?? null;
 }
 
+/** The joint's revisions, oldest first (joints.ts reads them; the review names the author `byName`). */
 export async function listJointRevisions({ jointId }: { jointId: number }, trx?: Db): Promise<RevisionRecord[]> {
-  const rows = (await conn(trx)("joint_revisions as r").join("users as u", "u.id", "r.by_user_id").where("r.joint_id", jointId).orderBy("r.revision_no").select("r.*", "u.name as by_name")) as (JointRevisionRow & { by_name: string })[];
-  return rows.map((r) => ({
-    id: Number(r.id),
-    revisionNo: Number(r.revision_no),
-    kind: r.kind,
-    byUserId: Number(r.by_user_id),
-    byName: r.by_name,
-    at: r.at,
-    reason: r.reason ?? null,
-    reviewState: r.review_state,
-    changes: parseJson<RevisionRecord["changes"]>(r.changes, null),
-  }));
+  return (await listRevisionsOfJoint({ jointId }, trx)).map(({ byUserName, ...r }) => ({ ...r, byName: byUserName }));
 }
 
 export type JointStateLock = { jointId: number; fuserId: number; reviewState: ReviewState; revisionNo: number; outcome: JointOutcome; jobCode: string; jointNo: number };
@@ -253,25 +246,10 @@ export async function latestJointRevision({ jointId }: { jointId: number }, trx?
 }
 
 /**
- * Appends a revision. The unique (joint_id, revision_no) key makes a second writer of the
- * same number fail with a duplicate-key error (the caller answers 409).
+ * Appends a revision (joints.ts writes it). The unique (joint_id, revision_no) key makes a
+ * second writer of the same number fail with a duplicate-key error (the caller answers 409).
  */
-export async function insertJointRevision(
-  r: { jointId: number; revisionNo: number; kind: RevisionKind; byUserId: number; at: Date; reason: string | null; reviewState: ReviewState; changes?: Record<string, unknown> | null },
-  trx: Db,
-): Promise<number> {
-  const [id] = await trx("joint_revisions").insert({
-    joint_id: r.jointId,
-    revision_no: r.revisionNo,
-    kind: r.kind,
-    by_user_id: r.byUserId,
-    at: r.at,
-    reason: r.reason,
-    review_state: r.reviewState,
-    changes: r.changes ? JSON.stringify(r.changes) : null,
-  });
-  return Number(id);
-}
+export { insertJointRevision } from "./joints";
 
 /** Moves the projection on from `expectedRevisionNo`; false when it had already moved. */
 export async function updateJointState(

@@ -3,7 +3,7 @@
 // rows through these helpers into domain-shaped objects (camelCase, SI numbers, Dates),
 // including the recorded values of a joint, whose columns come from domain/joints/values.
 import type { Knex } from "knex";
-import type { JointParameter } from "@/domain/fusion/check";
+import type { JointParameter } from "@/domain/fusion/parameters";
 import { RECORDED_VALUES, recordedValuesToColumns, type RecordedValues } from "@/domain/joints/values";
 
 /** A row as the driver gives it: column name → DECIMAL text, number, 0/1, Date, text or null. */

@@ -1,11 +1,12 @@
 // The Today page's counts per role: review queue, coils waiting for labels, exports still
 // running. (Qualification, heater and machine lists come from their own query modules.)
+import type { JointOutcome } from "@/domain/joints/outcomes";
 import { conn, type Db } from "../client";
 import type { CoilTableRow, ExportRow } from "../tables";
 
 export type ReviewQueueSummary = {
   count: number;
-  oldest: { jointId: number; jobCode: string; jointNo: number; madeAt: Date; outcome: "within-limits" | "out-of-limits" } | null;
+  oldest: { jointId: number; jobCode: string; jointNo: number; madeAt: Date; outcome: JointOutcome } | null;
 };
 
 /** Joints waiting for an inspector's decision, and the one waiting longest (by when it was made). */
@@ -18,7 +19,7 @@ export async function reviewQueueSummary(_: Record<string, never> = {}, trx?: Db
     .where("joint_states.review_state", "pending-review")
     .orderBy([{ column: "joint_states.made_at", order: "asc" }, { column: "joint_states.joint_id", order: "asc" }])
     .select("joint_states.joint_id", "joint_states.made_at", "joint_states.outcome", "joints.joint_no", "jobs.code as job_code")
-    .first()) as { joint_id: number; made_at: Date; outcome: "within-limits" | "out-of-limits"; joint_no: number; job_code: string } | undefined;
+    .first()) as { joint_id: number; made_at: Date; outcome: JointOutcome; joint_no: number; job_code: string } | undefined;
   return {
     count: Number(countRow?.n ?? 0),
     oldest: oldest ? { jointId: Number(oldest.joint_id), jobCode: oldest.job_code, jointNo: oldest.joint_no, madeAt: oldest.made_at, outcome: oldest.outcome } : null,

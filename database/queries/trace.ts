@@ -3,7 +3,10 @@
 // OR across the two columns, so it stays fast on millions of joints. Joint → origins: the
 // two components with their lots and receipt inspections, machine, heater plate and its
 // last check before the joint, the fuser's qualification records, the procedure version.
-import { readScannedCoilText } from "@/domain/coil-life/rules";
+import { readScannedCoilText } from "@/domain/coils/life";
+import type { JointOutcome } from "@/domain/joints/outcomes";
+import type { JointKind } from "@/domain/joints/schemas";
+import type { ReviewState } from "@/domain/joints/review-states";
 import { conn, type Db } from "../client";
 import { findCoilByCode, listCoilsByTraceCode, toCoil, type Coil } from "./coils";
 import type { FusionMachineRow, HeaterCheckRow, HeaterPlateRow, JointRow } from "../tables";
@@ -80,15 +83,15 @@ export type TracedJoint = {
   jobCode: string;
   jobName: string;
   jointNo: number;
-  kind: "coil-to-coil" | "tie-in" | "fitting";
+  kind: JointKind;
   madeAt: Date;
   station: string | null;
   latitude: number | null;
   longitude: number | null;
   fuserId: number;
   fuserName: string;
-  outcome: "within-limits" | "out-of-limits";
-  reviewState: "pending-review" | "accepted" | "cut-out" | null;
+  outcome: JointOutcome;
+  reviewState: ReviewState | null;
   coilAId: number | null;
   coilACode: string | null;
   coilALot: string | null;
@@ -130,6 +133,30 @@ type VersionRow = { id: number; procedure_id: number; version_no: number; publis
  * ids come from `coil_a_id IN (…) UNION coil_b_id IN (…)` — each arm uses its own index.
  * At most `limit` joints (default 50,000); `truncated` says when more exist.
  */
+/**
+ * The joint facts the lot trace and a joint's origins both show, from a row of joints with
+ * its job (job_code, job_name) and state (review_state; null when none yet).
+ */
+function jointFacts(r: Record<string, unknown>) {
+  return {
+    id: Number(r.id),
+    jobId: Number(r.job_id),
+    jobCode: r.job_code as string,
+    jobName: r.job_name as string,
+    jointNo: Number(r.joint_no),
+    kind: r.kind as TracedJoint["kind"],
+    madeAt: r.made_at as Date,
+    station: (r.station as string | null) ?? null,
+    latitude: r.latitude == null ? null : Number(r.latitude),
+    longitude: r.longitude == null ? null : Number(r.longitude),
+    outcome: r.outcome as TracedJoint["outcome"],
+    reviewState: (r.review_state as TracedJoint["reviewState"]) ?? null,
+    componentBText: (r.component_b_text as string | null) ?? null,
+    lengthAM: r.length_a_m == null ? null : Number(r.length_a_m),
+    lengthBM: r.length_b_m == null ? null : Number(r.length_b_m),
+  };
+}
+
 export async function listJointsForCoils({ coilIds, limit = TRACE_JOINT_LIMIT }: { coilIds: number[]; limit?: number }, trx?: Db): Promise<{ joints: TracedJoint[]; truncated: boolean }> {
   if (!coilIds.length) return { joints: [], truncated: false };
   const k = conn(trx);
@@ -161,29 +188,15 @@ export async function listJointsForCoils({ coilIds, limit = TRACE_JOINT_LIMIT }:
     const onA = a != null && traced.has(a);
     const onB = b != null && traced.has(b);
     return {
-      id: Number(r.id),
-      jobId: Number(r.job_id),
-      jobCode: r.job_code,
-      jobName: r.job_name,
-      jointNo: Number(r.joint_no),
-      kind: r.kind,
-      madeAt: r.made_at,
-      station: r.station ?? null,
-      latitude: num(r.latitude),
-      longitude: num(r.longitude),
+      ...jointFacts(r),
       fuserId: Number(r.fuser_id),
-      fuserName: r.fuser_name,
-      outcome: r.outcome,
-      reviewState: r.review_state ?? null,
+      fuserName: r.fuser_name as string,
       coilAId: a,
       coilACode: r.coil_a_code ?? null,
       coilALot: r.coil_a_lot ?? null,
       coilBId: b,
-      coilBCode: r.coil_b_code ?? null,
-      coilBLot: r.coil_b_lot ?? null,
-      componentBText: r.component_b_text ?? null,
-      lengthAM: num(r.length_a_m),
-      lengthBM: num(r.length_b_m),
+      coilBCode: (r.coil_b_code as string | null) ?? null,
+      coilBLot: (r.coil_b_lot as string | null) ?? null,
       side: onA && onB ? "both" : onA ? "a" : "b",
     } satisfies TracedJoint;
   });
@@ -288,23 +301,9 @@ export async function findJointOrigins({ jointId }: { jointId: number }, trx?: D
   const fails = (await k("qualification_failures").where({ user_id: fuserId, procedure_id: procedureId }).orderBy("failed_on").select("failed_on")) as { failed_on: Date }[];
   return {
     joint: {
-      id: Number(j.id),
-      jobId: Number(j.job_id),
-      jobCode: j.job_code,
-      jobName: j.job_name,
-      jointNo: Number(j.joint_no),
-      kind: j.kind,
-      madeAt: j.made_at,
-      station: j.station ?? null,
-      latitude: num(j.latitude),
-      longitude: num(j.longitude),
+      ...jointFacts(j),
       outsideDiameterMm: Number(j.outside_diameter_mm),
       sdr: Number(j.sdr),
-      outcome: j.outcome,
-      reviewState: j.review_state ?? null,
-      componentBText: j.component_b_text ?? null,
-      lengthAM: num(j.length_a_m),
-      lengthBM: num(j.length_b_m),
     },
     coilA: coil(j.coil_a_id),
     coilB: coil(j.coil_b_id),

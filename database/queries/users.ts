@@ -3,6 +3,7 @@ import type { Actor, Role } from "@/domain/roles";
 import { isRole } from "@/domain/roles";
 import { conn, type Db } from "../client";
 import type { UserRow as UserTableRow } from "../tables";
+import type { UnitSystem } from "@/domain/units/format";
 
 export type UserRecord = Actor & {
   crewId: number | null;
@@ -72,7 +73,7 @@ export async function countActiveAdmins(_: Record<string, never> = {}, trx?: Db)
 }
 
 export async function insertUser(
-  input: { name: string; email: string; passwordHash: string; roles: Role[]; unitSystem?: "si" | "us"; crewId?: number | null; isActive?: boolean },
+  input: { name: string; email: string; passwordHash: string; roles: Role[]; unitSystem?: UnitSystem; crewId?: number | null; isActive?: boolean },
   trx?: Db,
 ): Promise<number> {
   const [id] = await conn(trx)("users").insert({
@@ -122,7 +123,7 @@ export async function bumpSessionVersion({ id }: { id: number }, trx?: Db): Prom
   await k("users").where({ id }).update({ session_version: k.raw("session_version + 1") });
 }
 
-export async function updateUnitSystem({ id, unitSystem }: { id: number; unitSystem: "si" | "us" }, trx?: Db): Promise<void> {
+export async function updateUnitSystem({ id, unitSystem }: { id: number; unitSystem: UnitSystem }, trx?: Db): Promise<void> {
   await conn(trx)("users").where({ id }).update({ unit_system: unitSystem });
 }
 

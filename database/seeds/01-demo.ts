@@ -2,7 +2,7 @@
 // `npm start` runs it only when the users table is empty; tests never touch the demo database.
 import bcrypt from "bcryptjs";
 import type { Knex } from "knex";
-import { builtInProcedure } from "@/domain/fusion/procedures";
+import { builtInProcedure } from "@/domain/procedures";
 import {
   DEMO_COILS,
   DEMO_CREWS,

@@ -7,10 +7,10 @@
 // remade, and the remake links to it. Deterministic for a given `today`; skipped when the
 // demo jobs already have joints.
 import type { Knex } from "knex";
-import { planPull } from "@/domain/coil-life/rules";
+import { planPull } from "@/domain/coils/life";
 import { checkJoint } from "@/domain/fusion/check";
 import { planButtFusion, type FusionPlan } from "@/domain/fusion/plan";
-import type { ProcedureDefinition } from "@/domain/fusion/procedures";
+import type { ProcedureDefinition } from "@/domain/procedures";
 import { allChecksPassed } from "@/domain/joints/values";
 import { buttFusionPlanInput } from "@/domain/joints/pre-record";
 import type { Shelter, TimedPhase } from "@/domain/joints/schemas";

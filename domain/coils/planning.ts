@@ -1,10 +1,11 @@
 // Coil planning: joints and fusion time for a run laid from straight lengths versus coils,
-// coil length left after a pull, which coil to use next, and coil status moves.
+// which coil to use next, and coil status moves (the length left after a pull is
+// domain/coils/life's planPull).
 // Common practice of PE gas crews (no published source): a run of n pieces needs n − 1
 // butt-fusion joints between pieces plus the joints at its two ends (tie-ins/fittings).
 
 import { DomainError } from '@/domain/errors';
-import { formatQuantity, type UnitSystem } from '@/domain/units/format';
+import { COIL_STATUS_PHRASES, type CoilStatus } from '@/domain/coils/statuses';
 
 /** Length tolerance, m, so that 304.8 m of 12.192 m sticks is exactly 25 pieces. */
 const LENGTH_TOLERANCE_M = 1e-9;
@@ -64,27 +65,7 @@ export function coilSavings(input: { runLengthM: number; stickLengthM: number; c
   return { sticks, coils, jointsSaved: sticks.joints - coils.joints, minutesSaved: sticks.fusionMinutes - coils.fusionMinutes };
 }
 
-/**
- * Coil length left after pulling pipe off it, m (not rounded). Refuses, with a message in
- * the user's units, a pull that is not a number, is zero or negative, or is longer than
- * what is left. Throws DomainError.
- */
-export function coilLengthAfterPull(input: { remainingM: number; pullM: number }, system: UnitSystem = 'si'): number {
-  const m = (value: number) => formatQuantity(value, 'length-m', system);
-  assertNonNegative(input.remainingM, 'Length left on the coil');
-  if (typeof input.pullM !== 'number' || !Number.isFinite(input.pullM)) {
-    throw new DomainError('invalid-input', 'The length pulled must be a number');
-  }
-  if (input.pullM <= 0) throw new DomainError('invalid-input', `The length pulled must be more than 0 (got ${m(input.pullM)})`);
-  if (input.pullM > input.remainingM + LENGTH_TOLERANCE_M) {
-    throw new DomainError('invalid-input', `Cannot pull ${m(input.pullM)}: only ${m(input.remainingM)} is left on the coil`);
-  }
-  return Math.max(0, input.remainingM - input.pullM);
-}
-
-export type CoilStatus = 'in-yard' | 'on-trailer' | 'in-use' | 'used-up' | 'quarantined';
-
-export const COIL_STATUSES: readonly CoilStatus[] = ['in-yard', 'on-trailer', 'in-use', 'used-up', 'quarantined'];
+export { COIL_STATUSES, type CoilStatus } from '@/domain/coils/statuses';
 
 /** What nextCoil needs to know of a coil. */
 export interface CoilForPlanning {
@@ -123,8 +104,8 @@ const MOVES: Readonly<Record<CoilStatus, readonly CoilStatus[]>> = {
 /** Plain-language reason a status move is refused, or null when it is allowed. */
 export function coilMoveProblem(from: CoilStatus, to: CoilStatus, reason?: string): string | null {
   if (!MOVES[from] || !MOVES[to]) return `Unknown coil status "${!MOVES[from] ? from : to}"`;
-  if (from === to) return `The coil is already ${words(from)}`;
-  if (!MOVES[from].includes(to)) return `A coil that is ${words(from)} cannot be moved to ${words(to)}`;
+  if (from === to) return `The coil is already ${COIL_STATUS_PHRASES[from]}`;
+  if (!MOVES[from].includes(to)) return `A coil that is ${COIL_STATUS_PHRASES[from]} cannot be moved to ${COIL_STATUS_PHRASES[to]}`;
   const needsReason = to === 'quarantined' || from === 'quarantined';
   if (needsReason && !(reason && reason.trim().length > 0)) {
     return to === 'quarantined' ? 'Say why the coil is quarantined' : 'Say why the coil leaves quarantine';
@@ -135,19 +116,4 @@ export function coilMoveProblem(from: CoilStatus, to: CoilStatus, reason?: strin
 /** Whether a coil may move from one status to another (see coilMoveProblem for the reason). */
 export function canMoveCoil(from: CoilStatus, to: CoilStatus, reason?: string): boolean {
   return coilMoveProblem(from, to, reason) === null;
-}
-
-function words(status: CoilStatus): string {
-  switch (status) {
-    case 'in-yard':
-      return 'in the yard';
-    case 'on-trailer':
-      return 'on the trailer';
-    case 'in-use':
-      return 'in use';
-    case 'used-up':
-      return 'used up';
-    case 'quarantined':
-      return 'quarantined';
-  }
 }

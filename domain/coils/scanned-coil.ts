@@ -4,7 +4,8 @@
 // resolver, so the offline preview shows the coil that will be recorded. The text is read
 // the way coil labels are written (readScannedCoilText): the label QR's /coils/<id>
 // address, our coil id, or the manufacturer's ASTM F2897 code. Pure.
-import { readScannedCoilText, type CoilStatus } from '@/domain/coil-life/rules';
+import { readScannedCoilText } from '@/domain/coils/life';
+import type { CoilStatus } from '@/domain/coils/statuses';
 
 export interface ScannableCoil {
   id: number;

@@ -1,6 +1,7 @@
 // Input schemas for sign-in and people (Crew screen), shared by forms and server.
 import { z } from "zod";
 import { ROLES } from "../roles";
+import { UNIT_SYSTEMS } from "@/domain/units/format";
 
 export const MIN_PASSWORD_LENGTH = 12;
 
@@ -24,7 +25,7 @@ export const addPersonSchema = z.object({
   email: z.string({ error: "Enter an e-mail address." }).trim().toLowerCase().email({ error: "Enter a valid e-mail address." }).max(254),
   roles: rolesField,
   password: passwordField,
-  unitSystem: z.enum(["si", "us"], { error: "Choose SI or US customary units." }).default("si"),
+  unitSystem: z.enum(UNIT_SYSTEMS, { error: "Choose SI or US customary units." }).default("si"),
   crewId: z.coerce.number().int().positive().nullable().optional(),
 });
 export type AddPersonInput = z.infer<typeof addPersonSchema>;
@@ -45,5 +46,5 @@ export const resetPasswordSchema = z.object({
 export type ResetPasswordInput = z.infer<typeof resetPasswordSchema>;
 
 export const unitPreferenceSchema = z.object({
-  unitSystem: z.enum(["si", "us"], { error: "Choose SI or US customary units." }),
+  unitSystem: z.enum(UNIT_SYSTEMS, { error: "Choose SI or US customary units." }),
 });

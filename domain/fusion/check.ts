@@ -1,8 +1,10 @@
 // Joint check: every recorded value of a butt-fusion joint against its pressure plan
-// (windows from the procedure the plan was made under; see procedures.ts for sources).
+// (windows from the procedure the plan was made under; see domain/procedures for sources).
 // A value exactly on a limit passes; a value not recorded is a finding of its own.
 
 import type { FusionPlan } from '@/domain/fusion/plan';
+import type { JointParameter } from '@/domain/fusion/parameters';
+import type { JointOutcome } from '@/domain/joints/outcomes';
 import { jointMeasurements, type RecordedValues } from '@/domain/joints/values';
 import {
   formatQuantity,
@@ -12,38 +14,8 @@ import {
   type UnitSystem,
 } from '@/domain/units/format';
 
-export type JointOutcome = 'within-limits' | 'out-of-limits';
-
-export type JointParameter =
-  | 'heaterTemperature'
-  | 'beadUpPressure'
-  | 'fusionPressure'
-  | 'bead'
-  | 'heatSoak'
-  | 'heatSoakPressure'
-  | 'changeover'
-  | 'pressureBuildUp'
-  | 'cooling'
-  | 'coolingPressure'
-  | 'facing'
-  | 'alignment'
-  | 'visualBead';
-
-export const JOINT_PARAMETERS: readonly JointParameter[] = [
-  'heaterTemperature',
-  'beadUpPressure',
-  'fusionPressure',
-  'bead',
-  'heatSoak',
-  'heatSoakPressure',
-  'changeover',
-  'pressureBuildUp',
-  'cooling',
-  'coolingPressure',
-  'facing',
-  'alignment',
-  'visualBead',
-];
+export type { JointOutcome } from '@/domain/joints/outcomes';
+export { JOINT_PARAMETERS, type JointParameter } from '@/domain/fusion/parameters';
 
 /** Why a finding was raised. */
 export type FindingKind = 'below-minimum' | 'above-maximum' | 'not-recorded' | 'check-failed';

@@ -1,5 +1,6 @@
-// Fusion: procedures as data, pressure plans, joint checks and input schemas.
-export * from '@/domain/fusion/procedures';
+// Fusion: pressure plans, joint checks, the parameters they judge and input schemas
+// (procedures as data are domain/procedures).
+export * from '@/domain/fusion/parameters';
 export * from '@/domain/fusion/plan';
 export * from '@/domain/fusion/check';
 export * from '@/domain/fusion/schemas';

@@ -24,7 +24,7 @@ import {
   type SizeBasis,
   type SizeRule,
   type Window,
-} from '@/domain/fusion/procedures';
+} from '@/domain/procedures';
 
 export interface PlanButtFusionInput {
   /** A built-in published procedure … */

@@ -9,7 +9,7 @@ import {
   type ProcedureDefinition,
   type ProcedureFieldError,
   type SizeRule,
-} from '@/domain/fusion/procedures';
+} from '@/domain/procedures';
 import { VALUE_STATUSES } from '@/domain/sources';
 
 const number = (label: string, unit: string) => z.number({ error: `${label} must be a number${unit ? ` in ${unit}` : ''}` });

@@ -8,7 +8,7 @@
 // gauge pressure comes from the machine's total effective piston area (ASTM F2620-20 §8.2,
 // domain/fusion/plan.ts).
 import type { PlanButtFusionInput } from '@/domain/fusion/plan';
-import type { ProcedureDefinition } from '@/domain/fusion/procedures';
+import type { ProcedureDefinition } from '@/domain/procedures';
 import { componentMismatch, type Mismatch } from '@/domain/joints/rules';
 import { formatQuantity, type UnitSystem } from '@/domain/units/format';
 

@@ -10,7 +10,8 @@
 // the first joint of the day (PPI "Melt Procedure" page, ASTM F2620); quarantine
 // and used-up are Beadline's own coil states (no published source).
 
-import { isHeaterCheckOverdue, isHeaterFlagged } from '@/domain/office/rules';
+import { isHeaterCheckOverdue, isHeaterFlagged } from '@/domain/equipment/rules';
+import type { CoilStatus } from '@/domain/coils/statuses';
 import type { QualificationStatus } from '@/domain/qualifications/status';
 import { formatQuantity, type UnitSystem } from '@/domain/units/format';
 
@@ -56,8 +57,6 @@ export function componentMismatch(a: ComponentSize, b: ComponentSize, system: Un
 
 // ---------------------------------------------------------------------------------------
 // Refusals and blocking warnings
-
-export type CoilStatus = 'in-yard' | 'on-trailer' | 'in-use' | 'used-up' | 'quarantined';
 
 export interface BlockingCoil {
   id: number;

@@ -9,7 +9,8 @@
 // The two visual bead checks — a uniform double roll-back bead, and a V-groove between
 // the beads that does not reach below the pipe surface — are one "visual bead" parameter of
 // the check (PPI generic butt-fusion procedure, visual acceptance).
-import type { JointMeasurements, JointParameter } from '@/domain/fusion/check';
+import type { JointMeasurements } from '@/domain/fusion/check';
+import type { JointParameter } from '@/domain/fusion/parameters';
 import type { QuantityKind } from '@/domain/units/format';
 
 /** How the Trench takes a value: typed in, filled by the phase timer (or typed), or a yes/no check. */

@@ -1,3 +1,4 @@
-// Qualifications: fuser qualification status under 49 CFR 192.285(c), and ISO civil dates.
-export * from '@/domain/qualifications/dates';
+// Qualifications: fuser qualification status under 49 CFR 192.285(c), and ISO civil dates
+// (domain/dates, re-exported here under their public names).
+export * from '@/domain/dates/civil';
 export * from '@/domain/qualifications/status';

@@ -6,7 +6,7 @@
 // Dates are ISO 'YYYY-MM-DD' civil dates; "on" is passed in (no clock).
 
 import { DomainError } from '@/domain/errors';
-import { addMonths, daysBetween, earlierDate, parseIsoDate } from '@/domain/qualifications/dates';
+import { addMonths, daysBetween, earlierDate, parseIsoDate } from '@/domain/dates/civil';
 
 export type QualificationState =
   | 'current'

@@ -1,8 +1,11 @@
 // The Register's columns, shared by the grid and the spreadsheet/CSV export so both show
 // the same values: headers carry the unit in the reader's system (SI or US customary),
 // values are converted from canonical SI at this edge (domain/units, NIST SP 811 factors).
-import type { JointParameter } from '@/domain/fusion/check';
-import { FINDING_PARAMETER_LABELS, OUTCOME_LABELS, REVIEW_STATE_LABELS, type RegisterOutcome, type RegisterSort, type ReviewState } from '@/domain/register/filter';
+import type { JointParameter } from '@/domain/fusion/parameters';
+import { FINDING_PARAMETER_LABELS } from '@/domain/fusion/parameters';
+import { OUTCOME_LABELS } from '@/domain/joints/outcomes';
+import { REVIEW_STATE_LABELS, type ReviewState } from '@/domain/joints/review-states';
+import type { RegisterOutcome, RegisterSort } from '@/domain/register/filter';
 import { CHECK_VALUES, QUANTITY_VALUES, type CheckValueDefinition, type QuantityValueDefinition, type RecordedValues } from '@/domain/joints/values';
 import { displayDecimals, roundTo, toDisplay, unitLabel, type QuantityKind, type UnitSystem } from '@/domain/units/format';
 

@@ -1,14 +1,9 @@
 // Words for a Register view: what the filter and sort were, for the export's second sheet,
 // the audit entry and the screen's summary line.
-import {
-  FINDING_PARAMETER_LABELS,
-  OUTCOME_LABELS,
-  REGISTER_SORT_LABELS,
-  REVIEW_STATE_LABELS,
-  type RegisterFilter,
-  type RegisterSort,
-  type SortDirection,
-} from '@/domain/register/filter';
+import { FINDING_PARAMETER_LABELS } from '@/domain/fusion/parameters';
+import { OUTCOME_LABELS } from '@/domain/joints/outcomes';
+import { REGISTER_SORT_LABELS, type RegisterFilter, type RegisterSort, type SortDirection } from '@/domain/register/filter';
+import { REVIEW_STATE_LABELS } from '@/domain/joints/review-states';
 
 /** Names of what the filter refers to by id (looked up by the caller). */
 export interface FilterNames {

@@ -2,40 +2,14 @@
 // bookmarked and shared) by the page, the JSON API and the export alike. Plain-language
 // messages name the field. Dates are whole UTC days, inclusive at both ends.
 import { z } from 'zod';
-import { JOINT_PARAMETERS, type JointParameter } from '@/domain/fusion/check';
+import { JOINT_PARAMETERS } from '@/domain/fusion/parameters';
+import { JOINT_OUTCOMES as REGISTER_OUTCOMES } from '@/domain/joints/outcomes';
+import { REVIEW_STATES } from '@/domain/joints/review-states';
 
-export const REGISTER_OUTCOMES = ['within-limits', 'out-of-limits'] as const;
-export type RegisterOutcome = (typeof REGISTER_OUTCOMES)[number];
-
-export const REVIEW_STATES = ['pending-review', 'accepted', 'cut-out'] as const;
-export type ReviewState = (typeof REVIEW_STATES)[number];
-
-export const OUTCOME_LABELS: Record<RegisterOutcome, string> = {
-  'within-limits': 'Within limits',
-  'out-of-limits': 'Out of limits',
-};
-
-export const REVIEW_STATE_LABELS: Record<ReviewState, string> = {
-  'pending-review': 'Pending review',
-  accepted: 'Accepted',
-  'cut-out': 'Cut out',
-};
-
-export const FINDING_PARAMETER_LABELS: Record<JointParameter, string> = {
-  heaterTemperature: 'Heater temperature',
-  beadUpPressure: 'Bead-up pressure',
-  fusionPressure: 'Fusion pressure',
-  bead: 'Bead size',
-  heatSoak: 'Heat soak',
-  heatSoakPressure: 'Heat-soak pressure',
-  changeover: 'Changeover',
-  pressureBuildUp: 'Pressure build-up',
-  cooling: 'Cooling',
-  coolingPressure: 'Cooling pressure',
-  facing: 'Facing',
-  alignment: 'Alignment',
-  visualBead: 'Visual bead check',
-};
+// The words the Register shows and filters by are the joints' and the checks' own.
+export { JOINT_OUTCOMES as REGISTER_OUTCOMES, OUTCOME_LABELS, type JointOutcome as RegisterOutcome } from '@/domain/joints/outcomes';
+export { REVIEW_STATES, REVIEW_STATE_LABELS, type ReviewState } from '@/domain/joints/review-states';
+export { FINDING_PARAMETER_LABELS } from '@/domain/fusion/parameters';
 
 /**
  * Sort keys of the Register. Each is backed by an index, so a page costs the same at the

@@ -1,7 +1,9 @@
 // The review queue's ordering rule, and the plan-versus-recorded comparison each queue item
 // shows. Canonical SI in, the user's units out (domain/units).
 import type { FusionPlan } from "@/domain/fusion/plan";
-import { checkJoint, type JointFinding, type JointOutcome, type JointParameter } from "@/domain/fusion/check";
+import { checkJoint, type JointFinding } from "@/domain/fusion/check";
+import type { JointOutcome } from "@/domain/joints/outcomes";
+import type { JointParameter } from "@/domain/fusion/parameters";
 import { formatQuantity, formatRange, type QuantityKind, type UnitSystem } from "@/domain/units/format";
 import { RECORDED_VALUE_DEFINITIONS, type RecordedValues } from "@/domain/joints/values";
 

@@ -1,7 +1,8 @@
 // Input schemas of the review screen: a decision on a joint, the queue's filter and a
 // pressure-trace upload. Used by the forms (zodResolver) and parsed again on the server.
 import { z } from "zod";
-import { JOINT_PARAMETERS, type JointParameter } from "@/domain/fusion/check";
+import { JOINT_PARAMETERS, type JointParameter } from "@/domain/fusion/parameters";
+import type { JointOutcome } from "@/domain/joints/outcomes";
 
 export const REVIEW_DECISIONS = ["accepted", "cut-out"] as const;
 export type ReviewDecision = (typeof REVIEW_DECISIONS)[number];
@@ -44,7 +45,7 @@ export type DecideJointInput = z.input<typeof decideJointSchema>;
 export type DecideJointValues = z.output<typeof decideJointSchema>;
 
 /** Note needed to accept a joint with this outcome? (an out-of-limits joint needs the reason it is kept). */
-export function acceptNeedsNote(outcome: "within-limits" | "out-of-limits"): boolean {
+export function acceptNeedsNote(outcome: JointOutcome): boolean {
   return outcome === "out-of-limits";
 }
 

@@ -2,6 +2,7 @@
 // what. The UI uses them to hide a button; the action/route wrapper and the page guard use
 // the same table to refuse (403 / not found).
 
+import type { UnitSystem } from "@/domain/units/format";
 export const ROLES = ["fuser", "inspector", "clerk", "admin"] as const;
 export type Role = (typeof ROLES)[number];
 
@@ -13,7 +14,7 @@ export const ROLE_LABELS: Record<Role, string> = {
 };
 
 /** The signed-in person as every guard sees it (reloaded from the database on each request). */
-export type Actor = { id: number; name: string; email: string; roles: Role[]; unitSystem: "si" | "us"; isActive: boolean };
+export type Actor = { id: number; name: string; email: string; roles: Role[]; unitSystem: UnitSystem; isActive: boolean };
 
 export function isRole(value: string): value is Role {
   return (ROLES as readonly string[]).includes(value);

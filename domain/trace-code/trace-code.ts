@@ -7,7 +7,7 @@
 // as 20YY (00–99 → 2000–2099) and buildTraceCode only accepts years 2000–2099.
 
 import { DomainError } from '@/domain/errors';
-import { formatIsoDate, isLeapYear } from '@/domain/qualifications/dates';
+import { formatIsoDate, isLeapYear } from '@/domain/dates/civil';
 import { COMPONENT_TYPE_CODES } from '@/domain/trace-code/component-types';
 
 /** Base-62 digits in value order: 0–9 → 0–9, a–z → 10–35, A–Z → 36–61 (F2897 Table 2). */

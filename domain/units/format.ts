@@ -17,8 +17,9 @@ import {
   psiToMpa,
 } from '@/domain/units/conversions';
 
-/** The unit preference stored per user. */
-export type UnitSystem = 'si' | 'us';
+/** The unit preference stored per user: SI, or US customary (NIST SP 811 factors). */
+export const UNIT_SYSTEMS = ['si', 'us'] as const;
+export type UnitSystem = (typeof UNIT_SYSTEMS)[number];
 
 /**
  * Kinds of quantity the UI shows. Canonical SI unit of each kind:

@@ -9,6 +9,7 @@ import { ownerDb, resetDatabase } from "../support/db";
 import { actAs } from "../support/session";
 import { makeUser } from "../support/users";
 import { countRows, makeHeater, makeMachine, makeProcedure } from "./office-fixtures";
+import type { UnitSystem } from "@/domain/units/format";
 
 describe("Equipment actions: fusion machines", () => {
   let admin: { id: number };
@@ -96,7 +97,7 @@ describe("Equipment actions: heater plates and surface-temperature checks", () =
     procedureId = (await makeProcedure({ standard: "astm-f2620" })).id;
   });
 
-  const check = (heaterId: number, faceA: string[], faceB: string[], units: "si" | "us" = "us") => ({ units, heaterId, procedureId, instrument: "Contact pyrometer PY-9", faceA, faceB, notes: "" });
+  const check = (heaterId: number, faceA: string[], faceB: string[], units: UnitSystem = "us") => ({ units, heaterId, procedureId, instrument: "Contact pyrometer PY-9", faceA, faceB, notes: "" });
 
   it("passes a check whose readings all lie in the F2620 window, and sets the next due date", async () => {
     await actAs(admin);

@@ -1,7 +1,7 @@
 // Builders for the office tests: a procedure with its first version (the published
 // standard's windows), a crew, a job, a machine, a heater plate and a joint row inserted
 // directly with the owner connection (as the Trench screen would record one).
-import { builtInProcedure, type FusionStandard } from "@/domain/fusion/procedures";
+import { builtInProcedure, type FusionStandard } from "@/domain/procedures";
 import { ownerDb } from "../support/db";
 
 let n = 0;

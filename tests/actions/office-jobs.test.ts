@@ -3,7 +3,7 @@
 import { beforeEach, describe, expect, it } from "vitest";
 import { createJobAction, setJobStatusAction, updateJobAction } from "@/app/(signed-in)/jobs/actions";
 import { findJobById, listCoilsForJob, listOpenJobsForFuser } from "@/database/queries/jobs";
-import { canRecordOnJob } from "@/domain/office/rules";
+import { canRecordOnJob } from "@/domain/jobs/rules";
 import { ownerDb, resetDatabase } from "../support/db";
 import { actAs } from "../support/session";
 import { makeUser } from "../support/users";

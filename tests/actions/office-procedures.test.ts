@@ -4,11 +4,12 @@
 import { beforeEach, describe, expect, it } from "vitest";
 import { createProcedureAction, editVersionNotesAction, publishProcedureVersionAction } from "@/app/(signed-in)/procedures/actions";
 import { currentProcedureVersion, currentProcedureVersionForJob, findProcedureVersionById, listProcedureVersions } from "@/database/queries/procedures";
-import { builtInProcedure } from "@/domain/fusion/procedures";
+import { builtInProcedure } from "@/domain/procedures";
 import { ownerDb, resetDatabase } from "../support/db";
 import { actAs } from "../support/session";
 import { makeUser } from "../support/users";
 import { countRows, insertJoint, makeJob, makeProcedure } from "./office-fixtures";
+import type { UnitSystem } from "@/domain/units/format";
 
 describe("Procedures actions", () => {
   let admin: { id: number };
@@ -17,7 +18,7 @@ describe("Procedures actions", () => {
     admin = await makeUser({ roles: ["admin"] });
   });
 
-  const tighten = (procedureId: number, basedOnVersionId: number, extra: Record<string, unknown> = {}) => ({ units: "si" as "si" | "us", procedureId, basedOnVersionId, note: "Operator tightening after the 2026 trial joints", ...extra });
+  const tighten = (procedureId: number, basedOnVersionId: number, extra: Record<string, unknown> = {}) => ({ units: "si" as UnitSystem, procedureId, basedOnVersionId, note: "Operator tightening after the 2026 trial joints", ...extra });
 
   it("adds a procedure whose version 1 is the published standard's windows", async () => {
     await actAs(admin);

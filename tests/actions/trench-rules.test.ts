@@ -82,7 +82,7 @@ describe("blockReasons", () => {
 
 describe("phase timer (times stored as instants; common practice, no published source)", () => {
   // ASTM F2620 for 2" IPS SDR 11 (wall 0.216 in): changeover at most 8 s, cooling 11 min/in → 143 s
-  // // from memory, unconfirmed (the procedure's values; their sources are in domain/fusion/procedures)
+  // // from memory, unconfirmed (the procedure's values; their sources are in domain/procedures)
   const plan = planButtFusion({ standard: "astm-f2620", outsideDiameterMm: TWO_IN, sdr: 11, pistonAreaMm2: 1006.5, dragPressureMpa: 0.07 });
   const limits = phaseLimits(plan);
   const t0 = Date.parse("2026-12-02T09:00:00Z");

@@ -20,7 +20,7 @@ import { GET as attachmentGet } from "@/app/api/v1/attachments/[id]/route";
 import { GET as jointsGet, POST as jointsPost } from "@/app/api/v1/joints/route";
 import { GET as jointGet } from "@/app/api/v1/joints/[id]/route";
 import { GET as planGet } from "@/app/api/v1/fusion-plan/route";
-import { builtInProcedure } from "@/domain/fusion/procedures";
+import { builtInProcedure } from "@/domain/procedures";
 import { actAs, requestAs } from "../support/session";
 import { ownerDb, resetDatabase } from "../support/db";
 import { makeUser } from "../support/users";

@@ -14,7 +14,7 @@
 import type { Knex } from "knex";
 import { FINDINGS_BACKFILL_SQL, FINDINGS_TRIGGER, FINDINGS_TRIGGER_SQL } from "../../database/migrations/20261202000900_register";
 import { planButtFusion } from "../../domain/fusion/plan";
-import type { ProcedureDefinition } from "../../domain/fusion/procedures";
+import type { ProcedureDefinition } from "../../domain/procedures";
 
 export type SyntheticRegister = {
   joints: number;

@@ -7,7 +7,7 @@ import { receiveCoil } from "@/app/_server/coils/receive-coil";
 import { closeDb, db } from "@/database/client";
 import { drawDownCoil } from "@/app/_server/coils/draw-down-coil";
 import { findCoilByCode, findCoilByCodeOrTrace, findCoilById, listCoilEvents } from "@/database/queries/coils";
-import { receiveCoilSchema } from "@/domain/coil-life/schemas";
+import { receiveCoilSchema } from "@/domain/coils/schemas";
 import { AppError } from "@/domain/result";
 import { seed as seedScenario } from "@/database/seeds/01-demo";
 import { closeOwnerDb, ownerDb, resetDatabase, userIdByEmail } from "../support/db";

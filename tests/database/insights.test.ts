@@ -4,7 +4,7 @@
 // counts known from the fixture joints themselves.
 import { beforeAll, describe, expect, it } from "vitest";
 import { coolingRecordedVersusRequired, findingsByParameter, firstPassYieldByFuser, firstPassYieldByMachine, firstPassYieldByWeek, heaterTemperatures, insightsSummary } from "@/database/queries/insights";
-import { JOINT_PARAMETERS } from "@/domain/fusion/check";
+import { JOINT_PARAMETERS } from "@/domain/fusion/parameters";
 import { makeReviewBase, makeReviewJoint, type FaultName, type MadeJoint } from "@/fixtures/review-joints";
 import { ownerDb, resetDatabase } from "../support/db";
 import { makeUser } from "../support/users";

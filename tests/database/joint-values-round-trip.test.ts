@@ -14,7 +14,7 @@ import { GET as registerGet } from "@/app/api/v1/register/route";
 import { GET as jointGet } from "@/app/api/v1/joints/[id]/route";
 import { POST as jointsPost } from "@/app/api/v1/joints/route";
 import { closeDb } from "@/database/client";
-import { builtInProcedure } from "@/domain/fusion/procedures";
+import { builtInProcedure } from "@/domain/procedures";
 import { RECORDED_VALUE_DEFINITIONS, type RecordedValueDefinition } from "@/domain/joints/values";
 import { exportDecimals } from "@/domain/register";
 import type { QuantityKind } from "@/domain/units/format";

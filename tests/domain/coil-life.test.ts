@@ -12,9 +12,9 @@ import {
   readScannedCoilText,
   statusMoveProblem,
   traceCodeDisagreements,
-} from "@/domain/coil-life/rules";
-import { layoutRun, parseStation } from "@/domain/coil-life/schematic";
-import { moveCoilSchema, receiveCoilSchema, traceSearchSchema } from "@/domain/coil-life/schemas";
+} from "@/domain/coils/life";
+import { layoutRun, parseStation } from "@/domain/coils/schematic";
+import { moveCoilSchema, receiveCoilSchema, traceSearchSchema } from "@/domain/coils/schemas";
 import { parseTraceCode } from "@/domain/trace-code/trace-code";
 
 // A code worked out by hand from ASTM F2897-23a §§3–5, not with the code under test:

@@ -14,7 +14,7 @@ import { enqueueJointAlert } from "@/app/_server/mail/joint-alert";
 import { enqueueMail, foldDailyDigests, listOutbox } from "@/database/queries/outbox";
 import { sendDueMails } from "@/app/_server/mail/send-due-mails";
 import { createSmtpTransport, type MailTransport } from "@/app/_server/mail/transport";
-import { MAX_MAIL_ATTEMPTS, retryDelayS } from "@/domain/review/backoff";
+import { MAX_MAIL_ATTEMPTS, retryDelayS } from "@/domain/mail/backoff";
 import { makeReviewBase, makeReviewJoint, type ReviewBase } from "@/fixtures/review-joints";
 import { ownerDb, resetDatabase } from "../support/db";
 import { makeUser } from "../support/users";

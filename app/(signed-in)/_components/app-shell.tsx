@@ -3,9 +3,10 @@ import type { Screen } from "@/domain/roles";
 import { ROLE_LABELS, type Role } from "@/domain/roles";
 import { signOutAction } from "@/app/(signed-out)/sign-in/actions";
 import { UnitToggle } from "./unit-toggle";
+import type { UnitSystem } from "@/domain/units/format";
 
 /** The responsive shell: a top bar with the person and a navigation of their screens. */
-export function AppShell({ user, screens, children }: { user: { name: string; roles: Role[]; unitSystem: "si" | "us" }; screens: Screen[]; children: React.ReactNode }) {
+export function AppShell({ user, screens, children }: { user: { name: string; roles: Role[]; unitSystem: UnitSystem }; screens: Screen[]; children: React.ReactNode }) {
   return (
     <div className="flex min-h-screen flex-col">
       <header className="no-print bg-brand text-white">

@@ -1,9 +1,10 @@
 "use client";
 import { useTransition } from "react";
 import { setUnitSystemAction } from "../actions";
+import type { UnitSystem } from "@/domain/units/format";
 
 /** Switches the person's unit preference between SI and US customary. */
-export function UnitToggle({ unitSystem }: { unitSystem: "si" | "us" }) {
+export function UnitToggle({ unitSystem }: { unitSystem: UnitSystem }) {
   const [pending, start] = useTransition();
   const next = unitSystem === "si" ? "us" : "si";
   return (

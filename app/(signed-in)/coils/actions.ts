@@ -3,7 +3,7 @@
 // input are checked by the wrapper; the use cases live in _lib/use-cases.ts.
 import { revalidatePath } from "next/cache";
 import { defineAction } from "@/app/_lib/guard";
-import { moveCoilSchema, receiveCoilSchema } from "@/domain/coil-life/schemas";
+import { moveCoilSchema, receiveCoilSchema } from "@/domain/coils/schemas";
 import { moveCoil } from "@/app/_server/coils/move-coil";
 import { receiveCoil } from "@/app/_server/coils/receive-coil";
 

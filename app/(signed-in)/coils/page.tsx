@@ -1,7 +1,7 @@
 import Link from "next/link";
 import { requireUser } from "@/app/_lib/page-guard";
 import { countCoilsByStatus, listCoils } from "@/database/queries/coils";
-import { COIL_STATUSES, COIL_STATUS_LABELS, type CoilStatus } from "@/domain/coil-life/rules";
+import { COIL_STATUSES, COIL_STATUS_LABELS, type CoilStatus } from "@/domain/coils/statuses";
 import { describeSize } from "@/domain/labels/label";
 import { formatQuantity } from "@/domain/units/format";
 import { FieldShell } from "@/components/form/field-shell";

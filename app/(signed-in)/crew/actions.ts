@@ -4,7 +4,7 @@ import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { defineAction } from "@/app/_lib/guard";
 import { addPersonSchema, resetPasswordSchema, updatePersonSchema } from "@/domain/crew/schemas";
-import { recordQualificationFailureSchema, recordQualificationSchema } from "@/domain/office/schemas";
+import { recordQualificationFailureSchema, recordQualificationSchema } from "@/domain/qualifications/schemas";
 import { addPerson } from "@/app/_server/crew/add-person";
 import { resetPassword } from "@/app/_server/crew/reset-password";
 import { updatePersonAccess } from "@/app/_server/crew/update-person-access";

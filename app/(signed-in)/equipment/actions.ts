@@ -2,7 +2,7 @@
 // Server actions of the Equipment screen (admin only): machines, heater plates, heater checks.
 import { revalidatePath } from "next/cache";
 import { defineAction } from "@/app/_lib/guard";
-import { createHeaterSchema, createMachineSchema, recordHeaterCheckSchema, updateHeaterSchema, updateMachineSchema } from "@/domain/office/schemas";
+import { createHeaterSchema, createMachineSchema, recordHeaterCheckSchema, updateHeaterSchema, updateMachineSchema } from "@/domain/equipment/schemas";
 import { createHeater } from "@/app/_server/equipment/create-heater";
 import { createMachine } from "@/app/_server/equipment/create-machine";
 import { editHeater } from "@/app/_server/equipment/edit-heater";

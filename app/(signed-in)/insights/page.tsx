@@ -9,7 +9,7 @@ import {
   heaterTemperatures,
   insightsSummary,
 } from "@/database/queries/insights";
-import { PARAMETER_LABELS } from "@/domain/review/labels";
+import { PARAMETER_LABELS } from "@/domain/fusion/parameters";
 import { FieldShell } from "@/components/form/field-shell";
 import { TimeDisplay } from "@/components/ui/time-display";
 import { InsightsCharts } from "./_components/insights-charts";

@@ -2,7 +2,7 @@
 // Server actions of the Jobs screen (admin only): session → role → schema → use case.
 import { revalidatePath } from "next/cache";
 import { defineAction } from "@/app/_lib/guard";
-import { createJobSchema, setJobStatusSchema, updateJobSchema } from "@/domain/office/schemas";
+import { createJobSchema, setJobStatusSchema, updateJobSchema } from "@/domain/jobs/schemas";
 import { createJob } from "@/app/_server/jobs/create-job";
 import { editJob } from "@/app/_server/jobs/edit-job";
 import { setJobStatus } from "@/app/_server/jobs/set-job-status";

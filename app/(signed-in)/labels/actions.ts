@@ -2,7 +2,7 @@
 // Labels: stamp the coils whose labels were just sent to the printer.
 import { revalidatePath } from "next/cache";
 import { defineAction } from "@/app/_lib/guard";
-import { markLabelsPrintedSchema } from "@/domain/coil-life/schemas";
+import { markLabelsPrintedSchema } from "@/domain/coils/schemas";
 import { markLabelsPrinted } from "@/app/_server/coils/mark-labels-printed";
 
 export const markLabelsPrintedAction = defineAction({ permission: "printLabels", schema: markLabelsPrintedSchema }, async (input, ctx) => {

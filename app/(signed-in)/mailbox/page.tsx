@@ -1,7 +1,7 @@
 import { requireUser } from "@/app/_lib/page-guard";
 import { listDevMail, spoolDir } from "@/database/queries/dev-mailbox";
 import { countOutboxByStatus, listOutbox, type MailStatus, type OutboxMail } from "@/database/queries/outbox";
-import { mailKindLabel } from "@/domain/review/digest";
+import { mailKindLabel } from "@/domain/mail/digest";
 import { DataTable } from "@/components/ui/data-table";
 import { formatInstant } from "@/components/ui/display-format";
 import { SectionCard } from "@/components/ui/section-card";

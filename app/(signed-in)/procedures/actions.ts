@@ -2,7 +2,7 @@
 // Server actions of the Procedures screen (admin only; fusers and inspectors may read the page).
 import { revalidatePath } from "next/cache";
 import { defineAction } from "@/app/_lib/guard";
-import { createProcedureSchema, editVersionNotesSchema, tightenProcedureSchema } from "@/domain/office/schemas";
+import { createProcedureSchema, editVersionNotesSchema, tightenProcedureSchema } from "@/domain/procedures/schemas";
 import { createProcedure } from "@/app/_server/procedures/create-procedure";
 import { editVersionNotes } from "@/app/_server/procedures/edit-version-notes";
 import { publishTightenedVersion } from "@/app/_server/procedures/publish-tightened-version";

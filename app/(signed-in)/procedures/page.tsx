@@ -1,6 +1,6 @@
 import { requireUser } from "@/app/_lib/page-guard";
 import { currentProcedureVersion, listProcedures } from "@/database/queries/procedures";
-import { builtInProcedure } from "@/domain/fusion/procedures";
+import { builtInProcedure } from "@/domain/procedures";
 import { can } from "@/domain/roles";
 import { DataTable } from "@/components/ui/data-table";
 import { formatInstant } from "@/components/ui/display-format";

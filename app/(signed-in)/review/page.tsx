@@ -1,7 +1,7 @@
 import { requireUser } from "@/app/_lib/page-guard";
 import { listQueueFilterOptions, listReviewQueue } from "@/database/queries/reviews";
 import { reviewQueueFilterSchema } from "@/domain/review/schemas";
-import { PARAMETER_LABELS } from "@/domain/review/labels";
+import { PARAMETER_LABELS } from "@/domain/fusion/parameters";
 import { ReviewQueue } from "./_components/review-queue";
 import { toQueueItemView } from "@/app/_server/review/queue-item-view";
 import { MailPreference } from "../_components/mail-preference";

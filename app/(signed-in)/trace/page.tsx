@@ -2,7 +2,7 @@ import Link from "next/link";
 import { redirect } from "next/navigation";
 import { requireUser } from "@/app/_lib/page-guard";
 import { findJointIdByReference, traceLot } from "@/database/queries/trace";
-import { traceSearchSchema } from "@/domain/coil-life/schemas";
+import { traceSearchSchema } from "@/domain/coils/schemas";
 import { describeSize } from "@/domain/labels/label";
 import { fieldErrorsFromIssues } from "@/domain/result";
 import { formatQuantity } from "@/domain/units/format";

@@ -4,6 +4,7 @@ import { Cautions } from "@/components/ui/caution";
 import { requireUser } from "@/app/_lib/page-guard";
 import { loadTrenchSetup } from "@/app/_server/trench/load-setup";
 import { TrenchScreen } from "./_components/trench-screen";
+import { OUTCOME_LABELS } from "@/domain/joints/outcomes";
 
 export const metadata: Metadata = { title: "Trench · Beadline" };
 export const dynamic = "force-dynamic";
@@ -29,7 +30,7 @@ export default async function TrenchPage() {
                   <span>
                     {j.jobCode} joint {j.jointNo}
                   </span>
-                  <span className={j.outcome === "within-limits" ? "text-pass" : "text-fail"}>{j.outcome === "within-limits" ? "Within limits" : "Out of limits"}</span>
+                  <span className={j.outcome === "within-limits" ? "text-pass" : "text-fail"}>{OUTCOME_LABELS[j.outcome]}</span>
                 </Link>
               </li>
             ))}

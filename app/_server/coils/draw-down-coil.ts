@@ -5,7 +5,7 @@
 import "server-only";
 import type { Knex } from "knex";
 import { lockCoil, writeCoilPull, type DrawDownResult } from "@/database/queries/coils";
-import { planPull } from "@/domain/coil-life/rules";
+import { planPull } from "@/domain/coils/life";
 import { AppError } from "@/domain/result";
 import type { UnitSystem } from "@/domain/units/format";
 

@@ -4,8 +4,8 @@ import "server-only";
 import { db } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { lockCoil, updateCoilStatus, type Coil } from "@/database/queries/coils";
-import { statusMoveProblem } from "@/domain/coil-life/rules";
-import type { MoveCoil } from "@/domain/coil-life/schemas";
+import { statusMoveProblem } from "@/domain/coils/life";
+import type { MoveCoil } from "@/domain/coils/schemas";
 import { AppError } from "@/domain/result";
 import type { Actor } from "./receive-coil";
 

@@ -4,8 +4,8 @@ import "server-only";
 import { db } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { insertCoil, type Coil } from "@/database/queries/coils";
-import { judgeReceiptInspection, traceCodeDisagreements } from "@/domain/coil-life/rules";
-import type { ReceiveCoil } from "@/domain/coil-life/schemas";
+import { judgeReceiptInspection, traceCodeDisagreements } from "@/domain/coils/life";
+import type { ReceiveCoil } from "@/domain/coils/schemas";
 import { AppError } from "@/domain/result";
 
 export type Actor = { user: { id: number }; requestId: string };

@@ -3,7 +3,7 @@ import "server-only";
 import { db, isDuplicateKey } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { insertHeater } from "@/database/queries/equipment";
-import type { CreateHeaterInput } from "@/domain/office/schemas";
+import type { CreateHeaterInput } from "@/domain/equipment/schemas";
 import { takenTag } from "./equipment-checks";
 
 type Ctx = { user: { id: number }; requestId: string };

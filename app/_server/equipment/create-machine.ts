@@ -3,7 +3,7 @@ import "server-only";
 import { db, isDuplicateKey } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { insertMachine } from "@/database/queries/equipment";
-import type { CreateMachineInput } from "@/domain/office/schemas";
+import type { CreateMachineInput } from "@/domain/equipment/schemas";
 import { takenTag, machineFields } from "./equipment-checks";
 
 type Ctx = { user: { id: number }; requestId: string };

@@ -3,7 +3,7 @@ import "server-only";
 import { db, isDuplicateKey } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { findHeaterWithLastCheck, updateHeater } from "@/database/queries/equipment";
-import type { UpdateHeaterInput } from "@/domain/office/schemas";
+import type { UpdateHeaterInput } from "@/domain/equipment/schemas";
 import { AppError } from "@/domain/result";
 import { CONFLICT_MESSAGE } from "@/app/_server/edit-conflict";
 import { takenTag } from "./equipment-checks";

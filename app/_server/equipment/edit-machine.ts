@@ -3,7 +3,7 @@ import "server-only";
 import { db, isDuplicateKey } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { findMachineById, updateMachine } from "@/database/queries/equipment";
-import type { UpdateMachineInput } from "@/domain/office/schemas";
+import type { UpdateMachineInput } from "@/domain/equipment/schemas";
 import { AppError } from "@/domain/result";
 import { CONFLICT_MESSAGE } from "@/app/_server/edit-conflict";
 import { takenTag, machineFields } from "./equipment-checks";

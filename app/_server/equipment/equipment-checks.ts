@@ -1,7 +1,7 @@
 // What the equipment use cases share: the taken-asset-tag refusal and a machine's stored
 // fields.
 import "server-only";
-import type { CreateMachineInput } from "@/domain/office/schemas";
+import type { CreateMachineInput } from "@/domain/equipment/schemas";
 import { AppError } from "@/domain/result";
 
 export function takenTag(tag: string): AppError {

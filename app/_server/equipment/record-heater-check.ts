@@ -5,9 +5,9 @@ import { db } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { findHeaterWithLastCheck, insertHeaterCheck } from "@/database/queries/equipment";
 import { currentProcedureVersion, findProcedureById } from "@/database/queries/procedures";
-import { isoDateOf } from "@/domain/office/dates";
-import { heaterNextDueOn, judgeHeaterCheck } from "@/domain/office/rules";
-import type { RecordHeaterCheckInput } from "@/domain/office/schemas";
+import { isoDateOf } from "@/domain/dates/civil";
+import { heaterNextDueOn, judgeHeaterCheck } from "@/domain/equipment/rules";
+import type { RecordHeaterCheckInput } from "@/domain/equipment/schemas";
 import { AppError } from "@/domain/result";
 
 type Ctx = { user: { id: number }; requestId: string };

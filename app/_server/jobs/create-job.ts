@@ -3,7 +3,7 @@ import "server-only";
 import { db, isDuplicateKey } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { insertJob, setCoilsForJob } from "@/database/queries/jobs";
-import type { CreateJobInput } from "@/domain/office/schemas";
+import type { CreateJobInput } from "@/domain/jobs/schemas";
 import { checkReferences, duplicateCode } from "./job-checks";
 
 type Ctx = { user: { id: number }; requestId: string };

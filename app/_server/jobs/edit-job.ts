@@ -3,7 +3,7 @@ import "server-only";
 import { db, isDuplicateKey } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { findJobById, setCoilsForJob, updateJob } from "@/database/queries/jobs";
-import type { UpdateJobInput } from "@/domain/office/schemas";
+import type { UpdateJobInput } from "@/domain/jobs/schemas";
 import { AppError } from "@/domain/result";
 import { CONFLICT_MESSAGE } from "@/app/_server/edit-conflict";
 import { checkReferences, duplicateCode } from "./job-checks";

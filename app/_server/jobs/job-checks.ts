@@ -4,7 +4,7 @@ import type { Db } from "@/database/client";
 import { coilAssignmentProblems } from "@/database/queries/jobs";
 import { findProcedureById } from "@/database/queries/procedures";
 import { listCrews } from "@/database/queries/users";
-import type { CreateJobInput } from "@/domain/office/schemas";
+import type { CreateJobInput } from "@/domain/jobs/schemas";
 import { AppError } from "@/domain/result";
 
 export async function checkReferences(input: CreateJobInput, jobId: number | null, trx: Db): Promise<void> {

@@ -3,7 +3,7 @@ import "server-only";
 import { db } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { findJobById, updateJobStatus } from "@/database/queries/jobs";
-import type { SetJobStatusInput } from "@/domain/office/schemas";
+import type { SetJobStatusInput } from "@/domain/jobs/schemas";
 import { AppError } from "@/domain/result";
 import { CONFLICT_MESSAGE } from "@/app/_server/edit-conflict";
 

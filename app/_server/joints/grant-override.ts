@@ -11,7 +11,7 @@ import { findJobById } from "@/database/queries/jobs";
 import { insertJointOverride } from "@/database/queries/joints";
 import type { UserRecord } from "@/database/queries/users";
 import type { GrantOverrideInput } from "@/domain/joints/schemas";
-import { jobBlockReason } from "@/domain/office/rules";
+import { jobBlockReason } from "@/domain/jobs/rules";
 import { AppError } from "@/domain/result";
 
 export type GrantedOverride = { id: number; jobCode: string; subjectLabel: string; expiresAt: string };

@@ -36,11 +36,11 @@ import { buttFusionPlanInput, NO_PUBLISHED_VERSION_FIELD_MESSAGE, noPublishedVer
 import { applyOverrides, blockReasons, madeAtProblem } from "@/domain/joints/rules";
 import { pickRecordedValues, type RecordedValues } from "@/domain/joints/values";
 import type { RecordJointInput } from "@/domain/joints/schemas";
-import { jobBlockReason } from "@/domain/office/rules";
+import { jobBlockReason } from "@/domain/jobs/rules";
 import { qualificationStatus } from "@/domain/qualifications/status";
 import { AppError } from "@/domain/result";
 import type { UnitSystem } from "@/domain/units/format";
-import { isoDateOf } from "@/domain/office/dates";
+import { isoDateOf } from "@/domain/dates/civil";
 import { drawDownCoil } from "@/app/_server/coils/draw-down-coil";
 import { enqueueJointAlert } from "@/app/_server/mail/joint-alert";
 

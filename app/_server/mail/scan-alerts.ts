@@ -2,8 +2,8 @@
 // running it often is harmless) and folds the daily digests. Run by the mail worker.
 import "server-only";
 import type { Knex } from "knex";
-import { isoDateOf } from "@/domain/office/dates";
-import { heaterAlerts, qualificationAlerts, type AlertMail } from "@/domain/review/alerts";
+import { isoDateOf } from "@/domain/dates/civil";
+import { heaterAlerts, qualificationAlerts, type AlertMail } from "@/domain/mail/alerts";
 import { db } from "@/database/client";
 import { listHeatersWithLastCheck } from "@/database/queries/equipment";
 import { enqueueUserEvent, foldDailyDigests, listAlertAdmins, type Recipient } from "@/database/queries/outbox";

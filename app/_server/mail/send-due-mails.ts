@@ -1,6 +1,6 @@
 // The outbox sender: claims due mails (FOR UPDATE SKIP LOCKED, so several app instances
 // share the work without sending a mail twice), sends each over SMTP, and marks it sent —
-// or records the failure for a retry with back-off (domain/review/backoff.ts).
+// or records the failure for a retry with back-off (domain/mail/backoff.ts).
 import "server-only";
 import type { Knex } from "knex";
 import { claimDueMails, markMailFailed, markMailSent } from "@/database/queries/outbox";

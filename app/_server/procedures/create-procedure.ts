@@ -4,8 +4,8 @@ import "server-only";
 import { db, isDuplicateKey } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { insertProcedure, insertProcedureVersion } from "@/database/queries/procedures";
-import { builtInProcedure, type FusionStandard } from "@/domain/fusion/procedures";
-import type { CreateProcedureInput } from "@/domain/office/schemas";
+import { builtInProcedure, type FusionStandard } from "@/domain/procedures";
+import type { CreateProcedureInput } from "@/domain/procedures/schemas";
 import { AppError } from "@/domain/result";
 
 type Ctx = { user: { id: number }; requestId: string };

@@ -3,7 +3,7 @@ import "server-only";
 import { db } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { countJointsUsingVersion, findProcedureVersionById, updateVersionNotes } from "@/database/queries/procedures";
-import type { EditVersionNotesInput } from "@/domain/office/schemas";
+import type { EditVersionNotesInput } from "@/domain/procedures/schemas";
 import { AppError } from "@/domain/result";
 
 type Ctx = { user: { id: number }; requestId: string };

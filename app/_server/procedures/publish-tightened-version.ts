@@ -4,8 +4,8 @@ import "server-only";
 import { db, isDuplicateKey } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { currentProcedureVersion, findProcedureById, insertProcedureVersion, markVersionSuperseded } from "@/database/queries/procedures";
-import { tightenFromForm } from "@/domain/office/procedures";
-import type { TightenProcedureInput } from "@/domain/office/schemas";
+import { tightenFromForm } from "@/domain/procedures/form";
+import type { TightenProcedureInput } from "@/domain/procedures/schemas";
 import { AppError, describeFieldErrors } from "@/domain/result";
 
 type Ctx = { user: { id: number }; requestId: string };

@@ -5,8 +5,8 @@
 import "server-only";
 import type { Writable } from "node:stream";
 import ExcelJS from "exceljs";
-import type { ProcedureDefinition } from "@/domain/fusion/procedures";
-import { describeProcedureWindows } from "@/domain/fusion/procedures";
+import type { ProcedureDefinition } from "@/domain/procedures";
+import { describeProcedureWindows } from "@/domain/procedures";
 import { REGISTER_COLUMNS, columnHeader, columnNumberFormat, type FilterLine, type RegisterColumn, type RegisterRow } from "@/domain/register";
 import type { UnitSystem } from "@/domain/units";
 import { formatCount } from "@/components/ui/display-format";

@@ -14,12 +14,13 @@ import type { UserRecord } from "@/database/queries/users";
 import { putObject } from "@/app/_server/storage/object-store";
 import { parsePressureTraceCsv } from "@/domain/pressure-trace/parse";
 import { readPressureTrace } from "@/domain/pressure-trace/read";
+import type { JointOutcome } from "@/domain/joints/outcomes";
 import { AppError } from "@/domain/result";
-import { checkTraceReading, downsampleTrace } from "@/domain/review/trace-check";
+import { checkTraceReading, downsampleTrace } from "@/domain/pressure-trace/check";
 import { can, canAttachTraceTo } from "@/domain/roles";
 import { MAX_TRACE_FILE_BYTES } from "@/domain/review/schemas";
 
-export type AttachTraceResult = { jointId: number; traceId: number; attachmentId: number; revisionNo: number; outcome: "within-limits" | "out-of-limits"; findings: string[] };
+export type AttachTraceResult = { jointId: number; traceId: number; attachmentId: number; revisionNo: number; outcome: JointOutcome; findings: string[] };
 
 export async function attachTrace(
   { jointId, fileName, bytes }: { jointId: number; fileName: string | null; bytes: Uint8Array },

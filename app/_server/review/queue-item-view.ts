@@ -4,8 +4,9 @@
 import "server-only";
 import type { ReviewItem } from "@/database/queries/reviews";
 import type { JointFinding } from "@/domain/fusion/check";
+import type { JointOutcome } from "@/domain/joints/outcomes";
 import { findingsForViewer, planVersusRecorded, type ComparisonRow } from "@/domain/review/queue";
-import { checkTraceReading, traceVersusTyped, type TraceValueRow } from "@/domain/review/trace-check";
+import { checkTraceReading, traceVersusTyped, type TraceValueRow } from "@/domain/pressure-trace/check";
 import type { UnitSystem } from "@/domain/units/format";
 
 export type QueueItemView = Omit<ReviewItem, "madeAt" | "trace" | "findings" | "photos"> & {
@@ -18,7 +19,7 @@ export type QueueItemView = Omit<ReviewItem, "madeAt" | "trace" | "findings" | "
     attachmentId: number;
     url: string;
     sampleCount: number;
-    outcome: "within-limits" | "out-of-limits";
+    outcome: JointOutcome;
     findings: JointFinding[];
     rows: TraceValueRow[];
     uploadedAt: string;

@@ -4,7 +4,7 @@ import "server-only";
 import ExcelJS from "exceljs";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { traceLot } from "@/database/queries/trace";
-import type { TraceSearch } from "@/domain/coil-life/schemas";
+import type { TraceSearch } from "@/domain/coils/schemas";
 
 type Trace = Awaited<ReturnType<typeof traceLot>>;
 

@@ -3,8 +3,11 @@
 // Client code imports these as types only (erased in the bundle).
 import "server-only";
 import type { Coil } from "@/database/queries/coils";
-import type { ProcedureDefinition } from "@/domain/fusion/procedures";
-import type { CoilStatus } from "@/domain/joints/rules";
+import type { ProcedureDefinition } from "@/domain/procedures";
+import type { CoilStatus } from "@/domain/coils/statuses";
+import type { JointOutcome } from "@/domain/joints/outcomes";
+import type { ReviewState } from "@/domain/joints/review-states";
+import type { UnitSystem } from "@/domain/units/format";
 
 export type TrenchCoil = {
   id: number;
@@ -61,10 +64,10 @@ export type TrenchOverride = { id: number; jobId: number; subjectType: "heater" 
 
 export type TrenchRemake = { id: number; jobId: number; jointNo: number; madeAt: string; reviewState: string; coilACode: string | null; findings: string[] };
 
-export type TrenchRecent = { id: number; jobCode: string; jointNo: number; madeAt: string; outcome: string; reviewState: string };
+export type TrenchRecent = { id: number; jobCode: string; jointNo: number; madeAt: string; outcome: JointOutcome; reviewState: ReviewState };
 
 export type TrenchSetup = {
-  user: { id: number; name: string; unitSystem: "si" | "us"; crewId: number | null };
+  user: { id: number; name: string; unitSystem: UnitSystem; crewId: number | null };
   jobs: TrenchJob[];
   machines: TrenchMachine[];
   heaters: TrenchHeater[];

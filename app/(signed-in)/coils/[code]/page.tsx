@@ -9,11 +9,12 @@ import { formatInstant } from "@/components/ui/display-format";
 import { TimeDisplay } from "@/components/ui/time-display";
 import { findCoilByCode, listCoilEvents, listCoilMoveOptions } from "@/database/queries/coils";
 import { listJointsForCoil } from "@/database/queries/trace";
-import { COIL_STATUS_LABELS, DAMAGE_LABELS, statusMovesFrom } from "@/domain/coil-life/rules";
+import { COIL_STATUS_LABELS } from "@/domain/coils/statuses";
+import { DAMAGE_LABELS, statusMovesFrom } from "@/domain/coils/life";
 import { describeSize } from "@/domain/labels/label";
 import { bendRatio, minimumBendRadiusMm } from "@/domain/pipe/bending";
 import { can } from "@/domain/roles";
-import { formatQuantity } from "@/domain/units/format";
+import { formatQuantity, type UnitSystem } from "@/domain/units/format";
 import { publicBaseUrl } from "@/app/_server/labels/base-url";
 import { coilLabelSvg, stockOrDefault } from "@/app/_server/labels/render";
 import { MoveCoilForm } from "../_components/move-coil-form";
@@ -22,7 +23,7 @@ import { SectionCard } from "@/components/ui/section-card";
 
 export const dynamic = "force-dynamic";
 
-function bendCaution(coil: { outsideDiameterMm: number; sdr: number }, system: "si" | "us"): string {
+function bendCaution(coil: { outsideDiameterMm: number; sdr: number }, system: UnitSystem): string {
   try {
     const radiusMm = minimumBendRadiusMm(coil);
     const shown = formatQuantity(radiusMm / 1000, "length-m", system, { decimals: system === "si" ? 2 : 1 });

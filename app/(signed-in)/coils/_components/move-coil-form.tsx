@@ -8,8 +8,8 @@ import { useForm, useWatch } from "react-hook-form";
 import type { z } from "zod";
 import { FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
-import { COIL_STATUS_LABELS, type CoilStatus } from "@/domain/coil-life/rules";
-import { moveCoilSchema } from "@/domain/coil-life/schemas";
+import { COIL_STATUS_LABELS, type CoilStatus } from "@/domain/coils/statuses";
+import { moveCoilSchema } from "@/domain/coils/schemas";
 import { moveCoilAction } from "../actions";
 import { FieldShell } from "@/components/form/field-shell";
 

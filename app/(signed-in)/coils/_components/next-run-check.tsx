@@ -2,10 +2,10 @@
 // "Is there enough left for the next run?" — typed in the person's units, warned in words.
 import { useId, useState } from "react";
 import { FieldShell } from "@/components/form/field-shell";
-import { nextRunWarning } from "@/domain/coil-life/rules";
-import { fromDisplay, unitLabel } from "@/domain/units/format";
+import { nextRunWarning } from "@/domain/coils/life";
+import { fromDisplay, unitLabel, type UnitSystem } from "@/domain/units/format";
 
-export function NextRunCheck({ coilCode, remainingM, unitSystem }: { coilCode: string; remainingM: number; unitSystem: "si" | "us" }) {
+export function NextRunCheck({ coilCode, remainingM, unitSystem }: { coilCode: string; remainingM: number; unitSystem: UnitSystem }) {
   const id = useId();
   const [text, setText] = useState("");
   const value = Number(text.replace(",", "."));

@@ -9,11 +9,11 @@ import { useForm, useWatch } from "react-hook-form";
 import type { z } from "zod";
 import { Field, FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
-import { DAMAGE_KINDS, DAMAGE_LABELS, DEFAULT_GOUGE_LIMIT_PCT, DEFAULT_OVALITY_LIMIT_PCT, fieldsFromTraceCode, judgeReceiptInspection, traceCodeDisagreements, type DamageKind } from "@/domain/coil-life/rules";
-import { receiveCoilSchema } from "@/domain/coil-life/schemas";
+import { DAMAGE_KINDS, DAMAGE_LABELS, DEFAULT_GOUGE_LIMIT_PCT, DEFAULT_OVALITY_LIMIT_PCT, fieldsFromTraceCode, judgeReceiptInspection, traceCodeDisagreements, type DamageKind } from "@/domain/coils/life";
+import { receiveCoilSchema } from "@/domain/coils/schemas";
 import { PIPE_SERIES, findPipeSize, pipeSizes, type PipeSeries } from "@/domain/pipe/catalogue";
 import { parseTraceCode } from "@/domain/trace-code/trace-code";
-import { fromDisplay } from "@/domain/units/format";
+import { fromDisplay, type UnitSystem } from "@/domain/units/format";
 import { receiveCoilAction } from "../actions";
 import { CameraScanner } from "@/components/ui/camera-scanner";
 import { FieldShell } from "@/components/form/field-shell";
@@ -32,7 +32,7 @@ export function ReceiveCoilForm({
   suggestedCode: string;
   manufacturers: { name: string; code: string | null }[];
   materials: readonly string[];
-  unitSystem: "si" | "us";
+  unitSystem: UnitSystem;
 }) {
   const router = useRouter();
   const [message, setMessage] = useState<string | null>(null);

@@ -2,7 +2,7 @@ import Link from "next/link";
 import { requireUser } from "@/app/_lib/page-guard";
 import { Cautions } from "@/components/ui/caution";
 import { latestCoilCode, listKnownManufacturers } from "@/database/queries/coils";
-import { PE_MATERIALS, nextCoilCode } from "@/domain/coil-life/rules";
+import { PE_MATERIALS, nextCoilCode } from "@/domain/coils/life";
 import { ReceiveCoilForm } from "../_components/receive-coil-form";
 
 export const dynamic = "force-dynamic";

@@ -7,7 +7,7 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { Field } from "@/components/form/field";
-import { recordQualificationFailureSchema } from "@/domain/office/schemas";
+import { recordQualificationFailureSchema } from "@/domain/qualifications/schemas";
 import { recordQualificationFailureAction } from "../actions";
 import { TextAreaField, applyActionResult } from "@/components/form/controls";
 import { FormFrame, type FormOutcome } from "@/components/form/form-frame";

@@ -7,7 +7,7 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { Field } from "@/components/form/field";
-import { QUALIFICATION_METHODS, QUALIFICATION_METHOD_LABELS, recordQualificationSchema } from "@/domain/office/schemas";
+import { QUALIFICATION_METHODS, QUALIFICATION_METHOD_LABELS, recordQualificationSchema } from "@/domain/qualifications/schemas";
 import { recordQualificationAction } from "../actions";
 import { ChoiceGroup, applyActionResult } from "@/components/form/controls";
 import { FormFrame, type FormOutcome } from "@/components/form/form-frame";

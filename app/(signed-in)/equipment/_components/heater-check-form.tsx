@@ -7,7 +7,7 @@ import { useState } from "react";
 import { useForm, useWatch } from "react-hook-form";
 import type { z } from "zod";
 import { Field } from "@/components/form/field";
-import { MAX_POINTS_PER_FACE, recordHeaterCheckSchema } from "@/domain/office/schemas";
+import { MAX_POINTS_PER_FACE, recordHeaterCheckSchema } from "@/domain/equipment/schemas";
 import { formatRange, unitLabel, type UnitSystem } from "@/domain/units/format";
 import { recordHeaterCheckAction } from "../actions";
 import { SelectField, TextAreaField, applyActionResult, errorText } from "@/components/form/controls";

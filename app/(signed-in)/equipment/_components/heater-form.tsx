@@ -8,7 +8,7 @@ import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { Field } from "@/components/form/field";
 import { FormFrame, InServiceCheckbox, type FormOutcome } from "@/components/form/form-frame";
-import { createHeaterSchema } from "@/domain/office/schemas";
+import { createHeaterSchema } from "@/domain/equipment/schemas";
 import { createHeaterAction, updateHeaterAction } from "../actions";
 import { AssetFields } from "./asset-fields";
 import { applyActionResult } from "@/components/form/controls";

@@ -8,7 +8,7 @@ import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { Field } from "@/components/form/field";
 import { FormFrame, InServiceCheckbox, type FormOutcome } from "@/components/form/form-frame";
-import { createMachineSchema } from "@/domain/office/schemas";
+import { createMachineSchema } from "@/domain/equipment/schemas";
 import { unitLabel, type UnitSystem } from "@/domain/units/format";
 import { createMachineAction, updateMachineAction } from "../actions";
 import { AssetFields } from "./asset-fields";

@@ -1,14 +1,14 @@
 "use client";
 import type { ReactNode } from "react";
 import { Area, Bar, BarChart, CartesianGrid, ComposedChart, Legend, Line, ReferenceLine, ResponsiveContainer, Scatter, ScatterChart, Tooltip, XAxis, YAxis } from "recharts";
-import { formatDuration, toDisplay, unitLabel } from "@/domain/units/format";
+import { formatDuration, toDisplay, unitLabel, type UnitSystem } from "@/domain/units/format";
 import { DataTable } from "@/components/ui/data-table";
 import { formatInstant } from "@/components/ui/display-format";
 import { SectionCard } from "@/components/ui/section-card";
 
 type Yield = { joints: number; firstPass: number; yieldPct: number };
 type Props = {
-  unitSystem: "si" | "us";
+  unitSystem: UnitSystem;
   byWeek: (Yield & { weekStart: string })[];
   byFuser: (Yield & { id: number; label: string })[];
   byMachine: (Yield & { id: number; label: string })[];

@@ -4,7 +4,7 @@ import { requireUser } from "@/app/_lib/page-guard";
 import { countJointsOnJob, findJobById, listAssignableCoils, listCoilsForJob } from "@/database/queries/jobs";
 import { listCurrentProcedureVersions } from "@/database/queries/procedures";
 import { listCrews } from "@/database/queries/users";
-import { canRecordOnJob } from "@/domain/office/rules";
+import { canRecordOnJob } from "@/domain/jobs/rules";
 import { JobForm } from "../_components/job-form";
 import { JobStatusButton } from "../_components/job-status-button";
 import { SectionCard } from "@/components/ui/section-card";

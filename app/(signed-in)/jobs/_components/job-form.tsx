@@ -7,7 +7,7 @@ import { useState } from "react";
 import { useForm, useWatch } from "react-hook-form";
 import type { z } from "zod";
 import { Field } from "@/components/form/field";
-import { createJobSchema } from "@/domain/office/schemas";
+import { createJobSchema } from "@/domain/jobs/schemas";
 import { createJobAction, updateJobAction } from "../actions";
 import { ChoiceGroup, SelectField, applyActionResult, errorText } from "@/components/form/controls";
 import { FormFrame, type FormOutcome } from "@/components/form/form-frame";

@@ -10,7 +10,7 @@ import { formatQuantity, type QuantityKind, type UnitSystem } from "@/domain/uni
 import { OutcomeBadge, ReviewStateBadge } from "@/components/ui/badges";
 import { FactLine, FactList } from "@/components/ui/fact-list";
 import { TimeDisplay } from "@/components/ui/time-display";
-import { REVIEW_STATE_LABELS } from "@/domain/review/labels";
+import { REVIEW_STATE_LABELS } from "@/domain/joints/review-states";
 import { verdictOf } from "@/app/_server/joints/record-joint";
 import { PlanPanel } from "@/components/fusion/plan-panel";
 import { SectionCard } from "@/components/ui/section-card";

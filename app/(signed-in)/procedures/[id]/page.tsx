@@ -2,7 +2,7 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requireUser } from "@/app/_lib/page-guard";
 import { findProcedureById, listProcedureVersions } from "@/database/queries/procedures";
-import { builtInProcedure, describeProcedureWindows } from "@/domain/fusion/procedures";
+import { builtInProcedure, describeProcedureWindows } from "@/domain/procedures";
 import { can } from "@/domain/roles";
 import { DataTable } from "@/components/ui/data-table";
 import { formatInstant } from "@/components/ui/display-format";

@@ -7,7 +7,7 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { Field } from "@/components/form/field";
-import { createProcedureSchema } from "@/domain/office/schemas";
+import { createProcedureSchema } from "@/domain/procedures/schemas";
 import { createProcedureAction } from "../actions";
 import { SelectField, TextAreaField, applyActionResult } from "@/components/form/controls";
 import { FormFrame, type FormOutcome } from "@/components/form/form-frame";

@@ -9,9 +9,10 @@ import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { Field, FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
-import { TIGHTENING_FORM_FIELDS, tightenProcedureSchema, type TighteningFormField } from "@/domain/office/schemas";
+import { TIGHTENING_FORM_FIELDS, tightenProcedureSchema, type TighteningFormField } from "@/domain/procedures/schemas";
 import { publishProcedureVersionAction } from "../actions";
 import { TextAreaField, applyActionResult } from "@/components/form/controls";
+import type { UnitSystem } from "@/domain/units/format";
 
 type Input = z.input<typeof tightenProcedureSchema>;
 type Output = z.output<typeof tightenProcedureSchema>;
@@ -25,7 +26,7 @@ export function TightenForm({
   fields,
 }: {
   procedure: { id: number; code: string; currentVersionId: number; currentVersionNo: number };
-  units: "si" | "us";
+  units: UnitSystem;
   fields: TighteningFieldView[];
 }) {
   const router = useRouter();

@@ -7,7 +7,7 @@ import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
-import { editVersionNotesSchema } from "@/domain/office/schemas";
+import { editVersionNotesSchema } from "@/domain/procedures/schemas";
 import { editVersionNotesAction } from "../actions";
 import { TextAreaField, applyActionResult } from "@/components/form/controls";
 

@@ -1,7 +1,7 @@
 // What the Procedures screen shows: the tightening form's fields with each window's
 // present value in the person's units, and the standard names for the add form.
-import { describeRule, FUSION_STANDARDS, builtInProcedure, type ProcedureDefinition } from "@/domain/fusion/procedures";
-import { TIGHTENING_FIELDS, type TighteningFormField } from "@/domain/office/schemas";
+import { describeRule, FUSION_STANDARDS, builtInProcedure, type ProcedureDefinition } from "@/domain/procedures";
+import { TIGHTENING_FIELDS, type TighteningFormField } from "@/domain/procedures/schemas";
 import { formatQuantity, formatRange, unitLabel, type UnitSystem } from "@/domain/units/format";
 import type { TighteningFieldView } from "../_components/tighten-form";
 

@@ -1,6 +1,6 @@
 "use client";
 import type { QueueItemView } from "@/app/_server/review/queue-item-view";
-import { formatQuantity } from "@/domain/units/format";
+import { formatQuantity, type UnitSystem } from "@/domain/units/format";
 import { OutcomeBadge } from "@/components/ui/badges";
 import { Cautions } from "@/components/ui/caution";
 import { DataTable } from "@/components/ui/data-table";
@@ -20,7 +20,7 @@ export function JointDetail({
   onChanged,
 }: {
   item: QueueItemView;
-  unitSystem: "si" | "us";
+  unitSystem: UnitSystem;
   isOwnJoint: boolean;
   onDecided: (message: string) => Promise<void>;
   onChanged: () => Promise<void>;

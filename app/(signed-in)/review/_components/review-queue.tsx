@@ -6,6 +6,7 @@ import { FieldShell } from "@/components/form/field-shell";
 import { OutcomeBadge } from "@/components/ui/badges";
 import { TimeDisplay } from "@/components/ui/time-display";
 import { JointDetail } from "./joint-detail";
+import type { UnitSystem } from "@/domain/units/format";
 
 type Queue = { total: number; outOfLimits: number; items: QueueItemView[] };
 type Option = { id: number | string; label: string };
@@ -40,7 +41,7 @@ export function ReviewQueue({
   initial: Queue;
   initialFilter: Filter;
   options: { jobs: Option[]; fusers: Option[]; machines: Option[]; findings: Option[] };
-  unitSystem: "si" | "us";
+  unitSystem: UnitSystem;
   userId: number;
   initialSelected: number | null;
 }) {

@@ -1,8 +1,8 @@
 "use client";
 import useSWR from "swr";
 import { CartesianGrid, ComposedChart, Legend, Line, ReferenceArea, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
-import type { ChartBand, ChartMarker, ChartPoint, ChartTimeZone } from "@/domain/review/trace-check";
-import { toDisplay, unitLabel } from "@/domain/units/format";
+import type { ChartBand, ChartMarker, ChartPoint, ChartTimeZone } from "@/domain/pressure-trace/check";
+import { toDisplay, unitLabel, type UnitSystem } from "@/domain/units/format";
 
 type TraceData = { points: ChartPoint[]; windows: { bands: ChartBand[]; markers: ChartMarker[]; zones: ChartTimeZone[] } };
 
@@ -13,7 +13,7 @@ async function fetchTrace(url: string): Promise<TraceData> {
 }
 
 /** Gauge pressure over time with the plan's pressure windows as bands and its time limits as lines. */
-export function TraceChart({ jointId, traceId, unitSystem, label }: { jointId: number; traceId: number; unitSystem: "si" | "us"; label: string }) {
+export function TraceChart({ jointId, traceId, unitSystem, label }: { jointId: number; traceId: number; unitSystem: UnitSystem; label: string }) {
   const { data, error } = useSWR<TraceData>(`/api/v1/review/joints/${jointId}/trace?t=${traceId}`, fetchTrace, { revalidateOnFocus: false });
   if (error) return <p role="alert">{error.message}</p>;
   if (!data) return <p role="status">Loading the trace…</p>;

@@ -7,11 +7,11 @@ import { FieldShell } from "@/components/form/field-shell";
 import { OutcomeBadge } from "@/components/ui/badges";
 import { DataTable } from "@/components/ui/data-table";
 import { TimeDisplay } from "@/components/ui/time-display";
-import { formatQuantity } from "@/domain/units/format";
+import { formatQuantity, type UnitSystem } from "@/domain/units/format";
 import { TraceChart } from "./trace-chart";
 
 /** The joint's pressure trace (chart, values read, their check) and the form to attach one. */
-export function TraceSection({ item, unitSystem, onAttached }: { item: QueueItemView; unitSystem: "si" | "us"; onAttached: () => Promise<void> }) {
+export function TraceSection({ item, unitSystem, onAttached }: { item: QueueItemView; unitSystem: UnitSystem; onAttached: () => Promise<void> }) {
   const label = `${item.jobCode} joint ${item.jointNo}`;
   const input = useRef<HTMLInputElement>(null);
   const [busy, setBusy] = useState(false);

@@ -1,12 +1,12 @@
 // A job's run drawn as a straight line with the lot's joints on it (no map tiles): by
 // station, else by coordinates, else by joint number. Out-of-limits joints are drawn as
 // squares and named in the text list, so colour is never the only cue.
-import { layoutRun, type SchematicJoint } from "@/domain/coil-life/schematic";
-import { formatQuantity } from "@/domain/units/format";
+import { layoutRun, type SchematicJoint } from "@/domain/coils/schematic";
+import { formatQuantity, type UnitSystem } from "@/domain/units/format";
 
 const BASIS_TEXT = { station: "placed by station", coordinates: "placed by latitude/longitude along the run", "joint-number": "placed by joint number (no stations or coordinates recorded)" } as const;
 
-export function RunSchematic({ jobCode, jobName, joints, unitSystem }: { jobCode: string; jobName: string; joints: (SchematicJoint & { outOfLimits: boolean })[]; unitSystem: "si" | "us" }) {
+export function RunSchematic({ jobCode, jobName, joints, unitSystem }: { jobCode: string; jobName: string; joints: (SchematicJoint & { outOfLimits: boolean })[]; unitSystem: UnitSystem }) {
   const run = layoutRun(joints);
   const width = 800;
   const left = 40;

@@ -4,6 +4,7 @@ import Link from "next/link";
 import { Button } from "@/components/ui/button";
 import type { OutboxEntry } from "../_client/device-store";
 import { formatDeviceInstant } from "@/components/ui/display-format";
+import { OUTCOME_LABELS } from "@/domain/joints/outcomes";
 
 const STATE_WORDS: Record<OutboxEntry["state"], string> = {
   waiting: "Waiting to send",
@@ -46,7 +47,7 @@ export function OutboxPanel({ entries, online, onRetry, onRemove, onSendNow }: {
             <p className="text-sm">Recorded {formatDeviceInstant(e.createdAt)}</p>
             {e.result ? (
               <p className="text-sm font-semibold">
-                {e.result.outcome === "within-limits" ? "Within limits" : `Out of limits: ${e.result.findings.map((f) => f.message).join("; ")}`} ·{" "}
+                {e.result.outcome === "within-limits" ? OUTCOME_LABELS["within-limits"] : `${OUTCOME_LABELS["out-of-limits"]}: ${e.result.findings.map((f) => f.message).join("; ")}`} ·{" "}
                 <Link className="underline" href={e.result.url}>
                   Open joint {e.result.jointNo}
                 </Link>

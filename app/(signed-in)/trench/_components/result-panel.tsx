@@ -5,6 +5,7 @@
 import Link from "next/link";
 import { Button } from "@/components/ui/button";
 import type { OutboxEntry } from "../_client/device-store";
+import { OUTCOME_LABELS } from "@/domain/joints/outcomes";
 
 export function ResultPanel({ entry, onRemake, onDismiss }: { entry: OutboxEntry; onRemake: (entry: OutboxEntry) => void; onDismiss: () => void }) {
   const result = entry.result;
@@ -15,7 +16,7 @@ export function ResultPanel({ entry, onRemake, onDismiss }: { entry: OutboxEntry
     <section aria-labelledby="result-heading" className={`flex flex-col gap-2 rounded-md border-4 p-4 ${within ? "border-pass bg-pass-light" : "border-fail bg-fail-light"}`} tabIndex={-1}>
       <h2 id="result-heading" className={`text-2xl font-bold ${within ? "text-pass" : "text-fail"}`}>
         {result ? `Joint ${result.jointNo} on ${result.jobCode}: ` : "This joint: "}
-        {within ? "Within limits" : "Out of limits"}
+        {OUTCOME_LABELS[within ? "within-limits" : "out-of-limits"]}
       </h2>
       <p className="font-semibold text-ink">
         {result

@@ -5,8 +5,8 @@
 import { defineRoute, errorResponse } from "@/app/_lib/guard";
 import { receiveCoil } from "@/app/_server/coils/receive-coil";
 import { findCoilByCodeOrTrace, listCoils } from "@/database/queries/coils";
-import { COIL_STATUSES } from "@/domain/coil-life/rules";
-import { receiveCoilSchema } from "@/domain/coil-life/schemas";
+import { COIL_STATUSES } from "@/domain/coils/statuses";
+import { receiveCoilSchema } from "@/domain/coils/schemas";
 import { can } from "@/domain/roles";
 import { z } from "zod";
 

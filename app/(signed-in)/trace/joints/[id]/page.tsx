@@ -2,19 +2,20 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { requireUser } from "@/app/_lib/page-guard";
 import type { Coil } from "@/database/queries/coils";
-import { DAMAGE_LABELS } from "@/domain/coil-life/rules";
+import { DAMAGE_LABELS } from "@/domain/coils/life";
 import { describeSize } from "@/domain/labels/label";
-import { formatQuantity } from "@/domain/units/format";
+import { formatQuantity, type UnitSystem } from "@/domain/units/format";
 import { CoilStatusBadge } from "@/components/ui/badges";
 import { FactBlock, FactList } from "@/components/ui/fact-list";
 import { formatInstant } from "@/components/ui/display-format";
 import { TimeDisplay } from "@/components/ui/time-display";
 import { traceJointOrigins } from "@/app/_server/trace/origins";
 import { SectionCard } from "@/components/ui/section-card";
+import { OUTCOME_LABELS } from "@/domain/joints/outcomes";
 
 export const dynamic = "force-dynamic";
 
-function Component({ title, coil, text, lengthM, system }: { title: string; coil: Coil | null; text?: string | null; lengthM: number | null; system: "si" | "us" }) {
+function Component({ title, coil, text, lengthM, system }: { title: string; coil: Coil | null; text?: string | null; lengthM: number | null; system: UnitSystem }) {
   return (
     <SectionCard id={title.toLowerCase().replace(/\W+/g, "-")} title={title} tone="card" level={3}>
       {coil ? (
@@ -90,7 +91,7 @@ export default async function JointOriginsPage({ params }: { params: Promise<{ i
             {formatQuantity(o.joint.outsideDiameterMm, "length-mm", system)} OD, SDR {o.joint.sdr}
           </FactBlock>
           <FactBlock term="Outcome">
-            {o.joint.outcome === "within-limits" ? "Within limits" : "Out of limits"}
+            {OUTCOME_LABELS[o.joint.outcome]}
             {o.joint.reviewState ? ` · ${o.joint.reviewState.replace("-", " ")}` : ""}
           </FactBlock>
         </FactList>

@@ -5,7 +5,7 @@
 import { useMemo } from "react";
 import { preRecordProblems } from "@/domain/joints/pre-record";
 import { applyOverrides, blockReasons } from "@/domain/joints/rules";
-import { isoDateOf } from "@/domain/office/dates";
+import { isoDateOf } from "@/domain/dates/civil";
 import { qualificationStatus } from "@/domain/qualifications/status";
 import type { TrenchCoil, TrenchSetup } from "@/app/_server/trench/setup-types";
 import type { useFusionPlanPreview } from "./use-fusion-plan-preview";

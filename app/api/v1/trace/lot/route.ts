@@ -2,7 +2,7 @@
 // Lot → ground: the lot(s), every coil of them and every joint made with them on either side.
 import { defineRoute } from "@/app/_lib/guard";
 import { traceLot } from "@/database/queries/trace";
-import { traceSearchSchema } from "@/domain/coil-life/schemas";
+import { traceSearchSchema } from "@/domain/coils/schemas";
 
 export const dynamic = "force-dynamic";
 

@@ -4,7 +4,7 @@
 import { defineRoute } from "@/app/_lib/guard";
 import { idParams } from "@/app/_lib/params";
 import { moveCoil } from "@/app/_server/coils/move-coil";
-import { moveCoilSchema } from "@/domain/coil-life/schemas";
+import { moveCoilSchema } from "@/domain/coils/schemas";
 
 export const dynamic = "force-dynamic";
 

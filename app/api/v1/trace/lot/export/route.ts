@@ -1,7 +1,7 @@
 // GET /api/v1/trace/lot/export?… (same search as /api/v1/trace/lot) → .xlsx of the joints and coils.
 import { defineRoute } from "@/app/_lib/guard";
 import { exportLotTrace } from "@/app/_server/trace/lot-export";
-import { traceSearchSchema } from "@/domain/coil-life/schemas";
+import { traceSearchSchema } from "@/domain/coils/schemas";
 
 export const dynamic = "force-dynamic";
 

@@ -3,7 +3,7 @@
 import { defineRoute, errorResponse } from "@/app/_lib/guard";
 import { idParams } from "@/app/_lib/params";
 import { findLatestJointTrace, findReviewItem } from "@/database/queries/reviews";
-import { planWindowsOnTrace } from "@/domain/review/trace-check";
+import { planWindowsOnTrace } from "@/domain/pressure-trace/check";
 import { canViewTraceOf } from "@/domain/roles";
 
 export const dynamic = "force-dynamic";

@@ -1,4 +1,4 @@
-// Office rules: whether a job takes joints, whether a machine or heater plate may be used,
+// Equipment rules: whether a machine or heater plate may be used,
 // and the heater-plate surface-temperature check (pass/fail against a procedure's heater
 // window, next check due). Pure: dates are ISO 'YYYY-MM-DD', `on` is passed in.
 //
@@ -8,19 +8,7 @@
 // effective piston area (PPI TR-33 gauge method, CONFIRMED-2nd), so a machine without it
 // cannot be planned for.
 
-import { addDays } from '@/domain/office/dates';
-
-export type JobStatus = 'open' | 'closed';
-
-/** A closed job takes no new joints (issue 4). Trench uses this before recording. */
-export function canRecordOnJob(job: { status: JobStatus }): boolean {
-  return job.status === 'open';
-}
-
-/** Why a job cannot take joints, in words; null when it can. */
-export function jobBlockReason(job: { status: JobStatus; code: string }): string | null {
-  return canRecordOnJob(job) ? null : `Job ${job.code} is closed and takes no new joints.`;
-}
+import { addDays } from '@/domain/dates/civil';
 
 /**
  * A machine is usable for a joint when it is active and its total effective piston area

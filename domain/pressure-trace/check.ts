@@ -2,7 +2,9 @@
 // reader finds (domain/pressure-trace) go through the same joint check (domain/fusion)
 // against the joint's own plan, and the plan's windows are laid out on the trace's time
 // axis for the chart.
-import { checkJoint, type JointFinding, type JointMeasurements, type JointOutcome, type JointParameter } from "@/domain/fusion/check";
+import { checkJoint, type JointFinding, type JointMeasurements } from "@/domain/fusion/check";
+import type { JointOutcome } from "@/domain/joints/outcomes";
+import type { JointParameter } from "@/domain/fusion/parameters";
 import type { FusionPlan } from "@/domain/fusion/plan";
 import type { PressureSample } from "@/domain/pressure-trace/parse";
 import { measurementsFromTraceReading, type PressureTraceReading } from "@/domain/pressure-trace/read";

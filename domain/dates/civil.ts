@@ -1,5 +1,6 @@
 // Civil-date arithmetic on ISO 'YYYY-MM-DD' strings (proleptic Gregorian, no time zone,
-// no clock). Used by qualification status and the traceability code.
+// no clock; the UTC calendar the records use). Used by qualification status, the
+// traceability code and the office records (jobs, heater checks).
 
 import { DomainError } from '@/domain/errors';
 
@@ -59,4 +60,24 @@ export function daysBetween(from: string, to: string): number {
 /** The earlier of two ISO dates (ISO dates compare correctly as strings). */
 export function earlierDate(a: string, b: string): string {
   return a <= b ? a : b;
+}
+
+/** ISO date of an instant in UTC (the calendar the demo and the records use). */
+export function isoDateOf(instant: Date): string {
+  return instant.toISOString().slice(0, 10);
+}
+
+/** Add whole days to an ISO date. */
+export function addDays(date: string, days: number): string {
+  const [y, m, d] = date.split('-').map(Number) as [number, number, number];
+  return new Date(Date.UTC(y, m - 1, d) + days * 86_400_000).toISOString().slice(0, 10);
+}
+
+/** True for a real calendar date written YYYY-MM-DD. */
+export function isIsoDate(text: string): boolean {
+  const match = /^(\d{4})-(\d{2})-(\d{2})$/.exec(text);
+  if (!match) return false;
+  const [y, m, d] = [Number(match[1]), Number(match[2]), Number(match[3])];
+  const date = new Date(Date.UTC(y, m - 1, d));
+  return date.getUTCFullYear() === y && date.getUTCMonth() === m - 1 && date.getUTCDate() === d;
 }

@@ -7,8 +7,8 @@
 // procedure version's windows can be stored as JSON and rebuilt with
 // parseProcedureDefinition. Canonical units: °C, MPa (interfacial pressure), mm, s.
 
-export * from '@/domain/fusion/procedures/types';
-export * from '@/domain/fusion/procedures/built-in';
-export * from '@/domain/fusion/procedures/rules';
-export * from '@/domain/fusion/procedures/derive';
-export * from '@/domain/fusion/procedures/describe';
+export * from '@/domain/procedures/types';
+export * from '@/domain/procedures/built-in';
+export * from '@/domain/procedures/rules';
+export * from '@/domain/procedures/derive';
+export * from '@/domain/procedures/describe';

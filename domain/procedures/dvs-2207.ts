@@ -1,7 +1,7 @@
 // DVS 2207-1 heated-tool butt welding of PE-HD, each value with its source and status.
 
-import { mmBand } from '@/domain/fusion/procedures/helpers';
-import type { ProcedureDefinition } from '@/domain/fusion/procedures/types';
+import { mmBand } from '@/domain/procedures/helpers';
+import type { ProcedureDefinition } from '@/domain/procedures/types';
 
 const DVS_SOURCE = 'DVS 2207-1 (2005 edition, 2007 English translation), heated-tool butt welding of PE-HD';
 

@@ -1,6 +1,6 @@
 // Evaluating a size rule for a pipe.
 
-import type { SizeBasis, SizeRule } from '@/domain/fusion/procedures/types';
+import type { SizeBasis, SizeRule } from '@/domain/procedures/types';
 
 export interface PipeSizeForRule {
   wallMm: number;

@@ -1,7 +1,7 @@
 // ISO 21307 butt-fusion procedures (single low-pressure, dual low-pressure, single
 // high-pressure), each value with its source and status.
 
-import type { ProcedureDefinition, SourcedRange } from '@/domain/fusion/procedures/types';
+import type { ProcedureDefinition, SourcedRange } from '@/domain/procedures/types';
 
 const ISO_SOURCE = 'ISO 21307:2017';
 const ISO_WALL_RANGE: SourcedRange = {

@@ -1,11 +1,11 @@
 // The built-in published procedures, handed out as fresh copies.
 
 import { DomainError } from '@/domain/errors';
-import { ASTM_F2620 } from '@/domain/fusion/procedures/astm-f2620';
-import { DVS_2207_1 } from '@/domain/fusion/procedures/dvs-2207';
-import { clone } from '@/domain/fusion/procedures/helpers';
-import { ISO_21307_DLP, ISO_21307_SHP, ISO_21307_SLP } from '@/domain/fusion/procedures/iso-21307';
-import { FUSION_STANDARDS, type FusionStandard, type ProcedureDefinition } from '@/domain/fusion/procedures/types';
+import { ASTM_F2620 } from '@/domain/procedures/astm-f2620';
+import { DVS_2207_1 } from '@/domain/procedures/dvs-2207';
+import { clone } from '@/domain/procedures/helpers';
+import { ISO_21307_DLP, ISO_21307_SHP, ISO_21307_SLP } from '@/domain/procedures/iso-21307';
+import { FUSION_STANDARDS, type FusionStandard, type ProcedureDefinition } from '@/domain/procedures/types';
 
 const BUILT_IN: Readonly<Record<FusionStandard, ProcedureDefinition>> = {
   'astm-f2620': ASTM_F2620,

@@ -1,16 +1,16 @@
 // Procedure versions on the office side: turning the Procedures form (values in the
 // person's units) into the domain's ProcedureTightening (canonical SI), mapping the
-// domain's refusals back to form fields, and reading a stored definition.
+// domain's refusals back to form fields (a stored definition is read back with
+// parseProcedureDefinition, domain/fusion/schemas).
 // The tightening rules themselves (only narrowing, never loosening) are deriveProcedure's.
 import {
   deriveProcedure,
-  isFusionStandard,
   type DeriveProcedureResult,
   type ProcedureDefinition,
   type ProcedureTightening,
-} from '@/domain/fusion/procedures';
+} from '@/domain/procedures';
 import { fromDisplay, type UnitSystem } from '@/domain/units/format';
-import { TIGHTENING_FIELDS, TIGHTENING_FORM_FIELDS, type TighteningFormField, type TightenProcedureInput } from '@/domain/office/schemas';
+import { TIGHTENING_FIELDS, TIGHTENING_FORM_FIELDS, type TighteningFormField, type TightenProcedureInput } from '@/domain/procedures/schemas';
 
 /** Form values (person's units) → ProcedureTightening in °C, MPa, mm, s. */
 export function tighteningFromForm(input: Pick<TightenProcedureInput, TighteningFormField | 'units'>): ProcedureTightening {
@@ -78,29 +78,4 @@ export function tightenFromForm(
   const fields: Record<string, string[]> = {};
   for (const error of result.errors) (fields[formFieldForTighteningError(error.field)] ??= []).push(error.message);
   return { ok: false, fields };
-}
-
-/**
- * Read a stored definition (JSON text). Checks the shape the screens and the plan rely on;
- * returns a result so a damaged row shows as a message instead of a crash.
- */
-export function readProcedureDefinition(json: string): { ok: true; definition: ProcedureDefinition } | { ok: false; message: string } {
-  let value: unknown;
-  try {
-    value = JSON.parse(json);
-  } catch {
-    return { ok: false, message: 'The stored procedure definition is not valid JSON.' };
-  }
-  const d = value as Partial<ProcedureDefinition> | null;
-  if (!d || typeof d !== 'object' || !isFusionStandard(d.standard) || typeof d.label !== 'string' || !d.windows || !Array.isArray(d.notes)) {
-    return { ok: false, message: 'The stored procedure definition lacks its standard, label, windows or notes.' };
-  }
-  const w = d.windows;
-  for (const key of ['heaterTemperatureC', 'beadUpInterfacialPressureMpa', 'fusionInterfacialPressureMpa'] as const) {
-    const window = w[key];
-    if (!window || typeof window.min !== 'number' || typeof window.max !== 'number') {
-      return { ok: false, message: `The stored procedure definition has no ${key} window.` };
-    }
-  }
-  return { ok: true, definition: d as ProcedureDefinition };
 }

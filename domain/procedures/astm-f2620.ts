@@ -1,8 +1,8 @@
 // ASTM F2620 butt-fusion parameter windows, each value with its source and status.
 
 import { fToC, inToMm, MM_PER_IN, psiToMpa } from '@/domain/units/conversions';
-import { inBand } from '@/domain/fusion/procedures/helpers';
-import type { ProcedureDefinition } from '@/domain/fusion/procedures/types';
+import { inBand } from '@/domain/procedures/helpers';
+import type { ProcedureDefinition } from '@/domain/procedures/types';
 
 const F2620_SOURCE = 'ASTM F2620 butt-fusion procedure';
 

@@ -2,11 +2,11 @@
 // (zodResolver) and the server (parsed again by the action/route wrapper). Lengths are
 // typed in the user's units and leave the schema in canonical SI (m, mm).
 import { z } from "zod";
-import { COIL_STATUSES } from "@/domain/coils/planning";
+import { COIL_STATUSES } from "@/domain/coils/statuses";
 import { PIPE_SERIES, findPipeSize } from "@/domain/pipe/catalogue";
 import { parseTraceCode } from "@/domain/trace-code/trace-code";
 import { ftToM, inToMm } from "@/domain/units/conversions";
-import { DAMAGE_KINDS, DEFAULT_GOUGE_LIMIT_PCT, DEFAULT_OVALITY_LIMIT_PCT } from "./rules";
+import { DAMAGE_KINDS, DEFAULT_GOUGE_LIMIT_PCT, DEFAULT_OVALITY_LIMIT_PCT } from "@/domain/coils/life";
 
 /** "" / null / undefined → undefined; "12,5" → 12.5; other text → NaN (refused with the message). */
 function toNumber(value: unknown): unknown {

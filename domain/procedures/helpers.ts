@@ -1,7 +1,7 @@
 // Helpers for building the built-in tables (not part of the public names).
 
 import { inToMm } from '@/domain/units/conversions';
-import type { SizeBand } from '@/domain/fusion/procedures/types';
+import type { SizeBand } from '@/domain/procedures/types';
 
 export const inBand = (upToIn: number, upperInclusive: boolean, fromValue: number, toValue = fromValue): SizeBand => ({
   upToMm: inToMm(upToIn),

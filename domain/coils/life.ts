@@ -5,21 +5,14 @@
 // domain/coils, plus what each move needs: a crew for the trailer, a job for use).
 // Lengths in m, kept to the centimetre like the database (DECIMAL(9,2)).
 
-import { coilMoveProblem, type CoilStatus } from '@/domain/coils/planning';
+import { DomainError } from '@/domain/errors';
+import { coilMoveProblem } from '@/domain/coils/planning';
+import { COIL_STATUSES, type CoilStatus } from '@/domain/coils/statuses';
 import { findPipeSize, type PipeSeries } from '@/domain/pipe/catalogue';
 import { MATERIAL_CODES, TABLE_6_SIZE_FACTORS, parseTraceCode, sizeFactorFor, type TraceCodeValue } from '@/domain/trace-code/trace-code';
 import { formatQuantity, type UnitSystem } from '@/domain/units/format';
 
-export type { CoilStatus } from '@/domain/coils/planning';
-export { COIL_STATUSES } from '@/domain/coils/planning';
-
-export const COIL_STATUS_LABELS: Readonly<Record<CoilStatus, string>> = {
-  'in-yard': 'In yard',
-  'on-trailer': 'On trailer',
-  'in-use': 'In use',
-  'used-up': 'Used up',
-  quarantined: 'Quarantined',
-};
+export { COIL_STATUSES, COIL_STATUS_LABELS, type CoilStatus } from '@/domain/coils/statuses';
 
 /** Metres → whole centimetres (the stored resolution), so comparisons never drift. */
 export function toCentimetres(m: number): number {
@@ -68,6 +61,28 @@ export function planPull(
   }
   const afterCm = leftCm - pullCm;
   return { ok: true, remainingM: afterCm / 100, status: afterCm === 0 ? 'used-up' : 'in-use', isUsedUp: afterCm === 0 };
+}
+
+/**
+ * Coil length left after pulling pipe off it, m: planPull's length (to the centimetre) for
+ * a coil in use, as a number. Refuses, with a message in the user's units, a pull that is
+ * not a number, is zero or negative, or is longer than what is left. Throws DomainError.
+ */
+export function coilLengthAfterPull(input: { remainingM: number; pullM: number }, system: UnitSystem = 'si'): number {
+  const m = (value: number) => formatQuantity(value, 'length-m', system);
+  if (typeof input.remainingM !== 'number' || !Number.isFinite(input.remainingM) || input.remainingM < 0) {
+    throw new DomainError('invalid-input', `Length left on the coil must be a number of 0 or more (got ${String(input.remainingM)})`);
+  }
+  const plan = planPull({ coilCode: 'the coil', status: 'in-use', remainingM: input.remainingM }, input.pullM, system);
+  if (plan.ok) return plan.remainingM;
+  switch (plan.reason) {
+    case 'not-a-number':
+      throw new DomainError('invalid-input', 'The length pulled must be a number');
+    case 'not-positive':
+      throw new DomainError('invalid-input', `The length pulled must be more than 0 (got ${m(input.pullM)})`);
+    default:
+      throw new DomainError('invalid-input', `Cannot pull ${m(input.pullM)}: only ${m(input.remainingM)} is left on the coil`);
+  }
 }
 
 /**
@@ -287,8 +302,7 @@ export function statusMoveProblem(input: StatusMoveInput): { field: string; mess
 
 /** Status a coil may move to from `from` (for the picker); quarantine is always offered. */
 export function statusMovesFrom(from: CoilStatus): CoilStatus[] {
-  const all: CoilStatus[] = ['in-yard', 'on-trailer', 'in-use', 'used-up', 'quarantined'];
-  return all.filter((to) => coilMoveProblem(from, to, 'x') === null);
+  return COIL_STATUSES.filter((to) => coilMoveProblem(from, to, 'x') === null);
 }
 
 /**

@@ -1,12 +1,12 @@
 // Deriving an operator's procedure: a base procedure may only be tightened.
 
-import { clone } from '@/domain/fusion/procedures/helpers';
+import { clone } from '@/domain/procedures/helpers';
 import type {
   ProcedureDefinition,
   SizeRule,
   SourcedRange,
   Window,
-} from '@/domain/fusion/procedures/types';
+} from '@/domain/procedures/types';
 import { formatQuantity, type QuantityKind, type UnitSystem } from '@/domain/units/format';
 
 /** Narrow a window: a new minimum may only be higher, a new maximum only lower. */

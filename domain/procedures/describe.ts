@@ -10,7 +10,7 @@ import {
   type QuantityKind,
   type UnitSystem,
 } from '@/domain/units/format';
-import type { ProcedureDefinition, SizeBasis, SizeRule } from '@/domain/fusion/procedures/types';
+import type { ProcedureDefinition, SizeBasis, SizeRule } from '@/domain/procedures/types';
 
 export type ProcedureParameter =
   | 'heaterTemperature'
