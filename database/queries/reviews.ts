@@ -11,9 +11,9 @@ import type { ReviewState } from "@/domain/joints/review-states";
 import type { RecordedValues } from "@/domain/joints/values";
 import type { ChartPoint } from "@/domain/pressure-trace/check";
 import { conn, type Db } from "../client";
-import type { AttachmentRow, JointRevisionRow, JointRow, JointTraceRow } from "../tables";
+import type { AttachmentRow, JointRow, JointTraceRow } from "../tables";
 import { listJointRevisions as listRevisionsOfJoint, type JointRevision } from "./joints";
-import { addJointFindings, jointHasFinding, num, parseJson, text, toRecordedValues, type DbRow } from "./rows";
+import { addJointFindings, jointHasFinding, num, parseJson, text, toRecordedValues } from "./rows";
 
 export type { RevisionKind } from "@/domain/joints/revision-kinds";
 

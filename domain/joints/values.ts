@@ -102,7 +102,7 @@ export const RECORDED_VALUES = [
   {
     key: 'heatSoakGaugePressureMpa', column: 'heat_soak_gauge_mpa', name: 'heatSoakPressure', label: 'Heat-soak gauge pressure', type: 'quantity', quantity: 'pressure', entry: 'typed', step: 'values',
     required: false, bounds: { min: 0, max: 40 }, inputName: 'heat-soak gauge pressure', prompt: 'Heat-soak gauge pressure', hint: 'The gauge reading while the ends soak against the heater: drag, or no more than the plan allows.',
-    whenMissing: 'not read', parameter: 'heatSoakPressure', missingIsFinding: false,
+    whenMissing: 'not recorded (optional)', parameter: 'heatSoakPressure', missingIsFinding: false,
     register: { key: 'heatSoakGauge', width: 9, inGrid: true },
   },
   {

@@ -6,7 +6,7 @@ import { loadTrenchSetup } from "@/app/_server/trench/load-setup";
 import { TrenchScreen } from "./_components/trench-screen";
 import { OUTCOME_LABELS } from "@/domain/joints/outcomes";
 
-export const metadata: Metadata = { title: "Trench · Beadline" };
+export const metadata: Metadata = { title: "Trench" };
 export const dynamic = "force-dynamic";
 
 // Trench: a qualified fuser records a joint at the trench, on a phone, through dropped signal.

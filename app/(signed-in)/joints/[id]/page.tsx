@@ -21,7 +21,7 @@ type Params = { params: Promise<{ id: string }> };
 
 export async function generateMetadata({ params }: Params): Promise<Metadata> {
   const { id } = await params;
-  return { title: `Joint ${id} · Beadline` };
+  return { title: `Joint ${id}` };
 }
 
 function Value({ name, children }: { name: string; children: React.ReactNode }) {

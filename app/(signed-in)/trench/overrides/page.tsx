@@ -8,7 +8,7 @@ import { GrantOverrideForm } from "./_components/grant-override-form";
 import { SectionCard } from "@/components/ui/section-card";
 import { TimeDisplay } from "@/components/ui/time-display";
 
-export const metadata: Metadata = { title: "Overrides · Trench · Beadline" };
+export const metadata: Metadata = { title: "Overrides · Trench" };
 export const dynamic = "force-dynamic";
 
 // Inspectors and admins clear blocking warnings at the trench for a job, for a few hours.
