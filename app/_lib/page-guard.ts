@@ -13,3 +13,10 @@ export async function requireUser(permission?: Permission): Promise<UserRecord> 
   if (permission && !can(user, permission)) notFound();
   return user;
 }
+
+/** The id of an `[id]` page: a positive whole number, or the page is not found. */
+export async function requirePageId(params: Promise<{ id: string }>): Promise<number> {
+  const id = Number((await params).id);
+  if (!Number.isInteger(id) || id <= 0) notFound();
+  return id;
+}

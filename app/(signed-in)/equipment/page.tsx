@@ -1,4 +1,3 @@
-import Link from "next/link";
 import { Cautions } from "@/components/ui/caution";
 import { requireUser } from "@/app/_lib/page-guard";
 import { listHeatersWithLastCheck, listMachines } from "@/database/queries/equipment";
@@ -6,6 +5,7 @@ import { formatRange } from "@/domain/units/format";
 import { DataTable } from "@/components/ui/data-table";
 import { formatInstant } from "@/components/ui/display-format";
 import { SectionCard } from "@/components/ui/section-card";
+import { AssetTagCell } from "./_components/asset-tag-cell";
 import { HeaterForm } from "./_components/heater-form";
 import { MachineForm } from "./_components/machine-form";
 import { pistonArea, shown } from "./_components/format";
@@ -27,17 +27,7 @@ export default async function EquipmentPage() {
           rows={machines}
           rowKey={(m) => m.id}
           columns={[
-            {
-              header: "Asset tag",
-              cell: (m) => (
-                <>
-                  <Link className="font-semibold text-brand underline" href={`/equipment/machines/${m.id}`}>
-                    {m.assetTag}
-                  </Link>
-                  {m.description ? <div className="text-sm font-normal text-slate-700">{m.description}</div> : null}
-                </>
-              ),
-            },
+            { header: "Asset tag", cell: (m) => <AssetTagCell href={`/equipment/machines/${m.id}`} assetTag={m.assetTag} description={m.description} /> },
             { header: "Pipe OD range", cell: (m) => (m.minOdMm !== null || m.maxOdMm !== null ? formatRange(m.minOdMm, m.maxOdMm, "length-mm", units) : "—") },
             { header: "Total effective piston area", cell: (m) => pistonArea(m.pistonAreaMm2, units) },
             { header: "Service", className: "text-sm", cell: (m) => `Last ${m.lastServiceOn ?? "—"}, next due ${m.nextServiceDue ?? "—"}` },
@@ -54,17 +44,7 @@ export default async function EquipmentPage() {
           rows={heaters}
           rowKey={(h) => h.id}
           columns={[
-            {
-              header: "Asset tag",
-              cell: (h) => (
-                <>
-                  <Link className="font-semibold text-brand underline" href={`/equipment/heaters/${h.id}`}>
-                    {h.assetTag}
-                  </Link>
-                  {h.description ? <div className="text-sm font-normal text-slate-700">{h.description}</div> : null}
-                </>
-              ),
-            },
+            { header: "Asset tag", cell: (h) => <AssetTagCell href={`/equipment/heaters/${h.id}`} assetTag={h.assetTag} description={h.description} /> },
             {
               header: "Last check",
               cell: (h) =>

@@ -1,6 +1,6 @@
-import Link from "next/link";
 import { notFound } from "next/navigation";
-import { requireUser } from "@/app/_lib/page-guard";
+import { PageHeader } from "@/components/ui/page-header";
+import { requirePageId, requireUser } from "@/app/_lib/page-guard";
 import { countJointsOnJob, findJobById, listAssignableCoils, listCoilsForJob } from "@/database/queries/jobs";
 import { listCurrentProcedureVersions } from "@/database/queries/procedures";
 import { listCrews } from "@/database/queries/users";
@@ -13,8 +13,7 @@ export const dynamic = "force-dynamic";
 
 export default async function JobPage({ params }: { params: Promise<{ id: string }> }) {
   await requireUser("manageJobs");
-  const id = Number((await params).id);
-  if (!Number.isInteger(id) || id <= 0) notFound();
+  const id = await requirePageId(params);
   const job = await findJobById({ id });
   if (!job) notFound();
   const [procedures, crews, assignable, assigned, joints] = await Promise.all([
@@ -28,14 +27,7 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
   const coils = [...new Map([...assigned, ...assignable].map((c) => [c.id, { id: c.id, label: coilLabel(c) }])).values()];
   return (
     <div className="flex flex-col gap-6">
-      <p>
-        <Link href="/jobs" className="text-brand underline">
-          All jobs
-        </Link>
-      </p>
-      <h1 className="text-2xl font-bold">
-        Job {job.code}: {job.name}
-      </h1>
+      <PageHeader backHref="/jobs" backText="All jobs" title={`Job ${job.code}: ${job.name}`} />
       <p>
         {canRecordOnJob(job) ? "Open: fusers of the crew can record joints on it." : "Closed: this job takes no new joints."} {joints} joint{joints === 1 ? "" : "s"} recorded.
       </p>

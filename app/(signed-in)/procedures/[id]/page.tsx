@@ -1,6 +1,6 @@
-import Link from "next/link";
 import { notFound } from "next/navigation";
-import { requireUser } from "@/app/_lib/page-guard";
+import { PageHeader } from "@/components/ui/page-header";
+import { requirePageId, requireUser } from "@/app/_lib/page-guard";
 import { findProcedureById, listProcedureVersions } from "@/database/queries/procedures";
 import { builtInProcedure, describeProcedureWindows } from "@/domain/procedures";
 import { can } from "@/domain/roles";
@@ -17,8 +17,7 @@ const STATUS_STYLE = { confirmed: "text-pass", "confirmed-2nd": "text-brand", "f
 
 export default async function ProcedurePage({ params }: { params: Promise<{ id: string }> }) {
   const user = await requireUser("viewProcedures");
-  const id = Number((await params).id);
-  if (!Number.isInteger(id) || id <= 0) notFound();
+  const id = await requirePageId(params);
   const procedure = await findProcedureById({ id });
   if (!procedure) notFound();
   const versions = await listProcedureVersions({ procedureId: id });
@@ -27,14 +26,7 @@ export default async function ProcedurePage({ params }: { params: Promise<{ id: 
   const isAdmin = can(user, "manageProcedures");
   return (
     <div className="flex flex-col gap-6">
-      <p>
-        <Link href="/procedures" className="text-brand underline">
-          All procedures
-        </Link>
-      </p>
-      <h1 className="text-2xl font-bold">
-        {procedure.code}: {procedure.name}
-      </h1>
+      <PageHeader backHref="/procedures" backText="All procedures" title={`${procedure.code}: ${procedure.name}`} />
       <p>Based on {builtInProcedure(procedure.standard).label}. Values are shown in {units === "us" ? "US customary" : "SI"} units; each window names its source and whether the value is confirmed or from memory.</p>
       {versions.map((v) => (
         <section key={v.id} aria-labelledby={`version-${v.id}`} className={`rounded-md border-2 p-4 ${v.isCurrent ? "border-brand bg-white" : "border-slate-300 bg-slate-50"}`}>

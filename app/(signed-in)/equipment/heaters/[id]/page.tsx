@@ -1,7 +1,7 @@
-import Link from "next/link";
 import { notFound } from "next/navigation";
 import { Cautions } from "@/components/ui/caution";
-import { requireUser } from "@/app/_lib/page-guard";
+import { PageHeader } from "@/components/ui/page-header";
+import { requirePageId, requireUser } from "@/app/_lib/page-guard";
 import { findHeaterWithLastCheck, listHeaterChecks } from "@/database/queries/equipment";
 import { listCurrentProcedureVersions } from "@/database/queries/procedures";
 import { formatQuantity, formatRange } from "@/domain/units/format";
@@ -15,8 +15,7 @@ export const dynamic = "force-dynamic";
 
 export default async function HeaterPage({ params }: { params: Promise<{ id: string }> }) {
   const user = await requireUser("manageEquipment");
-  const id = Number((await params).id);
-  if (!Number.isInteger(id) || id <= 0) notFound();
+  const id = await requirePageId(params);
   const heater = await findHeaterWithLastCheck({ id });
   if (!heater) notFound();
   const [checks, procedures] = await Promise.all([listHeaterChecks({ heaterId: id }), listCurrentProcedureVersions()]);
@@ -24,12 +23,7 @@ export default async function HeaterPage({ params }: { params: Promise<{ id: str
   const t = (c: number) => formatQuantity(c, "temperature", units);
   return (
     <div className="flex flex-col gap-6">
-      <p>
-        <Link href="/equipment" className="text-brand underline">
-          All equipment
-        </Link>
-      </p>
-      <h1 className="text-2xl font-bold">Heater plate {heater.assetTag}</h1>
+      <PageHeader backHref="/equipment" backText="All equipment" title={`Heater plate ${heater.assetTag}`} />
       <p role="status" className={heater.problems.length ? "font-semibold text-fail" : "font-semibold text-pass"}>
         {heater.problems.length ? heater.problems.join(" ") : `Last check passed; next check due ${heater.nextDueOn}.`}
       </p>

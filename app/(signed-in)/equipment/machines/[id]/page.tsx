@@ -1,6 +1,6 @@
-import Link from "next/link";
 import { notFound } from "next/navigation";
-import { requireUser } from "@/app/_lib/page-guard";
+import { PageHeader } from "@/components/ui/page-header";
+import { requirePageId, requireUser } from "@/app/_lib/page-guard";
 import { findMachineById } from "@/database/queries/equipment";
 import { MachineForm } from "../../_components/machine-form";
 import { editValue, pistonArea } from "../../_components/format";
@@ -10,19 +10,13 @@ export const dynamic = "force-dynamic";
 
 export default async function MachinePage({ params }: { params: Promise<{ id: string }> }) {
   const user = await requireUser("manageEquipment");
-  const id = Number((await params).id);
-  if (!Number.isInteger(id) || id <= 0) notFound();
+  const id = await requirePageId(params);
   const machine = await findMachineById({ id });
   if (!machine) notFound();
   const units = user.unitSystem;
   return (
     <div className="flex flex-col gap-6">
-      <p>
-        <Link href="/equipment" className="text-brand underline">
-          All equipment
-        </Link>
-      </p>
-      <h1 className="text-2xl font-bold">Machine {machine.assetTag}</h1>
+      <PageHeader backHref="/equipment" backText="All equipment" title={`Machine ${machine.assetTag}`} />
       <p>
         Total effective piston area: <strong>{pistonArea(machine.pistonAreaMm2, units)}</strong>.{" "}
         {machine.isUsable ? "The machine can be used for joints." : machine.problems.join(" ")}
