@@ -3,7 +3,7 @@
 import Link from "next/link";
 import { listHeatersNeedingCheck, listMachinesWithoutPistonArea } from "@/database/queries/equipment";
 import { qualificationStatusOverview } from "@/database/queries/qualifications";
-import { QualificationBadge } from "@/components/qualifications/qualification-badge";
+import { QualifiedPeopleList } from "@/components/qualifications/qualification-lists";
 import { TodayPanel } from "./today-panel";
 
 export async function TodayAdmin({ now }: { now: Date }) {
@@ -12,53 +12,36 @@ export async function TodayAdmin({ now }: { now: Date }) {
   return (
     <>
       <TodayPanel id="today-lapsing" title="Qualifications lapsing or lapsed" href="/crew" linkText="Open Crew" tone={attention.length ? "attention" : "plain"}>
-        {attention.length ? (
-          <ul className="flex flex-col gap-1">
-            {attention.map((s) => (
-              <li key={`${s.userId}-${s.procedureId}`}>
-                <Link className="font-semibold text-brand underline" href={`/crew/${s.userId}`}>
-                  {s.userName}
-                </Link>{" "}
-                · {s.procedureCode} · <QualificationBadge status={s.status} />
-              </li>
-            ))}
-          </ul>
-        ) : (
-          <p>Nobody lapses within 30 days.</p>
-        )}
+        <QualifiedPeopleList rows={attention} empty="Nobody lapses within 30 days." />
       </TodayPanel>
       <TodayPanel id="today-heaters" title="Heater checks due" href="/equipment" linkText="Open Equipment" tone={heaters.length ? "attention" : "plain"}>
-        {heaters.length ? (
-          <ul className="flex flex-col gap-1">
-            {heaters.map((h) => (
-              <li key={h.id}>
-                <Link className="font-semibold text-brand underline" href={`/equipment/heaters/${h.id}`}>
-                  {h.assetTag}
-                </Link>
-                : {h.problems.join(" ")}
-              </li>
-            ))}
-          </ul>
-        ) : (
-          <p>Every heater plate in service has a current passing check.</p>
-        )}
+        <EquipmentLinks items={heaters} path="/equipment/heaters" note={(h) => `: ${h.problems.join(" ")}`} empty="Every heater plate in service has a current passing check." />
       </TodayPanel>
       <TodayPanel id="today-machines" title="Machines without a piston area" href="/equipment" linkText="Open Equipment" tone={machines.length ? "attention" : "plain"}>
-        {machines.length ? (
-          <ul className="flex flex-col gap-1">
-            {machines.map((m) => (
-              <li key={m.id}>
-                <Link className="font-semibold text-brand underline" href={`/equipment/machines/${m.id}`}>
-                  {m.assetTag}
-                </Link>
-                {m.description ? ` (${m.description})` : ""}: cannot be used until its total effective piston area is entered.
-              </li>
-            ))}
-          </ul>
-        ) : (
-          <p>Every machine in service has its piston area on record.</p>
-        )}
+        <EquipmentLinks
+          items={machines}
+          path="/equipment/machines"
+          note={(m) => `${m.description ? ` (${m.description})` : ""}: cannot be used until its total effective piston area is entered.`}
+          empty="Every machine in service has its piston area on record."
+        />
       </TodayPanel>
     </>
+  );
+}
+
+/** Machines or heater plates, each asset tag linked to its page and followed by why it is listed. */
+function EquipmentLinks<T extends { id: number; assetTag: string }>({ items, path, note, empty }: { items: T[]; path: string; note: (item: T) => string; empty: string }) {
+  if (!items.length) return <p>{empty}</p>;
+  return (
+    <ul className="flex flex-col gap-1">
+      {items.map((item) => (
+        <li key={item.id}>
+          <Link className="font-semibold text-brand underline" href={`${path}/${item.id}`}>
+            {item.assetTag}
+          </Link>
+          {note(item)}
+        </li>
+      ))}
+    </ul>
   );
 }

@@ -1,7 +1,7 @@
 // Today for a fuser: their open jobs, their drafts on this device, their qualification status.
 import { listOpenJobsForFuser } from "@/database/queries/jobs";
 import { qualificationStatusOverview } from "@/database/queries/qualifications";
-import { QualificationBadge } from "@/components/qualifications/qualification-badge";
+import { QualificationStatusList } from "@/components/qualifications/qualification-lists";
 import { TodayDrafts } from "./today-drafts";
 import { TodayPanel } from "./today-panel";
 
@@ -11,18 +11,7 @@ export async function TodayFuser({ userId, now }: { userId: number; now: Date })
   return (
     <>
       <TodayPanel id="today-qualification" title="Your qualification" tone={anyQualified ? "plain" : "attention"}>
-        {statuses.length ? (
-          <ul className="flex flex-col gap-2">
-            {statuses.map((s) => (
-              <li key={s.procedureId}>
-                <span className="font-semibold">{s.procedureCode}</span>: <QualificationBadge status={s.status} />
-                <div className="text-sm text-slate-700">{s.status.reason}.</div>
-              </li>
-            ))}
-          </ul>
-        ) : (
-          <p>No qualification on record: you may not make joints until an administrator records one.</p>
-        )}
+        <QualificationStatusList statuses={statuses} empty="No qualification on record: you may not make joints until an administrator records one." />
       </TodayPanel>
       <TodayPanel id="today-jobs" title="Your jobs" href="/trench" linkText="Record a joint">
         {jobs.length ? (

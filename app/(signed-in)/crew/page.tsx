@@ -7,6 +7,7 @@ import { DataTable } from "@/components/ui/data-table";
 import { SectionCard } from "@/components/ui/section-card";
 import { AddPersonForm } from "./_components/add-person-form";
 import { QualificationBadge } from "@/components/qualifications/qualification-badge";
+import { QualifiedPeopleList } from "@/components/qualifications/qualification-lists";
 
 export const dynamic = "force-dynamic";
 
@@ -20,33 +21,18 @@ export default async function CrewPage() {
   const qualified = active.filter((s) => s.status.qualified);
   const byPerson = new Map<number, typeof statuses>();
   for (const s of statuses) byPerson.set(s.userId, [...(byPerson.get(s.userId) ?? []), s]);
-  const list = (rows: typeof statuses, empty: string) =>
-    rows.length ? (
-      <ul className="flex flex-col gap-1">
-        {rows.map((s) => (
-          <li key={`${s.userId}-${s.procedureId}`}>
-            <Link className="font-semibold text-brand underline" href={`/crew/${s.userId}`}>
-              {s.userName}
-            </Link>{" "}
-            · {s.procedureCode} · <QualificationBadge status={s.status} />
-          </li>
-        ))}
-      </ul>
-    ) : (
-      <p>{empty}</p>
-    );
   return (
     <div className="flex flex-col gap-6">
       <h1 className="text-2xl font-bold">Crew</h1>
       <div className="grid gap-4 lg:grid-cols-3">
         <SectionCard id="lapsing" title="Lapse within 30 days" tone="caution" isCompact>
-          {list(lapsing, "Nobody lapses within 30 days.")}
+          <QualifiedPeopleList rows={lapsing} empty="Nobody lapses within 30 days." />
         </SectionCard>
         <SectionCard id="lapsed" title="Lapsed or requalification needed" tone="fail" isCompact>
-          {list(lapsed, "Nobody has lapsed.")}
+          <QualifiedPeopleList rows={lapsed} empty="Nobody has lapsed." />
         </SectionCard>
         <SectionCard id="qualified" title="Qualified now" tone="pass" isCompact>
-          {list(qualified, "Nobody is qualified yet.")}
+          <QualifiedPeopleList rows={qualified} empty="Nobody is qualified yet." />
         </SectionCard>
       </div>
       <SectionCard id="people" title="People">

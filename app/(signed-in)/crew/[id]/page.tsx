@@ -1,6 +1,6 @@
-import Link from "next/link";
 import { notFound } from "next/navigation";
-import { requireUser } from "@/app/_lib/page-guard";
+import { PageHeader } from "@/components/ui/page-header";
+import { requirePageId, requireUser } from "@/app/_lib/page-guard";
 import { listProcedures } from "@/database/queries/procedures";
 import { listQualificationFailuresForUser, listQualificationsForUser, qualificationStatusOverview } from "@/database/queries/qualifications";
 import { findUserById, listCrews } from "@/database/queries/users";
@@ -9,7 +9,7 @@ import { QUALIFICATION_METHOD_LABELS } from "@/domain/qualifications/schemas";
 import { ROLE_LABELS } from "@/domain/roles";
 import { FailureForm } from "../_components/failure-form";
 import { PersonAccessForm } from "../_components/person-access-form";
-import { QualificationBadge } from "@/components/qualifications/qualification-badge";
+import { QualificationStatusList } from "@/components/qualifications/qualification-lists";
 import { QualificationForm } from "../_components/qualification-form";
 import { ResetPasswordForm } from "../_components/reset-password-form";
 import { DataTable } from "@/components/ui/data-table";
@@ -19,8 +19,7 @@ export const dynamic = "force-dynamic";
 
 export default async function PersonPage({ params }: { params: Promise<{ id: string }> }) {
   await requireUser("manageCrew");
-  const id = Number((await params).id);
-  if (!Number.isInteger(id) || id <= 0) notFound();
+  const id = await requirePageId(params);
   const person = await findUserById({ id });
   if (!person) notFound();
   const [crews, procedures, statuses, qualifications, failures] = await Promise.all([
@@ -34,28 +33,12 @@ export default async function PersonPage({ params }: { params: Promise<{ id: str
   const procedureOptions = procedures.map((p) => ({ id: p.id, label: `${p.code} — ${p.name}` }));
   return (
     <div className="flex flex-col gap-6">
-      <p>
-        <Link href="/crew" className="text-brand underline">
-          All crew
-        </Link>
-      </p>
-      <h1 className="text-2xl font-bold">{person.name}</h1>
+      <PageHeader backHref="/crew" backText="All crew" title={person.name} />
       <p>
         {person.email} · {person.roles.map((r) => ROLE_LABELS[r]).join(", ")} · {person.crewName ?? "no crew"} · {person.isActive ? "active" : "deactivated"}
       </p>
       <SectionCard id="status" title="Qualification status" tone="card">
-        {statuses.length ? (
-          <ul className="flex flex-col gap-2">
-            {statuses.map((s) => (
-              <li key={s.procedureId}>
-                <span className="font-semibold">{s.procedureCode}</span>: <QualificationBadge status={s.status} />
-                <div className="text-sm text-slate-700">{s.status.reason}.</div>
-              </li>
-            ))}
-          </ul>
-        ) : (
-          <p>No qualification on record: {person.name} may not make joints.</p>
-        )}
+        <QualificationStatusList statuses={statuses} empty={<>No qualification on record: {person.name} may not make joints.</>} />
       </SectionCard>
       <SectionCard id="record-qualification" title="Record a qualification or requalification" tone="card">
         <QualificationForm person={{ id: person.id, name: person.name }} procedures={procedureOptions} today={today} />
