@@ -7,10 +7,11 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { Field } from "@/components/form/field";
-import { FormFrame, InServiceCheckbox, type FormOutcome } from "@/components/form/form-frame";
+import { type FormOutcome } from "@/components/form/form-frame";
 import { createHeaterSchema } from "@/domain/equipment/schemas";
 import { createHeaterAction, updateHeaterAction } from "../actions";
 import { AssetFields } from "./asset-fields";
+import { AssetFormFrame } from "./asset-form-frame";
 import { applyActionResult } from "@/components/form/controls";
 
 type Input = z.input<typeof createHeaterSchema>;
@@ -37,23 +38,11 @@ export function HeaterForm({ heater }: { heater?: { id: number; version: number;
     } else setMessage({ text: applyActionResult(result, setError, FIELDS) ?? result.message, tone: "error" });
   });
   return (
-    <FormFrame
-      label={heater ? "Edit heater plate" : "Add a heater plate"}
-      onSubmit={onSubmit}
-      message={message}
-      isBusy={formState.isSubmitting}
-      submitLabel={heater ? "Save heater plate" : "Add heater plate"}
-      busyLabel="Saving …"
-    >
+    <AssetFormFrame noun="heater plate" shortNoun="plate" isEdit={Boolean(heater)} onSubmit={onSubmit} message={message} isBusy={formState.isSubmitting} isActive={isActive} onActiveChange={setIsActive}>
       <div className="grid gap-4 sm:grid-cols-3">
         <AssetFields prefix={prefix} tag={register("assetTag")} description={register("description")} errors={{ assetTag: e.assetTag?.message, description: e.description?.message }} />
         <Field id={`${prefix}-interval`} label="Check interval" unit="days" numeric hint="1 = a check every working day, before the first joint" {...register("checkIntervalDays")} error={e.checkIntervalDays?.message} />
       </div>
-      {heater ? (
-        <InServiceCheckbox checked={isActive} onChange={setIsActive}>
-          In service (untick to retire the plate; it stays on record for its joints)
-        </InServiceCheckbox>
-      ) : null}
-    </FormFrame>
+    </AssetFormFrame>
   );
 }

@@ -7,11 +7,12 @@ import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { Field } from "@/components/form/field";
-import { FormFrame, InServiceCheckbox, type FormOutcome } from "@/components/form/form-frame";
+import { type FormOutcome } from "@/components/form/form-frame";
 import { createMachineSchema } from "@/domain/equipment/schemas";
 import { unitLabel, type UnitSystem } from "@/domain/units/format";
 import { createMachineAction, updateMachineAction } from "../actions";
 import { AssetFields } from "./asset-fields";
+import { AssetFormFrame } from "./asset-form-frame";
 import { applyActionResult } from "@/components/form/controls";
 
 type Input = z.input<typeof createMachineSchema>;
@@ -44,14 +45,7 @@ export function MachineForm({ units, machine }: { units: UnitSystem; machine?: {
   });
 
   return (
-    <FormFrame
-      label={machine ? "Edit machine" : "Add a machine"}
-      onSubmit={onSubmit}
-      message={message}
-      isBusy={formState.isSubmitting}
-      submitLabel={machine ? "Save machine" : "Add machine"}
-      busyLabel="Saving …"
-    >
+    <AssetFormFrame noun="machine" shortNoun="machine" isEdit={Boolean(machine)} onSubmit={onSubmit} message={message} isBusy={formState.isSubmitting} isActive={isActive} onActiveChange={setIsActive}>
       <input type="hidden" {...register("units")} />
       <div className="grid gap-4 sm:grid-cols-2">
         <AssetFields prefix={prefix} tag={register("assetTag")} description={register("description")} errors={{ assetTag: e.assetTag?.message, description: e.description?.message }} />
@@ -70,11 +64,6 @@ export function MachineForm({ units, machine }: { units: UnitSystem; machine?: {
         <Field id={`${prefix}-last-service`} label="Last service date" type="date" {...register("lastServiceOn")} error={e.lastServiceOn?.message} />
         <Field id={`${prefix}-next-service`} label="Next service due" type="date" {...register("nextServiceDue")} error={e.nextServiceDue?.message} />
       </div>
-      {machine ? (
-        <InServiceCheckbox checked={isActive} onChange={setIsActive}>
-          In service (untick to retire the machine; it stays on record for its joints)
-        </InServiceCheckbox>
-      ) : null}
-    </FormFrame>
+    </AssetFormFrame>
   );
 }
