@@ -11,7 +11,7 @@ import { recordQualificationFailureSchema } from "@/domain/qualifications/schema
 import { recordQualificationFailureAction } from "../actions";
 import { TextAreaField, applyActionResult } from "@/components/form/controls";
 import { FormFrame, type FormOutcome } from "@/components/form/form-frame";
-import { ProcedureSelect } from "./person-fields";
+import { ProcedureSelect } from "@/components/form/procedure-select";
 
 type Input = z.input<typeof recordQualificationFailureSchema>;
 type Output = z.output<typeof recordQualificationFailureSchema>;

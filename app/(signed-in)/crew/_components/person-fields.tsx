@@ -1,5 +1,4 @@
-// Blocks the crew forms share: the roles a person holds, the crew they belong to, and the
-// procedure a qualification or a failed test is for.
+// Blocks the crew forms share: the roles a person holds and the crew they belong to.
 import type { UseFormRegisterReturn } from "react-hook-form";
 import { ChoiceGroup, SelectField } from "@/components/form/controls";
 import { ROLES, ROLE_LABELS } from "@/domain/roles";
@@ -33,16 +32,3 @@ export function CrewSelect({ id, registration, error, crews }: { id: string; reg
 
 /** Parses the crew select's value: "" is no crew. */
 export const crewIdValue = (v: unknown) => (v === "" || v === null ? null : Number(v));
-
-export function ProcedureSelect({ id, registration, error, procedures }: { id: string; registration: UseFormRegisterReturn; error?: string; procedures: { id: number; label: string }[] }) {
-  return (
-    <SelectField id={id} label="Procedure" {...registration} error={error}>
-      <option value="">Choose a procedure …</option>
-      {procedures.map((p) => (
-        <option key={p.id} value={p.id}>
-          {p.label}
-        </option>
-      ))}
-    </SelectField>
-  );
-}

@@ -11,7 +11,7 @@ import { QUALIFICATION_METHODS, QUALIFICATION_METHOD_LABELS, recordQualification
 import { recordQualificationAction } from "../actions";
 import { ChoiceGroup, applyActionResult } from "@/components/form/controls";
 import { FormFrame, type FormOutcome } from "@/components/form/form-frame";
-import { ProcedureSelect } from "./person-fields";
+import { ProcedureSelect } from "@/components/form/procedure-select";
 import { FieldShell } from "@/components/form/field-shell";
 
 type Input = z.input<typeof recordQualificationSchema>;

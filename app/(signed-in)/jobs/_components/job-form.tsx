@@ -11,6 +11,7 @@ import { createJobSchema } from "@/domain/jobs/schemas";
 import { createJobAction, updateJobAction } from "../actions";
 import { ChoiceGroup, SelectField, applyActionResult, errorText } from "@/components/form/controls";
 import { FormFrame, type FormOutcome } from "@/components/form/form-frame";
+import { ProcedureSelect } from "@/components/form/procedure-select";
 
 type Input = z.input<typeof createJobSchema>;
 type Output = z.output<typeof createJobSchema>;
@@ -71,14 +72,7 @@ export function JobForm({
         <Field id={`${prefix}-longitude`} label="Longitude" unit="°" numeric hint="Optional, decimal degrees" {...register("longitude")} error={e.longitude?.message} />
         <Field id={`${prefix}-starts`} label="Start date" type="date" {...register("startsOn")} error={e.startsOn?.message} />
         <Field id={`${prefix}-ends`} label="End date" type="date" {...register("endsOn")} error={e.endsOn?.message} />
-        <SelectField id={`${prefix}-procedure`} label="Procedure" {...register("procedureId")} error={e.procedureId?.message}>
-          <option value="">Choose a procedure …</option>
-          {procedures.map((p) => (
-            <option key={p.id} value={p.id}>
-              {p.label}
-            </option>
-          ))}
-        </SelectField>
+        <ProcedureSelect id={`${prefix}-procedure`} registration={register("procedureId")} error={e.procedureId?.message} procedures={procedures} />
         <SelectField id={`${prefix}-crew`} label="Crew" {...register("crewId")} error={e.crewId?.message}>
           <option value="">No crew yet (any fuser may record)</option>
           {crews.map((c) => (
