@@ -117,7 +117,8 @@ export function toCoil(row: CoilRow): Coil {
   };
 }
 
-function coilQuery(trx?: Db) {
+/** Coils with their crew, job and receiver: the select every coil reader starts from. */
+export function coilQuery(trx?: Db) {
   return conn(trx)("coils")
     .leftJoin("crews", "crews.id", "coils.crew_id")
     .leftJoin("jobs", "jobs.id", "coils.job_id")

@@ -134,14 +134,15 @@ function toJoint(r: JointQueryRow): JointRecord {
   };
 }
 
+/** Joins a query on `joints as j` to its job, fuser (`f`), machine (`m`) and heater plate (`h`). */
+export function joinJointParts(q: Knex.QueryBuilder): Knex.QueryBuilder {
+  return q.join("jobs", "jobs.id", "j.job_id").join("users as f", "f.id", "j.fuser_id").join("fusion_machines as m", "m.id", "j.machine_id").join("heater_plates as h", "h.id", "j.heater_id");
+}
+
 function jointQuery(trx?: Db) {
-  return conn(trx)("joints as j")
-    .join("jobs", "jobs.id", "j.job_id")
+  return joinJointParts(conn(trx)("joints as j"))
     .join("procedure_versions as pv", "pv.id", "j.procedure_version_id")
     .join("procedures as p", "p.id", "pv.procedure_id")
-    .join("fusion_machines as m", "m.id", "j.machine_id")
-    .join("heater_plates as h", "h.id", "j.heater_id")
-    .join("users as f", "f.id", "j.fuser_id")
     .leftJoin("coils as ca", "ca.id", "j.coil_a_id")
     .leftJoin("coils as cb", "cb.id", "j.coil_b_id")
     .leftJoin("joint_states as s", "s.joint_id", "j.id")

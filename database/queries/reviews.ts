@@ -12,7 +12,7 @@ import type { RecordedValues } from "@/domain/joints/values";
 import type { ChartPoint } from "@/domain/pressure-trace/check";
 import { conn, type Db } from "../client";
 import type { AttachmentRow, JointRow, JointTraceRow } from "../tables";
-import { listJointRevisions as listRevisionsOfJoint, type JointRevision } from "./joints";
+import { joinJointParts, listJointRevisions as listRevisionsOfJoint, type JointRevision } from "./joints";
 import { addJointFindings, jointHasFinding, num, parseJson, text, toRecordedValues } from "./rows";
 
 export type { RevisionKind } from "@/domain/joints/revision-kinds";
@@ -85,12 +85,7 @@ type QueueRow = JointRow & {
 type TraceRow = Omit<JointTraceRow, "chart" | "finding_parameters" | "joint_id" | "uploaded_by"> & { joint_id?: number; chart?: string; uploaded_by_name: string | null };
 
 function baseJointQuery(k: Db) {
-  return k("joint_states as js")
-    .join("joints as j", "j.id", "js.joint_id")
-    .join("jobs", "jobs.id", "j.job_id")
-    .join("users as f", "f.id", "j.fuser_id")
-    .join("fusion_machines as m", "m.id", "j.machine_id")
-    .join("heater_plates as h", "h.id", "j.heater_id")
+  return joinJointParts(k("joint_states as js").join("joints as j", "j.id", "js.joint_id"))
     .select(
       "j.*",
       "js.review_state",

@@ -8,7 +8,7 @@ import type { JointOutcome } from "@/domain/joints/outcomes";
 import type { JointKind } from "@/domain/joints/schemas";
 import type { ReviewState } from "@/domain/joints/review-states";
 import { conn, type Db } from "../client";
-import { findCoilByCode, listCoilsByTraceCode, toCoil, type Coil } from "./coils";
+import { coilQuery, findCoilByCode, listCoilsByTraceCode, toCoil, type Coil } from "./coils";
 import type { FusionMachineRow, HeaterCheckRow, HeaterPlateRow, JointRow } from "../tables";
 import { day, isoDay, num } from "./rows";
 
@@ -21,18 +21,10 @@ export type LotSearchResult = {
   coils: Coil[];
 };
 
-function coilRowsQuery(trx?: Db) {
-  return conn(trx)("coils")
-    .leftJoin("crews", "crews.id", "coils.crew_id")
-    .leftJoin("jobs", "jobs.id", "coils.job_id")
-    .leftJoin("users as receiver", "receiver.id", "coils.received_by")
-    .select("coils.*", "crews.name as crew_name", "crews.trailer as crew_trailer", "jobs.code as job_code", "jobs.name as job_name", "receiver.name as received_by_name");
-}
-
 /** Every coil of the given lots (manufacturer + lot), by coil id. */
 export async function listCoilsOfLots({ lots }: { lots: LotKey[] }, trx?: Db): Promise<Coil[]> {
   if (!lots.length) return [];
-  const q = coilRowsQuery(trx).where((w) => {
+  const q = coilQuery(trx).where((w) => {
     for (const key of lots) w.orWhere((x) => x.where("coils.manufacturer", key.manufacturer).where("coils.lot", key.lot));
   });
   const rows = (await q.orderBy("coils.coil_code")) as Parameters<typeof toCoil>[0][];
@@ -276,7 +268,7 @@ export async function findJointOrigins({ jointId }: { jointId: number }, trx?: D
     .first("j.*", "jb.code as job_code", "jb.name as job_name", "s.review_state")) as OriginJointRow | undefined;
   if (!j) return null;
   const coilIds = [j.coil_a_id, j.coil_b_id].filter((v) => v != null).map(Number);
-  const coils = coilIds.length ? ((await coilRowsQuery(trx).whereIn("coils.id", coilIds)) as Parameters<typeof toCoil>[0][]).map(toCoil) : [];
+  const coils = coilIds.length ? ((await coilQuery(trx).whereIn("coils.id", coilIds)) as Parameters<typeof toCoil>[0][]).map(toCoil) : [];
   const coil = (id: unknown) => (id == null ? null : (coils.find((c) => c.id === Number(id)) ?? null));
   const machineId = Number(j.machine_id);
   const heaterId = Number(j.heater_id);
