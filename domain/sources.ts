@@ -1,11 +1,12 @@
 // Provenance tags carried by every published value in the domain, so screens and tests
 // can say where a number comes from. Tags:
 // confirmed = read in the public text; confirmed-2nd = read in a secondary reproduction;
-// from-memory = not found in public material, kept as editable data until checked.
+// from-memory = not found in public material, kept as editable data until checked;
+// operator = no published value: the operator's own value, editable.
 
-export type ValueStatus = 'confirmed' | 'confirmed-2nd' | 'from-memory';
+export type ValueStatus = 'confirmed' | 'confirmed-2nd' | 'from-memory' | 'operator';
 
-export const VALUE_STATUSES = ['confirmed', 'confirmed-2nd', 'from-memory'] as const satisfies readonly ValueStatus[];
+export const VALUE_STATUSES = ['confirmed', 'confirmed-2nd', 'from-memory', 'operator'] as const satisfies readonly ValueStatus[];
 
 /** Where a value comes from and how sure we are of it. */
 export interface Sourced {
@@ -23,5 +24,7 @@ export function describeStatus(status: ValueStatus): string {
       return 'confirmed in a reproduction';
     case 'from-memory':
       return 'from memory, unconfirmed';
+    case 'operator':
+      return "operator's value (no published value)";
   }
 }

@@ -185,6 +185,9 @@ function resolveWall(input: PlanButtFusionInput): { wallMm: number | undefined; 
 const roundSeconds = (value: number | null): number | null =>
   value === null ? null : Math.round(Math.round(value * 1e6) / 1e6);
 
+const roundTenths = (value: number | null): number | null =>
+  value === null ? null : Math.round(Math.round(value * 1e7) / 1e6) / 10;
+
 /**
  * Plan a butt-fusion joint. The wall is the published table wall when the OD (or the given
  * `size`) is a catalogued size whose SDR a table lists (ISO 4427-2 Table 2 / ISO 4437-2,
@@ -246,8 +249,15 @@ export function planButtFusion(input: PlanButtFusionInput): FusionPlan {
   const heatSoakTargetS = roundSeconds(evaluate(w.heatSoakS?.target ?? null, 'heat-soak time'));
   const heatSoakMin = roundSeconds(evaluate(w.heatSoakS?.min ?? null, 'heat-soak minimum'));
   const heatSoakMax = roundSeconds(evaluate(w.heatSoakS?.max ?? null, 'heat-soak maximum'));
-  const maxChangeoverS = roundSeconds(evaluate(w.maxChangeoverS?.rule ?? null, 'maximum changeover time'));
-  const pressureBuildUpS = roundSeconds(evaluate(w.maxPressureBuildUpS?.rule ?? null, 'pressure build-up time'));
+  // Where the table gives no changeover limit (F2620 walls under 0.17 in), the operator's
+  // value applies, so a changeover is never unlimited for a wall the procedure covers.
+  const changeoverFromRule = w.maxChangeoverS ? evaluateSizeRule(w.maxChangeoverS.rule, pipe) : null;
+  const changeoverFallback = changeoverFromRule === null ? (w.maxChangeoverS?.whereNone ?? null) : null;
+  const maxChangeoverS = roundSeconds(changeoverFallback ? changeoverFallback.value : evaluate(w.maxChangeoverS?.rule ?? null, 'maximum changeover time'));
+  if (changeoverFallback) notes.push(`Maximum changeover ${changeoverFallback.value} s is the operator's value: ${changeoverFallback.source}.`);
+  // Build-up limits are short (ISO 21307: 3 + 0.03·d_n s, e.g. 6.3 s at d_n 110), so they
+  // keep a tenth of a second rather than the whole second.
+  const pressureBuildUpS = roundTenths(evaluate(w.maxPressureBuildUpS?.rule ?? null, 'pressure build-up time'));
   const minCoolingS = roundSeconds(evaluate(w.minCoolingS?.rule ?? null, 'minimum cooling time'));
 
   const sourceOf = (value: Sourced | null): Sourced | null => (value ? { source: value.source, status: value.status } : null);
@@ -286,7 +296,7 @@ export function planButtFusion(input: PlanButtFusionInput): FusionPlan {
       heatSoakPressure: sourceOf(soak),
       bead: sourceOf(w.minBeadMm),
       heatSoak: sourceOf(w.heatSoakS),
-      changeover: sourceOf(w.maxChangeoverS),
+      changeover: sourceOf(changeoverFallback ?? w.maxChangeoverS),
       pressureBuildUp: sourceOf(w.maxPressureBuildUpS),
       cooling: sourceOf(w.minCoolingS),
     },

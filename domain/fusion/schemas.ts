@@ -112,7 +112,7 @@ const sizeRuleSchema: z.ZodType<SizeRule> = z.lazy(() =>
 );
 
 const sourcedWindow = z.object({ min: finite, max: finite, ...sourced }).refine((w) => w.min <= w.max, { error: 'min must not be above max' });
-const sourcedRule = z.object({ rule: sizeRuleSchema, ...sourced });
+const sourcedRule = z.object({ rule: sizeRuleSchema, ...sourced, whereNone: z.object({ value: z.number().positive(), ...sourced }).nullable().optional() });
 const sourcedRange = z.object({ min: finite.nullable(), max: finite.nullable(), ...sourced });
 
 /** A procedure definition as stored in the database (plain JSON). */

@@ -35,23 +35,26 @@ export const ASTM_F2620: ProcedureDefinition = {
       status: 'confirmed',
     },
     minBeadMm: {
+      // Lower end of each PPI suggested bead size; bands by OD, nominal sizes read as IPS
+      // ODs (1¼ in 1.660, 3 in 3.500, 8 in 8.625, 12 in 12.75, 24/36/63 in = nominal), the
+      // overlapping boundaries taken upper-inclusive.
       rule: {
         kind: 'bands',
         basis: 'outside-diameter-mm',
         interpolate: false,
         startMm: 0,
         bands: [
-          inBand(2.37, false, inToMm(1 / 32)),
+          inBand(1.66, true, inToMm(1 / 32)),
           inBand(3.5, true, inToMm(1 / 16)),
-          inBand(8.63, true, inToMm(3 / 16)),
-          inBand(12.75, true, inToMm(1 / 4)),
-          inBand(24, true, inToMm(3 / 8)),
+          inBand(8.625, true, inToMm(1 / 8)),
+          inBand(12.75, true, inToMm(3 / 16)),
+          inBand(24, true, inToMm(1 / 4)),
           inBand(36, true, inToMm(7 / 16)),
-          inBand(65, true, inToMm(9 / 16)),
+          inBand(63, true, inToMm(9 / 16)),
         ],
       },
-      source: `${F2620_SOURCE}: minimum melt-bead size by pipe OD`,
-      status: 'from-memory',
+      source: `${F2620_SOURCE}: melt bead at the heater, at least the lower end of the PPI suggested melt-bead size by nominal pipe size (1¼ in and smaller 1/32–1/16 in; 1¼–3 in 1/16; 3–8 in 1/8–3/16; 8–12 in 3/16–1/4; 12–24 in 1/4–7/16; 24–36 in 7/16; 36–63 in 9/16), PPI generic butt-fusion procedure as reproduced in a PE pipe maker's manual, Table 4`,
+      status: 'confirmed-2nd',
     },
     heatSoakS: null,
     maxChangeoverS: {
@@ -70,6 +73,13 @@ export const ASTM_F2620: ProcedureDefinition = {
       },
       source: `${F2620_SOURCE}: maximum heater-plate removal time by wall`,
       status: 'from-memory',
+      // The table starts at 0.17 in wall, so ½–1¼ in IPS SDR 11 and CTS pipe would have
+      // no limit; the operator's value is no looser than the table's smallest (8 s).
+      whereNone: {
+        value: 8,
+        source: 'operator limit for walls the F2620 heater-removal table does not cover (under 0.17 in or over 4.5 in): the table\'s smallest value, 8 s',
+        status: 'operator',
+      },
     },
     maxPressureBuildUpS: null,
     minCoolingS: {
@@ -83,6 +93,7 @@ export const ASTM_F2620: ProcedureDefinition = {
   notes: [
     'Heat soak is ended by bead size, not by a fixed time (PPI "Melt Procedure" page, confirmed).',
     'After cooling in the machine, avoid pulling, installation or rough handling for another 30 minutes (confirmed in a reproduction).',
-    'For walls under 0.17 in the heater-removal table gives no value: remove the heater as fast as possible.',
+    'The bead measured is the melt bead at the heater: its size at the end of bead-up/heat soak, before the heater is removed (PPI "Melt Procedure" page).',
+    'For walls under 0.17 in the heater-removal table gives no value: the operator limit of 8 s applies (remove the heater as fast as possible).',
   ],
 };

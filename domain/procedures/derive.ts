@@ -149,6 +149,8 @@ export function deriveProcedure(
         rule,
         source: current ? `${operatorSource}; within ${current.source}` : operatorSource,
         status: current ? current.status : 'confirmed',
+        // A cap applies where the table is silent too; the value there only narrows.
+        ...(current?.whereNone ? { whereNone: { ...current.whereNone, value: Math.min(current.whereNone.value * (change.factor ?? 1), change.atMost ?? Infinity) } } : {}),
       };
     }
   };

@@ -20,6 +20,7 @@ export type ProcedureParameter =
   | 'bead'
   | 'heatSoak'
   | 'changeover'
+  | 'changeoverWhereNone'
   | 'pressureBuildUp'
   | 'cooling'
   | 'wallRange'
@@ -62,6 +63,9 @@ export function describeProcedureWindows(definition: ProcedureDefinition, system
     push('heatSoak', 'Heat-soak time', parts.join('; '), [], w.heatSoakS);
   }
   if (w.maxChangeoverS) push('changeover', 'Maximum changeover (heater removal) time', ...describeRule(w.maxChangeoverS.rule, 'duration', system), w.maxChangeoverS);
+  if (w.maxChangeoverS?.whereNone) {
+    push('changeoverWhereNone', 'Maximum changeover where the table gives none', formatDuration(w.maxChangeoverS.whereNone.value), [], w.maxChangeoverS.whereNone);
+  }
   if (w.maxPressureBuildUpS) push('pressureBuildUp', 'Maximum pressure build-up time', ...describeRule(w.maxPressureBuildUpS.rule, 'duration', system), w.maxPressureBuildUpS);
   if (w.minCoolingS) push('cooling', 'Minimum cooling time under pressure', ...describeRule(w.minCoolingS.rule, 'duration', system), w.minCoolingS);
   if (w.wallRangeMm) push('wallRange', 'Walls covered', formatRange(w.wallRangeMm.min, w.wallRangeMm.max, 'length-mm', system), [], w.wallRangeMm);

@@ -65,8 +65,18 @@ export interface SourcedMaximum extends Sourced {
   max: number;
 }
 
+/** A single value with its source (e.g. an operator's limit where a table has none). */
+export interface SourcedValue extends Sourced {
+  value: number;
+}
+
 export interface SourcedRule extends Sourced {
   rule: SizeRule;
+  /**
+   * The value, with its own source, for sizes where `rule` gives none (e.g. walls below
+   * the start of the F2620 heater-removal table): the operator's value.
+   */
+  whereNone?: SourcedValue | null;
 }
 
 /** An applicability range; either end may be open (null). */

@@ -84,24 +84,29 @@ describe('gauge pressure = IFP × fusion area ÷ piston area + drag', () => {
 describe('plans per procedure', () => {
   const machine = { pistonAreaMm2: 3000, dragPressureMpa: 0.2 };
   test.each([
-    // from memory, unconfirmed: F2620 minimum melt-bead, heater-removal time and cooling tables; 142.5 s rounds half up to 143 (our rounding)
-    // source: wall ASTM F2897-23a Table 6: 2" DR 11 0.216 in (CONFIRMED-2nd)
+    // from memory, unconfirmed: F2620 heater-removal time and cooling tables; 142.5 s rounds half up to 143 (our rounding)
+    // source: bead PPI suggested melt-bead size, 1¼–3 in 1/16 in (CONFIRMED-2nd); wall ASTM F2897-23a Table 6: 2" DR 11 0.216 in (CONFIRMED-2nd)
     { name: 'F2620 2" IPS SDR 11', standard: 'astm-f2620', od: inToMm(2.375), sdr: 11, wall: undefined, expectedWall: inToMm(0.216), bead: inToMm(1 / 16), soak: null, changeover: 8, buildUp: null, cooling: 143 },
     // from memory, unconfirmed: table wall 0.602 in × 11 min/in = 397.3 s → 397 s
-    { name: 'F2620 6" IPS SDR 11 (table wall)', standard: 'astm-f2620', od: inToMm(6.625), sdr: 11, wall: inToMm(0.602), expectedWall: inToMm(0.602), bead: inToMm(3 / 16), soak: null, changeover: 15, buildUp: null, cooling: 397 },
-    // from memory, unconfirmed: wall 0.076 in is under the 0.17 in start of the removal table;
-    // source: wall ASTM F2897-23a Table 6: ½" DR 11 0.076 in (CONFIRMED-2nd) → cooling 0.076 × 660 s
-    { name: 'F2620 ½" IPS SDR 11', standard: 'astm-f2620', od: inToMm(0.84), sdr: 11, wall: undefined, expectedWall: inToMm(0.076), bead: inToMm(1 / 32), soak: null, changeover: null, buildUp: null, cooling: Math.round(0.076 * 660) },
+    // source: bead PPI suggested melt-bead size, 3–8 in 1/8–3/16 in, lower end 1/8 in (CONFIRMED-2nd)
+    { name: 'F2620 6" IPS SDR 11 (table wall)', standard: 'astm-f2620', od: inToMm(6.625), sdr: 11, wall: inToMm(0.602), expectedWall: inToMm(0.602), bead: inToMm(1 / 8), soak: null, changeover: 15, buildUp: null, cooling: 397 },
+    // from memory, unconfirmed: wall 0.076 in is under the 0.17 in start of the removal table,
+    // whose smallest value is 8 s → operator limit 8 s (status operator);
+    // source: bead PPI suggested melt-bead size, 1¼ in and smaller 1/32–1/16 in (CONFIRMED-2nd);
+    // wall ASTM F2897-23a Table 6: ½" DR 11 0.076 in (CONFIRMED-2nd) → cooling 0.076 × 660 s
+    { name: 'F2620 ½" IPS SDR 11', standard: 'astm-f2620', od: inToMm(0.84), sdr: 11, wall: undefined, expectedWall: inToMm(0.076), bead: inToMm(1 / 32), soak: null, changeover: 8, buildUp: null, cooling: Math.round(0.076 * 660) },
     // from memory, unconfirmed: DVS 2207-1 wall 10 mm row 7–12 mm, linear within the band
-    // source: wall ISO 4427-2 Table 2: 110 SDR 11 e_min 10.0 mm (CONFIRMED-2nd)
-    { name: 'DVS 110 SDR 11', standard: 'dvs-2207-1', od: 110, sdr: 11, wall: undefined, expectedWall: 10.0, bead: 1.5, soak: { target: 100, min: 100, max: null }, changeover: 7, buildUp: 7, cooling: 816 },
-    // from memory, unconfirmed: ISO 21307 SLP t2 = (11 ± 1)·e, t3 = 4 + 0.3·e, cooling e + 3 min
-    { name: 'ISO SLP 110 SDR 11', standard: 'iso-21307-slp', od: 110, sdr: 11, wall: undefined, expectedWall: 10.0, bead: null, soak: { target: 110, min: 100, max: 120 }, changeover: 7, buildUp: null, cooling: 780 },
-    // from memory, unconfirmed: ISO 21307 SHP t3 = 8 + 0.1·e, cooling 0.43·e min
-    { name: 'ISO SHP 110 SDR 11', standard: 'iso-21307-shp', od: 110, sdr: 11, wall: undefined, expectedWall: 10.0, bead: null, soak: null, changeover: 9, buildUp: null, cooling: 258 },
-    // from memory, unconfirmed: ISO 21307 DLP t3 ≈ 10 s, cooling e + 3 min;
+    // (build-up 6–8 s: 6 + 2 × 3/5 = 7.2 s, kept to 0.1 s); source: wall ISO 4427-2 Table 2: 110 SDR 11 e_min 10.0 mm (CONFIRMED-2nd)
+    { name: 'DVS 110 SDR 11', standard: 'dvs-2207-1', od: 110, sdr: 11, wall: undefined, expectedWall: 10.0, bead: 1.5, soak: { target: 100, min: 100, max: null }, changeover: 7, buildUp: 7.2, cooling: 816 },
+    // source: ISO 21307 single low-pressure parameter card, 2020 (CONFIRMED-2nd): soak (13.5 ± 1.5)·e_n
+    // → 120–150 s, build-up ≤ 3 + 0.03·d_n = 6.3 s, bead ≥ 0.5 + 0.1·e = 1.5 mm, cooling e_n + 3 min;
+    // from memory, unconfirmed: t3 = 4 + 0.3·e
+    { name: 'ISO SLP 110 SDR 11', standard: 'iso-21307-slp', od: 110, sdr: 11, wall: undefined, expectedWall: 10.0, bead: 1.5, soak: { target: 135, min: 120, max: 150 }, changeover: 7, buildUp: 6.3, cooling: 780 },
+    // from memory, unconfirmed: ISO 21307 SHP t3 = 8 + 0.1·e, cooling 0.43·e min; soak at least 10·e_n s is the operator's (no published value)
+    { name: 'ISO SHP 110 SDR 11', standard: 'iso-21307-shp', od: 110, sdr: 11, wall: undefined, expectedWall: 10.0, bead: null, soak: { target: null, min: 100, max: null }, changeover: 9, buildUp: null, cooling: 258 },
+    // from memory, unconfirmed: ISO 21307 DLP t3 ≈ 10 s, cooling e + 3 min; soak at least 10·e_n = 297 s is the operator's;
     // source: wall ISO 4437-2 / ISO 4427-2 Table 2: 500 SDR 17 e_min 29.7 mm (CONFIRMED-2nd)
-    { name: 'ISO DLP 500 SDR 17', standard: 'iso-21307-dlp', od: 500, sdr: 17, wall: undefined, expectedWall: 29.7, bead: null, soak: null, changeover: 10, buildUp: null, cooling: Math.round((29.7 + 3) * 60) },
+    { name: 'ISO DLP 500 SDR 17', standard: 'iso-21307-dlp', od: 500, sdr: 17, wall: undefined, expectedWall: 29.7, bead: null, soak: { target: null, min: 297, max: null }, changeover: 10, buildUp: null, cooling: Math.round((29.7 + 3) * 60) },
   ] as const)('$name', (row) => {
     const plan = planButtFusion({ standard: row.standard, outsideDiameterMm: row.od, sdr: row.sdr, wallMm: row.wall, ...machine });
     expect(plan.wallMm).toBeCloseTo(row.expectedWall, 12);
@@ -125,9 +130,28 @@ describe('plans per procedure', () => {
   });
 
   test('a value the table does not give is null and explained in the notes', () => {
-    const plan = planButtFusion({ standard: 'astm-f2620', outsideDiameterMm: inToMm(0.84), sdr: 11, ...machine });
-    expect(plan.maxChangeoverS).toBeNull();
-    expect(plan.notes).toContain('ASTM F2620 butt fusion gives no maximum changeover time for a 1.9 mm wall.');
+    // source: PPI suggested melt-bead table ends at 63 in (CONFIRMED-2nd)
+    const plan = planButtFusion({ standard: 'astm-f2620', outsideDiameterMm: inToMm(65), sdr: 11, ...machine });
+    expect(plan.minBeadMm).toBeNull();
+    expect(plan.notes).toContain('ASTM F2620 butt fusion gives no minimum bead size for a 1651.0 mm OD.');
+  });
+
+  test.each([
+    // source: ASTM F2897-23a Table 6 walls (CONFIRMED): ½ in DR 11 0.076, 1 in DR 11 0.120, 1¼ in DR 11 0.151 in;
+    // from memory, unconfirmed: F2620 table starts at 0.17 in, smallest value 8 s → operator limit 8 s
+    ['½', 0.84],
+    ['1', 1.315],
+    ['1¼', 1.66],
+  ])('F2620 %s in IPS SDR 11: changeover limit is the operator\'s 8 s', (_name, odIn) => {
+    const plan = planButtFusion({ standard: 'astm-f2620', outsideDiameterMm: inToMm(odIn), sdr: 11, ...machine });
+    expect(plan.maxChangeoverS).toBe(8);
+    expect(plan.sources.changeover).toMatchObject({ status: 'operator' });
+    expect(plan.notes.some((note) => note.includes("operator's value"))).toBe(true);
+  });
+
+  test('F2620 plan text names the melt bead at the heater', () => {
+    const plan = planButtFusion({ standard: 'astm-f2620', outsideDiameterMm: inToMm(2.375), sdr: 11, ...machine });
+    expect(plan.notes.some((note) => note.includes('melt bead at the heater'))).toBe(true);
   });
 
   test('dual low-pressure gives a reduced cooling gauge pressure', () => {

@@ -13,7 +13,7 @@ import { tighteningFieldViews } from "../_lib/views";
 
 export const dynamic = "force-dynamic";
 
-const STATUS_STYLE = { confirmed: "text-pass", "confirmed-2nd": "text-brand", "from-memory": "text-caution" } as const;
+const STATUS_STYLE = { confirmed: "text-pass", "confirmed-2nd": "text-brand", "from-memory": "text-caution", operator: "text-caution" } as const;
 
 export default async function ProcedurePage({ params }: { params: Promise<{ id: string }> }) {
   const user = await requireUser("viewProcedures");
