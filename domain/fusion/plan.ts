@@ -252,7 +252,9 @@ export function planButtFusion(input: PlanButtFusionInput): FusionPlan {
   // Where the table gives no changeover limit (F2620 walls under 0.17 in), the operator's
   // value applies, so a changeover is never unlimited for a wall the procedure covers.
   const changeoverFromRule = w.maxChangeoverS ? evaluateSizeRule(w.maxChangeoverS.rule, pipe) : null;
-  const changeoverFallback = changeoverFromRule === null ? (w.maxChangeoverS?.whereNone ?? null) : null;
+  // A version stored before the operator value existed takes its base standard's.
+  const whereNone = w.maxChangeoverS?.whereNone !== undefined ? w.maxChangeoverS.whereNone : (builtInProcedure(procedure.standard).windows.maxChangeoverS?.whereNone ?? null);
+  const changeoverFallback = w.maxChangeoverS && changeoverFromRule === null ? whereNone : null;
   const maxChangeoverS = roundSeconds(changeoverFallback ? changeoverFallback.value : evaluate(w.maxChangeoverS?.rule ?? null, 'maximum changeover time'));
   if (changeoverFallback) notes.push(`Maximum changeover ${changeoverFallback.value} s is the operator's value: ${changeoverFallback.source}.`);
   // Build-up limits are short (ISO 21307: 3 + 0.03·d_n s, e.g. 6.3 s at d_n 110), so they

@@ -1,6 +1,7 @@
 import { unit } from 'mathjs';
 import { describe, expect, test } from 'vitest';
 import {
+  builtInProcedure,
   DomainError,
   gaugePressureForInterfacialPressure,
   interfacialPressureFromGauge,
@@ -147,6 +148,15 @@ describe('plans per procedure', () => {
     expect(plan.maxChangeoverS).toBe(8);
     expect(plan.sources.changeover).toMatchObject({ status: 'operator' });
     expect(plan.notes.some((note) => note.includes("operator's value"))).toBe(true);
+  });
+
+  test('a version stored before the operator changeover value takes the built-in one', () => {
+    // from memory, unconfirmed: F2620 removal table starts at 0.17 in; operator limit 8 s
+    const stored = builtInProcedure('astm-f2620');
+    if (stored.windows.maxChangeoverS) delete stored.windows.maxChangeoverS.whereNone;
+    const plan = planButtFusion({ procedure: stored, outsideDiameterMm: inToMm(1.315), sdr: 11, ...machine });
+    expect(plan.maxChangeoverS).toBe(8);
+    expect(plan.sources.changeover?.status).toBe('operator');
   });
 
   test('F2620 plan text names the melt bead at the heater', () => {
