@@ -57,9 +57,9 @@ export interface JointMeasurements {
   beadUpGaugePressureMpa?: number | null;
   pressureBuildUpS?: number | null;
   heatSoakGaugePressureMpa?: number | null;
-  /** Heater surface read with a pyrometer or surface thermometer, °C (apart from the dial). */
+  /** Heater surface read with a pyrometer or surface thermometer, °C (apart from the dial); checked when recorded. */
   heaterSurfaceTemperatureC?: number | null;
-  /** Outside misalignment (hi-lo) of the two ends in the machine, mm. */
+  /** Outside misalignment (hi-lo) of the two ends in the machine, mm; checked when recorded. */
   misalignmentMm?: number | null;
   /** Lowest gauge pressure held during the plan's minimum cooling time, MPa (from a trace). */
   lowestCoolingGaugePressureMpa?: number | null;
@@ -172,7 +172,7 @@ export function checkJoint(plan: FusionPlan, values: JointMeasurements | Recorde
 
   windowCheck('heaterTemperature', 'Heater temperature', measured.heaterTemperatureC, plan.heaterTemperatureC, 'temperature', '');
   // The dial is only a general indicator; the surface reading is judged on its own (PPI).
-  if (measured.heaterSurfaceTemperatureC !== undefined) {
+  if (isRecorded(measured.heaterSurfaceTemperatureC)) {
     windowCheck('heaterTemperature', 'Heater surface temperature', measured.heaterSurfaceTemperatureC, plan.heaterTemperatureC, 'temperature', ' (pyrometer reading)');
   }
   if (measured.beadUpGaugePressureMpa !== undefined) {
