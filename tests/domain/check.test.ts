@@ -277,3 +277,12 @@ describe('heater surface and misalignment as measured values', () => {
     expect(checkJoint(plan, { ...good, alignmentOk: false, misalignmentMm: 1 }).findings).toMatchObject([{ parameter: 'alignment', kind: 'check-failed' }]);
   });
 });
+
+describe('the machine instrument copied into the plan', () => {
+  test('withInstrument attaches the resolutions; unknown ones are null (no tolerance)', async () => {
+    const { withInstrument, readingTolerance } = await import('@/domain/fusion/instrument');
+    expect(withInstrument(plan, { gaugeResolutionMpa: 0.05, thermometerResolutionC: null }).instrument).toEqual({ gaugeResolutionMpa: 0.05, thermometerResolutionC: null });
+    expect(readingTolerance(0.1)).toBe(0.05);
+    expect(readingTolerance(null)).toBe(0);
+  });
+});
