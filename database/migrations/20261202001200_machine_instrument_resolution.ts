@@ -7,7 +7,7 @@ import type { Knex } from "knex";
 export async function up(knex: Knex): Promise<void> {
   await knex.schema.alterTable("fusion_machines", (t) => {
     t.decimal("gauge_resolution_mpa", 8, 4).nullable().defaultTo(0.05).after("piston_area_mm2");
-    t.decimal("thermometer_resolution_c", 6, 2).nullable().defaultTo(1).after("gauge_resolution_mpa");
+    t.decimal("thermometer_resolution_c", 6, 3).nullable().defaultTo(1).after("gauge_resolution_mpa");
   });
 }
 

@@ -90,7 +90,7 @@ function machineColumns(m: MachineFields) {
     piston_area_mm2: m.pistonAreaMm2 === null ? null : roundTo(m.pistonAreaMm2, 2),
     // Left out (undefined) keeps the column's default on insert and the stored value on update.
     gauge_resolution_mpa: m.gaugeResolutionMpa === undefined ? undefined : m.gaugeResolutionMpa === null ? null : roundTo(m.gaugeResolutionMpa, 4),
-    thermometer_resolution_c: m.thermometerResolutionC === undefined ? undefined : m.thermometerResolutionC === null ? null : roundTo(m.thermometerResolutionC, 2),
+    thermometer_resolution_c: m.thermometerResolutionC === undefined ? undefined : m.thermometerResolutionC === null ? null : roundTo(m.thermometerResolutionC, 3),
     last_service_on: m.lastServiceOn ?? null,
     next_service_due: m.nextServiceDue ?? null,
   };
