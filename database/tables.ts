@@ -137,6 +137,8 @@ export type FusionMachineRow = {
   min_od_mm: number | null;
   max_od_mm: number | null;
   piston_area_mm2: number | null;
+  gauge_resolution_mpa: number | null;
+  thermometer_resolution_c: number | null;
   last_service_on: Date | null;
   next_service_due: Date | null;
   is_active: Tinyint;
@@ -231,6 +233,8 @@ export type JointRow = {
   ambient_c: number | null;
   shelter: "none" | "windbreak" | "tent" | "heated-tent" | null;
   heater_temperature_c: number | null;
+  heater_surface_temperature_c: number | null;
+  misalignment_mm: number | null;
   drag_pressure_mpa: number | null;
   bead_up_gauge_mpa: number | null;
   fusion_gauge_mpa: number | null;

@@ -16,6 +16,9 @@ export type MachineRecord = {
   maxOdMm: number | null;
   /** Total effective piston area of the carriage cylinders, mm²; null = unknown (machine unusable). */
   pistonAreaMm2: number | null;
+  /** Gauge and thermometer reading resolution (MPa, °C), copied into plans; null = unknown. */
+  gaugeResolutionMpa: number | null;
+  thermometerResolutionC: number | null;
   lastServiceOn: string | null;
   nextServiceDue: string | null;
   isActive: boolean;
@@ -34,6 +37,8 @@ function toMachine(r: FusionMachineRow): MachineRecord {
     minOdMm: num(r.min_od_mm),
     maxOdMm: num(r.max_od_mm),
     pistonAreaMm2: num(r.piston_area_mm2),
+    gaugeResolutionMpa: num(r.gauge_resolution_mpa),
+    thermometerResolutionC: num(r.thermometer_resolution_c),
     lastServiceOn: isoDay(r.last_service_on),
     nextServiceDue: isoDay(r.next_service_due),
     isActive: Boolean(r.is_active),
@@ -68,6 +73,8 @@ export type MachineFields = {
   minOdMm: number | null;
   maxOdMm: number | null;
   pistonAreaMm2: number | null;
+  gaugeResolutionMpa?: number | null;
+  thermometerResolutionC?: number | null;
   lastServiceOn?: string | null;
   nextServiceDue?: string | null;
 };
@@ -81,6 +88,9 @@ function machineColumns(m: MachineFields) {
     max_od_mm: m.maxOdMm === null ? null : roundTo(m.maxOdMm, 2),
     // A hundredth of a mm² is far below any data plate's precision.
     piston_area_mm2: m.pistonAreaMm2 === null ? null : roundTo(m.pistonAreaMm2, 2),
+    // Left out (undefined) keeps the column's default on insert and the stored value on update.
+    gauge_resolution_mpa: m.gaugeResolutionMpa === undefined ? undefined : m.gaugeResolutionMpa === null ? null : roundTo(m.gaugeResolutionMpa, 4),
+    thermometer_resolution_c: m.thermometerResolutionC === undefined ? undefined : m.thermometerResolutionC === null ? null : roundTo(m.thermometerResolutionC, 3),
     last_service_on: m.lastServiceOn ?? null,
     next_service_due: m.nextServiceDue ?? null,
   };

@@ -122,7 +122,7 @@ export async function seed(knex: Knex, today = new Date()): Promise<void> {
     const drag = Math.round((0.06 + (i % 4) * 0.01) * 1000) / 1000;
     const plan = planButtFusion(buttFusionPlanInput({ procedure: version.definition, pipe: { outsideDiameterMm: a.od, sdr: a.sdr }, machine: { pistonAreaMm2: Number(eq.machine.piston_area_mm2) }, dragPressureMpa: drag }));
     const v = values(plan, i, replaces ? null : p.fault);
-    const recorded = { ...v, dragPressureMpa: drag, beadUpGaugePressureMpa: null, heatSoakGaugePressureMpa: null, ...allChecksPassed() };
+    const recorded = { ...v, dragPressureMpa: drag, beadUpGaugePressureMpa: null, heatSoakGaugePressureMpa: null, heaterSurfaceTemperatureC: null, misalignmentMm: null, ...allChecksPassed() };
     const check = checkJoint(plan, recorded, { system: "si" });
     const jointNo = (counters.get(job.id) ?? 0) + 1;
     counters.set(job.id, jointNo);

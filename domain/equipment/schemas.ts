@@ -12,11 +12,13 @@ const machineFields = {
   minOd: optionalNumber('Smallest pipe OD', { positive: true }),
   maxOd: optionalNumber('Largest pipe OD', { positive: true }),
   pistonArea: optionalNumber('Total effective piston area', { positive: true }),
+  gaugeResolution: optionalNumber('Gauge resolution', { positive: true }),
+  thermometerResolution: optionalNumber('Thermometer resolution', { positive: true }),
   lastServiceOn: optionalDate('Last service date'),
   nextServiceDue: optionalDate('Next service due'),
 };
 
-type MachineRaw = { units: UnitSystem; minOd?: number; maxOd?: number; pistonArea?: number; lastServiceOn?: string; nextServiceDue?: string };
+type MachineRaw = { units: UnitSystem; minOd?: number; maxOd?: number; pistonArea?: number; gaugeResolution?: number; thermometerResolution?: number; lastServiceOn?: string; nextServiceDue?: string };
 
 function checkMachine(value: MachineRaw, ctx: z.RefinementCtx) {
   if (value.minOd !== undefined && value.maxOd !== undefined && value.minOd > value.maxOd) {
@@ -32,15 +34,28 @@ function checkMachine(value: MachineRaw, ctx: z.RefinementCtx) {
   if (areaMm2 !== undefined && (areaMm2 < 10 || areaMm2 > 100_000)) {
     ctx.addIssue({ code: 'custom', path: ['pistonArea'], message: `Total effective piston area ${value.pistonArea} ${value.units === 'us' ? 'in²' : 'mm²'} is not plausible; check the unit on the data plate.` });
   }
+  // A gauge read coarser than 1 MPa (145 psi) or a thermometer coarser than 10 °C would
+  // excuse most of a window: surely a unit slip (our bound).
+  const gaugeMpa = toSi(value.gaugeResolution, 'pressure', value.units);
+  if (gaugeMpa !== undefined && gaugeMpa > 1) {
+    ctx.addIssue({ code: 'custom', path: ['gaugeResolution'], message: 'Gauge resolution is not plausible: enter the smallest step the gauge is read to.' });
+  }
+  const thermometerC = value.thermometerResolution === undefined ? undefined : value.units === 'us' ? (value.thermometerResolution * 5) / 9 : value.thermometerResolution;
+  if (thermometerC !== undefined && thermometerC > 10) {
+    ctx.addIssue({ code: 'custom', path: ['thermometerResolution'], message: 'Thermometer resolution is not plausible: enter the smallest step the thermometer reads.' });
+  }
 }
 
 function machineToSi<T extends MachineRaw>(value: T) {
-  const { minOd, maxOd, pistonArea, ...rest } = value;
+  const { minOd, maxOd, pistonArea, gaugeResolution, thermometerResolution, ...rest } = value;
   return {
     ...rest,
     minOdMm: toSi(minOd, 'length-mm', value.units) ?? null,
     maxOdMm: toSi(maxOd, 'length-mm', value.units) ?? null,
     pistonAreaMm2: toSi(pistonArea, 'area', value.units) ?? null,
+    gaugeResolutionMpa: toSi(gaugeResolution, 'pressure', value.units) ?? null,
+    // A step of temperature: °F steps are 5/9 of a °C (no 32° offset).
+    thermometerResolutionC: thermometerResolution === undefined ? null : value.units === 'us' ? (thermometerResolution * 5) / 9 : thermometerResolution,
   };
 }
 

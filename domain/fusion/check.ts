@@ -1,15 +1,17 @@
 // Joint check: every recorded value of a butt-fusion joint against its pressure plan
 // (windows from the procedure the plan was made under; see domain/procedures for sources).
-// A value exactly on a limit passes; a value not recorded is a finding of its own.
+// A value exactly on a limit passes, and a pressure or temperature reading within half a
+// resolution step of the machine's instrument (domain/fusion/instrument); a value not
+// recorded is a finding of its own.
 
 import type { FusionPlan } from '@/domain/fusion/plan';
 import type { JointParameter } from '@/domain/fusion/parameters';
 import type { JointOutcome } from '@/domain/joints/outcomes';
 import { jointMeasurements, type RecordedValues } from '@/domain/joints/values';
+import { readingTolerance } from '@/domain/fusion/instrument';
 import {
   formatQuantity,
   formatRange,
-  roundForDisplay,
   type QuantityKind,
   type UnitSystem,
 } from '@/domain/units/format';
@@ -55,6 +57,10 @@ export interface JointMeasurements {
   beadUpGaugePressureMpa?: number | null;
   pressureBuildUpS?: number | null;
   heatSoakGaugePressureMpa?: number | null;
+  /** Heater surface read with a pyrometer or surface thermometer, °C (apart from the dial); checked when recorded. */
+  heaterSurfaceTemperatureC?: number | null;
+  /** Outside misalignment (hi-lo) of the two ends in the machine, mm; checked when recorded. */
+  misalignmentMm?: number | null;
   /** Lowest gauge pressure held during the plan's minimum cooling time, MPa (from a trace). */
   lowestCoolingGaugePressureMpa?: number | null;
   facingOk?: boolean | null;
@@ -77,14 +83,19 @@ export function coolingHoldMinimumGaugePressureMpa(plan: FusionPlan): number {
   return plan.coolingGaugePressureMpa ? plan.coolingGaugePressureMpa.min : plan.fusionGaugePressureMpa.min;
 }
 
+/** Outside misalignment (hi-lo) allowed, as a fraction of the wall (PE pipe makers' fusion guides). */
+export const MAX_MISALIGNMENT_WALL_FRACTION = 0.1;
+
 const isRecorded = (value: number | null | undefined): value is number =>
   typeof value === 'number' && Number.isFinite(value);
 
 /**
  * Check recorded values against a plan. Inputs canonical SI; messages in `options.system`.
- * On-limit rule: a value passes when it is inside the limit, or when it reads the same as
- * the limit at display precision in the user's units (0.1 mm / 0.001 in, 0.01 MPa / 1 psi,
- * 1 °C / 1 °F, 1 s), so a value typed as the limit shown on screen is on the limit.
+ * On-limit rule: a value passes when it is inside the limit or on it. A gauge pressure or a
+ * temperature also passes within half a resolution step of the plan's instrument (gauge
+ * MPa, thermometer °C; domain/fusion/instrument): the instrument cannot read closer.
+ * Bead, misalignment and times have no instrument tolerance; plans without an instrument
+ * have none either.
  * Outcome is out-of-limits when there is at least one finding. A joint's RecordedValues
  * (domain/joints/values) are taken as they are: the two bead checks become the visual bead.
  */
@@ -96,9 +107,12 @@ export function checkJoint(plan: FusionPlan, values: JointMeasurements | Recorde
   const wallText = `for a ${fmt(plan.wallMm, 'length-mm')} wall`;
   const odText = `for a ${fmt(plan.outsideDiameterMm, 'length-mm')} OD pipe`;
 
+  const tolerance = (kind: QuantityKind): number =>
+    kind === 'pressure' ? readingTolerance(plan.instrument?.gaugeResolutionMpa) : kind === 'temperature' ? readingTolerance(plan.instrument?.thermometerResolutionC) : 0;
+  // 1e-9: binary fractions (232.2 + 0.05) must not turn "half a step" into "just over".
   const passes = (value: number, limit: number, side: 'min' | 'max', kind: QuantityKind): boolean => {
-    if (side === 'min' ? value >= limit : value <= limit) return true;
-    return roundForDisplay(value, kind, system) === roundForDisplay(limit, kind, system);
+    const slack = tolerance(kind) + 1e-9;
+    return side === 'min' ? value >= limit - slack : value <= limit + slack;
   };
 
   const notRecorded = (parameter: JointParameter, name: string, limit: JointFinding['limit']) =>
@@ -157,6 +171,10 @@ export function checkJoint(plan: FusionPlan, values: JointMeasurements | Recorde
   };
 
   windowCheck('heaterTemperature', 'Heater temperature', measured.heaterTemperatureC, plan.heaterTemperatureC, 'temperature', '');
+  // The dial is only a general indicator; the surface reading is judged on its own (PPI).
+  if (isRecorded(measured.heaterSurfaceTemperatureC)) {
+    windowCheck('heaterTemperature', 'Heater surface temperature', measured.heaterSurfaceTemperatureC, plan.heaterTemperatureC, 'temperature', ' (pyrometer reading)');
+  }
   if (measured.beadUpGaugePressureMpa !== undefined) {
     windowCheck('beadUpPressure', 'Bead-up gauge pressure', measured.beadUpGaugePressureMpa, plan.beadUpGaugePressureMpa, 'pressure', ' for this pipe and machine');
   }
@@ -213,6 +231,10 @@ export function checkJoint(plan: FusionPlan, values: JointMeasurements | Recorde
     if (value === null) return notRecorded(parameter, name, null);
     if (!value) findings.push({ parameter, kind: 'check-failed', measured: false, limit: null, message: failed });
   };
+  // Outside misalignment at most 10 % of the wall (PE pipe makers' butt-fusion guides).
+  if (isRecorded(measured.misalignmentMm)) {
+    maximumCheck('alignment', 'Misalignment', measured.misalignmentMm, MAX_MISALIGNMENT_WALL_FRACTION * plan.wallMm, 'length-mm', { long: 'more' }, `(10 % of the ${fmt(plan.wallMm, 'length-mm')} wall)`);
+  }
   booleanCheck('facing', measured.facingOk, 'Facing check', 'Facing was not confirmed complete and square');
   booleanCheck('alignment', measured.alignmentOk, 'Alignment check', 'Alignment check did not pass');
   booleanCheck('visualBead', measured.visualBeadOk, 'Visual bead check', 'Visual bead check did not pass');

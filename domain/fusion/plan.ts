@@ -4,6 +4,7 @@
 // (PPI generic butt-fusion procedure as reproduced in a pipe maker's manual, §6.2.5;
 // PPI TR-33; CONFIRMED-2nd for the method, exact geometry for the areas).
 
+import type { InstrumentResolution } from '@/domain/fusion/instrument';
 import { DomainError } from '@/domain/errors';
 import { pipeGeometry } from '@/domain/pipe/geometry';
 import type { PipeSeries } from '@/domain/pipe/catalogue';
@@ -108,6 +109,8 @@ export interface FusionPlan {
   pressureBuildUpS: number | null;
   minCoolingS: number | null;
   sources: PlanSources;
+  /** The machine's gauge and thermometer resolution (domain/fusion/instrument); absent in plans stored before it, and then no reading tolerance. */
+  instrument?: InstrumentResolution;
   /** Plain-language notes: the procedure's notes and any value left undefined at this size. */
   notes: string[];
 }

@@ -74,6 +74,13 @@ export const RECORDED_VALUES = [
     register: { key: 'heaterTemperature', width: 10, inGrid: true },
   },
   {
+    // The dial is only a general indicator: the surface is checked with a pyrometer (PPI).
+    key: 'heaterSurfaceTemperatureC', column: 'heater_surface_temperature_c', name: 'heaterSurfaceTemperature', label: 'Heater surface (pyrometer)', type: 'quantity', quantity: 'temperature', entry: 'typed', step: 'values',
+    required: false, bounds: { min: 0, max: 400 }, inputName: 'heater surface temperature', prompt: 'Heater surface temperature (pyrometer)', hint: 'Read on the heater face with a pyrometer or surface thermometer, not the dial.',
+    whenMissing: 'not recorded (optional)', parameter: 'heaterTemperature', missingIsFinding: false,
+    register: { key: 'heaterSurfaceTemperature', width: 10, inGrid: true },
+  },
+  {
     key: 'dragPressureMpa', column: 'drag_pressure_mpa', name: 'dragPressure', label: 'Drag pressure', type: 'quantity', quantity: 'pressure', entry: 'typed', step: 'machine',
     required: true, bounds: { min: 0, max: 20 }, inputName: 'drag pressure', prompt: 'Drag pressure measured', hint: 'The gauge reading just to move the carriage.', parameter: null, missingIsFinding: false,
     register: { key: 'dragPressure', width: 9, inGrid: true },
@@ -114,6 +121,13 @@ export const RECORDED_VALUES = [
     key: 'coolingS', column: 'cooling_s', name: 'cooling', label: 'Cooling', type: 'quantity', quantity: 'duration', entry: 'timed', phase: 'cooling', step: 'timer',
     required: true, bounds: { min: 0, max: 36_000 }, inputName: 'cooling time', prompt: 'Cooling time', parameter: 'cooling', missingIsFinding: true,
     register: { key: 'cooling', width: 8, inGrid: true },
+  },
+  {
+    // Outside misalignment at most 10 % of the wall (PE pipe makers' butt-fusion guides).
+    key: 'misalignmentMm', column: 'misalignment_mm', name: 'misalignment', label: 'Misalignment (hi-lo)', type: 'quantity', quantity: 'length-mm', entry: 'typed', step: 'values',
+    required: false, bounds: { min: 0, max: 100 }, inputName: 'misalignment', prompt: 'Misalignment (hi-lo)', hint: 'The largest step between the outside surfaces of the two ends, measured in the machine.',
+    whenMissing: 'not recorded (optional)', parameter: 'alignment', missingIsFinding: false,
+    register: { key: 'misalignment', width: 8, inGrid: true },
   },
   {
     key: 'facingOk', column: 'facing_ok', name: 'facing', label: 'Facing complete and square', type: 'check', entry: 'yes-no', step: 'values',

@@ -1,7 +1,7 @@
 // The review queue's ordering rule, and the plan-versus-recorded comparison each queue item
 // shows. Canonical SI in, the user's units out (domain/units).
 import type { FusionPlan } from "@/domain/fusion/plan";
-import { checkJoint, type JointFinding } from "@/domain/fusion/check";
+import { checkJoint, MAX_MISALIGNMENT_WALL_FRACTION, type JointFinding } from "@/domain/fusion/check";
 import type { JointOutcome } from "@/domain/joints/outcomes";
 import type { JointParameter } from "@/domain/fusion/parameters";
 import { formatQuantity, formatRange, type QuantityKind, type UnitSystem } from "@/domain/units/format";
@@ -46,6 +46,8 @@ const PLAN_TEXT: Partial<Record<JointParameter, (plan: FusionPlan, system: UnitS
   },
   changeover: (plan, system) => (plan.maxChangeoverS === null ? "not defined" : `at most ${formatQuantity(plan.maxChangeoverS, "duration", system)}`),
   cooling: (plan, system) => (plan.minCoolingS === null ? "not defined" : `at least ${formatQuantity(plan.minCoolingS, "duration", system)}`),
+  // The measured hi-lo row (the yes/no alignment check reads "required").
+  alignment: (plan, system) => `at most ${formatQuantity(MAX_MISALIGNMENT_WALL_FRACTION * plan.wallMm, "length-mm", system)} (10 % of the wall)`,
 };
 
 /**

@@ -33,6 +33,24 @@ describe("Equipment actions: fusion machines", () => {
     expect(await ownerDb()("audit_log").where({ action: "machine-added", entity_id: String(result.data.id) })).toHaveLength(1);
   });
 
+  it("keeps the gauge and thermometer resolution typed in US units in MPa and °C", async () => {
+    await actAs(admin);
+    const result = await createMachineAction({ units: "us", assetTag: "FM-510", pistonArea: "4.71", gaugeResolution: "5", thermometerResolution: "1" });
+    if (!result.ok) throw new Error(result.message);
+    const machine = await findMachineById({ id: result.data.id });
+    // source: NIST SP 811 Appendix B — 1 psi = 6894.757 Pa, so 5 psi = 0.0344738 MPa (stored to 0.0001).
+    expect(machine?.gaugeResolutionMpa).toBeCloseTo(0.0345, 4);
+    // A step of 1 °F is 5/9 °C = 0.556 °C (stored to 0.001; no 32° offset for a step).
+    expect(machine?.thermometerResolutionC).toBeCloseTo(0.556, 3);
+  });
+
+  it("leaves the resolutions blank as no tolerance", async () => {
+    await actAs(admin);
+    const result = await createMachineAction({ units: "si", assetTag: "FM-511", pistonArea: "3000", gaugeResolution: "", thermometerResolution: "" });
+    if (!result.ok) throw new Error(result.message);
+    expect(await findMachineById({ id: result.data.id })).toMatchObject({ gaugeResolutionMpa: null, thermometerResolutionC: null });
+  });
+
   it("keeps a machine without piston area as unusable and lists it for the admin", async () => {
     await actAs(admin);
     const result = await createMachineAction({ units: "si", assetTag: "FM-502", pistonArea: "" });

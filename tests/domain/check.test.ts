@@ -268,3 +268,72 @@ describe('bead-up pressure when recorded', () => {
     expect(checkJoint(plan, { ...good, beadUpGaugePressureMpa: null }).findings[0]?.kind).toBe('not-recorded');
   });
 });
+
+// Reading tolerance from the machine's instruments (domain/fusion/instrument): a reading
+// passes a limit within half a resolution step of it, no further. Limits hand-worked:
+// ASTM F2620 heater maximum 450 °F = (450 − 32) × 5/9 = 232.22 °C.
+describe('tolerance at a limit comes from the instrument', () => {
+  const withInstrument = { ...plan, instrument: { gaugeResolutionMpa: 0.05, thermometerResolutionC: 0.1 } };
+  const maxC = (450 - 32) * (5 / 9);
+
+  test('232.27 °C on a 0.1 °C thermometer is within half a step (0.05 °C) of 232.22 °C: passes', () => {
+    expect(checkJoint(withInstrument, { ...good, heaterTemperatureC: 232.27 }).findings).toEqual([]);
+  });
+  test('232.3 °C and 232.49 °C on a 0.1 °C thermometer are over 232.22 °C by more than 0.05 °C: fail', () => {
+    for (const heaterTemperatureC of [232.3, 232.49]) {
+      const { findings } = checkJoint(withInstrument, { ...good, heaterTemperatureC });
+      expect(findings).toMatchObject([{ parameter: 'heaterTemperature', kind: 'above-maximum', measured: heaterTemperatureC, limit: { max: maxC } }]);
+    }
+  });
+  test('a plan stored without an instrument has no tolerance: 232.49 °C fails 232.22 °C', () => {
+    expect(checkJoint(plan, { ...good, heaterTemperatureC: 232.49 }).findings).toMatchObject([{ parameter: 'heaterTemperature', kind: 'above-maximum' }]);
+  });
+  test('a 0.05 MPa gauge: 0.02 MPa over the fusion maximum passes, 0.03 MPa over fails (half a step is 0.025 MPa)', () => {
+    const max = plan.fusionGaugePressureMpa.max;
+    expect(checkJoint(withInstrument, { ...good, fusionGaugePressureMpa: max + 0.02 }).findings).toEqual([]);
+    expect(checkJoint(withInstrument, { ...good, fusionGaugePressureMpa: max + 0.03 }).findings).toMatchObject([{ parameter: 'fusionPressure', kind: 'above-maximum' }]);
+    expect(checkJoint(withInstrument, { ...good, fusionGaugePressureMpa: plan.fusionGaugePressureMpa.min - 0.03 }).findings).toMatchObject([{ parameter: 'fusionPressure', kind: 'below-minimum' }]);
+  });
+  test('bead has no instrument tolerance: 0.45 mm fails a 0.5 mm minimum', () => {
+    const smallBead = { ...withInstrument, minBeadMm: 0.5 };
+    expect(checkJoint(smallBead, { ...good, beadMm: 0.45 }).findings).toMatchObject([{ parameter: 'bead', kind: 'below-minimum', measured: 0.45 }]);
+    expect(checkJoint(smallBead, { ...good, beadMm: 0.5 }).findings).toEqual([]);
+  });
+  test('durations have no tolerance: 396.6 s fails the 397 s cooling minimum (11 min/in × 0.602 in)', () => {
+    expect(checkJoint(withInstrument, { ...good, coolingS: 396.6 }).findings).toMatchObject([{ parameter: 'cooling', kind: 'below-minimum' }]);
+  });
+});
+
+// The heater surface read with a pyrometer is checked against the heater window apart from
+// the dial (PPI: the dial is only a general indicator); misalignment (hi-lo) at most 10 % of
+// the wall (a PE pipe maker's fusion guide): 10 % of 0.602 in = 0.0602 in = 1.529 mm.
+describe('heater surface and misalignment as measured values', () => {
+  test('a surface reading inside 400–450 °F passes; over it is a heater finding of its own', () => {
+    expect(checkJoint(plan, { ...good, heaterSurfaceTemperatureC: 220 }).findings).toEqual([]);
+    const { findings } = checkJoint(plan, { ...good, heaterSurfaceTemperatureC: 240 });
+    expect(findings).toEqual([
+      { parameter: 'heaterTemperature', kind: 'above-maximum', measured: 240, limit: plan.heaterTemperatureC, message: 'Heater surface temperature 240 °C is above the 204–232 °C window (pyrometer reading)' },
+    ]);
+  });
+  test('not recorded is not a finding', () => {
+    expect(checkJoint(plan, { ...good, heaterSurfaceTemperatureC: null, misalignmentMm: null }).findings).toEqual([]);
+  });
+  test('1.5 mm hi-lo on a 0.602 in wall passes; 1.6 mm is over the 1.529 mm maximum', () => {
+    expect(checkJoint(plan, { ...good, misalignmentMm: 1.5 }).findings).toEqual([]);
+    expect(checkJoint(plan, { ...good, misalignmentMm: 1.6 }).findings).toMatchObject([
+      { parameter: 'alignment', kind: 'above-maximum', measured: 1.6, limit: { min: null, max: 0.1 * inToMm(0.602) } },
+    ]);
+  });
+  test('the yes/no alignment check stays: a failed check and a recorded hi-lo inside the limit', () => {
+    expect(checkJoint(plan, { ...good, alignmentOk: false, misalignmentMm: 1 }).findings).toMatchObject([{ parameter: 'alignment', kind: 'check-failed' }]);
+  });
+});
+
+describe('the machine instrument copied into the plan', () => {
+  test('withInstrument attaches the resolutions; unknown ones are null (no tolerance)', async () => {
+    const { withInstrument, readingTolerance } = await import('@/domain/fusion/instrument');
+    expect(withInstrument(plan, { gaugeResolutionMpa: 0.05, thermometerResolutionC: null }).instrument).toEqual({ gaugeResolutionMpa: 0.05, thermometerResolutionC: null });
+    expect(readingTolerance(0.1)).toBe(0.05);
+    expect(readingTolerance(null)).toBe(0);
+  });
+});

@@ -16,6 +16,8 @@ export const DEMO_JOINT_VALUES: RecordedValues = {
   beadMm: 3,
   heatSoakS: 90,
   heatSoakGaugePressureMpa: null,
+  heaterSurfaceTemperatureC: null,
+  misalignmentMm: null,
   changeoverS: 5,
   coolingS: 600,
   ...allChecksPassed(),

@@ -27,6 +27,8 @@ export function machineFields(input: CreateMachineInput) {
     minOdMm: input.minOdMm,
     maxOdMm: input.maxOdMm,
     pistonAreaMm2: input.pistonAreaMm2,
+    gaugeResolutionMpa: input.gaugeResolutionMpa,
+    thermometerResolutionC: input.thermometerResolutionC,
     lastServiceOn: input.lastServiceOn ?? null,
     nextServiceDue: input.nextServiceDue ?? null,
   };

@@ -1,6 +1,7 @@
 // The pressure plan for a pipe on a machine under a job's current procedure version: the
 // use case behind GET /api/v1/fusion-plan (the Trench screen computes the same plan on the
 // device with the same domain function, so it works without signal).
+import { withInstrument } from "@/domain/fusion/instrument";
 import "server-only";
 import { findCoilByCodeOrTrace } from "@/database/queries/coils";
 import { findMachineById } from "@/database/queries/equipment";
@@ -57,7 +58,7 @@ export async function fusionPlanFor(q: FusionPlanQuery, user: UserRecord): Promi
     coilCode = coil.coilCode;
   }
   // An impossible pipe for this procedure throws a DomainError: the wrapper answers 422.
-  const plan = planButtFusion(buttFusionPlanInput({ procedure: version.definition, pipe: { outsideDiameterMm: od as number, sdr: sdr as number }, machine: { pistonAreaMm2: machine.pistonAreaMm2 as number }, dragPressureMpa: q.dragPressureMpa }));
+  const plan = withInstrument(planButtFusion(buttFusionPlanInput({ procedure: version.definition, pipe: { outsideDiameterMm: od as number, sdr: sdr as number }, machine: { pistonAreaMm2: machine.pistonAreaMm2 as number }, dragPressureMpa: q.dragPressureMpa })), machine);
   return {
     procedure: { versionId: version.id, code: version.procedureCode, name: version.procedureName, versionNo: version.versionNo, label: version.definition.label },
     machine: { id: machine.id, assetTag: machine.assetTag, pistonAreaMm2: machine.pistonAreaMm2 as number },

@@ -6,6 +6,7 @@
 // the inspectors' alert in ONE transaction. Joint numbers come from the job's counter row
 // locked FOR UPDATE, so they are gap-free under concurrent submissions. A client id seen
 // before returns the joint it made (idempotent), also when two copies race.
+import { withInstrument } from "@/domain/fusion/instrument";
 import "server-only";
 import type { Knex } from "knex";
 import { db, isDuplicateKey } from "@/database/client";
@@ -175,7 +176,7 @@ async function prepare(input: RecordJointInput, user: UserRecord, madeAt: Date):
   }
 
   // An impossible pipe for this procedure throws a DomainError: the wrapper answers 422.
-  const plan = planButtFusion(buttFusionPlanInput({ procedure: version.definition, pipe: coilA, machine: { pistonAreaMm2: machine.pistonAreaMm2 as number }, dragPressureMpa: input.dragPressureMpa }));
+  const plan = withInstrument(planButtFusion(buttFusionPlanInput({ procedure: version.definition, pipe: coilA, machine: { pistonAreaMm2: machine.pistonAreaMm2 as number }, dragPressureMpa: input.dragPressureMpa })), machine);
   // The server's own check, messages in SI for the record (screens re-check in their units).
   const check = checkJoint(plan, pickRecordedValues(input), { system: "si" });
   return { plan, check, coilA, coilB, procedureVersionId: version.id, jobCode: job.code, covered };

@@ -41,7 +41,7 @@ export async function loadTrenchSetup(user: UserRecord, now = new Date()): Promi
         failedOn: failures.filter((f) => f.procedureId === j.procedureId).map((f) => f.failedOn),
       };
     }),
-    machines: machines.map((m) => ({ id: m.id, assetTag: m.assetTag, description: m.description, pistonAreaMm2: m.pistonAreaMm2, minOdMm: m.minOdMm, maxOdMm: m.maxOdMm, isUsable: m.isUsable, problems: m.problems })),
+    machines: machines.map((m) => ({ id: m.id, assetTag: m.assetTag, description: m.description, pistonAreaMm2: m.pistonAreaMm2, gaugeResolutionMpa: m.gaugeResolutionMpa, thermometerResolutionC: m.thermometerResolutionC, minOdMm: m.minOdMm, maxOdMm: m.maxOdMm, isUsable: m.isUsable, problems: m.problems })),
     heaters: heaters.map((h) => ({ id: h.id, assetTag: h.assetTag, description: h.description, isActive: h.isActive, lastCheck: h.lastCheck ? { passed: h.lastCheck.passed, nextDueOn: h.lastCheck.nextDueOn, checkedAt: h.lastCheck.checkedAt.toISOString() } : null })),
     coils: coils.map(toTrenchCoil),
     overrides: overrides.map((o) => ({ id: o.id, jobId: o.jobId, subjectType: o.subjectType, subjectId: o.subjectId, subjectLabel: o.subjectLabel, reason: o.reason, grantedById: o.grantedById, grantedByName: o.grantedByName, grantedAt: o.grantedAt.toISOString(), expiresAt: o.expiresAt.toISOString() })),

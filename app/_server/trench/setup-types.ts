@@ -56,7 +56,7 @@ export type TrenchJob = {
   failedOn: string[];
 };
 
-export type TrenchMachine = { id: number; assetTag: string; description: string | null; pistonAreaMm2: number | null; minOdMm: number | null; maxOdMm: number | null; isUsable: boolean; problems: string[] };
+export type TrenchMachine = { id: number; assetTag: string; description: string | null; pistonAreaMm2: number | null; gaugeResolutionMpa: number | null; thermometerResolutionC: number | null; minOdMm: number | null; maxOdMm: number | null; isUsable: boolean; problems: string[] };
 
 export type TrenchHeater = { id: number; assetTag: string; description: string | null; isActive: boolean; lastCheck: { passed: boolean; nextDueOn: string; checkedAt: string } | null };
 

@@ -9,28 +9,37 @@ import type { z } from "zod";
 import { Field } from "@/components/form/field";
 import { type FormOutcome } from "@/components/form/form-frame";
 import { createMachineSchema } from "@/domain/equipment/schemas";
+import { DEFAULT_INSTRUMENT_RESOLUTION } from "@/domain/fusion/instrument";
 import { unitLabel, type UnitSystem } from "@/domain/units/format";
 import { createMachineAction, updateMachineAction } from "../actions";
 import { AssetFields } from "./asset-fields";
 import { AssetFormFrame } from "./asset-form-frame";
+import { resolutionEditValue } from "./format";
 import { applyActionResult } from "@/components/form/controls";
 
 type Input = z.input<typeof createMachineSchema>;
 type Output = z.output<typeof createMachineSchema>;
-const FIELDS = ["assetTag", "description", "minOd", "maxOd", "pistonArea", "lastServiceOn", "nextServiceDue", "isActive"] as const;
+const FIELDS = ["assetTag", "description", "minOd", "maxOd", "pistonArea", "gaugeResolution", "thermometerResolution", "lastServiceOn", "nextServiceDue", "isActive"] as const;
 
 export function MachineForm({ units, machine }: { units: UnitSystem; machine?: { id: number; version: number; isActive: boolean; values: Omit<Input, "units"> } }) {
   const router = useRouter();
   const [message, setMessage] = useState<FormOutcome>(null);
   const [isActive, setIsActive] = useState(machine?.isActive ?? true);
+  // A new machine starts at the common-practice resolutions (domain/fusion/instrument).
+  const newDefaults = {
+    gaugeResolution: resolutionEditValue(DEFAULT_INSTRUMENT_RESOLUTION.gaugeResolutionMpa, "pressure", units),
+    thermometerResolution: resolutionEditValue(DEFAULT_INSTRUMENT_RESOLUTION.thermometerResolutionC, "temperature", units),
+  };
   const { register, handleSubmit, formState, setError, reset, getValues } = useForm<Input, unknown, Output>({
     resolver: zodResolver(createMachineSchema),
-    defaultValues: { ...(machine?.values ?? {}), units },
+    defaultValues: { ...(machine?.values ?? newDefaults), units },
   });
   const prefix = machine ? `machine-${machine.id}` : "new-machine";
   const e = formState.errors;
   const length = unitLabel("length-mm", units);
   const area = unitLabel("area", units);
+  const pressure = unitLabel("pressure", units);
+  const temperature = unitLabel("temperature", units);
 
   const onSubmit = handleSubmit(async () => {
     setMessage(null);
@@ -39,7 +48,7 @@ export function MachineForm({ units, machine }: { units: UnitSystem; machine?: {
     const result = machine ? await updateMachineAction({ ...typed, units, id: machine.id, version: machine.version, isActive }) : await createMachineAction({ ...typed, units });
     if (result.ok) {
       setMessage({ text: machine ? "Machine saved." : `Machine ${typed.assetTag} added.`, tone: "success" });
-      if (!machine) reset({ units });
+      if (!machine) reset({ ...newDefaults, units });
       router.refresh();
     } else setMessage({ text: applyActionResult(result, setError, FIELDS) ?? result.message, tone: "error" });
   });
@@ -61,6 +70,24 @@ export function MachineForm({ units, machine }: { units: UnitSystem; machine?: {
           error={e.pistonArea?.message}
         />
         <div />
+        <Field
+          id={`${prefix}-gauge-resolution`}
+          label="Gauge resolution"
+          unit={pressure}
+          numeric
+          hint="The smallest step the gauge is read to. A pressure within half a step of a limit passes; blank: no tolerance."
+          {...register("gaugeResolution")}
+          error={e.gaugeResolution?.message}
+        />
+        <Field
+          id={`${prefix}-thermometer-resolution`}
+          label="Thermometer resolution"
+          unit={temperature}
+          numeric
+          hint="The smallest step the heater thermometer or pyrometer reads. A temperature within half a step of a limit passes; blank: no tolerance."
+          {...register("thermometerResolution")}
+          error={e.thermometerResolution?.message}
+        />
         <Field id={`${prefix}-last-service`} label="Last service date" type="date" {...register("lastServiceOn")} error={e.lastServiceOn?.message} />
         <Field id={`${prefix}-next-service`} label="Next service due" type="date" {...register("nextServiceDue")} error={e.nextServiceDue?.message} />
       </div>

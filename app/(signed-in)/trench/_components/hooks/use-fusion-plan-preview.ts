@@ -2,6 +2,7 @@
 // The pressure plan shown while the joint is set up: the job's procedure, the machine's
 // piston area, coil A's size and the measured drag pressure give the gauge pressures and
 // the phase limits; until then, the one thing still missing is named.
+import { withInstrument } from "@/domain/fusion/instrument";
 import { useMemo } from "react";
 import { planButtFusion, type FusionPlan } from "@/domain/fusion/plan";
 import { buttFusionPlanInput, noPublishedVersionMessage } from "@/domain/joints/pre-record";
@@ -29,7 +30,7 @@ export function useFusionPlanPreview(setup: TrenchSetup, { jobId, machineId, hea
     if (!coilA) return { plan: null, planProblem: "Scan or type coil A: its size sets the plan." };
     if (typeof drag !== "number") return { plan: null, planProblem: "Enter the drag pressure you measured to see the gauge pressures to set." };
     try {
-      return { plan: planButtFusion(buttFusionPlanInput({ procedure: job.procedure.definition, pipe: coilA, machine: { pistonAreaMm2: machine.pistonAreaMm2 }, dragPressureMpa: drag })), planProblem: null };
+      return { plan: withInstrument(planButtFusion(buttFusionPlanInput({ procedure: job.procedure.definition, pipe: coilA, machine: { pistonAreaMm2: machine.pistonAreaMm2 }, dragPressureMpa: drag })), machine), planProblem: null };
     } catch (error) {
       return { plan: null, planProblem: (error as Error).message };
     }
