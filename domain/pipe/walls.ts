@@ -96,7 +96,7 @@ export function metricMinimumWallMm(outsideDiameterMm: number, sdr: number): num
 }
 
 // ASTM F2897-23a Table 6 (size factors) lists these IPS walls, in inches, keyed
-// 'nominal@DR' [CONFIRMED-2nd: read in a public transcription of the table]. The gas DRs
+// 'nominal@DR' [CONFIRMED-2nd: read in a public reproduction of the table]. The gas DRs
 // 9.3, 9.9, 10, 11.5 and 15.5 appear only here. 'D' marks the fixed 0.090 in wall.
 const F2897_IPS_WALLS_IN: Readonly<Record<string, number>> = {
   '1/2@9.3': 0.09, '1/2@11': 0.076, '3/4@11': 0.095, '3/4@D': 0.09,
@@ -109,8 +109,8 @@ const F2897_IPS_WALLS_IN: Readonly<Record<string, number>> = {
   '6@11': 0.602, '6@11.5': 0.576, '6@13.5': 0.491, '6@17': 0.39, '6@21': 0.315,
   '8@11': 0.784, '8@11.5': 0.75, '8@13.5': 0.639, '8@17': 0.507, '8@21': 0.411,
   '10@11': 0.977, '10@11.5': 0.935, '10@13.5': 0.796, '10@17': 0.632, '10@21': 0.512,
-  // 12" DR 13.5 reads "0.994" in the transcription beside "(23.98)" mm; 23.98 mm is 0.944 in
-  // and 12.75/13.5 = 0.944, so 0.994 is taken as a transcription slip.
+  // 12" DR 13.5 reads "0.994" in the reproduction beside "(23.98)" mm; 23.98 mm is 0.944 in
+  // and 12.75/13.5 = 0.944, so 0.994 is taken as a reproduction slip.
   '12@11': 1.159, '12@11.5': 1.109, '12@13.5': 0.944, '12@17': 0.75, '12@21': 0.607,
   '14@11': 1.273, '14@13.5': 1.037, '14@17': 0.824, '14@21': 0.667,
   '16@11': 1.455, '16@13.5': 1.185, '16@17': 0.941, '16@21': 0.762,
@@ -130,7 +130,7 @@ export const IPS_FIXED_WALL_IN = 0.09;
 const IPS_FIXED_WALL_SIZES: readonly string[] = ['3/4', '1', '1-1/4', '1-1/2'];
 
 // CTS tubing is made by wall, not DR: ASTM F2897-23a Table 6 lists these walls (in) per size
-// [CONFIRMED-2nd, public transcription]. The transcription also lists a "1 3/4 CTS 0.062" row,
+// [CONFIRMED-2nd, public reproduction]. The reproduction also lists a "1 3/4 CTS 0.062" row,
 // not a size of our catalogue; left out (unconfirmed).
 export const CTS_WALLS_IN: Readonly<Record<string, readonly number[]>> = {
   '1/4': [0.062],

@@ -4,9 +4,9 @@
 // Status (of the code and its label): 'confirmed' where both were read in the text of
 // F2897-23a (pipe 10–13, couplings 20/21/23/25, end cap 41, elbows 51/5A, tee 61, reducer 71,
 // tapping tee 81, valve V1, excess-flow valve EF); 'confirmed-2nd' for the rest, read only in
-// a public transcription of Table 5 kept beside a public copy of the standard. For 1A–1M,
+// a public reproduction of Table 5 kept beside a public copy of the standard. For 1A–1M,
 // T0–T3, TX and R0–R6 the codes themselves were read in the text but their individual
-// meanings only in the transcription, so their labels are 'confirmed-2nd'. The letter codes
+// meanings only in the reproduction, so their labels are 'confirmed-2nd'. The letter codes
 // skip I and O where the table does (1I, 5I, 8I, 8O are not codes).
 
 import type { ValueStatus } from '@/domain/sources';

@@ -197,7 +197,7 @@ describe('IPS minimum wall = OD/SDR rounded to 0.001 in', () => {
     expect(ipsMinimumWallIn(nominal, sdr)).toBe(wall);
   });
   test.each([
-    // source: ASTM F2897-23a Table 6 gas DRs (CONFIRMED-2nd, read in a public transcription of the table)
+    // source: ASTM F2897-23a Table 6 gas DRs (CONFIRMED-2nd, read in a public reproduction of the table)
     ['1/2', 9.3, 0.09],
     ['1', 9.9, 0.133],
     ['1-1/4', 9.33, 0.178],
@@ -230,7 +230,7 @@ describe('IPS minimum wall = OD/SDR rounded to 0.001 in', () => {
 
 describe('CTS walls', () => {
   test.each([
-    // source: ASTM F2897-23a Table 6 CTS walls (CONFIRMED-2nd, public transcription of the table)
+    // source: ASTM F2897-23a Table 6 CTS walls (CONFIRMED-2nd, public reproduction of the table)
     ['1/2', 0.09],
     ['1/2', 0.104],
     ['3/4', 0.077],

@@ -111,7 +111,7 @@ describe('tables', () => {
     ['V1', 'valve, ball', 'confirmed'],
     ['EF', 'excess-flow valve', 'confirmed'],
     // source: ASTM F2897-23a Table 5: codes 1A–1M, T0–T3, TX, R0–R6 read in the text (CONFIRMED); their individual
-    // meanings, and every other code, read only in a public transcription of the table (CONFIRMED-2nd).
+    // meanings, and every other code, read only in a public reproduction of the table (CONFIRMED-2nd).
     // TX is the butt-fusion socket-weld transition, not "other".
     ['1A', 'pipe, steel line pipe, seamless, API 5L PSL1, single coat', 'confirmed-2nd'],
     ['1M', 'pipe, steel line pipe, high-frequency welded, API 5L PSL2, dual coat', 'confirmed-2nd'],
@@ -141,7 +141,7 @@ describe('tables', () => {
     expect(() => buildTraceCode({ manufacturer: 'AB', lot: '1', productionDate: '2012-09-01', material: 'H', componentType: code, sizeFactors: null })).toThrow(/is not a known ASTM F2897 Table 5 code/);
   });
   test('the table has every group and 211 codes', () => {
-    // source: ASTM F2897-23a Table 5 (groups as in the table; count of codes in the public transcription)
+    // source: ASTM F2897-23a Table 5 (groups as in the table; count of codes in the public reproduction)
     const groups = new Set(Object.values(COMPONENT_TYPES).map((type) => type.group));
     expect([...groups]).toEqual([
       'pipe', 'coupling', 'adapter coupling', 'end cap', 'elbow', 'tee', 'reducer', 'tapping tee', 'high-volume tapping tee',
