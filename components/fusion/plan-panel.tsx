@@ -5,12 +5,25 @@ import type { FusionPlan } from "@/domain/fusion/plan";
 import { describeStatus, type Sourced } from "@/domain/sources";
 import { formatQuantity, formatRange, type UnitSystem } from "@/domain/units/format";
 
-function Row({ name, value, source }: { name: string; value: string; source?: Sourced | null }) {
+/** Where the value's source and status are shown: beside it (inspectors, admins) or in one details line at the bottom (the fuser's phone screen). */
+export type PlanSourcesPlacement = "inline" | "details";
+
+// No pulling, installing or rough handling for 30 minutes after removal from the machine
+// (PPI generic butt-fusion procedure, as reproduced in a pipe maker's manual). The plan has no field for it.
+const HANDLING_WAIT: Sourced = { source: "PPI generic butt-fusion procedure, as reproduced in a pipe maker's manual", status: "confirmed-2nd" };
+
+interface Limit {
+  name: string;
+  value: string;
+  source?: Sourced | null;
+}
+
+function Row({ name, value, source, inline }: Limit & { inline: boolean }) {
   return (
     <div className="flex flex-col border-b border-slate-200 py-2 last:border-0">
       <dt className="text-sm font-semibold text-slate-700">{name}</dt>
       <dd className="text-xl font-bold text-ink">{value}</dd>
-      {source ? (
+      {inline && source ? (
         <dd className="text-xs text-slate-700">
           {source.source} ({describeStatus(source.status)})
         </dd>
@@ -19,8 +32,37 @@ function Row({ name, value, source }: { name: string; value: string; source?: So
   );
 }
 
-export function PlanPanel({ plan, system, procedure }: { plan: FusionPlan; system: UnitSystem; procedure: string }) {
+export function PlanPanel({ plan, system, procedure, sources = "inline" }: { plan: FusionPlan; system: UnitSystem; procedure: string; sources?: PlanSourcesPlacement }) {
   const q = (v: number | null, kind: Parameters<typeof formatQuantity>[1], none: string) => (v === null ? none : formatQuantity(v, kind, system));
+  const limits: Limit[] = [
+    { name: "Bead-up gauge pressure", value: formatRange(plan.beadUpGaugePressureMpa.min, plan.beadUpGaugePressureMpa.max, "pressure", system), source: plan.sources.beadUpPressure },
+    { name: "Fusion gauge pressure", value: formatRange(plan.fusionGaugePressureMpa.min, plan.fusionGaugePressureMpa.max, "pressure", system), source: plan.sources.fusionPressure },
+  ];
+  if (plan.coolingGaugePressureMpa) {
+    limits.push({ name: "Cooling gauge pressure", value: formatRange(plan.coolingGaugePressureMpa.min, plan.coolingGaugePressureMpa.max, "pressure", system), source: plan.sources.coolingPressure });
+  }
+  // Plans stored before the heat-soak pressure was checked have no such field (undefined).
+  if (plan.maxHeatSoakGaugePressureMpa !== undefined && plan.maxHeatSoakGaugePressureMpa !== null) {
+    limits.push({ name: "Heat-soak gauge pressure", value: `at drag, at most ${formatQuantity(plan.maxHeatSoakGaugePressureMpa, "pressure", system)}`, source: plan.sources.heatSoakPressure });
+  }
+  limits.push(
+    { name: "Heater temperature at the face", value: formatRange(plan.heaterTemperatureC.min, plan.heaterTemperatureC.max, "temperature", system), source: plan.sources.heaterTemperature },
+    { name: "Minimum bead", value: q(plan.minBeadMm, "length-mm", "not defined"), source: plan.sources.bead },
+    {
+      name: "Heat soak",
+      value: plan.heatSoakTargetS !== null ? `target ${formatQuantity(plan.heatSoakTargetS, "duration", system)}` : plan.heatSoakS ? formatRange(plan.heatSoakS.min, plan.heatSoakS.max, "duration", system) : "ends when the bead reaches size",
+      source: plan.sources.heatSoak,
+    },
+    { name: "Maximum changeover", value: q(plan.maxChangeoverS, "duration", "as fast as possible"), source: plan.sources.changeover },
+  );
+  if (plan.pressureBuildUpS !== null) {
+    limits.push({ name: "Maximum pressure build-up", value: formatQuantity(plan.pressureBuildUpS, "duration", system), source: plan.sources.pressureBuildUp });
+  }
+  limits.push(
+    { name: "Minimum cooling under pressure", value: q(plan.minCoolingS, "duration", "not defined"), source: plan.sources.cooling },
+    { name: "Handling after cooling", value: "no pulling or rough handling for 30 minutes after removal from the machine", source: HANDLING_WAIT },
+  );
+  const inline = sources === "inline";
   return (
     <section aria-label="Pressure plan" className="rounded-md border-2 border-brand bg-brand-light p-3">
       <h3 className="text-lg font-bold text-brand-dark">Set these on the machine</h3>
@@ -28,18 +70,9 @@ export function PlanPanel({ plan, system, procedure }: { plan: FusionPlan; syste
         {procedure} · {plan.procedureLabel} · pipe OD {formatQuantity(plan.outsideDiameterMm, "length-mm", system)}, SDR {plan.sdr}, wall {formatQuantity(plan.wallMm, "length-mm", system)} · drag {formatQuantity(plan.dragPressureMpa, "pressure", system)}
       </p>
       <dl>
-        <Row name="Bead-up gauge pressure" value={formatRange(plan.beadUpGaugePressureMpa.min, plan.beadUpGaugePressureMpa.max, "pressure", system)} source={plan.sources.beadUpPressure} />
-        <Row name="Fusion gauge pressure" value={formatRange(plan.fusionGaugePressureMpa.min, plan.fusionGaugePressureMpa.max, "pressure", system)} source={plan.sources.fusionPressure} />
-        {plan.coolingGaugePressureMpa ? <Row name="Cooling gauge pressure" value={formatRange(plan.coolingGaugePressureMpa.min, plan.coolingGaugePressureMpa.max, "pressure", system)} source={plan.sources.coolingPressure} /> : null}
-        <Row name="Heater temperature at the face" value={formatRange(plan.heaterTemperatureC.min, plan.heaterTemperatureC.max, "temperature", system)} source={plan.sources.heaterTemperature} />
-        <Row name="Minimum bead" value={q(plan.minBeadMm, "length-mm", "not defined")} source={plan.sources.bead} />
-        <Row
-          name="Heat soak"
-          value={plan.heatSoakTargetS !== null ? `target ${formatQuantity(plan.heatSoakTargetS, "duration", system)}` : plan.heatSoakS ? formatRange(plan.heatSoakS.min, plan.heatSoakS.max, "duration", system) : "ends when the bead reaches size"}
-          source={plan.sources.heatSoak}
-        />
-        <Row name="Maximum changeover" value={q(plan.maxChangeoverS, "duration", "as fast as possible")} source={plan.sources.changeover} />
-        <Row name="Minimum cooling under pressure" value={q(plan.minCoolingS, "duration", "not defined")} source={plan.sources.cooling} />
+        {limits.map((l) => (
+          <Row key={l.name} {...l} inline={inline} />
+        ))}
       </dl>
       {plan.notes.length ? (
         <ul className="mt-2 list-disc pl-5 text-sm text-ink">
@@ -48,6 +81,18 @@ export function PlanPanel({ plan, system, procedure }: { plan: FusionPlan; syste
           ))}
         </ul>
       ) : null}
+      {inline ? null : (
+        <details className="mt-2 text-sm text-ink">
+          <summary className="cursor-pointer font-semibold text-brand-dark">Where these limits come from</summary>
+          <ul className="mt-1 list-disc pl-5">
+            {limits.map((l) => (
+              <li key={l.name}>
+                {l.name}: {l.source ? `${l.source.source} (${describeStatus(l.source.status)})` : "no source recorded"}
+              </li>
+            ))}
+          </ul>
+        </details>
+      )}
     </section>
   );
 }

@@ -194,7 +194,7 @@ export default async function JointPage({ params }: Params) {
       </SectionCard>
 
       <SectionCard id="plan-heading" title="The plan it was checked against" className="flex flex-col gap-2">
-        <PlanPanel plan={joint.plan} system={system} procedure={`${joint.procedureCode} v${joint.procedureVersionNo}`} />
+        <PlanPanel plan={joint.plan} system={system} procedure={`${joint.procedureCode} v${joint.procedureVersionNo}`} sources="inline" />
       </SectionCard>
 
       <SectionCard id="revisions-heading" title="Revisions">

@@ -152,7 +152,7 @@ export function TrenchScreen({ setup }: { setup: TrenchSetup }) {
           {quantitiesAskedIn("machine").map((d) => (
             <RecordedValueField key={d.key} definition={d} control={control} system={system} error={err(d.key)} />
           ))}
-          {plan && job?.procedure ? <PlanPanel plan={plan} system={system} procedure={`${job.procedure.code} v${job.procedure.versionNo}`} /> : <p className="rounded-md border-2 border-slate-300 bg-white p-3 text-ink">{planProblem}</p>}
+          {plan && job?.procedure ? <PlanPanel plan={plan} system={system} procedure={`${job.procedure.code} v${job.procedure.versionNo}`} sources="details" /> : <p className="rounded-md border-2 border-slate-300 bg-white p-3 text-ink">{planProblem}</p>}
         </fieldset>
 
         <fieldset className="flex flex-col gap-4">
