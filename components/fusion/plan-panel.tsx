@@ -63,6 +63,8 @@ export function PlanPanel({ plan, system, procedure, sources = "inline" }: { pla
     { name: "Handling after cooling", value: "no pulling or rough handling for 30 minutes after removal from the machine", source: HANDLING_WAIT },
   );
   const inline = sources === "inline";
+  // The handling wait is a row of its own above; a procedure note saying the same is not repeated.
+  const notes = plan.notes.filter((n) => !/rough handling/i.test(n));
   return (
     <section aria-label="Pressure plan" className="rounded-md border-2 border-brand bg-brand-light p-3">
       <h3 className="text-lg font-bold text-brand-dark">Set these on the machine</h3>
@@ -74,9 +76,9 @@ export function PlanPanel({ plan, system, procedure, sources = "inline" }: { pla
           <Row key={l.name} {...l} inline={inline} />
         ))}
       </dl>
-      {plan.notes.length ? (
+      {notes.length ? (
         <ul className="mt-2 list-disc pl-5 text-sm text-ink">
-          {plan.notes.map((n) => (
+          {notes.map((n) => (
             <li key={n}>{n}</li>
           ))}
         </ul>
