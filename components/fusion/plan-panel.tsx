@@ -2,15 +2,13 @@
 // user's units: gauge pressures to set, heater window, minimum bead, heat-soak target,
 // maximum changeover, minimum cooling — and where each value comes from.
 import type { FusionPlan } from "@/domain/fusion/plan";
+import { HANDLING_WAIT_MINUTES, HANDLING_WAIT_NOTE, HANDLING_WAIT_SOURCE } from "@/domain/procedures/handling";
 import { describeStatus, type Sourced } from "@/domain/sources";
 import { formatQuantity, formatRange, type UnitSystem } from "@/domain/units/format";
 
 /** Where the value's source and status are shown: beside it (inspectors, admins) or in one details line at the bottom (the fuser's phone screen). */
 export type PlanSourcesPlacement = "inline" | "details";
 
-// No pulling, installing or rough handling for 30 minutes after removal from the machine
-// (PPI generic butt-fusion procedure, as reproduced in a pipe maker's manual). The plan has no field for it.
-const HANDLING_WAIT: Sourced = { source: "PPI generic butt-fusion procedure, as reproduced in a pipe maker's manual", status: "confirmed-2nd" };
 
 interface Limit {
   name: string;
@@ -60,11 +58,11 @@ export function PlanPanel({ plan, system, procedure, sources = "inline" }: { pla
   }
   limits.push(
     { name: "Minimum cooling under pressure", value: q(plan.minCoolingS, "duration", "not defined"), source: plan.sources.cooling },
-    { name: "Handling after cooling", value: "no pulling or rough handling for 30 minutes after removal from the machine", source: HANDLING_WAIT },
+    { name: "Handling after cooling", value: `no pulling or rough handling for ${HANDLING_WAIT_MINUTES} minutes after removal from the machine`, source: HANDLING_WAIT_SOURCE },
   );
   const inline = sources === "inline";
   // The handling wait is a row of its own above; a procedure note saying the same is not repeated.
-  const notes = plan.notes.filter((n) => !/rough handling/i.test(n));
+  const notes = plan.notes.filter((n) => n !== HANDLING_WAIT_NOTE);
   return (
     <section aria-label="Pressure plan" className="rounded-md border-2 border-brand bg-brand-light p-3">
       <h3 className="text-lg font-bold text-brand-dark">Set these on the machine</h3>

@@ -1,6 +1,7 @@
 // ASTM F2620 butt-fusion parameter windows, each value with its source and status.
 
 import { fToC, inToMm, MM_PER_IN, psiToMpa } from '@/domain/units/conversions';
+import { HANDLING_WAIT_NOTE } from '@/domain/procedures/handling';
 import { inBand } from '@/domain/procedures/helpers';
 import type { ProcedureDefinition } from '@/domain/procedures/types';
 
@@ -92,7 +93,7 @@ export const ASTM_F2620: ProcedureDefinition = {
   },
   notes: [
     'Heat soak is ended by bead size, not by a fixed time (PPI "Melt Procedure" page, confirmed).',
-    'After cooling in the machine, avoid pulling, installation or rough handling for another 30 minutes (confirmed in a reproduction).',
+    HANDLING_WAIT_NOTE,
     'The bead measured is the melt bead at the heater: its size at the end of bead-up/heat soak, before the heater is removed (PPI "Melt Procedure" page).',
     'For walls under 0.17 in the heater-removal table gives no value: the operator limit of 8 s applies (remove the heater as fast as possible).',
   ],
