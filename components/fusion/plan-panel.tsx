@@ -4,6 +4,9 @@
 import type { FusionPlan } from "@/domain/fusion/plan";
 import { HANDLING_WAIT_MINUTES, HANDLING_WAIT_NOTE, HANDLING_WAIT_SOURCE } from "@/domain/procedures/handling";
 import { describeStatus, type Sourced } from "@/domain/sources";
+import { SHELTER_PHRASES } from "@/domain/joints/shelters";
+import { adjustedMinCoolingS } from "@/domain/procedures/weather";
+import { describeWallSource } from "@/domain/pipe/walls";
 import { formatQuantity, formatRange, type UnitSystem } from "@/domain/units/format";
 
 /** Where the value's source and status are shown: beside it (inspectors, admins) or in one details line at the bottom (the fuser's phone screen). */
@@ -60,6 +63,24 @@ export function PlanPanel({ plan, system, procedure, sources = "inline" }: { pla
     { name: "Minimum cooling under pressure", value: q(plan.minCoolingS, "duration", "not defined"), source: plan.sources.cooling },
     { name: "Handling after cooling", value: `no pulling or rough handling for ${HANDLING_WAIT_MINUTES} minutes after removal from the machine`, source: HANDLING_WAIT_SOURCE },
   );
+  const weather = plan.weather;
+  if (weather?.ambientRangeC) {
+    limits.push({ name: "Ambient temperature", value: formatRange(weather.ambientRangeC.min, weather.ambientRangeC.max, "temperature", system), source: weather.ambientRangeC });
+  }
+  if (weather?.shelterAlways) limits.push({ name: "Shelter", value: `at least ${SHELTER_PHRASES[weather.shelterAlways.shelter]}`, source: weather.shelterAlways });
+  if (weather?.coldShelter) {
+    limits.push({ name: "Shelter in the cold", value: `at least ${SHELTER_PHRASES[weather.coldShelter.shelter]} below ${formatQuantity(weather.coldShelter.belowC, "temperature", system)}`, source: weather.coldShelter });
+  }
+  if (weather?.coolingAdjustment && plan.minCoolingS !== null) {
+    const a = weather.coolingAdjustment;
+    const warm = adjustedMinCoolingS(plan.minCoolingS, weather, a.referenceC + 10);
+    limits.push({
+      name: "Cooling in warm weather",
+      value: `longer above ${formatQuantity(a.referenceC, "temperature", system)}: at ${formatQuantity(a.referenceC + 10, "temperature", system)}, ${formatQuantity(warm ?? plan.minCoolingS, "duration", system)}`,
+      source: a,
+    });
+  }
+  limits.push({ name: "Wall used for the plan", value: formatQuantity(plan.wallMm, "length-mm", system), source: plan.wallSource?.kind === "table" ? plan.wallSource : { source: describeWallSource(plan.wallSource), status: "operator" } });
   const inline = sources === "inline";
   // The handling wait is a row of its own above; a procedure note saying the same is not repeated.
   const notes = plan.notes.filter((n) => n !== HANDLING_WAIT_NOTE);

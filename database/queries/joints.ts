@@ -230,6 +230,29 @@ export async function listJointsAwaitingRemake({ jobIds, limit = 50 }: { jobIds:
  * A rollback undoes the bump, so a refused joint leaves no gap. Creates the counter row
  * for a job that has none.
  */
+/**
+ * Joints on any of these coils (either side) made from `since` up to `until`, newest first:
+ * the handling wait's look-back when pipe is pulled from a coil. Two index lookups (one per
+ * side), not a scan.
+ */
+export async function listRecentJointsOnCoils(
+  { coilIds, since, until }: { coilIds: number[]; since: Date; until: Date },
+  trx?: Db,
+): Promise<{ coilId: number; jobCode: string; jointNo: number; madeAt: Date }[]> {
+  if (!coilIds.length) return [];
+  const side = (column: "coil_a_id" | "coil_b_id") =>
+    conn(trx)("joints as j")
+      .join("jobs", "jobs.id", "j.job_id")
+      .whereIn(`j.${column}`, coilIds)
+      .where("j.made_at", ">=", since)
+      .where("j.made_at", "<=", until)
+      .select(`j.${column} as coil_id`, "jobs.code as job_code", "j.joint_no", "j.made_at");
+  const rows = [...(await side("coil_a_id")), ...(await side("coil_b_id"))] as { coil_id: number; job_code: string; joint_no: number; made_at: Date }[];
+  return rows
+    .map((r) => ({ coilId: Number(r.coil_id), jobCode: r.job_code, jointNo: Number(r.joint_no), madeAt: new Date(r.made_at) }))
+    .sort((a, b) => b.madeAt.getTime() - a.madeAt.getTime());
+}
+
 export async function takeNextJointNo({ jobId }: { jobId: number }, trx: Knex.Transaction): Promise<number> {
   let row = (await trx("job_counters").where({ job_id: jobId }).forUpdate().first("last_joint_no")) as { last_joint_no: number } | undefined;
   if (!row) {

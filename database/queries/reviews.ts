@@ -2,6 +2,7 @@
 // one joint's evidence (plan, recorded values, photos, pressure trace, revisions), and the
 // writes a decision makes — a new joint revision and the joint_states projection — which
 // the caller puts in one transaction with the audit entry.
+import type { JointConditions } from "@/domain/procedures/weather";
 import type { JointFinding } from "@/domain/fusion/check";
 import type { JointOutcome } from "@/domain/joints/outcomes";
 import type { JointParameter } from "@/domain/fusion/parameters";
@@ -60,6 +61,8 @@ export type ReviewItem = {
   findings: JointFinding[];
   plan: FusionPlan | null;
   recorded: RecordedValues;
+  /** Ambient and shelter recorded with the joint (the plan's weather rules judge them). */
+  conditions: JointConditions;
   photos: PhotoRef[];
   trace: TraceSummary | null;
   replacesJointId: number | null;
@@ -126,6 +129,7 @@ function toItem(r: QueueRow): Omit<ReviewItem, "photos" | "trace"> {
     findings: parseJson<JointFinding[]>(r.findings, []),
     plan,
     recorded: toRecordedValues(r),
+    conditions: { ambientC: num(r.ambient_c), shelter: r.shelter ?? null },
     replacesJointId: num(r.replaces_joint_id),
     replacedByJointId: num(r.replaced_by_joint_id),
   };

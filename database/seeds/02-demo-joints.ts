@@ -123,11 +123,12 @@ export async function seed(knex: Knex, today = new Date()): Promise<void> {
     const plan = planButtFusion(buttFusionPlanInput({ procedure: version.definition, pipe: { outsideDiameterMm: a.od, sdr: a.sdr }, machine: { pistonAreaMm2: Number(eq.machine.piston_area_mm2) }, dragPressureMpa: drag }));
     const v = values(plan, i, replaces ? null : p.fault);
     const recorded = { ...v, dragPressureMpa: drag, beadUpGaugePressureMpa: null, heatSoakGaugePressureMpa: null, heaterSurfaceTemperatureC: null, misalignmentMm: null, ...allChecksPassed() };
-    const check = checkJoint(plan, recorded, { system: "si" });
+    const shelters: Shelter[] = ["windbreak", "none", "tent", "windbreak"];
+    const conditions = { ambientC: 4 + (i % 9), shelter: shelters[i % shelters.length]! };
+    const check = checkJoint(plan, recorded, { system: "si", conditions });
     const jointNo = (counters.get(job.id) ?? 0) + 1;
     counters.set(job.id, jointNo);
     const timed: TimedPhase[] = p.typed ? [] : ["heatSoak", "changeover", "cooling"];
-    const shelters: Shelter[] = ["windbreak", "none", "tent", "windbreak"];
     const lengthAM = Math.round((4 + (i % 5) * 0.8) * 100) / 100;
     const jointId = await insertJoint(
       {
@@ -150,8 +151,7 @@ export async function seed(knex: Knex, today = new Date()): Promise<void> {
         station: p.job === "WO-24117" ? `${Math.floor((i * 37) / 100)}+${String((i * 37) % 100).padStart(2, "0")}` : `Lot ${10 + (i % 9)} service`,
         latitude: null,
         longitude: null,
-        ambientC: 4 + (i % 9),
-        shelter: shelters[i % shelters.length]!,
+        ...conditions,
         ...recorded,
         timedFields: timed,
         plan,

@@ -9,6 +9,8 @@ import type { JointParameter } from '@/domain/fusion/parameters';
 import type { JointOutcome } from '@/domain/joints/outcomes';
 import { jointMeasurements, type RecordedValues } from '@/domain/joints/values';
 import { readingTolerance } from '@/domain/fusion/instrument';
+import { MAX_MISALIGNMENT_WALL_FRACTION } from '@/domain/procedures/alignment';
+import { adjustedMinCoolingS, weatherProblems, type JointConditions } from '@/domain/procedures/weather';
 import {
   formatQuantity,
   formatRange,
@@ -71,6 +73,13 @@ export interface JointMeasurements {
 export interface CheckJointOptions {
   /** Units of the messages; SI by default. */
   system?: UnitSystem;
+  /**
+   * The ambient temperature and shelter recorded with the joint. With them, the plan's
+   * weather rules are checked (ambient range, shelter) and its minimum cooling time grows
+   * in warm weather where the procedure says so; without them (a plan preview, a value
+   * check alone) weather is not judged.
+   */
+  conditions?: JointConditions;
 }
 
 /**
@@ -83,8 +92,7 @@ export function coolingHoldMinimumGaugePressureMpa(plan: FusionPlan): number {
   return plan.coolingGaugePressureMpa ? plan.coolingGaugePressureMpa.min : plan.fusionGaugePressureMpa.min;
 }
 
-/** Outside misalignment (hi-lo) allowed, as a fraction of the wall (PE pipe makers' fusion guides). */
-export const MAX_MISALIGNMENT_WALL_FRACTION = 0.1;
+export { MAX_MISALIGNMENT_WALL_FRACTION } from '@/domain/procedures/alignment';
 
 const isRecorded = (value: number | null | undefined): value is number =>
   typeof value === 'number' && Number.isFinite(value);
@@ -212,7 +220,11 @@ export function checkJoint(plan: FusionPlan, values: JointMeasurements | Recorde
   if (measured.pressureBuildUpS !== undefined) {
     maximumCheck('pressureBuildUp', 'Pressure build-up', measured.pressureBuildUpS, plan.pressureBuildUpS, 'duration', { long: 'longer' }, wallText);
   }
-  minimumCheck('cooling', 'Cooling', measured.coolingS, plan.minCoolingS, 'duration', { short: 'shorter' }, wallText);
+  const minCoolingS = options.conditions ? adjustedMinCoolingS(plan.minCoolingS, plan.weather, options.conditions.ambientC) : plan.minCoolingS;
+  const coolingContext = minCoolingS !== plan.minCoolingS && options.conditions?.ambientC != null
+    ? `${wallText} at ${fmt(options.conditions.ambientC, 'temperature')} ambient (the procedure lengthens cooling in warm weather)`
+    : wallText;
+  minimumCheck('cooling', 'Cooling', measured.coolingS, minCoolingS, 'duration', { short: 'shorter' }, coolingContext);
   if (isRecorded(measured.lowestCoolingGaugePressureMpa)) {
     const lowest = measured.lowestCoolingGaugePressureMpa;
     const min = coolingHoldMinimumGaugePressureMpa(plan);
@@ -238,6 +250,7 @@ export function checkJoint(plan: FusionPlan, values: JointMeasurements | Recorde
   booleanCheck('facing', measured.facingOk, 'Facing check', 'Facing was not confirmed complete and square');
   booleanCheck('alignment', measured.alignmentOk, 'Alignment check', 'Alignment check did not pass');
   booleanCheck('visualBead', measured.visualBeadOk, 'Visual bead check', 'Visual bead check did not pass');
+  if (options.conditions) findings.push(...weatherProblems(plan.weather, options.conditions, system));
 
   return { outcome: findings.length === 0 ? 'within-limits' : 'out-of-limits', findings };
 }

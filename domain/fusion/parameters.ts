@@ -15,7 +15,9 @@ export type JointParameter =
   | 'coolingPressure'
   | 'facing'
   | 'alignment'
-  | 'visualBead';
+  | 'visualBead'
+  | 'ambient'
+  | 'shelter';
 
 export const JOINT_PARAMETERS: readonly JointParameter[] = [
   'heaterTemperature',
@@ -31,6 +33,8 @@ export const JOINT_PARAMETERS: readonly JointParameter[] = [
   'facing',
   'alignment',
   'visualBead',
+  'ambient',
+  'shelter',
 ];
 
 export const PARAMETER_LABELS: Record<JointParameter, string> = {
@@ -47,6 +51,8 @@ export const PARAMETER_LABELS: Record<JointParameter, string> = {
   facing: 'Facing',
   alignment: 'Alignment',
   visualBead: 'Visual bead check',
+  ambient: 'Ambient temperature',
+  shelter: 'Shelter',
 };
 
 /** The Register's name for the same words ("Finding on …"). */

@@ -25,6 +25,8 @@ import {
   type SizeBasis,
   type SizeRule,
   type Window,
+  type WeatherRules,
+  weatherRulesOf,
 } from '@/domain/procedures';
 
 export interface PlanButtFusionInput {
@@ -111,6 +113,12 @@ export interface FusionPlan {
   sources: PlanSources;
   /** The machine's gauge and thermometer resolution (domain/fusion/instrument); absent in plans stored before it, and then no reading tolerance. */
   instrument?: InstrumentResolution;
+  /**
+   * The procedure's weather rules (ambient range, shelter, cooling adjustment), with their
+   * sources; checked against the joint's recorded ambient and shelter. Absent in plans
+   * stored before they were modelled (then nothing is checked).
+   */
+  weather?: WeatherRules | null;
   /** Plain-language notes: the procedure's notes and any value left undefined at this size. */
   notes: string[];
 }
@@ -305,6 +313,7 @@ export function planButtFusion(input: PlanButtFusionInput): FusionPlan {
       pressureBuildUp: sourceOf(w.maxPressureBuildUpS),
       cooling: sourceOf(w.minCoolingS),
     },
+    weather: weatherRulesOf(procedure),
     notes,
   };
 }

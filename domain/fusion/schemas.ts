@@ -115,6 +115,14 @@ const sourcedWindow = z.object({ min: finite, max: finite, ...sourced }).refine(
 const sourcedRule = z.object({ rule: sizeRuleSchema, ...sourced, whereNone: z.object({ value: z.number().positive(), ...sourced }).nullable().optional() });
 const sourcedRange = z.object({ min: finite.nullable(), max: finite.nullable(), ...sourced });
 
+const sourcedShelter = z.object({ shelter: z.enum(['windbreak', 'tent', 'heated-tent']), ...sourced });
+const weatherRules = z.object({
+  ambientRangeC: sourcedRange.nullable(),
+  shelterAlways: sourcedShelter.nullable(),
+  coldShelter: sourcedShelter.extend({ belowC: finite }).nullable(),
+  coolingAdjustment: z.object({ referenceC: finite, percentPerC: z.number().min(0).max(10), ...sourced }).nullable(),
+});
+
 /** A procedure definition as stored in the database (plain JSON). */
 export const procedureDefinitionSchema = z.object({
   standard: z.enum(FUSION_STANDARDS),
@@ -132,6 +140,7 @@ export const procedureDefinitionSchema = z.object({
     minCoolingS: sourcedRule.nullable(),
     wallRangeMm: sourcedRange.nullable(),
     outsideDiameterRangeMm: sourcedRange.nullable(),
+    weather: weatherRules.nullable().optional(),
   }),
   notes: z.array(z.string()),
 });

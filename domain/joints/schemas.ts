@@ -4,6 +4,7 @@
 // numbers: a string "450" is refused here, so an API caller learns of the mistake.
 import { z } from 'zod';
 import { unitLabel } from '@/domain/units/format';
+import { SHELTERS } from '@/domain/joints/shelters';
 import { DEPRECATED_WIRE_NAMES, RECORDED_VALUE_DEFINITIONS, RECORDED_VALUES } from '@/domain/joints/values';
 
 export const JOINT_KINDS = ['coil-to-coil', 'tie-in', 'fitting'] as const;
@@ -15,15 +16,7 @@ export const JOINT_KIND_LABELS: Record<JointKind, string> = {
   fitting: 'Coil to fitting',
 };
 
-export const SHELTERS = ['none', 'windbreak', 'tent', 'heated-tent'] as const;
-export type Shelter = (typeof SHELTERS)[number];
-
-export const SHELTER_LABELS: Record<Shelter, string> = {
-  none: 'None (open air)',
-  windbreak: 'Windbreak',
-  tent: 'Tent',
-  'heated-tent': 'Heated tent',
-};
+export { SHELTERS, SHELTER_LABELS, type Shelter } from '@/domain/joints/shelters';
 
 /** The phases the Trench timer can time; the rest of a record's durations are typed. */
 export const TIMED_PHASES = ['heatSoak', 'changeover', 'cooling'] as const;

@@ -244,3 +244,16 @@ export function tableWallForOutsideDiameter(outsideDiameterMm: number, sdr: numb
   const size = sizeForOutsideDiameter(outsideDiameterMm);
   return size ? tableWall({ series: size.series, nominal: size.nominal, sdr }) : null;
 }
+
+/** Where a plan's wall came from, in words (plans stored before it was kept have none). */
+export function describeWallSource(source: WallSource | undefined): string {
+  if (!source) return 'not recorded with this plan';
+  switch (source.kind) {
+    case 'table':
+      return source.source;
+    case 'given':
+      return 'given with the plan (measured or typed)';
+    case 'od-over-sdr':
+      return 'OD ÷ SDR (no published table lists this size and SDR)';
+  }
+}

@@ -90,6 +90,10 @@ export const ASTM_F2620: ProcedureDefinition = {
     },
     wallRangeMm: null,
     outsideDiameterRangeMm: null,
+    // F2620 / the PPI procedure state no ambient range, shelter or cooling adjustment as a
+    // rule (the PPI page names wind and cold only as causes of heater heat loss): the
+    // operator's version adds its own (Procedures → tighten).
+    weather: { ambientRangeC: null, shelterAlways: null, coldShelter: null, coolingAdjustment: null },
   },
   notes: [
     'Heat soak is ended by bead size, not by a fixed time (PPI "Melt Procedure" page, confirmed).',

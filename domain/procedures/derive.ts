@@ -2,12 +2,15 @@
 
 import { clone } from '@/domain/procedures/helpers';
 import type {
+  WeatherRules,
   ProcedureDefinition,
   SizeRule,
   SourcedRange,
   Window,
 } from '@/domain/procedures/types';
 import { formatQuantity, type QuantityKind, type UnitSystem } from '@/domain/units/format';
+import { SHELTER_PHRASES, shelterAtLeast, type Shelter } from '@/domain/joints/shelters';
+import { weatherRulesOf } from '@/domain/procedures/weather';
 
 /** Narrow a window: a new minimum may only be higher, a new maximum only lower. */
 export interface WindowTightening {
@@ -41,6 +44,20 @@ export interface ProcedureTightening {
   minCoolingS?: MinimumTightening;
   wallRangeMm?: WindowTightening;
   outsideDiameterRangeMm?: WindowTightening;
+  weather?: WeatherTightening;
+}
+
+/**
+ * An operator's weather rules (°C): the ambient range may only narrow, a shelter asked for
+ * only grow, the cold threshold only rise. A cold-shelter rule where the base has none
+ * needs both the temperature and the shelter.
+ */
+export interface WeatherTightening {
+  ambientMinC?: number;
+  ambientMaxC?: number;
+  shelterAlways?: Exclude<Shelter, 'none'>;
+  coldShelter?: Exclude<Shelter, 'none'>;
+  coldShelterBelowC?: number;
 }
 
 /** One refused change, named by field path (e.g. 'heaterTemperatureC.min'). */
@@ -176,6 +193,11 @@ export function deriveProcedure(
     };
   }
 
+  if (tightening.weather) {
+    const weather = tightenWeather(weatherRulesOf(base), tightening.weather, base.label, operatorSource, fmt, errors);
+    if (weather) windows.weather = weather;
+  }
+
   if (errors.length > 0) return { ok: false, errors };
   return {
     ok: true,
@@ -300,4 +322,65 @@ function lowerRule(
     return change.atMost !== undefined ? { kind: 'constant', value: change.atMost } : null;
   }
   return { kind: 'adjusted', rule: current, factor: change.factor ?? 1, atLeast: null, atMost: change.atMost ?? null };
+}
+
+function tightenWeather(
+  current: WeatherRules | null,
+  change: WeatherTightening,
+  baseLabel: string,
+  operatorSource: string,
+  fmt: (value: number, kind: QuantityKind) => string,
+  errors: ProcedureFieldError[],
+): WeatherRules | null {
+  const before = errors.length;
+  const rules: WeatherRules = current ? clone(current) : { ambientRangeC: null, shelterAlways: null, coldShelter: null, coolingAdjustment: null };
+  const t = (v: number) => fmt(v, 'temperature');
+  const within = (sourced: { source: string } | null) => (sourced ? `${operatorSource}; within ${sourced.source}` : operatorSource);
+
+  const range = rules.ambientRangeC;
+  let min = range?.min ?? null;
+  let max = range?.max ?? null;
+  if (change.ambientMinC !== undefined) {
+    if (!isNumber(change.ambientMinC)) errors.push({ field: 'weather.ambientMinC', message: 'Coldest ambient temperature must be a number' });
+    else if (min !== null && change.ambientMinC < min) errors.push({ field: 'weather.ambientMinC', message: `Coldest ambient temperature ${t(change.ambientMinC)} is below the ${t(min)} of ${baseLabel}; a derived procedure may only raise it` });
+    else min = change.ambientMinC;
+  }
+  if (change.ambientMaxC !== undefined) {
+    if (!isNumber(change.ambientMaxC)) errors.push({ field: 'weather.ambientMaxC', message: 'Warmest ambient temperature must be a number' });
+    else if (max !== null && change.ambientMaxC > max) errors.push({ field: 'weather.ambientMaxC', message: `Warmest ambient temperature ${t(change.ambientMaxC)} is above the ${t(max)} of ${baseLabel}; a derived procedure may only lower it` });
+    else max = change.ambientMaxC;
+  }
+  if (errors.length === before && min !== null && max !== null && min > max) {
+    errors.push({ field: 'weather.ambientMinC', message: `Coldest ambient temperature ${t(min)} is above the warmest ${t(max)}` });
+  }
+  if (change.ambientMinC !== undefined || change.ambientMaxC !== undefined) {
+    rules.ambientRangeC = { min, max, source: within(range), status: range ? range.status : 'operator' };
+  }
+
+  if (change.shelterAlways !== undefined) {
+    const was = rules.shelterAlways;
+    if (was && !shelterAtLeast(change.shelterAlways, was.shelter)) {
+      errors.push({ field: 'weather.shelterAlways', message: `${baseLabel} asks for at least ${SHELTER_PHRASES[was.shelter]} at any temperature; a derived procedure may not ask for less` });
+    } else rules.shelterAlways = { shelter: change.shelterAlways, source: within(was), status: was ? was.status : 'operator' };
+  }
+
+  if (change.coldShelter !== undefined || change.coldShelterBelowC !== undefined) {
+    const was = rules.coldShelter;
+    const shelter = change.coldShelter ?? was?.shelter;
+    const belowC = change.coldShelterBelowC ?? was?.belowC;
+    if (change.coldShelterBelowC !== undefined && !isNumber(change.coldShelterBelowC)) {
+      errors.push({ field: 'weather.coldShelterBelowC', message: 'Shelter needed below must be a temperature' });
+    } else if (shelter === undefined) {
+      errors.push({ field: 'weather.coldShelter', message: 'Choose the shelter needed in the cold' });
+    } else if (belowC === undefined) {
+      errors.push({ field: 'weather.coldShelterBelowC', message: 'Give the temperature below which the shelter is needed' });
+    } else if (was && belowC < was.belowC) {
+      errors.push({ field: 'weather.coldShelterBelowC', message: `${baseLabel} asks for shelter below ${t(was.belowC)}; a derived procedure may only raise that temperature` });
+    } else if (was && !shelterAtLeast(shelter, was.shelter)) {
+      errors.push({ field: 'weather.coldShelter', message: `${baseLabel} asks for at least ${SHELTER_PHRASES[was.shelter]} in the cold; a derived procedure may not ask for less` });
+    } else {
+      rules.coldShelter = { belowC, shelter, source: within(was), status: was ? was.status : 'operator' };
+    }
+  }
+  return errors.length === before ? rules : null;
 }

@@ -11,6 +11,11 @@ import {
   type UnitSystem,
 } from '@/domain/units/format';
 import type { ProcedureDefinition, SizeBasis, SizeRule } from '@/domain/procedures/types';
+import { builtInProcedure } from '@/domain/procedures/built-in';
+import { MAX_MISALIGNMENT_WALL_FRACTION, MISALIGNMENT_SOURCE } from '@/domain/procedures/alignment';
+import { HANDLING_WAIT_MINUTES, HANDLING_WAIT_SOURCE } from '@/domain/procedures/handling';
+import { weatherRulesOf } from '@/domain/procedures/weather';
+import { SHELTER_PHRASES } from '@/domain/joints/shelters';
 
 export type ProcedureParameter =
   | 'heaterTemperature'
@@ -24,7 +29,14 @@ export type ProcedureParameter =
   | 'pressureBuildUp'
   | 'cooling'
   | 'wallRange'
-  | 'outsideDiameterRange';
+  | 'outsideDiameterRange'
+  | 'heatSoakPressure'
+  | 'misalignment'
+  | 'handlingWait'
+  | 'ambientRange'
+  | 'shelterAlways'
+  | 'coldShelter'
+  | 'coolingAdjustment';
 
 export interface ProcedureWindowRow {
   parameter: ProcedureParameter;
@@ -54,6 +66,10 @@ export function describeProcedureWindows(definition: ProcedureDefinition, system
   if (w.coolingInterfacialPressureMpa) {
     push('coolingPressure', 'Reduced cooling interfacial pressure', formatRange(w.coolingInterfacialPressureMpa.min, w.coolingInterfacialPressureMpa.max, 'pressure', system), [], w.coolingInterfacialPressureMpa);
   }
+  const soak = w.heatSoakInterfacialPressureMpa !== undefined ? w.heatSoakInterfacialPressureMpa : builtInProcedure(definition.standard).windows.heatSoakInterfacialPressureMpa;
+  if (soak) {
+    push('heatSoakPressure', 'Heat-soak interfacial pressure', soak.max === 0 ? 'at drag (without force)' : `at most ${formatQuantity(soak.max, 'pressure', system)} above drag`, [], soak);
+  }
   if (w.minBeadMm) push('bead', 'Minimum bead size', ...describeRule(w.minBeadMm.rule, 'length-mm', system), w.minBeadMm);
   if (w.heatSoakS) {
     const parts: string[] = [];
@@ -71,6 +87,23 @@ export function describeProcedureWindows(definition: ProcedureDefinition, system
   if (w.wallRangeMm) push('wallRange', 'Walls covered', formatRange(w.wallRangeMm.min, w.wallRangeMm.max, 'length-mm', system), [], w.wallRangeMm);
   if (w.outsideDiameterRangeMm) {
     push('outsideDiameterRange', 'Outside diameters covered', formatRange(w.outsideDiameterRangeMm.min, w.outsideDiameterRangeMm.max, 'length-mm', system), [], w.outsideDiameterRangeMm);
+  }
+  push('misalignment', 'Outside misalignment (hi-lo)', `at most ${MAX_MISALIGNMENT_WALL_FRACTION * 100} % of the wall`, [], MISALIGNMENT_SOURCE);
+  push('handlingWait', 'Handling after cooling', `no pulling, installation or rough handling for ${HANDLING_WAIT_MINUTES} minutes after removal from the machine`, [], HANDLING_WAIT_SOURCE);
+  const weather = weatherRulesOf(definition);
+  if (weather?.ambientRangeC) {
+    const r = weather.ambientRangeC;
+    push('ambientRange', 'Ambient temperature', r.min !== null || r.max !== null ? formatRange(r.min, r.max, 'temperature', system) : 'any', [], r);
+  }
+  if (weather?.shelterAlways) push('shelterAlways', 'Shelter at any temperature', `at least ${SHELTER_PHRASES[weather.shelterAlways.shelter]}`, [], weather.shelterAlways);
+  if (weather?.coldShelter) {
+    push('coldShelter', 'Shelter in the cold', `at least ${SHELTER_PHRASES[weather.coldShelter.shelter]} below ${formatQuantity(weather.coldShelter.belowC, 'temperature', system)}`, [], weather.coldShelter);
+  }
+  if (weather?.coolingAdjustment) {
+    const a = weather.coolingAdjustment;
+    // A temperature step of 1 °C is 1.8 °F, so the percentage per °F is 5/9 of it.
+    const perDegree = system === 'us' ? `${trimNumber((a.percentPerC * 5) / 9, 2)} % longer for each °F` : `${trimNumber(a.percentPerC, 2)} % longer for each °C`;
+    push('coolingAdjustment', 'Cooling time in warm weather', `${perDegree} above ${formatQuantity(a.referenceC, 'temperature', system)}`, [], a);
   }
   return rows;
 }

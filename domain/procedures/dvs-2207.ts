@@ -85,6 +85,22 @@ export const DVS_2207_1: ProcedureDefinition = {
     },
     wallRangeMm: { min: null, max: 70, source: `${DVS_SOURCE}: table ends at 70 mm wall`, status: 'from-memory' },
     outsideDiameterRangeMm: null,
+    weather: {
+      ambientRangeC: null,
+      // Work at any outdoor temperature is allowed when the conditions are made suitable.
+      shelterAlways: {
+        shelter: 'windbreak',
+        source: `${DVS_SOURCE}: the welding zone is protected from weather (wind, moisture); work at any outdoor temperature is allowed with suitable measures (pre-heating, tent, heating)`,
+        status: 'confirmed',
+      },
+      coldShelter: {
+        belowC: 5,
+        shelter: 'tent',
+        source: `${DVS_SOURCE}: below +5 °C ambient, special measures such as a tent (the threshold from memory)`,
+        status: 'from-memory',
+      },
+      coolingAdjustment: null,
+    },
   },
   notes: [
     'Guide values for PE-HD at about 20 °C and moderate air flow.',

@@ -10,10 +10,18 @@ import {
   type ProcedureTightening,
 } from '@/domain/procedures';
 import { fromDisplay, type UnitSystem } from '@/domain/units/format';
-import { TIGHTENING_FIELDS, TIGHTENING_FORM_FIELDS, type TighteningFormField, type TightenProcedureInput } from '@/domain/procedures/schemas';
+import {
+  SHELTER_RULE_FIELDS,
+  SHELTER_RULE_FORM_FIELDS,
+  TIGHTENING_FIELDS,
+  TIGHTENING_FORM_FIELDS,
+  type ShelterRuleField,
+  type TighteningFormField,
+  type TightenProcedureInput,
+} from '@/domain/procedures/schemas';
 
 /** Form values (person's units) → ProcedureTightening in °C, MPa, mm, s. */
-export function tighteningFromForm(input: Pick<TightenProcedureInput, TighteningFormField | 'units'>): ProcedureTightening {
+export function tighteningFromForm(input: Pick<TightenProcedureInput, TighteningFormField | ShelterRuleField | 'units'>): ProcedureTightening {
   const out: Record<string, Record<string, number>> = {};
   for (const key of TIGHTENING_FORM_FIELDS) {
     const raw = input[key];
@@ -34,14 +42,24 @@ export function tighteningFromForm(input: Pick<TightenProcedureInput, Tightening
     }
     (out[group] ??= {})[part] = si;
   }
+  const shelters = out as unknown as Record<string, Record<string, string>>;
+  for (const key of SHELTER_RULE_FORM_FIELDS) {
+    const value = input[key];
+    if (value === undefined) continue;
+    const [group, part] = SHELTER_RULE_FIELDS[key].path.split('.') as [string, string];
+    (shelters[group] ??= {})[part] = value;
+  }
   return out as ProcedureTightening;
 }
 
 /** The form field a domain refusal belongs to ('heaterTemperatureC.min' → 'heaterMin'); '_form' otherwise. */
-export function formFieldForTighteningError(domainField: string): TighteningFormField | '_form' {
+export function formFieldForTighteningError(domainField: string): TighteningFormField | ShelterRuleField | '_form' {
   for (const key of TIGHTENING_FORM_FIELDS) {
     const path = TIGHTENING_FIELDS[key].path;
     if (path === domainField) return key;
+  }
+  for (const key of SHELTER_RULE_FORM_FIELDS) {
+    if (SHELTER_RULE_FIELDS[key].path === domainField) return key;
   }
   // Whole-window errors ("minimum above maximum") are shown on the window's minimum field.
   for (const key of TIGHTENING_FORM_FIELDS) {

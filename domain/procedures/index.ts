@@ -12,3 +12,4 @@ export * from '@/domain/procedures/built-in';
 export * from '@/domain/procedures/rules';
 export * from '@/domain/procedures/derive';
 export * from '@/domain/procedures/describe';
+export * from '@/domain/procedures/weather';

@@ -16,6 +16,14 @@ const ISO_WALL_RANGE: SourcedRange = {
   status: 'confirmed',
 };
 
+// The ambient range of all three procedures.
+const ISO_AMBIENT_RANGE: SourcedRange = {
+  min: -5,
+  max: 40,
+  source: `${ISO_SOURCE} scope: ambient temperatures from −5 °C to +40 °C`,
+  status: 'from-memory',
+};
+
 export const ISO_21307_SLP: ProcedureDefinition = {
   standard: 'iso-21307-slp',
   label: 'ISO 21307 single low-pressure',
@@ -62,6 +70,17 @@ export const ISO_21307_SLP: ProcedureDefinition = {
     },
     wallRangeMm: ISO_WALL_RANGE,
     outsideDiameterRangeMm: null,
+    weather: {
+      ambientRangeC: ISO_AMBIENT_RANGE,
+      shelterAlways: null,
+      coldShelter: null,
+      coolingAdjustment: {
+        referenceC: 23,
+        percentPerC: 1,
+        source: `${ISO_CARD}: cooling times are for 23 ± 2 °C and change by about 1 % per °C; applied only to lengthen them above 23 °C (our choice: never shorter in the cold)`,
+        status: 'confirmed-2nd',
+      },
+    },
   },
   notes: [
     'Heat-soak pressure is drag only (≈ 0 interfacial).',
@@ -106,6 +125,12 @@ export const ISO_21307_DLP: ProcedureDefinition = {
       status: 'from-memory',
     },
     outsideDiameterRangeMm: null,
+    weather: {
+      ambientRangeC: ISO_AMBIENT_RANGE,
+      shelterAlways: null,
+      coldShelter: null,
+      coolingAdjustment: null,
+    },
   },
   notes: [
     'Fusion pressure P4 is held for about 10 s, then reduced to P5 for cooling.',
@@ -144,6 +169,12 @@ export const ISO_21307_SHP: ProcedureDefinition = {
     },
     wallRangeMm: ISO_WALL_RANGE,
     outsideDiameterRangeMm: null,
+    weather: {
+      ambientRangeC: ISO_AMBIENT_RANGE,
+      shelterAlways: null,
+      coldShelter: null,
+      coolingAdjustment: null,
+    },
   },
   notes: [
     'Heat soak is ended by bead size (recalled as about 11 × e_n s); the operator minimum of 10 × e_n s keeps a zero-length soak from passing.',

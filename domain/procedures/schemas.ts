@@ -2,7 +2,7 @@
 // the person's units, see procedures/form.ts) and version notes.
 import { z } from 'zod';
 import { FUSION_STANDARDS } from '@/domain/procedures/types';
-import { optionalNumber, requiredText, optionalText, idField, unitsField } from '@/domain/form-fields';
+import { blankToUndefined, optionalNumber, requiredText, optionalText, idField, unitsField } from '@/domain/form-fields';
 
 export const createProcedureSchema = z.object({
   code: requiredText('Procedure code', 2, 40).regex(/^[A-Za-z0-9][A-Za-z0-9._/-]*$/, { error: 'Procedure code may hold letters, digits and . _ / - only (no spaces).' }),
@@ -26,7 +26,20 @@ export const TIGHTENING_FIELDS = {
   minCoolingAtLeastMin: { path: 'minCoolingS.atLeast', kind: 'minutes', label: 'Minimum cooling floor' },
   odMin: { path: 'outsideDiameterRangeMm.min', kind: 'length-mm', label: 'Smallest OD covered' },
   odMax: { path: 'outsideDiameterRangeMm.max', kind: 'length-mm', label: 'Largest OD covered' },
+  ambientMin: { path: 'weather.ambientMinC', kind: 'temperature', label: 'Coldest ambient temperature' },
+  ambientMax: { path: 'weather.ambientMaxC', kind: 'temperature', label: 'Warmest ambient temperature' },
+  coldShelterBelow: { path: 'weather.coldShelterBelowC', kind: 'temperature', label: 'Shelter needed below' },
 } as const;
+
+/** The weather rule's shelters: chosen from a list, not typed (see TIGHTENING_FIELDS for the numbers). */
+export const SHELTER_RULE_FIELDS = {
+  shelterAlways: { path: 'weather.shelterAlways', label: 'Shelter at any temperature (wind, rain)' },
+  coldShelter: { path: 'weather.coldShelter', label: 'Shelter needed in the cold' },
+} as const;
+export type ShelterRuleField = keyof typeof SHELTER_RULE_FIELDS;
+export const SHELTER_RULE_FORM_FIELDS = Object.keys(SHELTER_RULE_FIELDS) as ShelterRuleField[];
+const ruleShelter = (label: string) =>
+  z.preprocess(blankToUndefined, z.enum(['windbreak', 'tent', 'heated-tent'], { error: `${label}: choose a windbreak, a tent or a heated tent.` }).optional());
 
 export type TighteningFormField = keyof typeof TIGHTENING_FIELDS;
 export const TIGHTENING_FORM_FIELDS = Object.keys(TIGHTENING_FIELDS) as TighteningFormField[];
@@ -47,9 +60,11 @@ export const tightenProcedureSchema = z
     label: optionalText('Version label', 200),
     note: requiredText('Note on the change', 3, 1000),
     ...tighteningNumbers,
+    shelterAlways: ruleShelter(SHELTER_RULE_FIELDS.shelterAlways.label),
+    coldShelter: ruleShelter(SHELTER_RULE_FIELDS.coldShelter.label),
   })
   .superRefine((value, ctx) => {
-    if (TIGHTENING_FORM_FIELDS.every((key) => value[key] === undefined)) {
+    if (TIGHTENING_FORM_FIELDS.every((key) => value[key] === undefined) && SHELTER_RULE_FORM_FIELDS.every((key) => value[key] === undefined)) {
       ctx.addIssue({ code: 'custom', path: ['_form'], message: 'Change at least one window: a new version must tighten something.' });
     }
   });

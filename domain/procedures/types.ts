@@ -1,6 +1,7 @@
 // Types of a butt-fusion procedure: windows, size rules and sourced values. Canonical
 // units: °C, MPa (interfacial pressure), mm, s.
 
+import type { Shelter } from '@/domain/joints/shelters';
 import type { Sourced } from '@/domain/sources';
 
 /** Built-in published procedures. */
@@ -122,6 +123,33 @@ export interface ProcedureWindows {
   wallRangeMm: SourcedRange | null;
   /** Outside diameters the procedure applies to, mm (operators often limit this). */
   outsideDiameterRangeMm: SourcedRange | null;
+  /**
+   * Weather rules: the ambient range, the shelter asked for, a cooling adjustment.
+   * Absent in procedure versions stored before they were modelled; the plan then takes the
+   * published procedure's the version is based on.
+   */
+  weather?: WeatherRules | null;
+}
+
+/** A shelter a rule asks for, at least (domain/joints/shelters orders them). */
+export interface SourcedShelter extends Sourced {
+  shelter: Exclude<Shelter, 'none'>;
+}
+
+/**
+ * A procedure's weather rules, all optional (null = the procedure states none). °C.
+ * - ambientRangeC: the ambient temperatures joints may be made at (either end open).
+ * - shelterAlways: the least shelter at any temperature (wind, rain, blowing dust).
+ * - coldShelter: below `belowC`, at least this shelter.
+ * - coolingAdjustment: the minimum cooling time grows by `percentPerC` % for each °C of
+ *   ambient above `referenceC`; it is never shortened in the cold (a procedure may state a
+ *   shorter time there, but a shorter time is never applied here).
+ */
+export interface WeatherRules {
+  ambientRangeC: SourcedRange | null;
+  shelterAlways: SourcedShelter | null;
+  coldShelter: (SourcedShelter & { belowC: number }) | null;
+  coolingAdjustment: (Sourced & { referenceC: number; percentPerC: number }) | null;
 }
 
 /** A procedure version as stored: the standard it is based on, its windows, notes. */

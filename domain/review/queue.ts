@@ -1,5 +1,6 @@
 // The review queue's ordering rule, and the plan-versus-recorded comparison each queue item
 // shows. Canonical SI in, the user's units out (domain/units).
+import type { JointConditions } from "@/domain/procedures/weather";
 import type { FusionPlan } from "@/domain/fusion/plan";
 import { checkJoint, MAX_MISALIGNMENT_WALL_FRACTION, type JointFinding } from "@/domain/fusion/check";
 import type { JointOutcome } from "@/domain/joints/outcomes";
@@ -92,9 +93,9 @@ export function planVersusRecorded(plan: FusionPlan, recorded: RecordedValues, f
  * findings stored at recording (a value the check then had that is not stored here), the
  * stored findings are shown as they are.
  */
-export function findingsForViewer(plan: FusionPlan | null, recorded: RecordedValues, stored: readonly JointFinding[], system: UnitSystem): JointFinding[] {
+export function findingsForViewer(plan: FusionPlan | null, recorded: RecordedValues, stored: readonly JointFinding[], system: UnitSystem, conditions?: JointConditions): JointFinding[] {
   if (!plan) return [...stored];
-  const again = checkJoint(plan, recorded, { system }).findings;
+  const again = checkJoint(plan, recorded, { system, conditions }).findings;
   const key = (list: readonly JointFinding[]) => list.map((f) => `${f.parameter}:${f.kind}`).sort().join("|");
   return key(again) === key(stored) ? again : [...stored];
 }

@@ -356,6 +356,36 @@ describe("recording a joint", () => {
     const byId = (await (await jointsGet(await requestAs(inspector, `/api/v1/joints?clientId=${body.clientId}`), noParams)).json()) as { joints: unknown[] };
     expect(byId.joints).toHaveLength(1);
   });
+
+  it("pulling pipe from a coil within 30 minutes of a joint on it warns, names that joint and is audited; later, or with no pull, it does not", async () => {
+    // PPI generic butt-fusion procedure (as reproduced in a pipe maker's manual): no pulling,
+    // installation or rough handling for 30 minutes after cooling in the machine.
+    const minutesAgo = (m: number) => new Date(Date.now() - m * 60_000).toISOString();
+    const first = await post(fuser, goodJoint(base, { madeAt: minutesAgo(20) }));
+    expect(first.status).toBe(201);
+    expect(first.body.joint.warnings).toEqual([]);
+
+    const soon = await post(fuser, goodJoint(base, { madeAt: minutesAgo(1), lengthAM: 5 }));
+    expect(soon.status).toBe(201);
+    expect(soon.body.joint.outcome).toBe("within-limits"); // a caution, not a finding
+    expect(soon.body.joint.warnings).toHaveLength(1);
+    expect(soon.body.joint.warnings[0]).toContain("T-C0001");
+    expect(soon.body.joint.warnings[0]).toContain("WO-T1 joint 1");
+    expect(soon.body.joint.warnings[0]).toContain("19 minutes"); // 20 − 1 minutes apart
+    const audit = await ownerDb()("audit_log").where({ action: "joint-recorded", entity_id: soon.body.joint.id }).first("details");
+    expect(JSON.parse(audit.details).warnings).toEqual(soon.body.joint.warnings);
+
+    const noPull = await post(fuser, goodJoint(base, { madeAt: minutesAgo(0.5), lengthAM: undefined }));
+    expect(noPull.body.joint.warnings).toEqual([]);
+  });
+
+  it("a pull 45 minutes after the last joint on the coil gives no handling warning", async () => {
+    const minutesAgo = (m: number) => new Date(Date.now() - m * 60_000).toISOString();
+    expect((await post(fuser, goodJoint(base, { madeAt: minutesAgo(46) }))).status).toBe(201);
+    const later = await post(fuser, goodJoint(base, { madeAt: minutesAgo(1), lengthAM: 5 }));
+    expect(later.status).toBe(201);
+    expect(later.body.joint.warnings).toEqual([]);
+  });
 });
 
 describe("bead photos", () => {

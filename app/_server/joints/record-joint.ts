@@ -23,6 +23,7 @@ import {
   insertJointState,
   insertOverrideUse,
   listOverridesForSubjects,
+  listRecentJointsOnCoils,
   lockJointForRemake,
   markJointReplaced,
   takeNextJointNo,
@@ -38,6 +39,7 @@ import { applyOverrides, blockReasons, madeAtProblem } from "@/domain/joints/rul
 import { pickRecordedValues, type RecordedValues } from "@/domain/joints/values";
 import type { RecordJointInput } from "@/domain/joints/schemas";
 import { jobBlockReason } from "@/domain/jobs/rules";
+import { HANDLING_WAIT_MINUTES, handlingWaitWarnings } from "@/domain/procedures/handling";
 import { qualificationStatus } from "@/domain/qualifications/status";
 import { AppError } from "@/domain/result";
 import type { UnitSystem } from "@/domain/units/format";
@@ -61,14 +63,16 @@ export type RecordedJoint = {
   replacesJointNo: number | null;
   /** What the fuser must do now, in words. */
   advice: string;
+  /** Cautions that do not change the verdict (pipe pulled within the handling wait); only on the response that recorded the joint. */
+  warnings: string[];
   url: string;
 };
 
 export type RecordJointResult = { created: boolean; joint: RecordedJoint };
 
 /** Re-check a stored joint for display in `system` (messages in the reader's units). */
-export function verdictOf(joint: Pick<JointRecord, "plan"> & RecordedValues, system: UnitSystem): JointCheck {
-  return checkJoint(joint.plan, pickRecordedValues(joint), { system });
+export function verdictOf(joint: Pick<JointRecord, "plan" | "ambientC" | "shelter"> & RecordedValues, system: UnitSystem): JointCheck {
+  return checkJoint(joint.plan, pickRecordedValues(joint), { system, conditions: { ambientC: joint.ambientC, shelter: joint.shelter } });
 }
 
 export function describeRecordedJoint(joint: JointRecord, system: UnitSystem): RecordedJoint {
@@ -92,6 +96,7 @@ export function describeRecordedJoint(joint: JointRecord, system: UnitSystem): R
     replacesJointId: joint.replacesJointId,
     replacesJointNo: joint.replacesJointNo,
     advice,
+    warnings: [],
     url: `/joints/${joint.id}`,
   };
 }
@@ -178,7 +183,7 @@ async function prepare(input: RecordJointInput, user: UserRecord, madeAt: Date):
   // An impossible pipe for this procedure throws a DomainError: the wrapper answers 422.
   const plan = withInstrument(planButtFusion(buttFusionPlanInput({ procedure: version.definition, pipe: coilA, machine: { pistonAreaMm2: machine.pistonAreaMm2 as number }, dragPressureMpa: input.dragPressureMpa })), machine);
   // The server's own check, messages in SI for the record (screens re-check in their units).
-  const check = checkJoint(plan, pickRecordedValues(input), { system: "si" });
+  const check = checkJoint(plan, pickRecordedValues(input), { system: "si", conditions: { ambientC: input.ambientC, shelter: input.shelter } });
   return { plan, check, coilA, coilB, procedureVersionId: version.id, jobCode: job.code, covered };
 }
 
@@ -218,13 +223,14 @@ export async function recordJoint(input: RecordJointInput, ctx: { user: UserReco
   if (when) throw invalid("madeAt", when);
 
   const prepared = await prepare(input, user, madeAt);
+  const warnings = await handlingWarnings(input, prepared, madeAt);
   const coveredCoils = new Set(prepared.covered.filter((c) => c.reason.subject?.type === "coil").map((c) => c.reason.subject!.id));
 
   for (let attempt = 1; ; attempt += 1) {
     try {
-      const jointId = await db().transaction((trx) => writeJoint(trx, input, prepared, { user, madeAt, coveredCoils, requestId: ctx.requestId ?? null }));
+      const jointId = await db().transaction((trx) => writeJoint(trx, input, prepared, { user, madeAt, coveredCoils, requestId: ctx.requestId ?? null, warnings }));
       const joint = await loadJoint(jointId);
-      return { created: true, joint: describeRecordedJoint(joint, user.unitSystem) };
+      return { created: true, joint: { ...describeRecordedJoint(joint, user.unitSystem), warnings } };
     } catch (error) {
       if (isClientIdDuplicate(error)) {
         const raced = await existingFor(input.clientId, user);
@@ -234,6 +240,16 @@ export async function recordJoint(input: RecordJointInput, ctx: { user: UserReco
       throw error;
     }
   }
+}
+
+/** The handling-wait warnings for the coils this joint pulls pipe from (domain/procedures/handling). */
+async function handlingWarnings(input: RecordJointInput, p: Prepared, madeAt: Date): Promise<string[]> {
+  const pulled = [...(input.lengthAM && input.lengthAM > 0 ? [p.coilA] : []), ...(p.coilB && input.lengthBM && input.lengthBM > 0 ? [p.coilB] : [])];
+  if (!pulled.length) return [];
+  const since = new Date(madeAt.getTime() - HANDLING_WAIT_MINUTES * 60_000);
+  const recent = await listRecentJointsOnCoils({ coilIds: pulled.map((c) => c.id), since, until: madeAt });
+  const codeOf = new Map(pulled.map((c) => [c.id, c.coilCode]));
+  return handlingWaitWarnings(pulled.map((c) => c.coilCode), recent.map((r) => ({ ...r, coilCode: codeOf.get(r.coilId) ?? "" })), madeAt);
 }
 
 async function loadJoint(id: number): Promise<JointRecord> {
@@ -246,7 +262,7 @@ async function writeJoint(
   trx: Knex.Transaction,
   input: RecordJointInput,
   p: Prepared,
-  ctx: { user: UserRecord; madeAt: Date; coveredCoils: Set<number>; requestId: string | null },
+  ctx: { user: UserRecord; madeAt: Date; coveredCoils: Set<number>; requestId: string | null; warnings: string[] },
 ): Promise<number> {
   const { user, madeAt } = ctx;
   const jointNo = await takeNextJointNo({ jobId: input.jobId }, trx);
@@ -343,6 +359,7 @@ async function writeJoint(
         overrides: p.covered.map((c) => ({ id: c.grant.id, kind: c.reason.kind })),
         replacesJointId: replaces?.id ?? null,
         timedFields: input.timedFields,
+        ...(ctx.warnings.length ? { warnings: ctx.warnings } : {}),
       },
     },
     trx,

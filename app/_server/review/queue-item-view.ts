@@ -29,7 +29,7 @@ export type QueueItemView = Omit<ReviewItem, "madeAt" | "trace" | "findings" | "
 
 export function toQueueItemView(item: ReviewItem, system: UnitSystem): QueueItemView {
   const { trace, photos, madeAt, findings, ...rest } = item;
-  const shown = findingsForViewer(item.plan, item.recorded, findings, system);
+  const shown = findingsForViewer(item.plan, item.recorded, findings, system, item.conditions);
   let traceView: QueueItemView["trace"] = null;
   if (trace && trace.reading) {
     const again = item.plan ? checkTraceReading(item.plan, trace.reading, item.recorded, system) : null;

@@ -9,7 +9,7 @@ import { formatInstant } from "@/components/ui/display-format";
 import { SectionCard } from "@/components/ui/section-card";
 import { TightenForm } from "../_components/tighten-form";
 import { VersionNotesForm } from "../_components/version-notes-form";
-import { tighteningFieldViews } from "../_lib/views";
+import { shelterRuleViews, tighteningFieldViews } from "../_lib/views";
 
 export const dynamic = "force-dynamic";
 
@@ -90,6 +90,7 @@ export default async function ProcedurePage({ params }: { params: Promise<{ id: 
             procedure={{ id: procedure.id, code: procedure.code, currentVersionId: current.id, currentVersionNo: current.versionNo }}
             units={units}
             fields={tighteningFieldViews(current.definition, units)}
+            shelterRules={shelterRuleViews(current.definition)}
           />
         </SectionCard>
       ) : null}

@@ -9,25 +9,29 @@ import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { Field, FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
-import { TIGHTENING_FORM_FIELDS, tightenProcedureSchema, type TighteningFormField } from "@/domain/procedures/schemas";
+import { SHELTER_RULE_FORM_FIELDS, TIGHTENING_FORM_FIELDS, tightenProcedureSchema, type ShelterRuleField, type TighteningFormField } from "@/domain/procedures/schemas";
+import { SHELTER_LABELS, SHELTERS } from "@/domain/joints/shelters";
 import { publishProcedureVersionAction } from "../actions";
-import { TextAreaField, applyActionResult } from "@/components/form/controls";
+import { SelectField, TextAreaField, applyActionResult } from "@/components/form/controls";
 import type { UnitSystem } from "@/domain/units/format";
 
 type Input = z.input<typeof tightenProcedureSchema>;
 type Output = z.output<typeof tightenProcedureSchema>;
-const FIELDS = [...TIGHTENING_FORM_FIELDS, "note", "label", "basedOnVersionId", "procedureId"] as const;
+const FIELDS = [...TIGHTENING_FORM_FIELDS, ...SHELTER_RULE_FORM_FIELDS, "note", "label", "basedOnVersionId", "procedureId"] as const;
 
 export type TighteningFieldView = { key: TighteningFormField; label: string; unit: string; current: string };
+export type ShelterRuleView = { key: ShelterRuleField; label: string; current: string };
 
 export function TightenForm({
   procedure,
   units,
   fields,
+  shelterRules = [],
 }: {
   procedure: { id: number; code: string; currentVersionId: number; currentVersionNo: number };
   units: UnitSystem;
   fields: TighteningFieldView[];
+  shelterRules?: ShelterRuleView[];
 }) {
   const router = useRouter();
   const [message, setMessage] = useState<{ text: string; tone: "error" | "success" } | null>(null);
@@ -58,6 +62,16 @@ export function TightenForm({
       <div className="grid gap-4 sm:grid-cols-2">
         {fields.map((f) => (
           <Field key={f.key} id={`tighten-${f.key}`} label={f.label} unit={f.unit} numeric hint={`Now: ${f.current}`} {...register(f.key)} error={e[f.key]?.message} />
+        ))}
+        {shelterRules.map((f) => (
+          <SelectField key={f.key} id={`tighten-${f.key}`} label={f.label} hint={`Now: ${f.current}`} {...register(f.key)} error={e[f.key]?.message}>
+            <option value="">Keep as it is</option>
+            {SHELTERS.filter((s) => s !== "none").map((s) => (
+              <option key={s} value={s}>
+                At least: {SHELTER_LABELS[s]}
+              </option>
+            ))}
+          </SelectField>
         ))}
       </div>
       <Field id="tighten-label" label="Version label" hint="Optional; a label is made from the procedure code otherwise" {...register("label")} error={e.label?.message} />

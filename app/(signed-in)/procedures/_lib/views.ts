@@ -1,9 +1,10 @@
 // What the Procedures screen shows: the tightening form's fields with each window's
 // present value in the person's units, and the standard names for the add form.
-import { describeRule, FUSION_STANDARDS, builtInProcedure, type ProcedureDefinition } from "@/domain/procedures";
-import { TIGHTENING_FIELDS, type TighteningFormField } from "@/domain/procedures/schemas";
+import { describeRule, FUSION_STANDARDS, builtInProcedure, weatherRulesOf, type ProcedureDefinition } from "@/domain/procedures";
+import { SHELTER_RULE_FIELDS, TIGHTENING_FIELDS, type TighteningFormField } from "@/domain/procedures/schemas";
+import { SHELTER_LABELS, type Shelter } from "@/domain/joints/shelters";
 import { formatQuantity, formatRange, unitLabel, type UnitSystem } from "@/domain/units/format";
-import type { TighteningFieldView } from "../_components/tighten-form";
+import type { ShelterRuleView, TighteningFieldView } from "../_components/tighten-form";
 
 export function standardOptions(): { id: string; label: string }[] {
   return FUSION_STANDARDS.map((id) => ({ id, label: builtInProcedure(id).label }));
@@ -30,5 +31,21 @@ export function tighteningFieldViews(definition: ProcedureDefinition, units: Uni
   const odNow = od ? formatRange(od.min, od.max, "length-mm", units) : "any OD";
   add("odMin", unitLabel("length-mm", units), odNow);
   add("odMax", unitLabel("length-mm", units), odNow);
+  const weather = weatherRulesOf(definition);
+  const ambient = weather?.ambientRangeC;
+  const ambientNow = ambient ? formatRange(ambient.min, ambient.max, "temperature", units) : "no limit";
+  add("ambientMin", t, ambientNow);
+  add("ambientMax", t, ambientNow);
+  add("coldShelterBelow", t, weather?.coldShelter ? formatQuantity(weather.coldShelter.belowC, "temperature", units) : "not set");
   return views;
+}
+
+/** The weather rule's shelter choices, with what the version asks for now. */
+export function shelterRuleViews(definition: ProcedureDefinition): ShelterRuleView[] {
+  const weather = weatherRulesOf(definition);
+  const now = (s: { shelter: Shelter } | null | undefined) => (s ? SHELTER_LABELS[s.shelter] : "not set");
+  return [
+    { key: "shelterAlways", label: SHELTER_RULE_FIELDS.shelterAlways.label, current: now(weather?.shelterAlways) },
+    { key: "coldShelter", label: SHELTER_RULE_FIELDS.coldShelter.label, current: now(weather?.coldShelter) },
+  ];
 }

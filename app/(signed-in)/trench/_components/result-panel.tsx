@@ -33,6 +33,16 @@ export function ResultPanel({ entry, onRemake, onDismiss }: { entry: OutboxEntry
         </ul>
       ) : null}
       {result ? <p className="text-ink">{result.advice}</p> : !within ? <p className="text-ink">Cut this joint out and remake it per the procedure.</p> : null}
+      {result?.warnings?.length ? (
+        <div role="note" aria-label="Handling warnings" className="rounded-md border-2 border-caution bg-white p-2 text-ink">
+          <p className="font-bold">Caution: handling wait</p>
+          <ul className="list-disc pl-5">
+            {result.warnings.map((w) => (
+              <li key={w}>{w}</li>
+            ))}
+          </ul>
+        </div>
+      ) : null}
       <div className="flex flex-wrap gap-2">
         {result ? (
           <Link href={result.url} className="inline-flex min-h-touch items-center rounded-md border-2 border-brand bg-white px-4 font-semibold text-brand">

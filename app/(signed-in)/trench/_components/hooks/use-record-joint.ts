@@ -49,7 +49,7 @@ export function useRecordJoint({ setup, outbox, jobId, job, plan, cannotRecord, 
     const madeAt = new Date().toISOString();
     let preliminary: OutboxEntry["preliminary"] = null;
     if (plan) {
-      const check = checkJoint(plan, pickRecordedValues(v), { system });
+      const check = checkJoint(plan, pickRecordedValues(v), { system, conditions: { ambientC: v.ambientC, shelter: v.shelter } });
       preliminary = { outcome: check.outcome, findings: check.findings.map((f) => f.message) };
     }
     const label = `${v.coilA} + ${v.kind === "coil-to-coil" ? v.coilB : v.componentBText}`;
