@@ -29,12 +29,20 @@ test("an admin keeps procedures, equipment and qualifications; the fuser's Today
   await procedures.publishTightened("E2E-BF-01", { "Heater temperature minimum": "200" }, "Trying to loosen");
   await expect(page.getByText(/below the 204 °C of ASTM F2620/).first()).toBeVisible();
   await page.reload();
-  await procedures.publishTightened("E2E-BF-01", { "Heater temperature minimum": "210", "Heater temperature maximum": "225" }, "Tightened after the trial joints");
+  // The handling wait and misalignment rules are listed with their sources (PPI generic
+  // procedure: 30 minutes; pipe makers' guides: 10 % of the wall).
+  await expect(procedures.windows(1).getByRole("row", { name: /Handling after cooling/ })).toContainText("30 minutes");
+  await expect(procedures.windows(1).getByRole("row", { name: /Outside misalignment/ })).toContainText("10 % of the wall");
+  // An operator's cold-weather rule: a tent below 0 °C (our own rule, marked as the operator's).
+  await procedures.publishTightened("E2E-BF-01", { "Heater temperature minimum": "210", "Heater temperature maximum": "225", "Shelter needed below": "0" }, "Tightened after the trial joints", { "Shelter needed in the cold": "At least: Tent" });
   await expect(page.getByText("Version 2 of E2E-BF-01 published")).toBeVisible();
   await page.reload();
   await expect(page.getByRole("heading", { name: "Version 2 (current)" })).toBeVisible();
   await expect(page.getByRole("heading", { name: "Version 1 (superseded)" })).toBeVisible();
   await expect(procedures.windows(2).getByRole("row", { name: /Heater surface temperature/ })).toContainText("210–225 °C");
+  const cold = procedures.windows(2).getByRole("row", { name: /Shelter in the cold/ });
+  await expect(cold).toContainText("at least a tent below 0 °C");
+  await expect(cold).toContainText("operator's value");
   await expect(procedures.windows(1).getByRole("row", { name: /Heater surface temperature/ })).toContainText("204–232 °C");
   await page.screenshot(SHOT("procedure-versions"));
 

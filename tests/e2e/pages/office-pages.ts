@@ -20,9 +20,10 @@ export class ProceduresPage {
     await expect(this.page.getByRole("heading", { level: 1 })).toContainText(code);
   }
 
-  async publishTightened(code: string, values: Record<string, string>, note: string): Promise<void> {
+  async publishTightened(code: string, values: Record<string, string>, note: string, choices: Record<string, string> = {}): Promise<void> {
     const form = this.page.getByRole("form", { name: `Publish a tightened version of ${code}` });
     for (const [label, value] of Object.entries(values)) await form.getByLabel(label).fill(value);
+    for (const [label, option] of Object.entries(choices)) await form.getByLabel(label).selectOption({ label: option });
     await form.getByLabel("Note on the change").fill(note);
     await form.getByRole("button", { name: "Publish new version" }).click();
   }
