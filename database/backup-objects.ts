@@ -60,8 +60,8 @@ export function storeClient(store: StoreTarget): S3Client {
 
 export type ListedObject = { key: string; size: number };
 
-/** Every object in the bucket, one page (≤ 1,000 keys) at a time. */
-export async function* listObjects(client: S3Client, bucket: string): AsyncGenerator<ListedObject> {
+/** Every object in the bucket, one page (at most 1,000 keys) at a time. */
+export async function* listObjects(client: Pick<S3Client, "send">, bucket: string): AsyncGenerator<ListedObject> {
   let token: string | undefined;
   do {
     const page = await client.send(new ListObjectsV2Command({ Bucket: bucket, ContinuationToken: token }));
