@@ -207,17 +207,31 @@ export async function backupEverything({ url, store, folder, dir = DEFAULT_BACKU
   }
 }
 
+/** A path as the user can use it from here: relative when inside the current folder. */
+export function shownPath(p: string): string {
+  const rel = path.relative(process.cwd(), p);
+  return rel && !rel.startsWith("..") && !path.isAbsolute(rel) ? rel : p;
+}
+
+export function sizeInWords(bytes: number): string {
+  if (bytes < 1024) return `${bytes} bytes`;
+  if (bytes < 1024 * 1024) return `${(bytes / 1024).toFixed(1)} KiB`;
+  return `${(bytes / 1024 / 1024).toFixed(1)} MiB`;
+}
+
+export const plural = (n: number, one: string, many = `${one}s`) => `${n} ${n === 1 ? one : many}`;
+
 if (process.argv[1] && /database[\\/]backup\.ts$/.test(process.argv[1])) {
   const folder = process.argv[2] ? path.resolve(process.argv[2]) : undefined;
   backupEverything({ folder })
     .then((r) => {
-      const kib = (n: number) => `${(n / 1024).toFixed(1)} KiB`;
-      console.log(`Backup of ${r.database} written to ${path.relative(process.cwd(), r.folder) || "."}: database dump ${kib(r.dumpBytes)}, ${r.objects} objects (${kib(r.objectBytes)}), ${r.ms} ms.`);
+      console.log(`Backup of ${r.database} written to ${shownPath(r.folder)}: database dump ${sizeInWords(r.dumpBytes)}, ${plural(r.objects, "object")} (${sizeInWords(r.objectBytes)}), ${r.ms} ms.`);
       if (r.problems.length) {
-        console.warn(`Warning: ${r.problems.length} of ${r.attachmentsChecked} attachment records do not match the object store:`);
-        for (const p of r.problems.slice(0, 20)) console.warn(`  ${p}`);
-      } else console.log(`All ${r.attachmentsChecked} attachment records have their object, SHA-256 as recorded.`);
-      console.log(`Restore it into an empty database and bucket with: npm run db:restore ${path.relative(process.cwd(), r.folder)}`);
+        console.warn(`Warning: ${r.problems.length} of ${plural(r.attachmentsChecked, "attachment record")} do not match the object store:`);
+        for (const p of r.problems.slice(0, 20)) console.warn(`  - ${p}`);
+        if (r.problems.length > 20) console.warn(`  … and ${r.problems.length - 20} more`);
+      } else if (r.attachmentsChecked > 0) console.log(`Every attachment record (${r.attachmentsChecked}) has its object in the backup, SHA-256 as recorded.`);
+      console.log(`Restore it into an empty database and bucket with: npm run db:restore ${shownPath(r.folder)}`);
     })
     .catch((error) => {
       console.error(`Backup failed: ${(error as Error).message}`);

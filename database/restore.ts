@@ -14,7 +14,7 @@ import { createReadStream, existsSync, statSync } from "node:fs";
 import path from "node:path";
 import { pipeline } from "node:stream/promises";
 import { createGunzip } from "node:zlib";
-import { attachmentProblems, clientOptionFile, ownerConnection, readAttachmentRecords, resolveTarget, type DbTarget } from "./backup";
+import { attachmentProblems, clientOptionFile, ownerConnection, plural, readAttachmentRecords, resolveTarget, sizeInWords, type DbTarget } from "./backup";
 import { existingKeys, readManifest, resolveStore, restoreObjects, verifyBackup, type StoreTarget } from "./backup-objects";
 
 /** Tables in `database` (0 = empty, safe to restore into). */
@@ -184,12 +184,13 @@ if (process.argv[1] && /database[\\/]restore\.ts$/.test(process.argv[1])) {
   const done = dumpOnly
     ? restoreDatabase({ file: given }).then((r) => console.log(`Restored ${r.tables} tables into ${r.database} in ${r.ms} ms (database-only dump; no objects).`))
     : restoreBackup({ folder: given }).then((r) => {
-        console.log(`Restored ${r.tables} tables into ${r.database} and ${r.objects} objects (${(r.objectBytes / 1024).toFixed(1)} KiB), every one matching the manifest's SHA-256, in ${r.ms} ms.`);
-        if (r.problems.length) console.warn(`Warning: ${r.problems.length} of ${r.attachmentsChecked} attachment records do not match the restored objects:\n${listed(r.problems)}`);
-        else console.log(`All ${r.attachmentsChecked} attachment records have their object, SHA-256 as recorded.`);
+        console.log(`Restored ${plural(r.tables, "table")} into ${r.database} and ${plural(r.objects, "object")} (${sizeInWords(r.objectBytes)}), each checked against the manifest's SHA-256 first, in ${r.ms} ms.`);
+        if (r.problems.length) console.warn(`Warning: ${r.problems.length} of ${plural(r.attachmentsChecked, "attachment record")} do not match the restored objects:\n${listed(r.problems)}`);
+        else if (r.attachmentsChecked > 0) console.log(`Every attachment record (${r.attachmentsChecked}) has its object, SHA-256 as recorded.`);
       });
   done.catch((error) => {
-    console.error(`Restore failed: ${(error as Error).message}`);
+    const message = (error as Error).message;
+    console.error(message.startsWith("Refusing to restore") ? message : `Restore failed: ${message}`);
     process.exit(1);
   });
 }

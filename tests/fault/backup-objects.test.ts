@@ -17,7 +17,7 @@ import type { Knex } from "knex";
 import { PNG } from "pngjs";
 import sharp from "sharp";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { backupEverything } from "@/database/backup";
+import { attachmentProblems, backupEverything } from "@/database/backup";
 import { listObjects, resolveStore, storeClient, type Manifest } from "@/database/backup-objects";
 import { rootSql } from "@/database/local/mariadb";
 import { migrateLatest, ownerKnex } from "@/database/migrate";
@@ -316,5 +316,22 @@ describe("backup and restore of the database with its objects", () => {
     expect(keys).toHaveLength(2500);
     expect(new Set(keys).size).toBe(2500);
     expect(keys.at(-1)).toBe(keyAt(2499));
+  });
+
+  it("names attachment records whose object is missing or differs from the recorded SHA-256", () => {
+    const photo = files[0];
+    const objects = [{ key: photo.key, size: photo.bytes.byteLength, sha256: sha256(photo.bytes), contentType: "image/png", file: "objects/000001" }];
+    const problems = attachmentProblems(
+      [
+        { id: 1, object_key: photo.key, sha256: sha256(photo.bytes) },
+        { id: 2, object_key: photo.key, sha256: sha256(Buffer.from("other bytes")) },
+        { id: 3, object_key: "bead-photos/never-stored", sha256: sha256(photo.bytes) },
+      ],
+      objects,
+    );
+    expect(problems).toEqual([
+      `Attachment 2: object "${photo.key}" has SHA-256 ${sha256(photo.bytes)}, the record says ${sha256(Buffer.from("other bytes"))}`,
+      'Attachment 3: object "bead-photos/never-stored" is not in the store',
+    ]);
   });
 });
