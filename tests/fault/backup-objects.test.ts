@@ -93,15 +93,17 @@ async function referencingRows(k: Knex) {
   };
 }
 
-async function tableCount(database: string): Promise<number> {
+async function countIn(sql: string, database: string): Promise<number> {
   const k = ownerKnex(urlFor("information_schema"));
   try {
-    const [[row]] = (await k.raw("SELECT COUNT(*) AS n FROM information_schema.tables WHERE table_schema = ?", [database])) as [{ n: number }[]];
+    const [[row]] = (await k.raw(sql, [database])) as [{ n: number }[]];
     return Number(row.n);
   } finally {
     await k.destroy();
   }
 }
+const tableCount = (database: string) => countIn("SELECT COUNT(*) AS n FROM information_schema.tables WHERE table_schema = ?", database);
+const databaseCount = (database: string) => countIn("SELECT COUNT(*) AS n FROM information_schema.schemata WHERE schema_name = ?", database);
 
 describe("backup and restore of the database with its objects", () => {
   const dbDir = process.env.BEADLINE_DB_DIR!;
@@ -220,7 +222,7 @@ describe("backup and restore of the database with its objects", () => {
   }
 
   async function expectNothingWritten() {
-    expect(await tableCount(FRESH)).toBe(0);
+    expect(await databaseCount(FRESH), "the target database was not even created").toBe(0);
     expect(await bucketKeys(client, FRESH_BUCKET)).toEqual([]);
   }
 
@@ -289,7 +291,7 @@ describe("backup and restore of the database with its objects", () => {
     await expect(restoreBackup({ folder: backupFolder, url: urlFor(FRESH), store: { bucket: FRESH_BUCKET } })).rejects.toThrow(
       new RegExp(`already holds 1 of the backup's objects \\(first: "${files[1].key.replace(/\./g, "\\.")}"\\); nothing was restored`),
     );
-    expect(await tableCount(FRESH)).toBe(0);
+    expect(await databaseCount(FRESH)).toBe(0);
     expect((await readObject(client, FRESH_BUCKET, files[1].key)).bytes.toString()).toBe("other");
   }, 120_000);
 
