@@ -180,11 +180,17 @@ export function blockReasons(input: BlockReasonsInput): BlockReason[] {
         kind: 'coil-other-crew',
         severity: 'override',
         subject: { type: 'coil', id: coil.id },
-        message: `Coil ${coil.code} is assigned to job ${owner.code} (${owner.name}) of the ${owner.crewName ?? 'other'} crew, not to this job. Use one of your crew's coils, or ask ${who} to clear it for this job before drawing it down.`,
+        message: `Coil ${coil.code} is assigned to job ${owner.code}${owner.name ? ` (${owner.name})` : ''} of ${crewPhrase(owner.crewName)}, not to this job. Use one of your crew's coils, or ask ${who} to clear it for this job before drawing it down.`,
       });
     }
   }
   return out;
+}
+
+/** A crew in a sentence: "the River crew" (a name that already ends in "crew" is not doubled), or "another crew". */
+export function crewPhrase(name: string | null | undefined): string {
+  if (!name) return 'another crew';
+  return /\bcrew$/i.test(name.trim()) ? `the ${name.trim()}` : `the ${name.trim()} crew`;
 }
 
 /**

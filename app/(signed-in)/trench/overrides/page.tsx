@@ -5,6 +5,7 @@ import { listJobs } from "@/database/queries/jobs";
 import { listOverridesForJobs } from "@/database/queries/joints";
 import { listCoils } from "@/database/queries/coils";
 import { COIL_STATUS_LABELS } from "@/domain/coils/statuses";
+import { crewPhrase } from "@/domain/joints/rules";
 import { GrantOverrideForm } from "./_components/grant-override-form";
 import { SectionCard } from "@/components/ui/section-card";
 import { TimeDisplay } from "@/components/ui/time-display";
@@ -40,7 +41,7 @@ export default async function OverridesPage() {
         heaters={blockedHeaters.map((h) => ({ id: h.id, label: `${h.assetTag}: ${h.problems.join(" ")}` }))}
         coils={[
           ...[...quarantined, ...usedUp].map((c) => ({ id: c.id, label: `${c.coilCode}: ${COIL_STATUS_LABELS[c.status].toLowerCase()}${c.statusReason ? ` (${c.statusReason})` : ""}` })),
-          ...crewOwned.map((c) => ({ id: c.id, label: `${c.coilCode}: on job ${c.jobCode} of the ${c.jobCrewName ?? "other"} crew` })),
+          ...crewOwned.map((c) => ({ id: c.id, label: `${c.coilCode}: on job ${c.jobCode} of ${crewPhrase(c.jobCrewName)}` })),
         ]}
       />
       <SectionCard id="active-heading" title="Overrides in force" className="flex flex-col gap-2">
