@@ -87,7 +87,8 @@ describe("a coil assigned to another crew's job (our rule: a coil belongs to the
   // The joint is recorded on job 5 by crew 1 (North crew); job 9 is crew 2's (River crew).
   const here = { id: 5, crewId: 1 };
   const riverJob = { id: 9, code: "WO-24152", name: "Orchard Rise service extension", crewId: 2, crewName: "River crew" };
-  const coil = (assignedJob: typeof riverJob | null, status: "in-use" | "quarantined" = "in-use") => ({ id: 3, code: "LV-C0007", status, statusReason: null, remainingM: 40, assignedJob });
+  type AssignedJob = { id: number; code: string; name: string; crewId: number | null; crewName: string | null };
+  const coil = (assignedJob: AssignedJob | null, status: "in-use" | "quarantined" = "in-use") => ({ id: 3, code: "LV-C0007", status, statusReason: null, remainingM: 40, assignedJob });
   const cases: [string, Parameters<typeof blockReasons>[0], [string, string][]][] = [
     ["on another crew's job: blocked until cleared", { ...base, job: here, coils: [coil(riverJob)] }, [["coil-other-crew", "override"]]],
     ["on this job", { ...base, job: here, coils: [coil({ ...riverJob, id: 5, crewId: 1 })] }, []],
