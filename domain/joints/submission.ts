@@ -196,9 +196,13 @@ export function submissionDifferences(stored: StoredSubmission, sent: RecordJoin
   const timed = (list: readonly TimedPhase[]) => [...new Set(list)].sort().map((p) => PHASE_LABELS[p].toLowerCase()).join(', ') || 'none';
   if (timed(stored.timedFields) !== timed(sent.timedFields)) differ('timedFields', L.timedFields, timed(stored.timedFields), timed(sent.timedFields));
   const sentAt = new Date(sent.madeAt);
-  // UTC, to the second: the sentence is read on any device, whatever its zone.
-  const utc = (d: Date) => `${d.toISOString().slice(0, 19).replace('T', ' ')} UTC`;
-  if (stored.madeAt.getTime() !== sentAt.getTime()) differ('madeAt', L.madeAt, utc(stored.madeAt), utc(sentAt));
+  if (stored.madeAt.getTime() !== sentAt.getTime()) {
+    // UTC (the sentence is read on any device, whatever its zone), to the second, or to the
+    // millisecond when the two fall in the same second.
+    const sameSecond = Math.floor(stored.madeAt.getTime() / 1000) === Math.floor(sentAt.getTime() / 1000);
+    const utc = (d: Date) => `${d.toISOString().slice(0, sameSecond ? 23 : 19).replace('T', ' ')} UTC`;
+    differ('madeAt', L.madeAt, utc(stored.madeAt), utc(sentAt));
+  }
   if ((stored.station ?? null) !== (sent.station ?? null)) differ('station', L.station, stored.station ?? NOT_GIVEN, sent.station ?? NOT_GIVEN);
   if (!sameNumber('latitude', stored.latitude, sent.latitude ?? null) || !sameNumber('longitude', stored.longitude, sent.longitude ?? null)) {
     const at = (lat: number | null | undefined, lon: number | null | undefined) => (lat == null || lon == null ? NOT_GIVEN : `${lat}, ${lon}`);

@@ -143,6 +143,13 @@ describe('submissionDifferences', () => {
     expect(out[2]!.message).toBe('Weather shelter: Windbreak recorded as joint 7 on WO-T1, Tent in this submission.');
   });
 
+  it('says when each was made, in UTC, to the millisecond when they share a second', () => {
+    const later = submissionDifferences(stored, parse({ madeAt: '2026-12-02T09:31:05Z' }), sides, 'si');
+    expect(later.map((d) => d.message)).toEqual(['When the joint was made: 2026-12-02 09:30:00 UTC recorded as joint 7 on WO-T1, 2026-12-02 09:31:05 UTC in this submission.']);
+    const close = submissionDifferences(stored, parse({ madeAt: '2026-12-02T09:30:00.250Z' }), sides, 'si');
+    expect(close[0]!.message).toBe('When the joint was made: 2026-12-02 09:30:00.000 UTC recorded as joint 7 on WO-T1, 2026-12-02 09:30:00.250 UTC in this submission.');
+  });
+
   it('words the refusal with the joint, the fields and the way on', () => {
     const out = submissionDifferences(stored, parse({ heaterTemperatureC: 226, beadMm: 4 }), sides, 'si');
     const message = reusedClientIdMessage(stored, out);
