@@ -257,6 +257,8 @@ export type JointRow = {
   finding_parameters: string | null;
   replaces_joint_id: number | null;
   recorded_at: Date;
+  /** SHA-256 hex of the recording submission's canonical text; null on joints recorded before. */
+  submission_sha256: string | null;
 };
 
 export type JointRevisionRow = {

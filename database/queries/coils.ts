@@ -52,6 +52,9 @@ export type Coil = {
   jobId: number | null;
   jobCode: string | null;
   jobName: string | null;
+  /** The crew of the job the coil is assigned to (that job's crew, not the trailer's). */
+  jobCrewId: number | null;
+  jobCrewName: string | null;
   inspection: CoilInspection;
   labelPrintedAt: Date | null;
   version: number;
@@ -64,6 +67,8 @@ export type CoilRow = CoilTableRow & {
   crew_trailer: string | null;
   job_code: string | null;
   job_name: string | null;
+  job_crew_id?: number | null;
+  job_crew_name?: string | null;
   received_by_name: string | null;
 };
 
@@ -98,6 +103,8 @@ export function toCoil(row: CoilRow): Coil {
     jobId: num(row.job_id),
     jobCode: row.job_code ?? null,
     jobName: row.job_name ?? null,
+    jobCrewId: num(row.job_crew_id ?? null),
+    jobCrewName: row.job_crew_name ?? null,
     inspection: {
       hasDamage: Boolean(row.has_damage),
       damageKinds: setList<DamageKind>(row.damage_kinds),
@@ -123,7 +130,9 @@ export function coilQuery(trx?: Db) {
     .leftJoin("crews", "crews.id", "coils.crew_id")
     .leftJoin("jobs", "jobs.id", "coils.job_id")
     .leftJoin("users as receiver", "receiver.id", "coils.received_by")
-    .select("coils.*", "crews.name as crew_name", "crews.trailer as crew_trailer", "jobs.code as job_code", "jobs.name as job_name", "receiver.name as received_by_name");
+    .leftJoin("crews as job_crew", "job_crew.id", "jobs.crew_id")
+    .select("coils.*", "crews.name as crew_name", "crews.trailer as crew_trailer", "jobs.code as job_code", "jobs.name as job_name", "receiver.name as received_by_name")
+    .select("jobs.crew_id as job_crew_id", "job_crew.name as job_crew_name");
 }
 
 export async function findCoilById({ id }: { id: number }, trx?: Db): Promise<Coil | null> {

@@ -12,7 +12,7 @@ import type { JointKind, Shelter, TimedPhase } from "@/domain/joints/schemas";
 import type { RecordedValues } from "@/domain/joints/values";
 import type { OverrideGrant } from "@/domain/joints/rules";
 import { conn, type Db } from "../client";
-import { toCoil, type Coil } from "./coils";
+import { coilQuery, toCoil, type Coil } from "./coils";
 import { num, parseJson, recordedValueRow, setList, text, toRecordedValues, type DbRow } from "./rows";
 import type { JointOverrideRow, JointRevisionRow, JointRow } from "../tables";
 
@@ -59,6 +59,8 @@ export type JointRecord = RecordedValues & {
   reviewState: ReviewState;
   revisionNo: number;
   recordedAt: Date;
+  /** SHA-256 (hex) of the submission that recorded it (domain/joints/submission); null before fingerprints were kept. */
+  submissionSha256: string | null;
 };
 
 type Row = DbRow;
@@ -131,6 +133,7 @@ function toJoint(r: JointQueryRow): JointRecord {
     reviewState: r.review_state ?? "pending-review",
     revisionNo: Number(r.revision_no ?? 1),
     recordedAt: r.recorded_at,
+    submissionSha256: r.submission_sha256 ?? null,
   };
 }
 
@@ -277,6 +280,8 @@ export type NewJoint = RecordedValues &
     heaterId: number;
     fuserId: number;
     recordedAt?: Date;
+    /** SHA-256 (hex) of the submission's canonical text (domain/joints/submission). */
+    submissionSha256?: string | null;
   };
 
 /** Inserts the joint row; a second insert with the same client id fails with a duplicate key. */
@@ -311,6 +316,7 @@ export async function insertJoint(j: NewJoint, trx: Db): Promise<number> {
     finding_parameters: j.findings.length ? [...new Set(j.findings.map((f) => f.parameter))].join(",") : null,
     replaces_joint_id: j.replacesJointId,
     ...(j.recordedAt ? { recorded_at: j.recordedAt } : {}),
+    ...(j.submissionSha256 ? { submission_sha256: j.submissionSha256 } : {}),
   });
   return Number(id);
 }
@@ -480,13 +486,13 @@ export async function listOverrideUsesForJoint({ jointId }: { jointId: number },
  */
 export async function listCoilsForTrench({ crewId, jobIds, limit = 300 }: { crewId: number | null; jobIds: number[]; limit?: number }, trx?: Db): Promise<Coil[]> {
   if (crewId === null && jobIds.length === 0) return [];
-  const rows = (await conn(trx)("coils")
+  // coilQuery, so each coil comes with its job and that job's crew (whose coil it is).
+  const rows = (await coilQuery(trx)
     .where((w) => {
-      if (crewId !== null) w.orWhere("crew_id", crewId);
-      if (jobIds.length) w.orWhereIn("job_id", jobIds);
+      if (crewId !== null) w.orWhere("coils.crew_id", crewId);
+      if (jobIds.length) w.orWhereIn("coils.job_id", jobIds);
     })
-    .orderBy("coil_code")
-    .limit(limit)
-    .select("coils.*")) as Parameters<typeof toCoil>[0][];
+    .orderBy("coils.coil_code")
+    .limit(limit)) as Parameters<typeof toCoil>[0][];
   return rows.map(toCoil);
 }

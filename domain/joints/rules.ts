@@ -1,14 +1,16 @@
 // Rules the Trench screen and the record-joint use case apply before a joint is written:
 // flagging a size mismatch between the two sides, and the
 // reasons to refuse (lapsed qualification) or to block until an inspector or admin clears
-// it (heater-plate check overdue or failed, coil quarantined or used up). Pure: the date
+// it (heater-plate check overdue or failed, coil quarantined or used up, coil assigned to
+// another crew's job). Pure: the date
 // `on` ('YYYY-MM-DD') and every record are passed in.
 //
 // Sources: butt fusion joins pipe of the same OD and wall (SDR) — ASTM F2620 scope and the
 // PPI generic procedure (PPI TR-33); a fuser must hold a current qualification for
 // the procedure (49 CFR 192.285, domain/qualifications); the heater face is checked before
 // the first joint of the day (PPI "Melt Procedure" page, ASTM F2620); quarantine
-// and used-up are Beadline's own coil states (no published source).
+// and used-up are Beadline's own coil states, and a coil belongs to the crew of the job it
+// is assigned to (our rule, no published source).
 
 import { isHeaterCheckOverdue, isHeaterFlagged } from '@/domain/equipment/rules';
 import type { CoilStatus } from '@/domain/coils/statuses';
@@ -64,6 +66,8 @@ export interface BlockingCoil {
   status: CoilStatus;
   statusReason: string | null;
   remainingM: number;
+  /** The job the coil is assigned to, with that job's crew (absent or null: none). */
+  assignedJob?: { id: number; code: string; name: string; crewId: number | null; crewName: string | null } | null;
 }
 
 export interface BlockingHeater {
@@ -73,7 +77,7 @@ export interface BlockingHeater {
   lastCheck: { passed: boolean; nextDueOn: string } | null;
 }
 
-export type BlockKind = 'qualification' | 'heater-check-overdue' | 'heater-check-failed' | 'heater-retired' | 'coil-quarantined' | 'coil-used-up';
+export type BlockKind = 'qualification' | 'heater-check-overdue' | 'heater-check-failed' | 'heater-retired' | 'coil-quarantined' | 'coil-used-up' | 'coil-other-crew';
 
 /**
  * `refuse`: no joint can be recorded (only the office can change it).
@@ -94,6 +98,11 @@ export interface BlockReasonsInput {
   procedureLabel: string;
   heater: BlockingHeater | null;
   coils: BlockingCoil[];
+  /**
+   * The job the joint is recorded on and the crew recording it (the job's crew, or the
+   * fuser's for a job without one). Absent: coil ownership is not judged.
+   */
+  job?: { id: number; crewId: number | null };
   /** The joint's date, 'YYYY-MM-DD'. */
   on: string;
   /** People who can help: admins for qualifications, inspectors and admins for overrides. */
@@ -111,8 +120,9 @@ function askList(names: string[], role: string): string {
  * Every reason this joint must not be recorded as it stands. A lapsed, never-held or
  * failed-test qualification refuses (49 CFR 192.285(c), via qualificationStatus) and says
  * whom to ask; a heater plate whose check is overdue or failed, or a coil that is
- * quarantined or used up, needs an inspector's or admin's override. A retired heater plate
- * refuses. Order: refusals first, then overrides, heater before coils.
+ * quarantined or used up, or assigned to another crew's job (coilOwnerElsewhere), needs an
+ * inspector's or admin's override. A retired heater plate refuses. Order: refusals first,
+ * then overrides, heater before coils.
  */
 export function blockReasons(input: BlockReasonsInput): BlockReason[] {
   const out: BlockReason[] = [];
@@ -164,9 +174,43 @@ export function blockReasons(input: BlockReasonsInput): BlockReason[] {
         message: `Coil ${coil.code} is recorded as used up. Check the label; if the coil really has pipe left, ask ${who} to clear it for this job.`,
       });
     }
+    const owner = coilOwnerElsewhere(coil, input.job);
+    if (owner) {
+      out.push({
+        kind: 'coil-other-crew',
+        severity: 'override',
+        subject: { type: 'coil', id: coil.id },
+        message: `Coil ${coil.code} is assigned to job ${owner.code}${owner.name ? ` (${owner.name})` : ''} of ${crewPhrase(owner.crewName)}, not to this job. Use one of your crew's coils, or ask ${who} to clear it for this job before drawing it down.`,
+      });
+    }
   }
   return out;
 }
+
+/** A crew in a sentence: "the River crew" (a name that already ends in "crew" is not doubled), or "another crew". */
+export function crewPhrase(name: string | null | undefined): string {
+  if (!name) return 'another crew';
+  return /\bcrew$/i.test(name.trim()) ? `the ${name.trim()}` : `the ${name.trim()} crew`;
+}
+
+/**
+ * The other crew's job a coil is assigned to, when it is not the joint's job and that job
+ * belongs to a crew other than the recording one (a coil on a job without a crew, or on
+ * another job of the same crew, is free to use); null otherwise.
+ */
+export function coilOwnerElsewhere(coil: Pick<BlockingCoil, 'assignedJob'>, job: BlockReasonsInput['job']): NonNullable<BlockingCoil['assignedJob']> | null {
+  const assigned = coil.assignedJob ?? null;
+  if (!assigned || !job || assigned.id === job.id) return null;
+  if (assigned.crewId === null || assigned.crewId === job.crewId) return null;
+  return assigned;
+}
+
+/**
+ * Block kinds whose override lets a joint name the coil but not draw it down: the pull is not
+ * taken off a quarantined or used-up coil (domain/coils/life planPull refuses it). A coil of
+ * another crew's job, once cleared, is drawn down like any other.
+ */
+export const NO_PULL_BLOCKS: readonly BlockKind[] = ['coil-quarantined', 'coil-used-up'];
 
 /**
  * A grant also covers a joint made up to 2 hours before it was given: the fuser is often

@@ -8,7 +8,7 @@ import { describe, expect, it } from "vitest";
 import { findLocalCoil } from "@/app/(signed-in)/trench/_client/find-coil";
 import type { TrenchCoil } from "@/app/_server/trench/setup-types";
 import { planButtFusion } from "@/domain/fusion/plan";
-import { applyOverrides, blockReasons, componentMismatch, madeAtProblem, OVERRIDE_LOOKBACK_MS } from "@/domain/joints/rules";
+import { applyOverrides, blockReasons, componentMismatch, crewPhrase, madeAtProblem, OVERRIDE_LOOKBACK_MS } from "@/domain/joints/rules";
 import { recordJointFormSchema } from "@/domain/joints/schemas";
 import { phaseLimits, phaseView, timedDurationS } from "@/domain/joints/timer";
 import { qualificationStatus } from "@/domain/qualifications/status";
@@ -77,6 +77,51 @@ describe("blockReasons", () => {
     expect(at(new Date(grantedAt.getTime() - OVERRIDE_LOOKBACK_MS - 1000).toISOString()).covered).toHaveLength(0);
     expect(at("2026-12-02T14:00:01Z").covered).toHaveLength(0);
     expect(at("2026-12-02T11:00:00Z", 6).covered).toHaveLength(0);
+  });
+});
+
+describe("a coil assigned to another crew's job (our rule: a coil belongs to the crew of its job; no published source)", () => {
+  const on = "2026-12-02";
+  const qualified = qualificationStatus({ qualifiedOn: ["2026-10-01"], on });
+  const base = { procedureLabel: "P-1", on, admins: ["Ada Admin"], inspectors: ["Ivy Inspector"], qualification: qualified, heater: null };
+  // The joint is recorded on job 5 by crew 1 (North crew); job 9 is crew 2's (River crew).
+  const here = { id: 5, crewId: 1 };
+  const riverJob = { id: 9, code: "WO-24152", name: "Orchard Rise service extension", crewId: 2, crewName: "River crew" };
+  type AssignedJob = { id: number; code: string; name: string; crewId: number | null; crewName: string | null };
+  const coil = (assignedJob: AssignedJob | null, status: "in-use" | "quarantined" = "in-use") => ({ id: 3, code: "LV-C0007", status, statusReason: null, remainingM: 40, assignedJob });
+  const cases: [string, Parameters<typeof blockReasons>[0], [string, string][]][] = [
+    ["on another crew's job: blocked until cleared", { ...base, job: here, coils: [coil(riverJob)] }, [["coil-other-crew", "override"]]],
+    ["on this job", { ...base, job: here, coils: [coil({ ...riverJob, id: 5, crewId: 1 })] }, []],
+    ["on another job of the same crew", { ...base, job: here, coils: [coil({ ...riverJob, crewId: 1, crewName: "North crew" })] }, []],
+    ["on a job without a crew", { ...base, job: here, coils: [coil({ ...riverJob, crewId: null, crewName: null })] }, []],
+    ["on no job", { ...base, job: here, coils: [coil(null)] }, []],
+    ["a fuser without a crew on a crewless job, coil on a crew's job", { ...base, job: { id: 5, crewId: null }, coils: [coil(riverJob)] }, [["coil-other-crew", "override"]]],
+    ["quarantined and on another crew's job: both", { ...base, job: here, coils: [coil(riverJob, "quarantined")] }, [["coil-quarantined", "override"], ["coil-other-crew", "override"]]],
+    ["not judged without the recording job", { ...base, coils: [coil(riverJob)] }, []],
+  ];
+  it.each(cases)("%s", (_name, input, expected) => {
+    expect(blockReasons(input).map((r) => [r.kind, r.severity])).toEqual(expected);
+  });
+
+  it("names the coil, the other job and its crew in words, and whom to ask", () => {
+    const [block] = blockReasons({ ...base, job: here, coils: [coil(riverJob)] });
+    expect(block!.message).toBe("Coil LV-C0007 is assigned to job WO-24152 (Orchard Rise service extension) of the River crew, not to this job. Use one of your crew's coils, or ask Ivy Inspector to clear it for this job before drawing it down.");
+    expect(block!.subject).toEqual({ type: "coil", id: 3 });
+  });
+
+  it("an override for the coil on this job covers it", () => {
+    const reasons = blockReasons({ ...base, job: here, coils: [coil(riverJob)] });
+    const grant = { id: 4, jobId: 5, subjectType: "coil" as const, subjectId: 3, grantedAt: new Date("2026-12-02T10:00:00Z"), expiresAt: new Date("2026-12-02T14:00:00Z") };
+    expect(applyOverrides(reasons, [grant], { jobId: 5, madeAt: new Date("2026-12-02T11:00:00Z") }).open).toEqual([]);
+    expect(applyOverrides(reasons, [grant], { jobId: 6, madeAt: new Date("2026-12-02T11:00:00Z") }).open.map((r) => r.kind)).toEqual(["coil-other-crew"]);
+  });
+
+  it.each([
+    ["River crew", "the River crew"],
+    ["Ridge", "the Ridge crew"],
+    [null, "another crew"],
+  ])("crew %s in a sentence: %s", (name, phrase) => {
+    expect(crewPhrase(name)).toBe(phrase);
   });
 });
 

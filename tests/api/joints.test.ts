@@ -254,6 +254,85 @@ describe("recording a joint", () => {
     expect((await post(other, body)).status).toBe(409);
   });
 
+  // Same key, other payload → refused, never the first answer again (IETF
+  // draft-ietf-httpapi-idempotency-key-header-07, "Error Handling"; we answer 409).
+  it("a used client id with the same submission answers 200 with its joint; with other values 409 naming the field, writing nothing", async () => {
+    const body = goodJoint(base);
+    const first = await post(fuser, body);
+    expect(first.status).toBe(201);
+    const stored = await ownerDb()("joints").where({ id: first.body.joint.id }).first();
+    expect(stored.submission_sha256).toMatch(/^[0-9a-f]{64}$/); // SHA-256: 256 bits, 64 hex digits (FIPS 180-4)
+
+    // The same submission written differently: the instant at another offset (RFC 3339 §4.2),
+    // the current name of the fusion gauge pressure, the phases in another order, coil A by the label's path.
+    const { fusionGaugeMpa, ...rest } = body as ReturnType<typeof goodJoint> & { fusionGaugeMpa: number };
+    const madeAt = new Date(body.madeAt as string);
+    const plusOne = new Date(madeAt.getTime() + 3_600_000).toISOString().replace("Z", "+01:00");
+    const again = await post(fuser, { ...rest, fusionGaugePressureMpa: fusionGaugeMpa, madeAt: plusOne, timedFields: ["cooling", "changeover"], coilA: "/coils/T-C0001" });
+    expect(again.status).toBe(200);
+    expect(again.body.created).toBe(false);
+    expect(again.body.joint.id).toBe(first.body.joint.id);
+
+    const before = await counts();
+    const other = await post(fuser, { ...body, heaterTemperatureC: 190, beadMm: 4.5 });
+    expect(other.status).toBe(409);
+    expect(other.body.error.code).toBe("conflict");
+    expect(other.body.error.message).toContain("already used for joint 1 on WO-T1");
+    expect(other.body.error.message).toContain("heater temperature, bead size");
+    expect(Object.keys(other.body.error.fields).sort()).toEqual(["beadMm", "clientId", "heaterTemperatureC"]);
+    expect(other.body.error.fields.heaterTemperatureC[0]).toBe("Heater temperature: 218 °C recorded as joint 1 on WO-T1, 190 °C in this submission.");
+    expect(await counts()).toEqual(before);
+
+    // The server action refuses the same way.
+    await actAs(fuser);
+    const viaAction = await recordJointAction({ ...body, station: "4+00" } as never);
+    expect(viaAction.ok).toBe(false);
+    if (!viaAction.ok) {
+      expect(viaAction.status).toBe(409);
+      expect(viaAction.fields?.station?.[0]).toBe("Station: 3+40 recorded as joint 1 on WO-T1, 4+00 in this submission.");
+    }
+    const sameViaAction = await recordJointAction(body as never);
+    expect(sameViaAction.ok && sameViaAction.data.created === false && sameViaAction.data.joint.id === first.body.joint.id).toBe(true);
+
+    // Sent as a new joint (a fresh client id), the other values are recorded as joint 2.
+    const asNew = await post(fuser, { ...body, clientId: randomUUID(), heaterTemperatureC: 190, beadMm: 4.5 });
+    expect(asNew.status).toBe(201);
+    expect(asNew.body.joint.jointNo).toBe(2);
+  });
+
+  it("two different submissions racing under one client id: one 201, the other 409; the joint holds the winner's values", async () => {
+    for (let round = 0; round < 3; round += 1) {
+      const clientId = randomUUID();
+      const a = goodJoint(base, { clientId, lengthAM: 1, heaterTemperatureC: 218 });
+      const b = goodJoint(base, { clientId, lengthAM: 1, heaterTemperatureC: 222 });
+      const [ra, rb] = await Promise.all([post(fuser, a), post(fuser, b)]);
+      expect([ra.status, rb.status].sort()).toEqual([201, 409]);
+      const [won, lost] = ra.status === 201 ? [ra, rb] : [rb, ra];
+      const wonTemperature = ra.status === 201 ? 218 : 222;
+      expect(Object.keys(lost.body.error.fields)).toContain("heaterTemperatureC");
+      expect(lost.body.error.message).toContain(`joint ${won.body.joint.jointNo} on WO-T1`);
+      const rows = await ownerDb()("joints").where({ client_id: clientId });
+      expect(rows).toHaveLength(1);
+      expect(Number(rows[0].heater_temperature_c)).toBe(wonTemperature);
+    }
+    const c = await counts();
+    expect([c.joints, c.revisions, c.audit, c.coilEvents]).toEqual([3, 3, 3, 3]);
+  });
+
+  it("a joint recorded before fingerprints were kept is compared value by value, at the resolution it is stored at", async () => {
+    const body = goodJoint(base);
+    const first = await post(fuser, body);
+    expect(first.status).toBe(201);
+    await ownerDb()("joints").where({ id: first.body.joint.id }).update({ submission_sha256: null });
+    // heater_temperature_c is DECIMAL(6,1): 218.04 is kept as 218.0 (MariaDB rounds to the scale).
+    const same = await post(fuser, { ...body, heaterTemperatureC: 218.04 });
+    expect(same.status).toBe(200);
+    expect(same.body.joint.id).toBe(first.body.joint.id);
+    const other = await post(fuser, { ...body, coolingS: 700 });
+    expect(other.status).toBe(409);
+    expect(Object.keys(other.body.error.fields).sort()).toEqual(["clientId", "coolingS"]);
+  });
+
   it("20 concurrent submissions on one job get 20 distinct, gap-free numbers", async () => {
     const results = await Promise.all(Array.from({ length: 20 }, () => post(fuser, goodJoint(base, { lengthAM: 1 }))));
     expect(results.map((r) => r.status)).toEqual(Array(20).fill(201));
@@ -324,6 +403,45 @@ describe("recording a joint", () => {
     expect(uses).toHaveLength(1);
     expect(uses[0].block_kind).toBe("heater-check-overdue");
     expect(await ownerDb()("audit_log").where({ action: "block-override-granted", actor_user_id: inspector.id })).toHaveLength(1);
+  });
+
+  it("a coil assigned to another crew's job blocks until an inspector clears it; cleared, it is drawn down and the override named", async () => {
+    const k = ownerDb();
+    const [northId] = await k("crews").insert({ name: "North crew", trailer: "Trailer T-7" });
+    const [riverId] = await k("crews").insert({ name: "River crew", trailer: "Trailer T-9" });
+    await k("jobs").where({ id: base.jobId }).update({ crew_id: northId });
+    const [riverJob] = await k("jobs").insert({ code: "WO-T2", name: "Orchard Rise service extension", procedure_id: base.procedureId, status: "open", crew_id: riverId });
+    const [northJob] = await k("jobs").insert({ code: "WO-T3", name: "Fenwick Lane main renewal", procedure_id: base.procedureId, status: "open", crew_id: northId });
+    const coil = async (code: string, jobId: number) => Number((await k("coils").insert({ coil_code: code, manufacturer: "Quillfield Polymers", lot: "4410021", material: "PE4710", series: "ips", nominal_size: "2", outside_diameter_mm: OD_MM, sdr: SDR, length_m: 152.4, remaining_m: 152.4, status: "in-use", job_id: jobId }))[0]);
+    const riverCoil = await coil("T-C0020", Number(riverJob));
+    await coil("T-C0021", Number(northJob));
+    const north = await makeUser({ roles: ["fuser"], name: "Nell North", crewId: Number(northId) });
+    await qualify(north.id, base.procedureId, 30);
+
+    const blocked = await post(north, goodJoint(base, { coilB: "T-C0020", lengthBM: 4 }));
+    expect(blocked.status).toBe(409);
+    expect(blocked.body.error.fields.override[0]).toBe(
+      "Coil T-C0020 is assigned to job WO-T2 (Orchard Rise service extension) of the River crew, not to this job. Use one of your crew's coils, or ask Ivy Inspector to clear it for this job before drawing it down.",
+    );
+    expect(await counts()).toEqual(NOTHING);
+    expect(Number((await k("coils").where({ id: riverCoil }).first()).remaining_m)).toBe(152.4);
+
+    // A coil on another job of one's own crew is free to use.
+    expect((await post(north, goodJoint(base, { coilB: "T-C0021" }))).status).toBe(201);
+
+    // The fuser cannot clear it; an inspector does, with a reason, for this job.
+    await actAs(north);
+    expect((await grantOverrideAction({ jobId: base.jobId, subject: "coil", subjectId: riverCoil, reason: "River crew lent us this coil today" })).ok).toBe(false);
+    await actAs(inspector);
+    const grant = await grantOverrideAction({ jobId: base.jobId, subject: "coil", subjectId: riverCoil, reason: "River crew lent this coil for the Fenwick tie-in, agreed by phone", hours: 4 });
+    expect(grant.ok).toBe(true);
+    const cleared = await post(north, goodJoint(base, { coilB: "T-C0020", lengthBM: 4 }));
+    expect(cleared.status).toBe(201);
+    const uses = await k("joint_override_uses as u").join("joint_overrides as o", "o.id", "u.override_id").where({ "u.joint_id": cleared.body.joint.id }).select("u.block_kind", "u.message", "o.granted_by", "o.reason");
+    expect(uses).toEqual([{ block_kind: "coil-other-crew", message: expect.stringContaining("WO-T2"), granted_by: inspector.id, reason: "River crew lent this coil for the Fenwick tie-in, agreed by phone" }]);
+    // Cleared, the pull is drawn down from the coil like any other (152.4 − 4 m).
+    expect(Number((await k("coils").where({ id: riverCoil }).first()).remaining_m)).toBeCloseTo(148.4, 2);
+    expect(await k("coil_events").where({ coil_id: riverCoil, joint_id: cleared.body.joint.id })).toHaveLength(1);
   });
 
   it("the plan and one-joint routes name bad input: 422 for a missing pipe, 404 for an unknown machine or joint, 400 for a bad id", async () => {

@@ -1,6 +1,8 @@
 // The Trench screen on a phone-sized browser: the demo fuser (US customary units) records
 // a joint with typed values and sees the verdict; then records one with no signal, which
-// waits in the device's outbox and arrives exactly once when the signal is back.
+// waits in the device's outbox and arrives exactly once when the signal is back; and a
+// draft recorded in a second tab under a used submission id is refused, kept, and sent as
+// a new joint.
 //
 // Values typed (US customary, the demo fuser's units) and why they are within limits:
 // - heater 425 °F inside 400–450 °F // source: ASTM F2620 via the PPI "Melt Procedure" page (CONFIRMED)
@@ -166,4 +168,61 @@ test("a joint recorded with no signal waits on the device and arrives exactly on
   await expect(trench.recordButton).toBeEnabled();
   await page.waitForTimeout(1000);
   expect((await jointsOnJob(page, "WO-24117")).length).toBe(before.length + 1);
+});
+
+// Same idempotency key with another payload → refused, not answered with the first joint
+// (IETF draft-ietf-httpapi-idempotency-key-header-07, "Error Handling"; Beadline answers 409).
+test("a second tab recording the same draft with other values is told so, and its joint is kept and sent as a new one", async ({ page, context }) => {
+  await new SignInPage(page).signInAs("fuser");
+  const first = new TrenchPage(page);
+  await first.goto();
+  await first.chooseSetup({ job: "WO-24117 · Fenwick Lane main renewal", machine: "FM-201 · Hydraulic butt-fusion machine, 2–8 in IPS", heater: "HP-31" });
+  await first.fillTypedJoint({ ...JOINT, station: "5+10" });
+
+  // A second tab opens the Trench: it restores the same draft, with the same submission id.
+  const page2 = await context.newPage();
+  const second = new TrenchPage(page2);
+  await second.goto();
+  await expect(second.field("Station (place along the job)")).toHaveValue("5+10");
+  const draftId = await page2.evaluate(() => {
+    const key = Object.keys(localStorage).find((k) => k.startsWith("beadline.trench.draft."))!;
+    return (JSON.parse(localStorage.getItem(key)!) as { values: { clientId: string } }).values.clientId;
+  });
+
+  // The first tab records it.
+  await first.recordButton.click();
+  await expect(first.result()).toHaveText(/^Joint \d+ on WO-24117: Within limits$/);
+  const jointNo = Number(/Joint (\d+)/.exec((await first.result().textContent()) ?? "")![1]);
+
+  // The second tab changes two values and records under the used id: refused, in words.
+  // 440 °F is still inside 400–450 °F (ASTM F2620 via the PPI "Melt Procedure" page).
+  await second.field("Heater temperature measured at the face").fill("440");
+  await second.field("Station (place along the job)").fill("5+30");
+  await second.recordButton.click();
+  const notice = second.reusedIdNotice();
+  await expect(notice).toBeVisible();
+  await expect(notice.getByRole("alert")).toContainText(`already used for joint ${jointNo} on WO-24117 with other values (heater temperature, when the joint was made, station)`);
+  await expect(notice.getByRole("list", { name: "Values that differ from the joint already recorded" })).toContainText(`Heater temperature: 425 °F recorded as joint ${jointNo} on WO-24117, 440 °F in this submission.`);
+  await expect(notice).not.toContainText("Within limits"); // no verdict of the other joint shown as this one's
+  await second.shot("7-reused-id-refused");
+  // Both joints stay on the device: the first tab's sent one and this refused one.
+  await expect(second.outboxEntries().filter({ hasText: `Sent: joint ${jointNo} on WO-24117` })).toHaveCount(1);
+  await expect(second.outboxEntries().filter({ hasText: "Refused" })).toHaveCount(1);
+  const joints = await jointsOnJob(page2, "WO-24117");
+  expect(joints.filter((j) => j.clientId === draftId)).toHaveLength(1);
+  const recorded = (await (await page2.request.get(`/api/v1/joints/${joints.find((j) => j.clientId === draftId)!.id}`)).json()) as { joint: { place: { station: string } } };
+  expect(recorded.joint.place.station).toBe("5+10");
+
+  // Sent as a new joint: a fresh submission id, the second tab's values.
+  await notice.getByRole("button", { name: "Send as a new joint" }).click();
+  await expect(second.result()).toHaveText(`Joint ${jointNo + 1} on WO-24117: Within limits`);
+  const list = (await (await page2.request.get("/api/v1/joints?limit=200")).json()) as { joints: { id: number; clientId: string; jointNo: number; job: { code: string } }[] };
+  const asNew = list.joints.filter((j) => j.job.code === "WO-24117" && j.jointNo === jointNo + 1);
+  expect(asNew).toHaveLength(1);
+  expect(asNew[0]!.clientId).not.toBe(draftId);
+  const sent = (await (await page2.request.get(`/api/v1/joints/${asNew[0]!.id}`)).json()) as { joint: { place: { station: string } } };
+  expect(sent.joint.place.station).toBe("5+30");
+  await second.shot("8-sent-as-new");
+  // The first tab still shows its own joint's verdict.
+  await expect(first.result()).toHaveText(`Joint ${jointNo} on WO-24117: Within limits`);
 });

@@ -1,5 +1,6 @@
 // An inspector or admin clears a blocking warning (a heater plate whose check is overdue or
-// failed, a quarantined or used-up coil) for one job for a few hours. The grant is its own
+// failed, a quarantined or used-up coil, a coil assigned to another crew's job) for one job
+// for a few hours. The grant is its own
 // record with who, why and until when, audited in the same transaction; every joint made
 // under it names it (joint_override_uses), written by the record-joint transaction.
 import "server-only";

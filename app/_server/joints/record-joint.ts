@@ -5,9 +5,12 @@
 // the coil pulls, the photo links, the override uses, the audit entry and (out of limits)
 // the inspectors' alert in ONE transaction. Joint numbers come from the job's counter row
 // locked FOR UPDATE, so they are gap-free under concurrent submissions. A client id seen
-// before returns the joint it made (idempotent), also when two copies race.
+// before returns the joint it made when the submission is the same (its SHA-256 fingerprint,
+// domain/joints/submission), also when two copies race; with other values it is refused
+// (409) naming the fields that differ.
 import { withInstrument } from "@/domain/fusion/instrument";
 import "server-only";
+import { createHash } from "node:crypto";
 import type { Knex } from "knex";
 import { db, isDuplicateKey } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
@@ -35,7 +38,8 @@ import { listUsersWithRole, type UserRecord } from "@/database/queries/users";
 import { checkJoint, type JointCheck } from "@/domain/fusion/check";
 import { planButtFusion, type FusionPlan } from "@/domain/fusion/plan";
 import { buttFusionPlanInput, NO_PUBLISHED_VERSION_FIELD_MESSAGE, noPublishedVersionMessage, preRecordProblems } from "@/domain/joints/pre-record";
-import { applyOverrides, blockReasons, madeAtProblem } from "@/domain/joints/rules";
+import { applyOverrides, blockReasons, madeAtProblem, NO_PULL_BLOCKS } from "@/domain/joints/rules";
+import { reusedClientIdMessage, submissionDifferences, submissionFingerprintText, type ResolvedSides } from "@/domain/joints/submission";
 import { pickRecordedValues, type RecordedValues } from "@/domain/joints/values";
 import type { RecordJointInput } from "@/domain/joints/schemas";
 import { jobBlockReason } from "@/domain/jobs/rules";
@@ -123,6 +127,9 @@ type Prepared = {
   procedureVersionId: number;
   jobCode: string;
   covered: ReturnType<typeof applyOverrides>["covered"];
+  /** The coils the side texts named, and the submission's fingerprint (SHA-256 hex). */
+  sides: ResolvedSides;
+  submissionSha256: string;
 };
 
 /** Everything that can be decided before the transaction: refusals come out as AppErrors. */
@@ -161,7 +168,16 @@ async function prepare(input: RecordJointInput, user: UserRecord, madeAt: Date):
     qualification,
     procedureLabel: `${version.procedureCode} (${version.procedureName})`,
     heater: { id: heater.id, assetTag: heater.assetTag, isActive: heater.isActive, lastCheck: heater.lastCheck ? { passed: heater.lastCheck.passed, nextDueOn: heater.lastCheck.nextDueOn } : null },
-    coils: [coilA, ...(coilB ? [coilB] : [])].map((c) => ({ id: c.id, code: c.coilCode, status: c.status, statusReason: c.statusReason, remainingM: c.remainingM })),
+    coils: [coilA, ...(coilB ? [coilB] : [])].map((c) => ({
+      id: c.id,
+      code: c.coilCode,
+      status: c.status,
+      statusReason: c.statusReason,
+      remainingM: c.remainingM,
+      assignedJob: c.jobId === null ? null : { id: c.jobId, code: c.jobCode ?? `job ${c.jobId}`, name: c.jobName ?? "", crewId: c.jobCrewId, crewName: c.jobCrewName },
+    })),
+    // The recording crew: the job's, or the fuser's on a job without a crew.
+    job: { id: job.id, crewId: job.crewId ?? user.crewId },
     on,
     admins: namesOf(admins),
     inspectors: namesOf(inspectors.length ? inspectors : admins),
@@ -184,7 +200,19 @@ async function prepare(input: RecordJointInput, user: UserRecord, madeAt: Date):
   const plan = withInstrument(planButtFusion(buttFusionPlanInput({ procedure: version.definition, pipe: coilA, machine: { pistonAreaMm2: machine.pistonAreaMm2 as number }, dragPressureMpa: input.dragPressureMpa })), machine);
   // The server's own check, messages in SI for the record (screens re-check in their units).
   const check = checkJoint(plan, pickRecordedValues(input), { system: "si", conditions: { ambientC: input.ambientC, shelter: input.shelter } });
-  return { plan, check, coilA, coilB, procedureVersionId: version.id, jobCode: job.code, covered };
+  const sides = { coilAId: coilA.id, coilBId: coilB?.id ?? null };
+  return { plan, check, coilA, coilB, procedureVersionId: version.id, jobCode: job.code, covered, sides, submissionSha256: submissionSha256(input, sides) };
+}
+
+/** SHA-256 (hex) of the submission's canonical text (domain/joints/submission). */
+function submissionSha256(input: RecordJointInput, sides: ResolvedSides): string {
+  return createHash("sha256").update(submissionFingerprintText(input, sides), "utf8").digest("hex");
+}
+
+/** The coils a submission's side texts name (null where none is on file), to compare it with a recorded joint. */
+async function sidesOf(input: RecordJointInput, user: UserRecord): Promise<ResolvedSides> {
+  const idOf = async (text: string | null | undefined) => (text ? ((await findCoilByCodeOrTrace({ code: text, preferCrewId: user.crewId }))?.id ?? null) : null);
+  return { coilAId: await idOf(input.coilA), coilBId: input.kind === "coil-to-coil" ? await idOf(input.coilB) : null };
 }
 
 const MAX_DEADLOCK_RETRIES = 3;
@@ -198,13 +226,27 @@ function isClientIdDuplicate(error: unknown): boolean {
   return isDuplicateKey(error) && /client_id/i.test(String((error as { sqlMessage?: string; message?: string }).sqlMessage ?? (error as Error).message));
 }
 
-async function existingFor(clientId: string, user: UserRecord): Promise<RecordJointResult | null> {
-  const existing = await findJointByClientId({ clientId });
+/**
+ * The joint this client id already made, when the submission is that joint sent again; null
+ * when the id is new. The same submission is the same fingerprint; a joint recorded before
+ * fingerprints were kept has none and is compared value by value (submissionDifferences, at
+ * the resolution it is stored at). Another person's id, or other values under this one, is
+ * refused (409): the fields that differ are named, each in words, and nothing is written.
+ */
+async function existingFor(input: RecordJointInput, user: UserRecord, known?: ResolvedSides): Promise<RecordJointResult | null> {
+  const existing = await findJointByClientId({ clientId: input.clientId });
   if (!existing) return null;
   if (existing.fuser.id !== user.id) {
-    throw new AppError("conflict", "This submission id was already used for a joint by someone else.", { clientId: ["Already used by another person's joint."] });
+    throw new AppError("conflict", "This submission id was already used for a joint by someone else. Nothing was recorded from this submission; send it as a new joint (a new submission id).", { clientId: ["Already used by another person's joint."] });
   }
-  return { created: false, joint: describeRecordedJoint(existing, user.unitSystem) };
+  const sides = known ?? (await sidesOf(input, user));
+  const differences = submissionDifferences(existing, input, sides, user.unitSystem);
+  const same = existing.submissionSha256 !== null ? existing.submissionSha256 === submissionSha256(input, sides) : differences.length === 0;
+  if (same) return { created: false, joint: describeRecordedJoint(existing, user.unitSystem) };
+  const message = reusedClientIdMessage(existing, differences);
+  const fields: Record<string, string[]> = { clientId: [message] };
+  for (const d of differences) (fields[d.field] ??= []).push(d.message);
+  throw new AppError("conflict", message, fields);
 }
 
 /**
@@ -215,7 +257,7 @@ async function existingFor(clientId: string, user: UserRecord): Promise<RecordJo
 export async function recordJoint(input: RecordJointInput, ctx: { user: UserRecord; requestId?: string; now?: Date }): Promise<RecordJointResult> {
   const { user } = ctx;
   const now = ctx.now ?? new Date();
-  const seen = await existingFor(input.clientId, user);
+  const seen = await existingFor(input, user);
   if (seen) return seen;
 
   const madeAt = new Date(input.madeAt);
@@ -224,7 +266,8 @@ export async function recordJoint(input: RecordJointInput, ctx: { user: UserReco
 
   const prepared = await prepare(input, user, madeAt);
   const warnings = await handlingWarnings(input, prepared, madeAt);
-  const coveredCoils = new Set(prepared.covered.filter((c) => c.reason.subject?.type === "coil").map((c) => c.reason.subject!.id));
+  // A cleared quarantined or used-up coil is named but not drawn down; a cleared coil of another crew's job is.
+  const coveredCoils = new Set(prepared.covered.filter((c) => c.reason.subject?.type === "coil" && NO_PULL_BLOCKS.includes(c.reason.kind)).map((c) => c.reason.subject!.id));
 
   for (let attempt = 1; ; attempt += 1) {
     try {
@@ -233,7 +276,8 @@ export async function recordJoint(input: RecordJointInput, ctx: { user: UserReco
       return { created: true, joint: { ...describeRecordedJoint(joint, user.unitSystem), warnings } };
     } catch (error) {
       if (isClientIdDuplicate(error)) {
-        const raced = await existingFor(input.clientId, user);
+        // The same client id won a race: the same submission gets its joint, other values a 409.
+        const raced = await existingFor(input, user, prepared.sides);
         if (raced) return raced;
       }
       if (isDeadlock(error) && attempt < MAX_DEADLOCK_RETRIES) continue;
@@ -311,6 +355,7 @@ async function writeJoint(
       outcome: p.check.outcome,
       findings: p.check.findings,
       replacesJointId: replaces?.id ?? null,
+      submissionSha256: p.submissionSha256,
     },
     trx,
   );
@@ -336,8 +381,10 @@ async function writeJoint(
     const tied = await attachPhotosToJoint({ ids: photos, jointId, userId: user.id }, trx);
     if (tied !== photos.length) throw invalid("photoIds", "One or more photos were not found, were uploaded by someone else or already belong to another joint; upload them again.");
   }
-  for (const c of p.covered) {
-    await insertOverrideUse({ jointId, overrideId: c.grant.id, blockKind: c.reason.kind, message: c.reason.message }, trx);
+  // One use per grant: a grant on a coil may clear two of its blocks (quarantined and on another crew's job).
+  for (const grantId of new Set(p.covered.map((c) => c.grant.id))) {
+    const reasons = p.covered.filter((c) => c.grant.id === grantId).map((c) => c.reason);
+    await insertOverrideUse({ jointId, overrideId: grantId, blockKind: reasons.map((r) => r.kind).join(","), message: reasons.map((r) => r.message).join(" ") }, trx);
   }
   await insertAuditEntry(
     {

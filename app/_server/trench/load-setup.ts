@@ -36,6 +36,7 @@ export async function loadTrenchSetup(user: UserRecord, now = new Date()): Promi
         code: j.code,
         name: j.name,
         place: j.place,
+        crewId: j.crewId,
         procedure: v ? { versionId: v.id, code: v.procedureCode, name: v.procedureName, versionNo: v.versionNo, definition: v.definition } : null,
         qualifiedOn: qualifications.filter((q) => q.procedureId === j.procedureId).map((q) => q.qualifiedOn),
         failedOn: failures.filter((f) => f.procedureId === j.procedureId).map((f) => f.failedOn),

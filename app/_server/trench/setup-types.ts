@@ -24,6 +24,8 @@ export type TrenchCoil = {
   status: CoilStatus;
   statusReason: string | null;
   crewId: number | null;
+  /** The job the coil is assigned to and that job's crew (a coil of another crew's job is blocked). */
+  assignedJob?: { id: number; code: string; name: string; crewId: number | null; crewName: string | null } | null;
 };
 
 export function toTrenchCoil(c: Coil): TrenchCoil {
@@ -42,6 +44,7 @@ export function toTrenchCoil(c: Coil): TrenchCoil {
     status: c.status,
     statusReason: c.statusReason,
     crewId: c.crewId,
+    assignedJob: c.jobId === null ? null : { id: c.jobId, code: c.jobCode ?? `job ${c.jobId}`, name: c.jobName ?? "", crewId: c.jobCrewId, crewName: c.jobCrewName },
   };
 }
 
@@ -50,6 +53,8 @@ export type TrenchJob = {
   code: string;
   name: string;
   place: string | null;
+  /** The job's crew (null: any crew may record on it). */
+  crewId: number | null;
   procedure: { versionId: number; code: string; name: string; versionNo: number; definition: ProcedureDefinition } | null;
   /** The fuser's qualification dates for this job's procedure (status is computed on the joint's date). */
   qualifiedOn: string[];

@@ -78,6 +78,11 @@ export class TrenchPage {
     return this.page.getByRole("heading", { level: 2 }).filter({ hasText: /Within limits|Out of limits/ });
   }
 
+  /** The notice of a joint refused because its submission id had already recorded another joint. */
+  reusedIdNotice(): Locator {
+    return this.page.getByRole("region", { name: "Not recorded: this draft's submission id was already used" });
+  }
+
   outboxStatus(): Locator {
     return this.page.getByRole("region", { name: "Outbox on this device" }).getByRole("status");
   }

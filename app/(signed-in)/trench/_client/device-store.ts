@@ -29,6 +29,11 @@ export type Draft = {
 export type OutboxState = "waiting" | "sending" | "sent" | "refused";
 
 export type OutboxEntry = {
+  /**
+   * This device's own id of the entry (entries stored before it existed go by clientId).
+   * Two entries may carry one client id (a draft recorded in two tabs); they stay apart.
+   */
+  localId?: string;
   clientId: string;
   createdAt: string;
   jobCode: string;
@@ -45,7 +50,15 @@ export type OutboxEntry = {
   /** The device's own check when it was recorded (the server's verdict is final). */
   preliminary: { outcome: string; findings: string[] } | null;
   result?: RecordedJoint;
+  /**
+   * Refused because its client id already recorded another joint (409 naming the client id):
+   * the values are kept here and can go as a new joint with a fresh client id.
+   */
+  isReusedId?: boolean;
 };
+
+/** The entry's identity on this device. */
+export const entryKey = (entry: Pick<OutboxEntry, "localId" | "clientId">) => entry.localId ?? entry.clientId;
 
 export type Remembered = { jobId?: number; machineId?: number; heaterId?: number };
 

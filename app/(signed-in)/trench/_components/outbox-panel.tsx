@@ -2,7 +2,8 @@
 // What is waiting on this device, what was sent and what was refused and why — in words.
 import Link from "next/link";
 import { Button } from "@/components/ui/button";
-import type { OutboxEntry } from "../_client/device-store";
+import { entryKey, type OutboxEntry } from "../_client/device-store";
+import { differenceMessages, ReusedIdActions } from "./reused-id-notice";
 import { formatDeviceInstant } from "@/components/ui/display-format";
 import { OUTCOME_LABELS } from "@/domain/joints/outcomes";
 
@@ -20,7 +21,21 @@ const STATE_STYLE: Record<OutboxEntry["state"], string> = {
   refused: "border-fail bg-fail-light text-fail",
 };
 
-export function OutboxPanel({ entries, online, onRetry, onRemove, onSendNow }: { entries: OutboxEntry[]; online: boolean; onRetry: (id: string) => void; onRemove: (id: string) => void; onSendNow: () => void }) {
+export function OutboxPanel({
+  entries,
+  online,
+  onRetry,
+  onSendAsNew,
+  onRemove,
+  onSendNow,
+}: {
+  entries: OutboxEntry[];
+  online: boolean;
+  onRetry: (key: string) => void;
+  onSendAsNew: (key: string) => void;
+  onRemove: (key: string) => void;
+  onSendNow: () => void;
+}) {
   const waiting = entries.filter((e) => e.state === "waiting" || e.state === "sending").length;
   const shown = [...entries].reverse().slice(0, 12);
   return (
@@ -39,7 +54,7 @@ export function OutboxPanel({ entries, online, onRetry, onRemove, onSendNow }: {
       ) : null}
       <ul className="flex flex-col gap-2" aria-label="Joints on this device">
         {shown.map((e) => (
-          <li key={e.clientId} className={`rounded-md border-2 p-3 ${STATE_STYLE[e.state]}`} aria-label={`${STATE_WORDS[e.state]}: ${e.jobCode ?? ""} ${e.label}`}>
+          <li key={entryKey(e)} className={`rounded-md border-2 p-3 ${STATE_STYLE[e.state]}`} aria-label={`${STATE_WORDS[e.state]}: ${e.jobCode ?? ""} ${e.label}`}>
             <p className="font-bold">
               {STATE_WORDS[e.state]}
               {e.result ? `: joint ${e.result.jointNo} on ${e.result.jobCode}` : ` · ${e.jobCode ?? ""}`} · {e.label}
@@ -56,21 +71,23 @@ export function OutboxPanel({ entries, online, onRetry, onRemove, onSendNow }: {
             {e.message ? <p className="text-sm font-semibold">{e.message}</p> : null}
             {e.fields && e.state === "refused" ? (
               <ul className="list-disc pl-5 text-sm">
-                {Object.entries(e.fields)
-                  .filter(([k]) => k !== "override" && k !== "_form")
-                  .map(([k, v]) => (
-                    <li key={k}>
-                      {k}: {v.join(" ")}
-                    </li>
-                  ))}
+                {/* The server's sentences name each field in words; the internal key is not shown. */}
+                {differenceMessages(e).map((m) => (
+                  <li key={m}>{m}</li>
+                ))}
               </ul>
             ) : null}
-            {e.state === "refused" ? (
+            {e.state === "refused" && e.isReusedId ? (
+              <>
+                <p className="text-sm">The values you entered are kept here. Send them as a new joint if this is a joint of its own.</p>
+                <ReusedIdActions entry={e} onSendAsNew={onSendAsNew} onRemove={onRemove} />
+              </>
+            ) : e.state === "refused" ? (
               <div className="mt-2 flex flex-wrap gap-2">
-                <Button type="button" variant="secondary" onClick={() => onRetry(e.clientId)}>
+                <Button type="button" variant="secondary" onClick={() => onRetry(entryKey(e))}>
                   Send again unchanged
                 </Button>
-                <Button type="button" variant="ghost" onClick={() => onRemove(e.clientId)}>
+                <Button type="button" variant="ghost" onClick={() => onRemove(entryKey(e))}>
                   Discard this joint from the device
                 </Button>
               </div>

@@ -1,13 +1,28 @@
 "use client";
 // The instant result of the joint just recorded: the device's own check at once, the
 // server's verdict once it arrives (the server's is the record). Out of limits: cut it out
-// and remake it per the procedure; the remake links to the joint it replaces.
+// and remake it per the procedure; the remake links to the joint it replaces. A joint whose
+// submission id had already recorded another joint shows that instead of any verdict.
 import Link from "next/link";
 import { Button } from "@/components/ui/button";
 import type { OutboxEntry } from "../_client/device-store";
 import { OUTCOME_LABELS } from "@/domain/joints/outcomes";
+import { ReusedIdNotice } from "./reused-id-notice";
 
-export function ResultPanel({ entry, onRemake, onDismiss }: { entry: OutboxEntry; onRemake: (entry: OutboxEntry) => void; onDismiss: () => void }) {
+export function ResultPanel({
+  entry,
+  onRemake,
+  onDismiss,
+  onSendAsNew,
+  onRemove,
+}: {
+  entry: OutboxEntry;
+  onRemake: (entry: OutboxEntry) => void;
+  onDismiss: () => void;
+  onSendAsNew: (key: string) => void;
+  onRemove: (key: string) => void;
+}) {
+  if (entry.state === "refused" && entry.isReusedId) return <ReusedIdNotice entry={entry} onSendAsNew={onSendAsNew} onRemove={onRemove} />;
   const result = entry.result;
   const outcome = result?.outcome ?? entry.preliminary?.outcome ?? null;
   const within = outcome === "within-limits";

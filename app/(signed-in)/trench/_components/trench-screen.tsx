@@ -70,7 +70,7 @@ export function TrenchScreen({ setup }: { setup: TrenchSetup }) {
 
   return (
     <div className="flex flex-col gap-6">
-      <div ref={resultRef}>{shown ? <ResultPanel entry={shown} onRemake={remake} onDismiss={dismissResult} /> : null}</div>
+      <div ref={resultRef}>{shown ? <ResultPanel entry={shown} onRemake={remake} onDismiss={dismissResult} onSendAsNew={outbox.sendAsNew} onRemove={outbox.remove} /> : null}</div>
 
       <form onSubmit={handleSubmit(onValid, onInvalid)} noValidate className="flex flex-col gap-6" aria-label="Record a joint">
         <input type="hidden" {...register("clientId")} />
@@ -184,7 +184,7 @@ export function TrenchScreen({ setup }: { setup: TrenchSetup }) {
         <p className="text-sm text-slate-700">Your entries are kept on this device as you type. A joint you record is checked at once and sent when there is signal.</p>
       </form>
 
-      <OutboxPanel entries={outbox.entries} online={outbox.online} onRetry={outbox.retry} onRemove={outbox.remove} onSendNow={() => void outbox.sendNow()} />
+      <OutboxPanel entries={outbox.entries} online={outbox.online} onRetry={outbox.retry} onSendAsNew={outbox.sendAsNew} onRemove={outbox.remove} onSendNow={() => void outbox.sendNow()} />
     </div>
   );
 }

@@ -1,6 +1,6 @@
 "use client";
 // What keeps the joint from being recorded: the open blocks (qualification, heater check,
-// coil states) less the overrides granted by someone else, sides that do not match, the
+// coil states, a coil of another crew's job) less the overrides granted by someone else, sides that do not match, the
 // same coil on both sides, and a pipe size the machine does not take.
 import { useMemo } from "react";
 import { preRecordProblems } from "@/domain/joints/pre-record";
@@ -28,7 +28,9 @@ export function useRecordBlocks(setup: TrenchSetup, { job, machine, heater }: Pi
       qualification,
       procedureLabel: job.procedure ? `${job.procedure.code} (${job.procedure.name})` : job.code,
       heater: heater ? { id: heater.id, assetTag: heater.assetTag, isActive: heater.isActive, lastCheck: heater.lastCheck } : null,
-      coils: [coils.A, sideB].filter((c): c is TrenchCoil => c !== null).map((c) => ({ id: c.id, code: c.code, status: c.status, statusReason: c.statusReason, remainingM: c.remainingM })),
+      coils: [coils.A, sideB].filter((c): c is TrenchCoil => c !== null).map((c) => ({ id: c.id, code: c.code, status: c.status, statusReason: c.statusReason, remainingM: c.remainingM, assignedJob: c.assignedJob ?? null })),
+      // The recording crew, as the server takes it: the job's, or the fuser's on a job without a crew.
+      job: { id: job.id, crewId: job.crewId ?? setup.user.crewId },
       on: today,
       admins: setup.admins,
       inspectors: setup.inspectors.length ? setup.inspectors : setup.admins,

@@ -7,7 +7,7 @@ import { useMemo, useRef, useState, type Dispatch, type SetStateAction } from "r
 import { checkJoint } from "@/domain/fusion/check";
 import type { FusionPlan } from "@/domain/fusion/plan";
 import { pickRecordedValues } from "@/domain/joints/values";
-import { saveRemembered, type OutboxEntry, type PhotoRef, type Remembered } from "../../_client/device-store";
+import { entryKey, saveRemembered, type OutboxEntry, type PhotoRef, type Remembered } from "../../_client/device-store";
 import { findLocalCoil } from "../../_client/find-coil";
 import type { TrenchSetup } from "@/app/_server/trench/setup-types";
 import type { useOutbox } from "../../_client/use-outbox";
@@ -54,6 +54,8 @@ export function useRecordJoint({ setup, outbox, jobId, job, plan, cannotRecord, 
     }
     const label = `${v.coilA} + ${v.kind === "coil-to-coil" ? v.coilB : v.componentBText}`;
     const entry: OutboxEntry = {
+      // Its own id on this device: a draft recorded in two tabs carries one client id twice.
+      localId: crypto.randomUUID(),
       clientId: v.clientId,
       createdAt: madeAt,
       jobCode: job?.code ?? `job ${v.jobId}`,
@@ -69,7 +71,7 @@ export function useRecordJoint({ setup, outbox, jobId, job, plan, cannotRecord, 
     outbox.enqueue(entry);
     const keep = { jobId: v.jobId, machineId: v.machineId, heaterId: v.heaterId };
     saveRemembered(userId, keep);
-    setShownResult(v.clientId);
+    setShownResult(entryKey(entry));
     setCoils({ A: null, B: null });
     startNewDraft(keep);
     window.setTimeout(() => resultRef.current?.scrollIntoView({ behavior: "smooth", block: "start" }), 50);
@@ -89,7 +91,7 @@ export function useRecordJoint({ setup, outbox, jobId, job, plan, cannotRecord, 
     window.scrollTo({ top: 0, behavior: "smooth" });
   };
 
-  const shown = outbox.entries.find((e) => e.clientId === shownResult) ?? null;
+  const shown = outbox.entries.find((e) => entryKey(e) === shownResult) ?? null;
   const dismissResult = () => setShownResult(null);
 
   return { onValid, onInvalid, remake, shown, dismissResult, formMessage, resultRef, remakeOptions };

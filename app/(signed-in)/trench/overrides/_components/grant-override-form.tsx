@@ -48,7 +48,7 @@ export function GrantOverrideForm({ jobs, heaters, coils, userName }: { jobs: Op
       </SelectField>
       <SelectField id="subject" label="What to clear" error={e.subject?.message} {...register("subject")}>
         <option value="heater">A heater plate (check overdue or failed)</option>
-        <option value="coil">A coil (quarantined or used up)</option>
+        <option value="coil">A coil (quarantined, used up, or on another crew&apos;s job)</option>
       </SelectField>
       <SelectField id="subjectId" label={subject === "coil" ? "Coil" : "Heater plate"} error={e.subjectId?.message} {...register("subjectId", { setValueAs: toNumber })}>
         <option value="">{options.length ? "Choose …" : "Nothing is blocked right now"}</option>
