@@ -66,9 +66,10 @@ export default async function CoilPage({ params, searchParams }: { params: Promi
         </p>
       ) : null}
       {coil.status === "quarantined" ? (
-        <p role="alert" className="rounded-md border-2 border-fail bg-fail-light p-3 font-semibold text-fail">
-          Quarantined: {coil.statusReason ?? "no reason recorded"}. Pipe from this coil must not be laid.
-        </p>
+        <div role="alert" className="rounded-md border-4 border-fail bg-fail-light p-4 text-fail">
+          <p className="text-2xl font-extrabold uppercase tracking-wide">Quarantined: do not use</p>
+          <p className="font-semibold">Pipe from this coil must not be laid. Reason: {coil.statusReason ?? "no reason recorded"}.</p>
+        </div>
       ) : null}
       {coil.traceCodeFlags.length ? (
         <div role="alert" className="rounded-md border-2 border-caution bg-caution-light p-3 text-caution">
