@@ -5,7 +5,7 @@
 import { createRequire } from "node:module";
 import path from "node:path";
 import { passwordProblem } from "@/domain/crew/password-policy";
-import { AppError } from "@/domain/result";
+import { AppError, describeFieldErrors } from "@/domain/result";
 
 export const COMMON_PASSWORDS_PACKAGE = "@zxcvbn-ts/language-common";
 
@@ -34,5 +34,5 @@ export function commonPasswords(): ReadonlySet<string> {
 export function assertPasswordAllowed(password: string, { name, email, field = "password" }: { name?: string; email?: string; field?: string } = {}): void {
   const userInputs = [name ?? "", email ?? "", (email ?? "").split("@")[0]];
   const problem = passwordProblem(password, { commonPasswords: commonPasswords(), userInputs });
-  if (problem) throw new AppError("invalid", `Check ${field}: ${problem}`, { [field]: [problem] });
+  if (problem) throw new AppError("invalid", describeFieldErrors({ [field]: [problem] }), { [field]: [problem] });
 }

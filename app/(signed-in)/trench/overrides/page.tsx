@@ -4,6 +4,7 @@ import { listHeatersWithLastCheck } from "@/database/queries/equipment";
 import { listJobs } from "@/database/queries/jobs";
 import { listOverridesForJobs } from "@/database/queries/joints";
 import { listCoils } from "@/database/queries/coils";
+import { COIL_STATUS_LABELS } from "@/domain/coils/statuses";
 import { GrantOverrideForm } from "./_components/grant-override-form";
 import { SectionCard } from "@/components/ui/section-card";
 import { TimeDisplay } from "@/components/ui/time-display";
@@ -29,7 +30,7 @@ export default async function OverridesPage() {
         userName={user.name}
         jobs={jobs.map((j) => ({ id: j.id, label: `${j.code} · ${j.name}` }))}
         heaters={blockedHeaters.map((h) => ({ id: h.id, label: `${h.assetTag}: ${h.problems.join(" ")}` }))}
-        coils={[...quarantined, ...usedUp].map((c) => ({ id: c.id, label: `${c.coilCode}: ${c.status}${c.statusReason ? ` (${c.statusReason})` : ""}` }))}
+        coils={[...quarantined, ...usedUp].map((c) => ({ id: c.id, label: `${c.coilCode}: ${COIL_STATUS_LABELS[c.status]}${c.statusReason ? ` (${c.statusReason})` : ""}` }))}
       />
       <SectionCard id="active-heading" title="Overrides in force" className="flex flex-col gap-2">
         {active.length === 0 ? <p>None.</p> : null}
