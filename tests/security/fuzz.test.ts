@@ -111,7 +111,8 @@ function problemWithFields(message: string, fields: unknown, status: number): st
   for (const [k, v] of Object.entries(fields)) if (!Array.isArray(v) || !v.length || v.some((m) => typeof m !== "string" || !m)) return `field ${k} has no message`;
   // The summary names the field as the person sees it: by its label, or by repeating the
   // field's own message (which names it in words) — never by an internal name ("beadMm").
-  const said = (k: string) => (fields as Record<string, string[]>)[k]!.some((m) => message.includes(m));
+  const lower = message.toLowerCase();
+  const said = (k: string) => (/^[a-z]+$/.test(k) && lower.includes(k)) || (fields as Record<string, string[]>)[k]!.some((m) => lower.includes(m.replace(/\.$/, "").toLowerCase()));
   if (named.length && !named.some(said)) return `message names no field: ${message.slice(0, 160)} (fields ${named.join(", ")})`;
   const internal = named.filter((k) => /[A-Z_.]/.test(k) && message.includes(k));
   if (internal.length) return `message shows an internal field name (${internal.join(", ")}): ${message.slice(0, 160)}`;

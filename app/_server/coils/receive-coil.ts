@@ -5,8 +5,8 @@ import { db } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { insertCoil, type Coil } from "@/database/queries/coils";
 import { judgeReceiptInspection, traceCodeDisagreements } from "@/domain/coils/life";
-import type { ReceiveCoil } from "@/domain/coils/schemas";
-import { AppError } from "@/domain/result";
+import { RECEIVE_COIL_LABELS, type ReceiveCoil } from "@/domain/coils/schemas";
+import { AppError, describeFieldErrors } from "@/domain/result";
 
 export type Actor = { user: { id: number }; requestId: string };
 
@@ -32,9 +32,8 @@ export async function receiveCoil(input: ReceiveCoil, { user, requestId }: Actor
   const flags = input.traceCode ? traceCodeDisagreements(input.traceCode, input) : [];
   // The schema refuses disagreements without a reason; a caller that skipped it is refused here too.
   if (flags.length && !input.disagreementReason) {
-    throw new AppError("invalid", "The traceability code disagrees with the typed fields: say why the coil is saved as it is.", {
-      disagreementReason: ["Say why the coil is saved although its fields disagree with its traceability code."],
-    });
+    const fields = { disagreementReason: ["Say why the coil is saved although its fields disagree with its traceability code."] };
+    throw new AppError("invalid", describeFieldErrors(fields, RECEIVE_COIL_LABELS), fields);
   }
   const quarantineReason = verdict.passed ? null : `Failed receipt inspection: ${verdict.reasons.join("; ")}`.slice(0, 300);
   return db().transaction(async (trx) => {

@@ -24,5 +24,5 @@ export function checkPassword(password: string, who: { name: string; email: stri
 export async function checkCrew(crewId: number | null | undefined): Promise<void> {
   if (!crewId) return;
   const crews = await listCrews();
-  if (!crews.some((c) => c.id === crewId)) throw new AppError("invalid", "Check crewId: Crew does not exist.", { crewId: ["Crew does not exist."] });
+  if (!crews.some((c) => c.id === crewId)) throw new AppError("invalid", "Check Crew: Crew does not exist.", { crewId: ["Crew does not exist."] });
 }
