@@ -83,9 +83,10 @@ export class TracePage {
     await this.page.getByRole("button", { name: "Trace lot" }).click();
   }
 
-  /** The "Found by" cell of a coil's row in the coils of the lot. */
+  /** The "Found by" cell of a coil's row in the coils of the lot (the one cell of the row that speaks of a lot). */
   foundBy(coilCode: string): Locator {
-    return this.page.getByRole("table", { name: "Coils of the lot" }).getByRole("row").filter({ has: this.page.getByRole("link", { name: coilCode, exact: true }) }).getByRole("cell").nth(4);
+    const row = this.page.getByRole("table", { name: "Coils of the lot" }).getByRole("row").filter({ has: this.page.getByRole("link", { name: coilCode, exact: true }) });
+    return row.getByRole("cell").filter({ hasText: /\blot\b/i });
   }
 
   result(): Locator {
