@@ -133,6 +133,7 @@ test("a clerk corrects a code and the lot follows; a recall by the code's lot fi
   await receive.receive();
   await expect(new CoilPage(page).heading(second)).toBeVisible();
   await expect(page.getByText("The code carries lot 4432468, the form says 4432000")).toBeVisible();
+  await expect(page.getByText("Saved as it is because: “Print line on the pipe reads lot 4432000; the maker is checking”")).toBeVisible();
 
   // The recall names the lot in the code: both coils are found, and the screen says how.
   const trace = new TracePage(page);

@@ -8,6 +8,7 @@ import { FactBlock, FactList } from "@/components/ui/fact-list";
 import { formatInstant } from "@/components/ui/display-format";
 import { TimeDisplay } from "@/components/ui/time-display";
 import { findCoilByCode, listCoilEvents, listCoilMoveOptions } from "@/database/queries/coils";
+import { listAuditEntries } from "@/database/queries/audit-log";
 import { listJointsForCoil } from "@/database/queries/trace";
 import { COIL_STATUS_LABELS } from "@/domain/coils/statuses";
 import { DAMAGE_LABELS, statusMovesFrom } from "@/domain/coils/life";
@@ -42,7 +43,14 @@ export default async function CoilPage({ params, searchParams }: { params: Promi
   if (!coil) notFound();
   const canMove = can(user, "moveCoils");
   const canTrace = can(user, "traceLots");
-  const [events, joints, options] = await Promise.all([listCoilEvents({ coilId: coil.id }), listJointsForCoil({ coilId: coil.id, limit: 100 }), canMove ? listCoilMoveOptions() : Promise.resolve(null)]);
+  const [events, joints, options, receipt] = await Promise.all([
+    listCoilEvents({ coilId: coil.id }),
+    listJointsForCoil({ coilId: coil.id, limit: 100 }),
+    canMove ? listCoilMoveOptions() : Promise.resolve(null),
+    coil.traceCodeFlags.length ? listAuditEntries({ entityType: "coil", entityId: coil.id, action: "coil-received", limit: 1 }) : Promise.resolve([]),
+  ]);
+  // Why the coil was saved although it disagrees with its code: kept in the receipt's audit entry.
+  const disagreementReason = typeof receipt[0]?.details?.disagreementReason === "string" ? receipt[0].details.disagreementReason : null;
   const system = user.unitSystem;
   const m = (value: number) => formatQuantity(value, "length-m", system);
   const stock = stockOrDefault(null, system);
@@ -79,6 +87,7 @@ export default async function CoilPage({ params, searchParams }: { params: Promi
               <li key={`${f.field}-${f.message}`}>{f.message}</li>
             ))}
           </ul>
+          {disagreementReason ? <p className="mt-1">Saved as it is because: “{disagreementReason}”</p> : null}
         </div>
       ) : null}
 
