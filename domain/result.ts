@@ -50,10 +50,18 @@ export function fieldErrorsFromIssues(issues: readonly { path: readonly Property
   return fields;
 }
 
-/** A short sentence naming every failing field, for the aria-live region and the API message. */
-export function describeFieldErrors(fields: FieldErrors): string {
+/**
+ * A short sentence naming every failing field, for the aria-live region and the API message.
+ * Fields are named by `labels` (the words the form shows beside them); a field without a
+ * label is not named at all — its own message, which names it in words, says which — so an
+ * internal name ("heaterMin", "manufacturerCode") never reaches a person.
+ */
+export function describeFieldErrors(fields: FieldErrors, labels: Readonly<Record<string, string>> = {}): string {
   const names = Object.keys(fields).filter((k) => k !== "_form");
   const form = fields._form?.join(" ") ?? "";
   if (!names.length) return form || "The input is not valid.";
-  return `Check ${names.join(", ")}: ${names.map((n) => fields[n][0]).join(" ")}${form ? " " + form : ""}`;
+  const messages = [...new Set(names.map((n) => fields[n][0]))].join(" ");
+  const labelled = names.map((n) => labels[n]).filter((label): label is string => Boolean(label));
+  const head = labelled.length === names.length ? `Check ${labelled.join(", ")}` : names.length === 1 ? "Check this field" : `Check these ${names.length} fields`;
+  return `${head}: ${messages}${form ? " " + form : ""}`;
 }

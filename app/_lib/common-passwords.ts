@@ -5,7 +5,7 @@
 import { createRequire } from "node:module";
 import path from "node:path";
 import { passwordProblem } from "@/domain/crew/password-policy";
-import { AppError } from "@/domain/result";
+import { AppError, describeFieldErrors } from "@/domain/result";
 
 export const COMMON_PASSWORDS_PACKAGE = "@zxcvbn-ts/language-common";
 
@@ -29,10 +29,11 @@ export function commonPasswords(): ReadonlySet<string> {
 
 /**
  * Refuses a new password (add person, reset password) that is too short, common, or the
- * person's own name or e-mail: throws AppError("invalid") naming `field`.
+ * person's own name or e-mail: throws AppError("invalid") with the problem on `field`, its
+ * message naming the field by `label` (the words on the form), never by `field`.
  */
-export function assertPasswordAllowed(password: string, { name, email, field = "password" }: { name?: string; email?: string; field?: string } = {}): void {
+export function assertPasswordAllowed(password: string, { name, email, field = "password", label = "Password" }: { name?: string; email?: string; field?: string; label?: string } = {}): void {
   const userInputs = [name ?? "", email ?? "", (email ?? "").split("@")[0]];
   const problem = passwordProblem(password, { commonPasswords: commonPasswords(), userInputs });
-  if (problem) throw new AppError("invalid", `Check ${field}: ${problem}`, { [field]: [problem] });
+  if (problem) throw new AppError("invalid", describeFieldErrors({ [field]: [problem] }, { [field]: label }), { [field]: [problem] });
 }

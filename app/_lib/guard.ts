@@ -36,7 +36,7 @@ function failureFromError(error: unknown, requestId: string): { code: ErrorCode;
  * becomes `{ ok: true, data }`. Throw `AppError` to fail with a code.
  */
 export function defineAction<S extends ZodType, R>(
-  spec: { permission: Audience; schema: S },
+  spec: { permission: Audience; schema: S; /** The form's field labels, to name failing fields in the message. */ labels?: Readonly<Record<string, string>> },
   impl: (input: z.output<S>, ctx: Context) => Promise<R>,
 ): (raw: z.input<S>) => Promise<ActionResult<R>> {
   return async (raw) => {
@@ -56,7 +56,7 @@ export function defineAction<S extends ZodType, R>(
       const parsed = spec.schema.safeParse(raw);
       if (!parsed.success) {
         const fields = fieldErrorsFromIssues(parsed.error.issues);
-        return done(failure("invalid", describeFieldErrors(fields), fields));
+        return done(failure("invalid", describeFieldErrors(fields, spec.labels), fields));
       }
       const data = await impl(parsed.data, { user, requestId });
       return done({ ok: true, data });
@@ -120,6 +120,8 @@ export type RouteSpec<S extends ZodType, PS extends ZodType> = {
   /** The path params' schema (e.g. `idParams(...)`), parsed before the input. */
   params?: PS;
   badParams?: BadParams;
+  /** The input's field labels, to name failing fields in the message. */
+  labels?: Readonly<Record<string, string>>;
 };
 
 /**
@@ -187,7 +189,7 @@ async function runRoute<S extends ZodType, PS extends ZodType>(
       const parsed = spec.schema.safeParse(raw);
       if (!parsed.success) {
         const fields = fieldErrorsFromIssues(parsed.error.issues);
-        return errorResponse("invalid", describeFieldErrors(fields), fields, idHeader);
+        return errorResponse("invalid", describeFieldErrors(fields, spec.labels), fields, idHeader);
       }
       input = parsed.data;
     }

@@ -1,6 +1,7 @@
 // Jobs (work orders): code, name, place, dates, status, procedure, crew, pipe sizes, and
 // the coils assigned to them. Edits use optimistic locking on `version`.
 import type { JobStatus } from "@/domain/jobs/rules";
+import type { CoilStatus } from "@/domain/coils/statuses";
 import { conn, type Db } from "../client";
 import type { CoilTableRow, JobRow as JobTableRow } from "../tables";
 import { isoDay } from "./rows";
@@ -137,7 +138,7 @@ export async function updateJobStatus({ id, version, status }: { id: number; ver
   return changed === 1;
 }
 
-export type JobCoil = { id: number; coilCode: string; lot: string; nominalSize: string; sdr: number; status: string; remainingM: number; version: number };
+export type JobCoil = { id: number; coilCode: string; lot: string; nominalSize: string; sdr: number; status: CoilStatus; remainingM: number; version: number };
 
 export async function listCoilsForJob({ jobId }: { jobId: number }, trx?: Db): Promise<JobCoil[]> {
   const rows = await conn(trx)("coils").where({ job_id: jobId }).orderBy("coil_code").select("id", "coil_code", "lot", "nominal_size", "sdr", "status", "remaining_m", "version");

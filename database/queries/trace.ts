@@ -3,7 +3,8 @@
 // OR across the two columns, so it stays fast on millions of joints. Joint → origins: the
 // two components with their lots and receipt inspections, machine, heater plate and its
 // last check before the joint, the fuser's qualification records, the procedure version.
-import { readScannedCoilText } from "@/domain/coils/life";
+import { lotMatch, readScannedCoilText, type LotMatch } from "@/domain/coils/life";
+import { traceCodeLotField } from "@/domain/trace-code/trace-code";
 import type { JointOutcome } from "@/domain/joints/outcomes";
 import type { JointKind } from "@/domain/joints/schemas";
 import type { ReviewState } from "@/domain/joints/review-states";
@@ -18,7 +19,8 @@ export type LotSearchResult = {
   /** How the search was read. */
   matchedBy: "lot" | "coil-id" | "trace-code" | "none";
   lots: LotKey[];
-  coils: Coil[];
+  /** Each coil with how it answered a search by lot (typed lot, the lot in its code, both); null for other searches. */
+  coils: (Coil & { foundBy: LotMatch | null })[];
 };
 
 /** Every coil of the given lots (manufacturer + lot), by coil id. */
@@ -53,14 +55,22 @@ export async function findLotCoils({ manufacturer, lot, code }: { manufacturer?:
       }
     }
   } else if (lot && lot.trim()) {
-    const q = conn(trx)("coils").distinct("manufacturer", "lot").where("lot", lot.trim());
-    if (manufacturer && manufacturer.trim()) q.where("manufacturer", manufacturer.trim());
-    const rows = (await q.orderBy("manufacturer")) as { manufacturer: string; lot: string }[];
-    lots = rows.map((r) => ({ manufacturer: r.manufacturer, lot: r.lot }));
-    matchedBy = lots.length ? "lot" : "none";
+    // A recall names the lot the pipe maker printed: find a coil by its typed lot or by the
+    // lot its F2897 code carries (they differ when a coil was saved with a reason), and say which.
+    const wanted = lot.trim();
+    const codeLot = traceCodeLotField(wanted);
+    const q = coilQuery(trx).where((w) => {
+      w.where("coils.lot", wanted);
+      if (codeLot) w.orWhere("coils.trace_code_lot", codeLot);
+    });
+    if (manufacturer && manufacturer.trim()) q.where("coils.manufacturer", manufacturer.trim());
+    const coils = ((await q.orderBy("coils.coil_code")) as Parameters<typeof toCoil>[0][]).map(toCoil).map((c) => ({ ...c, foundBy: lotMatch(c, wanted) }));
+    const found = coils.filter((c) => c.foundBy !== null);
+    lots = uniqueLots(found.map((c) => ({ manufacturer: c.manufacturer, lot: wanted })));
+    return { matchedBy: found.length ? "lot" : "none", lots, coils: found };
   }
   const coils = await listCoilsOfLots({ lots }, trx);
-  return { matchedBy, lots, coils };
+  return { matchedBy, lots, coils: coils.map((c) => ({ ...c, foundBy: null })) };
 }
 
 function uniqueLots(keys: LotKey[]): LotKey[] {

@@ -206,6 +206,101 @@ export function fieldsFromTraceCode(value: TraceCodeValue): FieldsFromTraceCode 
   return fields;
 }
 
+/** The receipt form fields a traceability code can fill (form field names). */
+export type CodeFilledField = 'manufacturerCode' | 'manufacturer' | 'lot' | 'productionDate' | 'material' | 'series' | 'nominalSize' | 'sdr';
+
+/** What the code gave each field it filled, as the form holds it (text). */
+export type CodeFill = Partial<Record<CodeFilledField, string>>;
+
+const SIZE_GROUP: readonly CodeFilledField[] = ['series', 'nominalSize', 'sdr'];
+
+export interface CodeRefill {
+  /** Values to put in the form: the new code's values, and '' or the form's default for fields it no longer gives. */
+  set: CodeFill;
+  /** Fields the new code filled or changed, in form order. */
+  filled: CodeFilledField[];
+  /** Fields the previous code filled that the new code does not give: emptied (or back to the form's default). */
+  cleared: CodeFilledField[];
+  /** Fields typed by hand that differ from the new code: kept, and flagged by traceCodeDisagreements. */
+  kept: CodeFilledField[];
+  /** What the code has now filled: pass it back as `previousFill` on the next change of code. */
+  fill: CodeFill;
+}
+
+/**
+ * What a (changed) traceability code does to the receipt form. A field is the code's to
+ * (re)fill when it is empty or still holds what the previous code put there; a field typed
+ * by hand is kept (and shown as a disagreement, so it is saved only with a reason). Series,
+ * nominal size and SDR move together: the code fills them when SDR is empty or all three
+ * still hold the previous code's values. A field the previous code filled that the new code
+ * does not give is emptied (back to `defaults`), so no value of an old code stays behind.
+ * Our rule (common practice, no published source); which fields a code gives: fieldsFromTraceCode.
+ */
+export function refillFromTraceCode(input: { current: CodeFill; previousFill: CodeFill; next: CodeFill; defaults?: CodeFill }): CodeRefill {
+  const { current, previousFill, next } = input;
+  const defaults = input.defaults ?? {};
+  const text = (value: string | undefined) => (value ?? '').trim();
+  const isCodes = (field: CodeFilledField) => !text(current[field]) || (previousFill[field] !== undefined && text(current[field]) === text(previousFill[field]));
+  const result: CodeRefill = { set: {}, filled: [], cleared: [], kept: [], fill: {} };
+  const order: CodeFilledField[] = ['manufacturerCode', 'manufacturer', 'lot', 'productionDate', 'material', 'series', 'nominalSize', 'sdr'];
+  const sizeIsCodes = !text(current.sdr) || SIZE_GROUP.every((field) => previousFill[field] !== undefined && text(current[field]) === text(previousFill[field]));
+  for (const field of order) {
+    const mine = SIZE_GROUP.includes(field) ? sizeIsCodes : isCodes(field);
+    const value = next[field];
+    if (value !== undefined) {
+      if (mine) {
+        result.fill[field] = value;
+        if (text(current[field]) !== text(value)) {
+          result.set[field] = value;
+          result.filled.push(field);
+        }
+      } else if (text(current[field]) !== text(value)) {
+        result.kept.push(field);
+      }
+    } else if (previousFill[field] !== undefined && mine && text(current[field]) === text(previousFill[field])) {
+      result.set[field] = defaults[field] ?? '';
+      result.cleared.push(field);
+    }
+  }
+  return result;
+}
+
+/** The code's fields as the form holds them (text), with the pipe maker's name when it is known by its id. */
+export function codeFillFrom(fields: FieldsFromTraceCode, manufacturerName?: string | null): CodeFill {
+  const fill: CodeFill = { manufacturerCode: fields.manufacturerCode, lot: fields.lot, productionDate: fields.productionDate, material: fields.material };
+  if (manufacturerName) fill.manufacturer = manufacturerName;
+  if (fields.series && fields.nominalSize) {
+    fill.series = fields.series;
+    fill.nominalSize = fields.nominalSize;
+    if (fields.sdr !== undefined) fill.sdr = String(fields.sdr);
+  }
+  return fill;
+}
+
+/** How a coil answered a search by lot: its typed lot, the lot its F2897 code carries, or both. */
+export type LotMatch = 'typed-lot' | 'code-lot' | 'both';
+
+export const LOT_MATCH_LABELS: Readonly<Record<LotMatch, string>> = {
+  'typed-lot': 'Typed lot',
+  'code-lot': 'Lot in its traceability code',
+  both: 'Typed lot and the lot in its code',
+};
+
+/**
+ * Whether a coil carries the searched lot in its typed lot field, in its F2897 code (positions
+ * 3–6, compared as numbers of 7 digits with leading zeros), or both; null when neither. The
+ * typed lot is compared as written (trimmed, letters in any case).
+ * Source: ASTM F2897-23a Table 1 (lot, 7 digits in 4 base-62 characters).
+ */
+export function lotMatch(coil: { lot: string; traceCode: string | null }, searchedLot: string): LotMatch | null {
+  const wanted = searchedLot.trim();
+  if (!wanted) return null;
+  const typed = coil.lot.trim().toLowerCase() === wanted.toLowerCase();
+  const parsed = coil.traceCode ? parseTraceCode(coil.traceCode) : null;
+  const inCode = Boolean(parsed?.ok && /^\d{1,7}$/.test(wanted) && parsed.value.lot === wanted.padStart(7, '0'));
+  return typed && inCode ? 'both' : typed ? 'typed-lot' : inCode ? 'code-lot' : null;
+}
+
 export interface TypedCoilFields {
   manufacturerCode?: string | null;
   lot?: string | null;

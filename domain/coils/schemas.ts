@@ -6,7 +6,7 @@ import { COIL_STATUSES } from "@/domain/coils/statuses";
 import { PIPE_SERIES, findPipeSize } from "@/domain/pipe/catalogue";
 import { parseTraceCode } from "@/domain/trace-code/trace-code";
 import { ftToM, inToMm } from "@/domain/units/conversions";
-import { DAMAGE_KINDS, DEFAULT_GOUGE_LIMIT_PCT, DEFAULT_OVALITY_LIMIT_PCT } from "@/domain/coils/life";
+import { DAMAGE_KINDS, DEFAULT_GOUGE_LIMIT_PCT, DEFAULT_OVALITY_LIMIT_PCT, traceCodeDisagreements } from "@/domain/coils/life";
 
 /** "" / null / undefined → undefined; "12,5" → 12.5; other text → NaN (refused with the message). */
 function toNumber(value: unknown): unknown {
@@ -55,6 +55,36 @@ export const RESERVED_COIL_CODES: readonly string[] = ["receive", "new"];
 
 export const COIL_CODE_PATTERN = /^[A-Za-z0-9][A-Za-z0-9._-]{1,39}$/;
 
+/**
+ * The receipt form's field labels, as the person sees them: the form shows these, and every
+ * message that names a field (the code's disagreements, what the code filled, the summary of
+ * a refused form) uses them, never the field's internal name.
+ */
+export const RECEIVE_COIL_LABELS = {
+  traceCode: "ASTM F2897 code (16 characters)",
+  coilCode: "Coil id (printed on our label)",
+  manufacturer: "Pipe maker",
+  manufacturerCode: "Manufacturer id in the code",
+  lot: "Lot",
+  productionDate: "Production date",
+  material: "Material designation",
+  series: "Size series",
+  nominalSize: "Nominal size",
+  sdr: "SDR (DR)",
+  length: "Coil length",
+  lengthUnit: "Unit",
+  printLine: "Print line as written on the pipe",
+  disagreementReason: "Why the coil is saved although it disagrees with its code",
+  damageKinds: "Damage found",
+  gougeDepth: "Deepest gouge",
+  gougeLimitPct: "Operator's gouge limit (% of wall)",
+  ovalityPct: "Ovality measured at the end",
+  ovalityLimitPct: "Ovality limit",
+  endCapsInPlace: "End caps in place on both ends",
+  damageNotes: "Inspection notes",
+  smallUnit: "Unit",
+} as const satisfies Record<string, string>;
+
 /** Receive a coil: what the print line and the F2897 code say, and the receipt inspection. */
 export const receiveCoilSchema = z
   .object({
@@ -90,6 +120,7 @@ export const receiveCoilSchema = z
         })
         .optional(),
     ),
+    disagreementReason: optionalText(300, "The reason"),
     damageKinds: z.array(z.enum(DAMAGE_KINDS, { error: "Unknown kind of damage." })).default([]),
     damageNotes: optionalText(500, "Damage notes"),
     gougeDepth: optionalNumberField("Gouge depth must be a number.", (n) => n.min(0, { error: "Gouge depth cannot be negative." })),
@@ -108,6 +139,19 @@ export const receiveCoilSchema = z
       findPipeSize(value.series, value.nominalSize);
     } catch (error) {
       ctx.addIssue({ code: "custom", path: ["nominalSize"], message: (error as Error).message });
+    }
+    // A coil whose typed fields disagree with its code is saved only with a reason (kept in
+    // the audit log): otherwise a recall by the code's lot could miss it.
+    if (value.traceCode && !value.disagreementReason) {
+      const fields = [...new Set(traceCodeDisagreements(value.traceCode, value).map((flag) => flag.field))];
+      if (fields.length) {
+        const names = fields.map((field) => (field === "traceCode" ? "the code's component type" : RECEIVE_COIL_LABELS[field as keyof typeof RECEIVE_COIL_LABELS] ?? "another field"));
+        ctx.addIssue({
+          code: "custom",
+          path: ["disagreementReason"],
+          message: `The code disagrees with ${names.join(", ")}: correct the fields or the code, or say why the coil is saved as it is.`,
+        });
+      }
     }
     if (value.length !== undefined && (value.lengthUnit === "ft" ? ftToM(value.length) : value.length) > 3000) {
       ctx.addIssue({ code: "custom", path: ["length"], message: "Coil length above 3,000 m (9,843 ft) cannot be right." });

@@ -1,5 +1,5 @@
 // Label content and drawing: the clear text of a coil label (coil id, size/SDR, material,
-// lot, length) and of a joint tag (joint number, job, date), the address the QR opens, and
+// lot, the ASTM F2897 code as text, length, and QUARANTINED in words when it is) and of a joint tag (joint number, job, date), the address the QR opens, and
 // an SVG of one label in mm (QR on the left, text on the right). The QR module matrix is
 // passed in (made by the qrcode package at the edge), so this stays pure.
 // QR quiet zone of 4 modules: ISO/IEC 18004 §7.3.8 (from memory, unconfirmed).
@@ -24,7 +24,14 @@ export interface LabelText {
   lines: string[];
   /** Short text for file names and alt text. */
   name: string;
+  /** Index of the line drawn as a warning: bold, white on a black band, so it reads in words without colour. */
+  warningLine?: number;
+  /** Indexes of lines set in a monospaced face (a code, where 0/O and l/1 must be told apart). */
+  monoLines?: number[];
 }
+
+/** The warning a quarantined coil's label carries (words, not colour: it prints on a monochrome printer). */
+export const QUARANTINED_LABEL_WARNING = 'QUARANTINED: DO NOT USE';
 
 const SERIES_LABEL = { ips: 'IPS', cts: 'CTS', metric: 'mm' } as const;
 
@@ -35,18 +42,33 @@ export function describeSize(coil: { series: 'ips' | 'cts' | 'metric'; nominalSi
 }
 
 /**
- * Clear text of a coil label: coil id; size and SDR; material; manufacturer and lot; the
+ * Clear text of a coil label: coil id; "QUARANTINED: DO NOT USE" first when the coil is
+ * quarantined; size and SDR; material; manufacturer and lot; the ASTM F2897 code as text
+ * ("F2897 QFiAE97D0H123Kj0", monospaced, so it can be read and typed when a barcode will not
+ * scan and 0/O, l/1 are told apart); the
  * coil's full length in the label's unit system (m, or ft for US crews), e.g.
  * "Length 152.4 m" / "Length 500 ft".
  */
 export function coilLabelText(
-  coil: { coilCode: string; series: 'ips' | 'cts' | 'metric'; nominalSize: string; sdr: number; material: string; manufacturer: string; lot: string; lengthM: number },
+  coil: { coilCode: string; series: 'ips' | 'cts' | 'metric'; nominalSize: string; sdr: number; material: string; manufacturer: string; lot: string; lengthM: number; traceCode?: string | null; status?: string },
   system: UnitSystem = 'si',
 ): LabelText {
+  const quarantined = coil.status === 'quarantined';
+  const lines = [
+    ...(quarantined ? [QUARANTINED_LABEL_WARNING] : []),
+    describeSize(coil),
+    coil.material,
+    `${coil.manufacturer}`,
+    `Lot ${coil.lot}`,
+    ...(coil.traceCode ? [`F2897 ${coil.traceCode}`] : []),
+    `Length ${formatQuantity(coil.lengthM, 'length-m', system)}`,
+  ];
   return {
     title: coil.coilCode,
-    lines: [describeSize(coil), coil.material, `${coil.manufacturer}`, `Lot ${coil.lot}`, `Length ${formatQuantity(coil.lengthM, 'length-m', system)}`],
+    lines,
     name: `coil-${coil.coilCode}`,
+    ...(quarantined ? { warningLine: 0 } : {}),
+    ...(coil.traceCode ? { monoLines: [lines.length - 2] } : {}),
   };
 }
 
@@ -138,15 +160,27 @@ export function renderLabelSvg(input: { widthMm: number; heightMm: number; qr: Q
   const scale = g.qrSide / modules;
   const round = (n: number) => Number(n.toFixed(3));
   const font = "font-family=\"DejaVu Sans, Liberation Sans, Arial, Helvetica, sans-serif\"";
+  const mono = "font-family=\"DejaVu Sans Mono, Liberation Mono, Courier New, monospace\"";
+  const isWarning = (i: number) => text.warningLine === i;
   const head = input.standalone === false ? '' : '<?xml version="1.0" encoding="UTF-8"?>\n';
   return (
     `${head}<svg xmlns="http://www.w3.org/2000/svg" width="${round(w)}mm" height="${round(h)}mm" viewBox="0 0 ${round(w)} ${round(h)}" role="img" aria-label="${escapeXml(`${text.title}: ${text.lines.join(', ')}`)}">` +
     `<rect width="${round(w)}" height="${round(h)}" fill="#fff"/>` +
+    (text.warningLine !== undefined ? `<rect x="0.5" y="0.5" width="${round(w - 1)}" height="${round(h - 1)}" fill="none" stroke="#000" stroke-width="1"/>` : '') +
     `<g transform="translate(${round(g.qrX + QR_QUIET_ZONE_MODULES * scale)} ${round(g.qrY + QR_QUIET_ZONE_MODULES * scale)}) scale(${Number(scale.toFixed(5))})">` +
     `<title>${escapeXml(input.url)}</title><path d="${qrPath(qr)}" fill="#000" shape-rendering="crispEdges"/></g>` +
     `<text x="${round(g.textX)}" y="${round(g.titleY)}" ${font} font-size="${round(g.titleSize)}" font-weight="700" fill="#000">${escapeXml(text.title)}</text>` +
     text.lines
-      .map((line, i) => `<text x="${round(g.textX)}" y="${round(g.lineYs[i] as number)}" ${font} font-size="${round(g.lineSize)}" fill="#000">${escapeXml(line)}</text>`)
+      .map((line, i) => {
+        const y = g.lineYs[i] as number;
+        const face = text.monoLines?.includes(i) ? mono : font;
+        if (!isWarning(i)) return `<text x="${round(g.textX)}" y="${round(y)}" ${face} font-size="${round(g.lineSize)}" fill="#000">${escapeXml(line)}</text>`;
+        // White bold words on a black band: the warning survives a monochrome printer and a glance.
+        return (
+          `<rect x="${round(g.textX - 0.5)}" y="${round(y - g.lineSize * 0.95)}" width="${round(g.textWidth + 0.5)}" height="${round(g.lineSize * 1.2)}" fill="#000"/>` +
+          `<text x="${round(g.textX)}" y="${round(y)}" ${face} font-size="${round(g.lineSize)}" font-weight="700" fill="#fff">${escapeXml(line)}</text>`
+        );
+      })
       .join('') +
     `</svg>`
   );

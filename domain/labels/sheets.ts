@@ -4,6 +4,8 @@
 // sheets (common practice, no published source); the grid is centred on the sheet,
 // which reproduces the margins those sheets are cut with.
 
+import type { UnitSystem } from '@/domain/units/format';
+
 export type SheetId = 'a4' | 'letter';
 
 export interface Sheet {
@@ -21,6 +23,17 @@ export const SHEETS: Readonly<Record<SheetId, Sheet>> = {
 };
 
 export const SHEET_IDS: readonly SheetId[] = ['a4', 'letter'];
+
+/**
+ * The label paper an organisation prints on: US Letter in the United States, A4 elsewhere
+ * (ISO 216 is the paper standard nearly everywhere else). Beadline keeps no organisation
+ * locale setting yet, so the unit system stands in for it: 'us' (US customary) → Letter,
+ * 'si' → A4. The paper stays selectable on the print page; when an organisation setting
+ * for its country exists, it replaces the argument here and nowhere else.
+ */
+export function labelPaperFor(locale: { unitSystem: UnitSystem }): SheetId {
+  return locale.unitSystem === 'us' ? 'letter' : 'a4';
+}
 
 export interface LabelStock {
   id: string;

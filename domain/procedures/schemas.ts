@@ -44,6 +44,13 @@ const ruleShelter = (label: string) =>
 export type TighteningFormField = keyof typeof TIGHTENING_FIELDS;
 export const TIGHTENING_FORM_FIELDS = Object.keys(TIGHTENING_FIELDS) as TighteningFormField[];
 
+/** The tighten form's field labels as the admin sees them, to name failing fields in messages. */
+export const TIGHTEN_FORM_LABELS: Readonly<Record<string, string>> = {
+  ...Object.fromEntries(TIGHTENING_FORM_FIELDS.map((key) => [key, TIGHTENING_FIELDS[key].label])),
+  label: 'Version label',
+  note: 'Note on the change',
+};
+
 const tighteningNumbers = Object.fromEntries(
   TIGHTENING_FORM_FIELDS.map((key) => {
     const f = TIGHTENING_FIELDS[key];

@@ -125,6 +125,18 @@ export interface TraceCodeValue {
 
 export type ParseTraceCodeResult = { ok: true; value: TraceCodeValue } | { ok: false; error: string };
 
+/**
+ * The lot field of an F2897 code (positions 3–6: the lot number in base 62, 4 characters)
+ * for a lot of 1–7 digits, so coils can be found by the lot their code carries; null for a
+ * lot that a code cannot carry (letters, more than 7 digits). Case matters: compare bytes.
+ * Source: ASTM F2897-23a Table 1 (lot code, 4 characters) and Table 2 (base 62).
+ */
+export function traceCodeLotField(lot: string): string | null {
+  const text = (lot ?? '').trim();
+  if (!/^\d{1,7}$/.test(text)) return null;
+  return encodeBase62(Number(text), 4);
+}
+
 /** Input of buildTraceCode: as TraceCodeValue, material by designation or code. */
 export interface BuildTraceCodeInput {
   manufacturer: string;

@@ -173,8 +173,19 @@ describe("receiveCoil and moveCoil", () => {
     expect(audit).toHaveLength(1);
   });
 
-  it("quarantines a coil that fails inspection and keeps the code's disagreements", async () => {
-    const received = await receiveCoil(receiveCoilSchema.parse({ ...form, coilCode: "LV-C0101", lot: "4410388", damageKinds: ["kink"] }), ctx());
+  it("refuses a coil that disagrees with its code without a reason, and writes nothing", async () => {
+    const before = await ownerDb()("coils").count({ n: "*" });
+    const parsed = receiveCoilSchema.safeParse({ ...form, coilCode: "LV-C0102", lot: "4410388" });
+    expect(parsed.success).toBe(false);
+    expect(parsed.error!.issues.map((i) => [i.path.join("."), i.message])).toEqual([["disagreementReason", "The code disagrees with Lot: correct the fields or the code, or say why the coil is saved as it is."]]);
+    expect(await ownerDb()("coils").count({ n: "*" })).toEqual(before);
+  });
+
+  it("quarantines a coil that fails inspection and keeps the code's disagreements, with the reason in the audit log", async () => {
+    const reason = "Print line reads lot 4410388; the maker is checking the tag";
+    const received = await receiveCoil(receiveCoilSchema.parse({ ...form, coilCode: "LV-C0101", lot: "4410388", damageKinds: ["kink"], disagreementReason: reason }), ctx());
+    const [entry] = await ownerDb()("audit_log").where({ action: "coil-received", entity_id: String(received.id) });
+    expect(JSON.parse(entry.details)).toMatchObject({ lot: "4410388", traceCode: CODE_LOT_4410021, disagreementReason: reason });
     expect(received.status).toBe("quarantined");
     const coil = (await findCoilById({ id: received.id }))!;
     expect(coil.statusReason).toBe("Failed receipt inspection: Kinked or buckled pipe");

@@ -152,6 +152,29 @@ describe("lot → ground", () => {
     expect(elapsedMs).toBeLessThan(500); // common practice (no published source): an answer "well under a second"
   });
 
+  it("finds a coil by the lot its F2897 code carries as well as its typed lot, and says which", async () => {
+    // LV-C0004 is typed as lot 4410388 but carries the code of lot 4410021 (positions 3–6
+    // "ivfn" = 4410021, ASTM F2897-23a Tables 1 and 2, worked in tests/domain/coil-life.test.ts).
+    await ownerDb()("coils").where("id", ids["LV-C0004"]).update({ trace_code: CODE_LOT_4410021 });
+    try {
+      const found = await findLotCoils(LOT);
+      expect(found.matchedBy).toBe("lot");
+      expect(found.lots).toEqual([LOT]);
+      expect(found.coils.map((c) => [c.coilCode, c.foundBy])).toEqual([
+        ["LV-C0001", "both"],
+        ["LV-C0002", "typed-lot"],
+        ["LV-C0003", "typed-lot"],
+        ["LV-C0004", "code-lot"],
+        ["LV-C0012", "typed-lot"],
+      ]);
+      // The code's lot is compared byte for byte: lot 4509965 is "iVfn" in base 62
+      // (18·62³ + 57·62² + 15·62 + 23, ASTM F2897-23a Table 2), which differs from "ivfn" only by case.
+      expect((await findLotCoils({ lot: "4509965" })).coils).toEqual([]);
+    } finally {
+      await ownerDb()("coils").where("id", ids["LV-C0004"]).update({ trace_code: null });
+    }
+  });
+
   it("caps a huge answer and says so", async () => {
     const { joints: capped, truncated } = await listJointsForCoils({ coilIds: [ids["LV-C0004"]!], limit: 10 });
     expect(capped).toHaveLength(10);

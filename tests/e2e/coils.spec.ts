@@ -52,6 +52,8 @@ test("a clerk receives a coil from its traceability code, prints its label and t
   const sheet = new LabelSheetPage(page);
   const label = sheet.label(`coil-${coilCode}`);
   await expect(label).toBeVisible();
+  // The label prints the F2897 code as text too (readable when the QR or barcode will not scan).
+  await expect(label.getByRole("img")).toHaveAttribute("aria-label", new RegExp(`F2897 ${CODE}`));
   // Scan the label as a phone would: screenshot it and decode the QR (source: jsQR, a general-purpose decoder).
   const shot = PNG.sync.read(await label.screenshot({ scale: "device" }));
   const decoded = jsQR(new Uint8ClampedArray(shot.data.buffer, shot.data.byteOffset, shot.data.byteLength), shot.width, shot.height)?.data;
@@ -81,6 +83,68 @@ test("a clerk receives a coil from its traceability code, prints its label and t
   await trace.traceByCode(CODE);
   await expect(trace.result()).toHaveText("Quillfield Polymers lot 4430777: 1 coil, 0 joints");
   await page.screenshot({ path: "tests/e2e/artifacts/coils-trace.png", fullPage: true });
+});
+
+// Worked by hand from the field layout of ASTM F2897-23a Table 1 (positions 3–6 the lot) and
+// the base 62 of Table 2 (0–9, a–z = 10–35, A–Z = 36–61); lots of their own, so the other tests'
+// lot counts stay as they are: lot 4432000 = 18·62³ + 36·62² + 59·62 + 54 → "iAXS";
+// lot 4432468 = 18·62³ + 37·62² + 5·62 + 26 → "iB5q"; Table 4: Z = PE100, H = PE4710; the rest
+// as CODE above (20 Oct 2026, coiled pipe, 2" IPS SDR 11).
+const FIRST_CODE = "QFiAXS7D0Z123Kj0"; // lot 4432000, PE100
+const CORRECTED_CODE = "QFiB5q7D0H123Kj0"; // lot 4432468, PE4710
+
+/** Internal values and field names that must never reach a screen (their words do). */
+const RAW = ["in-yard", "on-trailer", "in-use", "used-up", "within-limits", "out-of-limits", "pending-review", "coil-to-coil", "manufacturerCode", "productionDate", "nominalSize", "disagreementReason", "code-lot", "typed-lot"];
+async function expectNoRawValues(page: import("@playwright/test").Page): Promise<void> {
+  const text = await page.locator("main").innerText();
+  for (const raw of RAW) expect(text, `"${raw}" shown on ${page.url()}`).not.toContain(raw);
+}
+
+test("a clerk corrects a code and the lot follows; a recall by the code's lot finds the coil", async ({ page }) => {
+  await new SignInPage(page).signInAs("clerk");
+  const receive = new ReceiveCoilPage(page);
+  await receive.open();
+  const coilCode = await receive.field("Coil id (printed on our label)").inputValue();
+  await receive.typeTraceCode(FIRST_CODE);
+  await expect(receive.field("Lot")).toHaveValue("4432000");
+  await expect(receive.field("Material designation")).toHaveValue("PE100");
+  // The code is corrected: the fields it filled follow it, and the note names them as the form does.
+  await receive.replaceTraceCode(CORRECTED_CODE);
+  await expect(receive.field("Lot")).toHaveValue("4432468");
+  await expect(receive.field("Material designation")).toHaveValue("PE4710");
+  await expect(receive.filledNote()).toHaveText("Filled from the code: Lot and Material designation.");
+  await expect(receive.disagreement()).toHaveCount(0);
+  await expectNoRawValues(page);
+  await receive.field("Coil length").fill("152.4");
+  await receive.receive();
+  await expect(new CoilPage(page).heading(coilCode)).toBeVisible();
+
+  // A second coil whose lot was typed by hand from another print line: it disagrees with its
+  // code, so it saves only with a reason.
+  await receive.open();
+  const second = await receive.field("Coil id (printed on our label)").inputValue();
+  await receive.field("Lot").fill("4432000");
+  await receive.typeTraceCode(CORRECTED_CODE);
+  await expect(receive.disagreement()).toContainText("The code carries lot 4432468, the form says 4432000");
+  await receive.field("Coil length").fill("150");
+  await receive.receive();
+  await expect(page.getByText("The code disagrees with Lot: correct the fields or the code, or say why the coil is saved as it is.").first()).toBeVisible();
+  await receive.field("Why the coil is saved although it disagrees with its code").fill("Print line on the pipe reads lot 4432000; the maker is checking");
+  await receive.receive();
+  await expect(new CoilPage(page).heading(second)).toBeVisible();
+  await expect(page.getByText("The code carries lot 4432468, the form says 4432000")).toBeVisible();
+  await expect(page.getByText("Saved as it is because: “Print line on the pipe reads lot 4432000; the maker is checking”")).toBeVisible();
+
+  // The recall names the lot in the code: both coils are found, and the screen says how.
+  const trace = new TracePage(page);
+  await trace.open();
+  await trace.traceByLot("Quillfield Polymers", "4432468");
+  await expect(trace.result()).toHaveText("Quillfield Polymers lot 4432468: 2 coils, 0 joints");
+  await expect(trace.foundBy(coilCode)).toHaveText("Typed lot and the lot in its code");
+  await expect(trace.foundBy(second)).toHaveText("Lot in its traceability code");
+  await expect(page.getByRole("note")).toContainText(`${second} (typed lot 4432000) carries this lot only in its traceability code`);
+  await expectNoRawValues(page);
+  await page.screenshot({ path: "tests/e2e/artifacts/coils-trace-code-lot.png", fullPage: true });
 });
 
 test("a seeded lot traces to its coils; a bad search names the field", async ({ page }) => {

@@ -109,7 +109,13 @@ function problemWithFields(message: string, fields: unknown, status: number): st
   if (!fields || typeof fields !== "object") return "a 422 without per-field messages";
   const named = Object.keys(fields).filter((k) => !k.startsWith("_"));
   for (const [k, v] of Object.entries(fields)) if (!Array.isArray(v) || !v.length || v.some((m) => typeof m !== "string" || !m)) return `field ${k} has no message`;
-  if (named.length && !named.some((k) => message.includes(k))) return `message names no field: ${message.slice(0, 160)} (fields ${named.join(", ")})`;
+  // The summary names the field as the person sees it: by its label, or by repeating the
+  // field's own message (which names it in words) — never by an internal name ("beadMm").
+  const lower = message.toLowerCase();
+  const said = (k: string) => (/^[a-z]+$/.test(k) && lower.includes(k)) || (fields as Record<string, string[]>)[k]!.some((m) => lower.includes(m.replace(/\.$/, "").toLowerCase()));
+  if (named.length && !named.some(said)) return `message names no field: ${message.slice(0, 160)} (fields ${named.join(", ")})`;
+  const internal = named.filter((k) => /[A-Z_.]/.test(k) && message.includes(k));
+  if (internal.length) return `message shows an internal field name (${internal.join(", ")}): ${message.slice(0, 160)}`;
   return null;
 }
 
@@ -240,7 +246,8 @@ describe("bad-input fuzz", () => {
     expect(problemWithRouteAnswer(201, { joint: {} })).toMatch(/accepted/);
     expect(problemWithRouteAnswer(400, "<html>")).toMatch(/shape/);
     expect(problemWithRouteAnswer(422, { error: { code: "invalid", message: "The input is not valid.", fields: { beadMm: ["Too small."] } } })).toMatch(/names no field/);
-    expect(problemWithRouteAnswer(422, { error: { code: "invalid", message: "Check beadMm: Too small.", fields: { beadMm: ["Too small."] } } })).toBeNull();
+    expect(problemWithRouteAnswer(422, { error: { code: "invalid", message: "Check beadMm: Too small.", fields: { beadMm: ["Too small."] } } })).toMatch(/internal field name \(beadMm\)/);
+    expect(problemWithRouteAnswer(422, { error: { code: "invalid", message: "Check Bead size: Bead size is too small.", fields: { beadMm: ["Bead size is too small."] } } })).toBeNull();
   });
 
   it("sent at least 2,000 malformed requests in all", () => {

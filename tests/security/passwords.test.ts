@@ -66,13 +66,15 @@ describe("common-password list", () => {
   it("refuses the person's own name or e-mail as the password and names the field", () => {
     expect(() => assertPasswordAllowed("robin.ashdown.example", { name: "Robin Ashdown", email: "robin.ashdown.example@test.example" })).toThrow(AppError);
     try {
-      assertPasswordAllowed("password12345", { field: "newPassword" });
+      assertPasswordAllowed("password12345", { field: "newPassword", label: "New password" });
       expect.unreachable();
     } catch (error) {
       expect(error).toBeInstanceOf(AppError);
       expect((error as AppError).code).toBe("invalid");
       expect(Object.keys((error as AppError).fields ?? {})).toEqual(["newPassword"]);
-      expect((error as AppError).message).toMatch(/newPassword/);
+      // Named as the form shows it, never by its internal name.
+      expect((error as AppError).message).toMatch(/^Check New password: /);
+      expect((error as AppError).message).not.toMatch(/newPassword/);
     }
   });
 });

@@ -3,11 +3,11 @@
 // input are checked by the wrapper; the use cases live in _lib/use-cases.ts.
 import { revalidatePath } from "next/cache";
 import { defineAction } from "@/app/_lib/guard";
-import { moveCoilSchema, receiveCoilSchema } from "@/domain/coils/schemas";
+import { RECEIVE_COIL_LABELS, moveCoilSchema, receiveCoilSchema } from "@/domain/coils/schemas";
 import { moveCoil } from "@/app/_server/coils/move-coil";
 import { receiveCoil } from "@/app/_server/coils/receive-coil";
 
-export const receiveCoilAction = defineAction({ permission: "receiveCoils", schema: receiveCoilSchema }, async (input, ctx) => {
+export const receiveCoilAction = defineAction({ permission: "receiveCoils", schema: receiveCoilSchema, labels: RECEIVE_COIL_LABELS }, async (input, ctx) => {
   const received = await receiveCoil(input, ctx);
   revalidatePath("/coils");
   return received;

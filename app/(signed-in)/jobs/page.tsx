@@ -2,6 +2,7 @@ import { requireUser } from "@/app/_lib/page-guard";
 import { listAssignableCoils, listJobs } from "@/database/queries/jobs";
 import { listCurrentProcedureVersions } from "@/database/queries/procedures";
 import { listCrews } from "@/database/queries/users";
+import { COIL_STATUS_LABELS } from "@/domain/coils/statuses";
 import { DataTable } from "@/components/ui/data-table";
 import { SectionCard } from "@/components/ui/section-card";
 import { JobForm } from "./_components/job-form";
@@ -35,7 +36,7 @@ export default async function JobsPage() {
         <JobForm
           procedures={procedures.map((p) => ({ id: p.procedureId, label: `${p.procedureCode} — ${p.procedureName} (version ${p.versionNo})` }))}
           crews={crews.map((c) => ({ id: c.id, label: c.name }))}
-          coils={coils.map((c) => ({ id: c.id, label: `${c.coilCode} · lot ${c.lot} · ${c.nominalSize}" SDR ${c.sdr} · ${c.status}` }))}
+          coils={coils.map((c) => ({ id: c.id, label: `${c.coilCode} · lot ${c.lot} · ${c.nominalSize}" SDR ${c.sdr} · ${COIL_STATUS_LABELS[c.status]}` }))}
         />
       </SectionCard>
     </div>

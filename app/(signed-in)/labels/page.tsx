@@ -5,7 +5,8 @@ import { requireUser } from "@/app/_lib/page-guard";
 import { findCoilById, type Coil } from "@/database/queries/coils";
 import { findJointLabelFacts } from "@/database/queries/trace";
 import { can } from "@/domain/roles";
-import { LABEL_STOCKS, SHEETS, SHEET_IDS, layoutSheet, placeLabels, type SheetId } from "@/domain/labels/sheets";
+import { LABEL_STOCKS, SHEETS, SHEET_IDS, labelPaperFor, layoutSheet, placeLabels, type SheetId } from "@/domain/labels/sheets";
+import { QUARANTINED_LABEL_WARNING } from "@/domain/labels/label";
 import { publicBaseUrl } from "@/app/_server/labels/base-url";
 import { coilLabelSvg, jointLabelSvg, stockOrDefault } from "@/app/_server/labels/render";
 import { PrintLabelsButton } from "./_components/print-button";
@@ -29,16 +30,19 @@ export default async function LabelsPage({ searchParams }: { searchParams: Promi
   const ids = idsFrom(params.ids);
   const system = user.unitSystem;
   const stock = stockOrDefault(typeof params.stock === "string" ? params.stock : null, system);
-  const sheetId: SheetId = SHEET_IDS.includes(params.sheet as SheetId) ? (params.sheet as SheetId) : stock.usualSheet;
+  // Paper: as chosen, else the organisation's (Letter in the US, A4 elsewhere); a chosen label size brings its own sheet.
+  const sheetId: SheetId = SHEET_IDS.includes(params.sheet as SheetId) ? (params.sheet as SheetId) : typeof params.stock === "string" ? stock.usualSheet : labelPaperFor({ unitSystem: system });
   const sheet = SHEETS[sheetId];
   const skip = Math.max(0, Math.floor(Number(params.skip) || 0));
   const baseUrl = publicBaseUrl(await headers());
 
   let labels: { key: string; svg: string; name: string }[] = [];
   let coilIds: number[] = [];
+  let quarantined: string[] = [];
   if (kind === "coil") {
     const coils = (await Promise.all(ids.map((id) => findCoilById({ id })))).filter((c): c is Coil => c !== null);
     coilIds = coils.map((c) => c.id);
+    quarantined = coils.filter((c) => c.status === "quarantined").map((c) => c.coilCode);
     labels = coils.map((c) => ({ key: `c${c.id}`, ...coilLabelSvg(c, { baseUrl, stock, system, standalone: false }) }));
   } else {
     const joints = await findJointLabelFacts({ jointIds: ids });
@@ -102,6 +106,11 @@ export default async function LabelsPage({ searchParams }: { searchParams: Promi
         <p>
           {labels.length} label{labels.length === 1 ? "" : "s"} on {placed.pages} sheet{placed.pages === 1 ? "" : "s"} of {sheet.label}: {layout.columns} × {layout.rows} = {layout.perSheet} a sheet. Print at 100 % (no “fit to page”).
         </p>
+        {quarantined.length ? (
+          <p role="alert" className="rounded-md border-4 border-fail bg-fail-light p-3 font-bold text-fail">
+            Quarantined: {quarantined.join(", ")}. {quarantined.length === 1 ? "Its label says" : "Their labels say"} “{QUARANTINED_LABEL_WARNING}”; pipe from {quarantined.length === 1 ? "it" : "them"} must not be laid.
+          </p>
+        ) : null}
         {layout.perSheet === 0 ? <p role="alert">This label size does not fit on {sheet.label}.</p> : null}
         {labels.length === 0 ? (
           <p role="alert">No labels to print: choose {kind === "coil" ? "coils on the Coils screen" : "joints on the Trace screen"}.</p>

@@ -4,6 +4,7 @@ import { requireUser } from "@/app/_lib/page-guard";
 import { findJointIdByReference, traceLot } from "@/database/queries/trace";
 import { traceSearchSchema } from "@/domain/coils/schemas";
 import { describeSize } from "@/domain/labels/label";
+import { LOT_MATCH_LABELS } from "@/domain/coils/life";
 import { fieldErrorsFromIssues } from "@/domain/result";
 import { formatQuantity } from "@/domain/units/format";
 import { FieldShell } from "@/components/form/field-shell";
@@ -16,7 +17,7 @@ import { RunSchematic } from "./_components/run-schematic";
 export const dynamic = "force-dynamic";
 
 const MATCHED_BY = {
-  lot: "Found by lot number.",
+  lot: "Found by lot number: a coil's typed lot or the lot in its traceability code.",
   "coil-id": "Found by coil id: the whole lot of that coil is shown.",
   "trace-code": "Found by traceability code: every lot whose coils carry it is shown.",
   none: "",
@@ -44,6 +45,7 @@ export default async function TracePage({ searchParams }: { searchParams: Promis
   const exportQuery = parsed?.success ? new URLSearchParams(Object.entries(parsed.data).filter(([, v]) => v) as [string, string][]).toString() : "";
   const jobs = trace ? [...new Map(trace.joints.map((j) => [j.jobId, { id: j.jobId, code: j.jobCode, name: j.jobName }])).values()] : [];
   const outOfLimits = trace ? trace.joints.filter((j) => j.outcome === "out-of-limits").length : 0;
+  const byCodeOnly = trace ? trace.coils.filter((c) => c.foundBy === "code-lot") : [];
 
   return (
     <div className="flex flex-col gap-6">
@@ -96,6 +98,11 @@ export default async function TracePage({ searchParams }: { searchParams: Promis
           }
         >
           {trace.lots.length ? <p className="text-sm">{MATCHED_BY[trace.matchedBy]}</p> : null}
+          {byCodeOnly.length ? (
+            <p role="note" className="rounded-md border-2 border-caution bg-caution-light p-3 text-sm font-semibold text-caution">
+              {byCodeOnly.map((c) => `${c.coilCode} (typed lot ${c.lot})`).join(", ")} {byCodeOnly.length === 1 ? "carries" : "carry"} this lot only in {byCodeOnly.length === 1 ? "its" : "their"} traceability code: the typed lot differs.
+            </p>
+          ) : null}
           {trace.lots.length ? (
             <p>
               <a href={`/api/v1/trace/lot/export?${exportQuery}`} download className="inline-flex min-h-touch items-center rounded-md border-2 border-brand bg-white px-4 font-semibold text-brand">
@@ -114,6 +121,7 @@ export default async function TracePage({ searchParams }: { searchParams: Promis
                 { header: "Coil id", cell: (c) => c.coilCode, href: (c) => `/coils/${encodeURIComponent(c.coilCode)}` },
                 { header: "Size", cell: (c) => describeSize(c) },
                 { header: "Code", className: "font-mono", cell: (c) => c.traceCode ?? "—" },
+                ...(trace.matchedBy === "lot" ? [{ header: "Found by", cell: (c: (typeof trace.coils)[number]) => (c.foundBy ? LOT_MATCH_LABELS[c.foundBy] : "—") }] : []),
                 { header: "Status", cell: (c) => <CoilStatusBadge status={c.status} /> },
                 { header: "Job", cell: (c) => c.jobCode ?? "—" },
                 { header: "Left", align: "right", cell: (c) => formatQuantity(c.remainingM, "length-m", system) },

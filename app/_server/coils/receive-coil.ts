@@ -5,8 +5,8 @@ import { db } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { insertCoil, type Coil } from "@/database/queries/coils";
 import { judgeReceiptInspection, traceCodeDisagreements } from "@/domain/coils/life";
-import type { ReceiveCoil } from "@/domain/coils/schemas";
-import { AppError } from "@/domain/result";
+import { RECEIVE_COIL_LABELS, type ReceiveCoil } from "@/domain/coils/schemas";
+import { AppError, describeFieldErrors } from "@/domain/result";
 
 export type Actor = { user: { id: number }; requestId: string };
 
@@ -15,7 +15,8 @@ export type ReceivedCoil = { id: number; coilCode: string; status: Coil["status"
 /**
  * Receives a coil: judges the receipt inspection (a failed one quarantines the coil with the
  * reasons), cross-checks the F2897 code against the typed fields (disagreements are kept as
- * flags and shown), inserts the coil, its first event and the audit entry in one transaction.
+ * flags and shown; the schema lets them through only with a reason, which the audit entry
+ * keeps), inserts the coil, its first event and the audit entry in one transaction.
  */
 export async function receiveCoil(input: ReceiveCoil, { user, requestId }: Actor): Promise<ReceivedCoil> {
   const verdict = judgeReceiptInspection({
@@ -29,6 +30,11 @@ export async function receiveCoil(input: ReceiveCoil, { user, requestId }: Actor
     endCapsInPlace: input.endCapsInPlace,
   });
   const flags = input.traceCode ? traceCodeDisagreements(input.traceCode, input) : [];
+  // The schema refuses disagreements without a reason; a caller that skipped it is refused here too.
+  if (flags.length && !input.disagreementReason) {
+    const fields = { disagreementReason: ["Say why the coil is saved although its fields disagree with its traceability code."] };
+    throw new AppError("invalid", describeFieldErrors(fields, RECEIVE_COIL_LABELS), fields);
+  }
   const quarantineReason = verdict.passed ? null : `Failed receipt inspection: ${verdict.reasons.join("; ")}`.slice(0, 300);
   return db().transaction(async (trx) => {
     const inserted = await insertCoil(
@@ -68,7 +74,7 @@ export async function receiveCoil(input: ReceiveCoil, { user, requestId }: Actor
         action: "coil-received",
         entityType: "coil",
         entityId: id,
-        details: { coilCode: input.coilCode, manufacturer: input.manufacturer, lot: input.lot, lengthM: input.lengthM, inspectionPassed: verdict.passed, reasons: verdict.reasons, traceCodeFlags: flags },
+        details: { coilCode: input.coilCode, manufacturer: input.manufacturer, lot: input.lot, lengthM: input.lengthM, inspectionPassed: verdict.passed, reasons: verdict.reasons, traceCodeFlags: flags, ...(flags.length ? { traceCode: input.traceCode, disagreementReason: input.disagreementReason } : {}) },
         requestId,
       },
       trx,

@@ -17,12 +17,12 @@ export function checkPassword(password: string, who: { name: string; email: stri
     if (error instanceof AppError) throw error;
     logger.warn({ err: String((error as Error).message) }, "common-password list unavailable; checking length and own name only");
     const problem = passwordProblem(password, { commonPasswords: [], userInputs: [who.name, who.email, who.email.split("@")[0] ?? ""] });
-    if (problem) throw new AppError("invalid", `Check password: ${problem}`, { password: [problem] });
+    if (problem) throw new AppError("invalid", `Check Password: ${problem}`, { password: [problem] });
   }
 }
 
 export async function checkCrew(crewId: number | null | undefined): Promise<void> {
   if (!crewId) return;
   const crews = await listCrews();
-  if (!crews.some((c) => c.id === crewId)) throw new AppError("invalid", "Check crewId: Crew does not exist.", { crewId: ["Crew does not exist."] });
+  if (!crews.some((c) => c.id === crewId)) throw new AppError("invalid", "Check Crew: Crew does not exist.", { crewId: ["Crew does not exist."] });
 }

@@ -5,7 +5,7 @@ import { findProcedureById } from "@/database/queries/procedures";
 import { listQualificationFailuresForUser, listQualificationsForUser } from "@/database/queries/qualifications";
 import { findUserById } from "@/database/queries/users";
 import { qualificationStatus, type QualificationStatus } from "@/domain/qualifications/status";
-import { AppError } from "@/domain/result";
+import { AppError, describeFieldErrors } from "@/domain/result";
 
 export type EvidenceFile = { bytes: Uint8Array; contentType: string; name: string };
 
@@ -20,12 +20,12 @@ export async function checkPersonAndProcedure(userId: number, procedureId: numbe
   if (!person) fields.userId = ["Person does not exist."];
   else if (!person.isActive) fields.userId = [`${person.name} is deactivated.`];
   if (!procedure) fields.procedureId = ["Procedure does not exist."];
-  if (Object.keys(fields).length) throw new AppError("invalid", `Check ${Object.keys(fields).join(", ")}: ${Object.values(fields)[0]![0]}`, fields);
+  if (Object.keys(fields).length) throw new AppError("invalid", describeFieldErrors(fields), fields);
   return { person: person!, procedure: procedure! };
 }
 
 export function notInFuture(date: string, today: string, field: string, label: string): void {
-  if (date > today) throw new AppError("invalid", `Check ${field}: ${label} ${date} is in the future.`, { [field]: [`${label} ${date} is in the future (today is ${today}).`] });
+  if (date > today) throw new AppError("invalid", `${label} ${date} is in the future (today is ${today}).`, { [field]: [`${label} ${date} is in the future (today is ${today}).`] });
 }
 
 /** Reads the file's first bytes to confirm its type (the browser's claim is not trusted). */

@@ -19,8 +19,8 @@ export async function recordQualificationFailure(input: RecordQualificationFailu
   const id = await db().transaction(async (trx) => {
     if (input.jointId) {
       const fuserId = await findJointFuserId({ jointId: input.jointId }, trx);
-      if (fuserId === null) throw new AppError("invalid", "Check jointId: that joint does not exist.", { jointId: ["That joint does not exist."] });
-      if (fuserId !== input.userId) throw new AppError("invalid", "Check jointId: that joint was made by someone else.", { jointId: ["That joint was made by someone else."] });
+      if (fuserId === null) throw new AppError("invalid", "That joint does not exist.", { jointId: ["That joint does not exist."] });
+      if (fuserId !== input.userId) throw new AppError("invalid", "That joint was made by someone else.", { jointId: ["That joint was made by someone else."] });
     }
     const fid = await insertQualificationFailure({ ...input, recordedBy: ctx.user.id }, trx);
     await insertAuditEntry(

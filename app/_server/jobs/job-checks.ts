@@ -5,7 +5,7 @@ import { coilAssignmentProblems } from "@/database/queries/jobs";
 import { findProcedureById } from "@/database/queries/procedures";
 import { listCrews } from "@/database/queries/users";
 import type { CreateJobInput } from "@/domain/jobs/schemas";
-import { AppError } from "@/domain/result";
+import { AppError, describeFieldErrors } from "@/domain/result";
 
 export async function checkReferences(input: CreateJobInput, jobId: number | null, trx: Db): Promise<void> {
   const fields: Record<string, string[]> = {};
@@ -18,7 +18,7 @@ export async function checkReferences(input: CreateJobInput, jobId: number | nul
   }
   const coilProblems = await coilAssignmentProblems({ jobId, coilIds: input.coilIds }, trx);
   if (coilProblems.length) fields.coilIds = coilProblems;
-  if (Object.keys(fields).length) throw new AppError("invalid", `Check ${Object.keys(fields).join(", ")}: ${Object.values(fields)[0]![0]}`, fields);
+  if (Object.keys(fields).length) throw new AppError("invalid", describeFieldErrors(fields), fields);
 }
 
 export function duplicateCode(code: string): AppError {

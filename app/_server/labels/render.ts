@@ -5,7 +5,7 @@ import "server-only";
 import QRCode from "qrcode";
 import type { Coil } from "@/database/queries/coils";
 import { coilLabelText, coilLabelUrl, jointLabelText, jointLabelUrl, renderLabelSvg, type QrMatrix } from "@/domain/labels/label";
-import { findLabelStock, LABEL_STOCKS, type LabelStock } from "@/domain/labels/sheets";
+import { findLabelStock, labelPaperFor, LABEL_STOCKS, type LabelStock } from "@/domain/labels/sheets";
 import type { UnitSystem } from "@/domain/units/format";
 import { formatInstant } from "@/components/ui/display-format";
 
@@ -15,12 +15,13 @@ export function qrMatrix(text: string): QrMatrix {
   return { size: qr.modules.size, data: qr.modules.data };
 }
 
-/** The stock named, or the usual one for the person's paper (A4 for SI, Letter for US). */
+/** The stock named, or the first one sold on the organisation's label paper (domain/labels labelPaperFor). */
 export function stockOrDefault(id: string | null | undefined, system: UnitSystem): LabelStock {
-  return (id ? findLabelStock(id) : undefined) ?? (system === "us" ? (findLabelStock("letter-4x2") as LabelStock) : (LABEL_STOCKS[0] as LabelStock));
+  const paper = labelPaperFor({ unitSystem: system });
+  return (id ? findLabelStock(id) : undefined) ?? LABEL_STOCKS.find((stock) => stock.usualSheet === paper) ?? (LABEL_STOCKS[0] as LabelStock);
 }
 
-type CoilForLabel = Pick<Coil, "coilCode" | "series" | "nominalSize" | "sdr" | "material" | "manufacturer" | "lot" | "lengthM">;
+type CoilForLabel = Pick<Coil, "coilCode" | "series" | "nominalSize" | "sdr" | "material" | "manufacturer" | "lot" | "lengthM" | "traceCode" | "status">;
 
 export function coilLabelSvg(coil: CoilForLabel, { baseUrl, stock, system, standalone = true }: { baseUrl: string; stock: LabelStock; system: UnitSystem; standalone?: boolean }): { svg: string; url: string; name: string } {
   const url = coilLabelUrl(baseUrl, coil.coilCode);

@@ -5,7 +5,7 @@ import { db, isDuplicateKey } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { currentProcedureVersion, findProcedureById, insertProcedureVersion, markVersionSuperseded } from "@/database/queries/procedures";
 import { tightenFromForm } from "@/domain/procedures/form";
-import type { TightenProcedureInput } from "@/domain/procedures/schemas";
+import { TIGHTEN_FORM_LABELS, type TightenProcedureInput } from "@/domain/procedures/schemas";
 import { AppError, describeFieldErrors } from "@/domain/result";
 
 type Ctx = { user: { id: number }; requestId: string };
@@ -29,7 +29,7 @@ export async function publishTightenedVersion(input: TightenProcedureInput, ctx:
       }
       const versionNo = current.versionNo + 1;
       const outcome = tightenFromForm(current.definition, input, { procedureCode: procedure.code, versionNo });
-      if (!outcome.ok) throw new AppError("invalid", describeFieldErrors(outcome.fields), outcome.fields);
+      if (!outcome.ok) throw new AppError("invalid", describeFieldErrors(outcome.fields, TIGHTEN_FORM_LABELS), outcome.fields);
       const versionId = await insertProcedureVersion({ procedureId: procedure.id, versionNo, definition: outcome.definition, notes: input.note, publishedBy: ctx.user.id }, trx);
       if (!(await markVersionSuperseded({ versionId: current.id }, trx))) {
         throw new AppError("conflict", `Version ${current.versionNo} of ${procedure.code} was superseded by someone else; reload the page.`);

@@ -20,6 +20,15 @@ export class ReceiveCoilPage {
     await this.field("ASTM F2897 code (16 characters)").pressSequentially(code);
   }
 
+  /** Correct the code in one go (select all, type the new one), as a clerk fixing a typo. */
+  async replaceTraceCode(code: string): Promise<void> {
+    await this.field("ASTM F2897 code (16 characters)").fill(code);
+  }
+
+  filledNote(): Locator {
+    return this.page.getByRole("status").filter({ hasText: "Filled from the code" });
+  }
+
   disagreement(): Locator {
     return this.page.getByRole("alert").filter({ hasText: "The code disagrees with the typed fields" });
   }
@@ -72,6 +81,12 @@ export class TracePage {
     await this.page.getByLabel("Lot", { exact: true }).fill(lot);
     await this.page.getByLabel("Or a traceability code, coil id or label address").fill("");
     await this.page.getByRole("button", { name: "Trace lot" }).click();
+  }
+
+  /** The "Found by" cell of a coil's row in the coils of the lot (the one cell of the row that speaks of a lot). */
+  foundBy(coilCode: string): Locator {
+    const row = this.page.getByRole("table", { name: "Coils of the lot" }).getByRole("row").filter({ has: this.page.getByRole("link", { name: coilCode, exact: true }) });
+    return row.getByRole("cell").filter({ hasText: /\blot\b/i });
   }
 
   result(): Locator {

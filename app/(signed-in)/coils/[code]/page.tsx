@@ -8,6 +8,7 @@ import { FactBlock, FactList } from "@/components/ui/fact-list";
 import { formatInstant } from "@/components/ui/display-format";
 import { TimeDisplay } from "@/components/ui/time-display";
 import { findCoilByCode, listCoilEvents, listCoilMoveOptions } from "@/database/queries/coils";
+import { listAuditEntries } from "@/database/queries/audit-log";
 import { listJointsForCoil } from "@/database/queries/trace";
 import { COIL_STATUS_LABELS } from "@/domain/coils/statuses";
 import { DAMAGE_LABELS, statusMovesFrom } from "@/domain/coils/life";
@@ -42,7 +43,14 @@ export default async function CoilPage({ params, searchParams }: { params: Promi
   if (!coil) notFound();
   const canMove = can(user, "moveCoils");
   const canTrace = can(user, "traceLots");
-  const [events, joints, options] = await Promise.all([listCoilEvents({ coilId: coil.id }), listJointsForCoil({ coilId: coil.id, limit: 100 }), canMove ? listCoilMoveOptions() : Promise.resolve(null)]);
+  const [events, joints, options, receipt] = await Promise.all([
+    listCoilEvents({ coilId: coil.id }),
+    listJointsForCoil({ coilId: coil.id, limit: 100 }),
+    canMove ? listCoilMoveOptions() : Promise.resolve(null),
+    coil.traceCodeFlags.length ? listAuditEntries({ entityType: "coil", entityId: coil.id, action: "coil-received", limit: 1 }) : Promise.resolve([]),
+  ]);
+  // Why the coil was saved although it disagrees with its code: kept in the receipt's audit entry.
+  const disagreementReason = typeof receipt[0]?.details?.disagreementReason === "string" ? receipt[0].details.disagreementReason : null;
   const system = user.unitSystem;
   const m = (value: number) => formatQuantity(value, "length-m", system);
   const stock = stockOrDefault(null, system);
@@ -66,9 +74,10 @@ export default async function CoilPage({ params, searchParams }: { params: Promi
         </p>
       ) : null}
       {coil.status === "quarantined" ? (
-        <p role="alert" className="rounded-md border-2 border-fail bg-fail-light p-3 font-semibold text-fail">
-          Quarantined: {coil.statusReason ?? "no reason recorded"}. Pipe from this coil must not be laid.
-        </p>
+        <div role="alert" className="rounded-md border-4 border-fail bg-fail-light p-4 text-fail">
+          <p className="text-2xl font-extrabold uppercase tracking-wide">Quarantined: do not use</p>
+          <p className="font-semibold">Pipe from this coil must not be laid. Reason: {coil.statusReason ?? "no reason recorded"}.</p>
+        </div>
       ) : null}
       {coil.traceCodeFlags.length ? (
         <div role="alert" className="rounded-md border-2 border-caution bg-caution-light p-3 text-caution">
@@ -78,6 +87,7 @@ export default async function CoilPage({ params, searchParams }: { params: Promi
               <li key={`${f.field}-${f.message}`}>{f.message}</li>
             ))}
           </ul>
+          {disagreementReason ? <p className="mt-1">Saved as it is because: “{disagreementReason}”</p> : null}
         </div>
       ) : null}
 

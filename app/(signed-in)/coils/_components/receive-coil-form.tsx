@@ -4,13 +4,13 @@
 // (and kept on the coil). The receipt inspection shows its verdict before saving.
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useRouter } from "next/navigation";
-import { useCallback, useMemo, useState } from "react";
+import { useCallback, useMemo, useRef, useState } from "react";
 import { useForm, useWatch } from "react-hook-form";
 import type { z } from "zod";
 import { Field, FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
-import { DAMAGE_KINDS, DAMAGE_LABELS, DEFAULT_GOUGE_LIMIT_PCT, DEFAULT_OVALITY_LIMIT_PCT, fieldsFromTraceCode, judgeReceiptInspection, traceCodeDisagreements, type DamageKind } from "@/domain/coils/life";
-import { receiveCoilSchema } from "@/domain/coils/schemas";
+import { DAMAGE_KINDS, DAMAGE_LABELS, DEFAULT_GOUGE_LIMIT_PCT, DEFAULT_OVALITY_LIMIT_PCT, codeFillFrom, fieldsFromTraceCode, judgeReceiptInspection, refillFromTraceCode, traceCodeDisagreements, type CodeFill, type CodeFilledField, type DamageKind } from "@/domain/coils/life";
+import { RECEIVE_COIL_LABELS as LABELS, receiveCoilSchema } from "@/domain/coils/schemas";
 import { PIPE_SERIES, findPipeSize, pipeSizes, type PipeSeries } from "@/domain/pipe/catalogue";
 import { parseTraceCode } from "@/domain/trace-code/trace-code";
 import { fromDisplay, type UnitSystem } from "@/domain/units/format";
@@ -22,6 +22,16 @@ type Input = z.input<typeof receiveCoilSchema>;
 type Output = z.output<typeof receiveCoilSchema>;
 
 const SERIES_NAMES: Record<PipeSeries, string> = { ips: "IPS (iron pipe size)", cts: "CTS (copper tube size)", metric: "Metric (ISO)" };
+
+/** The fields a code fills, in the order they are set (series before the size it lists). */
+const CODE_FIELDS: readonly CodeFilledField[] = ["manufacturerCode", "manufacturer", "lot", "productionDate", "material", "series", "nominalSize", "sdr"];
+const SIZE_DEFAULTS: CodeFill = { series: "ips", nominalSize: "2" };
+
+/** "Lot, Material designation and SDR (DR)". */
+function listLabels(fields: readonly CodeFilledField[]): string {
+  const names = fields.map((f) => LABELS[f]);
+  return names.length > 1 ? `${names.slice(0, -1).join(", ")} and ${names[names.length - 1]}` : (names[0] ?? "");
+}
 
 export function ReceiveCoilForm({
   suggestedCode,
@@ -36,15 +46,17 @@ export function ReceiveCoilForm({
 }) {
   const router = useRouter();
   const [message, setMessage] = useState<string | null>(null);
-  const [filledFromCode, setFilledFromCode] = useState<string[]>([]);
+  const [codeNote, setCodeNote] = useState<{ filled: CodeFilledField[]; cleared: CodeFilledField[] } | null>(null);
+  // What the current code put in each field, so a corrected code refills them (and only them).
+  const codeFill = useRef<CodeFill>({});
   const [scanning, setScanning] = useState(false);
   const smallUnit = unitSystem === "us" ? "in" : "mm";
   const { register, handleSubmit, formState, setValue, getValues, setError, control } = useForm<Input, unknown, Output>({
     resolver: zodResolver(receiveCoilSchema),
     defaultValues: {
       coilCode: suggestedCode,
-      series: "ips",
-      nominalSize: "2",
+      series: SIZE_DEFAULTS.series as PipeSeries,
+      nominalSize: SIZE_DEFAULTS.nominalSize,
       lengthUnit: unitSystem === "us" ? "ft" : "m",
       smallUnit,
       damageKinds: [],
@@ -93,36 +105,24 @@ export function ReceiveCoilForm({
     }
   }, [series, values.nominalSize, values.sdr, values.damageKinds, values.gougeDepth, values.gougeLimitPct, values.ovalityPct, values.ovalityLimitPct, values.endCapsInPlace, smallUnit]);
 
-  /** Fill the empty fields the code encodes (typed fields are kept, and flagged if they disagree). */
+  /**
+   * Fill what the code encodes: empty fields and fields the previous code filled follow the
+   * code (a corrected code refills them); fields typed by hand are kept and, where they
+   * differ, shown as disagreements that need a reason to save.
+   */
   function fillFromCode(text: string) {
     const parsed = parseTraceCode(text.trim());
     if (!parsed.ok) return;
     const fields = fieldsFromTraceCode(parsed.value);
-    const filled: string[] = [];
-    const fillIfEmpty = (name: keyof Input, value: string | undefined) => {
-      if (value === undefined) return;
-      const current = String(getValues(name) ?? "").trim();
-      if (!current) {
-        setValue(name, value as never, { shouldValidate: false, shouldDirty: true });
-        filled.push(String(name));
-      }
-    };
-    fillIfEmpty("manufacturerCode", fields.manufacturerCode);
-    fillIfEmpty("lot", fields.lot);
-    fillIfEmpty("productionDate", fields.productionDate);
-    fillIfEmpty("material", fields.material);
     const known = manufacturers.find((m) => m.code === fields.manufacturerCode);
-    if (known) fillIfEmpty("manufacturer", known.name);
-    if (fields.series && fields.nominalSize) {
-      const sdrTyped = String(getValues("sdr") ?? "").trim();
-      if (!sdrTyped) {
-        setValue("series", fields.series, { shouldDirty: true });
-        setValue("nominalSize", fields.nominalSize, { shouldDirty: true });
-        filled.push("series", "nominalSize");
-        if (fields.sdr !== undefined) fillIfEmpty("sdr", String(fields.sdr));
-      }
+    const current: CodeFill = Object.fromEntries(CODE_FIELDS.map((f) => [f, String(getValues(f) ?? "")]));
+    const refill = refillFromTraceCode({ current, previousFill: codeFill.current, next: codeFillFrom(fields, known?.name), defaults: SIZE_DEFAULTS });
+    for (const f of CODE_FIELDS) {
+      const value = refill.set[f];
+      if (value !== undefined) setValue(f, value as never, { shouldValidate: false, shouldDirty: true });
     }
-    setFilledFromCode(filled);
+    codeFill.current = refill.fill;
+    setCodeNote(refill.filled.length || refill.cleared.length ? { filled: refill.filled, cleared: refill.cleared } : null);
   }
 
   const onScanned = useCallback(
@@ -154,7 +154,7 @@ export function ReceiveCoilForm({
         <legend className="px-1 text-lg font-bold">Traceability code</legend>
         <Field
           id="traceCode"
-          label="ASTM F2897 code (16 characters)"
+          label={LABELS.traceCode}
           hint="Type it or scan it with a barcode scanner; the fields it encodes are filled in."
           autoComplete="off"
           spellCheck={false}
@@ -176,9 +176,11 @@ export function ReceiveCoilForm({
             </Button>
           )}
         </div>
-        {filledFromCode.length > 0 ? (
+        {codeNote ? (
           <p role="status" className="text-sm text-brand-dark sm:col-span-2">
-            Filled from the code: {filledFromCode.join(", ")}.
+            {codeNote.filled.length ? `Filled from the code: ${listLabels(codeNote.filled)}.` : ""}
+            {codeNote.filled.length && codeNote.cleared.length ? " " : ""}
+            {codeNote.cleared.length ? `Emptied, as the new code does not give ${codeNote.cleared.length === 1 ? "it" : "them"}: ${listLabels(codeNote.cleared)}.` : ""}
           </p>
         ) : null}
         {flags.length > 0 ? (
@@ -189,30 +191,31 @@ export function ReceiveCoilForm({
                 <li key={`${f.field}-${f.message}`}>{f.message}</li>
               ))}
             </ul>
-            <p>Check the print line on the pipe. If you save anyway, the coil is flagged.</p>
+            <p>Check the print line on the pipe and correct the fields or the code. To save the coil as it is, say why: the reason is kept in the audit log and the coil is flagged.</p>
+            <Field id="disagreementReason" label={LABELS.disagreementReason} autoComplete="off" className="mt-2 text-ink" {...register("disagreementReason")} error={errors.disagreementReason?.message} />
           </div>
         ) : null}
       </fieldset>
 
       <fieldset className="grid gap-4 rounded-md border-2 border-slate-300 bg-white p-4 sm:grid-cols-2">
         <legend className="px-1 text-lg font-bold">Coil</legend>
-        <Field id="coilCode" label="Coil id (printed on our label)" autoComplete="off" {...register("coilCode")} error={errors.coilCode?.message} />
-        <Field id="manufacturer" label="Pipe maker" list="known-manufacturers" autoComplete="off" {...register("manufacturer")} error={errors.manufacturer?.message} />
+        <Field id="coilCode" label={LABELS.coilCode} autoComplete="off" {...register("coilCode")} error={errors.coilCode?.message} />
+        <Field id="manufacturer" label={LABELS.manufacturer} list="known-manufacturers" autoComplete="off" {...register("manufacturer")} error={errors.manufacturer?.message} />
         <datalist id="known-manufacturers">
           {manufacturers.map((m) => (
             <option key={`${m.name}-${m.code}`} value={m.name} />
           ))}
         </datalist>
-        <Field id="manufacturerCode" label="Manufacturer id in the code" maxLength={2} autoComplete="off" {...register("manufacturerCode")} error={errors.manufacturerCode?.message ?? flagFor("manufacturerCode")} />
-        <Field id="lot" label="Lot" autoComplete="off" {...register("lot")} error={errors.lot?.message ?? flagFor("lot")} />
-        <Field id="productionDate" label="Production date" type="date" {...register("productionDate")} error={errors.productionDate?.message ?? flagFor("productionDate")} />
-        <Field id="material" label="Material designation" list="pe-materials" autoComplete="off" {...register("material")} error={errors.material?.message ?? flagFor("material")} />
+        <Field id="manufacturerCode" label={LABELS.manufacturerCode} maxLength={2} autoComplete="off" {...register("manufacturerCode")} error={errors.manufacturerCode?.message ?? flagFor("manufacturerCode")} />
+        <Field id="lot" label={LABELS.lot} autoComplete="off" {...register("lot")} error={errors.lot?.message ?? flagFor("lot")} />
+        <Field id="productionDate" label={LABELS.productionDate} type="date" {...register("productionDate")} error={errors.productionDate?.message ?? flagFor("productionDate")} />
+        <Field id="material" label={LABELS.material} list="pe-materials" autoComplete="off" {...register("material")} error={errors.material?.message ?? flagFor("material")} />
         <datalist id="pe-materials">
           {materials.map((m) => (
             <option key={m} value={m} />
           ))}
         </datalist>
-        <FieldShell id="series" label="Size series">
+        <FieldShell id="series" label={LABELS.series}>
           {(control) => (
             <select {...control} className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-3" {...register("series")}>
               {PIPE_SERIES.map((s) => (
@@ -223,7 +226,7 @@ export function ReceiveCoilForm({
             </select>
           )}
         </FieldShell>
-        <FieldShell id="nominalSize" label="Nominal size" error={errors.nominalSize?.message ?? flagFor("nominalSize")}>
+        <FieldShell id="nominalSize" label={LABELS.nominalSize} error={errors.nominalSize?.message ?? flagFor("nominalSize")}>
           {(control) => (
             <select {...control} className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-3" {...register("nominalSize")}>
               {pipeSizes(series).map((size) => (
@@ -234,9 +237,9 @@ export function ReceiveCoilForm({
             </select>
           )}
         </FieldShell>
-        <Field id="sdr" label="SDR (DR)" numeric autoComplete="off" {...register("sdr")} error={errors.sdr?.message} />
+        <Field id="sdr" label={LABELS.sdr} numeric autoComplete="off" {...register("sdr")} error={errors.sdr?.message} />
         <div className="flex items-end gap-2">
-          <Field id="length" label="Coil length" numeric autoComplete="off" className="flex-1" {...register("length")} error={errors.length?.message} />
+          <Field id="length" label={LABELS.length} numeric autoComplete="off" className="flex-1" {...register("length")} error={errors.length?.message} />
           <FieldShell id="lengthUnit" label="Unit">
             {(control) => (
               <select {...control} className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-3" {...register("lengthUnit")}>
@@ -246,7 +249,7 @@ export function ReceiveCoilForm({
             )}
           </FieldShell>
         </div>
-        <Field id="printLine" label="Print line as written on the pipe" autoComplete="off" className="sm:col-span-2" {...register("printLine")} error={errors.printLine?.message} />
+        <Field id="printLine" label={LABELS.printLine} autoComplete="off" className="sm:col-span-2" {...register("printLine")} error={errors.printLine?.message} />
       </fieldset>
 
       <fieldset className="grid gap-4 rounded-md border-2 border-slate-300 bg-white p-4 sm:grid-cols-2">

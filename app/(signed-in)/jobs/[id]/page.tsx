@@ -5,6 +5,7 @@ import { countJointsOnJob, findJobById, listAssignableCoils, listCoilsForJob } f
 import { listCurrentProcedureVersions } from "@/database/queries/procedures";
 import { listCrews } from "@/database/queries/users";
 import { canRecordOnJob } from "@/domain/jobs/rules";
+import { COIL_STATUS_LABELS, type CoilStatus } from "@/domain/coils/statuses";
 import { JobForm } from "../_components/job-form";
 import { JobStatusButton } from "../_components/job-status-button";
 import { SectionCard } from "@/components/ui/section-card";
@@ -23,7 +24,7 @@ export default async function JobPage({ params }: { params: Promise<{ id: string
     listCoilsForJob({ jobId: id }),
     countJointsOnJob({ jobId: id }),
   ]);
-  const coilLabel = (c: { coilCode: string; lot: string; nominalSize: string; sdr: number; status: string }) => `${c.coilCode} · lot ${c.lot} · ${c.nominalSize}" SDR ${c.sdr} · ${c.status}`;
+  const coilLabel = (c: { coilCode: string; lot: string; nominalSize: string; sdr: number; status: CoilStatus }) => `${c.coilCode} · lot ${c.lot} · ${c.nominalSize}" SDR ${c.sdr} · ${COIL_STATUS_LABELS[c.status]}`;
   const coils = [...new Map([...assigned, ...assignable].map((c) => [c.id, { id: c.id, label: coilLabel(c) }])).values()];
   return (
     <div className="flex flex-col gap-6">

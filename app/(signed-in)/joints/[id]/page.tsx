@@ -11,6 +11,7 @@ import { OutcomeBadge, ReviewStateBadge } from "@/components/ui/badges";
 import { FactLine, FactList } from "@/components/ui/fact-list";
 import { TimeDisplay } from "@/components/ui/time-display";
 import { REVIEW_STATE_LABELS } from "@/domain/joints/review-states";
+import { REVISION_KIND_LABELS } from "@/domain/joints/revision-kinds";
 import { verdictOf } from "@/app/_server/joints/record-joint";
 import { PlanPanel } from "@/components/fusion/plan-panel";
 import { SectionCard } from "@/components/ui/section-card";
@@ -202,7 +203,7 @@ export default async function JointPage({ params }: Params) {
           {revisions.map((r) => (
             <li key={r.id} className="rounded-md border-2 border-slate-300 bg-white p-3">
               <p className="font-semibold">
-                {r.revisionNo}. {r.kind} by {r.byUserName} at <TimeDisplay at={r.at} withZone /> → {REVIEW_STATE_LABELS[r.reviewState]}
+                {r.revisionNo}. {REVISION_KIND_LABELS[r.kind]} by {r.byUserName} at <TimeDisplay at={r.at} withZone /> → {REVIEW_STATE_LABELS[r.reviewState]}
               </p>
               {r.reason ? <p>“{r.reason}”</p> : null}
             </li>

@@ -6,7 +6,7 @@ import { defineRoute, errorResponse } from "@/app/_lib/guard";
 import { receiveCoil } from "@/app/_server/coils/receive-coil";
 import { findCoilByCodeOrTrace, listCoils } from "@/database/queries/coils";
 import { COIL_STATUSES } from "@/domain/coils/statuses";
-import { receiveCoilSchema } from "@/domain/coils/schemas";
+import { RECEIVE_COIL_LABELS, receiveCoilSchema } from "@/domain/coils/schemas";
 import { can } from "@/domain/roles";
 import { z } from "zod";
 
@@ -30,7 +30,7 @@ export const GET = defineRoute({ permission: "signed-in", schema: lookupSchema, 
   return Response.json({ coils });
 });
 
-export const POST = defineRoute({ permission: "receiveCoils", schema: receiveCoilSchema, input: "json" }, async (input, ctx) => {
+export const POST = defineRoute({ permission: "receiveCoils", schema: receiveCoilSchema, input: "json", labels: RECEIVE_COIL_LABELS }, async (input, ctx) => {
   const received = await receiveCoil(input, ctx);
   return Response.json({ coil: received }, { status: 201 });
 });

@@ -12,6 +12,8 @@ import { TimeDisplay } from "@/components/ui/time-display";
 import { traceJointOrigins } from "@/app/_server/trace/origins";
 import { SectionCard } from "@/components/ui/section-card";
 import { OUTCOME_LABELS } from "@/domain/joints/outcomes";
+import { JOINT_KIND_LABELS } from "@/domain/joints/schemas";
+import { builtInProcedure, type FusionStandard } from "@/domain/procedures";
 
 export const dynamic = "force-dynamic";
 
@@ -86,7 +88,7 @@ export default async function JointOriginsPage({ params }: { params: Promise<{ i
             {o.joint.station ? `Station ${o.joint.station}` : "no station"}
             {o.joint.latitude != null && o.joint.longitude != null ? ` · ${o.joint.latitude.toFixed(5)}, ${o.joint.longitude.toFixed(5)}` : ""}
           </FactBlock>
-          <FactBlock term="Kind">{o.joint.kind}</FactBlock>
+          <FactBlock term="Kind">{JOINT_KIND_LABELS[o.joint.kind]}</FactBlock>
           <FactBlock term="Pipe">
             {formatQuantity(o.joint.outsideDiameterMm, "length-mm", system)} OD, SDR {o.joint.sdr}
           </FactBlock>
@@ -151,7 +153,7 @@ export default async function JointOriginsPage({ params }: { params: Promise<{ i
               {o.procedure.versionNo}, published <TimeDisplay at={o.procedure.publishedAt} precision="date" />
               {o.procedure.supersededAt ? `, superseded ${formatInstant(o.procedure.supersededAt, "date")}` : ""}
             </FactBlock>
-            <FactBlock term="Based on">{o.procedure.standard}</FactBlock>
+            <FactBlock term="Based on">{builtInProcedure(o.procedure.standard as FusionStandard).label}</FactBlock>
           </FactList>
         </SectionCard>
       </div>
