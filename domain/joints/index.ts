@@ -5,3 +5,4 @@ export * from '@/domain/joints/rules';
 export * from '@/domain/joints/timer';
 export * from '@/domain/joints/values';
 export * from '@/domain/joints/pre-record';
+export * from '@/domain/joints/reference';
