@@ -19,6 +19,8 @@ import {
   type RegisterSort,
   type SortDirection,
 } from "@/domain/register";
+import { readScannedCoilText } from "@/domain/coils/life";
+import { parseJointReference } from "@/domain/joints/reference";
 import type { Knex } from "knex";
 import { conn, type Db } from "../client";
 import { date, num, parseJson, recordedValueColumns, setList, text, toRecordedValues, type DbRow } from "./rows";
@@ -40,6 +42,9 @@ const SORT_KEYS: Record<RegisterSort, SortKey[]> = {
   heaterTemperature: [{ col: "heater_temperature_c", nullable: true }],
 };
 
+/** The largest joint number a bare number in the search is read as (joint_no is an unsigned INT). */
+const MAX_JOINT_NO = 999_999_999;
+
 /** Above this many matching coils, a coil condition is left to a subquery, not a list. */
 const MAX_COIL_LIST = 2000;
 /** Counts are exact up to this many rows; above it the optimizer's estimate is shown. */
@@ -54,7 +59,7 @@ type CoilSet = { ids: number[] } | { subquery: Sql };
 type Resolved = {
   filter: RegisterFilter;
   lotCoils: CoilSet | null;
-  search: { coils: CoilSet | null; jointNo: number | null; jobJoint: { jobId: number; jointNo: number } | null } | null;
+  search: { coils: CoilSet | null; jointNo: number | null; jobJoint: { jobId: number; jointNo: number } | null; jointId: number | null } | null;
   /** True when the filter can match nothing (unknown lot, search matching nothing). */
   isEmpty: boolean;
 };
@@ -85,8 +90,18 @@ async function resolveFilter(filter: RegisterFilter, trx?: Db): Promise<Resolved
   }
   if (filter.q) {
     const q = filter.q.trim();
-    const prefix = `${escapeLike(q)}%`;
-    const m = /^(.+?)[-/ #]+(\d{1,9})$/.exec(q);
+    // A joint reference (domain/joints/reference): "WO-24152 joint 10", "#10", "WO-24152/10",
+    // a joint tag's address; digits alone are a joint number across jobs. A coil label's
+    // address searches that coil id. Anything else is a coil id or lot prefix.
+    const parsed = parseJointReference(q);
+    const reference = parsed.ok ? parsed.reference : null;
+    if (reference?.kind === "joint-id") {
+      out.search = { coils: null, jointNo: null, jobJoint: null, jointId: reference.jointId };
+      return out;
+    }
+    const scanned = readScannedCoilText(q);
+    const coilText = scanned.kind === "empty" ? q : scanned.code;
+    const prefix = `${escapeLike(coilText)}%`;
     const [coils, job] = await Promise.all([
       coilSet(
         [
@@ -95,11 +110,11 @@ async function resolveFilter(filter: RegisterFilter, trx?: Db): Promise<Resolved
         ],
         trx,
       ),
-      m ? conn(trx)("jobs").where("code", m[1]).first("id") : Promise.resolve(null),
+      reference?.kind === "job-joint" ? (conn(trx)("jobs").where("code", reference.jobCode).first("id") as Promise<{ id: number } | undefined>) : Promise.resolve(null),
     ]);
-    const jointNo = /^\d{1,9}$/.test(q) ? Number(q) : null;
-    const jobJoint = m && job ? { jobId: Number(job.id), jointNo: Number(m[2]) } : null;
-    out.search = { coils, jointNo, jobJoint };
+    const jointNo = reference?.kind === "number" && reference.value <= MAX_JOINT_NO ? reference.value : null;
+    const jobJoint = reference?.kind === "job-joint" && job ? { jobId: Number(job.id), jointNo: reference.jointNo } : null;
+    out.search = { coils, jointNo, jobJoint, jointId: null };
     if (!coils && jointNo === null && !jobJoint) out.isEmpty = true;
   }
   return out;
@@ -169,6 +184,7 @@ function buildBase(resolved: Resolved, sort: RegisterSort): Built {
       const indexes = ["joints_coil_a_id_index", "joints_coil_b_id_index"];
       if (resolved.search && resolved.search.jointNo !== null) indexes.push("joints_register_joint_no_index");
       if (resolved.search?.jobJoint) indexes.push("joints_job_id_joint_no_unique");
+      if (resolved.search?.jointId) indexes.push("PRIMARY");
       hint = ` USE INDEX (${indexes.join(", ")})`;
     }
     from = `joints j${hint}`;
@@ -221,6 +237,10 @@ function buildBase(resolved: Resolved, sort: RegisterSort): Built {
     if (resolved.search.jobJoint) {
       parts.push("(j.job_id = ? AND j.joint_no = ?)");
       bindings.push(resolved.search.jobJoint.jobId, resolved.search.jobJoint.jointNo);
+    }
+    if (resolved.search.jointId) {
+      parts.push("j.id = ?");
+      bindings.push(resolved.search.jointId);
     }
     where.push(`(${parts.join(" OR ")})`);
   }
