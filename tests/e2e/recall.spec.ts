@@ -108,6 +108,7 @@ test("the clerk finds a joint by the references the app prints and by its tag's 
   const register = new RegisterPage(page);
   for (const text of [cutRef, `${baseURL}/joints/${c.cutId}`]) {
     await register.open();
+    await expect(register.count()).toContainText(/\d+ joints ·/); // the screen is ready (its form no longer resets)
     await register.field("Search joint, coil id or lot").fill(text);
     await register.applyFilter();
     await expect(register.count()).toContainText("1 joint ·");
