@@ -14,6 +14,7 @@ import { traceJointOrigins } from "@/app/_server/trace/origins";
 import { SectionCard } from "@/components/ui/section-card";
 import { OUTCOME_LABELS } from "@/domain/joints/outcomes";
 import { JOINT_KIND_LABELS } from "@/domain/joints/schemas";
+import { builtInProcedure, isFusionStandard } from "@/domain/procedures/built-in";
 
 export const dynamic = "force-dynamic";
 
@@ -183,7 +184,7 @@ export default async function JointOriginsPage({ params }: { params: Promise<{ i
               {o.procedure.versionNo}, published <TimeDisplay at={o.procedure.publishedAt} precision="date" />
               {o.procedure.supersededAt ? `, superseded ${formatInstant(o.procedure.supersededAt, "date")}` : ""}
             </FactBlock>
-            <FactBlock term="Based on">{o.procedure.standard}</FactBlock>
+            <FactBlock term="Based on">{isFusionStandard(o.procedure.standard) ? builtInProcedure(o.procedure.standard).label : o.procedure.standard}</FactBlock>
           </FactList>
         </SectionCard>
       </div>
