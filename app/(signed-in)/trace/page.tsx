@@ -87,7 +87,7 @@ export default async function TracePage({ searchParams }: { searchParams: Promis
       <h1 className="text-2xl font-bold">Trace</h1>
       <div className="grid gap-6 lg:grid-cols-2">
         <SectionCard id="lot-search" title="Lot → ground" tone="card" isCompact>
-          <p className="mb-3 text-sm">Every coil of a lot and every joint made with them, with where, when, who and the outcome.</p>
+          <p className="mb-3 text-sm">Every coil of a lot and every joint made with them, with where, when, who, the outcome and the review: a cut-out joint is marked out of the ground, with the joint that replaced it.</p>
           <form role="search" method="get" action="/trace" className="flex flex-col gap-3" aria-describedby="lot-search-errors">
             <div className="grid gap-3 sm:grid-cols-2">
               <FieldShell id="manufacturer" label="Pipe maker" error={fields.manufacturer?.[0]}>
