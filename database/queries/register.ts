@@ -14,13 +14,16 @@ import {
   type KeyValue,
   type RegisterCursor,
   type RegisterFilter,
+  type RegisterJointRef,
   type RegisterRow,
   type RegisterSort,
   type SortDirection,
 } from "@/domain/register";
+import { readScannedCoilText } from "@/domain/coils/life";
+import { parseJointReference } from "@/domain/joints/reference";
 import type { Knex } from "knex";
 import { conn, type Db } from "../client";
-import { num, recordedValueColumns, setList, text, toRecordedValues, type DbRow } from "./rows";
+import { date, num, parseJson, recordedValueColumns, setList, text, toRecordedValues, type DbRow } from "./rows";
 import type { FusionMachineRow, JobRow, JointRow as JointTableRow, UserRow } from "../tables";
 
 type SortKey = { col: string; nullable: boolean; isDate?: boolean };
@@ -39,6 +42,9 @@ const SORT_KEYS: Record<RegisterSort, SortKey[]> = {
   heaterTemperature: [{ col: "heater_temperature_c", nullable: true }],
 };
 
+/** The largest joint number a bare number in the search is read as (joint_no is an unsigned INT). */
+const MAX_JOINT_NO = 999_999_999;
+
 /** Above this many matching coils, a coil condition is left to a subquery, not a list. */
 const MAX_COIL_LIST = 2000;
 /** Counts are exact up to this many rows; above it the optimizer's estimate is shown. */
@@ -53,7 +59,7 @@ type CoilSet = { ids: number[] } | { subquery: Sql };
 type Resolved = {
   filter: RegisterFilter;
   lotCoils: CoilSet | null;
-  search: { coils: CoilSet | null; jointNo: number | null; jobJoint: { jobId: number; jointNo: number } | null } | null;
+  search: { coils: CoilSet | null; jointNo: number | null; jobJoint: { jobId: number; jointNo: number } | null; jointId: number | null } | null;
   /** True when the filter can match nothing (unknown lot, search matching nothing). */
   isEmpty: boolean;
 };
@@ -84,8 +90,18 @@ async function resolveFilter(filter: RegisterFilter, trx?: Db): Promise<Resolved
   }
   if (filter.q) {
     const q = filter.q.trim();
-    const prefix = `${escapeLike(q)}%`;
-    const m = /^(.+?)[-/ #]+(\d{1,9})$/.exec(q);
+    // A joint reference (domain/joints/reference): "WO-24152 joint 10", "#10", "WO-24152/10",
+    // a joint tag's address; digits alone are a joint number across jobs. A coil label's
+    // address searches that coil id. Anything else is a coil id or lot prefix.
+    const parsed = parseJointReference(q);
+    const reference = parsed.ok ? parsed.reference : null;
+    if (reference?.kind === "joint-id") {
+      out.search = { coils: null, jointNo: null, jobJoint: null, jointId: reference.jointId };
+      return out;
+    }
+    const scanned = readScannedCoilText(q);
+    const coilText = scanned.kind === "empty" ? q : scanned.code;
+    const prefix = `${escapeLike(coilText)}%`;
     const [coils, job] = await Promise.all([
       coilSet(
         [
@@ -94,11 +110,11 @@ async function resolveFilter(filter: RegisterFilter, trx?: Db): Promise<Resolved
         ],
         trx,
       ),
-      m ? conn(trx)("jobs").where("code", m[1]).first("id") : Promise.resolve(null),
+      reference?.kind === "job-joint" ? (conn(trx)("jobs").where("code", reference.jobCode).first("id") as Promise<{ id: number } | undefined>) : Promise.resolve(null),
     ]);
-    const jointNo = /^\d{1,9}$/.test(q) ? Number(q) : null;
-    const jobJoint = m && job ? { jobId: Number(job.id), jointNo: Number(m[2]) } : null;
-    out.search = { coils, jointNo, jobJoint };
+    const jointNo = reference?.kind === "number" && reference.value <= MAX_JOINT_NO ? reference.value : null;
+    const jobJoint = reference?.kind === "job-joint" && job ? { jobId: Number(job.id), jointNo: reference.jointNo } : null;
+    out.search = { coils, jointNo, jobJoint, jointId: null };
     if (!coils && jointNo === null && !jobJoint) out.isEmpty = true;
   }
   return out;
@@ -168,6 +184,7 @@ function buildBase(resolved: Resolved, sort: RegisterSort): Built {
       const indexes = ["joints_coil_a_id_index", "joints_coil_b_id_index"];
       if (resolved.search && resolved.search.jointNo !== null) indexes.push("joints_register_joint_no_index");
       if (resolved.search?.jobJoint) indexes.push("joints_job_id_joint_no_unique");
+      if (resolved.search?.jointId) indexes.push("PRIMARY");
       hint = ` USE INDEX (${indexes.join(", ")})`;
     }
     from = `joints j${hint}`;
@@ -220,6 +237,10 @@ function buildBase(resolved: Resolved, sort: RegisterSort): Built {
     if (resolved.search.jobJoint) {
       parts.push("(j.job_id = ? AND j.joint_no = ?)");
       bindings.push(resolved.search.jobJoint.jobId, resolved.search.jobJoint.jointNo);
+    }
+    if (resolved.search.jointId) {
+      parts.push("j.id = ?");
+      bindings.push(resolved.search.jointId);
     }
     where.push(`(${parts.join(" OR ")})`);
   }
@@ -322,7 +343,70 @@ type JointRow = Omit<JointTableRow, "outcome"> & {
   procedure_version_no: number;
   outcome: RegisterRow["outcome"];
   review_state: RegisterRow["reviewState"];
+} & AuditRow;
+
+// ── Audit trail (decision, remakes, overrides) ──
+/** The audit columns of ROW_SELECT. */
+type AuditRow = {
+  replaces_joint_no: number | null;
+  replaces_job_code: string | null;
+  replaced_by_joint_no: number | null;
+  replaced_by_job_code: string | null;
+  decision_kind: "accepted" | "cut-out" | null;
+  decided_at: Date | null;
+  decision_note: string | null;
+  decided_by_name: string | null;
+  /** JSON array of { message, reason, by }: parsed already by the client's JSON type cast, or text; NULL for none. */
+  overrides_used: OverrideJson[] | string | null;
 };
+
+type OverrideJson = { message: string; reason: string; by: string };
+
+const AUDIT_SELECT = `
+  rj.joint_no AS replaces_joint_no, rjb.code AS replaces_job_code,
+  nj.joint_no AS replaced_by_joint_no, njb.code AS replaced_by_job_code,
+  d.kind AS decision_kind, d.at AS decided_at, d.reason AS decision_note, di.name AS decided_by_name,
+  ov.overrides_used`;
+
+/**
+ * The audit joins for one batch of ids (`ids` is its placeholder list, bound twice
+ * before the WHERE's own list). Remakes are primary-key lookups. The decision is the
+ * latest accepted/cut-out revision, found by one grouped read of joint_revisions over the
+ * batch (its unique (joint_id, revision_no) index), and only while the joint's state still
+ * rests on it; overrides are one grouped read of joint_override_uses (primary key
+ * joint_id, override_id). No query per joint.
+ */
+function auditFrom(ids: string): string {
+  return `
+  LEFT JOIN joints rj ON rj.id = j.replaces_joint_id
+  LEFT JOIN jobs rjb ON rjb.id = rj.job_id
+  LEFT JOIN joints nj ON nj.id = s.replaced_by_joint_id
+  LEFT JOIN jobs njb ON njb.id = nj.job_id
+  LEFT JOIN (SELECT joint_id, MAX(revision_no) AS revision_no FROM joint_revisions
+              WHERE joint_id IN (${ids}) AND kind IN ('accepted', 'cut-out') GROUP BY joint_id) dl
+         ON dl.joint_id = j.id AND s.review_state IN ('accepted', 'cut-out')
+  LEFT JOIN joint_revisions d ON d.joint_id = dl.joint_id AND d.revision_no = dl.revision_no
+  LEFT JOIN users di ON di.id = d.by_user_id
+  LEFT JOIN (SELECT ou.joint_id, JSON_ARRAYAGG(JSON_OBJECT('message', ou.message, 'reason', o.reason, 'by', g.name) ORDER BY o.id) AS overrides_used
+               FROM joint_override_uses ou JOIN joint_overrides o ON o.id = ou.override_id JOIN users g ON g.id = o.granted_by
+              WHERE ou.joint_id IN (${ids}) GROUP BY ou.joint_id) ov
+         ON ov.joint_id = j.id`;
+}
+
+const ref = (jobCode: string | null, jointNo: number | null): RegisterJointRef | null => (jobCode == null || jointNo == null ? null : { jobCode, jointNo: Number(jointNo) });
+
+function toAudit(r: AuditRow): Pick<RegisterRow, "decisionState" | "decidedByName" | "decidedAt" | "decisionNote" | "replaces" | "replacedBy" | "overridesUsed"> {
+  return {
+    decisionState: r.decision_kind ?? null,
+    decidedByName: text(r.decided_by_name),
+    decidedAt: date(r.decided_at),
+    decisionNote: text(r.decision_note),
+    replaces: ref(r.replaces_job_code, r.replaces_joint_no),
+    replacedBy: ref(r.replaced_by_job_code, r.replaced_by_joint_no),
+    overridesUsed: (Array.isArray(r.overrides_used) ? r.overrides_used : parseJson<OverrideJson[]>(r.overrides_used, [])).map((o) => ({ message: String(o.message), grantedByName: String(o.by), reason: String(o.reason) })),
+  };
+}
+// ── end audit trail ──
 
 const ROW_SELECT = `
   j.id, j.job_id, jb.code AS job_code, j.joint_no, j.kind, j.made_at, j.station, j.latitude, j.longitude,
@@ -331,7 +415,7 @@ const ROW_SELECT = `
   cb.coil_code AS coil_b_code, cb.lot AS coil_b_lot, j.component_b_text,
   j.outside_diameter_mm, j.sdr, j.procedure_version_id, p.code AS procedure_code, pv.version_no AS procedure_version_no,
   COALESCE(s.outcome, j.outcome) AS outcome, COALESCE(s.review_state, 'pending-review') AS review_state, j.finding_parameters,
-  j.ambient_c, ${recordedValueColumns("j").join(", ")}`;
+  j.ambient_c, ${recordedValueColumns("j").join(", ")},${AUDIT_SELECT}`;
 
 const ROW_FROM = `
   joints j
@@ -378,6 +462,7 @@ function toRegisterRow(r: JointRow): RegisterRow {
     findingParameters: setList<JointParameter>(r.finding_parameters),
     ambientC: num(r.ambient_c),
     ...toRecordedValues(r),
+    ...toAudit(r),
   };
 }
 
@@ -394,7 +479,8 @@ export async function findRegisterRowsByIds({ ids }: { ids: number[] }, trx?: Db
   const byId = new Map<number, RegisterRow>();
   for (let i = 0; i < ids.length; i += IDS_PER_LOOKUP) {
     const chunk = ids.slice(i, i + IDS_PER_LOOKUP);
-    const [rows] = (await conn(trx).raw(`SELECT ${ROW_SELECT} FROM ${ROW_FROM} WHERE j.id IN (${chunk.map(() => "?").join(",")})`, chunk)) as unknown as [JointRow[]];
+    const list = chunk.map(() => "?").join(",");
+    const [rows] = (await conn(trx).raw(`SELECT ${ROW_SELECT} FROM ${ROW_FROM}${auditFrom(list)} WHERE j.id IN (${list})`, [...chunk, ...chunk, ...chunk])) as unknown as [JointRow[]];
     for (const r of rows) byId.set(Number(r.id), toRegisterRow(r));
   }
   return ids.map((id) => byId.get(id)).filter((r): r is RegisterRow => Boolean(r));

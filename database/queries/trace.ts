@@ -7,11 +7,12 @@ import { lotMatch, readScannedCoilText, type LotMatch } from "@/domain/coils/lif
 import { traceCodeLotField } from "@/domain/trace-code/trace-code";
 import type { JointOutcome } from "@/domain/joints/outcomes";
 import type { JointKind } from "@/domain/joints/schemas";
+import type { JointReference } from "@/domain/joints/reference";
 import type { ReviewState } from "@/domain/joints/review-states";
 import { conn, type Db } from "../client";
 import { coilQuery, findCoilByCode, listCoilsByTraceCode, toCoil, type Coil } from "./coils";
-import type { FusionMachineRow, HeaterCheckRow, HeaterPlateRow, JointRow } from "../tables";
-import { day, isoDay, num } from "./rows";
+import type { FusionMachineRow, HeaterCheckRow, HeaterPlateRow, JointRevisionRow, JointRow } from "../tables";
+import { day, isoDay, num, text } from "./rows";
 
 export type LotKey = { manufacturer: string; lot: string };
 
@@ -79,6 +80,9 @@ function uniqueLots(keys: LotKey[]): LotKey[] {
   return [...seen.values()];
 }
 
+/** Another joint named by id, job code and joint number (a remake and the joint it replaced). */
+export type JointLink = { id: number; jobCode: string; jointNo: number };
+
 export type TracedJoint = {
   id: number;
   jobId: number;
@@ -93,7 +97,12 @@ export type TracedJoint = {
   fuserId: number;
   fuserName: string;
   outcome: JointOutcome;
-  reviewState: ReviewState | null;
+  /** Review state (a joint without a state row yet counts as pending review). */
+  reviewState: ReviewState;
+  /** The remake that replaced this cut-out joint (same job), or null. */
+  replacedBy: JointLink | null;
+  /** The cut-out joint this one remakes, or null. */
+  replaces: JointLink | null;
   coilAId: number | null;
   coilACode: string | null;
   coilALot: string | null;
@@ -109,20 +118,46 @@ export type TracedJoint = {
 
 export const TRACE_JOINT_LIMIT = 50_000;
 
-/** A row of listJointsForCoils' SELECT (joints with their job, fuser, state and coils). */
-type TracedJointRow = Pick<JointRow, "id" | "job_id" | "joint_no" | "kind" | "made_at" | "station" | "latitude" | "longitude" | "fuser_id" | "outcome" | "coil_a_id" | "coil_b_id" | "component_b_text" | "length_a_m" | "length_b_m"> & {
+/**
+ * The joint facts both directions show: the joint with its job, review state and the
+ * joints it replaced or was replaced by (JOINT_FACTS_SELECT over JOINT_FACTS_JOINS).
+ */
+type JointFactsRow = Pick<JointRow, "id" | "job_id" | "joint_no" | "kind" | "made_at" | "station" | "latitude" | "longitude" | "outcome" | "component_b_text" | "length_a_m" | "length_b_m" | "replaces_joint_id"> & {
   job_code: string;
   job_name: string;
-  fuser_name: string;
-  review_state: TracedJoint["reviewState"];
-  coil_a_code: string | null;
-  coil_a_lot: string | null;
-  coil_b_code: string | null;
-  coil_b_lot: string | null;
+  review_state: ReviewState;
+  replaced_by_joint_id: number | null;
+  replaced_by_joint_no: number | null;
+  replaced_by_job_code: string | null;
+  replaces_joint_no: number | null;
+  replaces_job_code: string | null;
 };
 
-/** findJointOrigins' joint row: the joint with its job and review state. */
-type OriginJointRow = JointRow & { job_code: string; job_name: string; review_state: TracedJoint["reviewState"] };
+/** Columns of JointFactsRow besides j.* (aliases: j joints, jb jobs, s joint_states, nj/njb the remake, rj/rjb the replaced joint). */
+const JOINT_FACTS_SELECT = `jb.code AS job_code, jb.name AS job_name, COALESCE(s.review_state, 'pending-review') AS review_state,
+            s.replaced_by_joint_id, nj.joint_no AS replaced_by_joint_no, njb.code AS replaced_by_job_code,
+            rj.joint_no AS replaces_joint_no, rjb.code AS replaces_job_code`;
+
+/** Each a primary-key lookup per joint, so a lot of 200 joints stays a few hundred index reads. */
+const JOINT_FACTS_JOINS = `JOIN jobs jb ON jb.id = j.job_id
+       LEFT JOIN joint_states s ON s.joint_id = j.id
+       LEFT JOIN joints nj ON nj.id = s.replaced_by_joint_id
+       LEFT JOIN jobs njb ON njb.id = nj.job_id
+       LEFT JOIN joints rj ON rj.id = j.replaces_joint_id
+       LEFT JOIN jobs rjb ON rjb.id = rj.job_id`;
+
+/** A row of listJointsForCoils' SELECT (joint facts with fuser and coils). */
+type TracedJointRow = JointFactsRow &
+  Pick<JointRow, "fuser_id" | "coil_a_id" | "coil_b_id"> & {
+    fuser_name: string;
+    coil_a_code: string | null;
+    coil_a_lot: string | null;
+    coil_b_code: string | null;
+    coil_b_lot: string | null;
+  };
+
+/** findJointOrigins' joint row: the whole joint with its facts. */
+type OriginJointRow = JointRow & JointFactsRow;
 
 /** The heater check row with the name of who made it. */
 type CheckRow = HeaterCheckRow & { checked_by_name: string | null };
@@ -130,53 +165,55 @@ type CheckRow = HeaterCheckRow & { checked_by_name: string | null };
 /** The procedure version row with its procedure's code, name and standard. */
 type VersionRow = { id: number; procedure_id: number; version_no: number; published_at: Date; superseded_at: Date | null; code: string; name: string; standard: string };
 
+const link = (id: number | null, jobCode: string | null, jointNo: number | null): JointLink | null =>
+  id == null || jobCode == null || jointNo == null ? null : { id: Number(id), jobCode, jointNo: Number(jointNo) };
+
+/** The joint facts the lot trace and a joint's origins both show. */
+function jointFacts(r: JointFactsRow) {
+  return {
+    id: Number(r.id),
+    jobId: Number(r.job_id),
+    jobCode: r.job_code,
+    jobName: r.job_name,
+    jointNo: Number(r.joint_no),
+    kind: r.kind,
+    madeAt: r.made_at,
+    station: text(r.station),
+    latitude: num(r.latitude),
+    longitude: num(r.longitude),
+    outcome: r.outcome,
+    reviewState: r.review_state,
+    replacedBy: link(r.replaced_by_joint_id, r.replaced_by_job_code, r.replaced_by_joint_no),
+    replaces: link(r.replaces_joint_id, r.replaces_job_code, r.replaces_joint_no),
+    componentBText: text(r.component_b_text),
+    lengthAM: num(r.length_a_m),
+    lengthBM: num(r.length_b_m),
+  };
+}
+
 /**
  * Every joint made with any of the coils, on either side, ordered by job, time, id. The
  * ids come from `coil_a_id IN (…) UNION coil_b_id IN (…)` — each arm uses its own index.
  * At most `limit` joints (default 50,000); `truncated` says when more exist.
  */
-/**
- * The joint facts the lot trace and a joint's origins both show, from a row of joints with
- * its job (job_code, job_name) and state (review_state; null when none yet).
- */
-function jointFacts(r: Record<string, unknown>) {
-  return {
-    id: Number(r.id),
-    jobId: Number(r.job_id),
-    jobCode: r.job_code as string,
-    jobName: r.job_name as string,
-    jointNo: Number(r.joint_no),
-    kind: r.kind as TracedJoint["kind"],
-    madeAt: r.made_at as Date,
-    station: (r.station as string | null) ?? null,
-    latitude: r.latitude == null ? null : Number(r.latitude),
-    longitude: r.longitude == null ? null : Number(r.longitude),
-    outcome: r.outcome as TracedJoint["outcome"],
-    reviewState: (r.review_state as TracedJoint["reviewState"]) ?? null,
-    componentBText: (r.component_b_text as string | null) ?? null,
-    lengthAM: r.length_a_m == null ? null : Number(r.length_a_m),
-    lengthBM: r.length_b_m == null ? null : Number(r.length_b_m),
-  };
-}
-
 export async function listJointsForCoils({ coilIds, limit = TRACE_JOINT_LIMIT }: { coilIds: number[]; limit?: number }, trx?: Db): Promise<{ joints: TracedJoint[]; truncated: boolean }> {
   if (!coilIds.length) return { joints: [], truncated: false };
   const k = conn(trx);
   const ids = [...new Set(coilIds)];
   const placeholders = ids.map(() => "?").join(",");
   const [rows] = (await k.raw(
-    `SELECT j.id, j.job_id, jb.code AS job_code, jb.name AS job_name, j.joint_no, j.kind, j.made_at, j.station, j.latitude, j.longitude,
-            j.fuser_id, u.name AS fuser_name, j.outcome, s.review_state,
+    `SELECT j.id, j.job_id, j.joint_no, j.kind, j.made_at, j.station, j.latitude, j.longitude,
+            j.fuser_id, u.name AS fuser_name, j.outcome, j.replaces_joint_id,
             j.coil_a_id, ca.coil_code AS coil_a_code, ca.lot AS coil_a_lot,
             j.coil_b_id, cb.coil_code AS coil_b_code, cb.lot AS coil_b_lot,
-            j.component_b_text, j.length_a_m, j.length_b_m
+            j.component_b_text, j.length_a_m, j.length_b_m,
+            ${JOINT_FACTS_SELECT}
        FROM (SELECT id FROM joints WHERE coil_a_id IN (${placeholders})
              UNION
              SELECT id FROM joints WHERE coil_b_id IN (${placeholders})) AS hit
        JOIN joints j ON j.id = hit.id
-       JOIN jobs jb ON jb.id = j.job_id
+       ${JOINT_FACTS_JOINS}
        JOIN users u ON u.id = j.fuser_id
-       LEFT JOIN joint_states s ON s.joint_id = j.id
        LEFT JOIN coils ca ON ca.id = j.coil_a_id
        LEFT JOIN coils cb ON cb.id = j.coil_b_id
       ORDER BY jb.code, j.made_at, j.id
@@ -192,13 +229,13 @@ export async function listJointsForCoils({ coilIds, limit = TRACE_JOINT_LIMIT }:
     return {
       ...jointFacts(r),
       fuserId: Number(r.fuser_id),
-      fuserName: r.fuser_name as string,
+      fuserName: r.fuser_name,
       coilAId: a,
-      coilACode: r.coil_a_code ?? null,
-      coilALot: r.coil_a_lot ?? null,
+      coilACode: text(r.coil_a_code),
+      coilALot: text(r.coil_a_lot),
       coilBId: b,
-      coilBCode: (r.coil_b_code as string | null) ?? null,
-      coilBLot: (r.coil_b_lot as string | null) ?? null,
+      coilBCode: text(r.coil_b_code),
+      coilBLot: text(r.coil_b_lot),
       side: onA && onB ? "both" : onA ? "a" : "b",
     } satisfies TracedJoint;
   });
@@ -213,24 +250,21 @@ export async function traceLot(search: { manufacturer?: string; lot?: string; co
 }
 
 /**
- * A joint named as people write it: its id ("1234"), or job code and joint number
- * ("WO-24117 #12", "WO-24117-12", "WO-24117 12"). null when none matches.
+ * The joint a parsed reference names (domain/joints/reference): a job code and joint number,
+ * a joint id from a tag's address, or a bare number read as a joint id. `isJobOnFile` says,
+ * for a job-and-number reference, whether the job itself exists.
  */
-export async function findJointIdByReference({ reference }: { reference: string }, trx?: Db): Promise<number | null> {
-  const text = reference.trim();
-  if (!text) return null;
+export async function findJointIdByReference({ reference }: { reference: JointReference }, trx?: Db): Promise<{ jointId: number | null; isJobOnFile: boolean | null }> {
   const k = conn(trx);
-  const byJob = /^(.+?)\s*(?:#|\s|-|\/)\s*#?(\d+)$/.exec(text);
-  if (byJob) {
-    const row = (await k("joints as j").join("jobs as jb", "jb.id", "j.job_id").where("jb.code", byJob[1]!.trim()).where("j.joint_no", Number(byJob[2])).first("j.id")) as { id: number } | undefined;
-    if (row) return Number(row.id);
+  if (reference.kind === "job-joint") {
+    const job = (await k("jobs").where("code", reference.jobCode).first("id")) as { id: number } | undefined;
+    if (!job) return { jointId: null, isJobOnFile: false };
+    const row = (await k("joints").where({ job_id: job.id, joint_no: reference.jointNo }).first("id")) as { id: number } | undefined;
+    return { jointId: row ? Number(row.id) : null, isJobOnFile: true };
   }
-  const joint = /\/joints\/(\d+)/.exec(text) ?? /^#?(\d+)$/.exec(text);
-  if (joint) {
-    const row = (await k("joints").where("id", Number(joint[1])).first("id")) as { id: number } | undefined;
-    if (row) return Number(row.id);
-  }
-  return null;
+  const id = reference.kind === "joint-id" ? reference.jointId : reference.value;
+  const row = (await k("joints").where("id", id).first("id")) as { id: number } | undefined;
+  return { jointId: row ? Number(row.id) : null, isJobOnFile: null };
 }
 
 export type JointOrigins = {
@@ -249,10 +283,14 @@ export type JointOrigins = {
     sdr: number;
     outcome: TracedJoint["outcome"];
     reviewState: TracedJoint["reviewState"];
+    replacedBy: JointLink | null;
+    replaces: JointLink | null;
     componentBText: string | null;
     lengthAM: number | null;
     lengthBM: number | null;
   };
+  /** The inspector's decision the review state rests on (null while pending review). */
+  decision: JointDecision | null;
   coilA: Coil | null;
   coilB: Coil | null;
   machine: { id: number; assetTag: string; description: string | null; pistonAreaMm2: number | null; lastServiceOn: string | null; nextServiceDue: string | null };
@@ -268,15 +306,25 @@ export type JointOrigins = {
   procedure: { versionId: number; procedureId: number; code: string; name: string; standard: string; versionNo: number; publishedAt: Date; supersededAt: Date | null };
 };
 
+/** An inspector's decision on a joint: accepted or cut out, by whom, when, and the note. */
+export type JointDecision = { state: "accepted" | "cut-out"; byName: string; at: Date; note: string | null };
+
 /** Joint → origins (raw records; the qualification status is computed by the caller). */
 export async function findJointOrigins({ jointId }: { jointId: number }, trx?: Db): Promise<JointOrigins | null> {
   const k = conn(trx);
-  const j = (await k("joints as j")
-    .join("jobs as jb", "jb.id", "j.job_id")
-    .leftJoin("joint_states as s", "s.joint_id", "j.id")
-    .where("j.id", jointId)
-    .first("j.*", "jb.code as job_code", "jb.name as job_name", "s.review_state")) as OriginJointRow | undefined;
+  const [found] = (await k.raw(`SELECT j.*, ${JOINT_FACTS_SELECT} FROM joints j ${JOINT_FACTS_JOINS} WHERE j.id = ?`, [jointId])) as [OriginJointRow[]];
+  const j = found[0];
   if (!j) return null;
+  // The latest decision revision, when the joint's state still rests on it (a re-opened joint is pending again).
+  const decisionRow =
+    j.review_state === "pending-review"
+      ? undefined
+      : ((await k("joint_revisions as r")
+          .join("users as u", "u.id", "r.by_user_id")
+          .where("r.joint_id", jointId)
+          .whereIn("r.kind", ["accepted", "cut-out"])
+          .orderBy("r.revision_no", "desc")
+          .first("r.kind", "r.at", "r.reason", "u.name as by_name")) as (Pick<JointRevisionRow, "at" | "reason"> & { kind: JointDecision["state"]; by_name: string }) | undefined);
   const coilIds = [j.coil_a_id, j.coil_b_id].filter((v) => v != null).map(Number);
   const coils = coilIds.length ? ((await coilQuery(trx).whereIn("coils.id", coilIds)) as Parameters<typeof toCoil>[0][]).map(toCoil) : [];
   const coil = (id: unknown) => (id == null ? null : (coils.find((c) => c.id === Number(id)) ?? null));
@@ -307,6 +355,7 @@ export async function findJointOrigins({ jointId }: { jointId: number }, trx?: D
       outsideDiameterMm: Number(j.outside_diameter_mm),
       sdr: Number(j.sdr),
     },
+    decision: decisionRow ? { state: decisionRow.kind, byName: decisionRow.by_name, at: decisionRow.at, note: text(decisionRow.reason) } : null,
     coilA: coil(j.coil_a_id),
     coilB: coil(j.coil_b_id),
     machine: {

@@ -3,8 +3,11 @@
 import { z } from 'zod';
 import { optionalNumber, requiredText, optionalText, optionalDate, idField, optionalIdField, versionField } from '@/domain/form-fields';
 
+/** What a job code may hold: letters, digits and . _ / - (no spaces), starting with a letter or digit. */
+export const JOB_CODE_PATTERN = /^[A-Za-z0-9][A-Za-z0-9._/-]*$/;
+
 const jobFields = {
-  code: requiredText('Job code', 2, 40).regex(/^[A-Za-z0-9][A-Za-z0-9._/-]*$/, { error: 'Job code may hold letters, digits and . _ / - only (no spaces).' }),
+  code: requiredText('Job code', 2, 40).regex(JOB_CODE_PATTERN, { error: 'Job code may hold letters, digits and . _ / - only (no spaces).' }),
   name: requiredText('Job name', 2, 200),
   place: optionalText('Place', 300),
   latitude: optionalNumber('Latitude', { min: -90, max: 90 }),

@@ -7,3 +7,4 @@ export * from '@/domain/joints/timer';
 export * from '@/domain/joints/values';
 export * from '@/domain/joints/pre-record';
 export * from '@/domain/joints/submission';
+export * from '@/domain/joints/reference';

@@ -5,6 +5,7 @@ import type { JointParameter } from '@/domain/fusion/parameters';
 import { FINDING_PARAMETER_LABELS } from '@/domain/fusion/parameters';
 import { OUTCOME_LABELS } from '@/domain/joints/outcomes';
 import { REVIEW_STATE_LABELS, type ReviewState } from '@/domain/joints/review-states';
+import { formatJointReference } from '@/domain/joints/reference';
 import type { RegisterOutcome, RegisterSort } from '@/domain/register/filter';
 import { CHECK_VALUES, QUANTITY_VALUES, type CheckValueDefinition, type QuantityValueDefinition, type RecordedValues } from '@/domain/joints/values';
 import { displayDecimals, roundTo, toDisplay, unitLabel, type QuantityKind, type UnitSystem } from '@/domain/units/format';
@@ -45,13 +46,39 @@ export interface RegisterJoint {
   reviewState: ReviewState;
   findingParameters: JointParameter[];
   ambientC: number | null;
+  // ── Audit trail (the decision, remakes, overrides) ──
+  /** The inspector's decision the review state rests on; null while pending review. */
+  decisionState: 'accepted' | 'cut-out' | null;
+  decidedByName: string | null;
+  decidedAt: Date | null;
+  decisionNote: string | null;
+  /** The cut-out joint this one remakes. */
+  replaces: RegisterJointRef | null;
+  /** The remake that replaced this cut-out joint. */
+  replacedBy: RegisterJointRef | null;
+  /** Clearances of blocking warnings the joint was recorded under, oldest first. */
+  overridesUsed: RegisterOverrideUse[];
+  // ── end audit trail ──
+}
+
+/** Another joint named by job code and joint number. */
+export interface RegisterJointRef {
+  jobCode: string;
+  jointNo: number;
+}
+
+/** One clearance a joint was recorded under: what it cleared (in words), who granted it and why. */
+export interface RegisterOverrideUse {
+  message: string;
+  grantedByName: string;
+  reason: string;
 }
 
 /** The same row as the JSON API sends it (dates as ISO 8601 text). */
-export type RegisterRowJson = Omit<RegisterRow, 'madeAt'> & { madeAt: string };
+export type RegisterRowJson = Omit<RegisterRow, 'madeAt' | 'decidedAt'> & { madeAt: string; decidedAt: string | null };
 
 export function registerRowFromJson(row: RegisterRowJson): RegisterRow {
-  return { ...row, madeAt: new Date(row.madeAt) };
+  return { ...row, madeAt: new Date(row.madeAt), decidedAt: row.decidedAt === null ? null : new Date(row.decidedAt) };
 }
 
 export type CellValue = string | number | Date | null;
@@ -129,6 +156,29 @@ function valueColumn(d: QuantityValueDefinition | CheckValueDefinition): Registe
 /** The server-side sorts on a recorded value (database/queries/register.ts SORT_KEYS). */
 const SORT_OF_VALUE: Partial<Record<string, RegisterSort>> = { heaterTemperatureC: 'heaterTemperature' };
 
+/** "Heater plate HP-31's check is overdue — cleared by Dana Hollis: spare plate checked on site". */
+export function overrideUseText(use: RegisterOverrideUse): string {
+  return `${use.message} — cleared by ${use.grantedByName}: ${use.reason}`;
+}
+
+/**
+ * The audit trail of a joint, for the export (not in the grid): the decision in words, who
+ * decided and when, the note, the joints it remakes or was remade by (as Beadline prints a
+ * joint: "WO-24152 joint 10"), the clearances it was recorded under, the procedure's code
+ * and version.
+ */
+const AUDIT_COLUMNS: readonly RegisterColumn[] = [
+  { key: 'decision', title: 'Decision', type: 'text', inGrid: false, width: 12, value: (r) => (r.decisionState ? REVIEW_STATE_LABELS[r.decisionState] : null) },
+  { key: 'inspector', title: 'Inspector', type: 'text', inGrid: false, width: 18, value: (r) => r.decidedByName },
+  { key: 'decidedAt', title: 'Decided at (UTC)', type: 'date', inGrid: false, width: 18, value: (r) => r.decidedAt },
+  { key: 'decisionNote', title: 'Decision note', type: 'text', inGrid: false, width: 36, value: (r) => r.decisionNote },
+  { key: 'replaces', title: 'Replaces', type: 'text', inGrid: false, width: 18, value: (r) => (r.replaces ? formatJointReference(r.replaces) : null) },
+  { key: 'replacedBy', title: 'Replaced by', type: 'text', inGrid: false, width: 18, value: (r) => (r.replacedBy ? formatJointReference(r.replacedBy) : null) },
+  { key: 'overrides', title: 'Overrides used', type: 'text', inGrid: false, width: 48, value: (r) => (r.overridesUsed.length ? r.overridesUsed.map(overrideUseText).join('; ') : null) },
+  { key: 'procedureCode', title: 'Procedure code', type: 'text', inGrid: false, width: 14, value: (r) => r.procedureCode },
+  { key: 'procedureVersion', title: 'Procedure version', type: 'integer', inGrid: false, width: 9, value: (r) => r.procedureVersionNo },
+];
+
 export const REGISTER_COLUMNS: readonly RegisterColumn[] = [
   { key: 'jointNo', title: 'Joint', type: 'integer', sort: 'number', inGrid: true, width: 8, value: (r) => r.jointNo },
   { key: 'job', title: 'Job', type: 'text', inGrid: true, width: 12, value: (r) => r.jobCode },
@@ -162,6 +212,7 @@ export const REGISTER_COLUMNS: readonly RegisterColumn[] = [
   ...QUANTITY_VALUES.map(valueColumn),
   { key: 'ambient', title: 'Ambient temperature', type: 'quantity', quantity: 'temperature', inGrid: true, width: 8, value: (r, s) => quantity(r.ambientC, 'temperature', s) },
   ...CHECK_VALUES.map(valueColumn),
+  ...AUDIT_COLUMNS,
 ];
 
 /** The column's unit in the reader's system, or null (text, dates, plain numbers). */

@@ -30,7 +30,7 @@ export function describeFilter(filter: RegisterFilter, names: FilterNames): Filt
   if (filter.outcome !== undefined) lines.push({ label: 'Outcome', value: OUTCOME_LABELS[filter.outcome] });
   if (filter.review !== undefined) lines.push({ label: 'Review state', value: REVIEW_STATE_LABELS[filter.review] });
   if (filter.finding !== undefined) lines.push({ label: 'Finding on', value: FINDING_PARAMETER_LABELS[filter.finding] });
-  if (filter.q !== undefined) lines.push({ label: 'Search (joint number, coil id or lot)', value: filter.q });
+  if (filter.q !== undefined) lines.push({ label: 'Search (joint, coil id or lot)', value: filter.q });
   return lines;
 }
 

@@ -79,7 +79,7 @@ const filterShape = {
   outcome: z.preprocess(blankToUndefined, z.enum(REGISTER_OUTCOMES, { error: 'The outcome must be within limits or out of limits.' }).optional()),
   review: z.preprocess(blankToUndefined, z.enum(REVIEW_STATES, { error: 'The review state must be pending review, accepted or cut out.' }).optional()),
   finding: z.preprocess(blankToUndefined, z.enum(JOINT_PARAMETERS, { error: 'The finding must be one of the checked parameters.' }).optional()),
-  q: textParam('search', 60),
+  q: textParam('search', 300),
 };
 
 function checkDayOrder(value: { from?: string; to?: string }, ctx: z.RefinementCtx): void {

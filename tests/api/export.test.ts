@@ -214,4 +214,80 @@ describe("register API and export", () => {
     const text = (await res.text()).replace(/^\uFEFF/, "");
     expect(text.trim().split("\r\n")).toHaveLength(1);
   });
+  it("the .xlsx and CSV carry the audit trail: decision in words, inspector, decided at, note, remakes, overrides, procedure code and version", async () => {
+    const k = ownerDb();
+    const jobId = fixture.jobIds[0]!;
+    const inJob = (state: string) => k("joints as j").join("joint_states as s", "s.joint_id", "j.id").where({ "j.job_id": jobId, "s.review_state": state }).orderBy("j.id").select("j.id", "j.joint_no");
+    const [cut] = (await inJob("cut-out")) as { id: number; joint_no: number }[];
+    const accepted = (await inJob("accepted")) as { id: number; joint_no: number }[];
+    const [pending] = (await inJob("pending-review")) as { id: number; joint_no: number }[];
+    const [remake, reopened, stillAccepted] = accepted;
+    expect(cut && remake && reopened && stillAccepted && pending).toBeTruthy();
+    const jobCode = String((await k("jobs").where({ id: jobId }).first("code")).code);
+    const inspectorName = String((await k("users").where({ id: fixture.inspectorId }).first("name")).name);
+    const cutDecision = await k("joint_revisions").where({ joint_id: cut!.id, kind: "cut-out" }).first("at", "reason");
+
+    // The remake names the cut-out joint, and the cut-out joint's state points at the remake.
+    await k("joints").where({ id: remake!.id }).update({ replaces_joint_id: cut!.id });
+    await k("joint_states").where({ joint_id: cut!.id }).update({ replaced_by_joint_id: remake!.id });
+    // The remake was recorded under two clearances granted by an admin.
+    const [heaterClear] = await k("joint_overrides").insert({ job_id: jobId, subject_type: "heater", subject_id: fixture.heaterIds[0], reason: "Spare plate checked on site with the pyrometer", granted_by: admin.id, expires_at: new Date("2030-01-01T00:00:00Z") });
+    const [coilClear] = await k("joint_overrides").insert({ job_id: jobId, subject_type: "coil", subject_id: fixture.coilIds[0], reason: "Quarantine lifted by the maker's letter", granted_by: admin.id, expires_at: new Date("2030-01-01T00:00:00Z") });
+    await k("joint_override_uses").insert([
+      { joint_id: remake!.id, override_id: heaterClear, block_kind: "heater-check-overdue", message: "Heater plate check is overdue" },
+      { joint_id: remake!.id, override_id: coilClear, block_kind: "coil-quarantined", message: "Coil is quarantined" },
+    ]);
+    const adminName = String((await k("users").where({ id: admin.id }).first("name")).name);
+    // An accepted joint re-opened by a pressure trace is pending again: no decision stands.
+    await k("joint_revisions").insert({ joint_id: reopened!.id, revision_no: 3, kind: "trace-attached", by_user_id: fixture.inspectorId, at: new Date(), review_state: "pending-review" });
+    await k("joint_states").where({ joint_id: reopened!.id }).update({ review_state: "pending-review", revision_no: 3 });
+    // A trace attached after the acceptance, within limits: the acceptance still stands.
+    await k("joint_revisions").insert({ joint_id: stillAccepted!.id, revision_no: 3, kind: "trace-attached", by_user_id: fixture.fuserIds[0], at: new Date(), review_state: "accepted" });
+    await k("joint_states").where({ joint_id: stillAccepted!.id }).update({ revision_no: 3 });
+
+    const res = await exportGet(await requestAs(clerk, `/api/v1/exports/register?format=xlsx&job=${jobId}`), noParams);
+    expect(res.status).toBe(200);
+    const book = new ExcelJS.Workbook();
+    await book.xlsx.load(Buffer.from(await res.arrayBuffer()) as unknown as ArrayBuffer);
+    const sheet = book.getWorksheet("Joints")!;
+    const header = (sheet.getRow(1).values as unknown[]).slice(1) as string[];
+    for (const title of ["Decision", "Inspector", "Decided at (UTC)", "Decision note", "Replaces", "Replaced by", "Overrides used", "Procedure code", "Procedure version"]) expect(header).toContain(title);
+    const byJointNo = new Map<number, Record<string, unknown>>();
+    sheet.eachRow((row, n) => {
+      if (n === 1) return;
+      const values = (row.values as unknown[]).slice(1);
+      const record = Object.fromEntries(header.map((h, i) => [h, values[i] ?? null]));
+      byJointNo.set(Number(record.Joint), record);
+    });
+
+    // Words of the product's joint states ("accepted", "cut out"); joints as Beadline prints them ("WO-24152 joint 10").
+    const cutRow = byJointNo.get(Number(cut!.joint_no))!;
+    expect(cutRow).toMatchObject({ Decision: "Cut out", Inspector: inspectorName, "Decision note": cutDecision.reason, "Replaced by": `${jobCode} joint ${remake!.joint_no}`, Replaces: null });
+    expect(Math.abs((cutRow["Decided at (UTC)"] as Date).getTime() - new Date(cutDecision.at).getTime())).toBeLessThan(2);
+    const remakeRow = byJointNo.get(Number(remake!.joint_no))!;
+    expect(remakeRow).toMatchObject({ Decision: "Accepted", Inspector: inspectorName, Replaces: `${jobCode} joint ${cut!.joint_no}`, "Replaced by": null });
+    expect(remakeRow["Overrides used"]).toBe(`Heater plate check is overdue — cleared by ${adminName}: Spare plate checked on site with the pyrometer; Coil is quarantined — cleared by ${adminName}: Quarantine lifted by the maker's letter`);
+    expect(byJointNo.get(Number(reopened!.joint_no))).toMatchObject({ Decision: null, Inspector: null, "Decided at (UTC)": null, "Decision note": null });
+    expect(byJointNo.get(Number(stillAccepted!.joint_no))).toMatchObject({ Decision: "Accepted", Inspector: inspectorName });
+    expect(byJointNo.get(Number(pending!.joint_no))).toMatchObject({ Decision: null, Inspector: null });
+    for (const [no, record] of byJointNo) {
+      const version = await k("joints as j").join("procedure_versions as v", "v.id", "j.procedure_version_id").join("procedures as p", "p.id", "v.procedure_id").where({ "j.job_id": jobId, "j.joint_no": no }).first("p.code", "v.version_no");
+      expect([record["Procedure code"], record["Procedure version"]]).toEqual([version.code, Number(version.version_no)]);
+      expect(String(record.Decision ?? "")).not.toMatch(/-/); // never a stored code such as "cut-out"
+    }
+
+    const csv = await exportGet(await requestAs(clerk, `/api/v1/exports/register?format=csv&job=${jobId}`), noParams);
+    const csvText = await csv.text();
+    const records: Record<string, string>[] = await new Promise((resolve, reject) => {
+      const out: Record<string, string>[] = [];
+      parseString(csvText.replace(/^\uFEFF/, ""), { headers: true })
+        .on("data", (r: Record<string, string>) => out.push(r))
+        .on("error", reject)
+        .on("end", () => resolve(out));
+    });
+    const csvCut = records.find((r) => r.Joint === String(cut!.joint_no))!;
+    expect(csvCut).toMatchObject({ Decision: "Cut out", Inspector: inspectorName, "Replaced by": `${jobCode} joint ${remake!.joint_no}` });
+    expect(new Date(csvCut["Decided at (UTC)"]!).getTime()).toBe(new Date(cutDecision.at).getTime());
+    expect(records.find((r) => r.Joint === String(remake!.joint_no))!["Overrides used"]).toContain(`cleared by ${adminName}: Quarantine lifted by the maker's letter`);
+  });
 });

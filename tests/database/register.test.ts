@@ -5,6 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb } from "@/database/client";
 import { countRegister, findRegisterRowsByIds, iterateRegisterRows, listRegisterPage, seekCondition } from "@/database/queries/register";
 import { decodeCursor, encodeCursor, registerPageQuerySchema, type RegisterFilter, type RegisterSort, type SortDirection } from "@/domain/register";
+import { coilLabelUrl, jointLabelUrl } from "@/domain/labels/label";
 import { buildRegisterJoints, type RegisterFixture } from "@/fixtures/register-joints";
 import { ownerDb, resetDatabase } from "../support/db";
 
@@ -60,6 +61,10 @@ async function loadReference(): Promise<RefRow[]> {
   }));
 }
 
+const byId = (id: number | undefined) => all.find((r) => r.id === id)!;
+const jobCodeOf = (id: number | undefined) => byId(id).jobCode;
+const jointNoOf = (id: number | undefined) => byId(id).jointNo;
+
 const startsWithCi = (value: string | null, prefix: string) => value !== null && value.toLowerCase().startsWith(prefix.toLowerCase());
 
 function referenceFilter(rows: RefRow[], f: RegisterFilter): RefRow[] {
@@ -76,15 +81,22 @@ function referenceFilter(rows: RefRow[], f: RegisterFilter): RefRow[] {
     if (f.q) {
       // common practice (no published source): search is a prefix match on coil id and
       // lot (case-insensitive, as the database collation compares), or an exact joint
-      // number, alone ("12") or with its job code ("JOB-12").
+      // number, alone ("12", "#12") or with its job code ("JOB joint 12", "JOB #12",
+      // "JOB/12", "JOB 12", "JOB-12"); a joint tag's address (…/joints/<id>, the form
+      // domain/labels jointLabelUrl prints) finds that joint alone, a coil label's address
+      // (…/coils/<coil id>) searches that coil id.
       const q = f.q;
-      const m = /^(.+?)[-/ #]+(\d{1,9})$/.exec(q);
+      const tag = /^https?:\/\/[^/]+\/joints\/(\d+)$/.exec(q);
+      if (tag) return r.id === Number(tag[1]);
+      const coil = /^https?:\/\/[^/]+\/coils\/([^/]+)$/.exec(q);
+      const prefix = coil ? decodeURIComponent(coil[1]) : q;
+      const m = /^(.+?)(?: joint |#| #|\/| |-)(\d{1,9})$/i.exec(q);
       const hit =
-        startsWithCi(r.codeA, q) ||
-        startsWithCi(r.codeB, q) ||
-        startsWithCi(r.lotA, q) ||
-        startsWithCi(r.lotB, q) ||
-        (/^\d+$/.test(q) && r.jointNo === Number(q)) ||
+        startsWithCi(r.codeA, prefix) ||
+        startsWithCi(r.codeB, prefix) ||
+        startsWithCi(r.lotA, prefix) ||
+        startsWithCi(r.lotB, prefix) ||
+        (/^#?\d+$/.test(q) && r.jointNo === Number(q.replace("#", ""))) ||
         (m !== null && r.jobCode.toLowerCase() === m[1].toLowerCase() && r.jointNo === Number(m[2]));
       if (!hit) return false;
     }
@@ -170,6 +182,13 @@ describe("register queries (keyset pages against a naive reference)", () => {
     ["search by coil id", () => ({ q: fixture.coilCodes[7] })],
     ["search by lot prefix, other case", () => ({ q: fixture.lots[0].slice(0, -1).toLowerCase() })],
     ["search by joint number", () => ({ q: "17" })],
+    ["search by joint number with #", () => ({ q: "#17" })],
+    ["search by joint as Beadline prints it", () => ({ q: `${jobCodeOf(fixture.jointIds[40])} joint ${jointNoOf(fixture.jointIds[40])}` })],
+    ["search by job #number", () => ({ q: `${jobCodeOf(fixture.jointIds[41])} #${jointNoOf(fixture.jointIds[41])}` })],
+    ["search by job/number", () => ({ q: `${jobCodeOf(fixture.jointIds[42])}/${jointNoOf(fixture.jointIds[42])}` })],
+    ["search by job-number", () => ({ q: `${jobCodeOf(fixture.jointIds[43])}-${jointNoOf(fixture.jointIds[43])}` })],
+    ["search by a joint tag's address", () => ({ q: jointLabelUrl("https://beadline.larkmoor-gas.example", fixture.jointIds[44]!) })],
+    ["search by a coil label's address", () => ({ q: coilLabelUrl("https://beadline.larkmoor-gas.example", fixture.coilCodes[9]!) })],
     ["fuser and date and outcome", () => ({ fuser: fixture.fuserIds[0], from: "2026-08-20", outcome: "within-limits" })],
     ["job and lot and finding", () => ({ job: fixture.jobIds[0], lot: fixture.lots[1], finding: "heaterTemperature" })],
     ["machine and review and search", () => ({ machine: fixture.machineIds[0], review: "accepted", q: fixture.lots[3] })],

@@ -4,10 +4,14 @@
 // Joint → origins returns the components, machine, heater check before the joint, the
 // fuser's qualification on that day and the procedure version. Joints are inserted
 // directly with the owner connection (the trench's own tests cover recording them).
+import ExcelJS from "exceljs";
+import { parseString } from "@fast-csv/parse";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { traceJointOrigins } from "@/app/_server/trace/origins";
 import { closeDb } from "@/database/client";
-import { findJointIdByReference, findLotCoils, listJointsForCoils, traceLot } from "@/database/queries/trace";
+import { findLotCoils, listJointsForCoils, traceLot } from "@/database/queries/trace";
+import { findJointForTrace } from "@/app/_server/trace/find-joint";
+import { traceCsv, traceWorkbook } from "@/app/_server/trace/lot-export";
 import { seed as seedScenario } from "@/database/seeds/01-demo";
 import { closeOwnerDb, ownerDb, resetDatabase, userIdByEmail } from "../support/db";
 
@@ -209,12 +213,85 @@ describe("joint → origins", () => {
     expect(origins.joint.componentBText).toBe("2 in butt-fusion tee");
   });
 
-  it("finds a joint by id or by job code and joint number", async () => {
+  it("finds a joint by id, by job code and joint number in the forms people write, or by its tag's address", async () => {
     const no = Number((await ownerDb()("joints").where("id", joints.sideA).first("joint_no")).joint_no);
-    expect(await findJointIdByReference({ reference: `WO-24117 #${no}` })).toBe(joints.sideA);
-    expect(await findJointIdByReference({ reference: `WO-24117-${no}` })).toBe(joints.sideA);
-    expect(await findJointIdByReference({ reference: String(joints.sideB) })).toBe(joints.sideB);
-    expect(await findJointIdByReference({ reference: "WO-00000 #1" })).toBeNull();
+    for (const text of [`WO-24117 joint ${no}`, `WO-24117 #${no}`, `WO-24117/${no}`, `WO-24117-${no}`, `http://127.0.0.1:3000/joints/${joints.sideA}`]) {
+      expect(await findJointForTrace(text)).toEqual({ ok: true, jointId: joints.sideA });
+    }
+    expect(await findJointForTrace(String(joints.sideB))).toEqual({ ok: true, jointId: joints.sideB });
+    expect(await findJointForTrace("WO-00000 #1")).toEqual({ ok: false, message: 'No joint matches "WO-00000 #1" (read as WO-00000 joint 1): there is no job WO-00000. Give the job code and joint number, e.g. WO-24152 joint 10.' });
+    expect(await findJointForTrace("WO-24117 joint 999999")).toEqual({ ok: false, message: 'No joint matches "WO-24117 joint 999999" (read as WO-24117 joint 999999): job WO-24117 has no joint 999999.' });
+    expect(await findJointForTrace("http://127.0.0.1:3000/coils/LV-C0003")).toMatchObject({ ok: false, message: expect.stringContaining("coil label's address") });
     expect(await traceJointOrigins(99_999_999)).toBeNull();
+  });
+});
+
+describe("a cut-out joint and its remake", () => {
+  let remake: { id: number; jointNo: number };
+  let cutOutNo: number;
+
+  beforeAll(async () => {
+    const k = ownerDb();
+    const inspector = await userIdByEmail("inspector@larkmoor-gas.example");
+    cutOutNo = Number((await k("joints").where("id", joints.sideB).first("joint_no")).joint_no);
+    await k("joint_revisions").insert([
+      { joint_id: joints.sideB, revision_no: 1, kind: "recorded", by_user_id: ids.fuser, at: new Date("2026-11-22T10:00:00Z"), review_state: "pending-review" },
+      { joint_id: joints.sideB, revision_no: 2, kind: "cut-out", by_user_id: inspector, at: new Date("2026-11-22T10:40:00Z"), reason: "Cut out: fusion pressure over the window", review_state: "cut-out" },
+    ]);
+    await k("joint_states").where("joint_id", joints.sideB).update({ review_state: "cut-out", revision_no: 2 });
+    await insertJoint("remake", { job: "WO-24152", a: "LV-C0004", b: "LV-C0003", madeAt: "2026-11-22T11:30:00Z" });
+    await k("joints").where("id", joints.remake).update({ replaces_joint_id: joints.sideB });
+    await k("joint_states").where("joint_id", joints.sideB).update({ replaced_by_joint_id: joints.remake });
+    remake = { id: joints.remake!, jointNo: Number((await k("joints").where("id", joints.remake).first("joint_no")).joint_no) };
+  });
+
+  it("lot → ground marks the cut-out joint as replaced and the remake as remaking it", async () => {
+    const trace = await traceLot(LOT);
+    const cut = trace.joints.find((j) => j.id === joints.sideB)!;
+    expect(cut).toMatchObject({ reviewState: "cut-out", replacedBy: { id: remake.id, jobCode: "WO-24152", jointNo: remake.jointNo }, replaces: null });
+    const made = trace.joints.find((j) => j.id === remake.id)!;
+    expect(made).toMatchObject({ reviewState: "pending-review", replacedBy: null, replaces: { id: joints.sideB, jobCode: "WO-24152", jointNo: cutOutNo } });
+  });
+
+  it("joint → origins gives the decision and both links", async () => {
+    const cut = (await traceJointOrigins(joints.sideB!))!;
+    expect(cut.joint).toMatchObject({ reviewState: "cut-out", replacedBy: { id: remake.id, jointNo: remake.jointNo } });
+    expect(cut.decision).toMatchObject({ state: "cut-out", byName: expect.any(String), note: "Cut out: fusion pressure over the window" });
+    expect(cut.decision!.at.toISOString()).toBe("2026-11-22T10:40:00.000Z");
+    const made = (await traceJointOrigins(remake.id))!;
+    expect(made.joint.replaces).toEqual({ id: joints.sideB, jobCode: "WO-24152", jointNo: cutOutNo });
+    expect(made.decision).toBeNull();
+  });
+
+  it("the lot's workbook and CSV say it in words, read back with exceljs and @fast-csv/parse", async () => {
+    const trace = await traceLot(LOT);
+    const book = new ExcelJS.Workbook();
+    await book.xlsx.load((await traceWorkbook(trace)) as unknown as ArrayBuffer);
+    const sheet = book.getWorksheet("Joints")!;
+    const headers = (sheet.getRow(1).values as unknown[]).slice(1);
+    const rowOf = (id: number) => {
+      for (let r = 2; r <= sheet.rowCount; r += 1) {
+        const values = sheet.getRow(r).values as unknown[];
+        if (values[headers.indexOf("Joint id") + 1] === id) return Object.fromEntries(headers.map((h, i) => [h, values[i + 1]]));
+      }
+      return null;
+    };
+    // Words of the product's joint states ("pending review", "accepted", "cut out"), never the stored codes.
+    expect(rowOf(joints.sideB!)).toMatchObject({ "Review state": "Cut out", "In the ground": "No: cut out and replaced", "Replaced by": `WO-24152 joint ${remake.jointNo}`, Outcome: "Out of limits" });
+    expect(rowOf(remake.id)).toMatchObject({ "Review state": "Pending review", "In the ground": "Yes", Remakes: `WO-24152 joint ${cutOutNo}` });
+    const coilStatuses = ((book.getWorksheet("Coils")!.getColumn(10).values as unknown[]).slice(2) as string[]).filter(Boolean);
+    for (const status of coilStatuses) expect(status).not.toMatch(/-/); // "In yard", never "in-yard"
+
+    const rows = await new Promise<Record<string, string>[]>((resolve, reject) => {
+      const out: Record<string, string>[] = [];
+      parseString(traceCsv(trace).replace(/^\uFEFF/, ""), { headers: true })
+        .on("data", (row: Record<string, string>) => out.push(row))
+        .on("error", reject)
+        .on("end", () => resolve(out));
+    });
+    const csvCut = rows.find((r) => r["Joint id"] === String(joints.sideB))!;
+    expect(csvCut).toMatchObject({ "Review state": "Cut out", "Replaced by": `WO-24152 joint ${remake.jointNo}`, "Made at (UTC)": "2026-11-22T10:00:00.000Z" });
+    const raw = traceCsv(trace);
+    expect(raw).not.toMatch(/cut-out|pending-review|out-of-limits|within-limits|coil-to-coil/);
   });
 });

@@ -84,6 +84,7 @@ export const ROUTES: readonly RouteEntry[] = [
   r("GET", "/api/v1/trace/joints/[id]", "traceLots", "none"),
   r("GET", "/api/v1/trace/lot", "traceLots", "query", { query: { lot: "4410021" } }),
   r("GET", "/api/v1/trace/lot/export", "traceLots", "query", { query: { lot: "4410021" } }),
+  r("GET", "/api/v1/trace/lot/csv", "traceLots", "query", { query: { lot: "4410021" } }),
 
   r("GET", "/crew/evidence/[id]", "manageCrew", "none"),
 ];

@@ -141,7 +141,7 @@ export function RegisterScreen({ view, urlErrors, options, unitSystem }: { view:
       <form role="search" aria-label="Filter the register" onSubmit={onApply} className="rounded-md border-2 border-slate-300 bg-white p-4" noValidate>
         {hasUrlErrors ? <FormMessage message="The link's filter has a problem (see the marked fields), so the whole register is shown." /> : null}
         <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-5">
-          {text("q", "Search joint number, coil id or lot", "search", "e.g. 12, LV-C0004, 4410021")}
+          {text("q", "Search joint, coil id or lot", "search", "e.g. WO-24152 joint 10, 12, LV-C0004, 4410021")}
           {select("job", "Job", options.jobs.map((o) => ({ value: String(o.id), label: o.label })), "Any job")}
           {text("from", "Made on or after (UTC day)", "date")}
           {text("to", "Made on or before (UTC day)", "date")}

@@ -1,12 +1,13 @@
 // A job's run drawn as a straight line with the lot's joints on it (no map tiles): by
 // station, else by coordinates, else by joint number. Out-of-limits joints are drawn as
-// squares and named in the text list, so colour is never the only cue.
+// squares and named in the text list, so colour is never the only cue; a cut-out joint (no
+// longer in the ground) is an open square.
 import { layoutRun, type SchematicJoint } from "@/domain/coils/schematic";
 import { formatQuantity, type UnitSystem } from "@/domain/units/format";
 
 const BASIS_TEXT = { station: "placed by station", coordinates: "placed by latitude/longitude along the run", "joint-number": "placed by joint number (no stations or coordinates recorded)" } as const;
 
-export function RunSchematic({ jobCode, jobName, joints, unitSystem }: { jobCode: string; jobName: string; joints: (SchematicJoint & { outOfLimits: boolean })[]; unitSystem: UnitSystem }) {
+export function RunSchematic({ jobCode, jobName, joints, unitSystem }: { jobCode: string; jobName: string; joints: (SchematicJoint & { outOfLimits: boolean; isCutOut: boolean })[]; unitSystem: UnitSystem }) {
   const run = layoutRun(joints);
   const width = 800;
   const left = 40;
@@ -44,7 +45,9 @@ export function RunSchematic({ jobCode, jobName, joints, unitSystem }: { jobCode
           const row = labelRow.get(p.id);
           return (
             <g key={p.id}>
-              {joint.outOfLimits ? <rect x={x - 6} y={lineY - 6} width={12} height={12} fill="#b91c1c" /> : <circle cx={x} cy={lineY} r={6} fill="#166534" />}
+              {joint.isCutOut ? (
+                <rect x={x - 6} y={lineY - 6} width={12} height={12} fill="#ffffff" stroke="#b91c1c" strokeWidth={2} />
+              ) : joint.outOfLimits ? <rect x={x - 6} y={lineY - 6} width={12} height={12} fill="#b91c1c" /> : <circle cx={x} cy={lineY} r={6} fill="#166534" />}
               {row !== undefined ? (
                 <text x={x} y={row === 0 ? lineY - 14 : lineY + 24} fontSize={11} textAnchor="middle" fill="#111827">
                   {p.jointNo}
@@ -55,7 +58,8 @@ export function RunSchematic({ jobCode, jobName, joints, unitSystem }: { jobCode
         })}
       </svg>
       <figcaption className="text-sm text-slate-700">
-        {jobCode} — {jobName}: joints {BASIS_TEXT[run.basis]}; circles within limits, squares out of limits.
+        {jobCode} — {jobName}: joints {BASIS_TEXT[run.basis]}; circles within limits, squares out of limits
+        {joints.some((j) => j.isCutOut) ? ", open squares cut out (no longer in the ground)" : ""}.
       </figcaption>
     </figure>
   );

@@ -5,7 +5,8 @@ import type { Coil } from "@/database/queries/coils";
 import { DAMAGE_LABELS } from "@/domain/coils/life";
 import { describeSize } from "@/domain/labels/label";
 import { formatQuantity, type UnitSystem } from "@/domain/units/format";
-import { CoilStatusBadge } from "@/components/ui/badges";
+import { CoilStatusBadge, ReviewStateBadge } from "@/components/ui/badges";
+import { formatJointReference } from "@/domain/joints/reference";
 import { FactBlock, FactList } from "@/components/ui/fact-list";
 import { formatInstant } from "@/components/ui/display-format";
 import { TimeDisplay } from "@/components/ui/time-display";
@@ -13,7 +14,7 @@ import { traceJointOrigins } from "@/app/_server/trace/origins";
 import { SectionCard } from "@/components/ui/section-card";
 import { OUTCOME_LABELS } from "@/domain/joints/outcomes";
 import { JOINT_KIND_LABELS } from "@/domain/joints/schemas";
-import { builtInProcedure, type FusionStandard } from "@/domain/procedures";
+import { builtInProcedure, isFusionStandard } from "@/domain/procedures/built-in";
 
 export const dynamic = "force-dynamic";
 
@@ -74,7 +75,7 @@ export default async function JointOriginsPage({ params }: { params: Promise<{ i
         </Link>
       </p>
       <h1 className="text-2xl font-bold">
-        {o.joint.jobCode} joint {o.joint.jointNo}: origins
+        {formatJointReference(o.joint)}: origins
       </h1>
       <SectionCard id="joint" title="Joint" tone="card" isCompact>
         <FactList layout="stacked" columns={3}>
@@ -92,10 +93,40 @@ export default async function JointOriginsPage({ params }: { params: Promise<{ i
           <FactBlock term="Pipe">
             {formatQuantity(o.joint.outsideDiameterMm, "length-mm", system)} OD, SDR {o.joint.sdr}
           </FactBlock>
-          <FactBlock term="Outcome">
-            {OUTCOME_LABELS[o.joint.outcome]}
-            {o.joint.reviewState ? ` · ${o.joint.reviewState.replace("-", " ")}` : ""}
+          <FactBlock term="Outcome">{OUTCOME_LABELS[o.joint.outcome]}</FactBlock>
+          <FactBlock term="Review">
+            <ReviewStateBadge state={o.joint.reviewState} size="sm" />
+            {o.decision ? (
+              <>
+                {" "}
+                by {o.decision.byName}, <TimeDisplay at={o.decision.at} withZone />
+                {o.decision.note ? `: “${o.decision.note}”` : ""}
+              </>
+            ) : null}
           </FactBlock>
+          {o.joint.reviewState === "cut-out" ? (
+            <FactBlock term="In the ground">
+              No — cut out;{" "}
+              {o.joint.replacedBy ? (
+                <>
+                  replaced by{" "}
+                  <Link href={`/trace/joints/${o.joint.replacedBy.id}`} className="font-semibold text-brand underline">
+                    {formatJointReference(o.joint.replacedBy)}
+                  </Link>
+                </>
+              ) : (
+                "not remade yet"
+              )}
+            </FactBlock>
+          ) : null}
+          {o.joint.replaces ? (
+            <FactBlock term="Remakes">
+              <Link href={`/trace/joints/${o.joint.replaces.id}`} className="font-semibold text-brand underline">
+                {formatJointReference(o.joint.replaces)}
+              </Link>{" "}
+              (cut out)
+            </FactBlock>
+          ) : null}
         </FactList>
         <p className="mt-2">
           <Link href={`/labels?kind=joint&ids=${o.joint.id}`} className="font-semibold text-brand underline">
@@ -153,7 +184,7 @@ export default async function JointOriginsPage({ params }: { params: Promise<{ i
               {o.procedure.versionNo}, published <TimeDisplay at={o.procedure.publishedAt} precision="date" />
               {o.procedure.supersededAt ? `, superseded ${formatInstant(o.procedure.supersededAt, "date")}` : ""}
             </FactBlock>
-            <FactBlock term="Based on">{builtInProcedure(o.procedure.standard as FusionStandard).label}</FactBlock>
+            <FactBlock term="Based on">{isFusionStandard(o.procedure.standard) ? builtInProcedure(o.procedure.standard).label : o.procedure.standard}</FactBlock>
           </FactList>
         </SectionCard>
       </div>
