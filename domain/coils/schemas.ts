@@ -142,7 +142,8 @@ export const receiveCoilSchema = z
     }
     // A coil whose typed fields disagree with its code is saved only with a reason (kept in
     // the audit log): otherwise a recall by the code's lot could miss it.
-    if (value.traceCode && !value.disagreementReason) {
+    // An unreadable code is refused on its own field; there is nothing to disagree with.
+    if (value.traceCode && !value.disagreementReason && parseTraceCode(value.traceCode).ok) {
       const fields = [...new Set(traceCodeDisagreements(value.traceCode, value).map((flag) => flag.field))];
       if (fields.length) {
         const names = fields.map((field) => (field === "traceCode" ? "the code's component type" : RECEIVE_COIL_LABELS[field as keyof typeof RECEIVE_COIL_LABELS] ?? "another field"));
