@@ -8,6 +8,9 @@ import { decodeCursor, encodeCursor, registerPageQuerySchema, type RegisterFilte
 import { buildRegisterJoints, type RegisterFixture } from "@/fixtures/register-joints";
 import { ownerDb, resetDatabase } from "../support/db";
 
+/** The zone of the reference filter below, whose days are UTC days (00:00Z to 24:00Z). */
+const ZONE = "UTC";
+
 type RefRow = {
   id: number;
   jobId: number;
@@ -115,12 +118,12 @@ function referenceSort(rows: RefRow[], sort: RegisterSort, dir: SortDirection): 
   });
 }
 
-async function pageThrough(filter: RegisterFilter, sort: RegisterSort, dir: SortDirection, limit: number): Promise<{ ids: number[]; pages: number }> {
+async function pageThrough(filter: RegisterFilter, sort: RegisterSort, dir: SortDirection, limit: number, timeZone = ZONE): Promise<{ ids: number[]; pages: number }> {
   const ids: number[] = [];
   let after;
   let pages = 0;
   for (;;) {
-    const page = await listRegisterPage({ filter, sort, dir, after, limit });
+    const page = await listRegisterPage({ filter, timeZone, sort, dir, after, limit });
     pages += 1;
     ids.push(...page.rows.map((r) => r.id));
     if (!page.next) break;
@@ -237,19 +240,19 @@ describe("register queries (keyset pages against a naive reference)", () => {
     const filter = { review: "accepted" as const };
     const expected = referenceSort(referenceFilter(all, filter), "number", "asc").map((r) => r.id);
     const ids: number[] = [];
-    for await (const batch of iterateRegisterRows({ filter, sort: "number", dir: "asc", batchSize: 250 })) ids.push(...batch.map((r) => r.id));
+    for await (const batch of iterateRegisterRows({ filter, timeZone: ZONE, sort: "number", dir: "asc", batchSize: 250 })) ids.push(...batch.map((r) => r.id));
     expect(ids).toEqual(expected);
   });
 
   it("counts exactly up to the cap and marks larger counts as estimates", async () => {
     const filter = { outcome: "out-of-limits" as const };
     const exact = referenceFilter(all, filter).length;
-    expect(await countRegister({ filter })).toEqual({ value: exact, isEstimate: false });
-    expect(await countRegister({ filter: {} })).toEqual({ value: all.length, isEstimate: false });
-    const capped = await countRegister({ filter, cap: 50 });
+    expect(await countRegister({ filter, timeZone: ZONE })).toEqual({ value: exact, isEstimate: false });
+    expect(await countRegister({ filter: {}, timeZone: ZONE })).toEqual({ value: all.length, isEstimate: false });
+    const capped = await countRegister({ filter, timeZone: ZONE, cap: 50 });
     expect(capped.isEstimate).toBe(true);
     expect(capped.value).toBeGreaterThan(50);
-    expect(await countRegister({ filter: { lot: "NO-SUCH-LOT" } })).toEqual({ value: 0, isEstimate: false });
+    expect(await countRegister({ filter: { lot: "NO-SUCH-LOT" }, timeZone: ZONE })).toEqual({ value: 0, isEstimate: false });
   });
 
   it("refuses a cursor made for another sort, and text that is no cursor", () => {
@@ -259,6 +262,28 @@ describe("register queries (keyset pages against a naive reference)", () => {
     expect(decodeCursor(text, { sort: "madeAt", dir: "asc" }).ok).toBe(false);
     expect(decodeCursor("not a cursor!", { sort: "madeAt", dir: "desc" }).ok).toBe(false);
     expect(decodeCursor("WzEsMl0", { sort: "madeAt", dir: "desc" }).ok).toBe(false);
+  });
+
+  // The day filter takes local days of the zone it is given (the organisation's). Bounds
+  // worked by hand from the IANA tz database's published offsets and DST dates:
+  // America/Chicago 2026-11-01: 00:00 CDT (−05:00) = 05:00Z; clocks fall back at 02:00 CDT
+  // (07:00Z) to 01:00 CST; 2026-11-02 00:00 CST (−06:00) = 06:00Z — a 25-hour day.
+  // Europe/Berlin 2026-10-25: 00:00 CEST (+02:00) = 2026-10-24T22:00Z; summer time ends at
+  // 01:00Z (EU Directive 2000/84/EC); 2026-10-26 00:00 CET (+01:00) = 2026-10-25T23:00Z.
+  it.each([
+    ["America/Chicago", "2026-11-01", "2026-11-01T05:00:00Z", "2026-11-02T06:00:00Z"],
+    ["Europe/Berlin", "2026-10-25", "2026-10-24T22:00:00Z", "2026-10-25T23:00:00Z"],
+  ] as const)("filter: the local day %s %s runs from %s to %s, not the UTC day", async (zone, day, startIso, nextIso) => {
+    const start = Date.parse(startIso);
+    const next = Date.parse(nextIso);
+    const inLocalDay = all.filter((r) => r.madeAt >= start && r.madeAt < next);
+    const expected = referenceSort(inLocalDay, "madeAt", "desc").map((r) => r.id);
+    const { ids } = await pageThrough({ from: day, to: day }, "madeAt", "desc", 7, zone);
+    expect(ids).toEqual(expected);
+    // The UTC day differs from the local one in this fixture, so the check can tell them apart.
+    const utc = await pageThrough({ from: day, to: day }, "madeAt", "desc", 500, "UTC");
+    expect(utc.ids).not.toEqual(expected);
+    expect(await countRegister({ filter: { from: day, to: day }, timeZone: zone })).toEqual({ value: expected.length, isEstimate: false });
   });
 
   it("writes the seek condition in its expanded form (no row-value comparison)", () => {

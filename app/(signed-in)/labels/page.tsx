@@ -8,6 +8,7 @@ import { can } from "@/domain/roles";
 import { LABEL_STOCKS, SHEETS, SHEET_IDS, layoutSheet, placeLabels, type SheetId } from "@/domain/labels/sheets";
 import { publicBaseUrl } from "@/app/_server/labels/base-url";
 import { coilLabelSvg, jointLabelSvg, stockOrDefault } from "@/app/_server/labels/render";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import { PrintLabelsButton } from "./_components/print-button";
 import { FieldShell } from "@/components/form/field-shell";
 
@@ -41,8 +42,8 @@ export default async function LabelsPage({ searchParams }: { searchParams: Promi
     coilIds = coils.map((c) => c.id);
     labels = coils.map((c) => ({ key: `c${c.id}`, ...coilLabelSvg(c, { baseUrl, stock, system, standalone: false }) }));
   } else {
-    const joints = await findJointLabelFacts({ jointIds: ids });
-    labels = joints.map((j) => ({ key: `j${j.id}`, ...jointLabelSvg(j, { baseUrl, stock, standalone: false }) }));
+    const [joints, timeZone] = await Promise.all([findJointLabelFacts({ jointIds: ids }), organisationTimeZone()]);
+    labels = joints.map((j) => ({ key: `j${j.id}`, ...jointLabelSvg(j, { baseUrl, stock, timeZone, standalone: false }) }));
   }
   const layout = layoutSheet(sheet, stock);
   const placed = placeLabels(layout, labels.length, skip);

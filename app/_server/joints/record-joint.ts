@@ -41,7 +41,8 @@ import { jobBlockReason } from "@/domain/jobs/rules";
 import { qualificationStatus } from "@/domain/qualifications/status";
 import { AppError } from "@/domain/result";
 import type { UnitSystem } from "@/domain/units/format";
-import { isoDateOf } from "@/domain/dates/civil";
+import { isoDateIn } from "@/domain/dates/zone";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import { drawDownCoil } from "@/app/_server/coils/draw-down-coil";
 import { enqueueJointAlert } from "@/app/_server/mail/joint-alert";
 
@@ -122,7 +123,8 @@ type Prepared = {
 
 /** Everything that can be decided before the transaction: refusals come out as AppErrors. */
 async function prepare(input: RecordJointInput, user: UserRecord, madeAt: Date): Promise<Prepared> {
-  const on = isoDateOf(madeAt);
+  // The crew's local day in the organisation's zone (the device judges the same day).
+  const on = isoDateIn(madeAt, await organisationTimeZone());
   const job = await findJobById({ id: input.jobId });
   if (!job) throw invalid("jobId", `Job ${input.jobId} does not exist.`);
   const closed = jobBlockReason(job);

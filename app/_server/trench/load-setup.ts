@@ -10,11 +10,12 @@ import { currentProcedureVersionForJob } from "@/database/queries/procedures";
 import { listQualificationFailuresForUser, listQualificationsForUser } from "@/database/queries/qualifications";
 import { listUsersWithRole, type UserRecord } from "@/database/queries/users";
 import { toTrenchCoil, type TrenchSetup } from "./setup-types";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 
 export async function loadTrenchSetup(user: UserRecord, now = new Date()): Promise<TrenchSetup> {
   const jobs = await listOpenJobsForFuser({ userId: user.id });
   const jobIds = jobs.map((j) => j.id);
-  const [qualifications, failures, machines, heaters, coils, overrides, remakes, recent, inspectors, admins] = await Promise.all([
+  const [qualifications, failures, machines, heaters, coils, overrides, remakes, recent, inspectors, admins, timeZone] = await Promise.all([
     listQualificationsForUser({ userId: user.id }),
     listQualificationFailuresForUser({ userId: user.id }),
     listMachines({ activeOnly: true }),
@@ -25,6 +26,7 @@ export async function loadTrenchSetup(user: UserRecord, now = new Date()): Promi
     listJoints({ fuserId: user.id, limit: 10 }),
     listUsersWithRole({ role: "inspector" }),
     listUsersWithRole({ role: "admin" }),
+    organisationTimeZone(),
   ]);
   const versions = await Promise.all(jobs.map((j) => currentProcedureVersionForJob({ jobId: j.id })));
   return {
@@ -49,6 +51,7 @@ export async function loadTrenchSetup(user: UserRecord, now = new Date()): Promi
     recent: recent.map((j) => ({ id: j.id, jobCode: j.jobCode, jointNo: j.jointNo, madeAt: j.madeAt.toISOString(), outcome: j.outcome, reviewState: j.reviewState })),
     inspectors: inspectors.map((u) => u.name),
     admins: admins.map((u) => u.name),
+    timeZone,
     loadedAt: now.toISOString(),
   };
 }

@@ -3,7 +3,8 @@
 import Link from "next/link";
 import { Button } from "@/components/ui/button";
 import type { OutboxEntry } from "../_client/device-store";
-import { formatDeviceInstant } from "@/components/ui/display-format";
+import { formatInstant } from "@/components/ui/display-format";
+import { useTimeZone } from "@/components/ui/time-zone";
 import { OUTCOME_LABELS } from "@/domain/joints/outcomes";
 
 const STATE_WORDS: Record<OutboxEntry["state"], string> = {
@@ -21,6 +22,7 @@ const STATE_STYLE: Record<OutboxEntry["state"], string> = {
 };
 
 export function OutboxPanel({ entries, online, onRetry, onRemove, onSendNow }: { entries: OutboxEntry[]; online: boolean; onRetry: (id: string) => void; onRemove: (id: string) => void; onSendNow: () => void }) {
+  const timeZone = useTimeZone();
   const waiting = entries.filter((e) => e.state === "waiting" || e.state === "sending").length;
   const shown = [...entries].reverse().slice(0, 12);
   return (
@@ -44,7 +46,7 @@ export function OutboxPanel({ entries, online, onRetry, onRemove, onSendNow }: {
               {STATE_WORDS[e.state]}
               {e.result ? `: joint ${e.result.jointNo} on ${e.result.jobCode}` : ` · ${e.jobCode ?? ""}`} · {e.label}
             </p>
-            <p className="text-sm">Recorded {formatDeviceInstant(e.createdAt)}</p>
+            <p className="text-sm">Recorded {formatInstant(e.createdAt, "minute", timeZone)}</p>
             {e.result ? (
               <p className="text-sm font-semibold">
                 {e.result.outcome === "within-limits" ? OUTCOME_LABELS["within-limits"] : `${OUTCOME_LABELS["out-of-limits"]}: ${e.result.findings.map((f) => f.message).join("; ")}`} ·{" "}

@@ -40,7 +40,7 @@ export default async function OverridesPage() {
                 {o.jobCode}: {o.subjectType === "heater" ? "heater plate" : "coil"} {o.subjectLabel}
               </p>
               <p className="text-sm">
-                By {o.grantedByName} at <TimeDisplay at={o.grantedAt} withZone />, until <TimeDisplay at={o.expiresAt} withZone />: “{o.reason}”
+                By {o.grantedByName} at <TimeDisplay at={o.grantedAt} />, until <TimeDisplay at={o.expiresAt} />: “{o.reason}”
               </p>
             </li>
           ))}

@@ -8,6 +8,7 @@ import { formatQuantity, type UnitSystem } from "@/domain/units/format";
 import { CoilStatusBadge } from "@/components/ui/badges";
 import { FactBlock, FactList } from "@/components/ui/fact-list";
 import { formatInstant } from "@/components/ui/display-format";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import { TimeDisplay } from "@/components/ui/time-display";
 import { traceJointOrigins } from "@/app/_server/trace/origins";
 import { SectionCard } from "@/components/ui/section-card";
@@ -56,6 +57,7 @@ function Component({ title, coil, text, lengthM, system }: { title: string; coil
 // Joint → origins: everything that made one joint, as it stood on the day.
 export default async function JointOriginsPage({ params }: { params: Promise<{ id: string }> }) {
   const user = await requireUser("traceLots");
+  const timeZone = await organisationTimeZone();
   const { id } = await params;
   const jointId = Number(id);
   if (!Number.isInteger(jointId) || jointId <= 0) notFound();
@@ -80,7 +82,7 @@ export default async function JointOriginsPage({ params }: { params: Promise<{ i
             {o.joint.jobCode} — {o.joint.jobName}
           </FactBlock>
           <FactBlock term="Made">
-            <TimeDisplay at={o.joint.madeAt} withZone />
+            <TimeDisplay at={o.joint.madeAt} />
           </FactBlock>
           <FactBlock term="Place">
             {o.joint.station ? `Station ${o.joint.station}` : "no station"}
@@ -127,7 +129,7 @@ export default async function JointOriginsPage({ params }: { params: Promise<{ i
             </FactBlock>
             <FactBlock term="Last temperature check before the joint">
               {check
-                ? `${formatInstant(check.checkedAt, "minute", true)}, ${check.passed ? "passed" : "failed"} (${formatQuantity(check.windowMinC, "temperature", system)}–${formatQuantity(check.windowMaxC, "temperature", system)}, ${check.instrument}${check.checkedByName ? `, by ${check.checkedByName}` : ""}); next due ${check.nextDueOn}`
+                ? `${formatInstant(check.checkedAt, "minute", timeZone)}, ${check.passed ? "passed" : "failed"} (${formatQuantity(check.windowMinC, "temperature", system)}–${formatQuantity(check.windowMaxC, "temperature", system)}, ${check.instrument}${check.checkedByName ? `, by ${check.checkedByName}` : ""}); next due ${check.nextDueOn}`
                 : "No check on file before the joint"}
             </FactBlock>
             <FactBlock term="Check in date when the joint was made">{o.heaterCheckInDate == null ? "no check" : o.heaterCheckInDate ? "yes" : "no — the check was overdue or failed"}</FactBlock>
@@ -149,7 +151,7 @@ export default async function JointOriginsPage({ params }: { params: Promise<{ i
             </FactBlock>
             <FactBlock term="Version">
               {o.procedure.versionNo}, published <TimeDisplay at={o.procedure.publishedAt} precision="date" />
-              {o.procedure.supersededAt ? `, superseded ${formatInstant(o.procedure.supersededAt, "date")}` : ""}
+              {o.procedure.supersededAt ? `, superseded ${formatInstant(o.procedure.supersededAt, "date", timeZone)}` : ""}
             </FactBlock>
             <FactBlock term="Based on">{o.procedure.standard}</FactBlock>
           </FactList>
