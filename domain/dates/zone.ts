@@ -16,12 +16,13 @@ export const UTC_ZONE = 'UTC';
 const MINUS = '\u2212';
 
 /**
- * True for a zone name the runtime's copy of the IANA database knows ("America/Chicago",
- * "Europe/Berlin", "UTC"). Offsets written as names ("+02:00") and abbreviations ("CST")
- * are refused: they carry no daylight-saving rules.
+ * True for a zone name the runtime's copy of the IANA database knows, written as an
+ * Area/Location name ("America/Chicago", "Europe/Berlin", "Etc/GMT+6") or "UTC". Offsets
+ * ("+02:00") and abbreviations ("CST", which some runtimes quietly map to one zone of
+ * several that use it) are refused.
  */
 export function isTimeZone(name: string): boolean {
-  if (typeof name !== 'string' || !/^[A-Za-z][A-Za-z0-9_+\-/]*$/.test(name)) return false;
+  if (typeof name !== 'string' || !/^[A-Za-z][A-Za-z0-9_+\-]*(\/[A-Za-z0-9_+\-]+)+$|^UTC$/i.test(name)) return false;
   try {
     new Intl.DateTimeFormat('en-US', { timeZone: name });
     return true;

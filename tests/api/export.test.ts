@@ -10,7 +10,7 @@ import { closeDb } from "@/database/client";
 import { iterateRegisterRows } from "@/database/queries/register";
 import { REGISTER_COLUMNS, columnHeader, type RegisterFilter, type RegisterRow } from "@/domain/register";
 import { buildRegisterJoints, type RegisterFixture } from "@/fixtures/register-joints";
-import { ownerDb, resetDatabase } from "../support/db";
+import { moveJointMadeAt, ownerDb, resetDatabase } from "../support/db";
 import { requestAs } from "../support/session";
 import { makeUser } from "../support/users";
 
@@ -219,6 +219,11 @@ describe("register API and export", () => {
     const start = Date.parse("2026-11-01T05:00:00Z");
     const next = Date.parse("2026-11-02T06:00:00Z");
     const change = Date.parse("2026-11-01T07:00:00Z");
+    // Four joints put at chosen instants: 23:59 CDT on 31 October (out), 00:00 CDT (in),
+    // 01:30 CST after the change (in), 23:59 CST (in; its UTC day is 2 November).
+    const moved = (await ownerDb()("joints").orderBy("id").limit(4).select("id")) as { id: number }[];
+    const placed = ["2026-11-01T04:59:00Z", "2026-11-01T05:00:00Z", "2026-11-01T07:30:00Z", "2026-11-02T05:59:00Z"];
+    for (const [i, at] of placed.entries()) await moveJointMadeAt(moved[i].id, at);
     const all = await rowsOf({});
     const expected = all.filter((r) => r.madeAt.getTime() >= start && r.madeAt.getTime() < next).map((r) => r.id);
     expect(expected.length).toBeGreaterThan(0);
@@ -227,6 +232,8 @@ describe("register API and export", () => {
     const body = (await res.json()) as { rows: { id: number; madeAt: string }[]; timeZone: string };
     expect(body.timeZone).toBe(ZONE);
     expect(body.rows.map((r) => r.id)).toEqual(expected);
+    expect(expected).not.toContain(moved[0].id);
+    for (const m of moved.slice(1)) expect(expected).toContain(m.id);
     // A UTC-day filter would take other joints: the fixture has some in the hours that differ.
     const utcDay = all.filter((r) => r.madeAt.getTime() >= Date.parse("2026-11-01T00:00:00Z") && r.madeAt.getTime() < Date.parse("2026-11-02T00:00:00Z")).map((r) => r.id);
     expect(utcDay).not.toEqual(expected);

@@ -6,7 +6,7 @@ import { closeDb } from "@/database/client";
 import { countRegister, findRegisterRowsByIds, iterateRegisterRows, listRegisterPage, seekCondition } from "@/database/queries/register";
 import { decodeCursor, encodeCursor, registerPageQuerySchema, type RegisterFilter, type RegisterSort, type SortDirection } from "@/domain/register";
 import { buildRegisterJoints, type RegisterFixture } from "@/fixtures/register-joints";
-import { ownerDb, resetDatabase } from "../support/db";
+import { moveJointMadeAt, ownerDb, resetDatabase } from "../support/db";
 
 /** The zone of the reference filter below, whose days are UTC days (00:00Z to 24:00Z). */
 const ZONE = "UTC";
@@ -264,28 +264,6 @@ describe("register queries (keyset pages against a naive reference)", () => {
     expect(decodeCursor("WzEsMl0", { sort: "madeAt", dir: "desc" }).ok).toBe(false);
   });
 
-  // The day filter takes local days of the zone it is given (the organisation's). Bounds
-  // worked by hand from the IANA tz database's published offsets and DST dates:
-  // America/Chicago 2026-11-01: 00:00 CDT (−05:00) = 05:00Z; clocks fall back at 02:00 CDT
-  // (07:00Z) to 01:00 CST; 2026-11-02 00:00 CST (−06:00) = 06:00Z — a 25-hour day.
-  // Europe/Berlin 2026-10-25: 00:00 CEST (+02:00) = 2026-10-24T22:00Z; summer time ends at
-  // 01:00Z (EU Directive 2000/84/EC); 2026-10-26 00:00 CET (+01:00) = 2026-10-25T23:00Z.
-  it.each([
-    ["America/Chicago", "2026-11-01", "2026-11-01T05:00:00Z", "2026-11-02T06:00:00Z"],
-    ["Europe/Berlin", "2026-10-25", "2026-10-24T22:00:00Z", "2026-10-25T23:00:00Z"],
-  ] as const)("filter: the local day %s %s runs from %s to %s, not the UTC day", async (zone, day, startIso, nextIso) => {
-    const start = Date.parse(startIso);
-    const next = Date.parse(nextIso);
-    const inLocalDay = all.filter((r) => r.madeAt >= start && r.madeAt < next);
-    const expected = referenceSort(inLocalDay, "madeAt", "desc").map((r) => r.id);
-    const { ids } = await pageThrough({ from: day, to: day }, "madeAt", "desc", 7, zone);
-    expect(ids).toEqual(expected);
-    // The UTC day differs from the local one in this fixture, so the check can tell them apart.
-    const utc = await pageThrough({ from: day, to: day }, "madeAt", "desc", 500, "UTC");
-    expect(utc.ids).not.toEqual(expected);
-    expect(await countRegister({ filter: { from: day, to: day }, timeZone: zone })).toEqual({ value: expected.length, isEstimate: false });
-  });
-
   it("writes the seek condition in its expanded form (no row-value comparison)", () => {
     const seek = seekCondition(
       [
@@ -313,5 +291,73 @@ describe("register queries (keyset pages against a naive reference)", () => {
     expect(fields.fuser).toMatch(/fuser/);
     const reversed = registerPageQuerySchema.safeParse({ from: "2026-03-02", to: "2026-03-01" });
     expect(reversed.error?.issues[0]).toMatchObject({ path: ["to"], message: expect.stringMatching(/on or after the first day/) });
+  });
+});
+
+// The day filter takes local days of the zone it is given (the organisation's). Each joint
+// below sits at an instant chosen by hand around a local midnight or a daylight-saving
+// change; whether it is inside the day is worked out from the IANA tz database's published
+// offsets and DST dates, not from the code:
+// - America/Chicago: CST −06:00, CDT −05:00; US DST (15 U.S.C. 260a) starts 2026-03-08 at
+//   02:00 CST and ends 2026-11-01 at 02:00 CDT (07:00Z).
+// - Europe/Berlin: CET +01:00, CEST +02:00; EU summer time (Directive 2000/84/EC) ends
+//   2026-10-25 at 01:00Z.
+describe("register day filter in the organisation's time zone (local days across DST)", () => {
+  const CASES = [
+    // zone, day, instant, inside the local day?, why
+    ["America/Chicago", "2026-03-08", "2026-03-08T05:59:00Z", false, "23:59 CST on the 7th"],
+    ["America/Chicago", "2026-03-08", "2026-03-08T06:00:00Z", true, "00:00 CST"],
+    ["America/Chicago", "2026-03-08", "2026-03-08T08:00:00Z", true, "03:00 CDT, just after the change"],
+    ["America/Chicago", "2026-03-08", "2026-03-09T04:59:00Z", true, "23:59 CDT"],
+    ["America/Chicago", "2026-03-08", "2026-03-09T05:00:00Z", false, "00:00 CDT on the 9th (the 23-hour day has ended)"],
+    ["America/Chicago", "2026-11-01", "2026-11-01T04:59:00Z", false, "23:59 CDT on 31 October"],
+    ["America/Chicago", "2026-11-01", "2026-11-01T05:00:00Z", true, "00:00 CDT"],
+    ["America/Chicago", "2026-11-01", "2026-11-01T06:30:00Z", true, "01:30 CDT, the first 01:30"],
+    ["America/Chicago", "2026-11-01", "2026-11-01T07:30:00Z", true, "01:30 CST, the second 01:30"],
+    ["America/Chicago", "2026-11-01", "2026-11-02T05:59:00Z", true, "23:59 CST (the 25th hour of the day)"],
+    ["America/Chicago", "2026-11-01", "2026-11-02T06:00:00Z", false, "00:00 CST on 2 November"],
+    ["Europe/Berlin", "2026-10-25", "2026-10-24T21:59:00Z", false, "23:59 CEST on the 24th"],
+    ["Europe/Berlin", "2026-10-25", "2026-10-24T22:00:00Z", true, "00:00 CEST"],
+    ["Europe/Berlin", "2026-10-25", "2026-10-25T22:59:00Z", true, "23:59 CET"],
+    ["Europe/Berlin", "2026-10-25", "2026-10-25T23:00:00Z", false, "00:00 CET on the 26th"],
+  ] as const;
+  const placed = new Map<string, number>(); // instant → joint id
+
+  beforeAll(async () => {
+    await resetDatabase();
+    // Joints made in June, far from every day below, then each moved to one chosen instant.
+    await buildRegisterJoints(ownerDb(), { count: CASES.length, seed: 5, now: new Date("2026-06-30T12:00:00Z"), days: 5 });
+    const ids = ((await ownerDb()("joints").orderBy("id").select("id")) as { id: number }[]).map((r) => Number(r.id));
+    expect(ids).toHaveLength(CASES.length);
+    for (const [i, c] of CASES.entries()) {
+      await moveJointMadeAt(ids[i], c[2]);
+      placed.set(c[2], ids[i]);
+    }
+  }, 120_000);
+
+  afterAll(async () => {
+    await closeDb();
+  });
+
+  const days = [...new Set(CASES.map((c) => `${c[0]} ${c[1]}`))];
+  it.each(days)("filter: the local day %s (API order, count, and not the UTC day)", async (zoneDay) => {
+    const [zone, day] = zoneDay.split(" ") as [string, string];
+    const cases = CASES.filter((c) => c[0] === zone && c[1] === day);
+    const inside = cases.filter((c) => c[3]).map((c) => placed.get(c[2])!);
+    const page = await listRegisterPage({ filter: { from: day, to: day }, timeZone: zone, sort: "madeAt", dir: "asc", limit: 100, withCount: true });
+    expect(page.rows.map((r) => r.id).sort()).toEqual([...inside].sort());
+    expect(page.count).toEqual({ value: inside.length, isEstimate: false });
+    // The same day read as a UTC day takes other joints, so the check tells the two apart.
+    const utc = await listRegisterPage({ filter: { from: day, to: day }, timeZone: "UTC", limit: 100 });
+    expect(utc.rows.map((r) => r.id).sort()).not.toEqual([...inside].sort());
+  });
+
+  it("the states-table driver (a review filter) takes the same local day", async () => {
+    const inside = CASES.filter((c) => c[0] === "America/Chicago" && c[1] === "2026-11-01" && c[3]).map((c) => placed.get(c[2])!);
+    const review = String((await ownerDb()("joint_states").where({ joint_id: inside[0] }).first("review_state")).review_state) as "pending-review" | "accepted" | "cut-out";
+    const states = await listRegisterPage({ filter: { from: "2026-11-01", to: "2026-11-01", review }, timeZone: "America/Chicago", limit: 100 });
+    const same = (await ownerDb()("joint_states").whereIn("joint_id", inside).where({ review_state: review }).select("joint_id")) as { joint_id: number }[];
+    expect(same.length).toBeGreaterThan(0);
+    expect(states.rows.map((r) => r.id).sort()).toEqual(same.map((r) => Number(r.joint_id)).sort());
   });
 });
