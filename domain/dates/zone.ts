@@ -131,6 +131,16 @@ export function localDayRange(day: string, zone: string): { start: Date; nextSta
   return { start: new Date(start.getTime()), nextStart: new Date(next.getTime()) };
 }
 
+/**
+ * The instant the wall clock in `zone` reads `hour`:00 on local day `day` (a time skipped by
+ * a daylight-saving change moves forward to the first time that exists).
+ */
+export function localHourOn(day: string, hour: number, zone: string): Date {
+  const { year, month, day: dom } = parseIsoDate(day, 'Day');
+  if (!isTimeZone(zone)) throw new DomainError('invalid-input', `Time zone "${zone}" is not a time zone of the IANA time zone database.`);
+  return new Date(new TZDate(year, month - 1, dom, hour, 0, 0, zone).getTime());
+}
+
 /** Length of local day `day` in `zone`, in hours (24, or 23/25 on a daylight-saving change). */
 export function localDayHours(day: string, zone: string): number {
   const { start, nextStart } = localDayRange(day, zone);

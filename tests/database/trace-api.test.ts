@@ -56,19 +56,23 @@ describe("GET /api/v1/trace/lot", () => {
   });
 
   it("exports the same list as a spreadsheet", async () => {
+    await ownerDb()("organisation_settings").insert({ id: 1, time_zone: "America/Chicago" });
     const response = await exportLot(await requestAs(clerk, "/api/v1/trace/lot/export?code=LV-C0002"), none);
+    await ownerDb()("organisation_settings").where({ id: 1 }).delete();
     expect(response.status).toBe(200);
     expect(response.headers.get("content-disposition")).toBe('attachment; filename="trace-4410021.xlsx"');
     const book = new ExcelJS.Workbook();
     await book.xlsx.load(await response.arrayBuffer());
     const joints = book.getWorksheet("Joints")!;
-    expect(joints.getRow(1).values).toEqual([undefined, "Job", "Job name", "Joint", "Made at (UTC)", "Station", "Latitude", "Longitude", "Fuser", "Outcome", "Review", "Component A", "Lot A", "Component B", "Lot B", "Lot on side", "Joint id"]);
+    expect(joints.getRow(1).values).toEqual([undefined, "Job", "Job name", "Joint", "Made at (America/Chicago)", "Made at (UTC)", "Station", "Latitude", "Longitude", "Fuser", "Outcome", "Review", "Component A", "Lot A", "Component B", "Lot B", "Lot on side", "Joint id"]);
     expect(joints.rowCount).toBe(2);
     const row = joints.getRow(2).values as unknown[];
     expect(row.slice(1, 3)).toEqual(["WO-24152", "Orchard Rise service extension"]);
-    expect(row[4]).toEqual(new Date("2026-11-28T09:30:00Z"));
-    expect(row.slice(5, 9)).toEqual(["2+40", 41.21881, -77.21072, "Robin Ashdown"]);
-    expect(row.slice(11, 17)).toEqual(["LV-C0004", "4410388", "LV-C0001", "4410021", "B", jointId]);
+    // IANA tz database: Chicago is on CST (−06:00) after US DST ended on 2026-11-01, so 09:30Z is 03:30 local.
+    expect(row[4]).toBe("2026-11-28 03:30 \u221206:00");
+    expect(row[5]).toEqual(new Date("2026-11-28T09:30:00Z"));
+    expect(row.slice(6, 10)).toEqual(["2+40", 41.21881, -77.21072, "Robin Ashdown"]);
+    expect(row.slice(12, 18)).toEqual(["LV-C0004", "4410388", "LV-C0001", "4410021", "B", jointId]);
     expect(book.getWorksheet("Coils")!.rowCount).toBe(5);
     expect(await ownerDb()("audit_log").where({ action: "trace-exported", actor_user_id: clerk.id })).toHaveLength(1);
   });

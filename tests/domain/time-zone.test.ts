@@ -26,6 +26,7 @@ import {
 } from "@/domain/dates/zone";
 import { describeFilter } from "@/domain/register/describe";
 import { registerDayBounds } from "@/domain/register/filter";
+import { latestDigestCutoff } from "@/domain/mail/digest";
 
 const at = (iso: string) => new Date(iso);
 
@@ -137,5 +138,19 @@ describe("the organisation's zone setting", () => {
     const choices = timeZoneChoices(["Europe/Berlin", "America/Chicago"], "Etc/GMT+6");
     expect(choices[0]).toBe("UTC");
     expect(choices).toEqual(["UTC", "America/Chicago", "Etc/GMT+6", "Europe/Berlin"]);
+  });
+});
+
+describe("the daily digest turns at a local hour (06:00 in the organisation's zone)", () => {
+  it.each([
+    // 2026-03-08 in Chicago: after 02:00 CST clocks read CDT (−05:00), so 06:00 CDT = 11:00Z.
+    ["2026-03-08T12:00:00Z", "America/Chicago", "2026-03-08T11:00:00.000Z"],
+    // 10:30Z is 05:30 CDT: the latest cut-off is the day before, 06:00 CST (−06:00) = 12:00Z.
+    ["2026-03-08T10:30:00Z", "America/Chicago", "2026-03-07T12:00:00.000Z"],
+    // Berlin in winter (CET, +01:00): 06:00 local = 05:00Z.
+    ["2026-12-02T05:30:00Z", "Europe/Berlin", "2026-12-02T05:00:00.000Z"],
+    ["2026-12-02T05:30:00Z", "UTC", "2026-12-01T06:00:00.000Z"],
+  ] as const)("at %s in %s the latest cut-off is %s", (now, zone, cutoff) => {
+    expect(latestDigestCutoff(new Date(now), 6, zone).toISOString()).toBe(cutoff);
   });
 });

@@ -17,7 +17,8 @@ export const dynamic = "force-dynamic";
 // Crew (admin): people, roles and who is qualified for which procedure (49 CFR 192.285).
 export default async function CrewPage() {
   const user = await requireUser("manageCrew");
-  const [people, crews, statuses, zone] = await Promise.all([listUsers(), listCrews(), qualificationStatusOverview(), getOrganisationTimeZone()]);
+  const zone = await getOrganisationTimeZone();
+  const [people, crews, statuses] = await Promise.all([listUsers(), listCrews(), qualificationStatusOverview({ timeZone: zone.timeZone })]);
   const active = statuses.filter((s) => s.userIsActive);
   const lapsing = active.filter((s) => s.status.state === "due-soon");
   const lapsed = active.filter((s) => s.status.state === "lapsed" || s.status.state === "requalification-needed");

@@ -18,7 +18,7 @@ export default async function EquipmentPage() {
   const user = await requireUser("manageEquipment");
   const timeZone = await organisationTimeZone();
   const units = user.unitSystem;
-  const [machines, heaters] = await Promise.all([listMachines(), listHeatersWithLastCheck()]);
+  const [machines, heaters] = await Promise.all([listMachines(), listHeatersWithLastCheck({ timeZone })]);
   return (
     <div className="flex flex-col gap-6">
       <h1 className="text-2xl font-bold">Equipment</h1>

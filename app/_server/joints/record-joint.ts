@@ -124,7 +124,8 @@ type Prepared = {
 /** Everything that can be decided before the transaction: refusals come out as AppErrors. */
 async function prepare(input: RecordJointInput, user: UserRecord, madeAt: Date): Promise<Prepared> {
   // The crew's local day in the organisation's zone (the device judges the same day).
-  const on = isoDateIn(madeAt, await organisationTimeZone());
+  const timeZone = await organisationTimeZone();
+  const on = isoDateIn(madeAt, timeZone);
   const job = await findJobById({ id: input.jobId });
   if (!job) throw invalid("jobId", `Job ${input.jobId} does not exist.`);
   const closed = jobBlockReason(job);
@@ -141,7 +142,7 @@ async function prepare(input: RecordJointInput, user: UserRecord, madeAt: Date):
     listUsersWithRole({ role: "admin" }),
     listUsersWithRole({ role: "inspector" }),
     findMachineById({ id: input.machineId }),
-    findHeaterWithLastCheck({ id: input.heaterId, now: madeAt }),
+    findHeaterWithLastCheck({ id: input.heaterId, now: madeAt, timeZone }),
   ]);
   const qualification = qualificationStatus({ qualifiedOn: qualifications.map((q) => q.qualifiedOn), failedTestsOn: failures.map((f) => f.failedOn), on });
 

@@ -5,10 +5,13 @@ import ExcelJS from "exceljs";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { traceLot } from "@/database/queries/trace";
 import type { TraceSearch } from "@/domain/coils/schemas";
+import { formatZoned } from "@/domain/dates/zone";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 
 type Trace = Awaited<ReturnType<typeof traceLot>>;
 
-export async function traceWorkbook(trace: Trace): Promise<Buffer> {
+/** `timeZone`: the organisation's IANA zone, for the local made-at column (the UTC one stays beside it). */
+export async function traceWorkbook(trace: Trace, timeZone: string): Promise<Buffer> {
   const book = new ExcelJS.Workbook();
   book.creator = "Beadline";
   const joints = book.addWorksheet("Joints");
@@ -16,6 +19,8 @@ export async function traceWorkbook(trace: Trace): Promise<Buffer> {
     { header: "Job", key: "job", width: 12 },
     { header: "Job name", key: "jobName", width: 28 },
     { header: "Joint", key: "jointNo", width: 8 },
+    // Time columns: local time with its offset in the organisation's zone, then the UTC instant.
+    { header: `Made at (${timeZone})`, key: "madeAtLocal", width: 26 },
     { header: "Made at (UTC)", key: "madeAt", width: 20 },
     { header: "Station", key: "station", width: 12 },
     { header: "Latitude", key: "latitude", width: 12 },
@@ -36,6 +41,7 @@ export async function traceWorkbook(trace: Trace): Promise<Buffer> {
       job: j.jobCode,
       jobName: j.jobName,
       jointNo: j.jointNo,
+      madeAtLocal: formatZoned(j.madeAt, timeZone, "minute"),
       madeAt: j.madeAt,
       station: j.station ?? "",
       latitude: j.latitude ?? "",
@@ -81,7 +87,7 @@ export async function traceWorkbook(trace: Trace): Promise<Buffer> {
  */
 export async function exportLotTrace(search: TraceSearch, { user, requestId }: { user: { id: number }; requestId: string }): Promise<{ body: Buffer; name: string }> {
   const trace = await traceLot(search);
-  const body = await traceWorkbook(trace);
+  const body = await traceWorkbook(trace, await organisationTimeZone());
   await insertAuditEntry({ actorUserId: user.id, action: "trace-exported", entityType: "lot", entityId: trace.lots.map((l) => l.lot).join(",").slice(0, 64) || null, details: { search, joints: trace.joints.length, coils: trace.coils.length }, requestId });
   const name = `trace-${(trace.lots.map((l) => l.lot).join("-") || "none").replace(/[^A-Za-z0-9-]+/g, "-").slice(0, 60)}.xlsx`;
   return { body, name };

@@ -13,20 +13,19 @@ import { toTrenchCoil, type TrenchSetup } from "./setup-types";
 import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 
 export async function loadTrenchSetup(user: UserRecord, now = new Date()): Promise<TrenchSetup> {
-  const jobs = await listOpenJobsForFuser({ userId: user.id });
+  const [jobs, timeZone] = await Promise.all([listOpenJobsForFuser({ userId: user.id }), organisationTimeZone()]);
   const jobIds = jobs.map((j) => j.id);
-  const [qualifications, failures, machines, heaters, coils, overrides, remakes, recent, inspectors, admins, timeZone] = await Promise.all([
+  const [qualifications, failures, machines, heaters, coils, overrides, remakes, recent, inspectors, admins] = await Promise.all([
     listQualificationsForUser({ userId: user.id }),
     listQualificationFailuresForUser({ userId: user.id }),
     listMachines({ activeOnly: true }),
-    listHeatersWithLastCheck({ now, activeOnly: true }),
+    listHeatersWithLastCheck({ now, timeZone, activeOnly: true }),
     listCoilsForTrench({ crewId: user.crewId, jobIds }),
     listOverridesForJobs({ jobIds, at: now }),
     listJointsAwaitingRemake({ jobIds }),
     listJoints({ fuserId: user.id, limit: 10 }),
     listUsersWithRole({ role: "inspector" }),
     listUsersWithRole({ role: "admin" }),
-    organisationTimeZone(),
   ]);
   const versions = await Promise.all(jobs.map((j) => currentProcedureVersionForJob({ jobId: j.id })));
   return {

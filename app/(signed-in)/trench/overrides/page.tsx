@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import { requireUser } from "@/app/_lib/page-guard";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import { listHeatersWithLastCheck } from "@/database/queries/equipment";
 import { listJobs } from "@/database/queries/jobs";
 import { listOverridesForJobs } from "@/database/queries/joints";
@@ -15,7 +16,8 @@ export const dynamic = "force-dynamic";
 export default async function OverridesPage() {
   const user = await requireUser("grantOverride");
   const now = new Date();
-  const [jobs, heaters, quarantined, usedUp] = await Promise.all([listJobs({ status: "open" }), listHeatersWithLastCheck({ now, activeOnly: true }), listCoils({ status: "quarantined", limit: 200 }), listCoils({ status: "used-up", limit: 200 })]);
+  const timeZone = await organisationTimeZone();
+  const [jobs, heaters, quarantined, usedUp] = await Promise.all([listJobs({ status: "open" }), listHeatersWithLastCheck({ now, timeZone, activeOnly: true }), listCoils({ status: "quarantined", limit: 200 }), listCoils({ status: "used-up", limit: 200 })]);
   const active = await listOverridesForJobs({ jobIds: jobs.map((j) => j.id), at: now });
   const blockedHeaters = heaters.filter((h) => h.isCheckOverdue || h.isFlagged);
   return (
