@@ -7,7 +7,7 @@
 import { TZDate } from '@date-fns/tz';
 import { z } from 'zod';
 import { DomainError } from '@/domain/errors';
-import { parseIsoDate } from '@/domain/dates/civil';
+import { addDays, parseIsoDate } from '@/domain/dates/civil';
 
 /** The zone used when none is set and the server's own is unknown. */
 export const UTC_ZONE = 'UTC';
@@ -139,6 +139,24 @@ export function localHourOn(day: string, hour: number, zone: string): Date {
   const { year, month, day: dom } = parseIsoDate(day, 'Day');
   if (!isTimeZone(zone)) throw new DomainError('invalid-input', `Time zone "${zone}" is not a time zone of the IANA time zone database.`);
   return new Date(new TZDate(year, month - 1, dom, hour, 0, 0, zone).getTime());
+}
+
+/**
+ * The local weeks (ISO 8601: Monday first) that cover [from, to) in `zone`: each week's
+ * Monday as 'YYYY-MM-DD' and the instant its local midnight falls on, oldest first.
+ */
+export function localWeeks(from: Date, to: Date, zone: string): { weekStart: string; start: Date }[] {
+  const first = isoDateIn(from, zone);
+  const { year, month, day } = parseIsoDate(first, 'Day');
+  // Day of the week of a civil date (0 = Sunday), from the proleptic Gregorian calendar.
+  const dow = new Date(Date.UTC(year, month - 1, day)).getUTCDay();
+  let monday = addDays(first, -((dow + 6) % 7));
+  const weeks: { weekStart: string; start: Date }[] = [];
+  for (let start = localDayRange(monday, zone).start; start.getTime() < to.getTime() && weeks.length < 1000; start = localDayRange(monday, zone).start) {
+    weeks.push({ weekStart: monday, start });
+    monday = addDays(monday, 7);
+  }
+  return weeks;
 }
 
 /** Length of local day `day` in `zone`, in hours (24, or 23/25 on a daylight-saving change). */

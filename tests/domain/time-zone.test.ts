@@ -18,6 +18,7 @@ import {
   formatZoned,
   isoDateIn,
   isTimeZone,
+  localWeeks,
   localDayHours,
   localDayRange,
   offsetText,
@@ -152,5 +153,19 @@ describe("the daily digest turns at a local hour (06:00 in the organisation's zo
     ["2026-12-02T05:30:00Z", "UTC", "2026-12-01T06:00:00.000Z"],
   ] as const)("at %s in %s the latest cut-off is %s", (now, zone, cutoff) => {
     expect(latestDigestCutoff(new Date(now), 6, zone).toISOString()).toBe(cutoff);
+  });
+});
+
+describe("local weeks for the Insights chart (ISO 8601 weeks start on Monday)", () => {
+  it("starts each week at local midnight on Monday, 23-hour day or not", () => {
+    // 2026-03-08 is the second Sunday of March (US DST starts), so 2026-03-04 is a Wednesday
+    // and its week starts Monday 2026-03-02 at 00:00 CST (−06:00) = 06:00Z; the next two
+    // Mondays are after the change, 00:00 CDT (−05:00) = 05:00Z.
+    const weeks = localWeeks(at("2026-03-04T12:00:00Z"), at("2026-03-17T00:00:00Z"), "America/Chicago");
+    expect(weeks.map((w) => [w.weekStart, w.start.toISOString()])).toEqual([
+      ["2026-03-02", "2026-03-02T06:00:00.000Z"],
+      ["2026-03-09", "2026-03-09T05:00:00.000Z"],
+      ["2026-03-16", "2026-03-16T05:00:00.000Z"],
+    ]);
   });
 });

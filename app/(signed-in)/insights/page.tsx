@@ -38,7 +38,7 @@ export default async function InsightsPage({ searchParams }: { searchParams: Pro
   const [jobs, summary, byWeek, byFuser, byMachine, findings, heater, cooling] = await Promise.all([
     listJobs(),
     insightsSummary(filter),
-    firstPassYieldByWeek(filter),
+    firstPassYieldByWeek({ ...filter, timeZone }),
     firstPassYieldByFuser(filter),
     firstPassYieldByMachine(filter),
     findingsByParameter(filter),
