@@ -41,7 +41,7 @@ export function canonicalTimeZone(name: string): string {
 export const timeZoneSchema = z
   .string({ error: 'Time zone must be chosen from the list.' })
   .trim()
-  .min(1, { error: 'Time zone must be chosen from the list.' })
+  .min(1, { error: 'Time zone must be chosen from the list.', abort: true })
   .max(64, { error: 'Time zone is too long (64 characters at most).' })
   .refine(isTimeZone, { error: (issue) => `Time zone "${String(issue.input)}" is not a known time zone: choose one from the list (e.g. America/Chicago).` })
   .transform(canonicalTimeZone);
