@@ -356,3 +356,6 @@ export type JointTraceRow = {
 };
 
 export type JointFindingRow = { joint_id: number; parameter: string; made_at: Date };
+
+/** organisation_settings: one row (id 1); time_zone NULL until an admin chooses one. */
+export type OrganisationSettingsRow = { id: number; time_zone: string | null; updated_by: number | null; updated_at: Date };

@@ -1,14 +1,20 @@
 import { screensFor } from "@/domain/roles";
 import { currentUser } from "@/app/_lib/session";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
+import { TimeZoneProvider } from "@/components/ui/time-zone";
 import { AppShell } from "./_components/app-shell";
 
 // The layout only draws the shell for whoever is signed in; pages and actions guard themselves.
+// It hands the organisation's time zone to every client part of the screens below.
 export default async function SignedInLayout({ children }: { children: React.ReactNode }) {
   const user = await currentUser();
   if (!user) return <>{children}</>;
+  const timeZone = await organisationTimeZone();
   return (
-    <AppShell user={user} screens={screensFor(user)}>
-      {children}
-    </AppShell>
+    <TimeZoneProvider timeZone={timeZone}>
+      <AppShell user={user} screens={screensFor(user)} timeZone={timeZone}>
+        {children}
+      </AppShell>
+    </TimeZoneProvider>
   );
 }

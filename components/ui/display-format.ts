@@ -1,24 +1,18 @@
 // The one place an instant (and a count) becomes text on a screen, a label or in a mail.
-// Instants are shown in UTC as ISO 8601 calendar dates and times (ISO 8601-1:2019 §5.2.2,
-// §5.3) with a space for the "T"; a later issue shows them in the organisation's time zone,
-// and changes only this file.
+// Instants are shown as local time in the organisation's time zone with the offset from
+// UTC (ISO 8601-1:2019 §5.4.2, a space for the "T"): "2026-03-08 01:30 −06:00"; dates
+// alone are the local calendar date. The zone rules are domain/dates/zone's.
+import { formatZoned, type ZonedPrecision } from "@/domain/dates/zone";
 
 /** How much of the instant to show. */
-export type InstantPrecision = "date" | "minute" | "second";
+export type InstantPrecision = ZonedPrecision;
 
 /**
- * `at` as "2026-03-01" (date), "2026-03-01 10:12" (minute) or "2026-03-01 10:12:05"
- * (second), in UTC; `withZone` adds " UTC". Truncates, never rounds.
+ * `at` in `timeZone` as "2026-03-01" (date), "2026-03-01 10:12 −06:00" (minute) or
+ * "2026-03-01 10:12:05 −06:00" (second). Truncates, never rounds.
  */
-export function formatInstant(at: Date | string | number, precision: InstantPrecision = "minute", withZone = false): string {
-  const iso = new Date(at).toISOString();
-  const text = precision === "date" ? iso.slice(0, 10) : `${iso.slice(0, 10)} ${iso.slice(11, precision === "minute" ? 16 : 19)}`;
-  return withZone && precision !== "date" ? `${text} UTC` : text;
-}
-
-/** The browser's own local date and time, as the device-side screens show them today. */
-export function formatDeviceInstant(at: Date | string | number): string {
-  return new Date(at).toLocaleString();
+export function formatInstant(at: Date | string | number, precision: InstantPrecision, timeZone: string): string {
+  return formatZoned(at, timeZone, precision, true);
 }
 
 /** A count with thousands separators ("1,234,567"). */

@@ -2,7 +2,7 @@
 // their surface-temperature check log. Machines and plates are never deleted — they are
 // retired (is_active = false) because joints refer to them. Edits use optimistic locking.
 import { heaterProblems, isHeaterCheckOverdue, isHeaterFlagged, isMachineUsable, machineProblems, type HeaterReadings } from "@/domain/equipment/rules";
-import { isoDateOf } from "@/domain/dates/civil";
+import { isoDateIn, UTC_ZONE } from "@/domain/dates/zone";
 import { roundTo } from "@/domain/units/format";
 import { conn, type Db } from "../client";
 import type { FusionMachineRow, HeaterCheckRow, HeaterPlateRow } from "../tables";
@@ -208,29 +208,35 @@ async function lastChecks(heaterIds: number[], trx?: Db): Promise<Map<number, He
 
 /**
  * A heater plate with its latest check and whether it is overdue / flagged on `now`'s
- * calendar day (UTC). "Latest" is the check recorded last (highest id).
+ * local calendar day in `timeZone` (the organisation's). "Latest" is the check recorded last (highest id).
  */
-export async function findHeaterWithLastCheck({ id, now = new Date(), forUpdate = false }: { id: number; now?: Date; forUpdate?: boolean }, trx?: Db): Promise<HeaterRecord | null> {
+export async function findHeaterWithLastCheck(
+  { id, now = new Date(), timeZone = UTC_ZONE, forUpdate = false }: { id: number; now?: Date; timeZone?: string; forUpdate?: boolean },
+  trx?: Db,
+): Promise<HeaterRecord | null> {
   const q = conn(trx)("heater_plates").where({ id });
   if (forUpdate) q.forUpdate();
   const row = (await q.first()) as HeaterPlateRow | undefined;
   if (!row) return null;
   const last = (await lastChecks([id], trx)).get(id) ?? null;
-  return toHeater(row, last, isoDateOf(now));
+  return toHeater(row, last, isoDateIn(now, timeZone));
 }
 
-export async function listHeatersWithLastCheck({ now = new Date(), activeOnly = false }: { now?: Date; activeOnly?: boolean } = {}, trx?: Db): Promise<HeaterRecord[]> {
+export async function listHeatersWithLastCheck(
+  { now = new Date(), timeZone = UTC_ZONE, activeOnly = false }: { now?: Date; timeZone?: string; activeOnly?: boolean } = {},
+  trx?: Db,
+): Promise<HeaterRecord[]> {
   const q = conn(trx)("heater_plates").orderBy([{ column: "is_active", order: "desc" }, { column: "asset_tag" }]);
   if (activeOnly) q.where("is_active", true);
   const rows = (await q) as HeaterPlateRow[];
   const last = await lastChecks(rows.map((r) => r.id), trx);
-  const on = isoDateOf(now);
+  const on = isoDateIn(now, timeZone);
   return rows.map((r) => toHeater(r, last.get(r.id) ?? null, on));
 }
 
 /** Active plates that need a check now: overdue, never checked, or flagged by a failed check. */
-export async function listHeatersNeedingCheck({ now = new Date() }: { now?: Date } = {}, trx?: Db): Promise<HeaterRecord[]> {
-  return (await listHeatersWithLastCheck({ now, activeOnly: true }, trx)).filter((h) => h.isCheckOverdue || h.isFlagged);
+export async function listHeatersNeedingCheck({ now = new Date(), timeZone = UTC_ZONE }: { now?: Date; timeZone?: string } = {}, trx?: Db): Promise<HeaterRecord[]> {
+  return (await listHeatersWithLastCheck({ now, timeZone, activeOnly: true }, trx)).filter((h) => h.isCheckOverdue || h.isFlagged);
 }
 
 export async function listHeaterChecks({ heaterId, limit = 50 }: { heaterId: number; limit?: number }, trx?: Db): Promise<HeaterCheckRecord[]> {

@@ -2,8 +2,9 @@
 // First-pass yield: the share of joints made in the period that are within limits (by the
 // check at recording, or since by their pressure trace) and were not cut out — our own
 // definition of "right first time" for a fusion joint (common practice, no published
-// source). Weeks start on Monday (ISO 8601), in UTC.
+// source). Weeks start on Monday (ISO 8601), at local midnight in the organisation's time zone.
 import type { JointParameter } from "@/domain/fusion/parameters";
+import { localWeeks, UTC_ZONE } from "@/domain/dates/zone";
 import { conn, type Db } from "../client";
 
 export type InsightsFilter = { from: Date; to: Date; jobId?: number; procedureId?: number };
@@ -29,14 +30,25 @@ function toYield(r: { joints: number | string; first_pass: number | string | nul
   return { joints, firstPass, yieldPct: pct(firstPass, joints) };
 }
 
-/** First-pass yield per week (Monday, UTC) in the period, oldest week first. */
-export async function firstPassYieldByWeek(filter: InsightsFilter, trx?: Db): Promise<WeekYield[]> {
+/**
+ * First-pass yield per local week (Monday, in `timeZone`) in the period, oldest week first.
+ * The week boundaries are local midnights worked out in domain/dates (23- or 25-hour days
+ * included) and bound as instants, so the database needs no time-zone tables.
+ */
+export async function firstPassYieldByWeek(filter: InsightsFilter & { timeZone?: string }, trx?: Db): Promise<WeekYield[]> {
   const k = conn(trx);
-  const week = "DATE_FORMAT(DATE_SUB(DATE(j.made_at), INTERVAL WEEKDAY(j.made_at) DAY), '%Y-%m-%d')";
-  const rows = (await base(k, filter)
-    .select(k.raw(`${week} AS week_start`), k.raw("COUNT(*) AS joints"), k.raw(`${FIRST_PASS} AS first_pass`))
-    .groupByRaw(week)
-    .orderByRaw(week)) as { week_start: string; joints: number; first_pass: number }[];
+  const weeks = localWeeks(filter.from, filter.to, filter.timeZone ?? UTC_ZONE);
+  if (weeks.length === 0) return [];
+  // The last week whose start is at or before made_at: test the later starts first.
+  const arms = [...weeks].reverse().map(() => "WHEN j.made_at >= ? THEN ?").join(" ");
+  const bindings = [...weeks].reverse().flatMap((w) => [w.start, w.weekStart]);
+  const inner = base(k, filter).select(k.raw(`CASE ${arms} END AS week_start`, bindings), "js.outcome", "js.review_state");
+  const rows = (await k
+    .from(inner.as("t"))
+    .select("t.week_start", k.raw("COUNT(*) AS joints"), k.raw("SUM(CASE WHEN t.outcome = 'within-limits' AND t.review_state <> 'cut-out' THEN 1 ELSE 0 END) AS first_pass"))
+    .whereNotNull("t.week_start")
+    .groupBy("t.week_start")
+    .orderBy("t.week_start")) as { week_start: string; joints: number; first_pass: number }[];
   return rows.map((r) => ({ weekStart: r.week_start, ...toYield(r) }));
 }
 

@@ -7,6 +7,7 @@
 import type { Knex } from "knex";
 import { afterFailedAttempt, MAX_MAIL_ATTEMPTS } from "@/domain/mail/backoff";
 import { composeDigest, latestDigestCutoff, type DigestEvent } from "@/domain/mail/digest";
+import { isoDateIn, UTC_ZONE } from "@/domain/dates/zone";
 import { conn, db, isDuplicateKey, type Db } from "../client";
 import type { MailOutboxRow } from "../tables";
 
@@ -316,10 +317,10 @@ export async function countOutboxByStatus(_: Record<string, never> = {}, trx?: D
  * outbox mail (dedupe key `digest:<userId>:<cut-off date>`), and links the events to it,
  * in one transaction per person. Returns the number of digest mails queued.
  */
-export async function foldDailyDigests({ now, hourUtc }: { now: Date; hourUtc?: number }, knex?: Knex): Promise<number> {
+export async function foldDailyDigests({ now, hour, timeZone = UTC_ZONE }: { now: Date; hour?: number; timeZone?: string }, knex?: Knex): Promise<number> {
   const k = knex ?? db();
-  const cutoff = latestDigestCutoff(now, hourUtc);
-  const day = cutoff.toISOString().slice(0, 10);
+  const cutoff = latestDigestCutoff(now, hour, timeZone);
+  const day = isoDateIn(cutoff, timeZone);
   const people = (await k("mail_digest_items").whereNull("outbox_id").where("created_at", "<", cutoff).distinct("user_id", "to_address")) as { user_id: number; to_address: string }[];
   let made = 0;
   for (const person of people) {

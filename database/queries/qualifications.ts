@@ -3,7 +3,7 @@
 // Both are append-only records; status is computed by the domain (qualificationStatus).
 import type { QualificationMethod } from "@/domain/qualifications/schemas";
 import { qualificationOverview, type PersonProcedureStatus } from "@/domain/qualifications/overview";
-import { isoDateOf } from "@/domain/dates/civil";
+import { isoDateIn, UTC_ZONE } from "@/domain/dates/zone";
 import { conn, type Db } from "../client";
 import type { QualificationFailureRow, QualificationRow } from "../tables";
 import { day, num } from "./rows";
@@ -110,10 +110,14 @@ export async function listAllQualificationFailures({ limit = 500 }: { limit?: nu
 export type QualificationStatusRow = PersonProcedureStatus & { userName: string; userIsActive: boolean; procedureCode: string; procedureName: string };
 
 /**
- * Status of every person × procedure with a record, on `now`'s calendar day (UTC) or on
- * the given ISO date — from the domain's 49 CFR 192.285(c) rule. Optionally one person.
+ * Status of every person × procedure with a record, on `now`'s local calendar day in
+ * `timeZone` (the organisation's) or on the given ISO date — from the domain's 49 CFR
+ * 192.285(c) rule. Optionally one person.
  */
-export async function qualificationStatusOverview({ now = new Date(), on, userId }: { now?: Date; on?: string; userId?: number } = {}, trx?: Db): Promise<QualificationStatusRow[]> {
+export async function qualificationStatusOverview(
+  { now = new Date(), timeZone = UTC_ZONE, on, userId }: { now?: Date; timeZone?: string; on?: string; userId?: number } = {},
+  trx?: Db,
+): Promise<QualificationStatusRow[]> {
   const k = conn(trx);
   const qq = k("qualifications").select("user_id", "procedure_id", "qualified_on");
   const fq = k("qualification_failures").select("user_id", "procedure_id", "failed_on");
@@ -125,7 +129,7 @@ export async function qualificationStatusOverview({ now = new Date(), on, userId
   const rows = qualificationOverview({
     qualifications: qs.map((r) => ({ userId: r.user_id, procedureId: r.procedure_id, qualifiedOn: day(r.qualified_on) })),
     failures: fs.map((r) => ({ userId: r.user_id, procedureId: r.procedure_id, failedOn: day(r.failed_on) })),
-    on: on ?? isoDateOf(now),
+    on: on ?? isoDateIn(now, timeZone),
   });
   if (!rows.length) return [];
   const users = new Map(

@@ -58,6 +58,8 @@ type CoilSet = { ids: number[] } | { subquery: Sql };
 
 type Resolved = {
   filter: RegisterFilter;
+  /** The organisation's IANA zone: from/to are its local days. */
+  timeZone: string;
   lotCoils: CoilSet | null;
   search: { coils: CoilSet | null; jointNo: number | null; jobJoint: { jobId: number; jointNo: number } | null; jointId: number | null } | null;
   /** True when the filter can match nothing (unknown lot, search matching nothing). */
@@ -82,8 +84,8 @@ async function coilSet(conditions: Sql[], trx?: Db): Promise<CoilSet | null> {
 }
 
 /** Looks up what the lot and the free-text search match before the page query runs. */
-async function resolveFilter(filter: RegisterFilter, trx?: Db): Promise<Resolved> {
-  const out: Resolved = { filter, lotCoils: null, search: null, isEmpty: false };
+async function resolveFilter(filter: RegisterFilter, timeZone: string, trx?: Db): Promise<Resolved> {
+  const out: Resolved = { filter, timeZone, lotCoils: null, search: null, isEmpty: false };
   if (filter.lot) {
     out.lotCoils = await coilSet([{ text: "lot = ?", bindings: [filter.lot] }], trx);
     if (!out.lotCoils) out.isEmpty = true;
@@ -212,11 +214,11 @@ function buildBase(resolved: Resolved, sort: RegisterSort): Built {
   }
   if (filter.from) {
     where.push(`${dateCol} >= ?`);
-    bindings.push(dayBounds(filter.from).start);
+    bindings.push(dayBounds(filter.from, resolved.timeZone).start);
   }
   if (filter.to) {
     where.push(`${dateCol} < ?`);
-    bindings.push(dayBounds(filter.to).nextStart);
+    bindings.push(dayBounds(filter.to, resolved.timeZone).nextStart);
   }
   if (filter.outcome) {
     where.push("s.outcome = ?");
@@ -494,10 +496,18 @@ export type RegisterPage = { rows: RegisterRow[]; next: RegisterCursor | null; c
  * `withCount`, the count (see countRegister) is taken alongside.
  */
 export async function listRegisterPage(
-  { filter, sort = "madeAt", dir = "desc", after, limit = 100, withCount = false }: { filter: RegisterFilter; sort?: RegisterSort; dir?: SortDirection; after?: RegisterCursor; limit?: number; withCount?: boolean },
+  {
+    filter,
+    timeZone,
+    sort = "madeAt",
+    dir = "desc",
+    after,
+    limit = 100,
+    withCount = false,
+  }: { filter: RegisterFilter; timeZone: string; sort?: RegisterSort; dir?: SortDirection; after?: RegisterCursor; limit?: number; withCount?: boolean },
   trx?: Db,
 ): Promise<RegisterPage> {
-  const resolved = await resolveFilter(filter, trx);
+  const resolved = await resolveFilter(filter, timeZone, trx);
   if (resolved.isEmpty) return { rows: [], next: null, ...(withCount ? { count: { value: 0, isEstimate: false } } : {}) };
   const page = async () => {
     const step1 = await pageIds(resolved, sort, dir, after, limit, trx);
@@ -515,10 +525,10 @@ export async function listRegisterPage(
  * stays at one batch whatever the row count.
  */
 export async function* iterateRegisterRows(
-  { filter, sort = "madeAt", dir = "desc", batchSize = 2000 }: { filter: RegisterFilter; sort?: RegisterSort; dir?: SortDirection; batchSize?: number },
+  { filter, timeZone, sort = "madeAt", dir = "desc", batchSize = 2000 }: { filter: RegisterFilter; timeZone: string; sort?: RegisterSort; dir?: SortDirection; batchSize?: number },
   trx?: Db,
 ): AsyncGenerator<RegisterRow[]> {
-  const resolved = await resolveFilter(filter, trx);
+  const resolved = await resolveFilter(filter, timeZone, trx);
   if (resolved.isEmpty) return;
   let after: RegisterCursor | undefined;
   for (;;) {
@@ -535,8 +545,8 @@ export type RegisterCount = { value: number; isEstimate: boolean };
  * How many joints match: exact up to EXACT_COUNT_CAP (a count that stops there, so it
  * stays cheap), otherwise the optimizer's row estimate (EXPLAIN), marked as an estimate.
  */
-export async function countRegister({ filter, cap = EXACT_COUNT_CAP }: { filter: RegisterFilter; cap?: number }, trx?: Db): Promise<RegisterCount> {
-  const resolved = await resolveFilter(filter, trx);
+export async function countRegister({ filter, timeZone, cap = EXACT_COUNT_CAP }: { filter: RegisterFilter; timeZone: string; cap?: number }, trx?: Db): Promise<RegisterCount> {
+  const resolved = await resolveFilter(filter, timeZone, trx);
   if (resolved.isEmpty) return { value: 0, isEstimate: false };
   return countResolved(resolved, cap, trx);
 }

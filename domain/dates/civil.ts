@@ -1,6 +1,7 @@
 // Civil-date arithmetic on ISO 'YYYY-MM-DD' strings (proleptic Gregorian, no time zone,
-// no clock; the UTC calendar the records use). Used by qualification status, the
-// traceability code and the office records (jobs, heater checks).
+// no clock). Used by qualification status, the traceability code and the office records
+// (jobs, heater checks). Which civil date an instant falls on in the organisation's time
+// zone is domain/dates/zone's (isoDateIn); isoDateOf below is the UTC date.
 
 import { DomainError } from '@/domain/errors';
 
@@ -62,7 +63,7 @@ export function earlierDate(a: string, b: string): string {
   return a <= b ? a : b;
 }
 
-/** ISO date of an instant in UTC (the calendar the demo and the records use). */
+/** ISO date of an instant in UTC (seeds and fixtures; people's days are isoDateIn in domain/dates/zone). */
 export function isoDateOf(instant: Date): string {
   return instant.toISOString().slice(0, 10);
 }

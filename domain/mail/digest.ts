@@ -1,18 +1,23 @@
 // Daily digest: people who chose one mail a day get their waiting events folded into one
-// message per day. The day turns at a fixed UTC hour, so every instance of the app agrees
-// on which day an event belongs to without any shared clock state.
+// message per day. The day turns at a fixed local hour in the organisation's time zone
+// (passed in), so every instance of the app agrees on which day an event belongs to
+// without any shared clock state.
+import { addDays } from '@/domain/dates/civil';
+import { isoDateIn, localHourOn, UTC_ZONE } from '@/domain/dates/zone';
 
-/** Hour (UTC) at which each day's digest is made. common practice (no published source): early morning. */
-export const DEFAULT_DIGEST_HOUR_UTC = 6;
+/** Local hour at which each day's digest is made. common practice (no published source): early morning. */
+export const DEFAULT_DIGEST_HOUR = 6;
 
 /**
- * The most recent digest cut-off at or before `now`: today at `hourUtc`:00 UTC when that
- * has passed, else yesterday's. Events created before the cut-off belong in its digest.
+ * The most recent digest cut-off at or before `now`: today at `hour`:00 local time in
+ * `timeZone` when that has passed, else yesterday's. Events created before the cut-off
+ * belong in its digest (wall-clock time: 06:00 stays 06:00 across daylight-saving changes).
  */
-export function latestDigestCutoff(now: Date, hourUtc = DEFAULT_DIGEST_HOUR_UTC): Date {
-  const cutoff = new Date(Date.UTC(now.getUTCFullYear(), now.getUTCMonth(), now.getUTCDate(), hourUtc, 0, 0, 0));
-  if (cutoff.getTime() > now.getTime()) cutoff.setUTCDate(cutoff.getUTCDate() - 1);
-  return cutoff;
+export function latestDigestCutoff(now: Date, hour = DEFAULT_DIGEST_HOUR, timeZone = UTC_ZONE): Date {
+  const today = isoDateIn(now, timeZone);
+  const at = (day: string) => localHourOn(day, hour, timeZone);
+  const cutoff = at(today);
+  return cutoff.getTime() > now.getTime() ? at(addDays(today, -1)) : cutoff;
 }
 
 export type DigestEvent = { kind: string; subject: string; bodyText: string; createdAt: Date };

@@ -9,6 +9,7 @@ import { formatJointReference } from '@/domain/joints/reference';
 import type { RegisterOutcome, RegisterSort } from '@/domain/register/filter';
 import { CHECK_VALUES, QUANTITY_VALUES, type CheckValueDefinition, type QuantityValueDefinition, type RecordedValues } from '@/domain/joints/values';
 import { displayDecimals, roundTo, toDisplay, unitLabel, type QuantityKind, type UnitSystem } from '@/domain/units/format';
+import { formatZoned, formatUtcInstant } from '@/domain/dates/zone';
 
 /** One joint as the Register shows it (canonical SI, as stored). */
 export type RegisterRow = RecordedValues & RegisterJoint;
@@ -82,7 +83,7 @@ export function registerRowFromJson(row: RegisterRowJson): RegisterRow {
 }
 
 export type CellValue = string | number | Date | null;
-export type ColumnType = 'text' | 'integer' | 'number' | 'date' | 'quantity';
+export type ColumnType = 'text' | 'integer' | 'number' | 'date' | 'quantity' | 'local-time';
 
 export interface RegisterColumn {
   key: string;
@@ -96,7 +97,8 @@ export interface RegisterColumn {
   inGrid: boolean;
   /** Approximate width in characters (grid and spreadsheet). */
   width: number;
-  value: (row: RegisterRow, system: UnitSystem) => CellValue;
+  /** `timeZone`: the organisation's IANA zone (only the local-time column reads it). */
+  value: (row: RegisterRow, system: UnitSystem, timeZone: string) => CellValue;
 }
 
 /**
@@ -182,7 +184,9 @@ const AUDIT_COLUMNS: readonly RegisterColumn[] = [
 export const REGISTER_COLUMNS: readonly RegisterColumn[] = [
   { key: 'jointNo', title: 'Joint', type: 'integer', sort: 'number', inGrid: true, width: 8, value: (r) => r.jointNo },
   { key: 'job', title: 'Job', type: 'text', inGrid: true, width: 12, value: (r) => r.jobCode },
-  { key: 'madeAt', title: 'Made at (UTC)', type: 'date', sort: 'madeAt', inGrid: true, width: 18, value: (r) => r.madeAt },
+  // Time columns: the local time in the organisation's zone with its offset (grid and export), then the UTC instant (export).
+  { key: 'madeAtLocal', title: 'Made at', type: 'local-time', sort: 'madeAt', inGrid: true, width: 26, value: (r, _s, zone) => formatZoned(r.madeAt, zone, 'second') },
+  { key: 'madeAt', title: 'Made at (UTC)', type: 'date', inGrid: false, width: 20, value: (r) => r.madeAt },
   { key: 'place', title: 'Place', type: 'text', inGrid: true, width: 24, value: (r) => placeText(r) },
   { key: 'station', title: 'Station', type: 'text', inGrid: false, width: 14, value: (r) => r.station },
   { key: 'latitude', title: 'Latitude', type: 'number', inGrid: false, width: 11, value: (r) => r.latitude },
@@ -220,8 +224,9 @@ export function columnUnit(column: RegisterColumn, system: UnitSystem): string |
   return column.quantity ? unitLabel(column.quantity, system) : null;
 }
 
-/** Header with the unit, e.g. "Heater temperature (°F)". */
-export function columnHeader(column: RegisterColumn, system: UnitSystem): string {
+/** Header with the unit, e.g. "Heater temperature (°F)"; the local-time column names the zone, "Made at (America/Chicago)". */
+export function columnHeader(column: RegisterColumn, system: UnitSystem, timeZone: string): string {
+  if (column.type === 'local-time') return `${column.title} (${timeZone})`;
   const unit = columnUnit(column, system);
   return unit ? `${column.title} (${unit})` : column.title;
 }
@@ -237,15 +242,17 @@ export function columnNumberFormat(column: RegisterColumn, system: UnitSystem): 
   return undefined;
 }
 
-/** Date as "2026-11-02 14:05:09" in UTC (the register's clock; see the column header). */
+// ---- Time formatting (organisation time zone; domain/dates/zone) ----
+
+/** Date as "2026-11-02 14:05:09" in UTC (the UTC column; see its header). */
 export function formatUtc(date: Date, withSeconds = false): string {
-  const iso = date.toISOString();
-  return `${iso.slice(0, 10)} ${iso.slice(11, withSeconds ? 19 : 16)}`;
+  return formatUtcInstant(date, withSeconds ? 'second' : 'minute');
 }
 
-/** A cell as text for the screen: quantities to the screen's decimals, dates in UTC. */
-export function formatCell(column: RegisterColumn, row: RegisterRow, system: UnitSystem): string {
-  const value = column.value(row, system);
+/** A cell as text for the screen: quantities to the screen's decimals, local times to the minute with their offset. */
+export function formatCell(column: RegisterColumn, row: RegisterRow, system: UnitSystem, timeZone: string): string {
+  if (column.type === 'local-time') return formatZoned(row.madeAt, timeZone, 'minute');
+  const value = column.value(row, system, timeZone);
   if (value === null || value === undefined) return '';
   if (value instanceof Date) return formatUtc(value);
   if (typeof value === 'number' && column.type === 'quantity' && column.quantity) {

@@ -17,13 +17,19 @@ export interface FilterLine {
   value: string;
 }
 
+/** The day fields' labels: local days of the organisation's zone, named ("Made on or after (local day, America/Chicago)"). */
+export function dayFilterLabels(timeZone: string): { from: string; to: string } {
+  return { from: `Made on or after (local day, ${timeZone})`, to: `Made on or before (local day, ${timeZone})` };
+}
+
 /** One line per filter field that is set, in the form's order; empty for the whole register. */
-export function describeFilter(filter: RegisterFilter, names: FilterNames): FilterLine[] {
+export function describeFilter(filter: RegisterFilter, names: FilterNames, timeZone: string): FilterLine[] {
   const lines: FilterLine[] = [];
   const idName = (id: number | undefined, name: string | null, what: string) => name ?? `${what} #${id}`;
   if (filter.job !== undefined) lines.push({ label: 'Job', value: idName(filter.job, names.job, 'job') });
-  if (filter.from !== undefined) lines.push({ label: 'Made on or after (UTC day)', value: filter.from });
-  if (filter.to !== undefined) lines.push({ label: 'Made on or before (UTC day)', value: filter.to });
+  const days = dayFilterLabels(timeZone);
+  if (filter.from !== undefined) lines.push({ label: days.from, value: filter.from });
+  if (filter.to !== undefined) lines.push({ label: days.to, value: filter.to });
   if (filter.fuser !== undefined) lines.push({ label: 'Fuser', value: idName(filter.fuser, names.fuser, 'person') });
   if (filter.machine !== undefined) lines.push({ label: 'Fusion machine', value: idName(filter.machine, names.machine, 'machine') });
   if (filter.lot !== undefined) lines.push({ label: 'Lot', value: filter.lot });

@@ -1,7 +1,9 @@
 // The Register's filter and sort, read from URL query parameters (so a view can be
 // bookmarked and shared) by the page, the JSON API and the export alike. Plain-language
-// messages name the field. Dates are whole UTC days, inclusive at both ends.
+// messages name the field. Dates are whole local days in the organisation's time zone,
+// inclusive at both ends (domain/dates/zone).
 import { z } from 'zod';
+import { localDayRange } from '@/domain/dates/zone';
 import { JOINT_PARAMETERS } from '@/domain/fusion/parameters';
 import { JOINT_OUTCOMES as REGISTER_OUTCOMES } from '@/domain/joints/outcomes';
 import { REVIEW_STATES } from '@/domain/joints/review-states';
@@ -166,8 +168,18 @@ export function viewToSearchParams(view: Partial<RegisterView>): URLSearchParams
   return params;
 }
 
-/** First instant of a UTC day and the first instant of the next one (for from/to). */
-export function dayBounds(day: string): { start: Date; nextStart: Date } {
-  const start = new Date(`${day}T00:00:00.000Z`);
-  return { start, nextStart: new Date(start.getTime() + 86_400_000) };
+/**
+ * First instant of local day `day` in `timeZone` and the first instant of the next local
+ * day (for from/to). A day with a daylight-saving change is 23 or 25 hours long.
+ */
+export function dayBounds(day: string, timeZone: string): { start: Date; nextStart: Date } {
+  return localDayRange(day, timeZone);
+}
+
+/** The instants a filter's from/to days cover in `timeZone`: [start, nextStart), either end open. */
+export function registerDayBounds(filter: Pick<RegisterFilter, 'from' | 'to'>, timeZone: string): { start?: Date; nextStart?: Date } {
+  return {
+    ...(filter.from ? { start: dayBounds(filter.from, timeZone).start } : {}),
+    ...(filter.to ? { nextStart: dayBounds(filter.to, timeZone).nextStart } : {}),
+  };
 }

@@ -62,6 +62,8 @@ export const PERMISSIONS = {
   manageJobs: ["admin"],
   manageProcedures: ["admin"],
   viewMailbox: ["admin"],
+  /** The organisation's settings (its time zone). */
+  manageOrganisation: ["admin"],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Permission = keyof typeof PERMISSIONS;

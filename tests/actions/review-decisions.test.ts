@@ -125,7 +125,7 @@ describe("review decisions", () => {
     await actAs(second);
     const late = await decideJointAction({ jointId: joint.jointId, decision: "accepted", note: "Looks acceptable to me", expectedRevisionNo: 1 });
     expect(late).toMatchObject({ ok: false, status: 409, code: "conflict" });
-    if (!late.ok) expect(late.message).toMatch(/changed while you were looking at it \(Cut out by .+ at \d{4}-\d\d-\d\d \d\d:\d\d UTC\)\. Nothing was saved/);
+    if (!late.ok) expect(late.message).toMatch(/changed while you were looking at it \(Cut out by .+ at \d{4}-\d\d-\d\d \d\d:\d\d [+\u2212]\d\d:\d\d\)\. Nothing was saved/);
     expect(await revisions(joint.jointId)).toHaveLength(2);
     expect(await state(joint.jointId)).toMatchObject({ review_state: "cut-out", revision_no: 2 });
   });

@@ -10,7 +10,7 @@ import { closeDb } from "@/database/client";
 import { iterateRegisterRows } from "@/database/queries/register";
 import { REGISTER_COLUMNS, columnHeader, type RegisterFilter, type RegisterRow } from "@/domain/register";
 import { buildRegisterJoints, type RegisterFixture } from "@/fixtures/register-joints";
-import { ownerDb, resetDatabase } from "../support/db";
+import { moveJointMadeAt, ownerDb, resetDatabase } from "../support/db";
 import { requestAs } from "../support/session";
 import { makeUser } from "../support/users";
 
@@ -22,10 +22,12 @@ let admin: Person;
 let fuser: Person;
 const noParams = { params: Promise.resolve({}) };
 const TRICKY_STATION = 'Sta. 12+50, "north" verge';
+/** The organisation's zone in these tests (set in beforeAll, as an admin would). */
+const ZONE = "America/Chicago";
 
 async function rowsOf(filter: RegisterFilter): Promise<RegisterRow[]> {
   const out: RegisterRow[] = [];
-  for await (const batch of iterateRegisterRows({ filter, sort: "madeAt", dir: "desc" })) out.push(...batch);
+  for await (const batch of iterateRegisterRows({ filter, timeZone: ZONE, sort: "madeAt", dir: "desc" })) out.push(...batch);
   return out;
 }
 
@@ -45,6 +47,7 @@ describe("register API and export", () => {
     // A place text that CSV must quote (comma and quotes), on a joint of fuser 0.
     const target = await ownerDb()("joints").where({ fuser_id: fixture.fuserIds[0] }).orderBy("id").first("id");
     await ownerDb()("joints").where({ id: target.id }).update({ station: TRICKY_STATION });
+    await ownerDb()("organisation_settings").insert({ id: 1, time_zone: ZONE });
     clerk = await makeUser({ roles: ["clerk"], unitSystem: "si", name: "Clerk Ottilie Brand" });
     inspectorUs = await makeUser({ roles: ["inspector"], unitSystem: "us", name: "Inspector Wen Harrow" });
     admin = await makeUser({ roles: ["admin"] });
@@ -127,7 +130,7 @@ describe("register API and export", () => {
     const sheet = book.getWorksheet("Joints")!;
     expect(sheet.rowCount).toBe(expected.length + 1);
     const header = (sheet.getRow(1).values as unknown[]).slice(1);
-    expect(header).toEqual(REGISTER_COLUMNS.map((c) => columnHeader(c, "us")));
+    expect(header).toEqual(REGISTER_COLUMNS.map((c) => columnHeader(c, "us", ZONE)));
     expect(header).toContain("Heater temperature (°F)");
     expect(header).toContain("Fusion gauge pressure (psi)");
     expect(header).toContain("Bead size (in)");
@@ -192,13 +195,13 @@ describe("register API and export", () => {
         .on("error", reject)
         .on("end", () => resolve(out));
     });
-    expect(records[0]).toEqual(REGISTER_COLUMNS.map((c) => columnHeader(c, "si")));
+    expect(records[0]).toEqual(REGISTER_COLUMNS.map((c) => columnHeader(c, "si", ZONE)));
     expect(records).toHaveLength(expected.length + 1);
     const stationCol = REGISTER_COLUMNS.findIndex((c) => c.key === "station");
     expect(records.slice(1).some((r) => r[stationCol] === TRICKY_STATION)).toBe(true);
     records.slice(1).forEach((record, i) => {
       REGISTER_COLUMNS.forEach((c, n) => {
-        const want = c.value(expected[i], "si");
+        const want = c.value(expected[i], "si", ZONE);
         if (want === null) expect(record[n], c.key).toBe("");
         else if (want instanceof Date) expect(new Date(record[n]).getTime(), c.key).toBe(want.getTime());
         else if (typeof want === "number") expect(Number(record[n]), c.key).toBe(want);
@@ -207,6 +210,55 @@ describe("register API and export", () => {
     });
     const exportId = Number(res.headers.get("x-beadline-export-id"));
     expect(await waitForExportEnd(exportId)).toMatchObject({ status: "done", row_count: expected.length, format: "csv" });
+  });
+
+  // America/Chicago, 2026-11-01 (IANA tz database; US DST ends the first Sunday of
+  // November at 02:00 local, 15 U.S.C. 260a): the local day runs from 00:00 CDT (−05:00) =
+  // 05:00Z to 2026-11-02 00:00 CST (−06:00) = 06:00Z; clocks go back at 07:00Z.
+  it("takes the register's day filter as a local day of the organisation's zone, in the API and the export", async () => {
+    const start = Date.parse("2026-11-01T05:00:00Z");
+    const next = Date.parse("2026-11-02T06:00:00Z");
+    const change = Date.parse("2026-11-01T07:00:00Z");
+    // Four joints put at chosen instants: 23:59 CDT on 31 October (out), 00:00 CDT (in),
+    // 01:30 CST after the change (in), 23:59 CST (in; its UTC day is 2 November).
+    const moved = (await ownerDb()("joints").orderBy("id").limit(4).select("id")) as { id: number }[];
+    const placed = ["2026-11-01T04:59:00Z", "2026-11-01T05:00:00Z", "2026-11-01T07:30:00Z", "2026-11-02T05:59:00Z"];
+    for (const [i, at] of placed.entries()) await moveJointMadeAt(moved[i].id, at);
+    const all = await rowsOf({});
+    const expected = all.filter((r) => r.madeAt.getTime() >= start && r.madeAt.getTime() < next).map((r) => r.id);
+    expect(expected.length).toBeGreaterThan(0);
+    const res = await registerGet(await requestAs(clerk, "/api/v1/register?from=2026-11-01&to=2026-11-01&limit=500"), noParams);
+    expect(res.status).toBe(200);
+    const body = (await res.json()) as { rows: { id: number; madeAt: string }[]; timeZone: string };
+    expect(body.timeZone).toBe(ZONE);
+    expect(body.rows.map((r) => r.id)).toEqual(expected);
+    expect(expected).not.toContain(moved[0].id);
+    for (const m of moved.slice(1)) expect(expected).toContain(m.id);
+    // A UTC-day filter would take other joints: the fixture has some in the hours that differ.
+    const utcDay = all.filter((r) => r.madeAt.getTime() >= Date.parse("2026-11-01T00:00:00Z") && r.madeAt.getTime() < Date.parse("2026-11-02T00:00:00Z")).map((r) => r.id);
+    expect(utcDay).not.toEqual(expected);
+
+    const csv = await exportGet(await requestAs(clerk, "/api/v1/exports/register?format=csv&from=2026-11-01&to=2026-11-01"), noParams);
+    const text = (await csv.text()).replace(/^\uFEFF/, "");
+    const records: string[][] = await new Promise((resolve, reject) => {
+      const out: string[][] = [];
+      parseString(text, { headers: false })
+        .on("data", (r: string[]) => out.push(r))
+        .on("error", reject)
+        .on("end", () => resolve(out));
+    });
+    const local = records[0].indexOf("Made at (America/Chicago)");
+    const utc = records[0].indexOf("Made at (UTC)");
+    expect(local).toBeGreaterThanOrEqual(0);
+    expect(utc).toBeGreaterThanOrEqual(0);
+    expect(records).toHaveLength(expected.length + 1);
+    for (const record of records.slice(1)) {
+      const instant = Date.parse(record[utc]);
+      // Before 07:00Z the offset is CDT −05:00, from then on CST −06:00; the local wall time is UTC plus the offset.
+      const offsetH = instant < change ? -5 : -6;
+      const wall = new Date(instant + offsetH * 3_600_000).toISOString();
+      expect(record[local]).toBe(`${wall.slice(0, 10)} ${wall.slice(11, 19)} \u2212${offsetH === -5 ? "05" : "06"}:00`);
+    }
   });
 
   it("an export of a filter that matches nothing is a header-only file", async () => {

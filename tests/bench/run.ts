@@ -21,6 +21,9 @@ import { startLocalStack, type LocalStack } from "../../database/local/stack";
 import { migrateLatest, ownerKnex } from "../../database/migrate";
 import type { BenchContext, BenchFigure } from "./context";
 import { loadSyntheticRegister, type SyntheticRegister } from "./synthetic-register";
+
+/** The server takes the organisation's zone (the server's own by default: UTC here); the knex-only figures use the same. */
+const BENCH_ZONE = "UTC";
 import { demoJointBody, signInCookie, waitForServer } from "../support/joint-body";
 
 const ROOT = path.resolve(__dirname, "..", "..");
@@ -180,7 +183,7 @@ async function measureRegister(baseUrl: string, cookie: string, data: SyntheticR
         const res = await fetch(url, { headers: { cookie } });
         await res.arrayBuffer();
       }
-      await listRegisterPage({ filter: pickFilter(query), sort: v.sort, dir: v.dir, limit: 100, withCount: true });
+      await listRegisterPage({ filter: pickFilter(query), timeZone: BENCH_ZONE, sort: v.sort, dir: v.dir, limit: 100, withCount: true });
     }
   }
   for (const v of views) {
@@ -204,8 +207,8 @@ async function measureRegister(baseUrl: string, cookie: string, data: SyntheticR
     };
     const httpFirst = await repeat(() => get(firstUrl, "first"), reps);
     const httpDeep = await repeat(() => get(deepUrl, "deep"), reps);
-    const knexFirst = await repeat(() => listRegisterPage({ filter, sort: v.sort, dir: v.dir, limit: 100, withCount: true }), knexReps);
-    const knexDeep = await repeat(() => listRegisterPage({ filter, sort: v.sort, dir: v.dir, limit: 100, after: deepCursor }), knexReps);
+    const knexFirst = await repeat(() => listRegisterPage({ filter, timeZone: BENCH_ZONE, sort: v.sort, dir: v.dir, limit: 100, withCount: true }), knexReps);
+    const knexDeep = await repeat(() => listRegisterPage({ filter, timeZone: BENCH_ZONE, sort: v.sort, dir: v.dir, limit: 100, after: deepCursor }), knexReps);
     const row = {
       view: v.name,
       count,
@@ -301,7 +304,7 @@ async function measureExport(baseUrl: string, cookie: string, data: SyntheticReg
   const all: Awaited<ReturnType<typeof collect>> = await collect();
   async function collect() {
     const out = [];
-    for await (const batch of iterateRegisterRows({ filter, sort: "madeAt", dir: "desc", batchSize: 1000 })) out.push(batch);
+    for await (const batch of iterateRegisterRows({ filter, timeZone: BENCH_ZONE, sort: "madeAt", dir: "desc", batchSize: 1000 })) out.push(batch);
     return out;
   }
   const readMs = Number(process.hrtime.bigint() - readStart) / 1e6;
@@ -318,6 +321,7 @@ async function measureExport(baseUrl: string, cookie: string, data: SyntheticReg
       exportedBy: { name: "Bench", email: "bench@bench.example" },
       exportedAt: new Date(),
       system: "si",
+      timeZone: BENCH_ZONE,
       filterLines: [{ label: "Fusion machine", value: "BM-EXPORT" }],
       sortText: "Date made, newest first",
       loadProcedures: async (ids) => {

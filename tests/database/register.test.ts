@@ -7,7 +7,10 @@ import { countRegister, findRegisterRowsByIds, iterateRegisterRows, listRegister
 import { decodeCursor, encodeCursor, registerPageQuerySchema, type RegisterFilter, type RegisterSort, type SortDirection } from "@/domain/register";
 import { coilLabelUrl, jointLabelUrl } from "@/domain/labels/label";
 import { buildRegisterJoints, type RegisterFixture } from "@/fixtures/register-joints";
-import { ownerDb, resetDatabase } from "../support/db";
+import { moveJointMadeAt, ownerDb, resetDatabase } from "../support/db";
+
+/** The zone of the reference filter below, whose days are UTC days (00:00Z to 24:00Z). */
+const ZONE = "UTC";
 
 type RefRow = {
   id: number;
@@ -127,12 +130,12 @@ function referenceSort(rows: RefRow[], sort: RegisterSort, dir: SortDirection): 
   });
 }
 
-async function pageThrough(filter: RegisterFilter, sort: RegisterSort, dir: SortDirection, limit: number): Promise<{ ids: number[]; pages: number }> {
+async function pageThrough(filter: RegisterFilter, sort: RegisterSort, dir: SortDirection, limit: number, timeZone = ZONE): Promise<{ ids: number[]; pages: number }> {
   const ids: number[] = [];
   let after;
   let pages = 0;
   for (;;) {
-    const page = await listRegisterPage({ filter, sort, dir, after, limit });
+    const page = await listRegisterPage({ filter, timeZone, sort, dir, after, limit });
     pages += 1;
     ids.push(...page.rows.map((r) => r.id));
     if (!page.next) break;
@@ -256,19 +259,19 @@ describe("register queries (keyset pages against a naive reference)", () => {
     const filter = { review: "accepted" as const };
     const expected = referenceSort(referenceFilter(all, filter), "number", "asc").map((r) => r.id);
     const ids: number[] = [];
-    for await (const batch of iterateRegisterRows({ filter, sort: "number", dir: "asc", batchSize: 250 })) ids.push(...batch.map((r) => r.id));
+    for await (const batch of iterateRegisterRows({ filter, timeZone: ZONE, sort: "number", dir: "asc", batchSize: 250 })) ids.push(...batch.map((r) => r.id));
     expect(ids).toEqual(expected);
   });
 
   it("counts exactly up to the cap and marks larger counts as estimates", async () => {
     const filter = { outcome: "out-of-limits" as const };
     const exact = referenceFilter(all, filter).length;
-    expect(await countRegister({ filter })).toEqual({ value: exact, isEstimate: false });
-    expect(await countRegister({ filter: {} })).toEqual({ value: all.length, isEstimate: false });
-    const capped = await countRegister({ filter, cap: 50 });
+    expect(await countRegister({ filter, timeZone: ZONE })).toEqual({ value: exact, isEstimate: false });
+    expect(await countRegister({ filter: {}, timeZone: ZONE })).toEqual({ value: all.length, isEstimate: false });
+    const capped = await countRegister({ filter, timeZone: ZONE, cap: 50 });
     expect(capped.isEstimate).toBe(true);
     expect(capped.value).toBeGreaterThan(50);
-    expect(await countRegister({ filter: { lot: "NO-SUCH-LOT" } })).toEqual({ value: 0, isEstimate: false });
+    expect(await countRegister({ filter: { lot: "NO-SUCH-LOT" }, timeZone: ZONE })).toEqual({ value: 0, isEstimate: false });
   });
 
   it("refuses a cursor made for another sort, and text that is no cursor", () => {
@@ -307,5 +310,73 @@ describe("register queries (keyset pages against a naive reference)", () => {
     expect(fields.fuser).toMatch(/fuser/);
     const reversed = registerPageQuerySchema.safeParse({ from: "2026-03-02", to: "2026-03-01" });
     expect(reversed.error?.issues[0]).toMatchObject({ path: ["to"], message: expect.stringMatching(/on or after the first day/) });
+  });
+});
+
+// The day filter takes local days of the zone it is given (the organisation's). Each joint
+// below sits at an instant chosen by hand around a local midnight or a daylight-saving
+// change; whether it is inside the day is worked out from the IANA tz database's published
+// offsets and DST dates, not from the code:
+// - America/Chicago: CST −06:00, CDT −05:00; US DST (15 U.S.C. 260a) starts 2026-03-08 at
+//   02:00 CST and ends 2026-11-01 at 02:00 CDT (07:00Z).
+// - Europe/Berlin: CET +01:00, CEST +02:00; EU summer time (Directive 2000/84/EC) ends
+//   2026-10-25 at 01:00Z.
+describe("register day filter in the organisation's time zone (local days across DST)", () => {
+  const CASES = [
+    // zone, day, instant, inside the local day?, why
+    ["America/Chicago", "2026-03-08", "2026-03-08T05:59:00Z", false, "23:59 CST on the 7th"],
+    ["America/Chicago", "2026-03-08", "2026-03-08T06:00:00Z", true, "00:00 CST"],
+    ["America/Chicago", "2026-03-08", "2026-03-08T08:00:00Z", true, "03:00 CDT, just after the change"],
+    ["America/Chicago", "2026-03-08", "2026-03-09T04:59:00Z", true, "23:59 CDT"],
+    ["America/Chicago", "2026-03-08", "2026-03-09T05:00:00Z", false, "00:00 CDT on the 9th (the 23-hour day has ended)"],
+    ["America/Chicago", "2026-11-01", "2026-11-01T04:59:00Z", false, "23:59 CDT on 31 October"],
+    ["America/Chicago", "2026-11-01", "2026-11-01T05:00:00Z", true, "00:00 CDT"],
+    ["America/Chicago", "2026-11-01", "2026-11-01T06:30:00Z", true, "01:30 CDT, the first 01:30"],
+    ["America/Chicago", "2026-11-01", "2026-11-01T07:30:00Z", true, "01:30 CST, the second 01:30"],
+    ["America/Chicago", "2026-11-01", "2026-11-02T05:59:00Z", true, "23:59 CST (the 25th hour of the day)"],
+    ["America/Chicago", "2026-11-01", "2026-11-02T06:00:00Z", false, "00:00 CST on 2 November"],
+    ["Europe/Berlin", "2026-10-25", "2026-10-24T21:59:00Z", false, "23:59 CEST on the 24th"],
+    ["Europe/Berlin", "2026-10-25", "2026-10-24T22:00:00Z", true, "00:00 CEST"],
+    ["Europe/Berlin", "2026-10-25", "2026-10-25T22:59:00Z", true, "23:59 CET"],
+    ["Europe/Berlin", "2026-10-25", "2026-10-25T23:00:00Z", false, "00:00 CET on the 26th"],
+  ] as const;
+  const placed = new Map<string, number>(); // instant → joint id
+
+  beforeAll(async () => {
+    await resetDatabase();
+    // Joints made in June, far from every day below, then each moved to one chosen instant.
+    await buildRegisterJoints(ownerDb(), { count: CASES.length, seed: 5, now: new Date("2026-06-30T12:00:00Z"), days: 5 });
+    const ids = ((await ownerDb()("joints").orderBy("id").select("id")) as { id: number }[]).map((r) => Number(r.id));
+    expect(ids).toHaveLength(CASES.length);
+    for (const [i, c] of CASES.entries()) {
+      await moveJointMadeAt(ids[i], c[2]);
+      placed.set(c[2], ids[i]);
+    }
+  }, 120_000);
+
+  afterAll(async () => {
+    await closeDb();
+  });
+
+  const days = [...new Set(CASES.map((c) => `${c[0]} ${c[1]}`))];
+  it.each(days)("filter: the local day %s (API order, count, and not the UTC day)", async (zoneDay) => {
+    const [zone, day] = zoneDay.split(" ") as [string, string];
+    const cases = CASES.filter((c) => c[0] === zone && c[1] === day);
+    const inside = cases.filter((c) => c[3]).map((c) => placed.get(c[2])!);
+    const page = await listRegisterPage({ filter: { from: day, to: day }, timeZone: zone, sort: "madeAt", dir: "asc", limit: 100, withCount: true });
+    expect(page.rows.map((r) => r.id).sort()).toEqual([...inside].sort());
+    expect(page.count).toEqual({ value: inside.length, isEstimate: false });
+    // The same day read as a UTC day takes other joints, so the check tells the two apart.
+    const utc = await listRegisterPage({ filter: { from: day, to: day }, timeZone: "UTC", limit: 100 });
+    expect(utc.rows.map((r) => r.id).sort()).not.toEqual([...inside].sort());
+  });
+
+  it("the states-table driver (a review filter) takes the same local day", async () => {
+    const inside = CASES.filter((c) => c[0] === "America/Chicago" && c[1] === "2026-11-01" && c[3]).map((c) => placed.get(c[2])!);
+    const review = String((await ownerDb()("joint_states").where({ joint_id: inside[0] }).first("review_state")).review_state) as "pending-review" | "accepted" | "cut-out";
+    const states = await listRegisterPage({ filter: { from: "2026-11-01", to: "2026-11-01", review }, timeZone: "America/Chicago", limit: 100 });
+    const same = (await ownerDb()("joint_states").whereIn("joint_id", inside).where({ review_state: review }).select("joint_id")) as { joint_id: number }[];
+    expect(same.length).toBeGreaterThan(0);
+    expect(states.rows.map((r) => r.id).sort()).toEqual(same.map((r) => Number(r.joint_id)).sort());
   });
 });

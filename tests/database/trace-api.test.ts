@@ -56,18 +56,22 @@ describe("GET /api/v1/trace/lot", () => {
   });
 
   it("exports the same list as a spreadsheet", async () => {
+    await ownerDb()("organisation_settings").insert({ id: 1, time_zone: "America/Chicago" });
     const response = await exportLot(await requestAs(clerk, "/api/v1/trace/lot/export?code=LV-C0002"), none);
+    await ownerDb()("organisation_settings").where({ id: 1 }).delete();
     expect(response.status).toBe(200);
     expect(response.headers.get("content-disposition")).toBe('attachment; filename="trace-4410021.xlsx"');
     const book = new ExcelJS.Workbook();
     await book.xlsx.load(await response.arrayBuffer());
     const joints = book.getWorksheet("Joints")!;
     const header = (joints.getRow(1).values as unknown[]).slice(1) as string[];
-    expect(header.slice(0, 5)).toEqual(["Job", "Job name", "Joint", "Joint reference", "Made at (UTC)"]);
+    expect(header.slice(0, 6)).toEqual(["Job", "Job name", "Joint", "Joint reference", "Made at (America/Chicago)", "Made at (UTC)"]);
     expect(joints.rowCount).toBe(2);
     const values = (joints.getRow(2).values as unknown[]).slice(1);
     const row = Object.fromEntries(header.map((h, i) => [h, values[i]]));
     expect(row).toMatchObject({ Job: "WO-24152", "Job name": "Orchard Rise service extension", "Made at (UTC)": new Date("2026-11-28T09:30:00Z") });
+    // IANA tz database: Chicago is on CST (−06:00) after US DST ended on 2026-11-01, so 09:30Z is 03:30 local.
+    expect(row["Made at (America/Chicago)"]).toBe("2026-11-28 03:30 \u221206:00");
     expect(row).toMatchObject({ Station: "2+40", Latitude: 41.21881, Longitude: -77.21072, Fuser: "Robin Ashdown", "Review state": "Pending review", "In the ground": "Yes" });
     expect(row).toMatchObject({ "Component A": "LV-C0004", "Lot A": "4410388", "Component B": "LV-C0001", "Lot B": "4410021", "Lot on side": "B", "Joint id": jointId });
     expect(book.getWorksheet("Coils")!.rowCount).toBe(5);

@@ -64,6 +64,7 @@ const TABLE: Record<Permission, [boolean, boolean, boolean, boolean, string]> = 
   manageJobs: /*              */ [N, N, N, Y, "admin: jobs"],
   manageProcedures: /*        */ [N, N, N, Y, "admin: procedures"],
   viewMailbox: /*             */ [N, N, N, Y, "admin: the mail the people of the office are sent"],
+  manageOrganisation: /*      */ [N, N, N, Y, "admin: the organisation's time zone (an admin setting)"],
 };
 
 const ROLE_ORDER: Role[] = ["fuser", "inspector", "clerk", "admin"];

@@ -10,6 +10,7 @@ import type { Knex } from "knex";
 import { ownerKnex } from "@/database/migrate";
 import { buildRegisterJoints, removeRegisterJoints, type RegisterFixture } from "@/fixtures/register-joints";
 import { RegisterPage } from "./pages/register-page";
+import { CrewPage } from "./pages/office-pages";
 import { SignInPage } from "./pages/sign-in-page";
 
 let k: Knex;
@@ -27,6 +28,7 @@ test.beforeAll(async () => {
 
 test.afterAll(async () => {
   if (fixture) await removeRegisterJoints(k, fixture);
+  await k?.("organisation_settings").delete(); // back to the server's zone for the other specs
   await k?.destroy();
 });
 
@@ -86,4 +88,20 @@ test("a fuser has no register", async ({ page }) => {
   expect(api.status()).toBe(403);
   const exported = await page.request.get("/api/v1/exports/register?format=csv");
   expect(exported.status()).toBe(403);
+});
+
+test("the admin sets the organisation's time zone and the register shows local times and local days", async ({ page }) => {
+  await new SignInPage(page).signInAs("admin");
+  const status = await new CrewPage(page).setTimeZone("America/Chicago");
+  await expect(status).toContainText("Time zone set to America/Chicago");
+  await expect(page.getByText("Times in America/Chicago")).toBeVisible();
+  await page.screenshot({ path: "tests/e2e/artifacts/organisation-time-zone.png", fullPage: true });
+
+  const register = new RegisterPage(page);
+  await register.open();
+  await expect(register.columnHeader(/Made at \(America\/Chicago\)/)).toBeVisible();
+  await expect(register.field("Made on or after (local day, America/Chicago)")).toBeVisible();
+  // IANA tz database: Chicago is UTC−06:00 (CST) or UTC−05:00 (CDT); every time shows one of them.
+  await expect(register.grid().getByRole("gridcell", { name: /^\d{4}-\d{2}-\d{2} \d{2}:\d{2} \u221206:00$|^\d{4}-\d{2}-\d{2} \d{2}:\d{2} \u221205:00$/ }).first()).toBeVisible();
+  await page.screenshot({ path: "tests/e2e/artifacts/register-local-time.png", fullPage: true });
 });

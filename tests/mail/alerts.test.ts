@@ -157,7 +157,7 @@ describe("out-of-limits alerts through SMTP", () => {
     expect(await listOutbox()).toHaveLength(0);
     // Before the day's cut-off nothing is folded; after it, one mail with both joints.
     const created = (await ownerDb()("mail_digest_items").min({ t: "created_at" }).first())!.t as Date;
-    expect(await foldDailyDigests({ now: new Date(created.getTime() - 1000), hourUtc: (created.getUTCHours() + 1) % 24 })).toBe(0);
+    expect(await foldDailyDigests({ now: new Date(created.getTime() - 1000), hour: (created.getUTCHours() + 1) % 24 })).toBe(0);
     const nextDay = new Date(created.getTime() + 86_400_000);
     expect(await foldDailyDigests({ now: nextDay })).toBe(1);
     expect(await foldDailyDigests({ now: nextDay })).toBe(0);

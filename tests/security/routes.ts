@@ -110,6 +110,7 @@ export const ACTIONS: readonly ActionEntry[] = [
   a(`${SIGNED_IN}/crew/actions.ts`, "resetPasswordAction", "manageCrew"),
   a(`${SIGNED_IN}/crew/actions.ts`, "recordQualificationAction", "manageCrew"),
   a(`${SIGNED_IN}/crew/actions.ts`, "recordQualificationFailureAction", "manageCrew"),
+  a(`${SIGNED_IN}/crew/actions.ts`, "setOrganisationTimeZoneAction", "manageOrganisation"),
 
   a(`${SIGNED_IN}/equipment/actions.ts`, "createMachineAction", "manageEquipment"),
   a(`${SIGNED_IN}/equipment/actions.ts`, "updateMachineAction", "manageEquipment"),

@@ -40,3 +40,11 @@ export async function userIdByEmail(email: string): Promise<number> {
   if (!row) throw new Error(`no user ${email}`);
   return Number(row.id);
 }
+
+/** Moves a joint to another instant in every table that keeps a copy of made_at (day-filter tests). */
+export async function moveJointMadeAt(id: number, at: string | Date): Promise<void> {
+  const when = new Date(at);
+  await ownerDb()("joints").where({ id }).update({ made_at: when });
+  await ownerDb()("joint_states").where({ joint_id: id }).update({ made_at: when });
+  await ownerDb()("joint_findings").where({ joint_id: id }).update({ made_at: when });
+}

@@ -6,7 +6,7 @@ import { UnitToggle } from "./unit-toggle";
 import type { UnitSystem } from "@/domain/units/format";
 
 /** The responsive shell: a top bar with the person and a navigation of their screens. */
-export function AppShell({ user, screens, children }: { user: { name: string; roles: Role[]; unitSystem: UnitSystem }; screens: Screen[]; children: React.ReactNode }) {
+export function AppShell({ user, screens, timeZone, children }: { user: { name: string; roles: Role[]; unitSystem: UnitSystem }; screens: Screen[]; timeZone: string; children: React.ReactNode }) {
   return (
     <div className="flex min-h-screen flex-col">
       <header className="no-print bg-brand text-white">
@@ -18,6 +18,7 @@ export function AppShell({ user, screens, children }: { user: { name: string; ro
             <span>
               <span className="font-semibold">{user.name}</span> · {user.roles.map((r) => ROLE_LABELS[r]).join(", ")}
             </span>
+            <span>Times in {timeZone}</span>
             <UnitToggle unitSystem={user.unitSystem} />
             <form action={signOutAction}>
               <button type="submit" className="min-h-touch rounded-md border-2 border-white px-3 font-semibold hover:bg-brand-dark">

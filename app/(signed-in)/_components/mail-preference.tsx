@@ -1,9 +1,11 @@
 "use client";
 import { useState, useTransition } from "react";
 import { setMailPreferenceAction } from "../mailbox/actions";
+import { useTimeZone } from "@/components/ui/time-zone";
 
 /** One mail per alert, or one summary a day (the daily digest). */
 export function MailPreference({ dailyDigest }: { dailyDigest: boolean }) {
+  const timeZone = useTimeZone();
   const [value, setValue] = useState(dailyDigest);
   const [message, setMessage] = useState<string | null>(null);
   const [pending, start] = useTransition();
@@ -24,7 +26,7 @@ export function MailPreference({ dailyDigest }: { dailyDigest: boolean }) {
       </label>
       <label className="flex min-h-touch items-center gap-2">
         <input type="radio" name="daily-digest" checked={value} onChange={() => choose(true)} className="h-5 w-5" />
-        <span>One summary a day (06:00 UTC)</span>
+        <span>One summary a day (06:00 {timeZone})</span>
       </label>
       <p role="status" aria-live="polite" className="text-sm">
         {message}

@@ -3,11 +3,13 @@
 import Link from "next/link";
 import { listHeatersNeedingCheck, listMachinesWithoutPistonArea } from "@/database/queries/equipment";
 import { qualificationStatusOverview } from "@/database/queries/qualifications";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import { QualifiedPeopleList } from "@/components/qualifications/qualification-lists";
 import { TodayPanel } from "./today-panel";
 
 export async function TodayAdmin({ now }: { now: Date }) {
-  const [statuses, heaters, machines] = await Promise.all([qualificationStatusOverview({ now }), listHeatersNeedingCheck({ now }), listMachinesWithoutPistonArea()]);
+  const timeZone = await organisationTimeZone();
+  const [statuses, heaters, machines] = await Promise.all([qualificationStatusOverview({ now, timeZone }), listHeatersNeedingCheck({ now, timeZone }), listMachinesWithoutPistonArea()]);
   const attention = statuses.filter((s) => s.userIsActive && (s.status.state === "due-soon" || s.status.state === "lapsed" || s.status.state === "requalification-needed"));
   return (
     <>

@@ -26,7 +26,7 @@ export async function TodayClerk({ userId }: { userId: number }) {
           <ul className="list-disc pl-5">
             {exports.exports.map((e) => (
               <li key={e.id}>
-                {e.format.toUpperCase()} export started <TimeDisplay at={e.startedAt} withZone />: still running
+                {e.format.toUpperCase()} export started <TimeDisplay at={e.startedAt} />: still running
               </li>
             ))}
           </ul>

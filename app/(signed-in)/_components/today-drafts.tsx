@@ -4,6 +4,8 @@
 // so only the browser can show them.
 import Link from "next/link";
 import { useSyncExternalStore } from "react";
+import { formatInstant } from "@/components/ui/display-format";
+import { useTimeZone } from "@/components/ui/time-zone";
 
 const PREFIX = "beadline.trench.";
 
@@ -31,6 +33,7 @@ const subscribe = (onChange: () => void) => {
 const STATE_WORDS: Record<string, string> = { waiting: "waiting to send", sending: "sending", refused: "refused" };
 
 export function TodayDrafts({ userId }: { userId: number }) {
+  const timeZone = useTimeZone();
   // A string snapshot keeps useSyncExternalStore stable between renders.
   const snapshot = useSyncExternalStore(subscribe, () => read(userId), () => "server");
   if (snapshot === "server") return <p>Looking for drafts on this device …</p>;
@@ -43,7 +46,7 @@ export function TodayDrafts({ userId }: { userId: number }) {
           <Link href="/trench" className="font-semibold text-brand underline">
             A joint in progress
           </Link>
-          {work.draftSavedAt ? ` (saved ${work.draftSavedAt.slice(0, 16).replace("T", " ")} UTC)` : ""}
+          {work.draftSavedAt && !Number.isNaN(Date.parse(work.draftSavedAt)) ? ` (saved ${formatInstant(work.draftSavedAt, "minute", timeZone)})` : ""}
         </li>
       ) : null}
       {work.outbox.map((e, i) => (

@@ -1,12 +1,13 @@
 // Today for a fuser: their open jobs, their drafts on this device, their qualification status.
 import { listOpenJobsForFuser } from "@/database/queries/jobs";
 import { qualificationStatusOverview } from "@/database/queries/qualifications";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import { QualificationStatusList } from "@/components/qualifications/qualification-lists";
 import { TodayDrafts } from "./today-drafts";
 import { TodayPanel } from "./today-panel";
 
 export async function TodayFuser({ userId, now }: { userId: number; now: Date }) {
-  const [jobs, statuses] = await Promise.all([listOpenJobsForFuser({ userId }), qualificationStatusOverview({ userId, now })]);
+  const [jobs, statuses] = await Promise.all([listOpenJobsForFuser({ userId }), qualificationStatusOverview({ userId, now, timeZone: await organisationTimeZone() })]);
   const anyQualified = statuses.some((s) => s.status.qualified);
   return (
     <>

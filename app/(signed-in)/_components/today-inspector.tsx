@@ -12,7 +12,7 @@ export async function TodayInspector() {
       </p>
       {queue.oldest ? (
         <p>
-          Oldest: job {queue.oldest.jobCode} joint {queue.oldest.jointNo}, made <TimeDisplay at={queue.oldest.madeAt} withZone /> ({queue.oldest.outcome === "out-of-limits" ? "out of limits" : "within limits"}).
+          Oldest: job {queue.oldest.jobCode} joint {queue.oldest.jointNo}, made <TimeDisplay at={queue.oldest.madeAt} /> ({queue.oldest.outcome === "out-of-limits" ? "out of limits" : "within limits"}).
         </p>
       ) : null}
     </TodayPanel>

@@ -8,12 +8,14 @@ import { FieldShell } from "@/components/form/field-shell";
 import { CoilStatusBadge } from "@/components/ui/badges";
 import { DataTable } from "@/components/ui/data-table";
 import { formatInstant } from "@/components/ui/display-format";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 
 export const dynamic = "force-dynamic";
 
 // Coils: every coil on file with its status and length left; pick coils to print labels for.
 export default async function CoilsPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const user = await requireUser("listCoils");
+  const timeZone = await organisationTimeZone();
   const params = await searchParams;
   const statusParam = typeof params.status === "string" ? params.status : "all";
   const status = (COIL_STATUSES as readonly string[]).includes(statusParam) ? (statusParam as CoilStatus) : "all";
@@ -83,7 +85,7 @@ export default async function CoilsPage({ searchParams }: { searchParams: Promis
             { header: "Left of length", align: "right", cell: (c) => `${formatQuantity(c.remainingM, "length-m", user.unitSystem)} of ${formatQuantity(c.lengthM, "length-m", user.unitSystem)}` },
             { header: "Status", cell: (c) => <CoilStatusBadge status={c.status} /> },
             { header: "Crew / job", cell: (c) => [c.crewName, c.jobCode].filter(Boolean).join(" · ") || "—" },
-            { header: "Label printed", cell: (c) => (c.labelPrintedAt ? formatInstant(c.labelPrintedAt, "date") : "not yet") },
+            { header: "Label printed", cell: (c) => (c.labelPrintedAt ? formatInstant(c.labelPrintedAt, "date", timeZone) : "not yet") },
           ]}
         />
         <div>

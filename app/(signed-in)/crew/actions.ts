@@ -1,5 +1,6 @@
 "use server";
-// Server actions of the Crew screen (admin only): people, roles, passwords, qualifications.
+// Server actions of the Crew screen (admin only): people, roles, passwords, qualifications,
+// and the organisation's time zone.
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { defineAction } from "@/app/_lib/guard";
@@ -10,6 +11,8 @@ import { resetPassword } from "@/app/_server/crew/reset-password";
 import { updatePersonAccess } from "@/app/_server/crew/update-person-access";
 import { recordQualification } from "@/app/_server/crew/record-qualification";
 import { recordQualificationFailure } from "@/app/_server/crew/record-qualification-failure";
+import { setOrganisationTimeZone } from "@/app/_server/organisation/set-time-zone";
+import { organisationSettingsSchema } from "@/domain/dates/zone";
 
 const done = <T>(value: T): T => {
   revalidatePath("/crew");
@@ -48,3 +51,11 @@ export const recordQualificationAction = defineAction({ permission: "manageCrew"
 });
 
 export const recordQualificationFailureAction = defineAction({ permission: "manageCrew", schema: recordQualificationFailureSchema }, async (input, ctx) => done(await recordQualificationFailure(input, ctx)));
+
+/** The organisation's time zone (the Organisation section of this screen). */
+export const setOrganisationTimeZoneAction = defineAction({ permission: "manageOrganisation", schema: organisationSettingsSchema }, async (input, ctx) => {
+  const result = await setOrganisationTimeZone(input, ctx);
+  // Every screen shows times in this zone.
+  revalidatePath("/", "layout");
+  return result;
+});

@@ -2,10 +2,13 @@ import Link from "next/link";
 import { requireUser } from "@/app/_lib/page-guard";
 import { qualificationStatusOverview } from "@/database/queries/qualifications";
 import { listCrews, listUsers } from "@/database/queries/users";
-import { ROLE_LABELS } from "@/domain/roles";
+import { ROLE_LABELS, can } from "@/domain/roles";
 import { DataTable } from "@/components/ui/data-table";
 import { SectionCard } from "@/components/ui/section-card";
 import { AddPersonForm } from "./_components/add-person-form";
+import { OrganisationForm } from "./_components/organisation-form";
+import { getOrganisationTimeZone, serverTimeZone } from "@/app/_server/organisation/get-time-zone";
+import { formatZoned, timeZoneChoices } from "@/domain/dates/zone";
 import { QualificationBadge } from "@/components/qualifications/qualification-badge";
 import { QualifiedPeopleList } from "@/components/qualifications/qualification-lists";
 
@@ -13,8 +16,9 @@ export const dynamic = "force-dynamic";
 
 // Crew (admin): people, roles and who is qualified for which procedure (49 CFR 192.285).
 export default async function CrewPage() {
-  await requireUser("manageCrew");
-  const [people, crews, statuses] = await Promise.all([listUsers(), listCrews(), qualificationStatusOverview()]);
+  const user = await requireUser("manageCrew");
+  const zone = await getOrganisationTimeZone();
+  const [people, crews, statuses] = await Promise.all([listUsers(), listCrews(), qualificationStatusOverview({ timeZone: zone.timeZone })]);
   const active = statuses.filter((s) => s.userIsActive);
   const lapsing = active.filter((s) => s.status.state === "due-soon");
   const lapsed = active.filter((s) => s.status.state === "lapsed" || s.status.state === "requalification-needed");
@@ -73,6 +77,17 @@ export default async function CrewPage() {
       <SectionCard id="add-person" title="Add a person" tone="card">
         <AddPersonForm crews={crews} />
       </SectionCard>
+      {can(user, "manageOrganisation") ? (
+        <SectionCard id="organisation" title="Organisation" tone="card">
+          <OrganisationForm
+            timeZone={zone.timeZone}
+            isChosen={zone.isChosen}
+            serverZone={serverTimeZone()}
+            choices={timeZoneChoices(Intl.supportedValuesOf("timeZone"), zone.timeZone)}
+            example={formatZoned(new Date(), zone.timeZone, "minute")}
+          />
+        </SectionCard>
+      ) : null}
     </div>
   );
 }

@@ -4,6 +4,7 @@ import { listHeatersWithLastCheck, listMachines } from "@/database/queries/equip
 import { formatRange } from "@/domain/units/format";
 import { DataTable } from "@/components/ui/data-table";
 import { formatInstant } from "@/components/ui/display-format";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import { SectionCard } from "@/components/ui/section-card";
 import { AssetTagCell } from "./_components/asset-tag-cell";
 import { HeaterForm } from "./_components/heater-form";
@@ -15,8 +16,9 @@ export const dynamic = "force-dynamic";
 // Equipment (admin): fusion machines with their piston areas, heater plates with their checks.
 export default async function EquipmentPage() {
   const user = await requireUser("manageEquipment");
+  const timeZone = await organisationTimeZone();
   const units = user.unitSystem;
-  const [machines, heaters] = await Promise.all([listMachines(), listHeatersWithLastCheck()]);
+  const [machines, heaters] = await Promise.all([listMachines(), listHeatersWithLastCheck({ timeZone })]);
   return (
     <div className="flex flex-col gap-6">
       <h1 className="text-2xl font-bold">Equipment</h1>
@@ -49,7 +51,7 @@ export default async function EquipmentPage() {
               header: "Last check",
               cell: (h) =>
                 h.lastCheck
-                  ? `${formatInstant(h.lastCheck.checkedAt, "minute", true)} · ${h.lastCheck.passed ? "passed" : "FAILED"} · ${shown(Math.min(...h.lastCheck.readings.faceA, ...h.lastCheck.readings.faceB), "temperature", units)} to ${shown(Math.max(...h.lastCheck.readings.faceA, ...h.lastCheck.readings.faceB), "temperature", units)}`
+                  ? `${formatInstant(h.lastCheck.checkedAt, "minute", timeZone)} · ${h.lastCheck.passed ? "passed" : "FAILED"} · ${shown(Math.min(...h.lastCheck.readings.faceA, ...h.lastCheck.readings.faceB), "temperature", units)} to ${shown(Math.max(...h.lastCheck.readings.faceA, ...h.lastCheck.readings.faceB), "temperature", units)}`
                   : "Never checked",
             },
             { header: "Next check due", cell: (h) => h.nextDueOn ?? "now" },

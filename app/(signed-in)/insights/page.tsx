@@ -13,6 +13,9 @@ import { PARAMETER_LABELS } from "@/domain/fusion/parameters";
 import { FieldShell } from "@/components/form/field-shell";
 import { TimeDisplay } from "@/components/ui/time-display";
 import { InsightsCharts } from "./_components/insights-charts";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
+import { isoDateIn, localDayRange } from "@/domain/dates/zone";
+import { addDays } from "@/domain/dates/civil";
 
 export const dynamic = "force-dynamic";
 
@@ -26,14 +29,16 @@ export default async function InsightsPage({ searchParams }: { searchParams: Pro
   const one = (v: string | string[] | undefined) => (Array.isArray(v) ? v[0] : v);
   const weeks = PERIODS.find((p) => String(p) === one(params.weeks)) ?? 12;
   const jobId = Number(one(params.job)) || undefined;
-  const now = new Date();
-  const to = new Date(Date.UTC(now.getUTCFullYear(), now.getUTCMonth(), now.getUTCDate() + 1));
-  const from = new Date(to.getTime() - weeks * 7 * 86_400_000);
+  // The period is whole local days in the organisation's zone, ending with today.
+  const timeZone = await organisationTimeZone();
+  const today = isoDateIn(new Date(), timeZone);
+  const to = localDayRange(today, timeZone).nextStart;
+  const from = localDayRange(addDays(today, 1 - weeks * 7), timeZone).start;
   const filter = { from, to, jobId };
   const [jobs, summary, byWeek, byFuser, byMachine, findings, heater, cooling] = await Promise.all([
     listJobs(),
     insightsSummary(filter),
-    firstPassYieldByWeek(filter),
+    firstPassYieldByWeek({ ...filter, timeZone }),
     firstPassYieldByFuser(filter),
     firstPassYieldByMachine(filter),
     findingsByParameter(filter),
@@ -72,7 +77,7 @@ export default async function InsightsPage({ searchParams }: { searchParams: Pro
         </button>
       </form>
       <p>
-        <TimeDisplay at={from} precision="date" /> to <TimeDisplay at={to.getTime() - 86_400_000} precision="date" />: <strong>{summary.joints}</strong> joints, first-pass yield{" "}
+        <TimeDisplay at={from} precision="date" /> to <TimeDisplay at={to.getTime() - 1} precision="date" />: <strong>{summary.joints}</strong> joints, first-pass yield{" "}
         <strong>{summary.joints ? `${summary.yieldPct} %` : "—"}</strong>, {summary.outOfLimits} out of limits, {summary.cutOut} cut out, {summary.pending} waiting for review.
       </p>
       <p className="text-sm text-slate-700">First-pass yield: joints within limits (when recorded and, where a pressure trace is attached, by the trace) and not cut out, as a share of all joints made.</p>

@@ -9,6 +9,7 @@ import { LABEL_STOCKS, SHEETS, SHEET_IDS, labelPaperFor, layoutSheet, placeLabel
 import { QUARANTINED_LABEL_WARNING } from "@/domain/labels/label";
 import { publicBaseUrl } from "@/app/_server/labels/base-url";
 import { coilLabelSvg, jointLabelSvg, stockOrDefault } from "@/app/_server/labels/render";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import { PrintLabelsButton } from "./_components/print-button";
 import { FieldShell } from "@/components/form/field-shell";
 
@@ -45,8 +46,8 @@ export default async function LabelsPage({ searchParams }: { searchParams: Promi
     quarantined = coils.filter((c) => c.status === "quarantined").map((c) => c.coilCode);
     labels = coils.map((c) => ({ key: `c${c.id}`, ...coilLabelSvg(c, { baseUrl, stock, system, standalone: false }) }));
   } else {
-    const joints = await findJointLabelFacts({ jointIds: ids });
-    labels = joints.map((j) => ({ key: `j${j.id}`, ...jointLabelSvg(j, { baseUrl, stock, standalone: false }) }));
+    const [joints, timeZone] = await Promise.all([findJointLabelFacts({ jointIds: ids }), organisationTimeZone()]);
+    labels = joints.map((j) => ({ key: `j${j.id}`, ...jointLabelSvg(j, { baseUrl, stock, timeZone, standalone: false }) }));
   }
   const layout = layoutSheet(sheet, stock);
   const placed = placeLabels(layout, labels.length, skip);

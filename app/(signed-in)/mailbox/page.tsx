@@ -4,22 +4,23 @@ import { countOutboxByStatus, listOutbox, type MailStatus, type OutboxMail } fro
 import { mailKindLabel } from "@/domain/mail/digest";
 import { DataTable } from "@/components/ui/data-table";
 import { formatInstant } from "@/components/ui/display-format";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import { SectionCard } from "@/components/ui/section-card";
 import { RetryButton } from "./_components/retry-button";
 import { MailPreference } from "../_components/mail-preference";
 
 export const dynamic = "force-dynamic";
 
-const at = (d: Date | null) => (d ? formatInstant(d, "second", true) : "—");
+const at = (d: Date | null, timeZone: string) => (d ? formatInstant(d, "second", timeZone) : "—");
 
-function stateWords(m: OutboxMail): string {
+function stateWords(m: OutboxMail, timeZone: string): string {
   switch (m.status) {
     case "queued":
-      return m.attempts === 0 ? "Waiting to send" : `Waiting to retry (attempt ${m.attempts + 1} at ${at(m.nextAttemptAt)})`;
+      return m.attempts === 0 ? "Waiting to send" : `Waiting to retry (attempt ${m.attempts + 1} at ${at(m.nextAttemptAt, timeZone)})`;
     case "sending":
       return "Being sent now";
     case "sent":
-      return `Sent ${at(m.sentAt)}`;
+      return `Sent ${at(m.sentAt, timeZone)}`;
     case "failed":
       return `Failed after ${m.attempts} attempts`;
   }
@@ -31,6 +32,7 @@ const STATUS_LABELS: Record<MailStatus, string> = { queued: "Waiting", sending: 
 // development — the messages the local fake mail server received.
 export default async function MailboxPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const user = await requireUser("viewMailbox");
+  const timeZone = await organisationTimeZone();
   const params = await searchParams;
   const statusParam = Array.isArray(params.status) ? params.status[0] : params.status;
   const status = (["queued", "sending", "sent", "failed"] as const).find((s) => s === statusParam);
@@ -75,11 +77,11 @@ export default async function MailboxPage({ searchParams }: { searchParams: Prom
           rowClassName={(m) => (m.status === "failed" ? "bg-fail-light" : "")}
           empty={<span className="text-slate-700">No mail {status ? `is ${STATUS_LABELS[status].toLowerCase()}` : "has been queued yet"}.</span>}
           columns={[
-            { header: "Queued", className: "whitespace-nowrap", cell: (m) => at(m.createdAt) },
+            { header: "Queued", className: "whitespace-nowrap", cell: (m) => at(m.createdAt, timeZone) },
             { header: "To", cell: (m) => m.to },
             { header: "Subject", isRowHeader: true, cell: (m) => m.subject },
             { header: "Kind", cell: (m) => mailKindLabel(m.kind) },
-            { header: "State", cell: (m) => <span className={`font-semibold ${m.status === "failed" ? "text-fail" : m.status === "sent" ? "text-pass" : ""}`}>{stateWords(m)}</span> },
+            { header: "State", cell: (m) => <span className={`font-semibold ${m.status === "failed" ? "text-fail" : m.status === "sent" ? "text-pass" : ""}`}>{stateWords(m, timeZone)}</span> },
             { header: "Last error", cell: (m) => m.lastError ?? "" },
             { header: <span className="sr-only">Actions</span>, cell: (m) => (m.status === "failed" ? <RetryButton id={m.id} subject={m.subject} /> : null) },
           ]}
@@ -98,7 +100,7 @@ export default async function MailboxPage({ searchParams }: { searchParams: Prom
                       <summary className="min-h-touch cursor-pointer">
                         <span className="font-semibold">{m.subject || "(no subject)"}</span>
                         <span className="block text-sm text-slate-700">
-                          to {m.to.join(", ")} · received {at(m.receivedAt)}
+                          to {m.to.join(", ")} · received {at(m.receivedAt, timeZone)}
                         </span>
                       </summary>
                       <pre className="mt-2 whitespace-pre-wrap break-words font-sans text-sm">{m.bodyText}</pre>

@@ -4,6 +4,7 @@ import { builtInProcedure } from "@/domain/procedures";
 import { can } from "@/domain/roles";
 import { DataTable } from "@/components/ui/data-table";
 import { formatInstant } from "@/components/ui/display-format";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import { SectionCard } from "@/components/ui/section-card";
 import { AddProcedureForm } from "./_components/add-procedure-form";
 import { standardOptions } from "./_lib/views";
@@ -13,6 +14,7 @@ export const dynamic = "force-dynamic";
 // Procedures: the operator's written joining procedures, each based on a published standard.
 export default async function ProceduresPage() {
   const user = await requireUser("viewProcedures");
+  const timeZone = await organisationTimeZone();
   const procedures = await listProcedures();
   const current = await Promise.all(procedures.map((p) => currentProcedureVersion({ procedureId: p.id })));
   return (
@@ -33,7 +35,7 @@ export default async function ProceduresPage() {
               className: "text-sm text-slate-700",
               cell: (p) => (
                 <>
-                  Based on {builtInProcedure(p.standard).label}. {p.current ? `Current version ${p.current.versionNo}, published ${formatInstant(p.current.publishedAt, "date")}.` : "No version published."}
+                  Based on {builtInProcedure(p.standard).label}. {p.current ? `Current version ${p.current.versionNo}, published ${formatInstant(p.current.publishedAt, "date", timeZone)}.` : "No version published."}
                   {p.isActive ? "" : " Retired."}
                 </>
               ),

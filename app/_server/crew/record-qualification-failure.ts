@@ -4,7 +4,8 @@ import "server-only";
 import { db } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { findJointFuserId, insertQualificationFailure } from "@/database/queries/qualifications";
-import { isoDateOf } from "@/domain/dates/civil";
+import { isoDateIn } from "@/domain/dates/zone";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import type { RecordQualificationFailureInput } from "@/domain/qualifications/schemas";
 import type { QualificationStatus } from "@/domain/qualifications/status";
 import { AppError } from "@/domain/result";
@@ -13,7 +14,8 @@ import { checkPersonAndProcedure, notInFuture, statusFor } from "./qualification
 type Ctx = { user: { id: number }; requestId: string };
 
 export async function recordQualificationFailure(input: RecordQualificationFailureInput, ctx: Ctx, { now = new Date() }: { now?: Date } = {}): Promise<{ id: number; status: QualificationStatus }> {
-  const today = isoDateOf(now);
+  // "Today" is the organisation's local day (a date typed in the form is a local date).
+  const today = isoDateIn(now, await organisationTimeZone());
   notInFuture(input.failedOn, today, "failedOn", "Failure date");
   const { procedure } = await checkPersonAndProcedure(input.userId, input.procedureId);
   const id = await db().transaction(async (trx) => {

@@ -6,7 +6,8 @@ import { insertAttachment } from "@/database/queries/attachments";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { insertQualification } from "@/database/queries/qualifications";
 import { putObject } from "@/app/_server/storage/object-store";
-import { isoDateOf } from "@/domain/dates/civil";
+import { isoDateIn } from "@/domain/dates/zone";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import type { RecordQualificationInput } from "@/domain/qualifications/schemas";
 import type { QualificationStatus } from "@/domain/qualifications/status";
 import { AppError } from "@/domain/result";
@@ -19,7 +20,8 @@ export async function recordQualification(
   ctx: Ctx,
   { now = new Date(), evidence }: { now?: Date; evidence?: EvidenceFile | null } = {},
 ): Promise<{ id: number; status: QualificationStatus }> {
-  const today = isoDateOf(now);
+  // "Today" is the organisation's local day (a date typed in the form is a local date).
+  const today = isoDateIn(now, await organisationTimeZone());
   notInFuture(input.qualifiedOn, today, "qualifiedOn", "Qualification date");
   const { person, procedure } = await checkPersonAndProcedure(input.userId, input.procedureId);
 

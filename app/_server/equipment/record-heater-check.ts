@@ -5,7 +5,8 @@ import { db } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { findHeaterWithLastCheck, insertHeaterCheck } from "@/database/queries/equipment";
 import { currentProcedureVersion, findProcedureById } from "@/database/queries/procedures";
-import { isoDateOf } from "@/domain/dates/civil";
+import { isoDateIn } from "@/domain/dates/zone";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import { heaterNextDueOn, judgeHeaterCheck } from "@/domain/equipment/rules";
 import type { RecordHeaterCheckInput } from "@/domain/equipment/schemas";
 import { AppError } from "@/domain/result";
@@ -20,9 +21,11 @@ export type HeaterCheckOutcome = { id: number; passed: boolean; misses: string[]
  * plate until a passing one is recorded.
  */
 export async function recordHeaterCheck(input: RecordHeaterCheckInput, ctx: Ctx, now = new Date()): Promise<HeaterCheckOutcome> {
+  // The next due date counts from the organisation's local day.
+  const timeZone = await organisationTimeZone();
   return db().transaction(async (trx) => {
     // Lock the plate so two checks recorded at once are ordered (the latest one decides the flag).
-    const heater = await findHeaterWithLastCheck({ id: input.heaterId, now, forUpdate: true }, trx);
+    const heater = await findHeaterWithLastCheck({ id: input.heaterId, now, timeZone, forUpdate: true }, trx);
     if (!heater) throw new AppError("invalid", "Heater plate does not exist.", { heaterId: ["Heater plate does not exist."] });
     if (!heater.isActive) throw new AppError("invalid", `Heater plate ${heater.assetTag} is retired; put it back in service before recording checks.`, { heaterId: [`Heater plate ${heater.assetTag} is retired.`] });
     const procedure = await findProcedureById({ id: input.procedureId }, trx);
@@ -30,7 +33,7 @@ export async function recordHeaterCheck(input: RecordHeaterCheckInput, ctx: Ctx,
     if (!procedure || !version) throw new AppError("invalid", "Procedure does not exist.", { procedureId: ["Procedure does not exist."] });
     const window = version.definition.windows.heaterTemperatureC;
     const judgement = judgeHeaterCheck({ faceA: input.faceA, faceB: input.faceB }, { minC: window.min, maxC: window.max });
-    const nextDueOn = heaterNextDueOn(isoDateOf(now), heater.checkIntervalDays);
+    const nextDueOn = heaterNextDueOn(isoDateIn(now, timeZone), heater.checkIntervalDays);
     const id = await insertHeaterCheck(
       {
         heaterId: heater.id,

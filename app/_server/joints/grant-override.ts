@@ -8,6 +8,7 @@ import { db } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { findCoilById } from "@/database/queries/coils";
 import { findHeaterWithLastCheck } from "@/database/queries/equipment";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import { findJobById } from "@/database/queries/jobs";
 import { insertJointOverride } from "@/database/queries/joints";
 import type { UserRecord } from "@/database/queries/users";
@@ -25,7 +26,7 @@ export async function grantOverride(input: GrantOverrideInput, ctx: { user: User
   if (closed) throw new AppError("conflict", closed, { jobId: [closed] });
   let subjectLabel: string;
   if (input.subject === "heater") {
-    const heater = await findHeaterWithLastCheck({ id: input.subjectId, now });
+    const heater = await findHeaterWithLastCheck({ id: input.subjectId, now, timeZone: await organisationTimeZone() });
     if (!heater) throw new AppError("invalid", `Heater plate ${input.subjectId} does not exist.`, { subjectId: ["No such heater plate."] });
     if (!heater.isActive) throw new AppError("invalid", `Heater plate ${heater.assetTag} is retired and cannot be cleared for use.`, { subjectId: ["The heater plate is retired."] });
     subjectLabel = `heater plate ${heater.assetTag}`;

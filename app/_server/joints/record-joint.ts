@@ -47,7 +47,8 @@ import { HANDLING_WAIT_MINUTES, handlingWaitWarnings } from "@/domain/procedures
 import { qualificationStatus } from "@/domain/qualifications/status";
 import { AppError } from "@/domain/result";
 import type { UnitSystem } from "@/domain/units/format";
-import { isoDateOf } from "@/domain/dates/civil";
+import { isoDateIn } from "@/domain/dates/zone";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import { drawDownCoil } from "@/app/_server/coils/draw-down-coil";
 import { enqueueJointAlert } from "@/app/_server/mail/joint-alert";
 
@@ -134,7 +135,9 @@ type Prepared = {
 
 /** Everything that can be decided before the transaction: refusals come out as AppErrors. */
 async function prepare(input: RecordJointInput, user: UserRecord, madeAt: Date): Promise<Prepared> {
-  const on = isoDateOf(madeAt);
+  // The crew's local day in the organisation's zone (the device judges the same day).
+  const timeZone = await organisationTimeZone();
+  const on = isoDateIn(madeAt, timeZone);
   const job = await findJobById({ id: input.jobId });
   if (!job) throw invalid("jobId", `Job ${input.jobId} does not exist.`);
   const closed = jobBlockReason(job);
@@ -151,7 +154,7 @@ async function prepare(input: RecordJointInput, user: UserRecord, madeAt: Date):
     listUsersWithRole({ role: "admin" }),
     listUsersWithRole({ role: "inspector" }),
     findMachineById({ id: input.machineId }),
-    findHeaterWithLastCheck({ id: input.heaterId, now: madeAt }),
+    findHeaterWithLastCheck({ id: input.heaterId, now: madeAt, timeZone }),
   ]);
   const qualification = qualificationStatus({ qualifiedOn: qualifications.map((q) => q.qualifiedOn), failedTestsOn: failures.map((f) => f.failedOn), on });
 

@@ -31,10 +31,10 @@ export function coilLabelSvg(coil: CoilForLabel, { baseUrl, stock, system, stand
 
 export function jointLabelSvg(
   joint: { id: number; jointNo: number; jobCode: string; jobName: string | null; madeAt: Date; station: string | null },
-  { baseUrl, stock, standalone = true }: { baseUrl: string; stock: LabelStock; standalone?: boolean },
+  { baseUrl, stock, timeZone, standalone = true }: { baseUrl: string; stock: LabelStock; timeZone: string; standalone?: boolean },
 ): { svg: string; url: string; name: string } {
   const url = jointLabelUrl(baseUrl, joint.id);
-  const text = jointLabelText({ id: joint.id, jointNo: joint.jointNo, jobCode: joint.jobCode, jobName: joint.jobName, madeOn: formatInstant(joint.madeAt, "date"), station: joint.station });
+  const text = jointLabelText({ id: joint.id, jointNo: joint.jointNo, jobCode: joint.jobCode, jobName: joint.jobName, madeOn: formatInstant(joint.madeAt, "date", timeZone), station: joint.station });
   return { svg: renderLabelSvg({ widthMm: stock.widthMm, heightMm: stock.heightMm, qr: qrMatrix(url), text, url, standalone }), url, name: text.name };
 }
 

@@ -4,6 +4,8 @@ import "server-only";
 import type { Db } from "@/database/client";
 import { enqueueUserEvent, findJointAlertFacts, listAlertInspectors } from "@/database/queries/outbox";
 import { publicUrl } from "./public-url";
+import { formatInstant } from "@/components/ui/display-format";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 
 /**
  * Alert for an out-of-limits joint: one mail to each active inspector (except the fuser
@@ -18,12 +20,13 @@ export async function enqueueJointAlert({ jointId }: { jointId: number }, trx?: 
   if (!joint || joint.outcome !== "out-of-limits") return { queued: 0 };
   const findings = [...joint.findingMessages.map((message) => ({ message })), ...joint.traceFindingMessages.map((m) => ({ message: `Pressure trace: ${m ?? ""}` }))];
   const label = `${joint.jobCode} joint ${joint.jointNo}`;
+  const timeZone = await organisationTimeZone(trx);
   const subject = `Out of limits: ${label} (${findings.length} ${findings.length === 1 ? "finding" : "findings"})`;
   const bodyText = [
     `${label} was recorded out of limits and waits for your review.`,
     "",
     `Job: ${joint.jobCode} ${joint.jobName}`,
-    `Made: ${joint.madeAt.toISOString().replace("T", " ").slice(0, 16)} UTC by ${joint.fuserName}`,
+    `Made: ${formatInstant(joint.madeAt, "minute", timeZone)} by ${joint.fuserName}`,
     `Pipe: OD ${joint.outsideDiameterMm} mm, SDR ${joint.sdr}${joint.machineTag ? `, machine ${joint.machineTag}` : ""}${joint.station ? `, station ${joint.station}` : ""}`,
     "",
     "Findings:",

@@ -2,7 +2,8 @@
 // running it often is harmless) and folds the daily digests. Run by the mail worker.
 import "server-only";
 import type { Knex } from "knex";
-import { isoDateOf } from "@/domain/dates/civil";
+import { isoDateIn } from "@/domain/dates/zone";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import { heaterAlerts, qualificationAlerts, type AlertMail } from "@/domain/mail/alerts";
 import { db } from "@/database/client";
 import { listHeatersWithLastCheck } from "@/database/queries/equipment";
@@ -17,15 +18,16 @@ async function recipientById(k: Knex, id: number): Promise<Recipient | null> {
 }
 
 /**
- * Finds the alerts owed on `now`'s day (UTC) and queues one mail per recipient for each
+ * Finds the alerts owed on `now`'s local day in the organisation's time zone and queues one mail per recipient for each
  * (the person concerned and every active admin; admins only for heater plates), each with
  * its dedupe key `<kind>:<suffix>:<recipient>`; then folds digests that are due.
  */
 export async function scanAndEnqueueAlerts(now: Date = new Date(), knex?: Knex): Promise<ScanReport> {
   const k = knex ?? db();
-  const on = isoDateOf(now);
-  const qualifications = await qualificationStatusOverview({ now }, k);
-  const heaters = await listHeatersWithLastCheck({ now, activeOnly: true }, k);
+  const timeZone = await organisationTimeZone(k);
+  const on = isoDateIn(now, timeZone);
+  const qualifications = await qualificationStatusOverview({ now, timeZone }, k);
+  const heaters = await listHeatersWithLastCheck({ now, timeZone, activeOnly: true }, k);
   const alerts: AlertMail[] = [
     ...qualificationAlerts(
       qualifications.map((q) => ({ userId: q.userId, userName: q.userName, userIsActive: q.userIsActive, procedureId: q.procedureId, procedureCode: q.procedureCode, procedureName: q.procedureName, state: q.status.state, until: q.status.until, reason: q.status.reason })),
@@ -53,6 +55,6 @@ export async function scanAndEnqueueAlerts(now: Date = new Date(), knex?: Knex):
       });
     }
   }
-  const digests = await foldDailyDigests({ now }, k);
+  const digests = await foldDailyDigests({ now, timeZone }, k);
   return { alerts: alerts.length, queued, digests };
 }

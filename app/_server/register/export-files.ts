@@ -9,7 +9,7 @@ import type { ProcedureDefinition } from "@/domain/procedures";
 import { describeProcedureWindows } from "@/domain/procedures";
 import { REGISTER_COLUMNS, columnHeader, columnNumberFormat, type FilterLine, type RegisterColumn, type RegisterRow } from "@/domain/register";
 import type { UnitSystem } from "@/domain/units";
-import { formatCount } from "@/components/ui/display-format";
+import { formatCount, formatInstant } from "@/components/ui/display-format";
 
 /** Excel's rows per sheet (1,048,576) less the header row. */
 export const XLSX_MAX_ROWS = 1_048_575;
@@ -27,6 +27,8 @@ export type ExportMeta = {
   exportedBy: { name: string; email: string };
   exportedAt: Date;
   system: UnitSystem;
+  /** The organisation's IANA zone: the local-time column and the about sheet's times. */
+  timeZone: string;
   filterLines: FilterLine[];
   sortText: string;
   /** Loads the procedure versions the exported joints were checked against (second sheet). */
@@ -104,7 +106,8 @@ export async function writeRegisterXlsx({ out, batches, meta, maxRows = XLSX_MAX
   const sheet = workbook.addWorksheet("Joints", { views: [{ state: "frozen", ySplit: 1 }] });
   sheet.columns = columns.map((c) => {
     const numFmt = columnNumberFormat(c, meta.system);
-    return { header: columnHeader(c, meta.system), key: c.key, width: Math.max(c.width, columnHeader(c, meta.system).length * 0.6) + 2, ...(numFmt ? { style: { numFmt } } : {}) };
+    const header = columnHeader(c, meta.system, meta.timeZone);
+    return { header, key: c.key, width: Math.max(c.width, header.length * 0.6) + 2, ...(numFmt ? { style: { numFmt } } : {}) };
   });
   sheet.getRow(1).font = { bold: true };
   sheet.getRow(1).commit();
@@ -119,7 +122,7 @@ export async function writeRegisterXlsx({ out, batches, meta, maxRows = XLSX_MAX
         isTruncated = true;
         break;
       }
-      sheet.addRow(columns.map((c) => c.value(row, meta.system))).commit();
+      sheet.addRow(columns.map((c) => c.value(row, meta.system, meta.timeZone))).commit();
       versions.add(row.procedureVersionId);
       rowCount += 1;
     }
@@ -149,7 +152,9 @@ export async function writeRegisterXlsx({ out, batches, meta, maxRows = XLSX_MAX
   when.commit();
   add(["Joints in this file", rowCount]);
   add(["Units", UNITS_TEXT[meta.system]]);
-  add(["Times", "Made-at times are UTC."]);
+  add(["Exported at (local time)", formatInstant(meta.exportedAt, "second", meta.timeZone)]);
+  add(["Time zone", meta.timeZone]);
+  add(["Times", `"Made at (${meta.timeZone})" is the local time in the organisation's time zone with its offset from UTC; "Made at (UTC)" is the same instant in UTC. Day filters are local days in ${meta.timeZone}.`]);
   add(["Sort", meta.sortText]);
   if (isTruncated) add(["Note", `Stopped at Excel's limit of ${formatCount(maxRows)} rows: export as CSV for every row of this filter.`], true);
   add([]);
@@ -195,17 +200,18 @@ export function csvCell(value: string | number | Date | null): string {
 
 /**
  * Streams CSV (UTF-8 with a byte-order mark so spreadsheets read °C right, CRLF line ends
- * per RFC 4180): a header row with units, then one line per joint; dates ISO 8601 UTC.
+ * per RFC 4180): a header row with units, then one line per joint; the local time with its
+ * offset in the organisation's zone, and the UTC instant as ISO 8601 ("…Z").
  */
-export async function writeRegisterCsv({ out, batches, system, progress }: { out: Writable; batches: AsyncIterable<RegisterRow[]>; system: UnitSystem; progress?: { rows: number } }): Promise<{ rowCount: number }> {
+export async function writeRegisterCsv({ out, batches, system, timeZone, progress }: { out: Writable; batches: AsyncIterable<RegisterRow[]>; system: UnitSystem; timeZone: string; progress?: { rows: number } }): Promise<{ rowCount: number }> {
   const columns = REGISTER_COLUMNS;
-  out.write("\uFEFF" + columns.map((c) => csvField(columnHeader(c, system))).join(",") + "\r\n");
+  out.write("\uFEFF" + columns.map((c) => csvField(columnHeader(c, system, timeZone))).join(",") + "\r\n");
   let rowCount = 0;
   for await (const batch of batches) {
     if (out.destroyed) throw new ExportCancelledError();
     let chunk = "";
     for (const row of batch) {
-      chunk += columns.map((c) => csvCell(c.value(row, system))).join(",") + "\r\n";
+      chunk += columns.map((c) => csvCell(c.value(row, system, timeZone))).join(",") + "\r\n";
       rowCount += 1;
     }
     out.write(chunk);

@@ -11,6 +11,7 @@ import { describeFilter, describeSort, pickFilter, type RegisterExportQuery } fr
 import { logger } from "@/app/_lib/log";
 import { ExportCancelledError, writeRegisterCsv, writeRegisterXlsx, type ExportProcedure } from "./export-files";
 import { formatInstant } from "@/components/ui/display-format";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 
 /** Rows per keyset batch read from the database while writing. */
 const BATCH_SIZE = 1000;
@@ -57,21 +58,22 @@ export async function exportRegister({ query, user, requestId, now = new Date() 
   // The export counts exactly well past Excel's row limit: an index-only count of a
   // million rows costs a fraction of a second, against a minute or more of writing, and
   // gives the browser's progress bar a true total.
-  const [expected, names] = await Promise.all([countRegister({ filter, cap: EXPORT_EXACT_COUNT_CAP }), findRegisterFilterNames({ filter })]);
+  const timeZone = await organisationTimeZone();
+  const [expected, names] = await Promise.all([countRegister({ filter, timeZone, cap: EXPORT_EXACT_COUNT_CAP }), findRegisterFilterNames({ filter })]);
   const exportId = await startExport({ userId: user.id, format: query.format, filter: view, expectedRows: expected, requestId });
 
   const out = new PassThrough({ highWaterMark: 256 * 1024 });
   const progress = { rows: 0 };
-  const batches = readAhead(iterateRegisterRows({ filter, sort: query.sort, dir: query.dir, batchSize: BATCH_SIZE }));
+  const batches = readAhead(iterateRegisterRows({ filter, timeZone, sort: query.sort, dir: query.dir, batchSize: BATCH_SIZE }));
   const write =
     query.format === "xlsx"
       ? writeRegisterXlsx({
           out,
           batches,
-          meta: { exportedBy: { name: user.name, email: user.email }, exportedAt: now, system: user.unitSystem, filterLines: describeFilter(filter, names), sortText: describeSort(query.sort, query.dir), loadProcedures },
+          meta: { exportedBy: { name: user.name, email: user.email }, exportedAt: now, system: user.unitSystem, timeZone, filterLines: describeFilter(filter, names, timeZone), sortText: describeSort(query.sort, query.dir), loadProcedures },
           progress,
         })
-      : writeRegisterCsv({ out, batches, system: user.unitSystem, progress });
+      : writeRegisterCsv({ out, batches, system: user.unitSystem, timeZone, progress });
 
   // Runs on after the response has started; the outcome is recorded, never thrown at the client.
   void write.then(
@@ -88,7 +90,7 @@ export async function exportRegister({ query, user, requestId, now = new Date() 
     },
   );
 
-  const day = formatInstant(now, "date");
+  const day = formatInstant(now, "date", timeZone);
   return new Response(Readable.toWeb(out) as unknown as ReadableStream<Uint8Array>, {
     status: 200,
     headers: {

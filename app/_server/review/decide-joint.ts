@@ -15,12 +15,13 @@ import { acceptNeedsNote, type DecideJointValues } from "@/domain/review/schemas
 import { can, canReview } from "@/domain/roles";
 import type { Db } from "@/database/client";
 import { formatInstant } from "@/components/ui/display-format";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 
 export type DecisionResult = { jointId: number; revisionNo: number; reviewState: "accepted" | "cut-out" };
 
 async function conflict(jointId: number, trx: Db, label: string): Promise<AppError> {
   const latest = await latestJointRevision({ jointId }, trx);
-  const who = latest ? ` (${REVISION_KIND_LABELS[latest.kind] ?? latest.kind} by ${latest.byName} at ${formatInstant(latest.at, "minute", true)})` : "";
+  const who = latest ? ` (${REVISION_KIND_LABELS[latest.kind] ?? latest.kind} by ${latest.byName} at ${formatInstant(latest.at, "minute", await organisationTimeZone(trx))})` : "";
   return new AppError("conflict", `${label} changed while you were looking at it${who}. Nothing was saved; the queue now shows the joint as it is.`);
 }
 

@@ -1,7 +1,7 @@
 // Lot → ground as a file: a workbook (exceljs) with one sheet of joints (place, job, date,
 // fuser, outcome, review state, whether the joint is still in the ground and what replaced
 // it, both components) and one of the lot's coils; or the joints alone as CSV (RFC 4180).
-// Both files take their columns from TRACE_JOINT_COLUMNS, so they say the same in words.
+// Both files take their columns from traceJointColumns, so they say the same in words.
 import "server-only";
 import ExcelJS from "exceljs";
 import { insertAuditEntry } from "@/database/queries/audit-log";
@@ -14,6 +14,8 @@ import { formatJointReference } from "@/domain/joints/reference";
 import { REVIEW_STATE_LABELS } from "@/domain/joints/review-states";
 import { JOINT_KIND_LABELS } from "@/domain/joints/schemas";
 import { describeSize } from "@/domain/labels/label";
+import { formatZoned } from "@/domain/dates/zone";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 
 type Trace = Awaited<ReturnType<typeof traceLot>>;
 type Cell = string | number | Date | null;
@@ -24,8 +26,19 @@ export function inTheGroundText(j: Pick<TracedJoint, "reviewState" | "replacedBy
   return j.replacedBy ? "No: cut out and replaced" : "No: cut out, not remade yet";
 }
 
-/** The joint sheet's (and the CSV's) columns, in order. */
-export const TRACE_JOINT_COLUMNS: readonly { header: string; key: string; width: number; numFmt?: string; value: (j: TracedJoint) => Cell }[] = [
+type TraceColumn = { header: string; key: string; width: number; numFmt?: string; value: (j: TracedJoint) => Cell };
+
+/**
+ * The joint sheet's (and the CSV's) columns, in order. `timeZone`: the organisation's IANA
+ * zone, for the local made-at column (local time with its offset); the UTC one stays beside it.
+ */
+export function traceJointColumns(timeZone: string): readonly TraceColumn[] {
+  const local: TraceColumn = { header: `Made at (${timeZone})`, key: "madeAtLocal", width: 26, value: (j) => formatZoned(j.madeAt, timeZone, "minute") };
+  const at = TRACE_JOINT_COLUMNS.findIndex((c) => c.key === "madeAt");
+  return [...TRACE_JOINT_COLUMNS.slice(0, at), local, ...TRACE_JOINT_COLUMNS.slice(at)];
+}
+
+const TRACE_JOINT_COLUMNS: readonly TraceColumn[] = [
   { header: "Job", key: "job", width: 12, value: (j) => j.jobCode },
   { header: "Job name", key: "jobName", width: 28, value: (j) => j.jobName },
   { header: "Joint", key: "jointNo", width: 8, value: (j) => j.jointNo },
@@ -49,13 +62,15 @@ export const TRACE_JOINT_COLUMNS: readonly { header: string; key: string; width:
   { header: "Joint id", key: "id", width: 10, value: (j) => j.id },
 ];
 
-export async function traceWorkbook(trace: Trace): Promise<Buffer> {
+/** `timeZone`: the organisation's IANA zone, for the local made-at column (the UTC one stays beside it). */
+export async function traceWorkbook(trace: Trace, timeZone = "UTC"): Promise<Buffer> {
+  const columns = traceJointColumns(timeZone);
   const book = new ExcelJS.Workbook();
   book.creator = "Beadline";
   const joints = book.addWorksheet("Joints");
-  joints.columns = TRACE_JOINT_COLUMNS.map((c) => ({ header: c.header, key: c.key, width: c.width, ...(c.numFmt ? { style: { numFmt: c.numFmt } } : {}) }));
+  joints.columns = columns.map((c) => ({ header: c.header, key: c.key, width: c.width, ...(c.numFmt ? { style: { numFmt: c.numFmt } } : {}) }));
   joints.getRow(1).font = { bold: true };
-  for (const j of trace.joints) joints.addRow(TRACE_JOINT_COLUMNS.map((c) => c.value(j) ?? ""));
+  for (const j of trace.joints) joints.addRow(columns.map((c) => c.value(j) ?? ""));
   joints.views = [{ state: "frozen", ySplit: 1 }];
   const coils = book.addWorksheet("Coils");
   coils.columns = [
@@ -80,8 +95,9 @@ export async function traceWorkbook(trace: Trace): Promise<Buffer> {
 }
 
 /** The joints as CSV: UTF-8 with a byte-order mark, CRLF line ends (RFC 4180), times ISO 8601 UTC. */
-export function traceCsv(trace: Trace): string {
-  const lines = [TRACE_JOINT_COLUMNS.map((c) => csvCell(c.header)).join(","), ...trace.joints.map((j) => TRACE_JOINT_COLUMNS.map((c) => csvCell(c.value(j))).join(","))];
+export function traceCsv(trace: Trace, timeZone = "UTC"): string {
+  const columns = traceJointColumns(timeZone);
+  const lines = [columns.map((c) => csvCell(c.header)).join(","), ...trace.joints.map((j) => columns.map((c) => csvCell(c.value(j))).join(","))];
   return `\uFEFF${lines.join("\r\n")}\r\n`;
 }
 
@@ -93,7 +109,8 @@ export type TraceExportFormat = "xlsx" | "csv";
  */
 export async function exportLotTrace(search: TraceSearch, { user, requestId, format = "xlsx" }: { user: { id: number }; requestId: string; format?: TraceExportFormat }): Promise<{ body: Buffer; name: string }> {
   const trace = await traceLot(search);
-  const body = format === "csv" ? Buffer.from(traceCsv(trace), "utf8") : await traceWorkbook(trace);
+  const timeZone = await organisationTimeZone();
+  const body = format === "csv" ? Buffer.from(traceCsv(trace, timeZone), "utf8") : await traceWorkbook(trace, timeZone);
   await insertAuditEntry({ actorUserId: user.id, action: "trace-exported", entityType: "lot", entityId: trace.lots.map((l) => l.lot).join(",").slice(0, 64) || null, details: { search, format, joints: trace.joints.length, coils: trace.coils.length }, requestId });
   const name = `trace-${(trace.lots.map((l) => l.lot).join("-") || "none").replace(/[^A-Za-z0-9-]+/g, "-").slice(0, 60)}.${format}`;
   return { body, name };

@@ -4,7 +4,8 @@
 import "server-only";
 import { findJointOrigins, type JointOrigins } from "@/database/queries/trace";
 import { qualificationStatus, type QualificationStatus } from "@/domain/qualifications/status";
-import { formatInstant } from "@/components/ui/display-format";
+import { isoDateIn } from "@/domain/dates/zone";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 
 export type TracedOrigins = JointOrigins & {
   madeOn: string;
@@ -15,7 +16,8 @@ export type TracedOrigins = JointOrigins & {
 export async function traceJointOrigins(jointId: number): Promise<TracedOrigins | null> {
   const origins = await findJointOrigins({ jointId });
   if (!origins) return null;
-  const madeOn = formatInstant(origins.joint.madeAt, "date");
+  // The local day the joint was made (the crew's day, in the organisation's zone).
+  const madeOn = isoDateIn(origins.joint.madeAt, await organisationTimeZone());
   let qualification: TracedOrigins["qualification"];
   try {
     qualification = qualificationStatus({ qualifiedOn: origins.fuser.qualifiedOn, failedTestsOn: origins.fuser.failedTestsOn, on: madeOn });

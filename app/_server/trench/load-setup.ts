@@ -10,15 +10,16 @@ import { currentProcedureVersionForJob } from "@/database/queries/procedures";
 import { listQualificationFailuresForUser, listQualificationsForUser } from "@/database/queries/qualifications";
 import { listUsersWithRole, type UserRecord } from "@/database/queries/users";
 import { toTrenchCoil, type TrenchSetup } from "./setup-types";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 
 export async function loadTrenchSetup(user: UserRecord, now = new Date()): Promise<TrenchSetup> {
-  const jobs = await listOpenJobsForFuser({ userId: user.id });
+  const [jobs, timeZone] = await Promise.all([listOpenJobsForFuser({ userId: user.id }), organisationTimeZone()]);
   const jobIds = jobs.map((j) => j.id);
   const [qualifications, failures, machines, heaters, coils, overrides, remakes, recent, inspectors, admins] = await Promise.all([
     listQualificationsForUser({ userId: user.id }),
     listQualificationFailuresForUser({ userId: user.id }),
     listMachines({ activeOnly: true }),
-    listHeatersWithLastCheck({ now, activeOnly: true }),
+    listHeatersWithLastCheck({ now, timeZone, activeOnly: true }),
     listCoilsForTrench({ crewId: user.crewId, jobIds }),
     listOverridesForJobs({ jobIds, at: now }),
     listJointsAwaitingRemake({ jobIds }),
@@ -50,6 +51,7 @@ export async function loadTrenchSetup(user: UserRecord, now = new Date()): Promi
     recent: recent.map((j) => ({ id: j.id, jobCode: j.jobCode, jointNo: j.jointNo, madeAt: j.madeAt.toISOString(), outcome: j.outcome, reviewState: j.reviewState })),
     inspectors: inspectors.map((u) => u.name),
     admins: admins.map((u) => u.name),
+    timeZone,
     loadedAt: now.toISOString(),
   };
 }

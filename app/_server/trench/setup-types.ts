@@ -82,5 +82,7 @@ export type TrenchSetup = {
   recent: TrenchRecent[];
   inspectors: string[];
   admins: string[];
+  /** The organisation's IANA zone: the device shows times and takes "today" in it, as the server does. */
+  timeZone: string;
   loadedAt: string;
 };

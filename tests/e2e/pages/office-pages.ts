@@ -105,6 +105,15 @@ export class CrewPage {
     await form.getByRole("button", { name: "Record qualification" }).click();
     return form.getByRole("status");
   }
+
+  /** The Organisation section: the organisation's time zone. */
+  async setTimeZone(zone: string): Promise<Locator> {
+    await this.page.goto("/crew");
+    const form = this.page.getByRole("form", { name: "Organisation time zone" });
+    await form.getByLabel("Time zone").selectOption(zone);
+    await form.getByRole("button", { name: "Save time zone" }).click();
+    return form.getByRole("status");
+  }
 }
 
 export class TodayPage {

@@ -6,6 +6,7 @@ import { CoilStatusBadge } from "@/components/ui/badges";
 import { Cautions } from "@/components/ui/caution";
 import { FactBlock, FactList } from "@/components/ui/fact-list";
 import { formatInstant } from "@/components/ui/display-format";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import { TimeDisplay } from "@/components/ui/time-display";
 import { findCoilByCode, listCoilEvents, listCoilMoveOptions } from "@/database/queries/coils";
 import { listAuditEntries } from "@/database/queries/audit-log";
@@ -37,6 +38,7 @@ function bendCaution(coil: { outsideDiameterMm: number; sdr: number }, system: U
 // The coil page: what the label's QR opens. Facts, length left, bending caution, status moves, history.
 export default async function CoilPage({ params, searchParams }: { params: Promise<{ code: string }>; searchParams: Promise<Record<string, string | undefined>> }) {
   const user = await requireUser(); // any signed-in person may open a coil (as GET /api/v1/coils/:id)
+  const timeZone = await organisationTimeZone();
   const { code } = await params;
   const query = await searchParams;
   const coil = await findCoilByCode({ coilCode: decodeURIComponent(code) });
@@ -140,7 +142,7 @@ export default async function CoilPage({ params, searchParams }: { params: Promi
           </FactBlock>
           <FactBlock term="End caps">{coil.inspection.endCapsInPlace ? "in place" : "missing"}</FactBlock>
           <FactBlock term="Received">
-            <TimeDisplay at={coil.inspection.receivedAt} withZone />
+            <TimeDisplay at={coil.inspection.receivedAt} />
             {coil.inspection.receivedByName ? ` by ${coil.inspection.receivedByName}` : ""}
           </FactBlock>
         </FactList>
@@ -157,7 +159,7 @@ export default async function CoilPage({ params, searchParams }: { params: Promi
         <SectionCard id="label" title="Label" tone="card" isCompact>
           <div className="max-w-md border border-slate-300" dangerouslySetInnerHTML={{ __html: label.svg }} />
           <p className="mt-2 text-sm">
-            The QR opens <span className="font-mono">{label.url}</span>. {coil.labelPrintedAt ? `Label last printed ${formatInstant(coil.labelPrintedAt, "date")}.` : "The label has not been printed yet."}
+            The QR opens <span className="font-mono">{label.url}</span>. {coil.labelPrintedAt ? `Label last printed ${formatInstant(coil.labelPrintedAt, "date", timeZone)}.` : "The label has not been printed yet."}
           </p>
           <div className="mt-3 flex flex-wrap gap-2">
             <Link href={`/labels?kind=coil&ids=${coil.id}`} className="inline-flex min-h-touch items-center rounded-md bg-brand px-4 font-semibold text-white hover:bg-brand-dark">

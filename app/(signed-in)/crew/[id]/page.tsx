@@ -4,7 +4,8 @@ import { requirePageId, requireUser } from "@/app/_lib/page-guard";
 import { listProcedures } from "@/database/queries/procedures";
 import { listQualificationFailuresForUser, listQualificationsForUser, qualificationStatusOverview } from "@/database/queries/qualifications";
 import { findUserById, listCrews } from "@/database/queries/users";
-import { isoDateOf } from "@/domain/dates/civil";
+import { isoDateIn } from "@/domain/dates/zone";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import { QUALIFICATION_METHOD_LABELS } from "@/domain/qualifications/schemas";
 import { ROLE_LABELS } from "@/domain/roles";
 import { FailureForm } from "../_components/failure-form";
@@ -19,17 +20,18 @@ export const dynamic = "force-dynamic";
 
 export default async function PersonPage({ params }: { params: Promise<{ id: string }> }) {
   await requireUser("manageCrew");
+  const timeZone = await organisationTimeZone();
   const id = await requirePageId(params);
   const person = await findUserById({ id });
   if (!person) notFound();
   const [crews, procedures, statuses, qualifications, failures] = await Promise.all([
     listCrews(),
     listProcedures({ activeOnly: true }),
-    qualificationStatusOverview({ userId: id }),
+    qualificationStatusOverview({ userId: id, timeZone }),
     listQualificationsForUser({ userId: id }),
     listQualificationFailuresForUser({ userId: id }),
   ]);
-  const today = isoDateOf(new Date());
+  const today = isoDateIn(new Date(), timeZone);
   const procedureOptions = procedures.map((p) => ({ id: p.id, label: `${p.code} — ${p.name}` }));
   return (
     <div className="flex flex-col gap-6">

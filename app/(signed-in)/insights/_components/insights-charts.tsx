@@ -4,6 +4,7 @@ import { Area, Bar, BarChart, CartesianGrid, ComposedChart, Legend, Line, Refere
 import { formatDuration, toDisplay, unitLabel, type UnitSystem } from "@/domain/units/format";
 import { DataTable } from "@/components/ui/data-table";
 import { formatInstant } from "@/components/ui/display-format";
+import { useTimeZone } from "@/components/ui/time-zone";
 import { SectionCard } from "@/components/ui/section-card";
 
 type Yield = { joints: number; firstPass: number; yieldPct: number };
@@ -57,7 +58,8 @@ export function InsightsCharts({ unitSystem, byWeek, byFuser, byMachine, finding
   const tUnit = unitLabel("temperature", unitSystem);
   const temp = (c: number | null) => (c === null ? null : Math.round(toDisplay(c, "temperature", unitSystem) * 10) / 10);
   const heaterData = heater.map((h) => ({ t: h.t, c: temp(h.c), band: h.min !== null && h.max !== null ? [temp(h.min), temp(h.max)] : null, jointId: h.jointId }));
-  const day = (t: number) => formatInstant(t, "date");
+  const timeZone = useTimeZone();
+  const day = (t: number) => formatInstant(t, "date", timeZone);
   const coolingOk = cooling.filter((c) => c.recorded >= c.required);
   const coolingShort = cooling.filter((c) => c.recorded < c.required);
   // Axis end rounded up to a whole minute, so the ticks read as plain seconds.

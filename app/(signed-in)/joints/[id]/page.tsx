@@ -63,7 +63,7 @@ export default async function JointPage({ params }: Params) {
           Joint {joint.jointNo} on {joint.jobCode}
         </h1>
         <p className="text-ink">
-          {joint.jobName} · made <TimeDisplay at={joint.madeAt} withZone /> by {joint.fuser.name}
+          {joint.jobName} · made <TimeDisplay at={joint.madeAt} /> by {joint.fuser.name}
         </p>
         <div className="flex flex-wrap gap-2">
           <OutcomeBadge outcome={verdict.outcome} size="lg" />
@@ -160,7 +160,7 @@ export default async function JointPage({ params }: Params) {
             );
           })}
           <Value name="Recorded">
-            <TimeDisplay at={joint.recordedAt} precision="second" withZone /> · submission {joint.clientId}
+            <TimeDisplay at={joint.recordedAt} precision="second" /> · submission {joint.clientId}
           </Value>
         </FactList>
       </SectionCard>
@@ -173,7 +173,7 @@ export default async function JointPage({ params }: Params) {
           <ul className="list-disc pl-5">
             {overrides.map((o) => (
               <li key={o.id}>
-                {o.message} Cleared by {o.grantedByName} at <TimeDisplay at={o.grantedAt} withZone />: “{o.reason}”
+                {o.message} Cleared by {o.grantedByName} at <TimeDisplay at={o.grantedAt} />: “{o.reason}”
               </li>
             ))}
           </ul>
@@ -203,7 +203,7 @@ export default async function JointPage({ params }: Params) {
           {revisions.map((r) => (
             <li key={r.id} className="rounded-md border-2 border-slate-300 bg-white p-3">
               <p className="font-semibold">
-                {r.revisionNo}. {REVISION_KIND_LABELS[r.kind]} by {r.byUserName} at <TimeDisplay at={r.at} withZone /> → {REVIEW_STATE_LABELS[r.reviewState]}
+                {r.revisionNo}. {REVISION_KIND_LABELS[r.kind]} by {r.byUserName} at <TimeDisplay at={r.at} /> → {REVIEW_STATE_LABELS[r.reviewState]}
               </p>
               {r.reason ? <p>“{r.reason}”</p> : null}
             </li>

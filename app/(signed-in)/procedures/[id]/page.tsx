@@ -6,6 +6,7 @@ import { builtInProcedure, describeProcedureWindows } from "@/domain/procedures"
 import { can } from "@/domain/roles";
 import { DataTable } from "@/components/ui/data-table";
 import { formatInstant } from "@/components/ui/display-format";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import { SectionCard } from "@/components/ui/section-card";
 import { TightenForm } from "../_components/tighten-form";
 import { VersionNotesForm } from "../_components/version-notes-form";
@@ -17,6 +18,7 @@ const STATUS_STYLE = { confirmed: "text-pass", "confirmed-2nd": "text-brand", "f
 
 export default async function ProcedurePage({ params }: { params: Promise<{ id: string }> }) {
   const user = await requireUser("viewProcedures");
+  const timeZone = await organisationTimeZone();
   const id = await requirePageId(params);
   const procedure = await findProcedureById({ id });
   if (!procedure) notFound();
@@ -34,9 +36,9 @@ export default async function ProcedurePage({ params }: { params: Promise<{ id: 
             Version {v.versionNo} {v.isCurrent ? "(current)" : "(superseded)"}
           </h2>
           <p className="text-sm text-slate-700">
-            {v.definition.label}. Published {formatInstant(v.publishedAt, "date")}
+            {v.definition.label}. Published {formatInstant(v.publishedAt, "date", timeZone)}
             {v.publishedByName ? ` by ${v.publishedByName}` : ""}
-            {v.supersededAt ? `; superseded ${formatInstant(v.supersededAt, "date")}` : ""}. Used for {v.jointCount} joint{v.jointCount === 1 ? "" : "s"}.
+            {v.supersededAt ? `; superseded ${formatInstant(v.supersededAt, "date", timeZone)}` : ""}. Used for {v.jointCount} joint{v.jointCount === 1 ? "" : "s"}.
           </p>
           {v.notes ? <p className="mt-1">Note: {v.notes}</p> : null}
           <DataTable

@@ -20,6 +20,7 @@ import {
   REVIEW_STATES,
   REVIEW_STATE_LABELS,
   columnHeader,
+  dayFilterLabels,
   describeSort,
   formatCell,
   registerFilterSchema,
@@ -35,6 +36,7 @@ import type { FieldErrors } from "@/domain/result";
 import type { UnitSystem } from "@/domain/units";
 import { ExportPanel } from "./export-panel";
 import { formatCount } from "@/components/ui/display-format";
+import { useTimeZone } from "@/components/ui/time-zone";
 import { controlBorder, FieldShell } from "@/components/form/field-shell";
 
 type Option = { id: number; label: string };
@@ -66,6 +68,8 @@ function JointLink(p: ICellRendererParams<RegisterRow>) {
 
 export function RegisterScreen({ view, urlErrors, options, unitSystem }: { view: RegisterView; urlErrors: FieldErrors; options: Options; unitSystem: UnitSystem }) {
   const router = useRouter();
+  const timeZone = useTimeZone();
+  const dayLabels = dayFilterLabels(timeZone);
   const [count, setCount] = useState<GridCount | null>(null);
   const [loadError, setLoadError] = useState<string | null>(null);
   const query = useMemo(() => viewToSearchParams(view).toString(), [view]);
@@ -89,15 +93,15 @@ export function RegisterScreen({ view, urlErrors, options, unitSystem }: { view:
     () =>
       REGISTER_COLUMNS.filter((c) => c.inGrid).map((c) => ({
         colId: c.key,
-        headerName: columnHeader(c, unitSystem),
-        headerTooltip: c.sort ? `${columnHeader(c, unitSystem)}: click to sort on the server` : undefined,
+        headerName: columnHeader(c, unitSystem, timeZone),
+        headerTooltip: c.sort ? `${columnHeader(c, unitSystem, timeZone)}: click to sort on the server` : undefined,
         sortable: Boolean(c.sort),
         width: Math.round(c.width * 8.5 + 36),
-        valueGetter: (p) => (p.data ? formatCell(c, p.data, unitSystem) : ""),
+        valueGetter: (p) => (p.data ? formatCell(c, p.data, unitSystem, timeZone) : ""),
         ...(c.key === "jointNo" ? { cellRenderer: JointLink, pinned: "left" as const } : {}),
         ...(c.type === "quantity" || c.type === "integer" ? { type: "rightAligned" } : {}),
       })),
-    [unitSystem],
+    [unitSystem, timeZone],
   );
 
   const sortColumn = REGISTER_COLUMNS.find((c) => c.sort === view.sort);
@@ -143,8 +147,8 @@ export function RegisterScreen({ view, urlErrors, options, unitSystem }: { view:
         <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-5">
           {text("q", "Search joint, coil id or lot", "search", "e.g. WO-24152 joint 10, 12, LV-C0004, 4410021")}
           {select("job", "Job", options.jobs.map((o) => ({ value: String(o.id), label: o.label })), "Any job")}
-          {text("from", "Made on or after (UTC day)", "date")}
-          {text("to", "Made on or before (UTC day)", "date")}
+          {text("from", dayLabels.from, "date")}
+          {text("to", dayLabels.to, "date")}
           {select("fuser", "Fuser", options.fusers.map((o) => ({ value: String(o.id), label: o.label })), "Anyone")}
           {select("machine", "Fusion machine", options.machines.map((o) => ({ value: String(o.id), label: o.label })), "Any machine")}
           {text("lot", "Lot (either side)")}
@@ -182,7 +186,7 @@ export function RegisterScreen({ view, urlErrors, options, unitSystem }: { view:
         onCount={setCount}
         onError={setLoadError}
       />
-      <p className="text-sm text-slate-700">Times are UTC. Values are in {unitSystem === "us" ? "US customary units" : "SI units"} (change this with the unit switch at the top). Sort by the headers marked sortable; open a joint by its number or by clicking its row.</p>
+      <p className="text-sm text-slate-700">Times are local times in {timeZone} with their offset from UTC; the day filters take local days there. Values are in {unitSystem === "us" ? "US customary units" : "SI units"} (change this with the unit switch at the top). Sort by the headers marked sortable; open a joint by its number or by clicking its row.</p>
     </div>
   );
 }

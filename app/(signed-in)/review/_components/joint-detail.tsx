@@ -39,7 +39,7 @@ export function JointDetail({
         className="text-sm"
         facts={[
           { term: "Job", description: `${item.jobCode} ${item.jobName}` },
-          { term: "Made", description: <><TimeDisplay at={item.madeAt} withZone /> by {item.fuserName}</> },
+          { term: "Made", description: <><TimeDisplay at={item.madeAt} /> by {item.fuserName}</> },
           { term: "Pipe", description: `OD ${formatQuantity(item.outsideDiameterMm, "length-mm", unitSystem)}, SDR ${item.sdr} (${item.kind.replace(/-/g, " ")})` },
           { term: "Equipment", description: `Machine ${item.machineTag}, heater ${item.heaterTag}` },
           item.procedureLabel ? { term: "Procedure", description: item.procedureLabel } : null,

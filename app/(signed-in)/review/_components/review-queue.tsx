@@ -127,7 +127,7 @@ export function ReviewQueue({
                     <OutcomeBadge outcome={item.outcome} />
                   </div>
                   <p className="text-sm text-slate-700">
-                    <TimeDisplay at={item.madeAt} withZone /> · {item.fuserName} · {item.machineTag}
+                    <TimeDisplay at={item.madeAt} /> · {item.fuserName} · {item.machineTag}
                     {item.station ? ` · station ${item.station}` : ""}
                     {item.trace ? " · pressure trace attached" : ""}
                     {item.photos.length ? ` · ${item.photos.length} ${item.photos.length === 1 ? "photo" : "photos"}` : ""}

@@ -58,7 +58,7 @@ export function TraceSection({ item, unitSystem, onAttached }: { item: QueueItem
       {trace ? (
         <>
           <p className="text-sm">
-            {trace.sampleCount} samples, attached <TimeDisplay at={trace.uploadedAt} withZone /> by {trace.uploadedByName} (<a className="text-brand underline" href={trace.url}>download the file</a>). Check of the trace:{" "}
+            {trace.sampleCount} samples, attached <TimeDisplay at={trace.uploadedAt} /> by {trace.uploadedByName} (<a className="text-brand underline" href={trace.url}>download the file</a>). Check of the trace:{" "}
             <OutcomeBadge outcome={trace.outcome} />.
           </p>
           <TraceChart jointId={item.jointId} traceId={trace.id} unitSystem={unitSystem} label={label} />

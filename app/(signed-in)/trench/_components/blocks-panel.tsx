@@ -4,9 +4,11 @@
 import { Button } from "@/components/ui/button";
 import type { BlockReason, OverrideGrant } from "@/domain/joints/rules";
 import type { TrenchOverride } from "@/app/_server/trench/setup-types";
-import { formatDeviceInstant } from "@/components/ui/display-format";
+import { formatInstant } from "@/components/ui/display-format";
+import { useTimeZone } from "@/components/ui/time-zone";
 
 export function BlocksPanel({ open, covered, overrides, onCheckAgain, checking }: { open: BlockReason[]; covered: { reason: BlockReason; grant: OverrideGrant }[]; overrides: TrenchOverride[]; onCheckAgain: () => void; checking: boolean }) {
+  const timeZone = useTimeZone();
   if (!open.length && !covered.length) return null;
   const refusals = open.filter((r) => r.severity === "refuse");
   const needOverride = open.filter((r) => r.severity === "override");
@@ -44,7 +46,7 @@ export function BlocksPanel({ open, covered, overrides, onCheckAgain, checking }
               const o = overrides.find((x) => x.id === grant.id);
               return (
                 <li key={grant.id + reason.kind}>
-                  {reason.message} Cleared by {o?.grantedByName ?? "an inspector"} until {formatDeviceInstant(grant.expiresAt)}: “{o?.reason}”.
+                  {reason.message} Cleared by {o?.grantedByName ?? "an inspector"} until {formatInstant(grant.expiresAt, "minute", timeZone)}: “{o?.reason}”.
                 </li>
               );
             })}

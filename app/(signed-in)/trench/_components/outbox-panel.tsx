@@ -4,7 +4,8 @@ import Link from "next/link";
 import { Button } from "@/components/ui/button";
 import { entryKey, type OutboxEntry } from "../_client/device-store";
 import { differenceMessages, ReusedIdActions } from "./reused-id-notice";
-import { formatDeviceInstant } from "@/components/ui/display-format";
+import { formatInstant } from "@/components/ui/display-format";
+import { useTimeZone } from "@/components/ui/time-zone";
 import { OUTCOME_LABELS } from "@/domain/joints/outcomes";
 
 const STATE_WORDS: Record<OutboxEntry["state"], string> = {
@@ -36,6 +37,7 @@ export function OutboxPanel({
   onRemove: (key: string) => void;
   onSendNow: () => void;
 }) {
+  const timeZone = useTimeZone();
   const waiting = entries.filter((e) => e.state === "waiting" || e.state === "sending").length;
   const shown = [...entries].reverse().slice(0, 12);
   return (
@@ -59,7 +61,7 @@ export function OutboxPanel({
               {STATE_WORDS[e.state]}
               {e.result ? `: joint ${e.result.jointNo} on ${e.result.jobCode}` : ` · ${e.jobCode ?? ""}`} · {e.label}
             </p>
-            <p className="text-sm">Recorded {formatDeviceInstant(e.createdAt)}</p>
+            <p className="text-sm">Recorded {formatInstant(e.createdAt, "minute", timeZone)}</p>
             {e.result ? (
               <p className="text-sm font-semibold">
                 {e.result.outcome === "within-limits" ? OUTCOME_LABELS["within-limits"] : `${OUTCOME_LABELS["out-of-limits"]}: ${e.result.findings.map((f) => f.message).join("; ")}`} ·{" "}

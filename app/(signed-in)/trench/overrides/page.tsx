@@ -1,5 +1,6 @@
 import type { Metadata } from "next";
 import { requireUser } from "@/app/_lib/page-guard";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import { listHeatersWithLastCheck } from "@/database/queries/equipment";
 import { listJobs } from "@/database/queries/jobs";
 import { listOverridesForJobs } from "@/database/queries/joints";
@@ -17,9 +18,10 @@ export const dynamic = "force-dynamic";
 export default async function OverridesPage() {
   const user = await requireUser("grantOverride");
   const now = new Date();
+  const timeZone = await organisationTimeZone();
   const [jobs, heaters, quarantined, usedUp, inUse] = await Promise.all([
     listJobs({ status: "open" }),
-    listHeatersWithLastCheck({ now, activeOnly: true }),
+    listHeatersWithLastCheck({ now, timeZone, activeOnly: true }),
     listCoils({ status: "quarantined", limit: 200 }),
     listCoils({ status: "used-up", limit: 200 }),
     listCoils({ status: "in-use", limit: 200 }),
@@ -53,7 +55,7 @@ export default async function OverridesPage() {
                 {o.jobCode}: {o.subjectType === "heater" ? "heater plate" : "coil"} {o.subjectLabel}
               </p>
               <p className="text-sm">
-                By {o.grantedByName} at <TimeDisplay at={o.grantedAt} withZone />, until <TimeDisplay at={o.expiresAt} withZone />: “{o.reason}”
+                By {o.grantedByName} at <TimeDisplay at={o.grantedAt} />, until <TimeDisplay at={o.expiresAt} />: “{o.reason}”
               </p>
             </li>
           ))}

@@ -1,11 +1,13 @@
 // GET /api/v1/register?<filter>&sort=&dir=&after=<cursor>&limit=&count=1 — one keyset page
 // of the joint register (the grid's data source and the JSON API): rows in canonical SI,
 // `next` is the cursor of the following page (null on the last), `count` (when asked)
-// is exact or an estimate marked as such.
+// is exact or an estimate marked as such. `from`/`to` are local days in the organisation's
+// time zone, named in `timeZone`; `madeAt` stays an ISO 8601 UTC instant.
 import { defineRoute } from "@/app/_lib/guard";
 import { listRegisterPage } from "@/database/queries/register";
 import { decodeCursor, encodeCursor, pickFilter, registerPageQuerySchema } from "@/domain/register";
 import { AppError } from "@/domain/result";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 
 export const dynamic = "force-dynamic";
 
@@ -17,9 +19,10 @@ export const GET = defineRoute({ permission: "viewRegister", schema: registerPag
     after = decoded.cursor;
   }
   const filter = pickFilter(query);
-  const page = await listRegisterPage({ filter, sort: query.sort, dir: query.dir, after, limit: query.limit, withCount: query.count === "1" });
+  const timeZone = await organisationTimeZone();
+  const page = await listRegisterPage({ filter, timeZone, sort: query.sort, dir: query.dir, after, limit: query.limit, withCount: query.count === "1" });
   return Response.json(
-    { rows: page.rows, next: page.next ? encodeCursor(page.next) : null, ...(page.count ? { count: page.count } : {}) },
+    { rows: page.rows, next: page.next ? encodeCursor(page.next) : null, timeZone, ...(page.count ? { count: page.count } : {}) },
     { headers: { "cache-control": "no-store" } },
   );
 });

@@ -2,6 +2,7 @@ import { notFound } from "next/navigation";
 import { Cautions } from "@/components/ui/caution";
 import { PageHeader } from "@/components/ui/page-header";
 import { requirePageId, requireUser } from "@/app/_lib/page-guard";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import { findHeaterWithLastCheck, listHeaterChecks } from "@/database/queries/equipment";
 import { listCurrentProcedureVersions } from "@/database/queries/procedures";
 import { formatQuantity, formatRange } from "@/domain/units/format";
@@ -16,7 +17,7 @@ export const dynamic = "force-dynamic";
 export default async function HeaterPage({ params }: { params: Promise<{ id: string }> }) {
   const user = await requireUser("manageEquipment");
   const id = await requirePageId(params);
-  const heater = await findHeaterWithLastCheck({ id });
+  const heater = await findHeaterWithLastCheck({ id, timeZone: await organisationTimeZone() });
   if (!heater) notFound();
   const [checks, procedures] = await Promise.all([listHeaterChecks({ heaterId: id }), listCurrentProcedureVersions()]);
   const units = user.unitSystem;
@@ -51,7 +52,7 @@ export default async function HeaterPage({ params }: { params: Promise<{ id: str
           rowKey={(c) => c.id}
           empty="No checks recorded yet."
           columns={[
-            { header: "When (UTC)", cell: (c) => <TimeDisplay at={c.checkedAt} /> },
+            { header: "When", cell: (c) => <TimeDisplay at={c.checkedAt} /> },
             { header: "Who", cell: (c) => c.checkedByName ?? "—" },
             { header: "Instrument", cell: (c) => c.instrument },
             { header: "Face A", cell: (c) => c.readings.faceA.map(t).join(", ") },

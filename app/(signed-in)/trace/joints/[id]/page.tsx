@@ -9,6 +9,7 @@ import { CoilStatusBadge, ReviewStateBadge } from "@/components/ui/badges";
 import { formatJointReference } from "@/domain/joints/reference";
 import { FactBlock, FactList } from "@/components/ui/fact-list";
 import { formatInstant } from "@/components/ui/display-format";
+import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import { TimeDisplay } from "@/components/ui/time-display";
 import { traceJointOrigins } from "@/app/_server/trace/origins";
 import { SectionCard } from "@/components/ui/section-card";
@@ -59,6 +60,7 @@ function Component({ title, coil, text, lengthM, system }: { title: string; coil
 // Joint → origins: everything that made one joint, as it stood on the day.
 export default async function JointOriginsPage({ params }: { params: Promise<{ id: string }> }) {
   const user = await requireUser("traceLots");
+  const timeZone = await organisationTimeZone();
   const { id } = await params;
   const jointId = Number(id);
   if (!Number.isInteger(jointId) || jointId <= 0) notFound();
@@ -83,7 +85,7 @@ export default async function JointOriginsPage({ params }: { params: Promise<{ i
             {o.joint.jobCode} — {o.joint.jobName}
           </FactBlock>
           <FactBlock term="Made">
-            <TimeDisplay at={o.joint.madeAt} withZone />
+            <TimeDisplay at={o.joint.madeAt} />
           </FactBlock>
           <FactBlock term="Place">
             {o.joint.station ? `Station ${o.joint.station}` : "no station"}
@@ -99,7 +101,7 @@ export default async function JointOriginsPage({ params }: { params: Promise<{ i
             {o.decision ? (
               <>
                 {" "}
-                by {o.decision.byName}, <TimeDisplay at={o.decision.at} withZone />
+                by {o.decision.byName}, <TimeDisplay at={o.decision.at} />
                 {o.decision.note ? `: “${o.decision.note}”` : ""}
               </>
             ) : null}
@@ -160,7 +162,7 @@ export default async function JointOriginsPage({ params }: { params: Promise<{ i
             </FactBlock>
             <FactBlock term="Last temperature check before the joint">
               {check
-                ? `${formatInstant(check.checkedAt, "minute", true)}, ${check.passed ? "passed" : "failed"} (${formatQuantity(check.windowMinC, "temperature", system)}–${formatQuantity(check.windowMaxC, "temperature", system)}, ${check.instrument}${check.checkedByName ? `, by ${check.checkedByName}` : ""}); next due ${check.nextDueOn}`
+                ? `${formatInstant(check.checkedAt, "minute", timeZone)}, ${check.passed ? "passed" : "failed"} (${formatQuantity(check.windowMinC, "temperature", system)}–${formatQuantity(check.windowMaxC, "temperature", system)}, ${check.instrument}${check.checkedByName ? `, by ${check.checkedByName}` : ""}); next due ${check.nextDueOn}`
                 : "No check on file before the joint"}
             </FactBlock>
             <FactBlock term="Check in date when the joint was made">{o.heaterCheckInDate == null ? "no check" : o.heaterCheckInDate ? "yes" : "no — the check was overdue or failed"}</FactBlock>
@@ -182,7 +184,7 @@ export default async function JointOriginsPage({ params }: { params: Promise<{ i
             </FactBlock>
             <FactBlock term="Version">
               {o.procedure.versionNo}, published <TimeDisplay at={o.procedure.publishedAt} precision="date" />
-              {o.procedure.supersededAt ? `, superseded ${formatInstant(o.procedure.supersededAt, "date")}` : ""}
+              {o.procedure.supersededAt ? `, superseded ${formatInstant(o.procedure.supersededAt, "date", timeZone)}` : ""}
             </FactBlock>
             <FactBlock term="Based on">{isFusionStandard(o.procedure.standard) ? builtInProcedure(o.procedure.standard).label : o.procedure.standard}</FactBlock>
           </FactList>

@@ -5,7 +5,7 @@
 import { useMemo } from "react";
 import { preRecordProblems } from "@/domain/joints/pre-record";
 import { applyOverrides, blockReasons } from "@/domain/joints/rules";
-import { isoDateOf } from "@/domain/dates/civil";
+import { isoDateIn } from "@/domain/dates/zone";
 import { qualificationStatus } from "@/domain/qualifications/status";
 import type { TrenchCoil, TrenchSetup } from "@/app/_server/trench/setup-types";
 import type { useFusionPlanPreview } from "./use-fusion-plan-preview";
@@ -18,9 +18,10 @@ export function useRecordBlocks(setup: TrenchSetup, { job, machine, heater }: Pi
   const userId = setup.user.id;
   const sideB = kind === "coil-to-coil" ? coils.B : null;
 
-  // The calendar day the qualification and heater checks are judged on, taken as the
-  // server's record-joint takes it (not a display text, so not components/ui/display-format).
-  const today = isoDateOf(new Date(now || Date.parse(setup.loadedAt)));
+  // The local calendar day (organisation's zone) the qualification and heater checks are
+  // judged on, taken as the server's record-joint takes it (not a display text, so not
+  // components/ui/display-format).
+  const today = isoDateIn(new Date(now || Date.parse(setup.loadedAt)), setup.timeZone);
   const blocks = useMemo(() => {
     if (!job) return { open: [], covered: [] };
     const qualification = qualificationStatus({ qualifiedOn: job.qualifiedOn, failedTestsOn: job.failedOn, on: today });

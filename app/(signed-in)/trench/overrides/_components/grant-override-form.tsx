@@ -9,7 +9,8 @@ import { Button } from "@/components/ui/button";
 import { grantOverrideSchema } from "@/domain/joints/schemas";
 import { grantOverrideAction } from "../../actions";
 import { SelectField } from "@/components/form/controls";
-import { formatDeviceInstant } from "@/components/ui/display-format";
+import { formatInstant } from "@/components/ui/display-format";
+import { useTimeZone } from "@/components/ui/time-zone";
 
 type In = z.input<typeof grantOverrideSchema>;
 type Out = z.output<typeof grantOverrideSchema>;
@@ -18,6 +19,7 @@ type Option = { id: number; label: string };
 const toNumber = (v: unknown) => (v === "" || v == null ? undefined : Number(v));
 
 export function GrantOverrideForm({ jobs, heaters, coils, userName }: { jobs: Option[]; heaters: Option[]; coils: Option[]; userName: string }) {
+  const timeZone = useTimeZone();
   const router = useRouter();
   const [message, setMessage] = useState<{ text: string; tone: "error" | "success" } | null>(null);
   const { register, handleSubmit, control, formState, setError, reset } = useForm<In, unknown, Out>({ resolver: zodResolver(grantOverrideSchema), defaultValues: { subject: "heater", hours: 12 } });
@@ -28,7 +30,7 @@ export function GrantOverrideForm({ jobs, heaters, coils, userName }: { jobs: Op
     setMessage(null);
     const r = await grantOverrideAction(values);
     if (r.ok) {
-      setMessage({ tone: "success", text: `Cleared ${r.data.subjectLabel} on ${r.data.jobCode} until ${formatDeviceInstant(r.data.expiresAt)}, recorded as ${userName}.` });
+      setMessage({ tone: "success", text: `Cleared ${r.data.subjectLabel} on ${r.data.jobCode} until ${formatInstant(r.data.expiresAt, "minute", timeZone)}, recorded as ${userName}.` });
       reset({ subject: values.subject, hours: 12 });
       router.refresh();
     } else {
