@@ -169,3 +169,11 @@ export function localDayHours(day: string, zone: string): number {
 export function zoneLabel(zone: string): string {
   return zone.replace(/_/g, ' ');
 }
+
+/**
+ * The header of a local-time column: "Made at (America/Chicago)". In an organisation on UTC
+ * it would read like the UTC instant column beside it, so it says "(local, UTC)".
+ */
+export function localTimeHeader(title: string, timeZone: string): string {
+  return timeZone === 'UTC' ? `${title} (local, UTC)` : `${title} (${timeZone})`;
+}

@@ -9,7 +9,7 @@ import { formatJointReference } from '@/domain/joints/reference';
 import type { RegisterOutcome, RegisterSort } from '@/domain/register/filter';
 import { CHECK_VALUES, QUANTITY_VALUES, type CheckValueDefinition, type QuantityValueDefinition, type RecordedValues } from '@/domain/joints/values';
 import { displayDecimals, roundTo, toDisplay, unitLabel, type QuantityKind, type UnitSystem } from '@/domain/units/format';
-import { formatZoned, formatUtcInstant } from '@/domain/dates/zone';
+import { formatZoned, formatUtcInstant, localTimeHeader } from '@/domain/dates/zone';
 
 /** One joint as the Register shows it (canonical SI, as stored). */
 export type RegisterRow = RecordedValues & RegisterJoint;
@@ -226,7 +226,7 @@ export function columnUnit(column: RegisterColumn, system: UnitSystem): string |
 
 /** Header with the unit, e.g. "Heater temperature (°F)"; the local-time column names the zone, "Made at (America/Chicago)". */
 export function columnHeader(column: RegisterColumn, system: UnitSystem, timeZone: string): string {
-  if (column.type === 'local-time') return `${column.title} (${timeZone})`;
+  if (column.type === 'local-time') return localTimeHeader(column.title, timeZone);
   const unit = columnUnit(column, system);
   return unit ? `${column.title} (${unit})` : column.title;
 }

@@ -14,7 +14,7 @@ import { formatJointReference } from "@/domain/joints/reference";
 import { REVIEW_STATE_LABELS } from "@/domain/joints/review-states";
 import { JOINT_KIND_LABELS } from "@/domain/joints/schemas";
 import { describeSize } from "@/domain/labels/label";
-import { formatZoned } from "@/domain/dates/zone";
+import { formatZoned, localTimeHeader } from "@/domain/dates/zone";
 import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 
 type Trace = Awaited<ReturnType<typeof traceLot>>;
@@ -33,7 +33,7 @@ type TraceColumn = { header: string; key: string; width: number; numFmt?: string
  * zone, for the local made-at column (local time with its offset); the UTC one stays beside it.
  */
 export function traceJointColumns(timeZone: string): readonly TraceColumn[] {
-  const local: TraceColumn = { header: `Made at (${timeZone})`, key: "madeAtLocal", width: 26, value: (j) => formatZoned(j.madeAt, timeZone, "minute") };
+  const local: TraceColumn = { header: localTimeHeader("Made at", timeZone), key: "madeAtLocal", width: 26, value: (j) => formatZoned(j.madeAt, timeZone, "minute") };
   const at = TRACE_JOINT_COLUMNS.findIndex((c) => c.key === "madeAt");
   return [...TRACE_JOINT_COLUMNS.slice(0, at), local, ...TRACE_JOINT_COLUMNS.slice(at)];
 }
