@@ -149,7 +149,7 @@ export function PhaseControl({
         ) : null}
 
         {label ? (
-          <Button type="button" onClick={onAdvance} variant={current === "changeover" ? "danger" : "primary"} className="min-h-24 w-full text-2xl">
+          <Button type="button" onClick={onAdvance} variant={current === "changeover" ? "danger" : "primary"} className="w-full text-2xl" style={{ minHeight: "6rem" }}>
             {label}
           </Button>
         ) : null}
