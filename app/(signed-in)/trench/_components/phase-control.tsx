@@ -114,39 +114,42 @@ export function PhaseControl({
       {plan ? null : <p className="rounded-md border-2 border-slate-300 bg-white p-3 text-ink">Choose job, machine and coils to get the time limits. The timer runs without them.</p>}
 
       <div className={`flex flex-col gap-3 rounded-md border-2 p-3 ${view && plan ? TONES[view.tone] : TONES.none}`} role="timer" aria-label="Phase timer">
-        <div aria-live="polite">
+        <div aria-live="polite" className="min-h-[4.5rem]">
           <p className="text-xl font-bold">{words.title}</p>
           <p className="text-sm font-semibold">{words.todo}</p>
         </div>
 
-        {current === "changeover" && changeoverMaxS !== null && view ? (
-          <p className="flex items-baseline justify-center gap-3 font-mono font-bold tabular-nums" aria-live="off" data-testid="changeover-countdown">
-            {view.elapsedS <= changeoverMaxS ? (
-              <>
-                <span className="text-[9rem] leading-none">{changeoverMaxS - view.elapsedS}</span>
-                <span className="text-2xl">s left</span>
-              </>
+        {/* A fixed height, so the button below stays where the gloved thumb left it from phase to phase. */}
+        {step.isDone ? null : (
+          <div className="flex h-40 items-center justify-center overflow-hidden">
+            {current === "changeover" && changeoverMaxS !== null && view ? (
+              <p className="flex flex-wrap items-baseline justify-center gap-x-3 font-mono font-bold tabular-nums" data-testid="changeover-countdown">
+                {view.elapsedS <= changeoverMaxS ? (
+                  <>
+                    <span className="text-[9rem] leading-none">{changeoverMaxS - view.elapsedS}</span>
+                    <span className="text-2xl">s left</span>
+                  </>
+                ) : (
+                  <>
+                    <span aria-hidden="true" className="text-5xl">
+                      ▲
+                    </span>
+                    <span className="text-[6rem] leading-none">+{view.elapsedS - changeoverMaxS}</span>
+                    <span className="text-2xl">s over</span>
+                  </>
+                )}
+              </p>
             ) : (
-              <>
-                <span aria-hidden="true" className="text-5xl">
-                  ▲
-                </span>
-                <span className="text-[7rem] leading-none">+{view.elapsedS - changeoverMaxS}</span>
-                <span className="text-2xl">s over</span>
-              </>
+              <p className="text-center font-mono text-7xl font-bold tabular-nums">{clock(view?.elapsedS ?? 0)}</p>
             )}
-          </p>
-        ) : current && view ? (
-          <p className="text-center font-mono text-7xl font-bold tabular-nums" aria-live="off">
-            {clock(view.elapsedS)}
-          </p>
-        ) : null}
+          </div>
+        )}
 
-        {view && plan ? (
-          <p className="text-base font-semibold" aria-live="polite">
-            {PHASE_LABELS[current as TimedPhase]}: {view.message}
-          </p>
-        ) : null}
+        {step.isDone ? null : <p className="min-h-12 text-base font-semibold">{view && plan ? `${PHASE_LABELS[current as TimedPhase]}: ${view.message}` : null}</p>}
+        {/* Said once when a running phase reaches its limit (the figures above change every second). */}
+        <p className="sr-only" aria-live="assertive">
+          {view && plan && (view.tone === "over" || view.tone === "reached") ? `${PHASE_LABELS[current as TimedPhase]}: ${view.tone === "over" ? "maximum passed" : view.message.split(";")[0]}` : ""}
+        </p>
 
         {label ? (
           <Button type="button" onClick={onAdvance} variant={current === "changeover" ? "danger" : "primary"} className="w-full text-2xl" style={{ minHeight: "6rem" }}>
