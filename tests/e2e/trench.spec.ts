@@ -168,6 +168,9 @@ test("each value is judged as it is typed, and one button runs the phases", asyn
   await trench.phaseButton("Heater out: start changeover").click();
   await expect(phases).toContainText("Changeover: heater out");
   expect((await cues()).at(-1)).toBe("[200]");
+  // A gloved double tap (a second tap at the same instant) does not end the changeover.
+  await trench.phaseButton("Pressure reached: start cooling").click();
+  await expect(phases).toContainText("Changeover: heater out");
   const countdown = page.getByTestId("changeover-countdown");
   await expect(countdown).toHaveText("8s left"); // F2620 maximum for this wall // from memory, unconfirmed
   await page.clock.runFor(3_000);

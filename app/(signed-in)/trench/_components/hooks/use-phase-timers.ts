@@ -20,6 +20,9 @@ export const TIMED_VALUES = QUANTITY_VALUES.flatMap((d) => (d.entry === "timed" 
 /** Each timed phase's duration field (seconds). */
 export const DURATION_FIELD = Object.fromEntries(TIMED_VALUES.map(({ phase, definition }) => [phase, definition.key])) as Record<TimedPhase, TimedValueKey>;
 
+/** A second tap this soon after a phase change is a gloved double tap, not the next phase (ms). */
+const DOUBLE_TAP_MS = 800;
+
 /** A signal fired late (the screen was locked past the moment) is not worth a buzz. */
 const ALERT_GRACE_S = 3;
 
@@ -43,6 +46,7 @@ export function usePhaseTimers(form: TrenchForm, timers: PhaseTimings, setTimers
 
   // Signal once when the running phase reaches its limit (changeover maximum, cooling minimum, heat-soak target).
   const alerted = useRef<string | null>(null);
+  const lastAdvance = useRef(0);
   useEffect(() => {
     const phase = step.running;
     if (!phase || now === 0) return;
@@ -68,6 +72,7 @@ export function usePhaseTimers(form: TrenchForm, timers: PhaseTimings, setTimers
   const advance = () => {
     prepareCues();
     const at = Date.now();
+    if (at - lastAdvance.current < DOUBLE_TAP_MS) return;
     const next: Partial<PhaseTimings> = {};
     if (step.running) {
       const ended = { ...timers[step.running], endedAt: at };
@@ -76,6 +81,7 @@ export function usePhaseTimers(form: TrenchForm, timers: PhaseTimings, setTimers
     }
     if (step.next) next[step.next] = { startedAt: at, endedAt: null };
     if (!step.running && !step.next) return;
+    lastAdvance.current = at;
     setTimers((t) => ({ ...t, ...next }));
     setNow(at);
     signal(step.next ? "phase" : "done");
