@@ -11,12 +11,13 @@ export function Field({
   unit,
   error,
   hint,
+  note,
   numeric,
   className = "",
   ...input
-}: InputHTMLAttributes<HTMLInputElement> & { id: string; label: ReactNode; unit?: string; error?: string; hint?: ReactNode; numeric?: boolean }) {
+}: InputHTMLAttributes<HTMLInputElement> & { id: string; label: ReactNode; unit?: string; error?: string; hint?: ReactNode; note?: ReactNode; numeric?: boolean }) {
   return (
-    <FieldShell id={id} label={label} unit={unit} hint={hint} error={error} className={className}>
+    <FieldShell id={id} label={label} unit={unit} hint={hint} note={note} error={error} className={className}>
       {(control) => (
         <input
           {...control}

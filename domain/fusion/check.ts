@@ -98,6 +98,47 @@ const isRecorded = (value: number | null | undefined): value is number =>
   typeof value === 'number' && Number.isFinite(value);
 
 /**
+ * The limits checkJoint holds each recorded quantity to, canonical SI (°C, MPa, mm, s);
+ * null where the plan sets none for that value (heat soak ended by bead size, a procedure
+ * without a pressure build-up limit). Defined here once: the check and the device's
+ * per-value judgement (domain/fusion/judge) both read them. With `conditions`, the minimum
+ * cooling time grows in warm weather where the procedure says so (domain/procedures/weather).
+ */
+export function valueLimits(plan: FusionPlan, options: Pick<CheckJointOptions, 'conditions'> = {}) {
+  const minCoolingS = options.conditions ? adjustedMinCoolingS(plan.minCoolingS, plan.weather, options.conditions.ambientC) : plan.minCoolingS;
+  return {
+    heaterTemperatureC: { min: plan.heaterTemperatureC.min, max: plan.heaterTemperatureC.max },
+    // The dial is only a general indicator; the surface reading is judged on its own (PPI).
+    heaterSurfaceTemperatureC: { min: plan.heaterTemperatureC.min, max: plan.heaterTemperatureC.max },
+    beadUpGaugePressureMpa: { min: plan.beadUpGaugePressureMpa.min, max: plan.beadUpGaugePressureMpa.max },
+    fusionGaugePressureMpa: { min: plan.fusionGaugePressureMpa.min, max: plan.fusionGaugePressureMpa.max },
+    beadMm: { min: plan.minBeadMm, max: null },
+    heatSoakS: plan.heatSoakS ? { min: plan.heatSoakS.min, max: plan.heatSoakS.max } : null,
+    heatSoakGaugePressureMpa: { min: null, max: plan.maxHeatSoakGaugePressureMpa ?? null },
+    changeoverS: { min: null, max: plan.maxChangeoverS },
+    pressureBuildUpS: { min: null, max: plan.pressureBuildUpS },
+    coolingS: { min: minCoolingS, max: null },
+    // Outside misalignment at most 10 % of the wall (PE pipe makers' butt-fusion guides).
+    misalignmentMm: { min: null, max: MAX_MISALIGNMENT_WALL_FRACTION * plan.wallMm },
+  } satisfies Record<string, { min: number | null; max: number | null } | null>;
+}
+
+/** The recorded quantities the check holds to a limit of the plan. */
+export type LimitedValueKey = keyof ReturnType<typeof valueLimits>;
+
+/** Half a resolution step of the plan's instrument for this kind of reading (gauge MPa, thermometer °C); 0 for bead, misalignment and times. */
+export function readingSlack(plan: FusionPlan, kind: QuantityKind): number {
+  return kind === 'pressure' ? readingTolerance(plan.instrument?.gaugeResolutionMpa) : kind === 'temperature' ? readingTolerance(plan.instrument?.thermometerResolutionC) : 0;
+}
+
+/** A value passes a limit when inside it or on it, or within half a resolution step of the plan's instrument (see checkJoint). */
+export function passesLimit(plan: FusionPlan, value: number, limit: number, side: 'min' | 'max', kind: QuantityKind): boolean {
+  // 1e-9: binary fractions (232.2 + 0.05) must not turn "half a step" into "just over".
+  const slack = readingSlack(plan, kind) + 1e-9;
+  return side === 'min' ? value >= limit - slack : value <= limit + slack;
+}
+
+/**
  * Check recorded values against a plan. Inputs canonical SI; messages in `options.system`.
  * On-limit rule: a value passes when it is inside the limit or on it. A gauge pressure or a
  * temperature also passes within half a resolution step of the plan's instrument (gauge
@@ -115,13 +156,8 @@ export function checkJoint(plan: FusionPlan, values: JointMeasurements | Recorde
   const wallText = `for a ${fmt(plan.wallMm, 'length-mm')} wall`;
   const odText = `for a ${fmt(plan.outsideDiameterMm, 'length-mm')} OD pipe`;
 
-  const tolerance = (kind: QuantityKind): number =>
-    kind === 'pressure' ? readingTolerance(plan.instrument?.gaugeResolutionMpa) : kind === 'temperature' ? readingTolerance(plan.instrument?.thermometerResolutionC) : 0;
-  // 1e-9: binary fractions (232.2 + 0.05) must not turn "half a step" into "just over".
-  const passes = (value: number, limit: number, side: 'min' | 'max', kind: QuantityKind): boolean => {
-    const slack = tolerance(kind) + 1e-9;
-    return side === 'min' ? value >= limit - slack : value <= limit + slack;
-  };
+  const limits = valueLimits(plan, options);
+  const passes = (value: number, limit: number, side: 'min' | 'max', kind: QuantityKind): boolean => passesLimit(plan, value, limit, side, kind);
 
   const notRecorded = (parameter: JointParameter, name: string, limit: JointFinding['limit']) =>
     findings.push({ parameter, kind: 'not-recorded', measured: null, limit, message: `${name} was not recorded` });
@@ -178,31 +214,31 @@ export function checkJoint(plan: FusionPlan, values: JointMeasurements | Recorde
     }
   };
 
-  windowCheck('heaterTemperature', 'Heater temperature', measured.heaterTemperatureC, plan.heaterTemperatureC, 'temperature', '');
+  windowCheck('heaterTemperature', 'Heater temperature', measured.heaterTemperatureC, limits.heaterTemperatureC, 'temperature', '');
   // The dial is only a general indicator; the surface reading is judged on its own (PPI).
   if (isRecorded(measured.heaterSurfaceTemperatureC)) {
-    windowCheck('heaterTemperature', 'Heater surface temperature', measured.heaterSurfaceTemperatureC, plan.heaterTemperatureC, 'temperature', ' (pyrometer reading)');
+    windowCheck('heaterTemperature', 'Heater surface temperature', measured.heaterSurfaceTemperatureC, limits.heaterSurfaceTemperatureC, 'temperature', ' (pyrometer reading)');
   }
   if (measured.beadUpGaugePressureMpa !== undefined) {
-    windowCheck('beadUpPressure', 'Bead-up gauge pressure', measured.beadUpGaugePressureMpa, plan.beadUpGaugePressureMpa, 'pressure', ' for this pipe and machine');
+    windowCheck('beadUpPressure', 'Bead-up gauge pressure', measured.beadUpGaugePressureMpa, limits.beadUpGaugePressureMpa, 'pressure', ' for this pipe and machine');
   }
-  windowCheck('fusionPressure', 'Fusion gauge pressure', measured.fusionGaugePressureMpa, plan.fusionGaugePressureMpa, 'pressure', ' for this pipe and machine');
-  minimumCheck('bead', 'Bead', measured.beadMm, plan.minBeadMm, 'length-mm', { short: 'smaller' }, plan.minBeadBasis === 'outside-diameter-mm' ? odText : wallText);
+  windowCheck('fusionPressure', 'Fusion gauge pressure', measured.fusionGaugePressureMpa, limits.fusionGaugePressureMpa, 'pressure', ' for this pipe and machine');
+  minimumCheck('bead', 'Bead', measured.beadMm, limits.beadMm.min, 'length-mm', { short: 'smaller' }, plan.minBeadBasis === 'outside-diameter-mm' ? odText : wallText);
 
-  if (plan.heatSoakS) {
+  if (limits.heatSoakS) {
     const value = measured.heatSoakS;
-    const limit = { min: plan.heatSoakS.min, max: plan.heatSoakS.max };
+    const limit = { ...limits.heatSoakS };
     if (!isRecorded(value)) {
       notRecorded('heatSoak', 'Heat-soak time', limit);
-    } else if (plan.heatSoakS.min !== null && !passes(value, plan.heatSoakS.min, 'min', 'duration')) {
-      findings.push({ parameter: 'heatSoak', kind: 'below-minimum', measured: value, limit, message: `Heat soak ${fmt(value, 'duration')} is shorter than the ${fmt(plan.heatSoakS.min, 'duration')} minimum ${wallText}` });
-    } else if (plan.heatSoakS.max !== null && !passes(value, plan.heatSoakS.max, 'max', 'duration')) {
-      findings.push({ parameter: 'heatSoak', kind: 'above-maximum', measured: value, limit, message: `Heat soak ${fmt(value, 'duration')} is longer than the ${fmt(plan.heatSoakS.max, 'duration')} maximum ${wallText}` });
+    } else if (limit.min !== null && !passes(value, limit.min, 'min', 'duration')) {
+      findings.push({ parameter: 'heatSoak', kind: 'below-minimum', measured: value, limit, message: `Heat soak ${fmt(value, 'duration')} is shorter than the ${fmt(limit.min, 'duration')} minimum ${wallText}` });
+    } else if (limit.max !== null && !passes(value, limit.max, 'max', 'duration')) {
+      findings.push({ parameter: 'heatSoak', kind: 'above-maximum', measured: value, limit, message: `Heat soak ${fmt(value, 'duration')} is longer than the ${fmt(limit.max, 'duration')} maximum ${wallText}` });
     }
   }
 
   if (measured.heatSoakGaugePressureMpa !== undefined) {
-    const max = plan.maxHeatSoakGaugePressureMpa ?? null;
+    const max = limits.heatSoakGaugePressureMpa.max;
     const value = measured.heatSoakGaugePressureMpa;
     const limit = { min: null, max };
     if (!isRecorded(value)) {
@@ -216,11 +252,11 @@ export function checkJoint(plan: FusionPlan, values: JointMeasurements | Recorde
     }
   }
 
-  maximumCheck('changeover', 'Changeover', measured.changeoverS, plan.maxChangeoverS, 'duration', { long: 'longer' }, wallText);
+  maximumCheck('changeover', 'Changeover', measured.changeoverS, limits.changeoverS.max, 'duration', { long: 'longer' }, wallText);
   if (measured.pressureBuildUpS !== undefined) {
-    maximumCheck('pressureBuildUp', 'Pressure build-up', measured.pressureBuildUpS, plan.pressureBuildUpS, 'duration', { long: 'longer' }, wallText);
+    maximumCheck('pressureBuildUp', 'Pressure build-up', measured.pressureBuildUpS, limits.pressureBuildUpS.max, 'duration', { long: 'longer' }, wallText);
   }
-  const minCoolingS = options.conditions ? adjustedMinCoolingS(plan.minCoolingS, plan.weather, options.conditions.ambientC) : plan.minCoolingS;
+  const minCoolingS = limits.coolingS.min;
   const coolingContext = minCoolingS !== plan.minCoolingS && options.conditions?.ambientC != null
     ? `${wallText} at ${fmt(options.conditions.ambientC, 'temperature')} ambient (the procedure lengthens cooling in warm weather)`
     : wallText;
@@ -243,9 +279,8 @@ export function checkJoint(plan: FusionPlan, values: JointMeasurements | Recorde
     if (value === null) return notRecorded(parameter, name, null);
     if (!value) findings.push({ parameter, kind: 'check-failed', measured: false, limit: null, message: failed });
   };
-  // Outside misalignment at most 10 % of the wall (PE pipe makers' butt-fusion guides).
   if (isRecorded(measured.misalignmentMm)) {
-    maximumCheck('alignment', 'Misalignment', measured.misalignmentMm, MAX_MISALIGNMENT_WALL_FRACTION * plan.wallMm, 'length-mm', { long: 'more' }, `(10 % of the ${fmt(plan.wallMm, 'length-mm')} wall)`);
+    maximumCheck('alignment', 'Misalignment', measured.misalignmentMm, limits.misalignmentMm.max, 'length-mm', { long: 'more' }, `(10 % of the ${fmt(plan.wallMm, 'length-mm')} wall)`);
   }
   booleanCheck('facing', measured.facingOk, 'Facing check', 'Facing was not confirmed complete and square');
   booleanCheck('alignment', measured.alignmentOk, 'Alignment check', 'Alignment check did not pass');

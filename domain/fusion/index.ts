@@ -4,3 +4,4 @@ export * from '@/domain/fusion/parameters';
 export * from '@/domain/fusion/plan';
 export * from '@/domain/fusion/check';
 export * from '@/domain/fusion/schemas';
+export * from '@/domain/fusion/judge';

@@ -5,7 +5,7 @@
 
 import type { FusionPlan } from '@/domain/fusion/plan';
 import { formatDuration } from '@/domain/units/format';
-import type { TimedPhase } from '@/domain/joints/schemas';
+import { TIMED_PHASES, type TimedPhase } from '@/domain/joints/schemas';
 
 export interface PhaseTiming {
   startedAt: number | null;
@@ -76,6 +76,42 @@ export function phaseView(timing: PhaseTiming, limits: PhaseLimits, now: number)
     return { run, elapsedS, tone: 'within', message: `${formatDuration(limits.maxS - elapsedS)} left of the ${formatDuration(limits.maxS)} maximum` };
   }
   return { run, elapsedS, tone: 'none', message: 'No time limit in this procedure for this phase' };
+}
+
+/**
+ * Where the one phase control stands: the phase running (if any), the phase its button
+ * starts next, and whether the sequence is through. The phases follow each other in the
+ * order of a butt-fusion cycle — heat soak, changeover (heater out, ends brought together
+ * at fusion pressure), cooling under pressure (ASTM F2620 procedure, PPI "Melt Procedure"
+ * page) — so ending one starts the next at the same instant. With none running, the next
+ * is the phase after the last one started (heat soak when none was).
+ */
+export interface PhaseStep {
+  running: TimedPhase | null;
+  next: TimedPhase | null;
+  isDone: boolean;
+}
+
+export function phaseStep(timings: Record<TimedPhase, PhaseTiming>): PhaseStep {
+  const runningIndex = TIMED_PHASES.findIndex((p) => timings[p].startedAt !== null && timings[p].endedAt === null);
+  if (runningIndex >= 0) return { running: TIMED_PHASES[runningIndex]!, next: TIMED_PHASES[runningIndex + 1] ?? null, isDone: false };
+  let lastStarted = -1;
+  TIMED_PHASES.forEach((p, i) => {
+    if (timings[p].startedAt !== null) lastStarted = i;
+  });
+  const next = TIMED_PHASES[lastStarted + 1] ?? null;
+  return { running: null, next, isDone: next === null };
+}
+
+/**
+ * The moment in a running phase worth a signal to the fuser, s from its start: the
+ * changeover maximum (the heater must be out and the ends together by then), the heat-soak
+ * target (or minimum), the cooling minimum. Null where the plan gives none.
+ */
+export function phaseAlertAtS(phase: TimedPhase, limits: PhaseLimits): number | null {
+  if (phase === 'changeover') return limits.maxS;
+  if (phase === 'heatSoak') return limits.targetS ?? limits.minS;
+  return limits.minS;
 }
 
 function describeLimits(limits: PhaseLimits): string {

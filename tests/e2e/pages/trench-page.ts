@@ -74,6 +74,21 @@ export class TrenchPage {
     await this.field("Station (place along the job)").fill(j.station);
   }
 
+  /** The one phase control (heat soak → changeover → cooling). */
+  phaseTimer(): Locator {
+    return this.page.getByRole("timer", { name: "Phase timer" });
+  }
+
+  /** The phase control's one large button, by what it does now ("Start heat soak", "Heater out: start changeover", …). */
+  phaseButton(name: string): Locator {
+    return this.phaseTimer().getByRole("button", { name, exact: true });
+  }
+
+  /** The "timed"/"typed" mark beside a duration field's label. */
+  durationMark(label: string): Locator {
+    return this.page.locator("label").filter({ hasText: label }).locator("span").filter({ hasText: /^(timed|typed)$/ }).last();
+  }
+
   result(): Locator {
     return this.page.getByRole("heading", { level: 2 }).filter({ hasText: /Within limits|Out of limits/ });
   }

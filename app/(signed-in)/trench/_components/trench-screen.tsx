@@ -12,13 +12,13 @@ import { useWatch } from "react-hook-form";
 import { Field, FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
 import { Cautions } from "@/components/ui/caution";
-import { JOINT_KIND_LABELS, JOINT_KINDS, type TimedPhase } from "@/domain/joints/schemas";
+import { JOINT_KIND_LABELS, JOINT_KINDS } from "@/domain/joints/schemas";
 import type { TrenchCoil, TrenchSetup } from "@/app/_server/trench/setup-types";
 import { useOutbox } from "../_client/use-outbox";
 import { BlocksPanel } from "./blocks-panel";
 import { CoilPicker } from "./coil-picker";
 import { OutboxPanel } from "./outbox-panel";
-import { PhaseTimer } from "./phase-timer";
+import { PhaseControl } from "./phase-control";
 import { PlanPanel } from "@/components/fusion/plan-panel";
 import { ResultPanel } from "./result-panel";
 import { SelectField } from "@/components/form/controls";
@@ -26,7 +26,7 @@ import { UnitController } from "./unit-controller";
 import { quantitiesAskedIn, RecordedValueField } from "./recorded-value-field";
 import { ValuesSection } from "./values-section";
 import { useFusionPlanPreview } from "./hooks/use-fusion-plan-preview";
-import { TIMED_VALUES, usePhaseTimers } from "./hooks/use-phase-timers";
+import { usePhaseTimers } from "./hooks/use-phase-timers";
 import { useRecordBlocks } from "./hooks/use-record-blocks";
 import { useRecordJoint } from "./hooks/use-record-joint";
 import { useTrenchDraft } from "./hooks/use-trench-draft";
@@ -44,13 +44,13 @@ export function TrenchScreen({ setup }: { setup: TrenchSetup }) {
   const { register, control, handleSubmit, setValue, formState } = form;
   const errors = formState.errors as Record<string, { message?: string } | undefined>;
   const err = (name: string) => errors[name]?.message;
-  const { now, startPhase, endPhase, clearPhase, untime } = usePhaseTimers(form, timers, setTimers);
 
-  const [jobId, machineId, heaterId, kind, coilAText, coilBText, drag, timedFields] = useWatch({
+  const [jobId, machineId, heaterId, kind, coilAText, coilBText, drag] = useWatch({
     control,
-    name: ["jobId", "machineId", "heaterId", "kind", "coilA", "coilB", "dragPressureMpa", "timedFields"],
+    name: ["jobId", "machineId", "heaterId", "kind", "coilA", "coilB", "dragPressureMpa"],
   });
-  const { job, machine, heater, plan, planProblem, limits } = useFusionPlanPreview(setup, { jobId, machineId, heaterId, drag, coilA: coils.A });
+  const { job, machine, heater, plan, timingPlan, planProblem, limits } = useFusionPlanPreview(setup, { jobId, machineId, heaterId, drag, coilA: coils.A });
+  const { now, step, advance, clearAll, untime } = usePhaseTimers(form, timers, setTimers, limits);
   const { blocks, mismatch, sameCoil, odOutsideMachine, cannotRecord } = useRecordBlocks(setup, { job, machine, heater }, coils, kind, now);
   const { onValid, onInvalid, remake, shown, dismissResult, formMessage, resultRef, remakeOptions } = useRecordJoint({ setup, outbox, jobId, job, plan, cannotRecord, photos, setCoils, startNewDraft });
 
@@ -58,9 +58,6 @@ export function TrenchScreen({ setup }: { setup: TrenchSetup }) {
   const onCoilB = useCallback((c: TrenchCoil | null) => setCoils((s) => ({ ...s, B: c })), [setCoils]);
   const onTextA = useCallback((t: string) => setValue("coilA", t, { shouldDirty: true }), [setValue]);
   const onTextB = useCallback((t: string) => setValue("coilB", t, { shouldDirty: true }), [setValue]);
-
-  const timedBadge = (phase: TimedPhase, value: unknown) =>
-    (timedFields ?? []).includes(phase) ? <span className="rounded bg-pass-light px-2 py-0.5 text-xs font-bold text-pass">timed</span> : value !== undefined && value !== null && value !== "" ? <span className="rounded bg-slate-200 px-2 py-0.5 text-xs font-bold text-ink">typed</span> : null;
 
   const unitField = (name: "lengthAM" | "lengthBM", label: string, opts: { hint?: string } = {}) => <UnitController control={control} name={name} label={label} kind="length-m" system={system} error={err(name)} hint={opts.hint} />;
 
@@ -158,23 +155,10 @@ export function TrenchScreen({ setup }: { setup: TrenchSetup }) {
         <fieldset className="flex flex-col gap-4">
           <legend className="mb-2 text-xl font-bold">3. Phase timer</legend>
           <Cautions kinds={["heater", "pinch"]} title="While fusing" />
-          {TIMED_VALUES.map(({ phase, definition }) => (
-            <div key={phase} className="flex flex-col gap-2">
-              <PhaseTimer phase={phase} timing={timers[phase]} limits={limits[phase]} now={now} onStart={() => startPhase(phase)} onEnd={() => endPhase(phase)} onClear={() => clearPhase(phase)} />
-              <RecordedValueField
-                definition={definition}
-                control={control}
-                system={system}
-                error={err(definition.key)}
-                hint={phase === "heatSoak" && plan && plan.heatSoakTargetS === null && !plan.heatSoakS ? "This procedure ends heat soak by bead size; time it for the record." : "Filled by the timer, or type it."}
-                badge={(value) => timedBadge(phase, value)}
-                onTyped={() => untime(phase)}
-              />
-            </div>
-          ))}
+          <PhaseControl form={form} system={system} timers={timers} limits={limits} now={now} step={step} onAdvance={advance} onClearAll={clearAll} onTyped={untime} plan={timingPlan} />
         </fieldset>
 
-        <ValuesSection form={form} system={system} photos={photos} onPhotos={setPhotos} />
+        <ValuesSection form={form} system={system} photos={photos} onPhotos={setPhotos} plan={plan} />
 
         <FormMessage message={formMessage} tone={formMessage?.startsWith("Recording the remake") ? "info" : "error"} />
         <Button type="submit" className="min-h-16 text-xl" disabled={!restored || cannotRecord}>

@@ -15,6 +15,7 @@ export function UnitController<T extends FieldValues>({
   hint,
   allowNegative,
   badge,
+  note,
   onTyped,
 }: {
   control: Control<T, unknown, FieldValues>;
@@ -27,6 +28,8 @@ export function UnitController<T extends FieldValues>({
   allowNegative?: boolean;
   /** Shown after the label, from the field's value ("timed", "typed"). */
   badge?: (value: UnitValue) => ReactNode;
+  /** Shown under the control, from the field's value (the value judged against the plan). */
+  note?: (value: UnitValue) => ReactNode;
   /** Called after each change typed into the field (a typed duration replaces the timed one). */
   onTyped?: () => void;
 }) {
@@ -50,6 +53,7 @@ export function UnitController<T extends FieldValues>({
           hint={hint}
           allowNegative={allowNegative}
           badge={badge?.(field.value as UnitValue)}
+          note={note?.(field.value as UnitValue)}
         />
       )}
     />

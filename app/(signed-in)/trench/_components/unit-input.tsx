@@ -33,6 +33,7 @@ export function UnitInput({
   unit,
   allowNegative = false,
   badge,
+  note,
 }: {
   id: string;
   label: string;
@@ -46,6 +47,8 @@ export function UnitInput({
   unit?: string;
   allowNegative?: boolean;
   badge?: React.ReactNode;
+  /** Shown under the control and tied to it (the value judged against the plan). */
+  note?: React.ReactNode;
 }) {
   const [text, setText] = useState(() => (typeof value === "number" ? displayText(value, kind, system) : typeof value === "string" ? value : ""));
 
@@ -90,6 +93,7 @@ export function UnitInput({
         onBlur={onBlur}
         error={error}
         hint={hint}
+        note={note}
       />
       {allowNegative ? (
         <button

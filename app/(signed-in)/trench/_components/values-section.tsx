@@ -1,13 +1,17 @@
 "use client";
 // Step 4 of the Trench form: the values measured and checked at the joint, the place
 // (station, and the device's location when the fuser allows it) and the bead photos.
+// With the plan known, each value says beside its field whether it is inside the plan as
+// it is typed (recorded-value-field); the server's check on recording is the record.
 import { useState } from "react";
 import { Controller, useWatch, type UseFormReturn } from "react-hook-form";
 import { Button } from "@/components/ui/button";
 import { SHELTER_LABELS, SHELTERS, type RecordJointFormInput, type RecordJointFormValues } from "@/domain/joints/schemas";
 import { CHECK_VALUES, type CheckValueKey } from "@/domain/joints/values";
 import { formatQuantity, type UnitSystem } from "@/domain/units/format";
+import type { FusionPlan } from "@/domain/fusion/plan";
 import type { PhotoRef } from "../_client/device-store";
+import { useJudgeOptions } from "./hooks/use-judge-options";
 import { PhotoPicker } from "./photo-picker";
 import { SelectField } from "@/components/form/controls";
 import { UnitController } from "./unit-controller";
@@ -19,8 +23,22 @@ import { YesNo } from "./yes-no";
 const TYPED = quantitiesAskedIn("values");
 const CHECKS = CHECK_VALUES.filter((d) => d.step === "values");
 
-export function ValuesSection({ form, system, photos, onPhotos }: { form: UseFormReturn<RecordJointFormInput, unknown, RecordJointFormValues>; system: UnitSystem; photos: PhotoRef[]; onPhotos: (photos: PhotoRef[]) => void }) {
+export function ValuesSection({
+  form,
+  system,
+  photos,
+  onPhotos,
+  plan = null,
+}: {
+  form: UseFormReturn<RecordJointFormInput, unknown, RecordJointFormValues>;
+  system: UnitSystem;
+  photos: PhotoRef[];
+  onPhotos: (photos: PhotoRef[]) => void;
+  /** The plan the values are judged against as they are typed; null until it is known. */
+  plan?: FusionPlan | null;
+}) {
   const { control, register, setValue, formState } = form;
+  const judgeOptions = useJudgeOptions(form, system);
   const errors = formState.errors as Record<string, { message?: string } | undefined>;
   const err = (name: string) => errors[name]?.message;
   const [latitude, longitude] = useWatch({ control, name: ["latitude", "longitude"] });
@@ -43,8 +61,13 @@ export function ValuesSection({ form, system, photos, onPhotos }: { form: UseFor
   return (
     <fieldset className="flex flex-col gap-4">
       <legend className="mb-2 text-xl font-bold">4. Record the values</legend>
+      <p className="text-sm text-ink">
+        {plan
+          ? "Each value shows against the plan as you type it. When you record the joint, Beadline's server checks it again; the server's verdict is the one kept."
+          : "Once the plan is complete (job, machine, coil A and drag pressure), each value shows against it as you type."}
+      </p>
       {TYPED.map((d) => (
-        <RecordedValueField key={d.key} definition={d} control={control} system={system} error={err(d.key)} />
+        <RecordedValueField key={d.key} definition={d} control={control} system={system} error={err(d.key)} plan={plan} judgeOptions={judgeOptions} />
       ))}
       <UnitController control={control} name="ambientC" label="Ambient temperature" kind="temperature" system={system} error={err("ambientC")} allowNegative />
       <SelectField id="shelter" label="Weather shelter" error={err("shelter")} {...register("shelter", { setValueAs: (v) => (v === "" ? undefined : v) })}>
