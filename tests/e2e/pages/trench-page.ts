@@ -74,6 +74,33 @@ export class TrenchPage {
     await this.field("Station (place along the job)").fill(j.station);
   }
 
+  /** A foldable step of the form, found by its summary's title ("1. Set up"). */
+  section(title: string): Locator {
+    return this.page.locator("details").filter({ has: this.page.locator("summary").filter({ hasText: title }) });
+  }
+
+  /** Folds every step (clicks a step's summary only when it is open). */
+  async foldSteps(): Promise<void> {
+    for (const title of ["1. Set up", "2. Pressure plan", "3. Phase timer", "4. Record the values"]) {
+      const section = this.section(title);
+      if (await section.evaluate((d) => (d as HTMLDetailsElement).open)) await section.locator("summary").first().click();
+      await expect(section).not.toHaveAttribute("open");
+    }
+  }
+
+  safety(): Locator {
+    return this.page.getByRole("complementary", { name: "Safety" });
+  }
+
+  /** The one-line plan pinned at the top while scrolling. */
+  planAtAGlance(): Locator {
+    return this.page.getByRole("region", { name: "Plan at a glance" });
+  }
+
+  sameCoilsQuestion(): Locator {
+    return this.page.getByRole("alertdialog", { name: /These two coils were already joined/ });
+  }
+
   result(): Locator {
     return this.page.getByRole("heading", { level: 2 }).filter({ hasText: /Within limits|Out of limits/ });
   }
@@ -86,7 +113,7 @@ export class TrenchPage {
     return this.page.getByRole("list", { name: "Joints on this device" }).getByRole("listitem");
   }
 
-  async shot(name: string): Promise<void> {
-    await this.page.screenshot({ path: `tests/e2e/artifacts/trench-${name}.png`, fullPage: true });
+  async shot(name: string, fullPage = true): Promise<void> {
+    await this.page.screenshot({ path: `tests/e2e/artifacts/trench-${name}.png`, fullPage });
   }
 }
