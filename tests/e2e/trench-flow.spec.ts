@@ -94,11 +94,11 @@ test("folded, the Trench page fits in three phone screens; one safety box; the p
   expect(folded).toBeLessThanOrEqual(3 * SCREEN.height);
   expect(folded).toBeLessThan(unfolded);
   // The folded set-up step still says what is chosen.
-  await expect(trench.section("1. Set up").locator("summary")).toContainText("WO-24117 · FM-201 · HP-31 · LV-C0001");
+  await expect(trench.summary("1. Set up")).toContainText("WO-24117 · FM-201 · HP-31 · LV-C0001");
 
   // Unfolded and scrolled halfway down, the plan's line is still at the top of the screen.
-  await trench.section("4. Record the values").locator("summary").click();
-  await trench.section("2. Pressure plan").locator("summary").click();
+  await trench.summary("4. Record the values").click();
+  await trench.summary("2. Pressure plan").click();
   await page.evaluate(() => window.scrollTo(0, document.documentElement.scrollHeight / 2));
   await expect.poll(async () => (await glance.boundingBox())?.y).toBeLessThanOrEqual(1);
   await expect(glance).toContainText("Fusion");
@@ -117,7 +117,7 @@ test("opening Trench and leaving leaves no joint in progress; typing something d
   const trench = new TrenchPage(page);
   await trench.goto();
   await page.goto("/");
-  const drafts = page.locator("#today-drafts");
+  const drafts = page.getByRole("region", { name: "Your open drafts" });
   await expect(drafts).toContainText("No drafts on this device.");
   await expect(page.getByText("A joint in progress")).toHaveCount(0);
 

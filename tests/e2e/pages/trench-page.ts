@@ -79,11 +79,16 @@ export class TrenchPage {
     return this.page.locator("details").filter({ has: this.page.locator("summary").filter({ hasText: title }) });
   }
 
+  /** The summary line of a step: click it to fold or unfold the step. */
+  summary(title: string): Locator {
+    return this.page.locator("summary").filter({ hasText: title });
+  }
+
   /** Folds every step (clicks a step's summary only when it is open). */
   async foldSteps(): Promise<void> {
     for (const title of ["1. Set up", "2. Pressure plan", "3. Phase timer", "4. Record the values"]) {
       const section = this.section(title);
-      if (await section.evaluate((d) => (d as HTMLDetailsElement).open)) await section.locator("summary").first().click();
+      if (await section.evaluate((d) => (d as HTMLDetailsElement).open)) await this.summary(title).click();
       await expect(section).not.toHaveAttribute("open");
     }
   }

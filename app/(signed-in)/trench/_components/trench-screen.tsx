@@ -108,7 +108,7 @@ export function TrenchScreen({ setup, prefill }: { setup: TrenchSetup; prefill?:
       <PlanSummary plan={plan} system={system} problem={planProblem} blocked={cannotRecord && blocks.open.length > 0} />
       <BlocksPanel open={blocks.open} covered={blocks.covered} overrides={setup.overrides} checking={checking} onCheckAgain={() => startChecking(() => router.refresh())} />
       <SafetyBox readToday={sections.safetyReadToday} onRead={sections.acknowledgeSafety} />
-      <div ref={resultRef}>{shown ? <ResultPanel entry={shown} onRemake={remake} onDismiss={dismissResult} /> : null}</div>
+      <div ref={resultRef} className="empty:hidden">{shown ? <ResultPanel entry={shown} onRemake={remake} onDismiss={dismissResult} /> : null}</div>
 
       <form onSubmit={handleSubmit(onValid, onInvalidOpen)} noValidate className="flex flex-col gap-4" aria-label="Record a joint">
         <input type="hidden" {...register("clientId")} />

@@ -6,7 +6,7 @@ import type { ReactNode } from "react";
 
 export function TrenchSection({ id, title, status, open, onToggle, children }: { id: string; title: string; status?: ReactNode; open: boolean; onToggle: (open: boolean) => void; children: ReactNode }) {
   return (
-    <details id={`section-${id}`} open={open} onToggle={(e) => onToggle(e.currentTarget.open)} className="group rounded-md border-2 border-slate-300 bg-white">
+    <details id={`section-${id}`} open={open} onToggle={(e) => onToggle(e.currentTarget.open)} className="min-w-0 rounded-md border-2 border-slate-300 bg-white">
       <summary className="flex min-h-12 cursor-pointer list-none items-center justify-between gap-3 px-3 py-2 [&::-webkit-details-marker]:hidden">
         <span className="flex min-w-0 flex-col">
           <h2 className="text-xl font-bold text-ink">{title}</h2>
@@ -17,7 +17,7 @@ export function TrenchSection({ id, title, status, open, onToggle, children }: {
         </span>
       </summary>
       {/* The step's own fieldset legend repeats the summary: kept for screen readers only. */}
-      <div className="flex flex-col gap-4 border-t-2 border-slate-200 p-3 [&>fieldset>legend]:sr-only">{children}</div>
+      <div className="flex min-w-0 flex-col gap-4 border-t-2 border-slate-200 p-3 [&>fieldset]:min-w-0 [&>fieldset>legend]:sr-only">{children}</div>
     </details>
   );
 }
