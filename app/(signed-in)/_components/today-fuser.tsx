@@ -14,8 +14,12 @@ export async function TodayFuser({ userId, now }: { userId: number; now: Date })
   const blocked = jobs.length > 0 && recordable.length === 0;
   return (
     <>
-      <TodayPanel id="today-qualification" title={blocked ? "You cannot record joints" : "Your qualification"} tone={anyQualified && !blocked ? "plain" : "attention"}>
-        {blocked ? <p className="mb-2 font-semibold">Your qualification does not cover the procedure of any of your open jobs. Ask an administrator to record your requalification.</p> : null}
+      {blocked ? (
+        <TodayPanel id="today-blocked" title="You cannot record joints" tone="attention">
+          <p className="font-semibold">Your qualification does not cover the procedure of any of your open jobs ({[...new Set(jobs.map((j) => j.procedureCode))].join(", ")}). Ask an administrator to record your requalification.</p>
+        </TodayPanel>
+      ) : null}
+      <TodayPanel id="today-qualification" title="Your qualification" tone={anyQualified ? "plain" : "attention"}>
         <QualificationStatusList statuses={statuses} empty="No qualification on record: you may not make joints until an administrator records one." />
       </TodayPanel>
       <TodayPanel id="today-jobs" title="Your jobs" href={recordable.length ? "/trench" : undefined} linkText="Record a joint">
