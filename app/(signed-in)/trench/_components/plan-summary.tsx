@@ -27,7 +27,7 @@ export function PlanSummary({ plan, system, problem, blocked }: { plan: FusionPl
           ))}
         </p>
       ) : (
-        <p className="truncate leading-6">Plan: {problem}</p>
+        <p className="truncate leading-6">Plan: {problem?.split(": ")[0]}</p>
       )}
       {blocked ? <p className="font-bold text-fail">Recording is blocked: see the top of the page.</p> : null}
     </div>
