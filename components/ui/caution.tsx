@@ -2,7 +2,7 @@
  * Safety cautions shown where the work is described. Beadline records and checks; it does
  * not replace the operator's qualified procedure, local codes or the qualified person.
  */
-const CAUTIONS = {
+export const CAUTIONS = {
   heater: "Heater plates run near 200–230 °C (400–450 °F) and burn: keep the plate in its stand, clean it only as the tool maker says (never with solvents).",
   pinch: "Keep hands out of the carriage, clamps and facer while they move or close.",
   coil: "Coiled pipe stores energy: restrain the free end before cutting bands and stand clear of its path while uncoiling or re-rounding.",

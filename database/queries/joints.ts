@@ -203,6 +203,37 @@ export async function listJoints({ jobId, fuserId, clientId, beforeId, limit = 5
   return ((await q) as JointQueryRow[]).map(toJoint);
 }
 
+/**
+ * Joints between two of these coils (both sides among `coilIds`), newest first: the Trench
+ * screen asks before the same two coils are joined again.
+ */
+export async function listJointsBetweenCoils(
+  { coilIds, limit = 500 }: { coilIds: number[]; limit?: number },
+  trx?: Db,
+): Promise<{ id: number; jobId: number; jointNo: number; madeAt: Date; coilACode: string; coilBCode: string; outcome: JointOutcome; reviewState: ReviewState; replacedByJointId: number | null }[]> {
+  if (coilIds.length === 0) return [];
+  const rows = (await conn(trx)("joints as j")
+    .join("coils as ca", "ca.id", "j.coil_a_id")
+    .join("coils as cb", "cb.id", "j.coil_b_id")
+    .leftJoin("joint_states as s", "s.joint_id", "j.id")
+    .whereIn("j.coil_a_id", coilIds)
+    .whereIn("j.coil_b_id", coilIds)
+    .orderBy([{ column: "j.made_at", order: "desc" }, { column: "j.id", order: "desc" }])
+    .limit(limit)
+    .select("j.id", "j.job_id", "j.joint_no", "j.made_at", "j.outcome", "ca.coil_code as ca_code", "cb.coil_code as cb_code", "s.review_state", "s.replaced_by_joint_id")) as (Pick<JointRow, "id" | "job_id" | "joint_no" | "made_at" | "outcome"> & { ca_code: string; cb_code: string; review_state: ReviewState | null; replaced_by_joint_id: number | null })[];
+  return rows.map((r) => ({
+    id: Number(r.id),
+    jobId: Number(r.job_id),
+    jointNo: Number(r.joint_no),
+    madeAt: r.made_at,
+    coilACode: r.ca_code,
+    coilBCode: r.cb_code,
+    outcome: r.outcome,
+    reviewState: r.review_state ?? "pending-review",
+    replacedByJointId: num(r.replaced_by_joint_id),
+  }));
+}
+
 /** Out-of-limits joints on these jobs that no remake has replaced yet (newest first). */
 export async function listJointsAwaitingRemake({ jobIds, limit = 50 }: { jobIds: number[]; limit?: number }, trx?: Db): Promise<{ id: number; jobId: number; jointNo: number; madeAt: Date; reviewState: ReviewState; coilACode: string | null; findings: JointFinding[] }[]> {
   if (jobIds.length === 0) return [];

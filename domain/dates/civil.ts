@@ -82,3 +82,11 @@ export function isIsoDate(text: string): boolean {
   const date = new Date(Date.UTC(y, m - 1, d));
   return date.getUTCFullYear() === y && date.getUTCMonth() === m - 1 && date.getUTCDate() === d;
 }
+
+const MONTH_ABBREVIATIONS = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sept', 'Oct', 'Nov', 'Dec'] as const;
+
+/** An ISO date as day and abbreviated month, as CLDR's British English writes it ("2026-11-30" → "30 Nov", September "Sept"), for short lines on a phone. */
+export function formatDayMonth(date: string): string {
+  const { month, day } = parseIsoDate(date);
+  return `${day} ${MONTH_ABBREVIATIONS[month - 1]}`;
+}

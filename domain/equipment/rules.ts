@@ -8,7 +8,7 @@
 // effective piston area (PPI TR-33 gauge method, CONFIRMED-2nd), so a machine without it
 // cannot be planned for.
 
-import { addDays } from '@/domain/dates/civil';
+import { addDays, formatDayMonth } from '@/domain/dates/civil';
 
 /**
  * A machine is usable for a joint when it is active and its total effective piston area
@@ -101,4 +101,16 @@ export function heaterProblems(heater: HeaterState & { assetTag: string }, on: s
   else if (heater.lastCheck === null) problems.push(`Heater plate ${heater.assetTag} has no surface-temperature check on record.`);
   else if (isHeaterCheckOverdue(heater, on)) problems.push(`Heater plate ${heater.assetTag} is due a surface-temperature check (due ${heater.lastCheck.nextDueOn}).`);
   return problems;
+}
+
+/**
+ * A heater plate's check state in words for a short line on the phone, judged on `on`
+ * by the same rule as the block (isHeaterCheckOverdue): "check overdue since 30 Nov",
+ * "check due 3 Dec", "last check failed", "never checked".
+ */
+export function heaterCheckPhrase(heater: HeaterState, on: string): string {
+  if (heater.lastCheck === null) return 'never checked';
+  if (!heater.lastCheck.passed) return 'last check failed';
+  if (isHeaterCheckOverdue(heater, on)) return `check overdue since ${formatDayMonth(heater.lastCheck.nextDueOn)}`;
+  return `check due ${formatDayMonth(heater.lastCheck.nextDueOn)}`;
 }

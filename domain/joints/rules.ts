@@ -13,6 +13,7 @@
 // is assigned to (our rule, no published source).
 
 import { isHeaterCheckOverdue, isHeaterFlagged } from '@/domain/equipment/rules';
+import { formatDayMonth } from '@/domain/dates/civil';
 import type { CoilStatus } from '@/domain/coils/statuses';
 import type { QualificationStatus } from '@/domain/qualifications/status';
 import { formatQuantity, type UnitSystem } from '@/domain/units/format';
@@ -153,7 +154,7 @@ export function blockReasons(input: BlockReasonsInput): BlockReason[] {
         severity: 'override',
         subject: { type: 'heater', id: h.id },
         message: h.lastCheck
-          ? `Heater plate ${h.assetTag} was due a surface-temperature check on ${h.lastCheck.nextDueOn}. Check the plate face, or ask ${who} to clear it for this job.`
+          ? `Heater plate ${h.assetTag}: surface-temperature check overdue since ${formatDayMonth(h.lastCheck.nextDueOn)} (due ${h.lastCheck.nextDueOn}). Check the plate face, or ask ${who} to clear it for this job.`
           : `Heater plate ${h.assetTag} has no surface-temperature check on record. Check the plate face, or ask ${who} to clear it for this job.`,
       });
     }

@@ -49,3 +49,12 @@ export const QUALIFICATION_STATE_LABELS: Record<QualificationStatus['state'], st
   'never-qualified': 'Not qualified',
   'needs-legacy-data': "Needs the older rule's data (before 2019-01-22)",
 };
+
+/**
+ * The jobs a person may record joints on: those whose procedure they hold a current
+ * qualification for on the day of `statuses` (49 CFR 192.285(c)). A procedure with no
+ * qualification on record is not qualified.
+ */
+export function jobsQualifiedFor<J extends { procedureId: number }>(jobs: J[], statuses: { procedureId: number; status: QualificationStatus }[]): J[] {
+  return jobs.filter((j) => statuses.some((s) => s.procedureId === j.procedureId && s.status.qualified));
+}

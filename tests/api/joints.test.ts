@@ -385,7 +385,7 @@ describe("recording a joint", () => {
   it("an overdue heater check or a quarantined coil blocks until an inspector clears it; the override is recorded", async () => {
     const blocked = await post(fuser, goodJoint(base, { heaterId: base.overdueHeaterId }));
     expect(blocked.status).toBe(409);
-    expect(blocked.body.error.fields.override[0]).toMatch(/HP-T2 was due a surface-temperature check/);
+    expect(blocked.body.error.fields.override[0]).toMatch(/HP-T2: surface-temperature check overdue since \d{1,2} [A-Z][a-z]{2,3} \(due \d{4}-\d{2}-\d{2}\)/);
     expect(blocked.body.error.fields.override[0]).toContain("Ivy Inspector");
     const quarantined = await post(fuser, goodJoint(base, { coilB: "T-C0009" }));
     expect(quarantined.status).toBe(409);

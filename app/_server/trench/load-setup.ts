@@ -1,11 +1,12 @@
 // Everything the Trench screen needs on the device, loaded once per page view so the
 // fuser can keep working when the signal drops: open jobs with their procedure and the
 // fuser's qualification dates, machines, heater plates with their last check, the crew's
-// coils, current overrides, joints waiting for a remake and the fuser's latest joints.
+// coils, current overrides, joints waiting for a remake, the joints already made between
+// two of those coils, and the fuser's latest joints.
 import "server-only";
 import { listHeatersWithLastCheck, listMachines } from "@/database/queries/equipment";
 import { listOpenJobsForFuser } from "@/database/queries/jobs";
-import { listCoilsForTrench, listJoints, listJointsAwaitingRemake, listOverridesForJobs } from "@/database/queries/joints";
+import { listCoilsForTrench, listJoints, listJointsAwaitingRemake, listJointsBetweenCoils, listOverridesForJobs } from "@/database/queries/joints";
 import { currentProcedureVersionForJob } from "@/database/queries/procedures";
 import { listQualificationFailuresForUser, listQualificationsForUser } from "@/database/queries/qualifications";
 import { listUsersWithRole, type UserRecord } from "@/database/queries/users";
@@ -27,7 +28,7 @@ export async function loadTrenchSetup(user: UserRecord, now = new Date()): Promi
     listUsersWithRole({ role: "inspector" }),
     listUsersWithRole({ role: "admin" }),
   ]);
-  const versions = await Promise.all(jobs.map((j) => currentProcedureVersionForJob({ jobId: j.id })));
+  const [versions, pairs] = await Promise.all([Promise.all(jobs.map((j) => currentProcedureVersionForJob({ jobId: j.id }))), listJointsBetweenCoils({ coilIds: coils.map((c) => c.id) })]);
   return {
     user: { id: user.id, name: user.name, unitSystem: user.unitSystem, crewId: user.crewId },
     jobs: jobs.map((j, i) => {
@@ -48,6 +49,7 @@ export async function loadTrenchSetup(user: UserRecord, now = new Date()): Promi
     coils: coils.map(toTrenchCoil),
     overrides: overrides.map((o) => ({ id: o.id, jobId: o.jobId, subjectType: o.subjectType, subjectId: o.subjectId, subjectLabel: o.subjectLabel, reason: o.reason, grantedById: o.grantedById, grantedByName: o.grantedByName, grantedAt: o.grantedAt.toISOString(), expiresAt: o.expiresAt.toISOString() })),
     remakes: remakes.map((r) => ({ id: r.id, jobId: r.jobId, jointNo: r.jointNo, madeAt: r.madeAt.toISOString(), reviewState: r.reviewState, coilACode: r.coilACode, findings: r.findings.map((f) => f.message) })),
+    pairs: pairs.map((p) => ({ id: p.id, jointNo: p.jointNo, jobId: p.jobId, coilACode: p.coilACode, coilBCode: p.coilBCode, madeAt: p.madeAt.toISOString(), outcome: p.outcome, reviewState: p.reviewState, replacedByJointId: p.replacedByJointId })),
     recent: recent.map((j) => ({ id: j.id, jobCode: j.jobCode, jointNo: j.jointNo, madeAt: j.madeAt.toISOString(), outcome: j.outcome, reviewState: j.reviewState })),
     inspectors: inspectors.map((u) => u.name),
     admins: admins.map((u) => u.name),

@@ -8,6 +8,7 @@ import type { CoilStatus } from "@/domain/coils/statuses";
 import type { JointOutcome } from "@/domain/joints/outcomes";
 import type { ReviewState } from "@/domain/joints/review-states";
 import type { UnitSystem } from "@/domain/units/format";
+import type { CoilPairJoint } from "@/domain/joints/same-coils";
 
 export type TrenchCoil = {
   id: number;
@@ -71,6 +72,9 @@ export type TrenchRemake = { id: number; jobId: number; jointNo: number; madeAt:
 
 export type TrenchRecent = { id: number; jobCode: string; jointNo: number; madeAt: string; outcome: JointOutcome; reviewState: ReviewState };
 
+/** A joint between two coils of the crew's list (the same two coils again needs a question). */
+export type TrenchCoilPair = CoilPairJoint;
+
 export type TrenchSetup = {
   user: { id: number; name: string; unitSystem: UnitSystem; crewId: number | null };
   jobs: TrenchJob[];
@@ -80,6 +84,8 @@ export type TrenchSetup = {
   overrides: TrenchOverride[];
   remakes: TrenchRemake[];
   recent: TrenchRecent[];
+  /** Joints already made between two of `coils` (newest first). */
+  pairs: TrenchCoilPair[];
   inspectors: string[];
   admins: string[];
   /** The organisation's IANA zone: the device shows times and takes "today" in it, as the server does. */

@@ -89,6 +89,38 @@ export class TrenchPage {
     return this.page.locator("label").filter({ hasText: label }).locator("span").filter({ hasText: /^(timed|typed)$/ }).last();
   }
 
+  /** A foldable step of the form, found by its summary's title ("1. Set up"). */
+  section(title: string): Locator {
+    return this.page.locator("details").filter({ has: this.page.locator("summary").filter({ hasText: title }) });
+  }
+
+  /** The summary line of a step: click it to fold or unfold the step. */
+  summary(title: string): Locator {
+    return this.page.locator("summary").filter({ hasText: title });
+  }
+
+  /** Folds every step (clicks a step's summary only when it is open). */
+  async foldSteps(): Promise<void> {
+    for (const title of ["1. Set up", "2. Pressure plan", "3. Phase timer", "4. Record the values"]) {
+      const section = this.section(title);
+      if (await section.evaluate((d) => (d as HTMLDetailsElement).open)) await this.summary(title).click();
+      await expect(section).not.toHaveAttribute("open");
+    }
+  }
+
+  safety(): Locator {
+    return this.page.getByRole("complementary", { name: "Safety" });
+  }
+
+  /** The one-line plan pinned at the top while scrolling. */
+  planAtAGlance(): Locator {
+    return this.page.getByRole("region", { name: "Plan at a glance" });
+  }
+
+  sameCoilsQuestion(): Locator {
+    return this.page.getByRole("alertdialog", { name: /These two coils were already joined/ });
+  }
+
   result(): Locator {
     return this.page.getByRole("heading", { level: 2 }).filter({ hasText: /Within limits|Out of limits/ });
   }
@@ -106,7 +138,7 @@ export class TrenchPage {
     return this.page.getByRole("list", { name: "Joints on this device" }).getByRole("listitem");
   }
 
-  async shot(name: string): Promise<void> {
-    await this.page.screenshot({ path: `tests/e2e/artifacts/trench-${name}.png`, fullPage: true });
+  async shot(name: string, fullPage = true): Promise<void> {
+    await this.page.screenshot({ path: `tests/e2e/artifacts/trench-${name}.png`, fullPage });
   }
 }

@@ -35,7 +35,8 @@ function bendCaution(coil: { outsideDiameterMm: number; sdr: number }, system: U
   }
 }
 
-// The coil page: what the label's QR opens. Facts, length left, bending caution, status moves, history.
+// The coil page: what the label's QR opens. For a fuser, "Use as side A/B" opens Trench
+// with this coil on that side. Facts, length left, bending caution, status moves, history.
 export default async function CoilPage({ params, searchParams }: { params: Promise<{ code: string }>; searchParams: Promise<Record<string, string | undefined>> }) {
   const user = await requireUser(); // any signed-in person may open a coil (as GET /api/v1/coils/:id)
   const timeZone = await organisationTimeZone();
@@ -70,6 +71,15 @@ export default async function CoilPage({ params, searchParams }: { params: Promi
         <h1 className="text-2xl font-bold">Coil {coil.coilCode}</h1>
         <CoilStatusBadge status={coil.status} />
       </div>
+      {can(user, "recordJoint") ? (
+        <nav aria-label="Record a joint with this coil" className="flex flex-wrap gap-2">
+          {(["A", "B"] as const).map((side) => (
+            <Link key={side} href={`/trench?side${side}=${encodeURIComponent(coil.coilCode)}`} className="inline-flex min-h-12 flex-1 items-center justify-center rounded-md bg-brand px-4 text-lg font-semibold text-white hover:bg-brand-dark">
+              Use as side {side}
+            </Link>
+          ))}
+        </nav>
+      ) : null}
       {query.received ? (
         <p role="status" className="rounded-md border-2 border-pass bg-pass-light p-3 font-semibold text-pass">
           Coil {coil.coilCode} received{coil.status === "quarantined" ? " and quarantined (failed receipt inspection)" : " into the yard"}.

@@ -1,6 +1,7 @@
 // What the Trench screen keeps on the device, so nothing is lost when the signal drops or
 // the page reloads: the draft (form values, phase-timer start/end instants, chosen coils,
-// photo references) and the outbox of joints waiting to be sent live in localStorage
+// photo references), the outbox of joints waiting to be sent and the screen's folded
+// sections and safety acknowledgement live in localStorage
 // under keys starting "beadline.trench."; photo bytes live in IndexedDB (idb-keyval),
 // because localStorage holds only text. Browser-only module (used by client components).
 import { del, get, set } from "idb-keyval";
@@ -85,6 +86,12 @@ export const clearDraft = (userId: number) => window.localStorage.removeItem(dra
 
 export const loadOutbox = (userId: number) => readJson<OutboxEntry[]>(outboxKey(userId), []);
 export const saveOutbox = (userId: number, entries: OutboxEntry[]) => writeJson(outboxKey(userId), entries);
+
+/** Which sections of the screen the fuser folded away, and the local day the safety box was read. */
+export type ScreenPrefs = { closed: string[]; safetyReadOn: string | null };
+export const prefsKey = (userId: number) => `${KEY_PREFIX}screen.${userId}`;
+export const loadScreenPrefs = (userId: number): ScreenPrefs => ({ closed: [], safetyReadOn: null, ...readJson<Partial<ScreenPrefs>>(prefsKey(userId), {}) });
+export const saveScreenPrefs = (userId: number, prefs: ScreenPrefs) => writeJson(prefsKey(userId), prefs);
 
 export const loadRemembered = (userId: number) => readJson<Remembered>(rememberKey(userId), {});
 export const saveRemembered = (userId: number, value: Remembered) => writeJson(rememberKey(userId), value);

@@ -23,7 +23,14 @@ export function useRecordBlocks(setup: TrenchSetup, { job, machine, heater }: Pi
   // components/ui/display-format).
   const today = isoDateIn(new Date(now || Date.parse(setup.loadedAt)), setup.timeZone);
   const blocks = useMemo(() => {
-    if (!job) return { open: [], covered: [] };
+    if (!job) {
+      // No job chosen yet: a fuser refused on every open job is told so at once.
+      const refusals = setup.jobs.flatMap((j) =>
+        blockReasons({ qualification: qualificationStatus({ qualifiedOn: j.qualifiedOn, failedTestsOn: j.failedOn, on: today }), procedureLabel: j.procedure ? `${j.procedure.code} (${j.procedure.name})` : j.code, heater: null, coils: [], on: today, admins: setup.admins, inspectors: [] }),
+      );
+      const everyJob = refusals.length > 0 && refusals.length === setup.jobs.length;
+      return { open: everyJob ? refusals.filter((r, i) => refusals.findIndex((o) => o.message === r.message) === i) : [], covered: [] };
+    }
     const qualification = qualificationStatus({ qualifiedOn: job.qualifiedOn, failedTestsOn: job.failedOn, on: today });
     const reasons = blockReasons({
       qualification,

@@ -2,13 +2,15 @@
 // "Record joint": a valid form is checked at once against the plan (a preliminary
 // result), put in the device's outbox and sent when it can be; the draft starts afresh
 // keeping the job, machine and heater. Also the remake of an out-of-limits joint and the
-// list of joints this one may replace.
+// list of joints this one may replace; before the same two coils are joined again, the
+// question whether this is a remake or a mistake.
 import { useMemo, useRef, useState, type Dispatch, type SetStateAction } from "react";
 import { checkJoint } from "@/domain/fusion/check";
 import type { FusionPlan } from "@/domain/fusion/plan";
 import { pickRecordedValues } from "@/domain/joints/values";
 import { entryKey, saveRemembered, type OutboxEntry, type PhotoRef, type Remembered } from "../../_client/device-store";
 import { findLocalCoil } from "../../_client/find-coil";
+import { earlierJointOfCoils, whyNotRemakeOf, type CoilPairJoint } from "@/domain/joints/same-coils";
 import type { TrenchSetup } from "@/app/_server/trench/setup-types";
 import type { useOutbox } from "../../_client/use-outbox";
 import type { FormIn, FormOut, SideCoils } from "./use-trench-draft";
@@ -21,11 +23,15 @@ interface RecordJointDeps {
   plan: FusionPlan | null;
   cannotRecord: boolean;
   photos: PhotoRef[];
+  coils: SideCoils;
   setCoils: Dispatch<SetStateAction<SideCoils>>;
   startNewDraft: (keep: Remembered, extra?: Partial<FormIn>) => void;
 }
 
-export function useRecordJoint({ setup, outbox, jobId, job, plan, cannotRecord, photos, setCoils, startNewDraft }: RecordJointDeps) {
+/** The question asked before the same two coils are joined again, with the values waiting on the answer. */
+export type SameCoilsQuestion = { values: FormOut; earlier: CoilPairJoint; whyNotRemake: string | null };
+
+export function useRecordJoint({ setup, outbox, jobId, job, plan, cannotRecord, photos, coils, setCoils, startNewDraft }: RecordJointDeps) {
   const system = setup.user.unitSystem;
   const userId = setup.user.id;
   const [shownResult, setShownResult] = useState<string | null>(null);
@@ -40,7 +46,48 @@ export function useRecordJoint({ setup, outbox, jobId, job, plan, cannotRecord, 
     return [...fromDevice, ...fromServer];
   }, [setup.remakes, outbox.entries, jobId]);
 
+  // Joints already made between two coils: the server's (with the page) and this device's
+  // own that the page does not know yet (waiting to be sent, or sent since it loaded).
+  const knownPairs = useMemo((): CoilPairJoint[] => {
+    const fromDevice = outbox.entries
+      .filter((e) => e.state !== "refused" && e.payload.kind === "coil-to-coil" && e.payload.coilB && !setup.pairs.some((p) => p.id === e.result?.id))
+      .map((e) => ({
+        id: e.result?.id ?? null,
+        jointNo: e.result?.jointNo ?? null,
+        jobId: Number(e.payload.jobId),
+        coilACode: String(e.payload.coilA ?? ""),
+        coilBCode: String(e.payload.coilB ?? ""),
+        madeAt: e.createdAt,
+        outcome: (e.result?.outcome ?? e.preliminary?.outcome ?? null) as CoilPairJoint["outcome"],
+        reviewState: null,
+        replacedByJointId: null,
+      }));
+    return [...setup.pairs, ...fromDevice];
+  }, [setup.pairs, outbox.entries]);
+  const [question, setQuestion] = useState<SameCoilsQuestion | null>(null);
+
   const onValid = (v: FormOut) => {
+    setFormMessage(null);
+    if (v.kind === "coil-to-coil") {
+      const earlier = earlierJointOfCoils(knownPairs, coils.A?.code ?? String(v.coilA ?? ""), coils.B?.code ?? String(v.coilB ?? ""));
+      if (earlier && !(earlier.id !== null && v.replacesJointId === earlier.id)) {
+        setQuestion({ values: v, earlier, whyNotRemake: whyNotRemakeOf(earlier, v.jobId) });
+        return;
+      }
+    }
+    record(v);
+  };
+
+  /** The fuser's answer to the same-coils question. "change" leaves the form as it is for a new coil. */
+  const answerSameCoils = (answer: "remake" | "anyway" | "change") => {
+    const q = question;
+    setQuestion(null);
+    if (!q || answer === "change") return;
+    if (answer === "remake" && q.earlier.id !== null && !q.whyNotRemake) record({ ...q.values, replacesJointId: q.earlier.id });
+    else if (answer === "anyway") record(q.values);
+  };
+
+  const record = (v: FormOut) => {
     setFormMessage(null);
     if (cannotRecord) {
       setFormMessage("This joint cannot be recorded yet: see the warnings in Set up.");
@@ -94,5 +141,5 @@ export function useRecordJoint({ setup, outbox, jobId, job, plan, cannotRecord, 
   const shown = outbox.entries.find((e) => entryKey(e) === shownResult) ?? null;
   const dismissResult = () => setShownResult(null);
 
-  return { onValid, onInvalid, remake, shown, dismissResult, formMessage, resultRef, remakeOptions };
+  return { onValid, onInvalid, remake, shown, dismissResult, formMessage, resultRef, remakeOptions, question, answerSameCoils };
 }
