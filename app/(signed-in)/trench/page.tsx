@@ -4,6 +4,7 @@ import { Cautions } from "@/components/ui/caution";
 import { requireUser } from "@/app/_lib/page-guard";
 import { loadTrenchSetup } from "@/app/_server/trench/load-setup";
 import { TrenchScreen } from "./_components/trench-screen";
+import { OfflineFreshness } from "./_components/offline-freshness";
 import { OUTCOME_LABELS } from "@/domain/joints/outcomes";
 
 export const metadata: Metadata = { title: "Trench" };
@@ -16,6 +17,7 @@ export default async function TrenchPage() {
   return (
     <div className="mx-auto flex w-full max-w-xl flex-col gap-4">
       <h1 className="text-2xl font-bold">Trench: record a joint</h1>
+      <OfflineFreshness loadedAt={setup.loadedAt} />
       <Cautions />
       <TrenchScreen setup={setup} />
       {setup.recent.length ? (
