@@ -25,7 +25,14 @@ async function keepTrench(): Promise<void> {
     const registration = await navigator.serviceWorker.ready;
     if (registration.active) await messageSW(registration.active, { type: "CACHE_URLS", payload: { urlsToCache: [TRENCH_PATH] } });
   }
-  if ((await savedAt()) !== null) window.dispatchEvent(new Event(TRENCH_KEPT_EVENT));
+  // The worker answers once the page is fetched; its copy is written just after: look a few times.
+  for (let i = 0; i < 20; i += 1) {
+    if ((await savedAt()) !== null) {
+      window.dispatchEvent(new Event(TRENCH_KEPT_EVENT));
+      return;
+    }
+    await new Promise((resolve) => window.setTimeout(resolve, 250));
+  }
 }
 
 export function OfflineSupport({ userId, keepsTrench }: { userId: number; keepsTrench: boolean }) {

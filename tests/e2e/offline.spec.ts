@@ -111,9 +111,12 @@ test("the Trench screen reloads without signal with its data, and a joint record
   const left = await page.evaluate(async () => ({
     caches: await caches.keys(),
     stored: Object.keys(localStorage).filter((k) => k.startsWith("beadline.")),
-    workers: (await navigator.serviceWorker.getRegistrations()).length,
   }));
-  expect(left).toEqual({ caches: [], stored: [], workers: 0 });
+  expect(left).toEqual({ caches: [], stored: [] });
+  // The worker was unregistered: once the page is loaded again nothing controls it.
+  await page.reload();
+  await expect(page.getByRole("button", { name: "Sign in" })).toBeVisible();
+  expect(await page.evaluate(async () => ({ workers: (await navigator.serviceWorker.getRegistrations()).length, caches: await caches.keys() }))).toEqual({ workers: 0, caches: [] });
 });
 
 test("sign-out keeps a joint that has not been sent, and it goes when the same fuser signs in again", async ({ page, context }) => {

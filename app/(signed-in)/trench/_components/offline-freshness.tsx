@@ -11,6 +11,8 @@ import { TRENCH_CACHE, TRENCH_KEPT_EVENT, TRENCH_PATH } from "@/components/offli
 /** Data older than this is read again when the signal is there. */
 const STALE_MS = 2 * 60_000;
 const TICK_MS = 30_000;
+const KEPT_LOOK_MS = 2_000;
+const KEPT_LOOKS = 30;
 
 const subscribeOnline = (onChange: () => void) => {
   window.addEventListener("online", onChange);
@@ -33,17 +35,26 @@ export function OfflineFreshness({ loadedAt }: { loadedAt: string }) {
   const [kept, setKept] = useState(false);
   const isStale = now !== null && now - Date.parse(loadedAt) > STALE_MS;
 
+  // Is the screen saved on the device? Asked on arrival, when the saving says it is done, and
+  // every few seconds for the first minute (the worker installs and saves in the background).
   useEffect(() => {
-    const look = () => {
-      if (!("caches" in window)) return;
+    if (!("caches" in window)) return;
+    let tries = 0;
+    const look = () =>
       void caches
         .match(TRENCH_PATH, { cacheName: TRENCH_CACHE, ignoreVary: true })
-        .then((saved) => setKept(Boolean(saved)))
+        .then((saved) => {
+          setKept(Boolean(saved));
+          if (saved) window.clearInterval(timer);
+        })
         .catch(() => undefined);
-    };
+    const timer = window.setInterval(() => (++tries > KEPT_LOOKS ? window.clearInterval(timer) : look()), KEPT_LOOK_MS);
     look();
     window.addEventListener(TRENCH_KEPT_EVENT, look);
-    return () => window.removeEventListener(TRENCH_KEPT_EVENT, look);
+    return () => {
+      window.clearInterval(timer);
+      window.removeEventListener(TRENCH_KEPT_EVENT, look);
+    };
   }, [loadedAt]);
 
   // Shown from the saved copy and the signal is there (or came back): read it again.
