@@ -31,7 +31,7 @@ export function SignOutButton({ signOut }: { signOut: () => Promise<void> }) {
       <button type="button" onClick={onClick} disabled={pending} className="min-h-touch rounded-md border-2 border-white px-3 font-semibold hover:bg-brand-dark">
         {pending ? "Signing out …" : "Sign out"}
       </button>
-      <dialog ref={dialog} aria-labelledby="unsent-heading" className="max-w-md rounded-lg border-2 border-caution bg-white p-4 text-ink backdrop:bg-black/50">
+      <dialog ref={dialog} aria-labelledby="unsent-heading" className="m-auto w-[calc(100%-2rem)] max-w-md rounded-lg border-2 border-caution bg-white p-4 text-ink backdrop:bg-black/50">
         <h2 id="unsent-heading" className="text-xl font-bold">
           {unsent.length === 1 ? "1 joint has not reached Beadline yet" : `${unsent.length} joints have not reached Beadline yet`}
         </h2>

@@ -10,7 +10,7 @@ const revision = randomUUID();
 // The build folder, as next.config.js sets it (the browser tests build into their own).
 const distDir = (process.env.BEADLINE_DIST_DIR || ".next").replace(/^\.\//, "").replace(/\/$/, "");
 
-export const { dynamic, dynamicParams, revalidate, generateStaticParams, GET } = createSerwistRoute({
+const serwist = createSerwistRoute({
   swSrc: "app/sw.ts",
   additionalPrecacheEntries: [{ url: OFFLINE_PAGE_PATH, revision }],
   // Serwist's default list for Next.js, plus the fonts (app/fonts, served from static/media),
@@ -19,3 +19,9 @@ export const { dynamic, dynamicParams, revalidate, generateStaticParams, GET } =
   // The native esbuild package is installed; Serwist would otherwise load esbuild-wasm.
   useNativeEsbuild: true,
 });
+
+// Built once at build time (prerendered): no request runs this handler, other paths are 404.
+export const dynamic = "force-static";
+export const dynamicParams = false;
+export const revalidate = false;
+export const { generateStaticParams, GET } = serwist;
