@@ -56,6 +56,16 @@ test("the Trench screen reloads without signal with its data, and a joint record
   // The service worker has saved the screen for use without signal, and says so.
   await expect(freshness(page)).toContainText("Kept on this device for use without signal.", { timeout: 30_000 });
   await expect(freshness(page)).toHaveText(/^Data from \d{2}:\d{2} UTC, just now\./);
+  // What the worker keeps: the build's files, the offline page and the Trench page; no API answer.
+  const kept = await page.evaluate(async () => {
+    const out: Record<string, string[]> = {};
+    for (const name of await caches.keys()) out[name] = (await (await caches.open(name)).keys()).map((r) => new URL(r.url).pathname);
+    return out;
+  });
+  expect(kept["beadline-trench"]).toEqual(["/trench"]);
+  const everyPath = Object.values(kept).flat();
+  expect(everyPath.filter((p) => p.startsWith("/api/"))).toEqual([]);
+  expect(everyPath.filter((p) => !p.startsWith("/_next/static/") && p !== "/trench" && p !== "/~offline")).toEqual([]);
 
   await context.setOffline(true);
   await page.reload();
