@@ -3,7 +3,7 @@
 // service worker is unregistered; joints not yet sent stay in the outbox, with their photos,
 // and go when the same person signs in again. Browser-only module.
 import { delMany, keys } from "idb-keyval";
-import { OFFLINE_OWNER_KEY, TRENCH_KEY_PREFIX, trenchPhotoKeyPrefix } from "./names";
+import { OFFLINE_OWNER_KEY, TRENCH_KEY_PREFIX, trenchOutboxKey, trenchPhotoKeyPrefix } from "./names";
 
 const OUTBOX_PREFIX = `${TRENCH_KEY_PREFIX}outbox.`;
 
@@ -23,15 +23,10 @@ function readOutbox(key: string): StoredEntry[] {
 
 const isUnsent = (e: StoredEntry) => e.state !== "sent";
 
-function outboxKeys(): string[] {
-  return Object.keys(window.localStorage).filter((k) => k.startsWith(OUTBOX_PREFIX));
-}
-
-/** The joints on this device that have not reached the server, every person's outbox. */
-export function unsentJointsOnDevice(): UnsentJoint[] {
+/** The joints on this device that this person recorded and that have not reached the server. */
+export function unsentJointsOnDevice(userId: number): UnsentJoint[] {
   if (typeof window === "undefined") return [];
-  return outboxKeys()
-    .flatMap(readOutbox)
+  return readOutbox(trenchOutboxKey(userId))
     .filter(isUnsent)
     .map((e) => ({ clientId: String(e.clientId ?? ""), label: String(e.label ?? ""), jobCode: String(e.jobCode ?? ""), isRefused: e.state === "refused" }));
 }

@@ -6,20 +6,38 @@ import { useRef, useState, useTransition } from "react";
 import { Button } from "@/components/ui/button";
 import { forgetDeviceData, unsentJointsOnDevice, type UnsentJoint } from "./device-data";
 
-export function SignOutButton({ signOut }: { signOut: () => Promise<void> }) {
+/** Any answer from the server (even "signed out") means sign-out can reach it. */
+async function reachesBeadline(): Promise<boolean> {
+  try {
+    await fetch("/api/v1/session", { cache: "no-store", credentials: "same-origin" });
+    return true;
+  } catch {
+    return false;
+  }
+}
+
+export function SignOutButton({ userId, signOut }: { userId: number; signOut: () => Promise<void> }) {
   const dialog = useRef<HTMLDialogElement>(null);
   const [unsent, setUnsent] = useState<UnsentJoint[]>([]);
+  const [problem, setProblem] = useState<string | null>(null);
   const [pending, startSignOut] = useTransition();
 
   const leave = () =>
     startSignOut(async () => {
       dialog.current?.close();
+      setProblem(null);
+      // Without signal the server cannot end the session: clear nothing, or the Trench screen
+      // would be gone from the device while the person is still signed in.
+      if (!(await reachesBeadline())) {
+        setProblem("No signal: signing out needs a connection. Nothing was cleared.");
+        return;
+      }
       await forgetDeviceData().catch(() => undefined);
       await signOut();
     });
 
   const onClick = () => {
-    const waiting = unsentJointsOnDevice();
+    const waiting = unsentJointsOnDevice(userId);
     if (waiting.length === 0) return leave();
     setUnsent(waiting);
     dialog.current?.showModal();
@@ -31,6 +49,11 @@ export function SignOutButton({ signOut }: { signOut: () => Promise<void> }) {
       <button type="button" onClick={onClick} disabled={pending} className="min-h-touch rounded-md border-2 border-white px-3 font-semibold hover:bg-brand-dark">
         {pending ? "Signing out …" : "Sign out"}
       </button>
+      {problem ? (
+        <p role="alert" className="text-sm font-semibold">
+          {problem}
+        </p>
+      ) : null}
       <dialog ref={dialog} aria-labelledby="unsent-heading" className="m-auto w-[calc(100%-2rem)] max-w-md rounded-lg border-2 border-caution bg-white p-4 text-ink backdrop:bg-black/50">
         <h2 id="unsent-heading" className="text-xl font-bold">
           {unsent.length === 1 ? "1 joint has not reached Beadline yet" : `${unsent.length} joints have not reached Beadline yet`}

@@ -96,6 +96,11 @@ test("the Trench screen reloads without signal with its data, and a joint record
   await trench.shot("offline-2-sign-out-warning");
   await warning.getByRole("button", { name: "Stay signed in" }).click();
   await expect(warning).toBeHidden();
+  // Signing out anyway without signal cannot reach the server: nothing is cleared.
+  await page.getByRole("button", { name: "Sign out" }).click();
+  await warning.getByRole("button", { name: "Sign out anyway" }).click();
+  await expect(page.getByRole("alert").filter({ hasText: "No signal: signing out needs a connection. Nothing was cleared." })).toBeVisible();
+  expect(await page.evaluate(async () => (await caches.keys()).includes("beadline-trench"))).toBe(true);
 
   // A page that is not kept for offline use says so, and leads back to the Trench screen.
   await page.goto("/");

@@ -22,7 +22,7 @@ export function AppShell({ user, screens, children }: { user: { id: number; name
               <span className="font-semibold">{user.name}</span> · {user.roles.map((r) => ROLE_LABELS[r]).join(", ")}
             </span>
             <UnitToggle unitSystem={user.unitSystem} />
-            <SignOutButton signOut={signOutAction} />
+            <SignOutButton userId={user.id} signOut={signOutAction} />
           </div>
         </div>
         <nav aria-label="Screens" className="bg-brand-dark">
