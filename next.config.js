@@ -40,7 +40,9 @@ const nextConfig = {
   poweredByHeader: false,
   // Type-checking runs once in `npm test` (tsc --noEmit over the whole tree); the build skips it.
   typescript: { ignoreBuildErrors: true },
-  serverExternalPackages: ["knex", "mysql2", "exceljs", "pino", "nodemailer", "@aws-sdk/client-s3"],
+  // esbuild builds the service worker at build time (app/serwist/[path]/route.ts), as
+  // @serwist/turbopack's withSerwist would add it.
+  serverExternalPackages: ["knex", "mysql2", "exceljs", "pino", "nodemailer", "@aws-sdk/client-s3", "esbuild"],
   experimental: { serverActions: { bodySizeLimit: "12mb" } },
   async headers() {
     return [{ source: "/:path*", headers: securityHeaders() }];

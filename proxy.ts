@@ -14,6 +14,7 @@ export function proxy(request: NextRequest) {
 }
 
 export const config = {
-  // Everything except the sign-in page, the JSON API (answers 401 itself), Next's assets and the icon.
-  matcher: ["/((?!sign-in|api/|_next/|icon.png|favicon.ico).*)"],
+  // Everything except the sign-in page, the JSON API (answers 401 itself), Next's assets, the
+  // icon, the service worker's script and its offline page (neither carries anyone's data).
+  matcher: ["/((?!sign-in|api/|_next/|icon.png|favicon.ico|serwist/|~offline).*)"],
 };

@@ -1,6 +1,6 @@
 // Finds every route handler (app/**/route.ts, by exported HTTP method) and every server action
 // (every exported function of app/**/actions.ts) by importing the modules.
-import { readdirSync, statSync } from "node:fs";
+import { readFileSync, readdirSync, statSync } from "node:fs";
 import path from "node:path";
 import { actionKey, routeKey } from "./routes";
 
@@ -27,8 +27,10 @@ export type Discovered = { routes: Map<string, { file: string; handler: (req: Re
 
 export async function discover(): Promise<Discovered> {
   const routes: Discovered["routes"] = new Map();
-  // Private folders (_name) are not routable in the App Router.
-  for (const file of walk(path.join(ROOT, "app"), "route.ts").filter((f) => !path.relative(ROOT, f).split(path.sep).some((s) => s.startsWith("_")))) {
+  // Private folders (_name) are not routable in the App Router. A route answered at build time
+  // (force-static, no other params) never runs for a request: there is no caller to check.
+  const builtAtBuildTime = (f: string) => /export const dynamic = "force-static"/.test(readFileSync(f, "utf8")) && /export const dynamicParams = false/.test(readFileSync(f, "utf8"));
+  for (const file of walk(path.join(ROOT, "app"), "route.ts").filter((f) => !path.relative(ROOT, f).split(path.sep).some((s) => s.startsWith("_")) && !builtAtBuildTime(f))) {
     const mod = (await import(file)) as Record<string, unknown>;
     for (const method of HTTP_METHODS) {
       if (typeof mod[method] === "function") routes.set(routeKey({ method, path: urlPathOf(file) }), { file, handler: mod[method] as never });

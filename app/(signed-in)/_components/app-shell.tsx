@@ -1,14 +1,17 @@
 import Link from "next/link";
 import type { Screen } from "@/domain/roles";
-import { ROLE_LABELS, type Role } from "@/domain/roles";
+import { can, ROLE_LABELS, type Role } from "@/domain/roles";
 import { signOutAction } from "@/app/(signed-out)/sign-in/actions";
+import { OfflineSupport } from "@/components/offline/offline-support";
+import { SignOutButton } from "@/components/offline/sign-out-button";
 import { UnitToggle } from "./unit-toggle";
 import type { UnitSystem } from "@/domain/units/format";
 
 /** The responsive shell: a top bar with the person and a navigation of their screens. */
-export function AppShell({ user, screens, timeZone, children }: { user: { name: string; roles: Role[]; unitSystem: UnitSystem }; screens: Screen[]; timeZone: string; children: React.ReactNode }) {
+export function AppShell({ user, screens, timeZone, children }: { user: { id: number; name: string; roles: Role[]; unitSystem: UnitSystem }; screens: Screen[]; timeZone: string; children: React.ReactNode }) {
   return (
     <div className="flex min-h-screen flex-col">
+      <OfflineSupport userId={user.id} keepsTrench={can(user, "recordJoint")} />
       <header className="no-print bg-brand text-white">
         <div className="mx-auto flex max-w-7xl flex-wrap items-center justify-between gap-2 px-4 py-2">
           <Link href="/" className="text-xl font-bold">
@@ -20,11 +23,7 @@ export function AppShell({ user, screens, timeZone, children }: { user: { name: 
             </span>
             <span>Times in {timeZone}</span>
             <UnitToggle unitSystem={user.unitSystem} />
-            <form action={signOutAction}>
-              <button type="submit" className="min-h-touch rounded-md border-2 border-white px-3 font-semibold hover:bg-brand-dark">
-                Sign out
-              </button>
-            </form>
+            <SignOutButton userId={user.id} signOut={signOutAction} />
           </div>
         </div>
         <nav aria-label="Screens" className="bg-brand-dark">

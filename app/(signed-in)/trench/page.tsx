@@ -5,6 +5,7 @@ import { loadTrenchSetup } from "@/app/_server/trench/load-setup";
 import { toTrenchCoil } from "@/app/_server/trench/setup-types";
 import { findCoilByCodeOrTrace } from "@/database/queries/coils";
 import { TrenchScreen } from "./_components/trench-screen";
+import { OfflineFreshness } from "./_components/offline-freshness";
 import { OUTCOME_LABELS } from "@/domain/joints/outcomes";
 
 export const metadata: Metadata = { title: "Trench" };
@@ -26,6 +27,7 @@ export default async function TrenchPage({ searchParams }: { searchParams: Promi
   return (
     <div className="mx-auto flex w-full max-w-xl flex-col gap-4">
       <h1 className="text-2xl font-bold">Trench: record a joint</h1>
+      <OfflineFreshness loadedAt={setup.loadedAt} />
       <TrenchScreen setup={setup} prefill={sideA || sideB ? { A: sideA, B: sideB } : undefined} />
       {setup.recent.length ? (
         <details className="rounded-md border-2 border-slate-300 bg-white">

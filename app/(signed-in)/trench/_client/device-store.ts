@@ -5,16 +5,15 @@
 // under keys starting "beadline.trench."; photo bytes live in IndexedDB (idb-keyval),
 // because localStorage holds only text. Browser-only module (used by client components).
 import { del, get, set } from "idb-keyval";
+import { TRENCH_KEY_PREFIX, trenchDraftKey as draftKey, trenchOutboxKey as outboxKey, trenchPhotoKeyPrefix, trenchRememberKey as rememberKey } from "@/components/offline/names";
 import type { PhaseTiming } from "@/domain/joints/timer";
 import type { RecordJointFormInput, RecordJointRawInput, TimedPhase } from "@/domain/joints/schemas";
 import type { RecordedJoint } from "@/app/_server/joints/record-joint";
 import type { TrenchCoil } from "@/app/_server/trench/setup-types";
 
-export const KEY_PREFIX = "beadline.trench.";
-export const draftKey = (userId: number) => `${KEY_PREFIX}draft.${userId}`;
-export const outboxKey = (userId: number) => `${KEY_PREFIX}outbox.${userId}`;
-export const rememberKey = (userId: number) => `${KEY_PREFIX}last.${userId}`;
-const photoKey = (id: string) => `${KEY_PREFIX}photo.${id}`;
+// The key names are shared with sign-out, which clears them (components/offline/names.ts).
+export { draftKey, outboxKey, rememberKey };
+const photoKey = (id: string) => `${trenchPhotoKeyPrefix}${id}`;
 
 export type PhotoRef = { key: string; name: string; type: string; size: number; uploadedId: number | null };
 
@@ -89,7 +88,7 @@ export const saveOutbox = (userId: number, entries: OutboxEntry[]) => writeJson(
 
 /** Which sections of the screen the fuser folded away, and the local day the safety box was read. */
 export type ScreenPrefs = { closed: string[]; safetyReadOn: string | null };
-export const prefsKey = (userId: number) => `${KEY_PREFIX}screen.${userId}`;
+export const prefsKey = (userId: number) => `${TRENCH_KEY_PREFIX}screen.${userId}`;
 export const loadScreenPrefs = (userId: number): ScreenPrefs => ({ closed: [], safetyReadOn: null, ...readJson<Partial<ScreenPrefs>>(prefsKey(userId), {}) });
 export const saveScreenPrefs = (userId: number, prefs: ScreenPrefs) => writeJson(prefsKey(userId), prefs);
 
