@@ -40,7 +40,7 @@ export function TodayDrafts({ userId }: { userId: number }) {
     <ul className="flex flex-col gap-1">
       {work.draftSavedAt !== null ? (
         <li>
-          <Link href="/trench" className="font-semibold text-brand underline">
+          <Link href="/trench" className="inline-flex min-h-touch items-center font-semibold text-brand underline">
             A joint in progress
           </Link>
           {work.draftSavedAt ? ` (saved ${work.draftSavedAt.slice(0, 16).replace("T", " ")} UTC)` : ""}

@@ -3,7 +3,7 @@
 // live in the draft, so the count survives a locked screen or a reload; the colour turns
 // at the limit (caution → pass when a minimum is reached, → fail past a maximum).
 import { Button } from "@/components/ui/button";
-import { PHASE_LABELS, type TimedPhase } from "@/domain/joints/schemas";
+import { PHASE_LABELS, type TimedPhase } from "@/domain/joints/record-words";
 import { phaseView, type PhaseLimits, type PhaseTiming } from "@/domain/joints/timer";
 
 const TONES = {

@@ -6,21 +6,20 @@
 // Values are typed in the user's units and held in SI. State and effects live in the
 // hooks beside it (hooks/): the draft, the phase timers, the plan preview, what blocks
 // recording, and recording itself; this file is the layout.
+import dynamic from "next/dynamic";
 import { useRouter } from "next/navigation";
 import { useCallback, useTransition } from "react";
 import { useWatch } from "react-hook-form";
 import { Field, FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
 import { Cautions } from "@/components/ui/caution";
-import { JOINT_KIND_LABELS, JOINT_KINDS, type TimedPhase } from "@/domain/joints/schemas";
+import { JOINT_KIND_LABELS, JOINT_KINDS, type TimedPhase } from "@/domain/joints/record-words";
 import type { TrenchCoil, TrenchSetup } from "@/app/_server/trench/setup-types";
 import { useOutbox } from "../_client/use-outbox";
 import { BlocksPanel } from "./blocks-panel";
 import { CoilPicker } from "./coil-picker";
 import { OutboxPanel } from "./outbox-panel";
 import { PhaseTimer } from "./phase-timer";
-import { PlanPanel } from "@/components/fusion/plan-panel";
-import { ResultPanel } from "./result-panel";
 import { SelectField } from "@/components/form/controls";
 import { UnitController } from "./unit-controller";
 import { quantitiesAskedIn, RecordedValueField } from "./recorded-value-field";
@@ -30,6 +29,10 @@ import { TIMED_VALUES, usePhaseTimers } from "./hooks/use-phase-timers";
 import { useRecordBlocks } from "./hooks/use-record-blocks";
 import { useRecordJoint } from "./hooks/use-record-joint";
 import { useTrenchDraft } from "./hooks/use-trench-draft";
+
+// Shown only once there is a plan or a recorded joint: loaded then, not with the page.
+const PlanPanel = dynamic(() => import("@/components/fusion/plan-panel").then((m) => m.PlanPanel), { ssr: false });
+const ResultPanel = dynamic(() => import("./result-panel").then((m) => m.ResultPanel), { ssr: false });
 
 export function TrenchScreen({ setup }: { setup: TrenchSetup }) {
   const system = setup.user.unitSystem;

@@ -1,19 +1,23 @@
 "use client";
 // Step 4 of the Trench form: the values measured and checked at the joint, the place
 // (station, and the device's location when the fuser allows it) and the bead photos.
+import dynamic from "next/dynamic";
 import { useState } from "react";
 import { Controller, useWatch, type UseFormReturn } from "react-hook-form";
 import { Button } from "@/components/ui/button";
-import { SHELTER_LABELS, SHELTERS, type RecordJointFormInput, type RecordJointFormValues } from "@/domain/joints/schemas";
+import type { RecordJointFormInput, RecordJointFormValues } from "@/domain/joints/schemas";
+import { SHELTER_LABELS, SHELTERS } from "@/domain/joints/shelters";
 import { CHECK_VALUES, type CheckValueKey } from "@/domain/joints/values";
 import { formatQuantity, type UnitSystem } from "@/domain/units/format";
 import type { PhotoRef } from "../_client/device-store";
-import { PhotoPicker } from "./photo-picker";
 import { SelectField } from "@/components/form/controls";
 import { UnitController } from "./unit-controller";
 import { quantitiesAskedIn, RecordedValueField } from "./recorded-value-field";
 import { Field } from "@/components/form/field";
 import { YesNo } from "./yes-no";
+
+// The photo picker (scaling, previews) loads after the page, not with it.
+const PhotoPicker = dynamic(() => import("./photo-picker").then((m) => m.PhotoPicker), { ssr: false, loading: () => <p className="text-sm text-ink">Photos of the bead: getting the photo picker ready …</p> });
 
 /** What step 4 asks: the typed values and yes/no checks of domain/joints/values (drag is asked with the machine, durations by the timer). */
 const TYPED = quantitiesAskedIn("values");

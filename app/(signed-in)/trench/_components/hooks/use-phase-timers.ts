@@ -3,7 +3,7 @@
 // duration field (seconds) and is marked "timed". The clock only redraws; the durations
 // come from the stored instants.
 import { useEffect, useState, type Dispatch, type SetStateAction } from "react";
-import { TIMED_PHASES, type TimedPhase } from "@/domain/joints/schemas";
+import { TIMED_PHASES, type TimedPhase } from "@/domain/joints/record-words";
 import { timedDurationS } from "@/domain/joints/timer";
 import { QUANTITY_VALUES, type RECORDED_VALUES } from "@/domain/joints/values";
 import type { PhaseTimings, TrenchForm } from "./use-trench-draft";

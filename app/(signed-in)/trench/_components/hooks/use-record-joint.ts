@@ -4,11 +4,11 @@
 // keeping the job, machine and heater. Also the remake of an out-of-limits joint and the
 // list of joints this one may replace.
 import { useMemo, useRef, useState, type Dispatch, type SetStateAction } from "react";
-import { checkJoint } from "@/domain/fusion/check";
 import type { FusionPlan } from "@/domain/fusion/plan";
 import { pickRecordedValues } from "@/domain/joints/values";
 import { saveRemembered, type OutboxEntry, type PhotoRef, type Remembered } from "../../_client/device-store";
 import { findLocalCoil } from "../../_client/find-coil";
+import { loadFusionTools } from "../../_client/load-fusion-tools";
 import type { TrenchSetup } from "@/app/_server/trench/setup-types";
 import type { useOutbox } from "../../_client/use-outbox";
 import type { FormIn, FormOut, SideCoils } from "./use-trench-draft";
@@ -40,7 +40,7 @@ export function useRecordJoint({ setup, outbox, jobId, job, plan, cannotRecord, 
     return [...fromDevice, ...fromServer];
   }, [setup.remakes, outbox.entries, jobId]);
 
-  const onValid = (v: FormOut) => {
+  const onValid = async (v: FormOut) => {
     setFormMessage(null);
     if (cannotRecord) {
       setFormMessage("This joint cannot be recorded yet: see the warnings in Set up.");
@@ -49,6 +49,8 @@ export function useRecordJoint({ setup, outbox, jobId, job, plan, cannotRecord, 
     const madeAt = new Date().toISOString();
     let preliminary: OutboxEntry["preliminary"] = null;
     if (plan) {
+      // Loaded with the plan (a plan exists only once the tools are on the device).
+      const { checkJoint } = await loadFusionTools();
       const check = checkJoint(plan, pickRecordedValues(v), { system, conditions: { ambientC: v.ambientC, shelter: v.shelter } });
       preliminary = { outcome: check.outcome, findings: check.findings.map((f) => f.message) };
     }

@@ -2,10 +2,12 @@
 // The form of the Trench screen and its draft on the device: react-hook-form with the
 // domain's zod schema, restored once from the device, saved on every keystroke and on
 // every timer, coil or photo change, and started afresh after a joint is recorded.
-import { zodResolver } from "@hookform/resolvers/zod";
+// The schema (and zod) is not part of the page's first load: it is fetched once the form is
+// usable and awaited by the first check (see schemaResolver).
 import { useEffect, useState } from "react";
-import { useForm, type UseFormReturn } from "react-hook-form";
-import { recordJointFormSchema, type RecordJointFormInput, type RecordJointFormValues, type TimedPhase } from "@/domain/joints/schemas";
+import { useForm, type Resolver, type UseFormReturn } from "react-hook-form";
+import type { RecordJointFormInput, RecordJointFormValues } from "@/domain/joints/schemas";
+import type { TimedPhase } from "@/domain/joints/record-words";
 import type { PhaseTiming } from "@/domain/joints/timer";
 import { clearDraft, emptyTimers, loadDraft, loadRemembered, saveDraft, type PhotoRef, type Remembered } from "../../_client/device-store";
 import type { TrenchCoil, TrenchSetup } from "@/app/_server/trench/setup-types";
@@ -15,6 +17,22 @@ export type FormOut = RecordJointFormValues;
 export type TrenchForm = UseFormReturn<FormIn, unknown, FormOut>;
 export type SideCoils = { A: TrenchCoil | null; B: TrenchCoil | null };
 export type PhaseTimings = Record<TimedPhase, PhaseTiming>;
+
+let loadingResolver: Promise<Resolver<FormIn, unknown, FormOut>> | null = null;
+
+/** The domain's zod schema as the form's resolver, loaded on first use (a failed load is tried again next time). */
+function loadSchemaResolver(): Promise<Resolver<FormIn, unknown, FormOut>> {
+  loadingResolver ??= Promise.all([import("@hookform/resolvers/zod"), import("@/domain/joints/schemas")]).then(
+    ([{ zodResolver }, { recordJointFormSchema }]) => zodResolver(recordJointFormSchema),
+    (error: unknown) => {
+      loadingResolver = null;
+      throw error;
+    },
+  );
+  return loadingResolver;
+}
+
+const schemaResolver: Resolver<FormIn, unknown, FormOut> = async (values, context, options) => (await loadSchemaResolver())(values, context, options);
 
 function blankValues(remembered: Remembered, clientId: string, setup: TrenchSetup): FormIn {
   const jobId = setup.jobs.some((j) => j.id === remembered.jobId) ? remembered.jobId : setup.jobs.length === 1 ? setup.jobs[0]!.id : undefined;
@@ -45,7 +63,7 @@ export function useTrenchDraft(setup: TrenchSetup) {
   const [restored, setRestored] = useState(false);
 
   const form: TrenchForm = useForm<FormIn, unknown, FormOut>({
-    resolver: zodResolver(recordJointFormSchema),
+    resolver: schemaResolver,
     defaultValues: blankValues({}, "", setup),
     mode: "onTouched",
   });
@@ -63,6 +81,8 @@ export function useTrenchDraft(setup: TrenchSetup) {
       reset(blankValues(loadRemembered(userId), crypto.randomUUID(), setup));
     }
     setRestored(true);
+    // Fetch the schema now, while there may be signal, so a check later needs no network.
+    void loadSchemaResolver().catch(() => undefined);
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [userId]);
 
