@@ -19,6 +19,7 @@ import { useOutbox } from "../_client/use-outbox";
 import { BlocksPanel } from "./blocks-panel";
 import { CoilPicker } from "./coil-picker";
 import { OutboxPanel } from "./outbox-panel";
+import { ResultPanel } from "./result-panel";
 import { PhaseTimer } from "./phase-timer";
 import { SelectField } from "@/components/form/controls";
 import { UnitController } from "./unit-controller";
@@ -30,9 +31,19 @@ import { useRecordBlocks } from "./hooks/use-record-blocks";
 import { useRecordJoint } from "./hooks/use-record-joint";
 import { useTrenchDraft } from "./hooks/use-trench-draft";
 
-// Shown only once there is a plan or a recorded joint: loaded then, not with the page.
-const PlanPanel = dynamic(() => import("@/components/fusion/plan-panel").then((m) => m.PlanPanel), { ssr: false });
-const ResultPanel = dynamic(() => import("./result-panel").then((m) => m.ResultPanel), { ssr: false });
+// Shown only once there is a plan: loaded then, not with the page (without signal and not
+// yet on the device, a line says so instead).
+const PlanPanel = dynamic(
+  () =>
+    import("@/components/fusion/plan-panel").then(
+      (m) => m.PlanPanel,
+      () =>
+        function PlanPanelUnavailable() {
+          return <p className="rounded-md border-2 border-caution bg-caution-light p-3 font-semibold text-caution">The plan table could not be loaded on this device (no signal). The joint can still be recorded; reload the page when the signal is back.</p>;
+        },
+    ),
+  { ssr: false },
+);
 
 export function TrenchScreen({ setup }: { setup: TrenchSetup }) {
   const system = setup.user.unitSystem;

@@ -17,7 +17,17 @@ import { Field } from "@/components/form/field";
 import { YesNo } from "./yes-no";
 
 // The photo picker (scaling, previews) loads after the page, not with it.
-const PhotoPicker = dynamic(() => import("./photo-picker").then((m) => m.PhotoPicker), { ssr: false, loading: () => <p className="text-sm text-ink">Photos of the bead: getting the photo picker ready …</p> });
+const PhotoPicker = dynamic(
+  () =>
+    import("./photo-picker").then(
+      (m) => m.PhotoPicker,
+      () =>
+        function PhotoPickerUnavailable() {
+          return <p className="font-semibold text-caution">Photos of the bead: the photo picker could not be loaded (no signal). Reload the page when the signal is back to add photos.</p>;
+        },
+    ),
+  { ssr: false, loading: () => <p className="text-sm text-ink">Photos of the bead: getting the photo picker ready …</p> },
+);
 
 /** What step 4 asks: the typed values and yes/no checks of domain/joints/values (drag is asked with the machine, durations by the timer). */
 const TYPED = quantitiesAskedIn("values");
