@@ -104,7 +104,7 @@ export function PlanPanel({ plan, system, procedure, sources = "inline" }: { pla
       ) : null}
       {inline ? null : (
         <details className="mt-2 text-sm text-ink">
-          <summary className="cursor-pointer font-semibold text-brand-dark">Where these limits come from</summary>
+          <summary className="min-h-touch cursor-pointer py-3 font-semibold text-brand-dark">Where these limits come from</summary>
           <ul className="mt-1 list-disc pl-5">
             {limits.map((l) => (
               <li key={l.name}>

@@ -9,7 +9,7 @@ const VARIANTS: Record<Variant, string> = {
   ghost: "bg-transparent text-brand underline-offset-2 hover:underline",
 };
 
-/** A button with a 44 px minimum touch target; say what it does in its label. */
+/** A button with a 48 px minimum touch target (min-h-touch); say what it does in its label. */
 export function Button({ variant = "primary", className = "", ...props }: ButtonHTMLAttributes<HTMLButtonElement> & { variant?: Variant }) {
   return (
     <button

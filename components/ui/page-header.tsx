@@ -6,7 +6,7 @@ export function PageHeader({ backHref, backText, title }: { backHref: string; ba
   return (
     <>
       <p>
-        <Link href={backHref} className="text-brand underline">
+        <Link href={backHref} className="inline-flex min-h-touch items-center text-brand underline">
           {backText}
         </Link>
       </p>

@@ -6,30 +6,10 @@ import { z } from 'zod';
 import { unitLabel } from '@/domain/units/format';
 import { SHELTERS } from '@/domain/joints/shelters';
 import { DEPRECATED_WIRE_NAMES, RECORDED_VALUE_DEFINITIONS, RECORDED_VALUES } from '@/domain/joints/values';
+import { JOINT_KINDS, MAX_PHOTOS_PER_JOINT, TIMED_PHASES, type JointKind } from '@/domain/joints/record-words';
 
-export const JOINT_KINDS = ['coil-to-coil', 'tie-in', 'fitting'] as const;
-export type JointKind = (typeof JOINT_KINDS)[number];
-
-export const JOINT_KIND_LABELS: Record<JointKind, string> = {
-  'coil-to-coil': 'Coil to coil',
-  'tie-in': 'Tie-in to pipe in the ground',
-  fitting: 'Coil to fitting',
-};
-
+export { JOINT_KINDS, JOINT_KIND_LABELS, type JointKind, TIMED_PHASES, PHASE_LABELS, type TimedPhase, MAX_PHOTOS_PER_JOINT } from '@/domain/joints/record-words';
 export { SHELTERS, SHELTER_LABELS, type Shelter } from '@/domain/joints/shelters';
-
-/** The phases the Trench timer can time; the rest of a record's durations are typed. */
-export const TIMED_PHASES = ['heatSoak', 'changeover', 'cooling'] as const;
-export type TimedPhase = (typeof TIMED_PHASES)[number];
-
-export const PHASE_LABELS: Record<TimedPhase, string> = {
-  heatSoak: 'Heat soak',
-  changeover: 'Changeover',
-  cooling: 'Cooling',
-};
-
-/** Up to 6 bead photos per joint (issue 5). */
-export const MAX_PHOTOS_PER_JOINT = 6;
 
 const idOf = (what: string) =>
   z

@@ -7,7 +7,10 @@
 // submission under load (autocannon, 50 clients, 30 s). Prints one table and writes it as
 // JSON under tests/bench/results/. Not part of `npm test`.
 //
+// Then the Trench page's first load on a throttled phone (tests/bench/trench.ts).
+//
 // Flags: --joints <n> (default 1,000,000)  --skip-build (reuse .next-bench)  --keep (leave the stack up, print its env)
+//        --only trench (demo data only, no synthetic register: just the Trench first-load figures)
 import "../support/server-only-outside-next";
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { randomUUID } from "node:crypto";
@@ -25,11 +28,15 @@ import { loadSyntheticRegister, type SyntheticRegister } from "./synthetic-regis
 /** The server takes the organisation's zone (the server's own by default: UTC here); the knex-only figures use the same. */
 const BENCH_ZONE = "UTC";
 import { demoJointBody, signInCookie, waitForServer } from "../support/joint-body";
+import { measureTrenchLoad } from "./trench";
 
 const ROOT = path.resolve(__dirname, "..", "..");
 const args = process.argv.slice(2);
 const argValue = (name: string) => (args.includes(name) ? args[args.indexOf(name) + 1] : undefined);
-const JOINTS = Number(argValue("--joints") ?? 1_000_000);
+const ONLY = argValue("--only");
+if (ONLY !== undefined && ONLY !== "trench") throw new Error(`--only ${ONLY}: the only short mode is --only trench`);
+const ONLY_TRENCH = ONLY === "trench";
+const JOINTS = ONLY_TRENCH ? 0 : Number(argValue("--joints") ?? 1_000_000);
 const SKIP_BUILD = args.includes("--skip-build");
 const KEEP = args.includes("--keep");
 const DIST_DIR = ".next-bench";
@@ -488,7 +495,7 @@ async function main(): Promise<number> {
     // The synthetic joints take about 2.4 GB (each carries its pressure plan as JSON, as
     // recorded joints do) plus 0.4 GB of indexes: a buffer pool that holds them, as a
     // database server for a register this size would be given.
-    process.env.BEADLINE_DB_BUFFER_POOL ||= "4G";
+    process.env.BEADLINE_DB_BUFFER_POOL ||= ONLY_TRENCH ? "256M" : "4G";
     log(`starting a throw-away MariaDB (buffer pool ${process.env.BEADLINE_DB_BUFFER_POOL}), object store and mail server in ${tmp}`);
     stack = await startLocalStack({ dir: tmp, ports: "free", log });
     await migrateLatest(stack.env.MIGRATION_DATABASE_URL);
@@ -500,11 +507,11 @@ async function main(): Promise<number> {
       const mod = (await import(path.join(ROOT, "database", "seeds", file))) as { seed: (k: Knex, today?: Date) => Promise<void> };
       await mod.seed(owner, new Date());
     }
-    log(`demo scenario loaded; loading ${JOINTS.toLocaleString("en-US")} synthetic joints …`);
+    log(ONLY_TRENCH ? "demo scenario loaded (--only trench: no synthetic register)" : `demo scenario loaded; loading ${JOINTS.toLocaleString("en-US")} synthetic joints …`);
     const loadStart = Date.now();
-    const data = await loadSyntheticRegister(owner, { joints: JOINTS, log });
+    const data = ONLY_TRENCH ? (null as unknown as SyntheticRegister) : await loadSyntheticRegister(owner, { joints: JOINTS, log });
     const loadS = (Date.now() - loadStart) / 1000;
-    add({ figure: `bulk load of ${JOINTS.toLocaleString("en-US")} joints (+ states, findings, indexes)`, value: round(loadS, 0), unit: "s", target: "minutes, not hours", pass: loadS < 900, note: "INSERT … SELECT … WITH RECURSIVE in chunks of 100,000" });
+    if (!ONLY_TRENCH) add({ figure: `bulk load of ${JOINTS.toLocaleString("en-US")} joints (+ states, findings, indexes)`, value: round(loadS, 0), unit: "s", target: "minutes, not hours", pass: loadS < 900, note: "INSERT … SELECT … WITH RECURSIVE in chunks of 100,000" });
 
     const port = await freePort();
     const baseUrl = `http://127.0.0.1:${port}`;
@@ -527,14 +534,27 @@ async function main(): Promise<number> {
     if (KEEP) console.log(Object.entries(stack.env).map(([k, v]) => `export ${k}='${v}'`).join("\n"));
 
     const clerk = await signIn(baseUrl, "clerk@larkmoor-gas.example", DEMO_PASSWORD);
-    const steps: [string, () => Promise<void>][] = [
-      ["register pages", () => measureRegister(baseUrl, clerk, data)],
-      ["lot trace", () => measureTrace(baseUrl, clerk, data)],
-      ["export", () => measureExport(baseUrl, clerk, data, serverPid, owner!)],
-      ["joint submission", () => measureSubmission(baseUrl, owner!, serverPid)],
+    const trenchStep: [string, () => Promise<void>] = [
+      "trench first load (Chromium, slow network and CPU)",
+      async () => {
+        // Before the submission load: the fuser's latest joints are then the demo ones.
+        const fuser = await signIn(baseUrl, "fuser@larkmoor-gas.example", DEMO_PASSWORD);
+        const trench = await measureTrenchLoad({ baseUrl, cookie: fuser, log });
+        figures.push(...trench.figures);
+        detail.trench = trench.detail;
+      },
     ];
+    const steps: [string, () => Promise<void>][] = ONLY_TRENCH
+      ? [trenchStep]
+      : [
+          ["register pages", () => measureRegister(baseUrl, clerk, data)],
+          ["lot trace", () => measureTrace(baseUrl, clerk, data)],
+          ["export", () => measureExport(baseUrl, clerk, data, serverPid, owner!)],
+          trenchStep,
+          ["joint submission", () => measureSubmission(baseUrl, owner!, serverPid)],
+        ];
     const loadBench = path.join(__dirname, "load.ts");
-    if (existsSync(loadBench)) {
+    if (!ONLY_TRENCH && existsSync(loadBench)) {
       steps.push([
         "further load bench (tests/bench/load.ts)",
         async () => {

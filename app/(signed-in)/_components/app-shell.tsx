@@ -14,7 +14,7 @@ export function AppShell({ user, screens, timeZone, children }: { user: { id: nu
       <OfflineSupport userId={user.id} keepsTrench={can(user, "recordJoint")} />
       <header className="no-print bg-brand text-white">
         <div className="mx-auto flex max-w-7xl flex-wrap items-center justify-between gap-2 px-4 py-2">
-          <Link href="/" className="text-xl font-bold">
+          <Link href="/" className="flex min-h-touch items-center text-xl font-bold">
             Beadline
           </Link>
           <div className="flex flex-wrap items-center gap-3 text-sm">

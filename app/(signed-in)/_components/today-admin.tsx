@@ -38,7 +38,7 @@ function EquipmentLinks<T extends { id: number; assetTag: string }>({ items, pat
     <ul className="flex flex-col gap-1">
       {items.map((item) => (
         <li key={item.id}>
-          <Link className="font-semibold text-brand underline" href={`${path}/${item.id}`}>
+          <Link className="inline-flex min-h-touch items-center font-semibold text-brand underline" href={`${path}/${item.id}`}>
             {item.assetTag}
           </Link>
           {note(item)}

@@ -43,7 +43,7 @@ export function TodayDrafts({ userId }: { userId: number }) {
     <ul className="flex flex-col gap-1">
       {work.draftSavedAt !== null ? (
         <li>
-          <Link href="/trench" className="font-semibold text-brand underline">
+          <Link href="/trench" className="inline-flex min-h-touch items-center font-semibold text-brand underline">
             A joint in progress
           </Link>
           {work.draftSavedAt && !Number.isNaN(Date.parse(work.draftSavedAt)) ? ` (saved ${formatInstant(work.draftSavedAt, "minute", timeZone)})` : ""}

@@ -9,7 +9,7 @@ export function TodayPanel({ id, title, href, linkText, tone = "plain", children
       <div>{children}</div>
       {href ? (
         <p>
-          <Link href={href} className="font-semibold text-brand underline">
+          <Link href={href} className="inline-flex min-h-touch items-center font-semibold text-brand underline">
             {linkText ?? "Open"}
           </Link>
         </p>

@@ -72,7 +72,7 @@ export default async function JointPage({ params }: Params) {
         {joint.replacesJointId ? (
           <p>
             This joint remakes{" "}
-            <Link className="font-semibold text-brand underline" href={`/joints/${joint.replacesJointId}`}>
+            <Link className="inline-flex min-h-touch items-center font-semibold text-brand underline" href={`/joints/${joint.replacesJointId}`}>
               joint {joint.replacesJointNo}
             </Link>
             .
@@ -81,7 +81,7 @@ export default async function JointPage({ params }: Params) {
         {joint.replacedByJointId ? (
           <p className="font-semibold">
             Replaced by{" "}
-            <Link className="text-brand underline" href={`/joints/${joint.replacedByJointId}`}>
+            <Link className="inline-flex min-h-touch items-center text-brand underline" href={`/joints/${joint.replacedByJointId}`}>
               joint {joint.replacedByJointNo}
             </Link>
             .
@@ -110,7 +110,7 @@ export default async function JointPage({ params }: Params) {
           <Value name="Side A">
             {joint.coilA ? (
               <>
-                <Link className="font-semibold text-brand underline" href={`/coils/${encodeURIComponent(joint.coilA.code)}`}>
+                <Link className="inline-flex min-h-touch items-center font-semibold text-brand underline" href={`/coils/${encodeURIComponent(joint.coilA.code)}`}>
                   {joint.coilA.code}
                 </Link>{" "}
                 · {joint.coilA.manufacturer} lot {joint.coilA.lot}
@@ -123,7 +123,7 @@ export default async function JointPage({ params }: Params) {
           <Value name="Side B">
             {joint.coilB ? (
               <>
-                <Link className="font-semibold text-brand underline" href={`/coils/${encodeURIComponent(joint.coilB.code)}`}>
+                <Link className="inline-flex min-h-touch items-center font-semibold text-brand underline" href={`/coils/${encodeURIComponent(joint.coilB.code)}`}>
                   {joint.coilB.code}
                 </Link>{" "}
                 · {joint.coilB.manufacturer} lot {joint.coilB.lot}

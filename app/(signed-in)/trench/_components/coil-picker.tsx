@@ -2,14 +2,35 @@
 // One side of the joint: scan the coil label with the camera or type the coil id (or the
 // F2897 code printed on the pipe). The coil is looked up on the device first (the crew's
 // coils came with the page, so this works without signal), then on the server.
+import dynamic from "next/dynamic";
 import { useCallback, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { formatQuantity, type UnitSystem } from "@/domain/units/format";
 import { lookupCoilAction } from "../actions";
 import { findLocalCoil } from "../_client/find-coil";
 import type { TrenchCoil } from "@/app/_server/trench/setup-types";
-import { CameraScanner } from "@/components/ui/camera-scanner";
 import { controlBorder, FieldShell } from "@/components/form/field-shell";
+
+// The camera scanner (and @zxing) loads when the fuser opens it, not with the page. Without
+// signal (and not yet on the device) it says so; typing the coil id still works.
+const CameraScanner = dynamic(
+  () =>
+    import("@/components/ui/camera-scanner").then(
+      (m) => m.CameraScanner,
+      () =>
+        function CameraUnavailable({ fallback, onClose }: { fallback: string; onClose: () => void }) {
+          return (
+            <div role="alert" className="flex flex-col gap-2 rounded-md border-2 border-fail bg-fail-light p-2 font-semibold text-fail">
+              <p>The camera scanner could not be loaded (no signal). {fallback}</p>
+              <Button type="button" variant="secondary" onClick={onClose}>
+                Close the camera
+              </Button>
+            </div>
+          );
+        },
+    ),
+  { ssr: false, loading: () => <p className="font-semibold text-ink">Starting the camera …</p> },
+);
 
 const STATUS_WORDS: Record<TrenchCoil["status"], string> = { "in-yard": "in the yard", "on-trailer": "on a trailer", "in-use": "in use", "used-up": "used up", quarantined: "quarantined" };
 

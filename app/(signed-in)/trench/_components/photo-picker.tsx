@@ -4,7 +4,7 @@
 // they fit the 10 MB limit and a poor connection; HEIC goes as taken.
 import { useEffect, useState } from "react";
 import { Button } from "@/components/ui/button";
-import { MAX_PHOTOS_PER_JOINT } from "@/domain/joints/schemas";
+import { MAX_PHOTOS_PER_JOINT } from "@/domain/joints/record-words";
 import { FieldShell } from "@/components/form/field-shell";
 import { dropPhoto, readPhoto, storePhoto, type PhotoRef } from "../_client/device-store";
 

@@ -7,6 +7,7 @@
 // hooks beside it (hooks/): the draft, the phase timers, the plan preview, what blocks
 // recording, and recording itself; this file is the layout: the plan's key limits stay
 // at the top while scrolling, blocks come first, one safety box, and each step folds away.
+import dynamic from "next/dynamic";
 import { useRouter } from "next/navigation";
 import { useCallback, useTransition } from "react";
 import { useWatch } from "react-hook-form";
@@ -24,7 +25,6 @@ import { BlocksPanel } from "./blocks-panel";
 import { CoilPicker } from "./coil-picker";
 import { OutboxPanel } from "./outbox-panel";
 import { PhaseControl } from "./phase-control";
-import { PlanPanel } from "@/components/fusion/plan-panel";
 import { ResultPanel } from "./result-panel";
 import { SelectField } from "@/components/form/controls";
 import { UnitController } from "./unit-controller";
@@ -40,6 +40,20 @@ import { PlanSummary } from "./plan-summary";
 import { SafetyBox } from "./safety-box";
 import { SameCoilsQuestion } from "./same-coils-question";
 import { TrenchSection } from "./trench-section";
+
+// Shown only once there is a plan: loaded then, not with the page (without signal and not
+// yet on the device, a line says so instead).
+const PlanPanel = dynamic(
+  () =>
+    import("@/components/fusion/plan-panel").then(
+      (m) => m.PlanPanel,
+      () =>
+        function PlanPanelUnavailable() {
+          return <p className="rounded-md border-2 border-caution bg-caution-light p-3 font-semibold text-caution">The plan table could not be loaded on this device (no signal). The joint can still be recorded; reload the page when the signal is back.</p>;
+        },
+    ),
+  { ssr: false },
+);
 
 export function TrenchScreen({ setup, prefill }: { setup: TrenchSetup; prefill?: SidePrefill }) {
   const system = setup.user.unitSystem;

@@ -3,6 +3,7 @@
 // (station, and the device's location when the fuser allows it) and the bead photos.
 // With the plan known, each value says beside its field whether it is inside the plan as
 // it is typed (recorded-value-field); the server's check on recording is the record.
+import dynamic from "next/dynamic";
 import { useState } from "react";
 import { Controller, useWatch, type UseFormReturn } from "react-hook-form";
 import { Button } from "@/components/ui/button";
@@ -12,12 +13,24 @@ import { formatQuantity, type UnitSystem } from "@/domain/units/format";
 import type { FusionPlan } from "@/domain/fusion/plan";
 import type { PhotoRef } from "../_client/device-store";
 import { useJudgeOptions } from "./hooks/use-judge-options";
-import { PhotoPicker } from "./photo-picker";
 import { SelectField } from "@/components/form/controls";
 import { UnitController } from "./unit-controller";
 import { quantitiesAskedIn, RecordedValueField } from "./recorded-value-field";
 import { Field } from "@/components/form/field";
 import { YesNo } from "./yes-no";
+
+// The photo picker (scaling, previews) loads after the page, not with it.
+const PhotoPicker = dynamic(
+  () =>
+    import("./photo-picker").then(
+      (m) => m.PhotoPicker,
+      () =>
+        function PhotoPickerUnavailable() {
+          return <p className="font-semibold text-caution">Photos of the bead: the photo picker could not be loaded (no signal). Reload the page when the signal is back to add photos.</p>;
+        },
+    ),
+  { ssr: false, loading: () => <p className="text-sm text-ink">Photos of the bead: getting the photo picker ready …</p> },
+);
 
 /** What step 4 asks: the typed values and yes/no checks of domain/joints/values (drag is asked with the machine, durations by the timer). */
 const TYPED = quantitiesAskedIn("values");
