@@ -79,7 +79,7 @@ test("the Trench screen reloads without signal with its data, and a joint record
   await trench.chooseSetup({ job: "WO-24117 · Fenwick Lane main renewal", machine: "FM-201 · Hydraulic butt-fusion machine, 2–8 in IPS", heater: "HP-31" });
   await expect(page.getByText("Procedure from the job:")).toContainText("LVG-BF-01");
   await trench.fillTypedJoint(JOINT);
-  await trench.recordButton.click();
+  await trench.record();
   await expect(trench.result()).toHaveText("This joint: Within limits");
   await expect(trench.outboxStatus()).toContainText("1 joint is waiting to be sent");
   const clientId = await page.evaluate(() => {
@@ -143,7 +143,7 @@ test("sign-out keeps a joint that has not been sent, and it goes when the same f
   await trench.chooseSetup({ job: "WO-24117 · Fenwick Lane main renewal", machine: "FM-201 · Hydraulic butt-fusion machine, 2–8 in IPS", heater: "HP-31" });
   await trench.fillTypedJoint({ ...JOINT, station: "7+40" });
   await context.setOffline(true);
-  await trench.recordButton.click();
+  await trench.record();
   await expect(trench.outboxStatus()).toContainText("1 joint is waiting to be sent");
   const clientId = await page.evaluate(() => {
     const key = Object.keys(localStorage).find((k) => k.startsWith("beadline.trench.outbox."))!;

@@ -271,7 +271,7 @@ test("a second tab recording the same draft with other values is told so, and it
   });
 
   // The first tab records it.
-  await first.recordButton.click();
+  await first.record();
   await expect(first.result()).toHaveText(/^Joint \d+ on WO-24117: Within limits$/);
   const jointNo = Number(/Joint (\d+)/.exec((await first.result().textContent()) ?? "")![1]);
 
@@ -279,7 +279,7 @@ test("a second tab recording the same draft with other values is told so, and it
   // 440 °F is still inside 400–450 °F (ASTM F2620 via the PPI "Melt Procedure" page).
   await second.field("Heater temperature measured at the face").fill("440");
   await second.field("Station (place along the job)").fill("5+30");
-  await second.recordButton.click();
+  await second.record();
   const notice = second.reusedIdNotice();
   await expect(notice).toBeVisible();
   await expect(notice.getByRole("alert")).toContainText(`already used for joint ${jointNo} on WO-24117 with other values (heater temperature, when the joint was made, station)`);

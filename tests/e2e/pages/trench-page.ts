@@ -27,6 +27,20 @@ export class TrenchPage {
     await expect(this.recordButton).toBeEnabled();
   }
 
+  /**
+   * Taps "Record joint" and, when the two coils were already joined (earlier tests share the
+   * demo data), answers the same-coils question with "Record anyway".
+   */
+  async record(): Promise<void> {
+    await this.recordButton.click();
+    const question = this.sameCoilsQuestion();
+    const asked = await question.waitFor({ state: "visible", timeout: 1500 }).then(
+      () => true,
+      () => false,
+    );
+    if (asked) await question.getByRole("button", { name: "Record anyway" }).click();
+  }
+
   get recordButton(): Locator {
     return this.page.getByRole("button", { name: "Record joint", exact: true });
   }

@@ -1,7 +1,8 @@
 "use client";
 // The plan's key limits in one line that stays at the top while the fuser scrolls: the
 // gauge pressure to set and the heater window first, then the bead, the changeover and
-// cooling limits (the line scrolls sideways on a narrow phone).
+// cooling limits (the line wraps on a narrow phone rather than scroll sideways: a region that
+// scrolls needs keyboard access, WCAG 2.1.1).
 // Until there is a plan, the one thing still missing; a blocked joint says so here too.
 import type { FusionPlan } from "@/domain/fusion/plan";
 import { formatQuantity, formatRange, type UnitSystem } from "@/domain/units/format";
@@ -19,7 +20,7 @@ export function PlanSummary({ plan, system, problem, blocked }: { plan: FusionPl
   return (
     <div role="region" aria-label="Plan at a glance" className="sticky top-0 z-20 -mx-4 border-b-2 border-brand bg-brand-light px-4 py-1.5 text-sm text-brand-dark shadow-md">
       {plan ? (
-        <p className="flex gap-x-3 overflow-x-auto whitespace-nowrap leading-6">
+        <p className="flex flex-wrap gap-x-3 leading-6">
           {items.map(([name, value]) => (
             <span key={name} className="whitespace-nowrap">
               {name} <span className="font-bold">{value}</span>
