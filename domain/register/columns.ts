@@ -225,8 +225,10 @@ export function columnUnit(column: RegisterColumn, system: UnitSystem): string |
 }
 
 /** Header with the unit, e.g. "Heater temperature (°F)"; the local-time column names the zone, "Made at (America/Chicago)". */
-export function columnHeader(column: RegisterColumn, system: UnitSystem, timeZone: string): string {
-  if (column.type === 'local-time') return localTimeHeader(column.title, timeZone);
+export function columnHeader(column: RegisterColumn, system: UnitSystem, timeZone: string, context: 'grid' | 'export' = 'grid'): string {
+  // In a file the UTC instant column sits beside the local one, so a UTC organisation's
+  // local column says "(local, UTC)"; the grid has no UTC column.
+  if (column.type === 'local-time') return context === 'export' ? localTimeHeader(column.title, timeZone) : `${column.title} (${timeZone})`;
   const unit = columnUnit(column, system);
   return unit ? `${column.title} (${unit})` : column.title;
 }

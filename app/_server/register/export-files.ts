@@ -106,7 +106,7 @@ export async function writeRegisterXlsx({ out, batches, meta, maxRows = XLSX_MAX
   const sheet = workbook.addWorksheet("Joints", { views: [{ state: "frozen", ySplit: 1 }] });
   sheet.columns = columns.map((c) => {
     const numFmt = columnNumberFormat(c, meta.system);
-    const header = columnHeader(c, meta.system, meta.timeZone);
+    const header = columnHeader(c, meta.system, meta.timeZone, "export");
     return { header, key: c.key, width: Math.max(c.width, header.length * 0.6) + 2, ...(numFmt ? { style: { numFmt } } : {}) };
   });
   sheet.getRow(1).font = { bold: true };
@@ -205,7 +205,7 @@ export function csvCell(value: string | number | Date | null): string {
  */
 export async function writeRegisterCsv({ out, batches, system, timeZone, progress }: { out: Writable; batches: AsyncIterable<RegisterRow[]>; system: UnitSystem; timeZone: string; progress?: { rows: number } }): Promise<{ rowCount: number }> {
   const columns = REGISTER_COLUMNS;
-  out.write("\uFEFF" + columns.map((c) => csvField(columnHeader(c, system, timeZone))).join(",") + "\r\n");
+  out.write("\uFEFF" + columns.map((c) => csvField(columnHeader(c, system, timeZone, "export"))).join(",") + "\r\n");
   let rowCount = 0;
   for await (const batch of batches) {
     if (out.destroyed) throw new ExportCancelledError();
