@@ -5,7 +5,6 @@
 // offset is computed here by hand. Pure: the zone is always a parameter, never the
 // machine's own. Stored instants stay UTC.
 import { TZDate } from '@date-fns/tz';
-import { z } from 'zod';
 import { DomainError } from '@/domain/errors';
 import { addDays, parseIsoDate } from '@/domain/dates/civil';
 
@@ -37,17 +36,6 @@ export function canonicalTimeZone(name: string): string {
   return new Intl.DateTimeFormat('en-US', { timeZone: name }).resolvedOptions().timeZone;
 }
 
-/** Schema of the organisation's time zone as the admin chooses it (message names the field "Time zone"). */
-export const timeZoneSchema = z
-  .string({ error: 'Time zone must be chosen from the list.' })
-  .trim()
-  .min(1, { error: 'Time zone must be chosen from the list.', abort: true })
-  .max(64, { error: 'Time zone is too long (64 characters at most).' })
-  .refine(isTimeZone, { error: (issue) => `Time zone "${String(issue.input)}" is not a known time zone: choose one from the list (e.g. America/Chicago).` })
-  .transform(canonicalTimeZone);
-
-export const organisationSettingsSchema = z.object({ timeZone: timeZoneSchema });
-export type OrganisationSettingsInput = z.input<typeof organisationSettingsSchema>;
 
 /**
  * The zone names to offer: the runtime's list (Intl.supportedValuesOf, the IANA database's

@@ -5,7 +5,9 @@
 // "Error Handling"): the same key with a different payload is an error, never the first
 // answer again. Pure: the server hashes the canonical text (SHA-256) and stores it with the
 // joint; joints stored before fingerprints existed are compared value by value.
-import { JOINT_KIND_LABELS, PHASE_LABELS, SHELTER_LABELS, type JointKind, type RecordJointInput, type Shelter, type TimedPhase } from '@/domain/joints/schemas';
+import { JOINT_KIND_LABELS, PHASE_LABELS, type JointKind, type TimedPhase } from '@/domain/joints/record-words';
+import { SHELTER_LABELS, type Shelter } from '@/domain/joints/shelters';
+import type { RecordJointInput } from '@/domain/joints/schemas';
 import { RECORDED_VALUE_DEFINITIONS, type RecordedValues } from '@/domain/joints/values';
 import { formatQuantity, type QuantityKind, type UnitSystem } from '@/domain/units/format';
 

@@ -5,7 +5,7 @@
 
 import type { FusionPlan } from '@/domain/fusion/plan';
 import { formatDuration } from '@/domain/units/format';
-import { TIMED_PHASES, type TimedPhase } from '@/domain/joints/schemas';
+import { TIMED_PHASES, type TimedPhase } from '@/domain/joints/record-words';
 
 export interface PhaseTiming {
   startedAt: number | null;

@@ -22,9 +22,9 @@ import {
   localDayHours,
   localDayRange,
   offsetText,
-  organisationSettingsSchema,
   timeZoneChoices,
 } from "@/domain/dates/zone";
+import { organisationSettingsSchema } from "@/domain/dates/zone-schema";
 import { describeFilter } from "@/domain/register/describe";
 import { registerDayBounds } from "@/domain/register/filter";
 import { latestDigestCutoff } from "@/domain/mail/digest";

@@ -12,7 +12,7 @@ import { updatePersonAccess } from "@/app/_server/crew/update-person-access";
 import { recordQualification } from "@/app/_server/crew/record-qualification";
 import { recordQualificationFailure } from "@/app/_server/crew/record-qualification-failure";
 import { setOrganisationTimeZone } from "@/app/_server/organisation/set-time-zone";
-import { organisationSettingsSchema } from "@/domain/dates/zone";
+import { organisationSettingsSchema } from "@/domain/dates/zone-schema";
 
 const done = <T>(value: T): T => {
   revalidatePath("/crew");

@@ -4,7 +4,7 @@ import { db } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { lockOrganisationSettings, updateOrganisationTimeZone } from "@/database/queries/organisation";
 import type { z } from "zod";
-import type { organisationSettingsSchema } from "@/domain/dates/zone";
+import type { organisationSettingsSchema } from "@/domain/dates/zone-schema";
 import { serverTimeZone } from "./get-time-zone";
 
 type Ctx = { user: { id: number }; requestId: string };

@@ -5,7 +5,7 @@ import { useRouter } from "next/navigation";
 import { useState } from "react";
 import { useForm } from "react-hook-form";
 import type { z } from "zod";
-import { organisationSettingsSchema } from "@/domain/dates/zone";
+import { organisationSettingsSchema } from "@/domain/dates/zone-schema";
 import { setOrganisationTimeZoneAction } from "../actions";
 import { SelectField, applyActionResult } from "@/components/form/controls";
 import { FormFrame, type FormOutcome } from "@/components/form/form-frame";

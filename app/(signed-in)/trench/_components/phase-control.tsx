@@ -9,7 +9,7 @@ import { useEffect, useState } from "react";
 import { useWatch } from "react-hook-form";
 import { Button } from "@/components/ui/button";
 import type { FusionPlan } from "@/domain/fusion/plan";
-import { PHASE_LABELS, type TimedPhase } from "@/domain/joints/schemas";
+import { PHASE_LABELS, type TimedPhase } from "@/domain/joints/record-words";
 import { phaseView, type PhaseLimits, type PhaseStep } from "@/domain/joints/timer";
 import type { UnitSystem } from "@/domain/units/format";
 import { RecordedValueField } from "./recorded-value-field";

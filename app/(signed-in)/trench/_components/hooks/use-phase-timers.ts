@@ -6,7 +6,7 @@
 // The start and end instants live in the draft, so the count survives a locked screen or
 // a reload; the clock only redraws.
 import { useEffect, useRef, useState, type Dispatch, type SetStateAction } from "react";
-import { TIMED_PHASES, type TimedPhase } from "@/domain/joints/schemas";
+import { TIMED_PHASES, type TimedPhase } from "@/domain/joints/record-words";
 import { phaseAlertAtS, phaseStep, timedDurationS, type PhaseLimits, type PhaseTiming } from "@/domain/joints/timer";
 import { QUANTITY_VALUES, type RECORDED_VALUES } from "@/domain/joints/values";
 import { prepareCues, signal } from "../../_client/cues";

@@ -3,10 +3,10 @@
 // domain's zod schema, restored once from the device, saved on every keystroke and on
 // every timer, coil or photo change once the fuser has entered something, and started
 // afresh after a joint is recorded.
-import { zodResolver } from "@hookform/resolvers/zod";
 import { useEffect, useRef, useState } from "react";
-import { useForm, type UseFormReturn } from "react-hook-form";
-import { recordJointFormSchema, TIMED_PHASES, type RecordJointFormInput, type RecordJointFormValues, type TimedPhase } from "@/domain/joints/schemas";
+import { useForm, type Resolver, type UseFormReturn } from "react-hook-form";
+import type { RecordJointFormInput, RecordJointFormValues } from "@/domain/joints/schemas";
+import { TIMED_PHASES, type TimedPhase } from "@/domain/joints/record-words";
 import type { PhaseTiming } from "@/domain/joints/timer";
 import { clearDraft, emptyTimers, loadDraft, loadRemembered, saveDraft, type PhotoRef, type Remembered } from "../../_client/device-store";
 import type { TrenchCoil, TrenchSetup } from "@/app/_server/trench/setup-types";
@@ -16,6 +16,25 @@ export type FormOut = RecordJointFormValues;
 export type TrenchForm = UseFormReturn<FormIn, unknown, FormOut>;
 export type SideCoils = { A: TrenchCoil | null; B: TrenchCoil | null };
 export type PhaseTimings = Record<TimedPhase, PhaseTiming>;
+
+let loadingResolver: Promise<Resolver<FormIn, unknown, FormOut>> | null = null;
+
+/**
+ * The domain's zod schema as the form's resolver, loaded on first use rather than with the
+ * page (zod and the schema are about 30 kB gzip); a failed load is tried again next time.
+ */
+function loadSchemaResolver(): Promise<Resolver<FormIn, unknown, FormOut>> {
+  loadingResolver ??= Promise.all([import("@hookform/resolvers/zod"), import("@/domain/joints/schemas")]).then(
+    ([{ zodResolver }, { recordJointFormSchema }]) => zodResolver(recordJointFormSchema),
+    (error: unknown) => {
+      loadingResolver = null;
+      throw error;
+    },
+  );
+  return loadingResolver;
+}
+
+const schemaResolver: Resolver<FormIn, unknown, FormOut> = async (values, context, options) => (await loadSchemaResolver())(values, context, options);
 
 function blankValues(remembered: Remembered, clientId: string, setup: TrenchSetup): FormIn {
   const jobId = setup.jobs.some((j) => j.id === remembered.jobId) ? remembered.jobId : setup.jobs.length === 1 ? setup.jobs[0]!.id : undefined;
@@ -72,7 +91,7 @@ export function useTrenchDraft(setup: TrenchSetup, prefill?: SidePrefill) {
   const [restored, setRestored] = useState(false);
 
   const form: TrenchForm = useForm<FormIn, unknown, FormOut>({
-    resolver: zodResolver(recordJointFormSchema),
+    resolver: schemaResolver,
     defaultValues: blankValues({}, "", setup),
     mode: "onTouched",
   });
