@@ -4,40 +4,15 @@
 // about it, and it arrives exactly once when the signal is back. Another page says plainly
 // that it needs a connection. Signing out empties the caches and the stored data.
 //
-// Values typed (US customary, the demo fuser's units) and why they are within limits:
-// - heater 425 °F inside 400–450 °F // source: ASTM F2620 via the PPI "Melt Procedure" page (CONFIRMED)
-// - fusion gauge = interfacial pressure × fusion area ÷ piston area + drag, 75 psi interfacial
-//   (mid of 60–90 psi), OD 2.375 in SDR 11, FM-201's 1006.5 mm² piston area
-//   // source: PPI generic butt-fusion procedure, gauge method (PPI TR-33)
-// - bead 1/8 in over the 1/16 in minimum, changeover 6 s under 8 s, cooling 300 s over
-//   11 min/in × 0.216 in ≈ 143 s // from memory, unconfirmed (ASTM F2620 tables)
+// Values typed: tests/e2e/pages/demo-joint.ts, each with its published source.
 import { expect, test, type Page } from "@playwright/test";
 import { SignInPage } from "./pages/sign-in-page";
-import { TrenchPage, type TypedJoint } from "./pages/trench-page";
+import { TrenchPage } from "./pages/trench-page";
+import { demoTypedJoint } from "./pages/demo-joint";
 
 test.use({ viewport: { width: 390, height: 844 }, hasTouch: true, serviceWorkers: "allow" });
 
-const OD_IN = 60.33 / 25.4; // 2" IPS outside diameter 2.375 in (ASTM D2513 / ASME B36.10 IPS)
-const PISTON_AREA_IN2 = 1006.5 / 25.4 ** 2;
-const DRAG_PSI = 10;
-const T_IN = 0.216; // 2" IPS DR 11 minimum wall, in (ASTM F2897-23a Table 6)
-const FUSION_GAUGE_PSI = (75 * Math.PI * (OD_IN - T_IN) * T_IN) / PISTON_AREA_IN2 + DRAG_PSI;
-
-const JOINT: TypedJoint = {
-  coilA: "LV-C0001",
-  coilB: "LV-C0002",
-  laidA: "12",
-  drag: String(DRAG_PSI),
-  heaterTemperature: "425",
-  fusionGauge: String(Math.round(FUSION_GAUGE_PSI)),
-  bead: "0.125",
-  heatSoak: "45",
-  changeover: "6",
-  cooling: "300",
-  ambient: "50",
-  shelter: "Windbreak",
-  station: "7+15",
-};
+const JOINT = demoTypedJoint({ coilA: "LV-C0001", coilB: "LV-C0002", laidA: "12", station: "7+15" });
 
 async function jointsWithClientId(page: Page, clientId: string): Promise<{ id: number; clientId: string }[]> {
   const r = await page.request.get("/api/v1/joints?limit=200");

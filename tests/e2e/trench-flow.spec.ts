@@ -4,40 +4,16 @@
 // screen alone leaves no draft; the same two coils again are questioned; a coil page opened
 // from a label scan puts the coil on a side.
 //
-// Values typed (US customary, the demo fuser's units) and why they are within limits:
-// - heater 425 °F inside 400–450 °F // source: ASTM F2620 via the PPI "Melt Procedure" page (CONFIRMED)
-// - fusion gauge = interfacial pressure × fusion area ÷ piston area + drag, with 75 psi
-//   interfacial (mid of 60–90 psi), OD 2.375 in SDR 11 (t = OD/11), FM-201's 1006.5 mm²
-//   // source: PPI generic butt-fusion procedure, gauge method (PPI TR-33, as reproduced in a pipe maker's manual §6.2.5)
-// - bead 1/8 in over the 1/16 in minimum, changeover 6 s under 8 s, cooling 300 s over
-//   11 min/in × 0.216 in ≈ 143 s // from memory, unconfirmed (ASTM F2620 tables)
+// Values typed: tests/e2e/pages/demo-joint.ts, each with its published source.
 import { expect, test, type Page } from "@playwright/test";
 import { SignInPage } from "./pages/sign-in-page";
-import { TrenchPage, type TypedJoint } from "./pages/trench-page";
+import { TrenchPage } from "./pages/trench-page";
+import { demoTypedJoint, fusionGaugePsi } from "./pages/demo-joint";
 
 const SCREEN = { width: 390, height: 844 };
 test.use({ viewport: SCREEN, hasTouch: true });
 
-const OD_IN = 60.33 / 25.4; // 2" IPS outside diameter 2.375 in (ASTM D2513 / ASME B36.10 IPS)
-const PISTON_AREA_IN2 = 1006.5 / 25.4 ** 2;
-const DRAG_PSI = 10;
-const fusionGaugePsi = (ifpPsi: number) => (ifpPsi * Math.PI * (OD_IN - 0.216) * 0.216) / PISTON_AREA_IN2 + DRAG_PSI; // 0.216 in: 2" IPS DR 11 minimum wall (ASTM F2897-23a Table 6)
-
-const JOINT: TypedJoint = {
-  coilA: "LV-C0001",
-  coilB: "LV-C0002",
-  laidA: "10",
-  drag: String(DRAG_PSI),
-  heaterTemperature: "425",
-  fusionGauge: String(Math.round(fusionGaugePsi(75))),
-  bead: "0.125",
-  heatSoak: "45",
-  changeover: "6",
-  cooling: "300",
-  ambient: "50",
-  shelter: "Windbreak",
-  station: "7+10",
-};
+const JOINT = demoTypedJoint({ coilA: "LV-C0001", coilB: "LV-C0002", laidA: "10", station: "7+10" });
 
 const SETUP = { job: "WO-24117 · Fenwick Lane main renewal", machine: "FM-201 · Hydraulic butt-fusion machine, 2–8 in IPS", heater: "HP-31" };
 
