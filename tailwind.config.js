@@ -13,7 +13,7 @@ module.exports = {
         fail: { DEFAULT: "#8b1c1c", light: "#fee2e2" },
         caution: { DEFAULT: "#78350f", light: "#fef3c7" },
       },
-      fontFamily: { sans: ["var(--font-inter)", "system-ui", "sans-serif"] },
+      fontFamily: { sans: ["system-ui", "-apple-system", "Segoe UI", "Roboto", "Helvetica Neue", "Arial", "sans-serif"] },
       minHeight: { touch: "48px" },
       minWidth: { touch: "48px" },
     },

@@ -1,18 +1,8 @@
 import type { Metadata, Viewport } from "next";
-import localFont from "next/font/local";
 import "./globals.css";
 
-// Inter ships with the app (from @fontsource/inter, licence in app/fonts/): nothing is fetched.
-const inter = localFont({
-  src: [
-    { path: "./fonts/inter-latin-400-normal.woff2", weight: "400", style: "normal" },
-    { path: "./fonts/inter-latin-600-normal.woff2", weight: "600", style: "normal" },
-    { path: "./fonts/inter-latin-700-normal.woff2", weight: "700", style: "normal" },
-  ],
-  variable: "--font-inter",
-  display: "swap",
-});
-
+// The system's own interface font (Roboto, San Francisco, Segoe UI …): nothing to fetch
+// before the first paint, which matters on a phone with poor signal at the trench.
 export const metadata: Metadata = {
   title: { default: "Beadline", template: "%s · Beadline" },
   description: "Fusion-joint quality log with lot traceability for PE gas pipe crews.",
@@ -22,7 +12,7 @@ export const viewport: Viewport = { width: "device-width", initialScale: 1, them
 
 export default function RootLayout({ children }: { children: React.ReactNode }) {
   return (
-    <html lang="en" className={inter.variable}>
+    <html lang="en">
       <body className="min-h-screen font-sans">{children}</body>
     </html>
   );

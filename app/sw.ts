@@ -1,5 +1,5 @@
 // Beadline's service worker, built by Serwist (@serwist/turbopack, route app/serwist/[path]).
-// What it keeps: the build's scripts, styles and fonts (precached: no personal data), the
+// What it keeps: the build's scripts and styles (precached: no personal data), the
 // "needs a connection" page, and the Trench page of the signed-in fuser (network first, so
 // it is refreshed on every load with signal; the page's HTML carries its jobs, machines,
 // heater plates, procedures and the crew's coils). Nothing else: other pages and every API
@@ -51,7 +51,7 @@ const serwist = new Serwist({
       }),
     },
     {
-      // Build files with hashed names that are not in the precache list (fonts, late chunks).
+      // Build files with hashed names that are not in the precache list (late chunks).
       matcher: ({ url, sameOrigin }) => sameOrigin && url.pathname.startsWith("/_next/static/"),
       handler: new CacheFirst({ cacheName: STATIC_CACHE, plugins: [new ExpirationPlugin({ maxEntries: 200 })] }),
     },

@@ -13,9 +13,8 @@ const distDir = (process.env.BEADLINE_DIST_DIR || ".next").replace(/^\.\//, "").
 const serwist = createSerwistRoute({
   swSrc: "app/sw.ts",
   additionalPrecacheEntries: [{ url: OFFLINE_PAGE_PATH, revision }],
-  // Serwist's default list for Next.js, plus the fonts (app/fonts, served from static/media),
-  // so a screen opened without signal looks as it does with signal.
-  globPatterns: [`${distDir}/static/**/*.{js,css,html,ico,png,svg,webp,json,webmanifest,woff2}`],
+  // Serwist's default list for Next.js, so a screen opened without signal looks as it does with signal.
+  globPatterns: [`${distDir}/static/**/*.{js,css,html,ico,png,svg,webp,json,webmanifest}`],
   // The native esbuild package is installed; Serwist would otherwise load esbuild-wasm.
   useNativeEsbuild: true,
 });

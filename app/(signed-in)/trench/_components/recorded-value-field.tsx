@@ -8,12 +8,13 @@
 import type { ReactNode } from "react";
 import type { Control } from "react-hook-form";
 import type { CheckJointOptions } from "@/domain/fusion/check";
-import { judgeValue, type ValueJudgement, type ValueVerdict } from "@/domain/fusion/judge";
+import type { ValueJudgement, ValueVerdict } from "@/domain/fusion/judge";
 import type { FusionPlan } from "@/domain/fusion/plan";
 import type { RecordJointFormInput, RecordJointFormValues } from "@/domain/joints/schemas";
 import { QUANTITY_VALUES, type QuantityValueDefinition, type QuantityValueKey, type TrenchStep } from "@/domain/joints/values";
 import type { UnitSystem } from "@/domain/units/format";
 import { UnitController } from "./unit-controller";
+import { useFusionTools } from "../_client/load-fusion-tools";
 import type { UnitValue } from "./unit-input";
 
 /** The values typed in one step of the Trench form, in the table's order. */
@@ -64,8 +65,9 @@ export function RecordedValueField({
   judgeOptions?: CheckJointOptions;
 }) {
   const key = definition.key as QuantityValueKey;
+  const tools = useFusionTools();
   const note = (value: UnitValue) => {
-    const judged = plan && typeof value === "number" ? judgeValue(plan, key, value, judgeOptions ?? { system }) : null;
+    const judged = plan && tools && typeof value === "number" ? tools.judgeValue(plan, key, value, judgeOptions ?? { system }) : null;
     return judged ? <ValueJudgementNote judged={judged} /> : null;
   };
   return <UnitController control={control} name={key} label={definition.prompt} kind={definition.quantity} system={system} error={error} hint={hint} badge={badge} note={note} onTyped={onTyped} />;

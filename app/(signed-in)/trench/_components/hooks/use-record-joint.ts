@@ -5,11 +5,11 @@
 // list of joints this one may replace; before the same two coils are joined again, the
 // question whether this is a remake or a mistake.
 import { useMemo, useRef, useState, type Dispatch, type SetStateAction } from "react";
-import { checkJoint } from "@/domain/fusion/check";
 import type { FusionPlan } from "@/domain/fusion/plan";
 import { pickRecordedValues } from "@/domain/joints/values";
 import { entryKey, saveRemembered, type OutboxEntry, type PhotoRef, type Remembered } from "../../_client/device-store";
 import { findLocalCoil } from "../../_client/find-coil";
+import { loadedFusionTools } from "../../_client/load-fusion-tools";
 import { earlierJointOfCoils, whyNotRemakeOf, type CoilPairJoint } from "@/domain/joints/same-coils";
 import type { TrenchSetup } from "@/app/_server/trench/setup-types";
 import type { useOutbox } from "../../_client/use-outbox";
@@ -95,8 +95,10 @@ export function useRecordJoint({ setup, outbox, jobId, job, plan, cannotRecord, 
     }
     const madeAt = new Date().toISOString();
     let preliminary: OutboxEntry["preliminary"] = null;
-    if (plan) {
-      const check = checkJoint(plan, pickRecordedValues(v), { system, conditions: { ambientC: v.ambientC, shelter: v.shelter } });
+    // A plan exists only once the device's check has loaded (use-fusion-plan-preview).
+    const tools = loadedFusionTools();
+    if (plan && tools) {
+      const check = tools.checkJoint(plan, pickRecordedValues(v), { system, conditions: { ambientC: v.ambientC, shelter: v.shelter } });
       preliminary = { outcome: check.outcome, findings: check.findings.map((f) => f.message) };
     }
     const label = `${v.coilA} + ${v.kind === "coil-to-coil" ? v.coilB : v.componentBText}`;
