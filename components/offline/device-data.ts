@@ -31,15 +31,28 @@ export function unsentJointsOnDevice(userId: number): UnsentJoint[] {
     .map((e) => ({ clientId: String(e.clientId ?? ""), label: String(e.label ?? ""), jobCode: String(e.jobCode ?? ""), isRefused: e.state === "refused" }));
 }
 
-/** Deletes every cache of this origin and unregisters its service workers. */
+async function deleteAllCaches(): Promise<number> {
+  const names = await caches.keys();
+  await Promise.all(names.map((n) => caches.delete(n)));
+  return names.length;
+}
+
+/**
+ * Unregisters this origin's service workers, then deletes every cache. A worker still
+ * finishing a fetch it took before (the Trench page's network-first copy is written just
+ * after the page is answered) can write that copy after the first delete: the caches are
+ * looked at again for a moment and anything that came back is deleted too.
+ */
 export async function forgetOfflineCopies(): Promise<void> {
-  if ("caches" in window) {
-    const names = await caches.keys();
-    await Promise.all(names.map((n) => caches.delete(n)));
-  }
   if ("serviceWorker" in navigator) {
     const registrations = await navigator.serviceWorker.getRegistrations();
     await Promise.all(registrations.map((r) => r.unregister()));
+  }
+  if (!("caches" in window)) return;
+  await deleteAllCaches();
+  for (let i = 0; i < 4; i += 1) {
+    await new Promise((resolve) => window.setTimeout(resolve, 250));
+    await deleteAllCaches();
   }
 }
 
