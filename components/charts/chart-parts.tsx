@@ -14,7 +14,7 @@ export const CHART_COLOURS = {
   window: "#166534",
   timeWindow: "#92400e",
   limit: "#92400e",
-  heater: "#9a3412",
+  heater: "#6b21a8",
 } as const;
 
 const OUTSIDE_STROKE = 2;
@@ -71,11 +71,29 @@ function HaloText({ x, y, children, anchor = "start", rotate = false, colour = "
   );
 }
 
-/** Label in the top-left corner inside a band (recharts passes the band's box as `viewBox`). */
-export function bandLabel(text: string) {
+/** Rough width of a label at 12 px semibold (about 7 px a character), to decide whether it fits. */
+const textWidth = (text: string) => text.length * 7;
+
+/**
+ * Label inside a band (recharts passes the band's box as `viewBox`): across its top-left
+ * corner when it fits, else `short` reading upwards inside a narrow band, else none (the
+ * key below the chart and its summary still name it).
+ */
+export function bandLabel(text: string, short: string = text) {
   function BandLabel({ viewBox }: { viewBox?: unknown }) {
     const { x, y } = corner(viewBox);
-    return <HaloText x={x + 4} y={y + 14}>{text}</HaloText>;
+    const box = (viewBox ?? {}) as { width?: unknown; height?: unknown };
+    const width = typeof box.width === "number" ? Math.abs(box.width) : 0;
+    const height = typeof box.height === "number" ? Math.abs(box.height) : 0;
+    if (width >= textWidth(text) + 8 && height >= 18) return <HaloText x={x + 4} y={y + 14}>{text}</HaloText>;
+    if (width >= 16 && height >= textWidth(short) + 8) {
+      return (
+        <HaloText x={x + width / 2 + 5} y={y + 4} anchor="end" rotate>
+          {short}
+        </HaloText>
+      );
+    }
+    return <g />;
   }
   return BandLabel;
 }
@@ -98,7 +116,7 @@ export function verticalLabel(text: string, side: "left" | "right", colour: stri
 
 /** What one legend entry shows before its words. */
 export type LegendSwatch =
-  | { kind: "line"; colour: string; dashed?: boolean }
+  | { kind: "line"; colour: string; dashed?: boolean; dash?: string }
   | { kind: "band"; colour: string; patternId: string }
   | { kind: "time-window"; colour: string }
   | { kind: "point"; state: WindowState }
@@ -110,7 +128,7 @@ function Swatch({ swatch }: { swatch: LegendSwatch }) {
     case "line":
       return (
         <svg {...box}>
-          <line x1={1} y1={8} x2={27} y2={8} stroke={swatch.colour} strokeWidth={swatch.dashed ? 2 : 3} strokeDasharray={swatch.dashed ? "6 3" : undefined} />
+          <line x1={1} y1={8} x2={27} y2={8} stroke={swatch.colour} strokeWidth={swatch.dashed || swatch.dash ? 2 : 3} strokeDasharray={swatch.dash ?? (swatch.dashed ? "6 3" : undefined)} />
         </svg>
       );
     case "band":

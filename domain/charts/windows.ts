@@ -42,3 +42,17 @@ export function outsideCounts(points: readonly { t: number; p: number }[], bands
     return { key: b.key, inSpan, outside };
   });
 }
+
+/**
+ * Which of the flagged points get a marker, so a run of them stays separate marks: the
+ * first flagged point, then each flagged one at least `gap` after the last marked (same
+ * unit as `t`, e.g. seconds). Points must be in time order.
+ */
+export function spacedMarks(points: readonly { t: number }[], flagged: readonly boolean[], gap: number): boolean[] {
+  let last = Number.NEGATIVE_INFINITY;
+  return points.map((pt, i) => {
+    if (!flagged[i] || pt.t - last < gap) return false;
+    last = pt.t;
+    return true;
+  });
+}

@@ -2,7 +2,7 @@
 // shape). Expected states worked by hand from the limits given here — common practice
 // (a value below the lower or above the upper limit is outside; on the limit is inside).
 import { describe, expect, it } from "vitest";
-import { outsideCounts, traceWindowStates, windowState } from "@/domain/charts/windows";
+import { outsideCounts, spacedMarks, traceWindowStates, windowState } from "@/domain/charts/windows";
 
 describe("windowState", () => {
   it.each([
@@ -48,5 +48,15 @@ describe("traceWindowStates", () => {
 
   it("without bands every point is none", () => {
     expect(traceWindowStates(points, [])).toEqual(points.map(() => "none"));
+  });
+});
+
+describe("spacedMarks", () => {
+  it("marks the first flagged point, then one at least the gap after the last marked", () => {
+    // t = 0…10 s every second, 2–9 flagged, gap 3 s: marks at 2, 5, 8 (worked by hand)
+    const points = Array.from({ length: 11 }, (_, t) => ({ t }));
+    const flagged = points.map(({ t }) => t >= 2 && t <= 9);
+    const marks = spacedMarks(points, flagged, 3);
+    expect(points.filter((_, i) => marks[i]).map((p) => p.t)).toEqual([2, 5, 8]);
   });
 });

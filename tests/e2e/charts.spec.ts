@@ -95,9 +95,10 @@ test("the trace and heater charts mark out-of-window points by shape, with the k
   await expect(plot.locator(".recharts-surface")).toBeVisible();
   await plot.scrollIntoViewIfNeeded();
   await page.screenshot({ path: "tests/e2e/artifacts/trace-chart-desktop.png" });
-  // Out of the window: hollow triangles, one per sample below the fusion window; the summary says how many.
+  // Out of the window: hollow triangles along the samples below the fusion window (thinned to
+  // one per 1/50 of the time axis, so a run of them stays separate marks); the summary counts every sample.
   const outside = plot.locator('path[data-point="outside"]');
-  expect(await outside.count()).toBeGreaterThan(10);
+  expect(await outside.count()).toBeGreaterThan(5);
   await expect(outside.first()).toHaveAttribute("fill", "#ffffff");
   await expect(plot).toHaveAttribute("aria-label", /Fusion pressure window [\d.]+ psi to [\d.]+ psi: [1-9]\d* of \d+ samples outside/);
   const key = detail.getByRole("list", { name: "Key to the pressure trace" });

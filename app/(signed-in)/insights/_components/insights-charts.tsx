@@ -104,9 +104,9 @@ export function InsightsCharts({ unitSystem, byWeek, byFuser, byMachine, finding
   const shortText = (h: (typeof heater)[number]) => `${day(h.t)} ${h.heaterTag} ${temp(h.c)} ${tUnit}`;
   const groupChart = (rows: (Yield & { label: string })[]) => (
     <ResponsiveContainer width="100%" height="100%">
-      <BarChart data={rows} layout="vertical" margin={{ left: 8, right: 16 }}>
+      <BarChart data={rows} layout="vertical" margin={{ left: 8, right: 16, bottom: 16 }}>
         <CartesianGrid strokeDasharray="3 3" />
-        <XAxis {...percentAxis} unit=" %" />
+        <XAxis {...percentAxis} label={{ value: "first-pass yield (%)", position: "insideBottom", offset: -10 }} />
         <YAxis type="category" dataKey="label" width={120} />
         <Tooltip formatter={(v, _n, item) => [`${v} % of ${(item.payload as Yield).joints} joints`, "First-pass yield"]} />
         <Bar dataKey="yieldPct" name="First-pass yield" fill={BRAND} isAnimationActive={false} />
@@ -164,7 +164,7 @@ export function InsightsCharts({ unitSystem, byWeek, byFuser, byMachine, finding
       >
         {findings.length ? (
           <ResponsiveContainer width="100%" height="100%">
-            <BarChart data={findings} margin={{ top: 16, right: 16, bottom: 4, left: 4 }}>
+            <BarChart data={findings} margin={{ top: 16, right: 16, bottom: 4, left: 40 }}>
               <CartesianGrid strokeDasharray="3 3" />
               <XAxis dataKey="label" interval={0} angle={-25} textAnchor="end" height={90} tick={{ fontSize: 12 }} />
               <YAxis {...findingCounts} />

@@ -4,7 +4,7 @@ import useSWR from "swr";
 import { CartesianGrid, ComposedChart, Line, ReferenceArea, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import type { ChartBand, ChartMarker, ChartPoint, ChartTimeZone } from "@/domain/pressure-trace/check";
 import { niceTicks, formatTick } from "@/domain/charts/ticks";
-import { outsideCounts, traceWindowStates, type WindowState } from "@/domain/charts/windows";
+import { outsideCounts, spacedMarks, traceWindowStates, type WindowState } from "@/domain/charts/windows";
 import { formatQuantity, toDisplay, unitLabel, type UnitSystem } from "@/domain/units/format";
 import { bandLabel, CHART_COLOURS, ChartLegend, HatchPattern, PointMarker, verticalLabel } from "@/components/charts/chart-parts";
 
@@ -17,7 +17,8 @@ async function fetchTrace(url: string): Promise<TraceData> {
 }
 
 /** Band labels on the plot: short, the legend and the summary say the rest. */
-const SHORT_BAND: Record<string, string> = { beadUp: "Bead-up window", fusion: "Fusion window" };
+const BAND_LABEL: Record<string, [string, string]> = { beadUp: ["Bead-up window", "Bead-up"], fusion: ["Fusion window", "Fusion"] };
+const HEATER_DASH = "1 3";
 
 /**
  * Gauge pressure over time with the plan's pressure windows as hatched bands, its time
@@ -44,6 +45,8 @@ export function TraceChart({ jointId, traceId, unitSystem, label }: { jointId: n
   const yTicks = niceTicks(Math.min(...pressures), Math.max(...pressures), 6);
   const times = [...points.map((pt) => pt.t), ...bands.flatMap((b) => [b.x1, b.x2]), ...zones.flatMap((z) => [z.x1, z.x2]), ...markers.map((m) => m.x)];
   const xTicks = niceTicks(Math.min(...times), Math.max(...times), 6);
+  // A run of samples outside the window would merge into one red bar: a triangle at most every 1/50 of the time axis.
+  const marked = spacedMarks(points, states.map((st) => st === "outside"), (xTicks.max - xTicks.min) / 50);
   const temps = points.flatMap((pt) => (pt.c === undefined ? [] : [pt.c]));
   const cTicks = temps.length ? niceTicks(Math.min(...temps), Math.max(...temps), 6) : null;
 
@@ -129,7 +132,7 @@ export function TraceChart({ jointId, traceId, unitSystem, label }: { jointId: n
                 stroke={CHART_COLOURS.window}
                 strokeWidth={1.5}
                 ifOverflow="extendDomain"
-                label={{ content: bandLabel(SHORT_BAND[b.key] ?? b.label) }}
+                label={{ content: bandLabel(...(BAND_LABEL[b.key] ?? [b.label, b.label])) }}
               />
             ))}
             {markers.map((m, i) => (
@@ -152,12 +155,11 @@ export function TraceChart({ jointId, traceId, unitSystem, label }: { jointId: n
               strokeWidth={2}
               isAnimationActive={false}
               dot={(props) => {
-                const state = (props.payload as { state?: WindowState }).state;
-                return state === "outside" ? <PointMarker key={`o-${props.index}`} cx={Number(props.cx)} cy={Number(props.cy)} state="outside" size={4} /> : <g key={`n-${props.index}`} />;
+                return marked[props.index] ? <PointMarker key={`o-${props.index}`} cx={Number(props.cx)} cy={Number(props.cy)} state="outside" size={4} /> : <g key={`n-${props.index}`} />;
               }}
               activeDot={{ r: 4 }}
             />
-            {hasTemperature ? <Line yAxisId="c" dataKey="c" name={`Heater (${tUnit})`} stroke={CHART_COLOURS.heater} strokeDasharray="2 2" dot={false} isAnimationActive={false} /> : null}
+            {hasTemperature ? <Line yAxisId="c" dataKey="c" name={`Heater (${tUnit})`} stroke={CHART_COLOURS.heater} strokeWidth={2} strokeDasharray={HEATER_DASH} dot={false} isAnimationActive={false} /> : null}
           </ComposedChart>
         </ResponsiveContainer>
       </div>
@@ -165,7 +167,7 @@ export function TraceChart({ jointId, traceId, unitSystem, label }: { jointId: n
         label="Key to the pressure trace"
         items={[
           { key: "pressure", swatch: { kind: "line", colour: CHART_COLOURS.line }, text: `Gauge pressure (${pUnit})` },
-          ...(hasTemperature ? [{ key: "heater", swatch: { kind: "line" as const, colour: CHART_COLOURS.heater, dashed: true }, text: `Heater temperature (${tUnit}, right axis)` }] : []),
+          ...(hasTemperature ? [{ key: "heater", swatch: { kind: "line" as const, colour: CHART_COLOURS.heater, dash: HEATER_DASH }, text: `Heater temperature (${tUnit}, right axis)` }] : []),
           ...(bands.length ? [{ key: "band", swatch: { kind: "band" as const, colour: CHART_COLOURS.window, patternId }, text: "Pressure window of the plan, over the phase it governs" }] : []),
           ...(bands.length
             ? [{ key: "outside", swatch: { kind: "point" as const, state: "outside" as const }, text: outsideTotal ? `Sample outside its pressure window (${outsideTotal})` : "Sample outside its pressure window (none)" }]
