@@ -277,10 +277,10 @@ export function InsightsCharts({ unitSystem, byWeek, byFuser, byMachine, finding
       >
         {cooling.length ? (
           <ResponsiveContainer width="100%" height="100%">
-            <ScatterChart margin={{ right: 16, bottom: 16 }}>
+            <ScatterChart margin={{ top: 16, right: 16, bottom: 16, left: 8 }}>
               <CartesianGrid strokeDasharray="3 3" />
               <XAxis {...coolingAxis} dataKey="required" name="Required" label={{ value: "required (s)", position: "insideBottom", offset: -8 }} />
-              <YAxis {...coolingAxis} dataKey="recorded" name="Recorded" width={48} label={{ value: "recorded (s)", angle: -90, position: "insideLeft" }} />
+              <YAxis {...coolingAxis} dataKey="recorded" name="Recorded" width={60} label={{ value: "recorded (s)", angle: -90, position: "insideLeft" }} />
               <Tooltip cursor={{ strokeDasharray: "3 3" }} />
               <ReferenceLine segment={[{ x: 0, y: 0 }, { x: coolingMax, y: coolingMax }]} stroke="#92400e" strokeDasharray="6 3" />
               <Scatter name="Long enough" data={coolingOk} fill={PASS} shape={markerFor(() => "inside")} isAnimationActive={false} />
