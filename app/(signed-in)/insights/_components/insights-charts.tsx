@@ -1,7 +1,10 @@
 "use client";
-import type { ReactNode } from "react";
-import { Area, Bar, BarChart, CartesianGrid, ComposedChart, Legend, Line, ReferenceLine, ResponsiveContainer, Scatter, ScatterChart, Tooltip, XAxis, YAxis } from "recharts";
+import { useId, type ReactNode } from "react";
+import { Area, Bar, BarChart, CartesianGrid, ComposedChart, Line, ReferenceLine, ResponsiveContainer, Scatter, ScatterChart, Tooltip, XAxis, YAxis } from "recharts";
 import { formatDuration, toDisplay, unitLabel, type UnitSystem } from "@/domain/units/format";
+import { formatTick, niceTicks } from "@/domain/charts/ticks";
+import { windowState, type WindowState } from "@/domain/charts/windows";
+import { CHART_COLOURS, ChartLegend, HatchPattern, PointMarker, type LegendSwatch } from "@/components/charts/chart-parts";
 import { DataTable } from "@/components/ui/data-table";
 import { formatInstant } from "@/components/ui/display-format";
 import { useTimeZone } from "@/components/ui/time-zone";
@@ -22,12 +25,16 @@ const BRAND = "#0b4f6c";
 const PASS = "#166534";
 const FAIL = "#b91c1c";
 
-function Panel({ id, title, summary, children, table }: { id: string; title: string; summary: string; children: ReactNode; table: ReactNode }) {
+type LegendItem = { key: string; swatch: LegendSwatch; text: ReactNode };
+
+/** A chart card: the plot (one image with a summary for screen readers), its key below it, the numbers behind it. */
+function Panel({ id, title, summary, children, table, legend }: { id: string; title: string; summary: string; children: ReactNode; table: ReactNode; legend?: LegendItem[] }) {
   return (
-    <SectionCard id={`${id}-heading`} title={title} tone="card" isCompact className="flex flex-col gap-2">
-      <div className="h-72 w-full" role="img" aria-label={`${title}: ${summary}`}>
+    <SectionCard id={`${id}-heading`} title={title} tone="card" isCompact className="flex min-w-0 flex-col gap-2">
+      <div className="h-72 w-full min-w-0" role="img" aria-label={`${title}: ${summary}`} data-chart={id}>
         {children}
       </div>
+      {legend?.length ? <ChartLegend label={`Key to ${title.charAt(0).toLowerCase()}${title.slice(1)}`} items={legend} /> : null}
       <details>
         <summary className="min-h-touch cursor-pointer py-2 font-semibold text-brand">Numbers behind the chart</summary>
         <div className="max-h-64 overflow-auto">{table}</div>
@@ -54,21 +61,52 @@ function YieldTable({ rows, first }: { rows: (Yield & { key: string; label: stri
 
 const empty = (what: string) => <p className="p-6 text-slate-700">No {what} in this period.</p>;
 
+/** Props for a recharts axis with round ticks (domain, ticks, their text). */
+function axisTicks(lo: number, hi: number, target = 5, minStep = 0) {
+  const t = niceTicks(lo, hi, target, { minStep });
+  return { type: "number" as const, domain: [t.min, t.max], ticks: t.ticks, interval: 0 as const, tickFormatter: (v: number) => formatTick(v, t.decimals) };
+}
+
+/** A recharts dot/shape renderer drawing the point's window state by shape. */
+function markerFor(state: (payload: unknown) => WindowState) {
+  function Marker(props: { cx?: unknown; cy?: unknown; payload?: unknown; index?: number }) {
+    return <PointMarker key={props.index} cx={Number(props.cx)} cy={Number(props.cy)} state={state(props.payload)} />;
+  }
+  return Marker;
+}
+
 export function InsightsCharts({ unitSystem, byWeek, byFuser, byMachine, findings, heater, cooling }: Props) {
   const tUnit = unitLabel("temperature", unitSystem);
   const temp = (c: number | null) => (c === null ? null : Math.round(toDisplay(c, "temperature", unitSystem) * 10) / 10);
-  const heaterData = heater.map((h) => ({ t: h.t, c: temp(h.c), band: h.min !== null && h.max !== null ? [temp(h.min), temp(h.max)] : null, jointId: h.jointId }));
+  const patternId = `heater-window-${useId().replace(/[^a-zA-Z0-9_-]/g, "")}`;
+  // Window state judged in °C (the stored values); drawn in the viewer's unit.
+  const heaterData = heater.map((h) => ({
+    t: h.t,
+    c: temp(h.c),
+    band: h.min !== null && h.max !== null ? [temp(h.min), temp(h.max)] : null,
+    jointId: h.jointId,
+    state: windowState(h.c, h.min, h.max),
+  }));
+  const heaterOutside = heater.filter((h) => windowState(h.c, h.min, h.max) === "outside");
+  const heaterNoWindow = heater.filter((h) => windowState(h.c, h.min, h.max) === "none").length;
+  const heaterValues = heaterData.flatMap((h) => [h.c, ...(h.band ?? [])]).filter((v): v is number => v !== null);
+  const heaterY = heaterValues.length ? axisTicks(Math.min(...heaterValues), Math.max(...heaterValues), 6) : null;
   const timeZone = useTimeZone();
   const day = (t: number) => formatInstant(t, "date", timeZone);
   const coolingOk = cooling.filter((c) => c.recorded >= c.required);
   const coolingShort = cooling.filter((c) => c.recorded < c.required);
-  // Axis end rounded up to a whole minute, so the ticks read as plain seconds.
-  const coolingMax = Math.ceil((Math.max(60, ...cooling.map((c) => Math.max(c.recorded, c.required))) * 1.05) / 60) * 60;
+  // Both cooling axes share one round scale in seconds, so the diagonal is recorded = required.
+  const coolingAxis = axisTicks(0, Math.max(60, ...cooling.map((c) => Math.max(c.recorded, c.required))), 6);
+  const coolingMax = coolingAxis.domain[1]!;
+  const percentAxis = axisTicks(0, 100, 5);
+  const weekCounts = axisTicks(0, Math.max(1, ...byWeek.map((w) => w.joints)), 5, 1);
+  const findingCounts = axisTicks(0, Math.max(1, ...findings.map((f) => f.joints)), 5, 1);
+  const shortText = (h: (typeof heater)[number]) => `${day(h.t)} ${h.heaterTag} ${temp(h.c)} ${tUnit}`;
   const groupChart = (rows: (Yield & { label: string })[]) => (
     <ResponsiveContainer width="100%" height="100%">
-      <BarChart data={rows} layout="vertical" margin={{ left: 24, right: 16 }}>
+      <BarChart data={rows} layout="vertical" margin={{ left: 8, right: 16, bottom: 16 }}>
         <CartesianGrid strokeDasharray="3 3" />
-        <XAxis type="number" domain={[0, 100]} unit=" %" />
+        <XAxis {...percentAxis} label={{ value: "first-pass yield (%)", position: "insideBottom", offset: -10 }} />
         <YAxis type="category" dataKey="label" width={120} />
         <Tooltip formatter={(v, _n, item) => [`${v} % of ${(item.payload as Yield).joints} joints`, "First-pass yield"]} />
         <Bar dataKey="yieldPct" name="First-pass yield" fill={BRAND} isAnimationActive={false} />
@@ -83,16 +121,23 @@ export function InsightsCharts({ unitSystem, byWeek, byFuser, byMachine, finding
         title="First-pass yield by week"
         summary={byWeek.map((w) => `week of ${w.weekStart}: ${w.yieldPct} % of ${w.joints}`).join("; ") || "no joints"}
         table={<YieldTable first="Week of" rows={byWeek.map((w) => ({ ...w, key: w.weekStart, label: w.weekStart }))} />}
+        legend={
+          byWeek.length
+            ? [
+                { key: "joints", swatch: { kind: "bar", colour: "#94a3b8" }, text: "Joints made (left axis)" },
+                { key: "yield", swatch: { kind: "line", colour: PASS }, text: "First-pass yield, % (right axis)" },
+              ]
+            : undefined
+        }
       >
         {byWeek.length ? (
           <ResponsiveContainer width="100%" height="100%">
             <ComposedChart data={byWeek} margin={{ top: 16, right: 16, bottom: 4, left: 4 }}>
               <CartesianGrid strokeDasharray="3 3" />
               <XAxis dataKey="weekStart" />
-              <YAxis yAxisId="n" allowDecimals={false} label={{ value: "joints", angle: -90, position: "insideLeft" }} />
-              <YAxis yAxisId="pct" orientation="right" domain={[0, 100]} unit=" %" />
+              <YAxis yAxisId="n" {...weekCounts} label={{ value: "joints", angle: -90, position: "insideLeft" }} />
+              <YAxis yAxisId="pct" orientation="right" {...percentAxis} unit=" %" />
               <Tooltip />
-              <Legend />
               <Bar yAxisId="n" dataKey="joints" name="Joints made" fill="#94a3b8" isAnimationActive={false} />
               <Line yAxisId="pct" dataKey="yieldPct" name="First-pass yield (%)" stroke={PASS} strokeWidth={3} isAnimationActive={false} />
             </ComposedChart>
@@ -119,10 +164,10 @@ export function InsightsCharts({ unitSystem, byWeek, byFuser, byMachine, finding
       >
         {findings.length ? (
           <ResponsiveContainer width="100%" height="100%">
-            <BarChart data={findings} margin={{ top: 16, right: 16, bottom: 4, left: 4 }}>
+            <BarChart data={findings} margin={{ top: 16, right: 16, bottom: 4, left: 40 }}>
               <CartesianGrid strokeDasharray="3 3" />
               <XAxis dataKey="label" interval={0} angle={-25} textAnchor="end" height={90} tick={{ fontSize: 12 }} />
-              <YAxis allowDecimals={false} />
+              <YAxis {...findingCounts} />
               <Tooltip />
               <Bar dataKey="joints" name="Joints with a finding" fill={FAIL} isAnimationActive={false} />
             </BarChart>
@@ -150,7 +195,19 @@ export function InsightsCharts({ unitSystem, byWeek, byFuser, byMachine, finding
       <Panel
         id="heater"
         title="Heater temperature of recorded joints"
-        summary={`${heater.length} joints; the shaded band is each joint's procedure window; ${heater.filter((h) => (h.min !== null && h.c < h.min) || (h.max !== null && h.c > h.max)).length} outside it`}
+        summary={`${heater.length} joints; the hatched band is each joint's procedure window; ${heaterOutside.length} outside it${
+          heaterOutside.length ? ` (${heaterOutside.slice(0, 5).map(shortText).join("; ")}${heaterOutside.length > 5 ? `; and ${heaterOutside.length - 5} more` : ""})` : ""
+        }${heaterNoWindow ? `; ${heaterNoWindow} without a window` : ""}`}
+        legend={
+          heater.length
+            ? [
+                { key: "window", swatch: { kind: "band", colour: CHART_COLOURS.window, patternId }, text: "Procedure window (hatched)" },
+                { key: "inside", swatch: { kind: "point", state: "inside" }, text: `Within the window (${heater.length - heaterOutside.length - heaterNoWindow})` },
+                { key: "outside", swatch: { kind: "point", state: "outside" }, text: `Outside the window (${heaterOutside.length})` },
+                ...(heaterNoWindow ? [{ key: "none", swatch: { kind: "point" as const, state: "none" as const }, text: `No window recorded (${heaterNoWindow})` }] : []),
+              ]
+            : undefined
+        }
         table={
           <DataTable
             isDense
@@ -159,7 +216,7 @@ export function InsightsCharts({ unitSystem, byWeek, byFuser, byMachine, finding
             columns={[
               { header: "Day", isRowHeader: true, cell: (h) => day(h.t) },
               { header: "Heater", cell: (h) => h.heaterTag },
-              { header: `Recorded (${tUnit})`, cell: (h) => temp(h.c) },
+              { header: `Recorded (${tUnit})`, cell: (h) => (windowState(h.c, h.min, h.max) === "outside" ? <strong>{temp(h.c)} (outside)</strong> : temp(h.c)) },
               { header: `Window (${tUnit})`, cell: (h) => (h.min !== null && h.max !== null ? `${temp(h.min)?.toFixed(0)}–${temp(h.max)?.toFixed(0)}` : "—") },
             ]}
           />
@@ -168,13 +225,21 @@ export function InsightsCharts({ unitSystem, byWeek, byFuser, byMachine, finding
         {heater.length ? (
           <ResponsiveContainer width="100%" height="100%">
             <ComposedChart data={heaterData} margin={{ top: 16, right: 16, bottom: 4, left: 4 }}>
+              <HatchPattern id={patternId} />
               <CartesianGrid strokeDasharray="3 3" />
               <XAxis dataKey="t" type="number" scale="time" domain={["dataMin", "dataMax"]} tickFormatter={day} minTickGap={48} />
-              <YAxis domain={["auto", "auto"]} label={{ value: tUnit, angle: -90, position: "insideLeft" }} />
+              <YAxis {...heaterY} width={48} label={{ value: tUnit, angle: -90, position: "insideLeft" }} />
               <Tooltip labelFormatter={(t) => day(Number(t))} />
-              <Legend />
-              <Area dataKey="band" name="Procedure window" type="stepAfter" fill="#dcfce7" stroke={PASS} strokeDasharray="4 2" isAnimationActive={false} connectNulls />
-              <Line dataKey="c" name={`Recorded heater temperature (${tUnit})`} stroke={BRAND} strokeWidth={0} dot={{ r: 4, fill: BRAND }} activeDot={{ r: 6 }} isAnimationActive={false} />
+              <Area dataKey="band" name="Procedure window" type="stepAfter" fill={`url(#${patternId})`} fillOpacity={1} stroke={CHART_COLOURS.window} strokeWidth={1.5} isAnimationActive={false} connectNulls />
+              <Line
+                dataKey="c"
+                name={`Recorded heater temperature (${tUnit})`}
+                stroke={BRAND}
+                strokeWidth={0}
+                dot={markerFor((payload) => (payload as { state: WindowState }).state)}
+                activeDot={{ r: 6 }}
+                isAnimationActive={false}
+              />
             </ComposedChart>
           </ResponsiveContainer>
         ) : (
@@ -184,7 +249,18 @@ export function InsightsCharts({ unitSystem, byWeek, byFuser, byMachine, finding
       <Panel
         id="cooling"
         title="Cooling time: recorded against required"
-        summary={`${cooling.length} joints; ${coolingShort.length} cooled for less than their plan's minimum (below the diagonal)`}
+        summary={`${cooling.length} joints; ${coolingShort.length} cooled for less than their plan's minimum (below the diagonal)${
+          coolingShort.length ? `: ${coolingShort.slice(0, 5).map((c) => `${c.label} ${formatDuration(c.recorded)} of ${formatDuration(c.required)}`).join("; ")}${coolingShort.length > 5 ? `; and ${coolingShort.length - 5} more` : ""}` : ""
+        }`}
+        legend={
+          cooling.length
+            ? [
+                { key: "ok", swatch: { kind: "point", state: "inside" }, text: `Long enough (${coolingOk.length})` },
+                { key: "short", swatch: { kind: "point", state: "outside" }, text: `Too short (${coolingShort.length})` },
+                { key: "diagonal", swatch: { kind: "line", colour: "#92400e", dashed: true }, text: "Recorded = required" },
+              ]
+            : undefined
+        }
         table={
           <DataTable
             isDense
@@ -201,15 +277,14 @@ export function InsightsCharts({ unitSystem, byWeek, byFuser, byMachine, finding
       >
         {cooling.length ? (
           <ResponsiveContainer width="100%" height="100%">
-            <ScatterChart margin={{ right: 16, bottom: 16 }}>
+            <ScatterChart margin={{ top: 16, right: 16, bottom: 16, left: 8 }}>
               <CartesianGrid strokeDasharray="3 3" />
-              <XAxis type="number" dataKey="required" name="Required" unit=" s" domain={[0, coolingMax]} label={{ value: "required (s)", position: "insideBottom", offset: -8 }} />
-              <YAxis type="number" dataKey="recorded" name="Recorded" unit=" s" domain={[0, coolingMax]} label={{ value: "recorded (s)", angle: -90, position: "insideLeft" }} />
+              <XAxis {...coolingAxis} dataKey="required" name="Required" label={{ value: "required (s)", position: "insideBottom", offset: -8 }} />
+              <YAxis {...coolingAxis} dataKey="recorded" name="Recorded" width={60} label={{ value: "recorded (s)", angle: -90, position: "insideLeft" }} />
               <Tooltip cursor={{ strokeDasharray: "3 3" }} />
-              <Legend verticalAlign="top" />
-              <ReferenceLine segment={[{ x: 0, y: 0 }, { x: coolingMax, y: coolingMax }]} stroke="#92400e" strokeDasharray="6 3" label={{ value: "recorded = required", position: "insideTopLeft" }} />
-              <Scatter name="Long enough" data={coolingOk} fill={PASS} isAnimationActive={false} />
-              <Scatter name="Too short" data={coolingShort} fill={FAIL} shape="diamond" isAnimationActive={false} />
+              <ReferenceLine segment={[{ x: 0, y: 0 }, { x: coolingMax, y: coolingMax }]} stroke="#92400e" strokeDasharray="6 3" />
+              <Scatter name="Long enough" data={coolingOk} fill={PASS} shape={markerFor(() => "inside")} isAnimationActive={false} />
+              <Scatter name="Too short" data={coolingShort} fill={FAIL} shape={markerFor(() => "outside")} isAnimationActive={false} />
             </ScatterChart>
           </ResponsiveContainer>
         ) : (
