@@ -72,6 +72,7 @@ export function ReviewQueue({
   const [batchBusy, setBatchBusy] = useState(false);
   const [batchResult, setBatchResult] = useState<BatchAcceptResult | null>(null);
   const [batchError, setBatchError] = useState<string | null>(null);
+  const [confirmAll, setConfirmAll] = useState(false);
   const detailRef = useRef<HTMLElement>(null);
   const queueRef = useRef<HTMLElement>(null);
   const moveFocus = useRef(landing?.kind === "pending" || landing?.kind === "decided" || landing?.kind === "unknown");
@@ -135,6 +136,7 @@ export function ReviewQueue({
     setFilter((f) => ({ ...f, [name]: value }));
     setTicked(new Map());
     setBatchResult(null);
+    setConfirmAll(false);
   };
 
   const facets = first?.facets ?? null;
@@ -168,6 +170,7 @@ export function ReviewQueue({
 
   const runBatch = async (mode: "ticked" | "matching") => {
     setBatchBusy(true);
+    setConfirmAll(false);
     setBatchError(null);
     setBatchResult(null);
     setNotice(null);
@@ -274,10 +277,25 @@ export function ReviewQueue({
             <Button type="button" disabled={ticked.size === 0 || batchBusy} onClick={() => runBatch("ticked")}>
               {batchBusy ? "Accepting…" : `Accept ${ticked.size} ticked`}
             </Button>
-            <Button type="button" variant="secondary" disabled={withinMatching === 0 || batchBusy} onClick={() => runBatch("matching")}>
+            <Button type="button" variant="secondary" disabled={withinMatching === 0 || batchBusy} onClick={() => setConfirmAll(true)}>
               Accept all {withinMatching} within limits matching the filter
             </Button>
           </div>
+          {confirmAll ? (
+            <div role="group" aria-label="Confirm accepting all matching" className="flex flex-col gap-2 rounded-md border-2 border-brand bg-brand-light p-2">
+              <p className="text-sm font-semibold">
+                Accept every joint within limits that matches the filter ({withinMatching} now, counted again by the server when you confirm)? Each gets the note above.
+              </p>
+              <div className="flex flex-wrap gap-2">
+                <Button type="button" disabled={batchBusy} onClick={() => runBatch("matching")}>
+                  Yes, accept them
+                </Button>
+                <Button type="button" variant="secondary" onClick={() => setConfirmAll(false)}>
+                  Cancel
+                </Button>
+              </div>
+            </div>
+          ) : null}
           {ticked.size > MAX_BATCH_ACCEPT ? <p className="text-sm font-semibold text-fail">At most {MAX_BATCH_ACCEPT} joints can be accepted at once; untick some.</p> : null}
           {batchError ? (
             <p role="alert" className="rounded-md border-2 border-fail bg-fail-light p-2 font-semibold text-fail">
