@@ -139,3 +139,22 @@ test.describe("on a phone", () => {
     expect(linked.scrollWidth).toBeLessThanOrEqual(linked.clientWidth);
   });
 });
+
+test("every within-limits joint matching the filter is accepted in one go, after a confirmation", async ({ page }) => {
+  await new SignInPage(page).signInAs("inspector");
+  const review = new ReviewPage(page);
+  await review.open(`?job=${base.jobId}`);
+  const pending = async (outcome: string) =>
+    Number((await k("joint_states as js").join("joints as j", "j.id", "js.joint_id").where("j.job_id", base.jobId).where({ "js.review_state": "pending-review", "js.outcome": outcome }).count({ n: "*" }))[0]!.n);
+  const within = await pending("within-limits");
+  const out = await pending("out-of-limits");
+  expect(within).toBeGreaterThan(0);
+  const batch = page.getByRole("region", { name: "Accept joints within limits together" });
+  await batch.getByRole("button", { name: `Accept all ${within} within limits matching the filter` }).click();
+  await batch.getByRole("group", { name: "Confirm accepting all matching" }).getByRole("button", { name: "Yes, accept them" }).click();
+  const result = batch.getByRole("status", { name: "Batch result" });
+  await expect(result).toContainText(`${within} joints accepted. ${out} out of limits left for a decision of their own.`);
+  expect(await pending("within-limits")).toBe(0);
+  expect(await pending("out-of-limits")).toBe(out);
+  await expect.poll(() => review.waitingCount()).toBe(out);
+});
