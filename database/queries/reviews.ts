@@ -1,16 +1,18 @@
-// Review of recorded joints: the queue (pending joints, out of limits first, then by age),
+// Review of recorded joints: the queue (pending joints, oldest first or out of limits first, paged by keyset),
 // one joint's evidence (plan, recorded values, photos, pressure trace, revisions), and the
 // writes a decision makes — a new joint revision and the joint_states projection — which
 // the caller puts in one transaction with the audit entry.
 import type { JointConditions } from "@/domain/procedures/weather";
 import type { JointFinding } from "@/domain/fusion/check";
 import type { JointOutcome } from "@/domain/joints/outcomes";
-import type { JointParameter } from "@/domain/fusion/parameters";
 import type { FusionPlan } from "@/domain/fusion/plan";
 import type { PressureTraceReading } from "@/domain/pressure-trace/read";
 import type { ReviewState } from "@/domain/joints/review-states";
 import type { RecordedValues } from "@/domain/joints/values";
 import type { ChartPoint } from "@/domain/pressure-trace/check";
+import type { Knex } from "knex";
+import { encodeQueueCursor, type QueueCursor, type QueueQuery } from "@/domain/review/queue";
+import { QUEUE_PAGE, type QueueOrder } from "@/domain/review/schemas";
 import { conn, type Db } from "../client";
 import type { AttachmentRow, JointRow, JointTraceRow } from "../tables";
 import { joinJointParts, listJointRevisions as listRevisionsOfJoint, type JointRevision } from "./joints";
@@ -18,7 +20,7 @@ import { addJointFindings, jointHasFinding, num, parseJson, text, toRecordedValu
 
 export type { RevisionKind } from "@/domain/joints/revision-kinds";
 
-export type QueueFilter = { jobId?: number; fuserId?: number; machineId?: number; finding?: JointParameter };
+export type QueueFilter = QueueQuery;
 
 export type PhotoRef = { id: number; originalName: string | null; contentType: string };
 
@@ -167,41 +169,107 @@ async function withEvidence(k: Db, items: Omit<ReviewItem, "photos" | "trace">[]
   }));
 }
 
-function applyFilter(q: ReturnType<typeof baseJointQuery>, filter: QueueFilter) {
-  if (filter.jobId) q.where("j.job_id", filter.jobId);
-  if (filter.fuserId) q.where("j.fuser_id", filter.fuserId);
-  if (filter.machineId) q.where("j.machine_id", filter.machineId);
-  if (filter.finding) {
+function applyFilter<Q extends Knex.QueryBuilder>(q: Q, filter: QueueQuery, skip?: QueueFacet): Q {
+  if (filter.jobId && skip !== "job") q.where("j.job_id", filter.jobId);
+  if (filter.fuserId && skip !== "fuser") q.where("j.fuser_id", filter.fuserId);
+  if (filter.machineId && skip !== "machine") q.where("j.machine_id", filter.machineId);
+  if (filter.outcome && skip !== "outcome") q.where("js.outcome", filter.outcome);
+  if (filter.madeBefore) q.where("js.made_at", "<", filter.madeBefore);
+  if (filter.madeFrom) q.where("js.made_at", ">=", filter.madeFrom);
+  if (filter.madeUntil) q.where("js.made_at", "<", filter.madeUntil);
+  if (filter.finding && skip !== "finding") {
     const finding = jointHasFinding("j", filter.finding);
     q.whereRaw(finding.sql, finding.bindings);
   }
   return q;
 }
 
-export type ReviewQueue = { items: ReviewItem[]; total: number; outOfLimits: number };
+/** Pending joints (joint_states joined to joints) with `filter` applied, for counts and id lists. */
+function pendingJoints(k: Db, filter: QueueFilter, skip?: QueueFacet) {
+  return applyFilter(k("joint_states as js").join("joints as j", "j.id", "js.joint_id").where("js.review_state", "pending-review"), filter, skip);
+}
+
+/** After the cursor in (made at, id) order (a range the (…, made_at, joint_id) indexes serve). */
+function afterKey(q: Knex.QueryBuilder, cursor: QueueCursor | null) {
+  if (cursor) q.where((w) => w.where("js.made_at", ">", cursor.madeAt).orWhere((e) => e.where("js.made_at", cursor.madeAt).where("js.joint_id", ">", cursor.jointId)));
+  return q;
+}
+
+export type ReviewQueue = { items: ReviewItem[]; total: number; outOfLimits: number; next: string | null };
 
 /**
- * Joints pending review, out of limits first, then the oldest first (made at, then id —
- * domain/review/queue.ts compareQueueItems). Two index-ordered reads (one per outcome) so
- * neither needs a sort over every pending joint. Counts cover the whole filtered queue.
+ * One page of the joints pending review, after `after` (keyset paging: the cursor is the
+ * previous page's last sort key, never an offset, so a joint decided meanwhile neither
+ * skips nor repeats a row). Order (domain/review/queue.ts compareQueueItems): "oldest" —
+ * made at, then id; "out-of-limits-first" — the out-of-limits part, then the within-limits
+ * part, each oldest first (one index-ordered read per part). `next` is the cursor of the
+ * following page, null on the last. Counts cover the whole filtered queue.
  */
-export async function listReviewQueue({ filter = {}, limit = 50 }: { filter?: QueueFilter; limit?: number }, trx?: Db): Promise<ReviewQueue> {
+export async function listReviewQueue(
+  { filter = {}, order = "oldest", after = null, limit = QUEUE_PAGE }: { filter?: QueueFilter; order?: QueueOrder; after?: QueueCursor | null; limit?: number },
+  trx?: Db,
+): Promise<ReviewQueue> {
   const k = conn(trx);
-  const part = (outcome: JointOutcome, n: number) =>
-    applyFilter(baseJointQuery(k), filter)
-      .where("js.review_state", "pending-review")
-      .where("js.outcome", outcome)
-      .orderBy([{ column: "js.made_at" }, { column: "js.joint_id" }])
-      .limit(n);
-  const out = ((await part("out-of-limits", limit)) as QueueRow[]).map(toItem);
-  const within = out.length < limit ? ((await part("within-limits", limit - out.length)) as QueueRow[]).map(toItem) : [];
-  const counts = (await applyFilter(baseJointQuery(k).clearSelect(), filter)
-    .where("js.review_state", "pending-review")
-    .select("js.outcome")
-    .count({ n: "*" })
-    .groupBy("js.outcome")) as { outcome: JointOutcome; n: number }[];
+  const read = async (outcome: JointOutcome | null, cursor: QueueCursor | null, n: number) => {
+    const q = applyFilter(baseJointQuery(k), filter).where("js.review_state", "pending-review");
+    if (outcome) q.where("js.outcome", outcome);
+    return ((await afterKey(q, cursor).orderBy([{ column: "js.made_at" }, { column: "js.joint_id" }]).limit(n)) as QueueRow[]).map(toItem);
+  };
+  let rows: Omit<ReviewItem, "photos" | "trace">[];
+  if (order === "oldest") rows = await read(null, after, limit + 1);
+  else if (after && after.outcome === "within-limits") rows = await read("within-limits", after, limit + 1);
+  else {
+    rows = await read("out-of-limits", after, limit + 1);
+    if (rows.length < limit + 1) rows = [...rows, ...(await read("within-limits", null, limit + 1 - rows.length))];
+  }
+  const page = rows.slice(0, limit);
+  const last = page[page.length - 1];
+  const next = rows.length > limit && last ? encodeQueueCursor({ outcome: last.outcome, madeAt: last.madeAt, jointId: last.jointId }) : null;
+  const counts = (await pendingJoints(k, filter).select("js.outcome").count({ n: "*" }).groupBy("js.outcome")) as { outcome: JointOutcome; n: number }[];
   const count = (o: JointOutcome) => Number(counts.find((c) => c.outcome === o)?.n ?? 0);
-  return { items: await withEvidence(k, [...out, ...within]), total: count("out-of-limits") + count("within-limits"), outOfLimits: count("out-of-limits") };
+  return { items: await withEvidence(k, page), total: count("out-of-limits") + count("within-limits"), outOfLimits: count("out-of-limits"), next };
+}
+
+export type QueueFacet = "job" | "fuser" | "machine" | "outcome" | "finding";
+
+/** How many pending joints each choice of a filter would show, the other filters applied. */
+export type QueueFacetCounts = { job: Record<string, number>; fuser: Record<string, number>; machine: Record<string, number>; outcome: Record<string, number>; finding: Record<string, number> };
+
+export async function countQueueFacets({ filter = {} }: { filter?: QueueFilter }, trx?: Db): Promise<QueueFacetCounts> {
+  const k = conn(trx);
+  const group = async (facet: QueueFacet, column: string, q = pendingJoints(k, filter, facet)) => {
+    const rows = (await q.select(`${column} as v`).countDistinct({ n: "j.id" }).groupBy(column)) as { v: string | number; n: number }[];
+    return Object.fromEntries(rows.map((r) => [String(r.v), Number(r.n)]));
+  };
+  const [job, fuser, machine, outcome, finding] = await Promise.all([
+    group("job", "j.job_id"),
+    group("fuser", "j.fuser_id"),
+    group("machine", "j.machine_id"),
+    group("outcome", "js.outcome"),
+    group("finding", "jf.parameter", pendingJoints(k, filter, "finding").join("joint_findings as jf", "jf.joint_id", "j.id")),
+  ]);
+  return { job, fuser, machine, outcome, finding };
+}
+
+export type BatchCandidate = { jointId: number; revisionNo: number; fuserId: number; outcome: JointOutcome };
+
+/**
+ * The pending joints within limits that match `filter`, oldest first, at most `limit` (the
+ * batch accept's "all matching this filter": the caller asks one more than its bound to
+ * know it was passed), and how many matching joints are out of limits (left out).
+ */
+export async function listBatchCandidates({ filter = {}, limit }: { filter?: QueueFilter; limit: number }, trx?: Db): Promise<{ candidates: BatchCandidate[]; outOfLimits: number }> {
+  const k = conn(trx);
+  const rows = (await pendingJoints(k, filter)
+    .where("js.outcome", "within-limits")
+    .orderBy([{ column: "js.made_at" }, { column: "js.joint_id" }])
+    .limit(limit)
+    .select("js.joint_id", "js.revision_no", "j.fuser_id", "js.outcome")) as { joint_id: number; revision_no: number; fuser_id: number; outcome: JointOutcome }[];
+  const out = filter.outcome === "within-limits" ? [] : ((await pendingJoints(k, filter).where("js.outcome", "out-of-limits").count({ n: "*" })) as { n: number }[]);
+  return {
+    candidates: rows.map((r) => ({ jointId: Number(r.joint_id), revisionNo: Number(r.revision_no), fuserId: Number(r.fuser_id), outcome: r.outcome })),
+    outOfLimits: Number(out[0]?.n ?? 0),
+  };
 }
 
 export async function findReviewItem({ jointId }: { jointId: number }, trx?: Db): Promise<ReviewItem | null> {

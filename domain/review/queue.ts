@@ -5,20 +5,80 @@ import type { FusionPlan } from "@/domain/fusion/plan";
 import { checkJoint, MAX_MISALIGNMENT_WALL_FRACTION, type JointFinding } from "@/domain/fusion/check";
 import type { JointOutcome } from "@/domain/joints/outcomes";
 import type { JointParameter } from "@/domain/fusion/parameters";
+import { localDayRange } from "@/domain/dates/zone";
+import type { QueueOrder } from "@/domain/review/schemas";
+
+export { BATCH_SKIP_LABELS, type BatchSkipReason } from "@/domain/review/schemas";
 import { formatQuantity, formatRange, type QuantityKind, type UnitSystem } from "@/domain/units/format";
 import { RECORDED_VALUE_DEFINITIONS, type RecordedValues } from "@/domain/joints/values";
 
 export type { RecordedValues } from "@/domain/joints/values";
 
+type QueueKey = { outcome: JointOutcome; madeAt: Date; jointId: number };
+
 /**
- * Queue order: joints out of limits first, then the rest; within each, the oldest joint
- * first (made at), then by id so the order is total. database/queries/reviews.ts sorts the
- * same way in SQL; tests check the two agree.
+ * Queue orders. "oldest" (the default): the joint made first, then by id so the order is
+ * total. "out-of-limits-first": joints out of limits first, then the rest, each oldest
+ * first. database/queries/reviews.ts sorts the same way in SQL; tests check the two agree.
  */
-export function compareQueueItems(a: { outcome: JointOutcome; madeAt: Date; jointId: number }, b: { outcome: JointOutcome; madeAt: Date; jointId: number }): number {
-  const rank = (o: JointOutcome) => (o === "out-of-limits" ? 0 : 1);
+export function compareQueueItems(a: QueueKey, b: QueueKey, order: QueueOrder = "oldest"): number {
+  const rank = (o: JointOutcome) => (order === "out-of-limits-first" && o === "within-limits" ? 1 : 0);
   return rank(a.outcome) - rank(b.outcome) || a.madeAt.getTime() - b.madeAt.getTime() || a.jointId - b.jointId;
 }
+
+/** Where a page of the queue ends: the last item's sort key (outcome, made at, id). Keyset paging, never an offset. */
+export type QueueCursor = QueueKey;
+
+/** The cursor as the URL carries it: "o" or "w", made at in ms, joint id (e.g. "w.1764576000000.37"). */
+export function encodeQueueCursor(c: QueueCursor): string {
+  return `${c.outcome === "out-of-limits" ? "o" : "w"}.${c.madeAt.getTime()}.${c.jointId}`;
+}
+
+/** The cursor back from its text; null when it is not one encodeQueueCursor wrote. */
+export function decodeQueueCursor(text: string): QueueCursor | null {
+  const match = /^([ow])\.(\d{1,15})\.(\d{1,12})$/.exec(text);
+  if (!match) return null;
+  const jointId = Number(match[3]);
+  if (!Number.isSafeInteger(jointId) || jointId < 1) return null;
+  return { outcome: match[1] === "o" ? "out-of-limits" : "within-limits", madeAt: new Date(Number(match[2])), jointId };
+}
+
+/** The queue filter as the query reads it: ids, and instants for the age and the days made. */
+export type QueueQuery = {
+  jobId?: number;
+  fuserId?: number;
+  machineId?: number;
+  outcome?: JointOutcome;
+  finding?: JointParameter;
+  /** Made before this instant (waiting more than N days). */
+  madeBefore?: Date;
+  /** Made at or after this instant (the first day's start). */
+  madeFrom?: Date;
+  /** Made before this instant (the day after the last day). */
+  madeUntil?: Date;
+};
+
+/**
+ * The filter from the URL (domain/review/schemas queueFilterSchema) as instants: "waiting
+ * more than N days" is made more than N × 24 h before `now`; the days made are the
+ * organisation's local days in `zone`, both ends included.
+ */
+export function toQueueQuery(
+  f: { job?: number; fuser?: number; machine?: number; outcome?: JointOutcome; finding?: JointParameter; waiting?: number; from?: string; to?: string },
+  { now, zone }: { now: Date; zone: string },
+): QueueQuery {
+  return {
+    jobId: f.job,
+    fuserId: f.fuser,
+    machineId: f.machine,
+    outcome: f.outcome,
+    finding: f.finding,
+    madeBefore: f.waiting ? new Date(now.getTime() - f.waiting * 86_400_000) : undefined,
+    madeFrom: f.from ? localDayRange(f.from, zone).start : undefined,
+    madeUntil: f.to ? localDayRange(f.to, zone).nextStart : undefined,
+  };
+}
+
 
 export type ComparisonRow = {
   key: string;

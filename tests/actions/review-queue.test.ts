@@ -1,5 +1,6 @@
-// The review queue API: who may read it, its order (out of limits first, then oldest —
+// The review queue API: who may read it, its "out of limits first" order (then oldest —
 // domain/review/queue.ts compareQueueItems), its filters, and what each item carries.
+// Paging, the default oldest-first order and the newer filters: review-queue-paging.test.ts.
 import { beforeEach, describe, expect, it } from "vitest";
 import { GET as queueGet } from "@/app/api/v1/review/queue/route";
 import { GET as jointGet } from "@/app/api/v1/review/joints/[id]/route";
@@ -52,15 +53,15 @@ describe("review queue API", () => {
       await makeReviewJoint(ownerDb(), a, { fuserId: f1.id, madeAt: day(6) }),
     ];
     await ownerDb()("joint_states").where({ joint_id: j[5]!.jointId }).update({ review_state: "accepted", revision_no: 2 });
-    const { body } = await queue(inspector);
+    const { body } = await queue(inspector, "?order=out-of-limits-first");
     expect(body.total).toBe(5);
     expect(body.outOfLimits).toBe(3);
     // Order checked against the domain rule, and by hand: out of limits by age (2, 4, 5 Nov), then within (1, 3 Nov).
-    const sorted = [...body.items].sort((x, y) => compareQueueItems({ ...x, madeAt: new Date(x.madeAt) }, { ...y, madeAt: new Date(y.madeAt) }));
+    const sorted = [...body.items].sort((x, y) => compareQueueItems({ ...x, madeAt: new Date(x.madeAt) }, { ...y, madeAt: new Date(y.madeAt) }, "out-of-limits-first"));
     expect(body.items.map((i) => i.jointId)).toEqual(sorted.map((i) => i.jointId));
     expect(body.items.map((i) => i.jointId)).toEqual([j[4]!, j[3]!, j[1]!, j[2]!, j[0]!].map((x) => x.jointId));
     // A page smaller than the queue keeps the order and the full counts.
-    const page = await queue(inspector, "?limit=2");
+    const page = await queue(inspector, "?order=out-of-limits-first&limit=2");
     expect(page.body.items.map((i) => i.jointId)).toEqual([j[4]!.jointId, j[3]!.jointId]);
     expect(page.body.total).toBe(5);
   });

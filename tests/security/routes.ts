@@ -80,6 +80,7 @@ export const ROUTES: readonly RouteEntry[] = [
   r("GET", "/api/v1/review/joints/[id]", "viewReview", "none"),
   r("GET", "/api/v1/review/joints/[id]/trace", "viewTrace", "none"),
   r("POST", "/api/v1/review/joints/[id]/decision", "decideJoint", "raw", { json: {} }),
+  r("POST", "/api/v1/review/batch-accept", "decideJoint", "json", { json: { note: "", joints: [] } }),
 
   r("GET", "/api/v1/trace/joints/[id]", "traceLots", "none"),
   r("GET", "/api/v1/trace/lot", "traceLots", "query", { query: { lot: "4410021" } }),
@@ -100,6 +101,7 @@ export const ACTIONS: readonly ActionEntry[] = [
   a(`${SIGNED_IN}/trench/actions.ts`, "grantOverrideAction", "grantOverride"),
 
   a(`${SIGNED_IN}/review/actions.ts`, "decideJointAction", "decideJoint"),
+  a(`${SIGNED_IN}/review/actions.ts`, "acceptBatchAction", "decideJoint"),
 
   a(`${SIGNED_IN}/coils/actions.ts`, "receiveCoilAction", "receiveCoils"),
   a(`${SIGNED_IN}/coils/actions.ts`, "moveCoilAction", "moveCoils"),

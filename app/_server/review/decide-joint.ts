@@ -8,7 +8,8 @@ import { insertAuditEntry } from "@/database/queries/audit-log";
 import { enqueueCutOutNotice } from "@/app/_server/mail/cut-out-notice";
 import { insertJointRevision, latestJointRevision, lockJointState, updateJointState } from "@/database/queries/reviews";
 import type { UserRecord } from "@/database/queries/users";
-import { AppError } from "@/domain/result";
+import { AppError, type ErrorCode } from "@/domain/result";
+import type { BatchSkipReason } from "@/domain/review/schemas";
 import { REVIEW_STATE_LABELS } from "@/domain/joints/review-states";
 import { REVISION_KIND_LABELS } from "@/domain/joints/revision-kinds";
 import { acceptNeedsNote, type DecideJointValues } from "@/domain/review/schemas";
@@ -17,28 +18,49 @@ import type { Db } from "@/database/client";
 import { formatInstant } from "@/components/ui/display-format";
 import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 
-export type DecisionResult = { jointId: number; revisionNo: number; reviewState: "accepted" | "cut-out" };
+export type DecisionResult = { jointId: number; revisionNo: number; reviewState: "accepted" | "cut-out"; label: string };
 
-async function conflict(jointId: number, trx: Db, label: string): Promise<AppError> {
-  const latest = await latestJointRevision({ jointId }, trx);
-  const who = latest ? ` (${REVISION_KIND_LABELS[latest.kind] ?? latest.kind} by ${latest.byName} at ${formatInstant(latest.at, "minute", await organisationTimeZone(trx))})` : "";
-  return new AppError("conflict", `${label} changed while you were looking at it${who}. Nothing was saved; the queue now shows the joint as it is.`);
+/** A decision refused for a reason the batch accept reports per joint (domain/review/queue BATCH_SKIP_REASONS). */
+export class DecisionRefused extends AppError {
+  constructor(
+    code: ErrorCode,
+    message: string,
+    readonly reason: BatchSkipReason,
+    readonly label: string | null,
+  ) {
+    super(code, message);
+  }
 }
 
-export async function decideJoint(input: DecideJointValues, { user, requestId, now = new Date() }: { user: UserRecord; requestId: string; now?: Date }): Promise<DecisionResult> {
+async function conflict(jointId: number, trx: Db, label: string, reason: BatchSkipReason = "changed"): Promise<AppError> {
+  const latest = await latestJointRevision({ jointId }, trx);
+  const who = latest ? ` (${REVISION_KIND_LABELS[latest.kind] ?? latest.kind} by ${latest.byName} at ${formatInstant(latest.at, "minute", await organisationTimeZone(trx))})` : "";
+  return new DecisionRefused("conflict", `${label} changed while you were looking at it${who}. Nothing was saved; the queue now shows the joint as it is.`, reason, label);
+}
+
+/**
+ * `onlyWithinLimits` (the batch accept): a joint out of limits is refused, whatever is sent —
+ * each one needs its own look and its own note.
+ */
+export async function decideJoint(
+  input: DecideJointValues,
+  { user, requestId, now = new Date(), onlyWithinLimits = false }: { user: UserRecord; requestId: string; now?: Date; onlyWithinLimits?: boolean },
+): Promise<DecisionResult> {
   return db().transaction(async (trx) => {
     const state = await lockJointState({ jointId: input.jointId }, trx);
-    if (!state) throw new AppError("not-found", `Joint ${input.jointId} was not found.`);
+    if (!state) throw new DecisionRefused("not-found", `Joint ${input.jointId} was not found.`, "not-found", null);
     const label = `${state.jobCode} joint ${state.jointNo}`;
     if (!canReview(user, { fuserId: state.fuserId })) {
-      throw new AppError(
-        "forbidden",
-        can(user, "decideJoint") ? `You made ${label} yourself; another inspector must decide it.` : "Only an inspector may decide a joint.",
-      );
+      if (can(user, "decideJoint")) throw new DecisionRefused("forbidden", `You made ${label} yourself; another inspector must decide it.`, "own-joint", label);
+      throw new AppError("forbidden", "Only an inspector may decide a joint.");
     }
-    if (state.revisionNo !== input.expectedRevisionNo) throw await conflict(state.jointId, trx, label);
-    if (state.reviewState !== "pending-review") {
-      throw new AppError("conflict", `${label} is already ${REVIEW_STATE_LABELS[state.reviewState].toLowerCase()}; it is no longer waiting for a decision.`);
+    const decided = state.reviewState !== "pending-review";
+    if (state.revisionNo !== input.expectedRevisionNo) throw await conflict(state.jointId, trx, label, decided ? "already-decided" : "changed");
+    if (decided) {
+      throw new DecisionRefused("conflict", `${label} is already ${REVIEW_STATE_LABELS[state.reviewState].toLowerCase()}; it is no longer waiting for a decision.`, "already-decided", label);
+    }
+    if (onlyWithinLimits && state.outcome !== "within-limits") {
+      throw new DecisionRefused("invalid", `${label} is out of limits; open it and decide it on its own.`, "out-of-limits", label);
     }
     if (input.decision === "accepted" && acceptNeedsNote(state.outcome) && input.note.length < 3) {
       const message = "Say why a joint out of limits is accepted (at least 3 characters)";
@@ -69,6 +91,6 @@ export async function decideJoint(input: DecideJointValues, { user, requestId, n
       trx,
     );
     if (input.decision === "cut-out") await enqueueCutOutNotice({ jointId: state.jointId, reason: input.note, inspectorName: user.name }, trx);
-    return { jointId: state.jointId, revisionNo, reviewState: input.decision };
+    return { jointId: state.jointId, revisionNo, reviewState: input.decision, label };
   });
 }

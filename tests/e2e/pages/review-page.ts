@@ -4,9 +4,14 @@ import { expect, type Locator, type Page } from "@playwright/test";
 export class ReviewPage {
   constructor(private readonly page: Page) {}
 
-  async open(): Promise<void> {
-    await this.page.goto("/review");
+  async open(search = ""): Promise<void> {
+    await this.page.goto(`/review${search}`);
     await expect(this.page.getByRole("heading", { name: "Review queue" })).toBeVisible();
+  }
+
+  /** The region that shows the opened joint (or what became of a linked one). */
+  detail(): Locator {
+    return this.page.getByRole("region", { name: "Selected joint" });
   }
 
   queue(): Locator {
@@ -38,8 +43,48 @@ export class ReviewPage {
     await detail.getByRole("button", { name: "Record decision" }).click();
   }
 
-  async filterBy(label: "Job" | "Fuser" | "Machine" | "Finding", option: string): Promise<void> {
-    await this.page.getByLabel(label, { exact: true }).selectOption({ label: option });
+  /** The "N joints waiting, M out of limits (showing K)" line. */
+  async shownCount(): Promise<number> {
+    const text = (await this.page.getByRole("status").filter({ hasText: "waiting" }).first().textContent()) ?? "";
+    const match = /showing (\d+)/.exec(text);
+    return match ? Number(match[1]) : this.waitingCount();
+  }
+
+  /** Picks a filter choice by its words; the count the screen shows beside it, "(12)", is ignored. */
+  async filterBy(label: "Job" | "Fuser" | "Machine" | "Finding" | "Outcome" | "Waiting more than" | "Order", option: string): Promise<void> {
+    const select = this.page.getByLabel(label, { exact: true });
+    const escaped = option.replace(/[.*+?^${}()|[\]\\]/g, "\\$&");
+    const value = await select.locator("option").filter({ hasText: new RegExp(`^${escaped}( \\(\\d+\\))?$`) }).first().getAttribute("value");
+    await select.selectOption(value ?? option);
+  }
+
+  /** The count shown beside a filter choice. */
+  async choiceCount(label: "Job" | "Fuser" | "Machine" | "Finding" | "Outcome", option: string): Promise<number> {
+    const text = (await this.page.getByLabel(label, { exact: true }).locator("option").filter({ hasText: option }).first().textContent()) ?? "";
+    const match = /\((\d+)\)$/.exec(text.trim());
+    if (!match) throw new Error(`no count in "${text}"`);
+    return Number(match[1]);
+  }
+
+  async showMore(): Promise<void> {
+    await this.page.getByRole("button", { name: /^Show more joints/ }).click();
+  }
+
+  async tick(label: string): Promise<void> {
+    await this.page.getByLabel(`Tick ${label} to accept`, { exact: true }).check();
+  }
+
+  /** Accepts the ticked joints with one note; returns the answer's region. */
+  async acceptTicked(note: string): Promise<Locator> {
+    const batch = this.page.getByRole("region", { name: "Accept joints within limits together" });
+    await batch.getByLabel("Note for every joint accepted").fill(note);
+    await batch.getByRole("button", { name: /^Accept \d+ ticked$/ }).click();
+    return batch.getByRole("status", { name: "Batch result" });
+  }
+
+  /** True when the page does not scroll sideways (the document is no wider than the window). */
+  async fitsWidth(): Promise<{ scrollWidth: number; clientWidth: number }> {
+    return this.page.evaluate(() => ({ scrollWidth: document.documentElement.scrollWidth, clientWidth: document.documentElement.clientWidth }));
   }
 }
 
