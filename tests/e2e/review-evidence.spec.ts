@@ -91,17 +91,17 @@ test("the evidence panel names the procedure, keeps optional values neutral, fit
   expect(await panel.fitsItsWidth()).toBe(true);
   await page.screenshot({ path: "tests/e2e/artifacts/review-evidence-phone.png", fullPage: true });
 
-  // The trace attaches to the first joint …
+  // The trace attaches to the first joint (a new revision: the panel shows the trace) …
   const file = traceFile(first);
   await panel.attachTrace(file);
-  await expect(panel.traceMessage()).toContainText(`Trace attached to ${firstLabel}`);
+  await expect(panel.traceRegion()).toContainText("samples, attached");
 
   // … and the same file is refused on the second, naming the first with a link to it.
   const other = new EvidencePanel(await review.openJoint(secondLabel));
   await other.attachTrace(file);
   await expect(other.traceMessage()).toContainText(`already attached to ${firstLabel}`);
   await expect(page.getByRole("link", { name: "Open the joint this trace belongs to" })).toHaveAttribute("href", `/joints/${first.jointId}`);
-  await expect(page.getByRole("region", { name: "Selected joint" }).getByText("No pressure trace is attached.")).toBeVisible();
+  await expect(other.traceRegion()).toContainText("No pressure trace is attached.");
   expect(await other.fitsItsWidth()).toBe(true);
   await page.screenshot({ path: "tests/e2e/artifacts/review-evidence-duplicate-trace.png", fullPage: true });
 });

@@ -25,9 +25,14 @@ export class EvidencePanel {
     await expect(this.detail.getByRole("button", { name: "Attach trace" })).toBeEnabled({ timeout: 20_000 });
   }
 
-  /** The attach form's message (success or refusal). */
+  /** The joint's "Pressure trace" section (the trace shown, or that none is attached). */
+  traceRegion(): Locator {
+    return this.detail.getByRole("region", { name: "Pressure trace" });
+  }
+
+  /** The attach form's message (a refusal; after a trace is attached the panel shows the new revision). */
   traceMessage(): Locator {
-    return this.detail.getByRole("status").filter({ hasText: /trace/i });
+    return this.detail.getByRole("form", { name: /^Attach a pressure trace/ }).getByRole("status").first();
   }
 
   /** True when nothing inside the panel is wider than the panel (no sideways scrolling). */
