@@ -4,17 +4,15 @@ import { formatQuantity, type UnitSystem } from "@/domain/units/format";
 import { COMPARISON_STATUS_WORDS, type ComparisonRow } from "@/domain/review/queue";
 import { OutcomeBadge } from "@/components/ui/badges";
 import { Cautions } from "@/components/ui/caution";
-import { DataTable } from "@/components/ui/data-table";
 import { FactList } from "@/components/ui/fact-list";
 import { TimeDisplay } from "@/components/ui/time-display";
 import { DecisionForm } from "./decision-form";
 import { TraceSection } from "./trace-section";
+import { EvidenceTable } from "./evidence-table";
 
 /** A finding is red; an optional value left empty is neutral (it is not a finding). */
 const STATUS_CLASS: Record<ComparisonRow["status"], string> = { ok: "text-pass", finding: "text-fail", "not-recorded": "text-fail", optional: "text-slate-700", info: "" };
 const ROW_CLASS: Record<ComparisonRow["status"], string> = { ok: "", finding: "bg-fail-light", "not-recorded": "bg-fail-light", optional: "", info: "" };
-/** Cells wrap anywhere, so the table fits a 390 px phone without sideways scrolling. */
-const WRAP = "[overflow-wrap:anywhere]";
 
 /** One joint's evidence side by side, and the decision. */
 export function JointDetail({
@@ -75,17 +73,16 @@ export function JointDetail({
           Plan and recorded values
         </h3>
         {item.comparison.length ? (
-          <DataTable
+          <EvidenceTable
             labelledBy="values-heading"
-            isDense
             rows={item.comparison}
             rowKey={(row) => row.key}
             rowClassName={(row) => ROW_CLASS[row.status]}
             columns={[
-              { header: "Value", isRowHeader: true, className: WRAP, cell: (row) => <span className="font-semibold">{row.label}</span> },
-              { header: "Plan", className: WRAP, cell: (row) => row.planText },
-              { header: "Recorded", className: WRAP, cell: (row) => <span className={row.status === "optional" ? "text-slate-700" : ""}>{row.recordedText}</span> },
-              { header: "Check", className: WRAP, cell: (row) => <span className={`font-semibold ${STATUS_CLASS[row.status]}`}>{COMPARISON_STATUS_WORDS[row.status]}</span> },
+              { header: "Value", isRowHeader: true, cell: (row) => row.label },
+              { header: "Plan", cell: (row) => row.planText },
+              { header: "Recorded", cell: (row) => <span className={row.status === "optional" ? "text-slate-700" : ""}>{row.recordedText}</span> },
+              { header: "Check", cell: (row) => <span className={`font-semibold ${STATUS_CLASS[row.status]}`}>{COMPARISON_STATUS_WORDS[row.status]}</span> },
             ]}
           />
         ) : (

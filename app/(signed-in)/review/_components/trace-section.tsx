@@ -5,13 +5,11 @@ import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/form/field";
 import { FieldShell } from "@/components/form/field-shell";
 import { OutcomeBadge } from "@/components/ui/badges";
-import { DataTable } from "@/components/ui/data-table";
 import { TimeDisplay } from "@/components/ui/time-display";
 import { formatDifference, formatQuantity, type UnitSystem } from "@/domain/units/format";
 import { TraceChart } from "./trace-chart";
+import { EvidenceTable } from "./evidence-table";
 
-/** Cells wrap anywhere, so the table fits a 390 px phone without sideways scrolling. */
-const WRAP = "[overflow-wrap:anywhere]";
 
 /** The joint page a refusal names ("… attached to WO-1 joint 12 (/joints/345) …"), to link it. */
 function jointPathIn(text: string): string | null {
@@ -70,19 +68,17 @@ export function TraceSection({ item, unitSystem, onAttached }: { item: QueueItem
             <OutcomeBadge outcome={trace.outcome} />.
           </p>
           <TraceChart jointId={item.jointId} traceId={trace.id} unitSystem={unitSystem} label={label} />
-          <DataTable
-            caption={<span className="font-semibold">Typed values and what the trace shows</span>}
-            isDense
+          <EvidenceTable
+            caption="Typed values and what the trace shows"
             rows={trace.rows}
             rowKey={(row) => row.key}
             rowClassName={(row) => (row.disagrees ? "bg-fail-light" : "")}
             columns={[
-              { header: "Value", isRowHeader: true, className: WRAP, cell: (row) => <span className="font-semibold">{row.label}</span> },
-              { header: "Typed", className: WRAP, cell: (row) => (row.typed === null ? <span className="text-slate-700">not typed</span> : formatQuantity(row.typed, row.kind, unitSystem)) },
-              { header: "From the trace", className: WRAP, cell: (row) => (row.trace === null ? "—" : formatQuantity(row.trace, row.kind, unitSystem)) },
+              { header: "Value", isRowHeader: true, cell: (row) => row.label },
+              { header: "Typed", cell: (row) => (row.typed === null ? <span className="text-slate-700">not typed</span> : formatQuantity(row.typed, row.kind, unitSystem)) },
+              { header: "From the trace", cell: (row) => (row.trace === null ? "—" : formatQuantity(row.trace, row.kind, unitSystem)) },
               {
                 header: "Agree?",
-                className: WRAP,
                 cell: (row) =>
                   row.allowance === null ? (
                     "—"
