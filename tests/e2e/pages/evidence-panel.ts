@@ -35,11 +35,20 @@ export class EvidencePanel {
     return this.detail.getByRole("form", { name: /^Attach a pressure trace/ }).getByRole("status").first();
   }
 
-  /** True when nothing inside the panel is wider than the panel (no sideways scrolling). */
+  /**
+   * True when the panel fits the window, nothing in it scrolls sideways, and no part of its
+   * tables sticks out past its right edge (screen-reader-only text, 1 px wide, is left out).
+   */
   async fitsItsWidth(): Promise<boolean> {
     return this.detail.evaluate((el) => {
-      const boxes = [el, ...Array.from(el.querySelectorAll<HTMLElement>("*"))].filter((e) => getComputedStyle(e).overflowX !== "visible");
-      return boxes.every((e) => e.scrollWidth <= e.clientWidth + 1) && el.getBoundingClientRect().right <= window.innerWidth + 1;
+      const panel = el.getBoundingClientRect();
+      const all = Array.from(el.querySelectorAll<HTMLElement>("*"));
+      const scrollersFit = [el as HTMLElement, ...all].filter((e) => ["auto", "scroll"].includes(getComputedStyle(e).overflowX)).every((e) => e.scrollWidth <= e.clientWidth + 1);
+      const insidePanel = Array.from(el.querySelectorAll<HTMLElement>("table, table *")).every((e) => {
+        const r = e.getBoundingClientRect();
+        return r.width <= 1 || r.right <= panel.right + 1;
+      });
+      return scrollersFit && insidePanel && panel.right <= window.innerWidth + 1;
     });
   }
 }
