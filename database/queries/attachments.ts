@@ -59,6 +59,22 @@ export async function findAttachmentById({ id }: { id: number }, trx?: Db): Prom
   return row ? toAttachment(row) : null;
 }
 
+export type TraceOwner = { attachmentId: number; jointId: number; jobCode: string; jointNo: number };
+
+/**
+ * The joint a pressure-trace file (by the SHA-256 of its bytes) is already attached to;
+ * null when none. Reads the attachments_sha256 index.
+ */
+export async function findTraceAttachmentBySha256({ sha256 }: { sha256: string }, trx?: Db): Promise<TraceOwner | null> {
+  const row = (await conn(trx)("attachments as a")
+    .join("joints as j", "j.id", "a.joint_id")
+    .join("jobs", "jobs.id", "j.job_id")
+    .where({ "a.sha256": sha256, "a.kind": "pressure-trace" })
+    .orderBy("a.id")
+    .first("a.id", "a.joint_id", "j.joint_no", "jobs.code as job_code")) as { id: number; joint_id: number; joint_no: number; job_code: string } | undefined;
+  return row ? { attachmentId: Number(row.id), jointId: Number(row.joint_id), jobCode: row.job_code, jointNo: Number(row.joint_no) } : null;
+}
+
 export async function listAttachmentsForJoint({ jointId }: { jointId: number }, trx?: Db): Promise<Attachment[]> {
   const rows = (await conn(trx)("attachments").where({ joint_id: jointId }).orderBy("id")) as AttachmentRow[];
   return rows.map(toAttachment);

@@ -49,7 +49,12 @@ export type ReviewItem = {
   machineId: number;
   machineTag: string;
   heaterTag: string;
+  /** The standard-based label of the plan ("ASTM F2620 butt fusion"). */
   procedureLabel: string | null;
+  /** The procedure row the joint was made under, and its version (what the joint references). */
+  procedureCode: string;
+  procedureName: string;
+  procedureVersionNo: number;
   madeAt: Date;
   station: string | null;
   outsideDiameterMm: number;
@@ -84,6 +89,9 @@ type QueueRow = JointRow & {
   fuser_name: string;
   machine_tag: string;
   heater_tag: string;
+  procedure_code: string;
+  procedure_name: string;
+  procedure_version_no: number;
 };
 
 /** A joint_traces row with the uploader's name. */
@@ -91,6 +99,8 @@ type TraceRow = Omit<JointTraceRow, "chart" | "finding_parameters" | "joint_id" 
 
 function baseJointQuery(k: Db) {
   return joinJointParts(k("joint_states as js").join("joints as j", "j.id", "js.joint_id"))
+    .join("procedure_versions as pv", "pv.id", "j.procedure_version_id")
+    .join("procedures as p", "p.id", "pv.procedure_id")
     .select(
       "j.*",
       "js.review_state",
@@ -102,6 +112,9 @@ function baseJointQuery(k: Db) {
       "f.name as fuser_name",
       "m.asset_tag as machine_tag",
       "h.asset_tag as heater_tag",
+      "p.code as procedure_code",
+      "p.name as procedure_name",
+      "pv.version_no as procedure_version_no",
     );
 }
 
@@ -120,6 +133,9 @@ function toItem(r: QueueRow): Omit<ReviewItem, "photos" | "trace"> {
     machineTag: r.machine_tag,
     heaterTag: r.heater_tag,
     procedureLabel: plan?.procedureLabel ?? null,
+    procedureCode: r.procedure_code,
+    procedureName: r.procedure_name,
+    procedureVersionNo: Number(r.procedure_version_no),
     madeAt: r.made_at,
     station: text(r.station),
     outsideDiameterMm: Number(r.outside_diameter_mm),

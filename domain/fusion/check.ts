@@ -7,7 +7,7 @@
 import type { FusionPlan } from '@/domain/fusion/plan';
 import type { JointParameter } from '@/domain/fusion/parameters';
 import type { JointOutcome } from '@/domain/joints/outcomes';
-import { jointMeasurements, type RecordedValues } from '@/domain/joints/values';
+import { jointMeasurements, type RecordedValueDefinition, type RecordedValues } from '@/domain/joints/values';
 import { readingTolerance } from '@/domain/fusion/instrument';
 import { MAX_MISALIGNMENT_WALL_FRACTION } from '@/domain/procedures/alignment';
 import { adjustedMinCoolingS, weatherProblems, type JointConditions } from '@/domain/procedures/weather';
@@ -22,7 +22,7 @@ export type { JointOutcome } from '@/domain/joints/outcomes';
 export { JOINT_PARAMETERS, type JointParameter } from '@/domain/fusion/parameters';
 
 /** Why a finding was raised. */
-export type FindingKind = 'below-minimum' | 'above-maximum' | 'not-recorded' | 'check-failed';
+export type FindingKind = 'below-minimum' | 'above-maximum' | 'not-recorded' | 'check-failed' | 'disagrees-with-trace';
 
 export interface JointFinding {
   parameter: JointParameter;
@@ -121,6 +121,21 @@ export function valueLimits(plan: FusionPlan, options: Pick<CheckJointOptions, '
     // Outside misalignment at most 10 % of the wall (PE pipe makers' butt-fusion guides).
     misalignmentMm: { min: null, max: MAX_MISALIGNMENT_WALL_FRACTION * plan.wallMm },
   } satisfies Record<string, { min: number | null; max: number | null } | null>;
+}
+
+/**
+ * Whether checkJoint raises a "not recorded" finding when this value is missing under this
+ * plan — the one answer to "is it required?" for every screen that shows a missing value:
+ * every yes/no check; a quantity whose `missingIsFinding` is set (domain/joints/values),
+ * heat soak only where the plan has a heat-soak window. Drag pressure (no check parameter)
+ * and the optional readings (bead-up, heat-soak gauge, pyrometer, hi-lo) are not.
+ */
+export function isRequiredValue(plan: Pick<FusionPlan, 'heatSoakS'>, definition: RecordedValueDefinition): boolean {
+  if (definition.parameter === null) return false;
+  if (definition.type === 'check') return true;
+  if (!definition.missingIsFinding) return false;
+  if (definition.parameter === 'heatSoak') return !!plan.heatSoakS;
+  return true;
 }
 
 /** The recorded quantities the check holds to a limit of the plan. */

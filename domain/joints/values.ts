@@ -50,7 +50,7 @@ export interface QuantityValueDefinition extends ValueDefinitionBase {
   /** The Trench field's label, and a hint under it. */
   prompt: string;
   hint?: string;
-  /** Shown when the value was not recorded (instead of "not recorded"). */
+  /** Shown when the value was not recorded (see missingValueText). */
   whenMissing?: string;
   /** The timer phase of a timed value. */
   phase?: 'heatSoak' | 'changeover' | 'cooling';
@@ -88,7 +88,7 @@ export const RECORDED_VALUES = [
   {
     key: 'beadUpGaugePressureMpa', column: 'bead_up_gauge_mpa', name: 'beadUpPressure', label: 'Bead-up gauge pressure', type: 'quantity', quantity: 'pressure', entry: 'typed', step: 'values',
     required: false, bounds: { min: 0, max: 40 }, inputName: 'bead-up gauge pressure', prompt: 'Bead-up gauge pressure (if different from fusion)', hint: 'Leave empty when bead-up was at fusion pressure.',
-    whenMissing: 'at fusion pressure (not recorded separately)', parameter: 'beadUpPressure', missingIsFinding: false,
+    whenMissing: 'bead-up at fusion pressure', parameter: 'beadUpPressure', missingIsFinding: false,
     register: { key: 'beadUpGauge', width: 9, inGrid: true }, deprecatedWireName: 'beadUpGaugeMpa',
   },
   {
@@ -166,6 +166,21 @@ export type RecordedValuesInput = { [K in QuantityValueKey]?: number | null } & 
 export const RECORDED_VALUE_DEFINITIONS: readonly RecordedValueDefinition[] = RECORDED_VALUES;
 export const QUANTITY_VALUES = RECORDED_VALUE_DEFINITIONS.filter((d): d is QuantityValueDefinition => d.type === 'quantity');
 export const CHECK_VALUES = RECORDED_VALUE_DEFINITIONS.filter((d): d is CheckValueDefinition => d.type === 'check');
+
+/** What an optional value left unrecorded reads: neutral, not a finding. */
+export const NOT_RECORDED_OPTIONAL = 'not recorded (optional)';
+
+/**
+ * The words for a value that was not recorded: "not recorded" when it is required (a
+ * finding; domain/fusion/check isRequiredValue decides), otherwise "not recorded
+ * (optional)", with what leaving it empty means where the Trench says so ("bead-up at
+ * fusion pressure").
+ */
+export function missingValueText(definition: RecordedValueDefinition, required: boolean): string {
+  if (required) return 'not recorded';
+  const note = definition.type === 'quantity' ? definition.whenMissing : undefined;
+  return note && note !== NOT_RECORDED_OPTIONAL ? `${NOT_RECORDED_OPTIONAL}: ${note}` : NOT_RECORDED_OPTIONAL;
+}
 
 /** Picks the recorded values out of a larger object (a joint, a form's values); absent keys become null. */
 export function pickRecordedValues(source: RecordedValuesInput): RecordedValues {

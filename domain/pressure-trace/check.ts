@@ -10,6 +10,7 @@ import type { PressureSample } from "@/domain/pressure-trace/parse";
 import { measurementsFromTraceReading, type PressureTraceReading } from "@/domain/pressure-trace/read";
 import type { UnitSystem } from "@/domain/units/format";
 import { jointMeasurements, type RecordedValues } from "@/domain/joints/values";
+import { traceAgreement, traceDisagreements, type TraceAgreementRow } from "@/domain/pressure-trace/agreement";
 
 /** The joint's typed values as the joint check takes them (the trench's own mapping). */
 export function measurementsFromRecorded(recorded: RecordedValues): JointMeasurements {
@@ -28,7 +29,9 @@ export type TraceCheck = {
  * Check a trace reading against the joint's plan. The trace's values replace the typed
  * ones for the parameters it measures; bead size and the visual checks cannot come from a
  * trace, so only findings on trace parameters are returned. Heater temperature is checked
- * only when the file had that column. Messages in `system` units.
+ * only when the file had that column. A typed value further from the trace's than the
+ * instruments allow (domain/pressure-trace/agreement) is a finding too. Messages in
+ * `system` units.
  */
 export function checkTraceReading(plan: FusionPlan, reading: PressureTraceReading, recorded: RecordedValues, system: UnitSystem = "si"): TraceCheck {
   const fromTrace = measurementsFromTraceReading(reading);
@@ -36,25 +39,15 @@ export function checkTraceReading(plan: FusionPlan, reading: PressureTraceReadin
   const parameters: JointParameter[] = ["beadUpPressure", "heatSoak", "heatSoakPressure", "changeover", "pressureBuildUp", "fusionPressure", "cooling", "coolingPressure"];
   if (reading.heaterTemperatureC !== null) parameters.unshift("heaterTemperature");
   const check = checkJoint(plan, merged, { system });
-  const findings = check.findings.filter((f) => parameters.includes(f.parameter));
+  const findings = [...check.findings.filter((f) => parameters.includes(f.parameter)), ...traceDisagreements(plan, reading, recorded, system)];
   return { outcome: findings.length ? "out-of-limits" : "within-limits", findings, parameters };
 }
 
-export type TraceValueRow = { key: string; label: string; kind: "duration" | "pressure" | "temperature"; typed: number | null; trace: number | null };
+export type TraceValueRow = TraceAgreementRow;
 
-/** Typed value next to the trace's value, per parameter the trace gives (canonical SI). */
-export function traceVersusTyped(reading: PressureTraceReading, recorded: RecordedValues): TraceValueRow[] {
-  const rows: TraceValueRow[] = [
-    { key: "heatSoak", label: "Heat soak", kind: "duration", typed: recorded.heatSoakS, trace: reading.heatSoakS },
-    { key: "changeover", label: "Changeover", kind: "duration", typed: recorded.changeoverS, trace: reading.changeoverS },
-    { key: "pressureBuildUp", label: "Pressure build-up", kind: "duration", typed: null, trace: reading.pressureBuildUpS },
-    { key: "cooling", label: "Cooling under pressure", kind: "duration", typed: recorded.coolingS, trace: reading.coolingS },
-    { key: "beadUpPressure", label: "Bead-up gauge pressure", kind: "pressure", typed: recorded.beadUpGaugePressureMpa, trace: reading.beadUpGaugePressureMpa },
-    { key: "fusionPressure", label: "Fusion gauge pressure", kind: "pressure", typed: recorded.fusionGaugePressureMpa, trace: reading.fusionGaugePressureMpa },
-    { key: "heatSoakPressure", label: "Heat-soak gauge pressure", kind: "pressure", typed: recorded.heatSoakGaugePressureMpa, trace: reading.heatSoakGaugePressureMpa },
-  ];
-  if (reading.heaterTemperatureC !== null) rows.unshift({ key: "heaterTemperature", label: "Heater temperature", kind: "temperature", typed: recorded.heaterTemperatureC, trace: reading.heaterTemperatureC });
-  return rows;
+/** Typed value next to the trace's value, per value the trace gives (canonical SI), with whether they disagree. */
+export function traceVersusTyped(plan: Pick<FusionPlan, "instrument">, reading: PressureTraceReading, recorded: RecordedValues): TraceValueRow[] {
+  return traceAgreement(plan, reading, recorded);
 }
 
 export type ChartPoint = { t: number; p: number; c?: number };

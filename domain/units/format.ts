@@ -210,3 +210,12 @@ export function formatRange(
   if (low === high) return `${low} ${unitLabel(kind, system)}`;
   return `${low}–${high} ${unitLabel(kind, system)}`;
 }
+
+/**
+ * A difference (an allowance, a tolerance) in the user's units: like formatQuantity, but a
+ * temperature difference scales without the offset (1 °C apart = 1.8 °F apart, NIST SP 811).
+ */
+export function formatDifference(valueSi: number, kind: QuantityKind, system: UnitSystem): string {
+  if (kind !== 'temperature' || system === 'si') return formatQuantity(valueSi, kind, system);
+  return `${formatNumber(valueSi * 1.8, displayDecimals(kind, system))} ${unitLabel(kind, system)}`;
+}

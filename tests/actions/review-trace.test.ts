@@ -140,4 +140,54 @@ describe("pressure-trace upload", () => {
     expect((await upload(inspector, "not-a-joint", csv)).status).toBe(422);
     expect((await upload(fuser, joint.jointId, csv)).status).toBe(201);
   });
+
+  it("refuses a trace file already attached to another joint, naming that joint, before anything is written", async () => {
+    const csv = pressureTraceToCsv(traceFor(joint).samples);
+    expect((await upload(inspector, joint.jointId, csv, "first.csv")).status).toBe(201);
+    const other = await makeReviewJoint(ownerDb(), base, { fuserId: fuser.id, madeAt: MADE });
+    const counts = async () => ({
+      attachments: (await ownerDb()("attachments")).length,
+      traces: (await ownerDb()("joint_traces")).length,
+      revisions: (await ownerDb()("joint_revisions").where({ joint_id: other.jointId })).length,
+      audit: (await ownerDb()("audit_log").where({ action: "joint-trace-attached" })).length,
+    });
+    const before = await counts();
+    const again = await upload(inspector, other.jointId, csv, "renamed-copy.csv");
+    expect(again.status).toBe(409);
+    expect(again.body.error!.code).toBe("conflict");
+    expect(again.body.error!.message).toContain(`already attached to ${base.jobCode} joint ${joint.jointNo} (/joints/${joint.jointId})`);
+    expect(again.body.error!.fields!.file![0]).toContain(`${base.jobCode} joint ${joint.jointNo}`);
+    expect(await counts()).toEqual(before);
+    expect(await ownerDb()("joint_states").where({ joint_id: other.jointId }).first()).toMatchObject({ revision_no: 1 });
+
+    // The same file on its own joint again: refused too (a second copy is not new evidence).
+    const same = await upload(inspector, joint.jointId, csv);
+    expect(same.status).toBe(409);
+    expect(same.body.error!.message).toContain("already attached to this joint");
+    // A different file (one sample changed) is another trace and is accepted.
+    expect((await upload(inspector, other.jointId, csv.replace(/\n0,/, "\n0.0,"))).status).toBe(201);
+  });
+
+  it("looks the file up by its SHA-256 through an index", async () => {
+    const [rows] = (await ownerDb().raw("SHOW INDEX FROM attachments WHERE Column_name = 'sha256'")) as [{ Seq_in_index: number }[]];
+    expect(rows.some((r) => Number(r.Seq_in_index) === 1)).toBe(true);
+  });
+
+  it("a typed heater temperature that disagrees with the trace's beyond the probe's limits is a trace finding, in the viewer's units", async () => {
+    // Typed 457 °F at the trench; the trace's heater column logged 426 °F (°C = (°F − 32) / 1.8).
+    const typed = await makeReviewJoint(ownerDb(), base, { fuserId: fuser.id, madeAt: MADE, values: { heaterTemperatureC: Math.round(((457 - 32) / 1.8) * 10) / 10 } });
+    const trace = traceFor(typed, { heaterTemperatureC: (426 - 32) / 1.8, heatSoakS: typed.values.heatSoakS ?? 60, changeoverS: typed.values.changeoverS!, coolingS: typed.values.coolingS! });
+    const r = await upload(inspector, typed.jointId, pressureTraceToCsv(trace.samples));
+    expect(r.status).toBe(201);
+    expect(r.body.outcome).toBe("out-of-limits");
+    const usInspector = await makeUser({ roles: ["inspector"], unitSystem: "us" });
+    const queue = await queueGet(await requestAs(usInspector, "/api/v1/review/queue"), { params: Promise.resolve({}) });
+    const json = (await queue.json()) as { items: { jointId: number; procedureCode: string; procedureVersionNo: number; trace: { outcome: string; findings: { message: string }[]; rows: { key: string; disagrees: boolean }[] } | null }[] };
+    const item = json.items.find((i) => i.jointId === typed.jointId)!;
+    expect(item.trace!.outcome).toBe("out-of-limits");
+    expect(item.trace!.findings.map((f) => f.message)).toContainEqual(expect.stringContaining("Heater temperature: typed 457 °F; trace 426 °F"));
+    expect(item.trace!.rows.find((row) => row.key === "heaterTemperature")).toMatchObject({ disagrees: true });
+    // The procedure the joint references, by its own code and version (fixtures/review-joints).
+    expect(item).toMatchObject({ procedureCode: `P-${base.jobCode.slice(3)}`, procedureVersionNo: 1 });
+  });
 });

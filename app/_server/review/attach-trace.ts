@@ -6,7 +6,7 @@
 import "server-only";
 import { createHash, randomUUID } from "node:crypto";
 import { db } from "@/database/client";
-import { insertAttachment } from "@/database/queries/attachments";
+import { findTraceAttachmentBySha256, insertAttachment, type TraceOwner } from "@/database/queries/attachments";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { enqueueJointAlert } from "@/app/_server/mail/joint-alert";
 import { findReviewItem, insertJointRevision, insertJointTrace, lockJointState, updateJointState } from "@/database/queries/reviews";
@@ -51,15 +51,27 @@ export async function attachTrace(
   if (!read.ok) throw new AppError("invalid", `The trace was read but its phases could not be found: ${read.error}.`, { file: [read.error] });
   const check = checkTraceReading(item.plan, read.reading, item.recorded, "si");
 
+  // One trace file, one joint: the same bytes already attached anywhere are refused before
+  // anything is stored (and again inside the transaction, for two uploads at once).
+  const sha256 = createHash("sha256").update(bytes).digest("hex");
+  const refuseDuplicate = (owner: TraceOwner | null) => {
+    if (!owner) return;
+    const where = owner.jointId === jointId ? "this joint" : `${owner.jobCode} joint ${owner.jointNo} (/joints/${owner.jointId})`;
+    throw new AppError("conflict", `This trace file is already attached to ${where}. A trace belongs to one joint: attach the file logged for ${item.jobCode} joint ${item.jointNo}.`, {
+      file: [`The same file is attached to ${owner.jobCode} joint ${owner.jointNo}`],
+    });
+  };
+  refuseDuplicate(await findTraceAttachmentBySha256({ sha256 }));
+
   const objectKey = `pressure-trace/${randomUUID()}.csv`;
   // Stored before the transaction; if the transaction then fails, the object is an orphan
   // that nothing refers to (never served), which is safer than a row without its file.
   await putObject({ key: objectKey, body: bytes, contentType: "text/csv" });
-  const sha256 = createHash("sha256").update(bytes).digest("hex");
 
   return db().transaction(async (trx) => {
     const state = await lockJointState({ jointId }, trx);
     if (!state) throw new AppError("not-found", `Joint ${jointId} was not found.`);
+    refuseDuplicate(await findTraceAttachmentBySha256({ sha256 }, trx));
     const attachmentId = await insertAttachment({ kind: "pressure-trace", objectKey, contentType: "text/csv", sizeBytes: bytes.byteLength, sha256, originalName: fileName ? fileName.slice(0, 200) : null, uploadedBy: user.id, jointId }, trx);
     const revisionNo = state.revisionNo + 1;
     const becomesOut = check.outcome === "out-of-limits" && state.outcome === "within-limits";

@@ -32,15 +32,17 @@ export function toQueueItemView(item: ReviewItem, system: UnitSystem): QueueItem
   const shown = findingsForViewer(item.plan, item.recorded, findings, system, item.conditions);
   let traceView: QueueItemView["trace"] = null;
   if (trace && trace.reading) {
+    // Checked again in the viewer's units (and with the current rules, e.g. typed values
+    // against the trace), so the outcome shown agrees with the findings listed.
     const again = item.plan ? checkTraceReading(item.plan, trace.reading, item.recorded, system) : null;
     traceView = {
       id: trace.id,
       attachmentId: trace.attachmentId,
       url: `/api/v1/attachments/${trace.attachmentId}`,
       sampleCount: trace.sampleCount,
-      outcome: trace.outcome,
+      outcome: again ? again.outcome : trace.outcome,
       findings: again ? again.findings : trace.findings,
-      rows: traceVersusTyped(trace.reading, item.recorded),
+      rows: traceVersusTyped(item.plan ?? {}, trace.reading, item.recorded),
       uploadedAt: trace.uploadedAt.toISOString(),
       uploadedByName: trace.uploadedByName,
     };
@@ -49,7 +51,7 @@ export function toQueueItemView(item: ReviewItem, system: UnitSystem): QueueItem
     ...rest,
     madeAt: madeAt.toISOString(),
     findings: shown,
-    comparison: item.plan ? planVersusRecorded(item.plan, item.recorded, shown, system) : [],
+    comparison: item.plan ? planVersusRecorded(item.plan, item.recorded, shown, system, item.conditions) : [],
     photos: photos.map((p, i) => ({ id: p.id, name: p.originalName ?? `Bead photo ${i + 1}`, url: `/api/v1/attachments/${p.id}` })),
     trace: traceView,
   };

@@ -5,7 +5,8 @@ import { requireUser } from "@/app/_lib/page-guard";
 import { listAttachmentsForJoint } from "@/database/queries/attachments";
 import { findJointById, listJointRevisions, listOverrideUsesForJoint, type JointRecord } from "@/database/queries/joints";
 import { JOINT_KIND_LABELS, SHELTER_LABELS, type TimedPhase } from "@/domain/joints/schemas";
-import { RECORDED_VALUE_DEFINITIONS } from "@/domain/joints/values";
+import { missingValueText, NOT_RECORDED_OPTIONAL, RECORDED_VALUE_DEFINITIONS } from "@/domain/joints/values";
+import { isRequiredValue } from "@/domain/fusion/check";
 import { formatQuantity, type QuantityKind, type UnitSystem } from "@/domain/units/format";
 import { OutcomeBadge, ReviewStateBadge } from "@/components/ui/badges";
 import { FactLine, FactList } from "@/components/ui/fact-list";
@@ -55,6 +56,8 @@ export default async function JointPage({ params }: Params) {
   const verdict = verdictOf(joint, system);
   const within = verdict.outcome === "within-limits";
   const q = (v: number | null, kind: QuantityKind) => quantity(v, kind, system);
+  // Ambient and shelter are required only where the procedure's weather rules need them (a not-recorded finding).
+  const conditionMissing = (parameter: "ambient" | "shelter") => (verdict.findings.some((f) => f.parameter === parameter && f.kind === "not-recorded") ? "not recorded" : NOT_RECORDED_OPTIONAL);
 
   return (
     <article className="mx-auto flex w-full max-w-3xl flex-col gap-4">
@@ -147,14 +150,16 @@ export default async function JointPage({ params }: Params) {
             {joint.latitude !== null && joint.longitude !== null ? ` · ${joint.latitude.toFixed(6)}, ${joint.longitude.toFixed(6)}` : ""}
           </Value>
           <Value name="Ambient / shelter">
-            {q(joint.ambientC, "temperature")} · {joint.shelter ? SHELTER_LABELS[joint.shelter] : "not recorded"}
+            {joint.ambientC === null ? conditionMissing("ambient") : q(joint.ambientC, "temperature")} · {joint.shelter ? SHELTER_LABELS[joint.shelter] : conditionMissing("shelter")}
           </Value>
           {RECORDED_VALUE_DEFINITIONS.map((d) => {
             const v = (joint as unknown as Record<string, number | boolean | null>)[d.key] ?? null;
-            if (d.type === "check") return <Value key={d.key} name={d.label}>{check(v as boolean | null)}</Value>;
+            // Missing: a finding only when the check requires the value (the review shows the same words).
+            const missing = missingValueText(d, isRequiredValue(joint.plan, d));
+            if (d.type === "check") return <Value key={d.key} name={d.label}>{v === null ? missing : check(v as boolean | null)}</Value>;
             return (
               <Value key={d.key} name={d.label}>
-                {v === null && d.whenMissing ? d.whenMissing : q(v as number | null, d.quantity)}
+                {v === null ? missing : q(v as number | null, d.quantity)}
                 {d.phase ? timedMark(joint, d.phase, v as number | null) : ""}
               </Value>
             );

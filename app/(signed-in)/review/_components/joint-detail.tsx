@@ -1,15 +1,18 @@
 "use client";
 import type { QueueItemView } from "@/app/_server/review/queue-item-view";
 import { formatQuantity, type UnitSystem } from "@/domain/units/format";
+import { COMPARISON_STATUS_WORDS, type ComparisonRow } from "@/domain/review/queue";
 import { OutcomeBadge } from "@/components/ui/badges";
 import { Cautions } from "@/components/ui/caution";
-import { DataTable } from "@/components/ui/data-table";
 import { FactList } from "@/components/ui/fact-list";
 import { TimeDisplay } from "@/components/ui/time-display";
 import { DecisionForm } from "./decision-form";
 import { TraceSection } from "./trace-section";
+import { EvidenceTable } from "./evidence-table";
 
-const STATUS_WORDS = { ok: "Within plan", finding: "Out of limits", "not-recorded": "Not recorded", info: "—" } as const;
+/** A finding is red; an optional value left empty is neutral (it is not a finding). */
+const STATUS_CLASS: Record<ComparisonRow["status"], string> = { ok: "text-pass", finding: "text-fail", "not-recorded": "text-fail", optional: "text-slate-700", info: "" };
+const ROW_CLASS: Record<ComparisonRow["status"], string> = { ok: "", finding: "bg-fail-light", "not-recorded": "bg-fail-light", optional: "", info: "" };
 
 /** One joint's evidence side by side, and the decision. */
 export function JointDetail({
@@ -28,7 +31,7 @@ export function JointDetail({
   const label = `${item.jobCode} joint ${item.jointNo}`;
   const isOut = item.outcome === "out-of-limits";
   return (
-    <article aria-labelledby="joint-heading" className="flex flex-col gap-4 rounded-md border-2 border-brand bg-white p-4">
+    <article aria-labelledby="joint-heading" className="flex min-w-0 flex-col gap-4 rounded-md border-2 border-brand bg-white p-3 sm:p-4">
       <header className="flex flex-wrap items-baseline justify-between gap-2">
         <h2 id="joint-heading" className="text-xl font-bold">
           {label}
@@ -42,7 +45,7 @@ export function JointDetail({
           { term: "Made", description: <><TimeDisplay at={item.madeAt} /> by {item.fuserName}</> },
           { term: "Pipe", description: `OD ${formatQuantity(item.outsideDiameterMm, "length-mm", unitSystem)}, SDR ${item.sdr} (${item.kind.replace(/-/g, " ")})` },
           { term: "Equipment", description: `Machine ${item.machineTag}, heater ${item.heaterTag}` },
-          item.procedureLabel ? { term: "Procedure", description: item.procedureLabel } : null,
+          { term: "Procedure", description: `${item.procedureCode} v${item.procedureVersionNo} · ${item.procedureName}${item.procedureLabel ? ` (${item.procedureLabel})` : ""}` },
           item.station ? { term: "Station", description: item.station } : null,
           item.replacesJointId ? { term: "Remake of", description: `joint record ${item.replacesJointId} (cut out)` } : null,
         ]}
@@ -70,17 +73,16 @@ export function JointDetail({
           Plan and recorded values
         </h3>
         {item.comparison.length ? (
-          <DataTable
+          <EvidenceTable
             labelledBy="values-heading"
-            isDense
             rows={item.comparison}
             rowKey={(row) => row.key}
-            rowClassName={(row) => (row.status === "finding" || row.status === "not-recorded" ? "bg-fail-light" : "")}
+            rowClassName={(row) => ROW_CLASS[row.status]}
             columns={[
-              { header: "Value", isRowHeader: true, cell: (row) => <span className="font-semibold">{row.label}</span> },
+              { header: "Value", isRowHeader: true, cell: (row) => row.label },
               { header: "Plan", cell: (row) => row.planText },
-              { header: "Recorded", cell: (row) => row.recordedText },
-              { header: "Check", cell: (row) => <span className={`font-semibold ${row.status === "ok" ? "text-pass" : row.status === "info" ? "" : "text-fail"}`}>{STATUS_WORDS[row.status]}</span> },
+              { header: "Recorded", cell: (row) => <span className={row.status === "optional" ? "text-slate-700" : ""}>{row.recordedText}</span> },
+              { header: "Check", cell: (row) => <span className={`font-semibold ${STATUS_CLASS[row.status]}`}>{COMPARISON_STATUS_WORDS[row.status]}</span> },
             ]}
           />
         ) : (

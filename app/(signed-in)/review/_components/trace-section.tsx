@@ -5,10 +5,16 @@ import { Button } from "@/components/ui/button";
 import { FormMessage } from "@/components/form/field";
 import { FieldShell } from "@/components/form/field-shell";
 import { OutcomeBadge } from "@/components/ui/badges";
-import { DataTable } from "@/components/ui/data-table";
 import { TimeDisplay } from "@/components/ui/time-display";
-import { formatQuantity, type UnitSystem } from "@/domain/units/format";
+import { formatDifference, formatQuantity, type UnitSystem } from "@/domain/units/format";
 import { TraceChart } from "./trace-chart";
+import { EvidenceTable } from "./evidence-table";
+
+
+/** The joint page a refusal names ("… attached to WO-1 joint 12 (/joints/345) …"), to link it. */
+function jointPathIn(text: string): string | null {
+  return /\(\/joints\/(\d+)\)/.exec(text)?.[0].slice(1, -1) ?? null;
+}
 
 /** The joint's pressure trace (chart, values read, their check) and the form to attach one. */
 export function TraceSection({ item, unitSystem, onAttached }: { item: QueueItemView; unitSystem: UnitSystem; onAttached: () => Promise<void> }) {
@@ -34,7 +40,7 @@ export function TraceSection({ item, unitSystem, onAttached }: { item: QueueItem
       body.set("jointId", String(item.jointId));
       body.set("file", file);
       const response = await fetch("/api/v1/traces", { method: "POST", body });
-      const json = (await response.json().catch(() => null)) as { error?: { message: string; fields?: Record<string, string[]> }; outcome?: string } | null;
+      const json = (await response.json().catch(() => null)) as { error?: { code?: string; message: string; fields?: Record<string, string[]> }; outcome?: string } | null;
       if (!response.ok) {
         setMessage({ text: json?.error?.message ?? `The trace was not attached (${response.status}).`, tone: "error" });
         setLines(json?.error?.fields?.file ?? []);
@@ -62,15 +68,26 @@ export function TraceSection({ item, unitSystem, onAttached }: { item: QueueItem
             <OutcomeBadge outcome={trace.outcome} />.
           </p>
           <TraceChart jointId={item.jointId} traceId={trace.id} unitSystem={unitSystem} label={label} />
-          <DataTable
-            caption={<span className="font-semibold">Typed values and what the trace shows</span>}
-            isDense
+          <EvidenceTable
+            caption="Typed values and what the trace shows"
             rows={trace.rows}
             rowKey={(row) => row.key}
+            rowClassName={(row) => (row.disagrees ? "bg-fail-light" : "")}
             columns={[
-              { header: "Value", isRowHeader: true, cell: (row) => <span className="font-semibold">{row.label}</span> },
-              { header: "Typed", cell: (row) => (row.typed === null ? "not typed" : formatQuantity(row.typed, row.kind, unitSystem)) },
+              { header: "Value", isRowHeader: true, cell: (row) => row.label },
+              { header: "Typed", cell: (row) => (row.typed === null ? <span className="text-slate-700">not typed</span> : formatQuantity(row.typed, row.kind, unitSystem)) },
               { header: "From the trace", cell: (row) => (row.trace === null ? "—" : formatQuantity(row.trace, row.kind, unitSystem)) },
+              {
+                header: "Agree?",
+                cell: (row) =>
+                  row.allowance === null ? (
+                    "—"
+                  ) : row.disagrees ? (
+                    <span className="font-semibold text-fail">No (more than {formatDifference(row.allowance, row.kind, unitSystem)} apart)</span>
+                  ) : (
+                    <span className="text-pass">Yes (within {formatDifference(row.allowance, row.kind, unitSystem)})</span>
+                  ),
+              },
             ]}
           />
           {trace.findings.length ? (
@@ -94,9 +111,16 @@ export function TraceSection({ item, unitSystem, onAttached }: { item: QueueItem
             </>
           }
         >
-          {(control) => <input ref={input} {...control} type="file" accept=".csv,text/csv,text/plain" className="min-h-touch rounded-md border-2 border-slate-400 bg-white p-2" />}
+          {(control) => <input ref={input} {...control} type="file" accept=".csv,text/csv,text/plain" className="min-h-touch w-full max-w-full rounded-md border-2 border-slate-400 bg-white p-2" />}
         </FieldShell>
         <FormMessage message={message?.text} tone={message?.tone} />
+        {message?.tone === "error" && jointPathIn(message.text) ? (
+          <p>
+            <a className="inline-flex min-h-touch items-center font-semibold text-brand underline" href={jointPathIn(message.text)!}>
+              Open the joint this trace belongs to
+            </a>
+          </p>
+        ) : null}
         {lines.length ? (
           <ul className="list-disc pl-5 text-sm font-semibold text-fail" aria-label="Problems in the file">
             {lines.map((l, i) => (
