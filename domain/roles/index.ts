@@ -113,6 +113,7 @@ export const SCREENS: readonly Screen[] = [
   { id: "procedures", label: "Procedures", href: "/procedures", permission: "viewProcedures" },
   { id: "insights", label: "Insights", href: "/insights", permission: "viewInsights" },
   { id: "mailbox", label: "Mailbox", href: "/mailbox", permission: "viewMailbox" },
+  { id: "notifications", label: "Notifications", href: "/notifications", permission: "signed-in" },
 ];
 
 /** The permission itself, or any signed-in person for "signed-in". */

@@ -4,7 +4,6 @@ import { reviewQueueFilterSchema } from "@/domain/review/schemas";
 import { PARAMETER_LABELS } from "@/domain/fusion/parameters";
 import { ReviewQueue } from "./_components/review-queue";
 import { toQueueItemView } from "@/app/_server/review/queue-item-view";
-import { MailPreference } from "../_components/mail-preference";
 
 export const dynamic = "force-dynamic";
 
@@ -36,9 +35,6 @@ export default async function ReviewPage({ searchParams }: { searchParams: Promi
         userId={user.id}
         initialSelected={selected}
       />
-      <div className="max-w-md">
-        <MailPreference dailyDigest={user.dailyDigest} />
-      </div>
     </div>
   );
 }
