@@ -46,7 +46,8 @@ export async function down(knex: Knex): Promise<void> {
   });
   await knex.raw("UPDATE notifications n JOIN users u ON u.id = n.user_id SET n.to_address = u.email");
   await knex.schema.alterTable("notifications", (t) => {
-    t.dropIndex(["user_id", "id"]);
+    // The (user_id, id) index stays: MariaDB dropped the implicit index of the user_id
+    // foreign key when it was added, and now uses it for that key.
     t.dropColumn("link_path");
   });
   await knex.schema.renameTable("notifications", "mail_digest_items");
