@@ -3,7 +3,7 @@
 import { readFileSync } from "node:fs";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
-import { BURST_WINDOW_S, composeGroupMail, dueGroups, groupWaiting, windowClosesAt } from "@/domain/mail/grouping";
+import { BURST_WINDOW_S, composeGroupMail, dueGroups, groupWaiting } from "@/domain/mail/grouping";
 import { mailLinkPath, textWithLinks, type MailAbout } from "@/domain/mail/links";
 import { allows, ROLES, type Permission, type Role } from "@/domain/roles";
 
