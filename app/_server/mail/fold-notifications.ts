@@ -8,7 +8,7 @@
 import "server-only";
 import type { Knex } from "knex";
 import { db } from "@/database/client";
-import { enqueueMail, listPeopleWithWaitingNotifications, lockWaitingNotifications, markNotificationsMailed } from "@/database/queries/outbox";
+import { enqueueMail, listPeopleWithWaitingNotifications, listWaitingNotifications, lockWaitingNotifications, markNotificationsMailed } from "@/database/queries/outbox";
 import { composeGroupMail, dueGroups, type GroupingOptions } from "@/domain/mail/grouping";
 import { formatInstant } from "@/components/ui/display-format";
 import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
@@ -32,6 +32,8 @@ export async function foldNotifications({ now = new Date(), knex, burstWindowS: 
   let mails = 0;
   let alerts = 0;
   for (const person of people) {
+    // A plain read first: most passes find nothing due, and then nothing is locked.
+    if (dueGroups(await listWaitingNotifications({ userId: person.userId }, k), person.grouping, now, options).length === 0) continue;
     await k.transaction(async (trx) => {
       const waiting = await lockWaitingNotifications({ userId: person.userId }, trx);
       for (const group of dueGroups(waiting, person.grouping, now, options)) {
