@@ -25,7 +25,7 @@ export default async function NotificationsPage() {
     <div className="mx-auto flex w-full max-w-3xl flex-col gap-6">
       <h1 className="text-2xl font-bold">Notifications</h1>
       <p className="text-slate-700">
-        The alerts Beadline sends you by e-mail, to <span className="break-all font-semibold">{user.email}</span>, and what became of each mail.
+        The alerts Beadline sends you by e-mail, to <span className="break-words font-semibold">{user.email}</span>, and what became of each mail.
       </p>
       <MailPreference grouping={mine.grouping} burstWindowS={burstWindowS()} />
 
