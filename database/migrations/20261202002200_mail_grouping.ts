@@ -41,16 +41,21 @@ export async function down(knex: Knex): Promise<void> {
   await knex.schema.alterTable("mail_outbox", (t) => {
     t.dropColumn("user_id");
   });
+  // MariaDB let the (user_id, id) index stand in for the user_id foreign key's own index:
+  // drop the key, the index and the new column, then put the key back as it was.
   await knex.schema.alterTable("notifications", (t) => {
+    t.dropForeign(["user_id"], "mail_digest_items_user_id_foreign");
+  });
+  await knex.schema.alterTable("notifications", (t) => {
+    t.dropIndex(["user_id", "id"]);
+    t.dropColumn("link_path");
     t.string("to_address", 254).notNullable().defaultTo("");
   });
   await knex.raw("UPDATE notifications n JOIN users u ON u.id = n.user_id SET n.to_address = u.email");
-  await knex.schema.alterTable("notifications", (t) => {
-    // The (user_id, id) index stays: MariaDB dropped the implicit index of the user_id
-    // foreign key when it was added, and now uses it for that key.
-    t.dropColumn("link_path");
-  });
   await knex.schema.renameTable("notifications", "mail_digest_items");
+  await knex.schema.alterTable("mail_digest_items", (t) => {
+    t.foreign("user_id").references("id").inTable("users");
+  });
   await knex.schema.alterTable("users", (t) => {
     t.boolean("daily_digest").notNullable().defaultTo(false);
   });
