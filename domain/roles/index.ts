@@ -101,6 +101,8 @@ export type Screen = { id: string; label: string; href: string; permission: Perm
 
 export const SCREENS: readonly Screen[] = [
   { id: "today", label: "Today", href: "/", permission: "signed-in" },
+  // Second, so a phone shows it without scrolling the navigation: everyone's own mail.
+  { id: "notifications", label: "Notifications", href: "/notifications", permission: "signed-in" },
   { id: "trench", label: "Trench", href: "/trench", permission: "recordJoint" },
   { id: "register", label: "Register", href: "/register", permission: "viewRegister" },
   { id: "review", label: "Review", href: "/review", permission: "viewReview" },
@@ -113,7 +115,6 @@ export const SCREENS: readonly Screen[] = [
   { id: "procedures", label: "Procedures", href: "/procedures", permission: "viewProcedures" },
   { id: "insights", label: "Insights", href: "/insights", permission: "viewInsights" },
   { id: "mailbox", label: "Mailbox", href: "/mailbox", permission: "viewMailbox" },
-  { id: "notifications", label: "Notifications", href: "/notifications", permission: "signed-in" },
 ];
 
 /** The permission itself, or any signed-in person for "signed-in". */
