@@ -111,8 +111,8 @@ export function composeGroupMail(alerts: readonly GroupedAlert[], grouping: Mail
   });
   lines.push(GROUP_WORDS[grouping]);
   const kinds = [...new Set(sorted.map((a) => a.kind))];
-  const what = kinds.length === 1 ? (DIGEST_SECTIONS.find((s) => s.kind === kinds[0])?.heading ?? "Alerts") : "Alerts";
-  return { kind: "alert-summary", subject: `Beadline: ${n} alerts — ${what.toLowerCase()}`, bodyText: lines.join("\n") };
+  const heading = kinds.length === 1 ? DIGEST_SECTIONS.find((s) => s.kind === kinds[0])?.heading : undefined;
+  return { kind: "alert-summary", subject: heading ? `Beadline: ${n} alerts — ${heading.toLowerCase()}` : `Beadline: ${n} alerts`, bodyText: lines.join("\n") };
 }
 
 /** Words for an outbox mail's kind (the alert headings, plus the grouped mails). */

@@ -56,7 +56,7 @@ describe("grouping alerts into mail", () => {
     expect(composeGroupMail([one], "hourly", (d) => d.toISOString())).toEqual({ kind: "joint-cut-out", subject: one.subject, bodyText: "Body" });
     const two = { ...one, kind: "joint-out-of-limits", subject: "Out of limits: WO-1 joint 4 (1 finding)", bodyText: "Second body", link: "https://b.example/review?joint=4", createdAt: new Date("2026-11-24T10:00:30Z") };
     const mail = composeGroupMail([two, one], "hourly", (d) => d.toISOString().slice(11, 16));
-    expect(mail.subject).toBe("Beadline: 2 alerts — alerts");
+    expect(mail.subject).toBe("Beadline: 2 alerts");
     expect(mail.kind).toBe("alert-summary");
     expect(mail.bodyText).toContain("1. Cut out: WO-1 joint 3 must be remade\n   https://b.example/joints/3\n2. Out of limits: WO-1 joint 4 (1 finding)\n   https://b.example/review?joint=4");
     expect(mail.bodyText).toContain("Second body");
