@@ -1,5 +1,6 @@
 // Browser tests: Debian's Chromium driven by Playwright against `next start` on a free
 // port, with the demo scenario loaded into the throw-away database (tests/support/seed-demo-cli.ts).
+// A 2 s burst window for "immediate" alert mail, so specs see mail within seconds.
 import { defineConfig, devices } from "@playwright/test";
 
 // tests/run.ts picks a free port and passes it down (worker processes re-read this file, so no pid-based values).
@@ -28,7 +29,7 @@ export default defineConfig({
     url: `http://127.0.0.1:${port}/sign-in`,
     reuseExistingServer: false,
     timeout: 60_000,
-    env: { ...(process.env as Record<string, string>), NODE_ENV: "production", NEXT_TELEMETRY_DISABLED: "1", BEADLINE_PUBLIC_URL: `http://127.0.0.1:${port}` },
+    env: { ...(process.env as Record<string, string>), NODE_ENV: "production", NEXT_TELEMETRY_DISABLED: "1", BEADLINE_PUBLIC_URL: `http://127.0.0.1:${port}`, MAIL_BURST_WINDOW_S: "2" },
     stdout: "ignore",
     stderr: "pipe",
   },

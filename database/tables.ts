@@ -7,6 +7,7 @@
 // domain objects through database/queries/rows.ts.
 
 import type { UnitSystem } from "@/domain/units/format";
+import type { MailGrouping } from "@/domain/mail/grouping";
 /** TINYINT(1) as read: 0 or 1. */
 export type Tinyint = number;
 
@@ -23,7 +24,7 @@ export type UserRow = {
   is_active: Tinyint;
   session_version: number;
   crew_id: number | null;
-  daily_digest: Tinyint;
+  mail_grouping: MailGrouping;
   version: number;
   created_at: Date;
   updated_at: Date;
@@ -297,6 +298,8 @@ export type MailOutboxRow = {
   last_error: string | null;
   created_at: Date;
   sent_at: Date | null;
+  /** The person the mail is for (null: mail not addressed to a person of Beadline). */
+  user_id: number | null;
 };
 
 export type ExportRow = {
@@ -324,13 +327,15 @@ export type JointOverrideRow = {
 
 export type JointOverrideUseRow = { joint_id: number; override_id: number; block_kind: string; message: string };
 
-export type MailDigestItemRow = {
+/** An alert for one person, waiting to be folded into a mail (outbox_id null) or in one. */
+export type NotificationRow = {
   id: number;
   user_id: number;
-  to_address: string;
   kind: string;
   subject: string;
   body_text: string;
+  /** The in-app page it points to ("/joints/35"), or null. */
+  link_path: string | null;
   dedupe_key: string | null;
   created_at: Date;
   outbox_id: number | null;

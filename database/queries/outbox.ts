@@ -2,16 +2,20 @@
 // transaction as the change that caused it, so a mail is never lost and never blocks the
 // change. The texts are composed in app/_server/mail/. A sender (app/_server/mail/send-due-mails.ts) claims due rows with
 // SELECT … FOR UPDATE SKIP LOCKED, so several app instances never send one mail twice.
-// People with daily digest on get their events folded into one mail a day instead
-// (mail_digest_items, see migration 20261202000700).
+// An alert for a person is first a notification (table notifications): the mail worker
+// folds a person's waiting notifications into one outbox mail when the window of their
+// chosen grouping closes (domain/mail/grouping, app/_server/mail/fold-notifications.ts).
 import type { Knex } from "knex";
 import { afterFailedAttempt, MAX_MAIL_ATTEMPTS } from "@/domain/mail/backoff";
-import { composeDigest, latestDigestCutoff, type DigestEvent } from "@/domain/mail/digest";
-import { isoDateIn, UTC_ZONE } from "@/domain/dates/zone";
+import type { MailGrouping } from "@/domain/mail/grouping";
+import type { Role } from "@/domain/roles";
+import type { UnitSystem } from "@/domain/units/format";
 import { conn, db, isDuplicateKey, type Db } from "../client";
-import type { MailOutboxRow } from "../tables";
+import type { MailOutboxRow, NotificationRow } from "../tables";
+import { parseRoles } from "./users";
 
-export type MailStatus = "queued" | "sending" | "sent" | "failed";
+import type { MailStatus } from "@/domain/mail/states";
+export type { MailStatus } from "@/domain/mail/states";
 
 export type OutboxMail = {
   id: number;
@@ -26,6 +30,7 @@ export type OutboxMail = {
   lastError: string | null;
   createdAt: Date;
   sentAt: Date | null;
+  userId: number | null;
 };
 
 type OutboxRow = MailOutboxRow;
@@ -44,12 +49,13 @@ function toMail(row: OutboxRow): OutboxMail {
     lastError: row.last_error,
     createdAt: row.created_at,
     sentAt: row.sent_at,
+    userId: row.user_id === null || row.user_id === undefined ? null : Number(row.user_id),
   };
 }
 
 const clip = (text: string, max: number) => (text.length > max ? text.slice(0, max - 1) + "…" : text);
 
-export type EnqueueMailInput = { to: string; subject: string; bodyText: string; kind: string; dedupeKey?: string | null };
+export type EnqueueMailInput = { to: string; subject: string; bodyText: string; kind: string; dedupeKey?: string | null; userId?: number | null };
 
 /**
  * Puts one mail in the outbox, to be sent as soon as the sender runs. With a `dedupeKey`,
@@ -64,6 +70,7 @@ export async function enqueueMail(input: EnqueueMailInput, trx?: Db): Promise<{ 
       body_text: input.bodyText,
       kind: input.kind,
       dedupe_key: input.dedupeKey ?? null,
+      user_id: input.userId ?? null,
     });
     return { id: Number(id), duplicate: false };
   } catch (error) {
@@ -73,139 +80,52 @@ export async function enqueueMail(input: EnqueueMailInput, trx?: Db): Promise<{ 
   }
 }
 
-export type Recipient = { id: number; email: string; dailyDigest: boolean };
+/** A person an alert is for: whom to write to, in which units, and what their roles let them open. */
+export type Recipient = { id: number; email: string; roles: Role[]; unitSystem: UnitSystem };
+
+type RecipientRow = { id: number; email: string; roles: string; unit_system: UnitSystem };
+const RECIPIENT_COLUMNS = ["id", "email", "roles", "unit_system"] as const;
+const toRecipient = (r: RecipientRow): Recipient => ({ id: Number(r.id), email: r.email, roles: parseRoles(r.roles), unitSystem: r.unit_system });
 
 /**
- * An event for one person: straight to the outbox, or — when the person chose the daily
- * digest — kept for that day's summary mail. Deduplicated on `dedupeKey` either way.
+ * An alert for one person, kept until the mail worker folds it into a mail (their grouping
+ * decides when). Deduplicated on `dedupeKey`: the same alert is kept once. Pass the
+ * caller's transaction so the alert exists exactly when the change does.
  */
-export async function enqueueUserEvent(
-  input: { recipient: Recipient; subject: string; bodyText: string; kind: string; dedupeKey: string },
+export async function insertNotification(
+  input: { userId: number; subject: string; bodyText: string; kind: string; linkPath: string | null; dedupeKey: string },
   trx?: Db,
-): Promise<{ queued: boolean; digest: boolean }> {
-  const { recipient } = input;
-  if (!recipient.dailyDigest) {
-    const result = await enqueueMail({ to: recipient.email, subject: input.subject, bodyText: input.bodyText, kind: input.kind, dedupeKey: input.dedupeKey }, trx);
-    return { queued: !result.duplicate, digest: false };
-  }
+): Promise<{ queued: boolean }> {
   try {
-    await conn(trx)("mail_digest_items").insert({
-      user_id: recipient.id,
-      to_address: recipient.email,
+    await conn(trx)("notifications").insert({
+      user_id: input.userId,
       kind: input.kind,
       subject: clip(input.subject, 300),
       body_text: input.bodyText,
+      link_path: input.linkPath,
       dedupe_key: input.dedupeKey,
     });
-    return { queued: true, digest: true };
+    return { queued: true };
   } catch (error) {
-    if (isDuplicateKey(error)) return { queued: false, digest: true };
+    if (isDuplicateKey(error)) return { queued: false };
     throw error;
   }
 }
 
 async function activeUsersWithRole(role: string, k: Db): Promise<Recipient[]> {
-  const rows = (await k("users").where("is_active", true).whereRaw("FIND_IN_SET(?, roles) > 0", [role]).select("id", "email", "daily_digest").orderBy("id")) as {
-    id: number;
-    email: string;
-    daily_digest: number | boolean;
-  }[];
-  return rows.map((r) => ({ id: r.id, email: r.email, dailyDigest: Boolean(r.daily_digest) }));
+  const rows = (await k("users").where("is_active", true).whereRaw("FIND_IN_SET(?, roles) > 0", [role]).select(...RECIPIENT_COLUMNS).orderBy("id")) as RecipientRow[];
+  return rows.map(toRecipient);
+}
+
+/** An active person as a recipient; null when missing or inactive. */
+export async function findRecipient({ userId }: { userId: number }, trx?: Db): Promise<Recipient | null> {
+  const row = (await conn(trx)("users").where({ id: userId, is_active: true }).first(...RECIPIENT_COLUMNS)) as RecipientRow | undefined;
+  return row ? toRecipient(row) : null;
 }
 
 /** Active inspectors as recipients (alerts on out-of-limits joints). */
 export async function listAlertInspectors(_: Record<string, never> = {}, trx?: Db): Promise<Recipient[]> {
   return activeUsersWithRole("inspector", conn(trx));
-}
-
-/** What an out-of-limits alert tells about a joint; findings are the recorded ones, then the latest pressure trace's. */
-export type JointAlertFacts = {
-  id: number;
-  jointNo: number;
-  /** The joint's outcome now: the projection's when it exists (a trace may have changed it), else the recorded one. */
-  outcome: string;
-  madeAt: Date;
-  station: string | null;
-  fuserId: number;
-  fuserName: string;
-  outsideDiameterMm: number;
-  sdr: number;
-  jobCode: string;
-  jobName: string;
-  machineTag: string | null;
-  findingMessages: (string | null)[];
-  traceFindingMessages: (string | null)[];
-};
-
-function parseFindings(text: string | null | undefined): (string | null)[] {
-  try {
-    return (JSON.parse(text ?? "") as { message?: string }[]).map((f) => f.message ?? null);
-  } catch {
-    return [];
-  }
-}
-
-/** The facts an out-of-limits alert needs; null when the joint does not exist. Inside the recording transaction the projection row may not exist yet. */
-export async function findJointAlertFacts({ jointId }: { jointId: number }, trx?: Db): Promise<JointAlertFacts | null> {
-  const k = conn(trx);
-  const joint = (await k("joints as j")
-    .join("jobs", "jobs.id", "j.job_id")
-    .join("users as f", "f.id", "j.fuser_id")
-    .leftJoin("fusion_machines as m", "m.id", "j.machine_id")
-    .leftJoin("joint_states as js", "js.joint_id", "j.id")
-    .where("j.id", jointId)
-    .first(
-      "j.id",
-      "j.joint_no",
-      "j.outcome",
-      "js.outcome as state_outcome",
-      "j.findings",
-      "j.made_at",
-      "j.station",
-      "j.fuser_id",
-      "j.outside_diameter_mm",
-      "j.sdr",
-      "jobs.code as job_code",
-      "jobs.name as job_name",
-      "f.name as fuser_name",
-      "m.asset_tag as machine_tag",
-    )) as
-    | {
-        id: number;
-        joint_no: number;
-        outcome: string;
-        state_outcome: string | null;
-        findings: string;
-        made_at: Date;
-        station: string | null;
-        fuser_id: number;
-        outside_diameter_mm: number;
-        sdr: number;
-        job_code: string;
-        job_name: string;
-        fuser_name: string;
-        machine_tag: string | null;
-      }
-    | undefined;
-  if (!joint) return null;
-  const trace = (await k("joint_traces").where({ joint_id: jointId }).orderBy("id", "desc").first("findings")) as { findings: string } | undefined;
-  return {
-    id: joint.id,
-    jointNo: joint.joint_no,
-    outcome: joint.state_outcome ?? joint.outcome,
-    madeAt: joint.made_at,
-    station: joint.station,
-    fuserId: joint.fuser_id,
-    fuserName: joint.fuser_name,
-    outsideDiameterMm: joint.outside_diameter_mm,
-    sdr: joint.sdr,
-    jobCode: joint.job_code,
-    jobName: joint.job_name,
-    machineTag: joint.machine_tag,
-    findingMessages: parseFindings(joint.findings),
-    // a trace row without readable findings adds nothing
-    traceFindingMessages: trace ? parseFindings(trace.findings) : [],
-  };
 }
 
 /** The fuser of a joint as a recipient, with what a cut-out notice names; null when the joint is missing or its fuser inactive. */
@@ -217,11 +137,11 @@ export async function findCutOutNoticeFacts(
     .join("jobs", "jobs.id", "j.job_id")
     .join("users as f", "f.id", "j.fuser_id")
     .where("j.id", jointId)
-    .first("j.id", "j.joint_no", "j.station", "jobs.code as job_code", "jobs.name as job_name", "f.id as fuser_id", "f.email", "f.daily_digest", "f.is_active")) as
-    | { id: number; joint_no: number; station: string | null; job_code: string; job_name: string; fuser_id: number; email: string; daily_digest: number; is_active: number }
+    .first("j.id", "j.joint_no", "j.station", "jobs.code as job_code", "jobs.name as job_name", "f.id as fuser_id", "f.email", "f.roles", "f.unit_system", "f.is_active")) as
+    | { id: number; joint_no: number; station: string | null; job_code: string; job_name: string; fuser_id: number; email: string; roles: string; unit_system: UnitSystem; is_active: number }
     | undefined;
   if (!row || !row.is_active) return null;
-  return { id: row.id, jointNo: row.joint_no, station: row.station, jobCode: row.job_code, jobName: row.job_name, fuser: { id: row.fuser_id, email: row.email, dailyDigest: Boolean(row.daily_digest) } };
+  return { id: row.id, jointNo: row.joint_no, station: row.station, jobCode: row.job_code, jobName: row.job_name, fuser: toRecipient({ id: row.fuser_id, email: row.email, roles: row.roles, unit_system: row.unit_system }) };
 }
 
 /** Active admins as recipients (qualification and heater alerts). */
@@ -310,58 +230,57 @@ export async function countOutboxByStatus(_: Record<string, never> = {}, trx?: D
 }
 
 // ---------------------------------------------------------------------------------------
-// Daily digest.
+// Notifications: waiting alerts, folding them into mail, a person's own mail.
+
+export type Notification = { id: number; userId: number; kind: string; subject: string; bodyText: string; linkPath: string | null; createdAt: Date; outboxId: number | null };
+
+const toNotification = (r: NotificationRow): Notification => ({
+  id: Number(r.id),
+  userId: Number(r.user_id),
+  kind: r.kind,
+  subject: r.subject,
+  bodyText: r.body_text,
+  linkPath: r.link_path,
+  createdAt: r.created_at,
+  outboxId: r.outbox_id === null ? null : Number(r.outbox_id),
+});
+
+/** People who have notifications not yet in a mail, with their address and grouping (active or not: an alert already made is still delivered). */
+export async function listPeopleWithWaitingNotifications(_: Record<string, never> = {}, trx?: Db): Promise<{ userId: number; email: string; grouping: MailGrouping }[]> {
+  const rows = (await conn(trx)("users")
+    .whereIn("id", conn(trx)("notifications").whereNull("outbox_id").select("user_id"))
+    .orderBy("id")
+    .select("id", "email", "mail_grouping")) as { id: number; email: string; mail_grouping: MailGrouping }[];
+  return rows.map((r) => ({ userId: Number(r.id), email: r.email, grouping: r.mail_grouping }));
+}
 
 /**
- * Folds each digest person's waiting events created before the latest cut-off into one
- * outbox mail (dedupe key `digest:<userId>:<cut-off date>`), and links the events to it,
- * in one transaction per person. Returns the number of digest mails queued.
+ * Claims a person's waiting notifications for folding: locked FOR UPDATE SKIP LOCKED in the
+ * caller's transaction, so a second worker folding at the same time sees none of them and
+ * nothing is put in two mails. Oldest first.
  */
-export async function foldDailyDigests({ now, hour, timeZone = UTC_ZONE }: { now: Date; hour?: number; timeZone?: string }, knex?: Knex): Promise<number> {
-  const k = knex ?? db();
-  const cutoff = latestDigestCutoff(now, hour, timeZone);
-  const day = isoDateIn(cutoff, timeZone);
-  const people = (await k("mail_digest_items").whereNull("outbox_id").where("created_at", "<", cutoff).distinct("user_id", "to_address")) as { user_id: number; to_address: string }[];
-  let made = 0;
-  for (const person of people) {
-    await k.transaction(async (trx) => {
-      const rows = (await trx("mail_digest_items")
-        .whereNull("outbox_id")
-        .where({ user_id: person.user_id })
-        .where("created_at", "<", cutoff)
-        .orderBy("id")
-        .forUpdate()
-        .skipLocked()
-        .select("id", "kind", "subject", "body_text", "created_at", "to_address")) as { id: number; kind: string; subject: string; body_text: string; created_at: Date; to_address: string }[];
-      if (rows.length === 0) return;
-      const events: DigestEvent[] = rows.map((r) => ({ kind: r.kind, subject: r.subject, bodyText: r.body_text, createdAt: r.created_at }));
-      const { subject, bodyText } = composeDigest(events, day);
-      let result = await enqueueMail({ to: rows[rows.length - 1]!.to_address, subject, bodyText, kind: "daily-digest", dedupeKey: `digest:${person.user_id}:${day}` }, trx);
-      if (result.duplicate) {
-        // Today's digest already went out (events arrived late in the same day): a second part.
-        result = await enqueueMail({ to: rows[rows.length - 1]!.to_address, subject, bodyText, kind: "daily-digest", dedupeKey: `digest:${person.user_id}:${day}:${rows[0]!.id}` }, trx);
-      }
-      if (result.id === null) return;
-      await trx("mail_digest_items")
-        .whereIn(
-          "id",
-          rows.map((r) => r.id),
-        )
-        .update({ outbox_id: result.id });
-      made += 1;
-    });
-  }
-  return made;
+export async function lockWaitingNotifications({ userId }: { userId: number }, trx: Knex.Transaction): Promise<Notification[]> {
+  const rows = (await trx("notifications").whereNull("outbox_id").where({ user_id: userId }).orderBy("id").forUpdate().skipLocked().select("*")) as NotificationRow[];
+  return rows.map(toNotification);
 }
 
-export async function countWaitingDigestItems({ userId }: { userId?: number } = {}, trx?: Db): Promise<number> {
-  const q = conn(trx)("mail_digest_items").whereNull("outbox_id");
-  if (userId) q.where("user_id", userId);
-  const row = await q.count({ n: "*" }).first();
-  return Number(row?.n ?? 0);
+/** Ties notifications to the mail they went out in. */
+export async function markNotificationsMailed({ ids, outboxId }: { ids: number[]; outboxId: number }, trx: Db): Promise<void> {
+  await conn(trx)("notifications").whereIn("id", ids).whereNull("outbox_id").update({ outbox_id: outboxId });
 }
 
-/** A person's choice between one mail per alert and one summary a day. */
-export async function updateDailyDigest({ userId, dailyDigest }: { userId: number; dailyDigest: boolean }, trx?: Db): Promise<void> {
-  await conn(trx)("users").where({ id: userId }).update({ daily_digest: dailyDigest });
+/** A person's notifications not yet in a mail, oldest first. */
+export async function listWaitingNotifications({ userId }: { userId: number }, trx?: Db): Promise<Notification[]> {
+  const rows = (await conn(trx)("notifications").whereNull("outbox_id").where({ user_id: userId }).orderBy("id").limit(500).select("*")) as NotificationRow[];
+  return rows.map(toNotification);
+}
+
+/** The mail made for one person, newest first (their Notifications screen). */
+export async function listMailForUser({ userId, limit = 50 }: { userId: number; limit?: number }, trx?: Db): Promise<OutboxMail[]> {
+  return ((await conn(trx)("mail_outbox").where({ user_id: userId }).orderBy("id", "desc").limit(limit)) as OutboxRow[]).map(toMail);
+}
+
+/** A person's choice of how alerts are grouped into mail. */
+export async function updateMailGrouping({ userId, grouping }: { userId: number; grouping: MailGrouping }, trx?: Db): Promise<void> {
+  await conn(trx)("users").where({ id: userId }).update({ mail_grouping: grouping });
 }

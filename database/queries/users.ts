@@ -4,12 +4,13 @@ import { isRole } from "@/domain/roles";
 import { conn, type Db } from "../client";
 import type { UserRow as UserTableRow } from "../tables";
 import type { UnitSystem } from "@/domain/units/format";
+import type { MailGrouping } from "@/domain/mail/grouping";
 
 export type UserRecord = Actor & {
   crewId: number | null;
   crewName: string | null;
   sessionVersion: number;
-  dailyDigest: boolean;
+  mailGrouping: MailGrouping;
   version: number;
   createdAt: Date;
 };
@@ -35,7 +36,7 @@ function toUser(row: UserRow): UserRecord {
     sessionVersion: row.session_version,
     crewId: row.crew_id,
     crewName: row.crew_name ?? null,
-    dailyDigest: Boolean(row.daily_digest),
+    mailGrouping: row.mail_grouping,
     version: row.version,
     createdAt: row.created_at,
   };

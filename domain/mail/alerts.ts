@@ -2,9 +2,13 @@
 // have lapsed (49 CFR 192.285(c) status from domain/qualifications), and heater plates whose
 // temperature check is overdue. Each alert has a dedupe key, so the scan can run as often
 // as it likes and every alert still goes out once per person, procedure, date and kind.
+// The text is made per reader: values in the reader's unit system, and the link (about)
+// chosen for the reader's role by domain/mail/links.
 import type { QualificationState } from "@/domain/qualifications/status";
+import type { MailAbout } from "@/domain/mail/links";
+import { formatRange, type UnitSystem } from "@/domain/units/format";
 
-export type AlertMail = { kind: string; audience: "person-and-admins" | "admins"; personId: number | null; dedupeSuffix: string; subject: string; bodyText: string };
+export type AlertMail = { kind: string; audience: "person-and-admins" | "admins"; personId: number | null; dedupeSuffix: string; about: MailAbout; subject: string; bodyText: (system: UnitSystem) => string };
 
 export type QualificationAlertInput = {
   userId: number;
@@ -43,7 +47,7 @@ export function qualificationAlerts(rows: readonly QualificationAlertInput[], on
         ? "Book a requalification joint before that date; after it the fuser may not make joints under this procedure."
         : "The fuser may not make joints under this procedure until requalified (49 CFR 192.285).",
     ].join("\n");
-    out.push({ kind, audience: "person-and-admins", personId: r.userId, dedupeSuffix: `${r.userId}:${r.procedureId}:${r.until ?? "ended"}:${kind}`, subject, bodyText });
+    out.push({ kind, audience: "person-and-admins", personId: r.userId, dedupeSuffix: `${r.userId}:${r.procedureId}:${r.until ?? "ended"}:${kind}`, about: { kind: "qualification", userId: r.userId }, subject, bodyText: () => bodyText });
   }
   return out;
 }
@@ -59,14 +63,15 @@ export function heaterAlerts(rows: readonly HeaterAlertInput[], on: string): Ale
       audience: "admins" as const,
       personId: null,
       dedupeSuffix: `${h.id}:${h.nextDueOn ?? "never"}`,
+      about: { kind: "heater" as const, heaterId: h.id },
       subject: h.nextDueOn ? `Heater check overdue: ${h.assetTag} (due ${h.nextDueOn})` : `Heater check missing: ${h.assetTag} was never checked`,
-      bodyText: [
+      bodyText: (system: UnitSystem) => [
         h.nextDueOn
           ? `The temperature check of heater plate ${h.assetTag}${h.description ? ` (${h.description})` : ""} was due on ${h.nextDueOn}; on ${on} it has not been done.`
           : `Heater plate ${h.assetTag}${h.description ? ` (${h.description})` : ""} has no temperature check on record.`,
         "",
         "Check both faces with a surface pyrometer before the plate is used again, and record the check on the Equipment screen.",
-        "Caution: a heater plate runs near 200–230 °C and burns; let it reach temperature on its stand and handle it by its insulated grips.",
+        `Caution: a heater plate runs near ${formatRange(200, 230, "temperature", system)} and burns; let it reach temperature on its stand and handle it by its insulated grips.`,
       ].join("\n"),
     }));
 }

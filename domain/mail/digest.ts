@@ -1,7 +1,7 @@
-// Daily digest: people who chose one mail a day get their waiting events folded into one
-// message per day. The day turns at a fixed local hour in the organisation's time zone
-// (passed in), so every instance of the app agrees on which day an event belongs to
-// without any shared clock state.
+// The mail day: people who chose daily mail (domain/mail/grouping) get their waiting alerts
+// folded into one message per day. The day turns at a fixed local hour in the
+// organisation's time zone (passed in), so every instance of the app agrees on which day an
+// alert belongs to without any shared clock state. Also the headings of the alert kinds.
 import { addDays } from '@/domain/dates/civil';
 import { isoDateIn, localHourOn, UTC_ZONE } from '@/domain/dates/zone';
 
@@ -20,8 +20,6 @@ export function latestDigestCutoff(now: Date, hour = DEFAULT_DIGEST_HOUR, timeZo
   return cutoff.getTime() > now.getTime() ? at(addDays(today, -1)) : cutoff;
 }
 
-export type DigestEvent = { kind: string; subject: string; bodyText: string; createdAt: Date };
-
 /** Plain-language heading per alert kind, in the order the digest lists them. */
 export const DIGEST_SECTIONS: readonly { kind: string; heading: string }[] = [
   { kind: "joint-out-of-limits", heading: "Joints out of limits" },
@@ -30,38 +28,3 @@ export const DIGEST_SECTIONS: readonly { kind: string; heading: string }[] = [
   { kind: "qualification-lapsed", heading: "Qualifications lapsed" },
   { kind: "heater-check-overdue", heading: "Heater plate checks overdue" },
 ];
-
-/**
- * One digest mail from a person's waiting events: subject with the count and the day,
- * body grouped by kind (known kinds first, in DIGEST_SECTIONS order, then others by name),
- * events in time order within a group. `day` is the cut-off date shown (YYYY-MM-DD).
- */
-export function composeDigest(events: readonly DigestEvent[], day: string): { subject: string; bodyText: string } {
-  const groups = new Map<string, DigestEvent[]>();
-  for (const event of [...events].sort((a, b) => a.createdAt.getTime() - b.createdAt.getTime())) {
-    const list = groups.get(event.kind) ?? [];
-    list.push(event);
-    groups.set(event.kind, list);
-  }
-  const known = DIGEST_SECTIONS.map((s) => s.kind);
-  const kinds = [...known.filter((k) => groups.has(k)), ...[...groups.keys()].filter((k) => !known.includes(k)).sort()];
-  const lines: string[] = [`Beadline daily summary for ${day}: ${events.length} ${events.length === 1 ? "event" : "events"}.`, ""];
-  for (const kind of kinds) {
-    const list = groups.get(kind) as DigestEvent[];
-    const heading = DIGEST_SECTIONS.find((s) => s.kind === kind)?.heading ?? kind;
-    lines.push(`${heading} (${list.length})`, "-".repeat(heading.length + String(list.length).length + 3));
-    for (const event of list) {
-      lines.push(`* ${event.subject}`);
-      for (const bodyLine of event.bodyText.trim().split("\n")) lines.push(`  ${bodyLine}`);
-      lines.push("");
-    }
-  }
-  lines.push("You get one summary a day because daily digest is on for your account.");
-  return { subject: `Beadline daily summary ${day}: ${events.length} ${events.length === 1 ? "event" : "events"}`, bodyText: lines.join("\n") };
-}
-
-/** Words for an outbox mail's kind (the digest headings, plus the digest itself). */
-export function mailKindLabel(kind: string): string {
-  if (kind === "daily-digest") return "Daily summary";
-  return DIGEST_SECTIONS.find((s) => s.kind === kind)?.heading ?? kind;
-}

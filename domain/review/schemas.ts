@@ -154,8 +154,3 @@ export const attachTraceSchema = z.object({ jointId: id("Joint") });
 
 /** Admin: put a failed outbox mail back in the queue. */
 export const retryMailSchema = z.object({ id: id("Mail") });
-
-/** Anyone signed in: one mail per alert, or one summary a day. */
-export const mailPreferenceSchema = z.object({
-  dailyDigest: z.preprocess((v) => (v === "true" ? true : v === "false" ? false : v), z.boolean({ error: "Choose each alert or a daily summary" })),
-});

@@ -101,6 +101,8 @@ export type Screen = { id: string; label: string; href: string; permission: Perm
 
 export const SCREENS: readonly Screen[] = [
   { id: "today", label: "Today", href: "/", permission: "signed-in" },
+  // Second, so a phone shows it without scrolling the navigation: everyone's own mail.
+  { id: "notifications", label: "Notifications", href: "/notifications", permission: "signed-in" },
   { id: "trench", label: "Trench", href: "/trench", permission: "recordJoint" },
   { id: "register", label: "Register", href: "/register", permission: "viewRegister" },
   { id: "review", label: "Review", href: "/review", permission: "viewReview" },

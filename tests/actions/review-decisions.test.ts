@@ -64,10 +64,12 @@ describe("review decisions", () => {
     expect((await revisions(joint.jointId))[1]).toMatchObject({ kind: "cut-out", reason: "Cooling cut short; remake" });
     expect(await ownerDb()("audit_log").where({ action: "joint-cut-out", entity_id: String(joint.jointId) })).toHaveLength(1);
     const fuserRecord = await findUserById({ id: fuser.id });
-    const mail = await ownerDb()("mail_outbox").where({ kind: "joint-cut-out" });
+    const mail = await ownerDb()("notifications").where({ kind: "joint-cut-out" });
     expect(mail).toHaveLength(1);
-    expect(mail[0].to_address).toBe(fuserRecord!.email);
+    expect(mail[0].user_id).toBe(fuserRecord!.id);
     expect(mail[0].body_text).toContain("Cooling cut short; remake");
+    // The fuser may not open Review: the notice links to the joint's own page.
+    expect(mail[0].link_path).toBe(`/joints/${joint.jointId}`);
   });
 
   it("refuses a fuser, a clerk and an inspector deciding their own joint with 403, writing nothing", async () => {

@@ -92,7 +92,7 @@ describe("pressure-trace upload", () => {
     expect(await ownerDb()("joint_states").where({ joint_id: joint.jointId }).first()).toMatchObject({ outcome: "out-of-limits", revision_no: 2, review_state: "pending-review" });
     expect(await ownerDb()("joint_revisions").where({ joint_id: joint.jointId, revision_no: 2 }).first()).toMatchObject({ kind: "trace-attached", by_user_id: inspector.id });
     expect(await ownerDb()("audit_log").where({ action: "joint-trace-attached", entity_id: String(joint.jointId) })).toHaveLength(1);
-    expect(await ownerDb()("mail_outbox").where({ kind: "joint-out-of-limits" })).toHaveLength(1);
+    expect(await ownerDb()("notifications").where({ kind: "joint-out-of-limits" })).toHaveLength(1);
 
     // The queue now lists it as out of limits with the trace, and the chart has the plan's windows.
     const queue = await queueGet(await requestAs(inspector, "/api/v1/review/queue"), { params: Promise.resolve({}) });

@@ -156,7 +156,7 @@ describe("recording a joint", () => {
     expect(audit).toHaveLength(1);
     expect(audit[0].request_id).toBeTruthy();
     expect(Number((await k("job_counters").where({ job_id: base.jobId }).first()).last_joint_no)).toBe(1);
-    expect(await k("mail_outbox")).toHaveLength(0); // no alert for a joint within limits
+    expect(await k("notifications")).toHaveLength(0); // no alert for a joint within limits
 
     // The joint reads back through GET /api/v1/joints/:id with its revision.
     const one = await jointGet(await requestAs(inspector, `/api/v1/joints/${joint.id}`), idParams(joint.id));
@@ -191,7 +191,7 @@ describe("recording a joint", () => {
     const joint = await ownerDb()("joints").where({ id: r.body.joint.id }).first();
     expect(joint.finding_parameters).toBe("heaterTemperature,visualBead");
     expect(await ownerDb()("joint_states").where({ joint_id: joint.id }).first()).toMatchObject({ review_state: "pending-review", outcome: "out-of-limits" });
-    const mail = await ownerDb()("mail_outbox");
+    const mail = await ownerDb()("notifications");
     expect(mail.length).toBeGreaterThanOrEqual(1);
   });
 

@@ -124,10 +124,11 @@ describe("permissions", () => {
 
   it("the navigation shows each role the screens of its work", () => {
     const ids = (role: Role) => screensFor({ roles: [role] }).map((s) => s.id);
-    expect(ids("fuser")).toEqual(["today", "trench", "procedures"]);
-    expect(ids("inspector")).toEqual(["today", "register", "review", "overrides", "trace", "procedures", "insights"]);
-    expect(ids("clerk")).toEqual(["today", "register", "coils", "trace"]);
-    expect(ids("admin")).toEqual(["today", "register", "overrides", "coils", "trace", "jobs", "crew", "equipment", "procedures", "insights", "mailbox"]);
+    // Everyone reads their own notifications (the mail Beadline sends them).
+    expect(ids("fuser")).toEqual(["today", "notifications", "trench", "procedures"]);
+    expect(ids("inspector")).toEqual(["today", "notifications", "register", "review", "overrides", "trace", "procedures", "insights"]);
+    expect(ids("clerk")).toEqual(["today", "notifications", "register", "coils", "trace"]);
+    expect(ids("admin")).toEqual(["today", "notifications", "register", "overrides", "coils", "trace", "jobs", "crew", "equipment", "procedures", "insights", "mailbox"]);
     expect(SCREENS.every((s) => s.permission === "signed-in" || s.permission in PERMISSIONS)).toBe(true);
   });
 });

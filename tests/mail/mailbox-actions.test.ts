@@ -1,6 +1,7 @@
-// Mailbox actions: an admin retries a failed mail; anyone chooses the daily digest.
+// Mailbox and Notifications actions: an admin retries a failed mail; anyone chooses how their alerts are grouped.
 import { beforeEach, describe, expect, it } from "vitest";
-import { retryMailAction, setMailPreferenceAction } from "@/app/(signed-in)/mailbox/actions";
+import { retryMailAction } from "@/app/(signed-in)/mailbox/actions";
+import { setMailPreferenceAction } from "@/app/(signed-in)/notifications/actions";
 import { enqueueMail, listOutbox } from "@/database/queries/outbox";
 import { actAs } from "../support/session";
 import { ownerDb, resetDatabase } from "../support/db";
@@ -25,13 +26,18 @@ describe("mailbox actions", () => {
     expect(await retryMailAction({ id: "abc" })).toMatchObject({ ok: false, status: 422 });
   });
 
-  it("anyone signed in switches between each alert and a daily summary", async () => {
+  it("anyone signed in chooses as they happen, hourly or daily; anything else is refused naming the field", async () => {
     const fuser = await makeUser({ roles: ["fuser"] });
+    expect((await ownerDb()("users").where({ id: fuser.id }).first()).mail_grouping).toBe("immediate");
     await actAs(fuser);
-    expect(await setMailPreferenceAction({ dailyDigest: true })).toMatchObject({ ok: true });
-    expect((await ownerDb()("users").where({ id: fuser.id }).first()).daily_digest).toBe(1);
-    expect(await setMailPreferenceAction({ dailyDigest: "maybe" })).toMatchObject({ ok: false, status: 422 });
+    expect(await setMailPreferenceAction({ grouping: "hourly" })).toMatchObject({ ok: true });
+    expect((await ownerDb()("users").where({ id: fuser.id }).first()).mail_grouping).toBe("hourly");
+    expect(await ownerDb()("audit_log").where({ action: "mail-preference-set", actor_user_id: fuser.id })).toHaveLength(1);
+    const refused = await setMailPreferenceAction({ grouping: "weekly" as "daily" });
+    expect(refused).toMatchObject({ ok: false, status: 422 });
+    expect(JSON.stringify(refused)).toContain("Alert mail for me");
+    expect((await ownerDb()("users").where({ id: fuser.id }).first()).mail_grouping).toBe("hourly");
     await actAs(null);
-    expect(await setMailPreferenceAction({ dailyDigest: false })).toMatchObject({ ok: false, status: 401 });
+    expect(await setMailPreferenceAction({ grouping: "daily" })).toMatchObject({ ok: false, status: 401 });
   });
 });

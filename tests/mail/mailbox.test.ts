@@ -8,7 +8,7 @@ import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
 import { freePort } from "@/database/local/mariadb";
 import { startLocalMailServer, type LocalMailServer } from "@/database/local/mail-server";
 import { decodeEncodedWords, decodeQuotedPrintable, listDevMail, parseRawMessage } from "@/database/queries/dev-mailbox";
-import { listOutbox } from "@/database/queries/outbox";
+
 import { createSmtpTransport } from "@/app/_server/mail/transport";
 import { scanAndEnqueueAlerts } from "@/app/_server/mail/scan-alerts";
 import { makeReviewBase } from "@/fixtures/review-joints";
@@ -112,15 +112,20 @@ describe("the periodic alert scan", () => {
 
     const first = await scanAndEnqueueAlerts(now);
     expect(first.alerts).toBe(3); // lapsing, lapsed, heater (the inactive person is left out)
-    const mail = await listOutbox();
-    const byKind = (kind: string) => mail.filter((m) => m.kind === kind).map((m) => m.to).sort();
+    const kept = () => ownerDb()("notifications as n").join("users as u", "u.id", "n.user_id").select("n.kind", "n.subject", "n.body_text", "n.link_path", "u.email", "u.id as user_id");
+    const mail = (await kept()) as { kind: string; subject: string; body_text: string; link_path: string; email: string; user_id: number }[];
+    const byKind = (kind: string) => mail.filter((m) => m.kind === kind).map((m) => m.email).sort();
     expect(byKind("qualification-lapsing")).toEqual([admin.email, lapsing.email].sort());
     expect(byKind("qualification-lapsed")).toEqual([admin.email, lapsed.email].sort());
     expect(byKind("heater-check-overdue")).toEqual([admin.email]);
     expect(mail.find((m) => m.kind === "qualification-lapsing")!.subject).toBe(`Qualification lapses 2026-12-18: Lapsing Fuser, P-${base.jobCode.slice(3)}`);
+    // Each reader gets a page they may open: the admin the person's Crew page, the fuser Today.
+    expect(mail.find((m) => m.kind === "qualification-lapsing" && m.user_id === admin.id)!.link_path).toBe(`/crew/${lapsing.id}`);
+    expect(mail.find((m) => m.kind === "qualification-lapsing" && m.user_id === lapsing.id)!.link_path).toBe("/");
+    expect(mail.find((m) => m.kind === "heater-check-overdue")!.link_path).toMatch(/^\/equipment\/heaters\/\d+$/);
 
     const again = await scanAndEnqueueAlerts(new Date(now.getTime() + 3_600_000));
     expect(again.queued).toBe(0);
-    expect(await listOutbox()).toHaveLength(mail.length);
+    expect(await kept()).toHaveLength(mail.length);
   });
 });

@@ -129,7 +129,7 @@ export const ACTIONS: readonly ActionEntry[] = [
   a(`${SIGNED_IN}/procedures/actions.ts`, "editVersionNotesAction", "manageProcedures"),
 
   a(`${SIGNED_IN}/mailbox/actions.ts`, "retryMailAction", "viewMailbox"),
-  a(`${SIGNED_IN}/mailbox/actions.ts`, "setMailPreferenceAction", "signed-in"),
+  a(`${SIGNED_IN}/notifications/actions.ts`, "setMailPreferenceAction", "signed-in"),
 ];
 
 export const ENTRIES: readonly Entry[] = [...ROUTES, ...ACTIONS];

@@ -1,49 +1,38 @@
 import { requireUser } from "@/app/_lib/page-guard";
 import { listDevMail, spoolDir } from "@/database/queries/dev-mailbox";
-import { countOutboxByStatus, listOutbox, type MailStatus, type OutboxMail } from "@/database/queries/outbox";
-import { mailKindLabel } from "@/domain/mail/digest";
+import { countOutboxByStatus, listOutbox, type MailStatus } from "@/database/queries/outbox";
+import { mailKindLabel } from "@/domain/mail/grouping";
+import { MAIL_STATUSES, MAIL_STATUS_LABELS, mailStateWords } from "@/domain/mail/states";
 import { DataTable } from "@/components/ui/data-table";
 import { formatInstant } from "@/components/ui/display-format";
 import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import { SectionCard } from "@/components/ui/section-card";
 import { RetryButton } from "./_components/retry-button";
-import { MailPreference } from "../_components/mail-preference";
 
 export const dynamic = "force-dynamic";
 
 const at = (d: Date | null, timeZone: string) => (d ? formatInstant(d, "second", timeZone) : "—");
 
-function stateWords(m: OutboxMail, timeZone: string): string {
-  switch (m.status) {
-    case "queued":
-      return m.attempts === 0 ? "Waiting to send" : `Waiting to retry (attempt ${m.attempts + 1} at ${at(m.nextAttemptAt, timeZone)})`;
-    case "sending":
-      return "Being sent now";
-    case "sent":
-      return `Sent ${at(m.sentAt, timeZone)}`;
-    case "failed":
-      return `Failed after ${m.attempts} attempts`;
-  }
-}
-
-const STATUS_LABELS: Record<MailStatus, string> = { queued: "Waiting", sending: "Sending", sent: "Sent", failed: "Failed" };
-
 // Mailbox (admin): every mail Beadline has queued and what became of it, and — in
 // development — the messages the local fake mail server received.
 export default async function MailboxPage({ searchParams }: { searchParams: Promise<Record<string, string | string[] | undefined>> }) {
-  const user = await requireUser("viewMailbox");
+  await requireUser("viewMailbox");
   const timeZone = await organisationTimeZone();
   const params = await searchParams;
   const statusParam = Array.isArray(params.status) ? params.status[0] : params.status;
-  const status = (["queued", "sending", "sent", "failed"] as const).find((s) => s === statusParam);
+  const status = MAIL_STATUSES.find((s) => s === statusParam);
   const [counts, outbox, devMail] = await Promise.all([countOutboxByStatus(), listOutbox({ status, limit: 200 }), listDevMail({ limit: 100 })]);
   const hasSpool = Boolean(spoolDir());
   return (
     <div className="flex flex-col gap-6">
       <h1 className="text-2xl font-bold">Mailbox</h1>
-      <div className="max-w-md">
-        <MailPreference dailyDigest={user.dailyDigest} />
-      </div>
+      <p className="max-w-3xl text-slate-700">
+        Every mail Beadline has made for anyone. Each person reads their own mail, and chooses how their alerts are grouped, on the{" "}
+        <a href="/notifications" className="font-semibold text-brand underline">
+          Notifications
+        </a>{" "}
+        screen.
+      </p>
       <SectionCard id="outbox-heading" title="Outbox" className="flex flex-col gap-2">
         <p>
           Alerts wait here until the mail server takes them; a mail that cannot be sent is retried with growing pauses and, after the last attempt, stays here as failed.
@@ -55,14 +44,14 @@ export default async function MailboxPage({ searchParams }: { searchParams: Prom
                 All ({counts.queued + counts.sending + counts.sent + counts.failed})
               </a>
             </li>
-            {(Object.keys(STATUS_LABELS) as MailStatus[]).map((s) => (
+            {(Object.keys(MAIL_STATUS_LABELS) as MailStatus[]).map((s) => (
               <li key={s}>
                 <a
                   href={`/mailbox?status=${s}`}
                   aria-current={status === s ? "page" : undefined}
                   className={`inline-flex min-h-touch items-center rounded-md border-2 px-3 font-semibold ${status === s ? "border-brand bg-brand text-white" : s === "failed" && counts.failed ? "border-fail text-fail" : "border-brand text-brand"}`}
                 >
-                  {STATUS_LABELS[s]} ({counts[s]})
+                  {MAIL_STATUS_LABELS[s]} ({counts[s]})
                 </a>
               </li>
             ))}
@@ -75,13 +64,13 @@ export default async function MailboxPage({ searchParams }: { searchParams: Prom
           rows={outbox}
           rowKey={(m) => m.id}
           rowClassName={(m) => (m.status === "failed" ? "bg-fail-light" : "")}
-          empty={<span className="text-slate-700">No mail {status ? `is ${STATUS_LABELS[status].toLowerCase()}` : "has been queued yet"}.</span>}
+          empty={<span className="text-slate-700">No mail {status ? `is ${MAIL_STATUS_LABELS[status].toLowerCase()}` : "has been queued yet"}.</span>}
           columns={[
             { header: "Queued", className: "whitespace-nowrap", cell: (m) => at(m.createdAt, timeZone) },
             { header: "To", cell: (m) => m.to },
             { header: "Subject", isRowHeader: true, cell: (m) => m.subject },
             { header: "Kind", cell: (m) => mailKindLabel(m.kind) },
-            { header: "State", cell: (m) => <span className={`font-semibold ${m.status === "failed" ? "text-fail" : m.status === "sent" ? "text-pass" : ""}`}>{stateWords(m, timeZone)}</span> },
+            { header: "State", cell: (m) => <span className={`font-semibold ${m.status === "failed" ? "text-fail" : m.status === "sent" ? "text-pass" : ""}`}>{mailStateWords(m, (d) => at(d, timeZone))}</span> },
             { header: "Last error", cell: (m) => m.lastError ?? "" },
             { header: <span className="sr-only">Actions</span>, cell: (m) => (m.status === "failed" ? <RetryButton id={m.id} subject={m.subject} /> : null) },
           ]}

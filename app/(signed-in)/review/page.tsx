@@ -6,7 +6,6 @@ import { describeFieldErrors, fieldErrorsFromIssues } from "@/domain/result";
 import { ReviewQueue, type Landing, type QueueFilterText } from "./_components/review-queue";
 import { toQueueItemView } from "@/app/_server/review/queue-item-view";
 import { loadQueuePage } from "@/app/_server/review/queue-page";
-import { MailPreference } from "../_components/mail-preference";
 
 export const dynamic = "force-dynamic";
 
@@ -61,9 +60,6 @@ export default async function ReviewPage({ searchParams }: { searchParams: Promi
         userId={user.id}
         landing={landing}
       />
-      <div className="max-w-md">
-        <MailPreference dailyDigest={user.dailyDigest} />
-      </div>
     </div>
   );
 }

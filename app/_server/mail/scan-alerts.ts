@@ -1,26 +1,25 @@
-// The periodic alert scan: queues qualification and heater-check alerts (deduplicated, so
-// running it often is harmless) and folds the daily digests. Run by the mail worker.
+// The periodic alert scan: keeps qualification and heater-check alerts as notifications
+// (deduplicated, so running it often is harmless). Run by the mail worker, which also folds
+// notifications into mail (fold-notifications.ts).
 import "server-only";
 import type { Knex } from "knex";
 import { isoDateIn } from "@/domain/dates/zone";
 import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import { heaterAlerts, qualificationAlerts, type AlertMail } from "@/domain/mail/alerts";
+import { mailLinkPath } from "@/domain/mail/links";
 import { db } from "@/database/client";
 import { listHeatersWithLastCheck } from "@/database/queries/equipment";
-import { enqueueUserEvent, foldDailyDigests, listAlertAdmins, type Recipient } from "@/database/queries/outbox";
+import { findRecipient, insertNotification, listAlertAdmins, type Recipient } from "@/database/queries/outbox";
 import { qualificationStatusOverview } from "@/database/queries/qualifications";
+import { publicUrl } from "./public-url";
 
-export type ScanReport = { alerts: number; queued: number; digests: number };
-
-async function recipientById(k: Knex, id: number): Promise<Recipient | null> {
-  const row = await k("users").where({ id, is_active: true }).first("id", "email", "daily_digest");
-  return row ? { id: Number(row.id), email: row.email as string, dailyDigest: Boolean(row.daily_digest) } : null;
-}
+export type ScanReport = { alerts: number; queued: number };
 
 /**
- * Finds the alerts owed on `now`'s local day in the organisation's time zone and queues one mail per recipient for each
- * (the person concerned and every active admin; admins only for heater plates), each with
- * its dedupe key `<kind>:<suffix>:<recipient>`; then folds digests that are due.
+ * Finds the alerts owed on `now`'s local day in the organisation's time zone and keeps one
+ * notification per recipient for each (the person concerned and every active admin; admins
+ * only for heater plates) — in the recipient's units, linking to a page they may open —
+ * each with its dedupe key `<kind>:<suffix>:<recipient>`.
  */
 export async function scanAndEnqueueAlerts(now: Date = new Date(), knex?: Knex): Promise<ScanReport> {
   const k = knex ?? db();
@@ -44,17 +43,18 @@ export async function scanAndEnqueueAlerts(now: Date = new Date(), knex?: Knex):
     for (const alert of alerts) {
       const recipients = new Map<number, Recipient>(admins.map((a) => [a.id, a]));
       if (alert.personId !== null) {
-        const person = await recipientById(k, alert.personId);
+        const person = await findRecipient({ userId: alert.personId }, k);
         if (person) recipients.set(person.id, person);
       }
       await k.transaction(async (trx) => {
         for (const r of recipients.values()) {
-          const result = await enqueueUserEvent({ recipient: r, subject: alert.subject, bodyText: alert.bodyText, kind: alert.kind, dedupeKey: `${alert.kind}:${alert.dedupeSuffix}:${r.id}` }, trx);
+          const linkPath = mailLinkPath(alert.about, r);
+          const bodyText = `${alert.bodyText(r.unitSystem)}\n\nOpen in Beadline: ${publicUrl()}${linkPath}`;
+          const result = await insertNotification({ userId: r.id, subject: alert.subject, bodyText, linkPath, kind: alert.kind, dedupeKey: `${alert.kind}:${alert.dedupeSuffix}:${r.id}` }, trx);
           if (result.queued) queued += 1;
         }
       });
     }
   }
-  const digests = await foldDailyDigests({ now, timeZone }, k);
-  return { alerts: alerts.length, queued, digests };
+  return { alerts: alerts.length, queued };
 }

@@ -1,14 +1,15 @@
-// A person chooses how alerts reach them: one mail per alert or the daily digest
-// (users.daily_digest), with the audit entry, in one transaction.
+// A person chooses how their alerts are grouped into mail — as they happen, hourly or
+// daily (users.mail_grouping) — with the audit entry, in one transaction.
 import "server-only";
 import { db } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
-import { updateDailyDigest } from "@/database/queries/outbox";
+import { updateMailGrouping } from "@/database/queries/outbox";
+import type { MailGrouping } from "@/domain/mail/grouping";
 
-export async function setMailPreference({ dailyDigest }: { dailyDigest: boolean }, { user, requestId }: { user: { id: number }; requestId: string }): Promise<{ dailyDigest: boolean }> {
+export async function setMailPreference({ grouping }: { grouping: MailGrouping }, { user, requestId }: { user: { id: number }; requestId: string }): Promise<{ grouping: MailGrouping }> {
   await db().transaction(async (trx) => {
-    await updateDailyDigest({ userId: user.id, dailyDigest }, trx);
-    await insertAuditEntry({ actorUserId: user.id, action: "mail-preference-set", entityType: "user", entityId: user.id, details: { dailyDigest }, requestId }, trx);
+    await updateMailGrouping({ userId: user.id, grouping }, trx);
+    await insertAuditEntry({ actorUserId: user.id, action: "mail-preference-set", entityType: "user", entityId: user.id, details: { grouping }, requestId }, trx);
   });
-  return { dailyDigest };
+  return { grouping };
 }

@@ -1,8 +1,10 @@
 // The mail worker inside each app server process (started by instrumentation.ts): every
-// MAIL_SEND_INTERVAL_MS (default 2 s) it sends due outbox mail, and every
-// MAIL_SCAN_INTERVAL_MS (default 10 min) it runs the alert scan. Safe with several
-// instances: claims use SKIP LOCKED and alerts are deduplicated in the database.
+// MAIL_SEND_INTERVAL_MS (default 2 s) it folds waiting notifications whose window has
+// closed into mail and sends due outbox mail, and every MAIL_SCAN_INTERVAL_MS (default
+// 10 min) it runs the alert scan. Safe with several instances: claims use SKIP LOCKED and
+// alerts and mails are deduplicated in the database.
 import "server-only";
+import { foldNotifications } from "./fold-notifications";
 import { scanAndEnqueueAlerts } from "./scan-alerts";
 import { sendDueMails } from "./send-due-mails";
 
@@ -23,8 +25,10 @@ export function startMailWorker({ log, sendEveryMs = Number(process.env.MAIL_SEN
       if (now.getTime() - lastScan >= scanEveryMs) {
         lastScan = now.getTime();
         const scan = await scanAndEnqueueAlerts(now);
-        if (scan.queued || scan.digests) log.info({ ...scan }, "alert scan queued mail");
+        if (scan.queued) log.info({ ...scan }, "alert scan kept notifications");
       }
+      const folded = await foldNotifications({ now });
+      if (folded.mails) log.info({ ...folded }, "notifications grouped into mail");
       const report = await sendDueMails({ now });
       if (report.claimed) log.info({ ...report }, "outbox pass");
       lastProblem = "";
