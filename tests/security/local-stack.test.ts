@@ -70,7 +70,7 @@ describe("private MariaDB", () => {
     expect(roots).toEqual(["localhost\tunix_socket"]);
     const noPassword = rootSql(
       dbDir,
-      "SELECT CONCAT(user, '@', host) FROM mysql.global_priv WHERE JSON_VALUE(priv, '$.plugin') IN ('mysql_native_password', 'mysql_old_password', 'ed25519') AND COALESCE(JSON_VALUE(priv, '$.authentication_string'), '') = '' AND COALESCE(JSON_VALUE(priv, '$.account_locked'), 'false') <> 'true'",
+      "SELECT CONCAT(user, '@', host) FROM mysql.global_priv WHERE JSON_VALUE(priv, '$.plugin') IN ('mysql_native_password', 'mysql_old_password', 'ed25519') AND COALESCE(JSON_VALUE(priv, '$.authentication_string'), '') = '' AND COALESCE(JSON_EXTRACT(priv, '$.account_locked'), 'false') <> 'true'",
     ).trim();
     expect(noPassword).toBe("");
   });
