@@ -11,14 +11,15 @@ import path from "node:path";
 import { Transform, type Readable } from "node:stream";
 import { pipeline } from "node:stream/promises";
 import { DeleteObjectCommand, GetObjectCommand, ListObjectsV2Command, PutObjectCommand, S3Client } from "@aws-sdk/client-s3";
+import { localStoreKeys } from "./local/secrets";
 
 const ROOT = path.resolve(__dirname, "..");
 
 /** Where the objects live: the S3_* settings the app uses. */
 export type StoreTarget = { endpoint?: string; region: string; bucket: string; accessKeyId: string; secretAccessKey: string };
 
-/** The bucket and keys of the local fake that `npm start` runs (database/local/stack.ts). */
-const DEV_STORE = { bucket: "beadline-attachments", accessKeyId: "S3RVER", secretAccessKey: "S3RVER" };
+/** The bucket of the local fake that `npm start` runs (database/local/stack.ts); its keys are generated there. */
+const DEV_BUCKET = "beadline-attachments";
 
 /**
  * The object store to use: explicit settings, else the S3_* environment (as the app reads it),
@@ -41,7 +42,12 @@ export function resolveStore(over: Partial<StoreTarget> = {}, dataDir = path.joi
   if (!existsSync(path.join(dataDir, "objects"))) {
     throw new Error("No object store to use: set S3_BUCKET (with S3_ENDPOINT and its keys), or run `npm start` so the development object store exists under .data/.");
   }
-  return { endpoint: over.endpoint ?? `http://127.0.0.1:${Number(env.BEADLINE_S3_PORT || 4569)}`, region: over.region ?? "us-east-1", ...DEV_STORE };
+  return {
+    endpoint: over.endpoint ?? `http://127.0.0.1:${Number(env.BEADLINE_S3_PORT || 4569)}`,
+    region: over.region ?? "us-east-1",
+    bucket: DEV_BUCKET,
+    ...localStoreKeys(dataDir),
+  };
 }
 
 /** A client configured like the app's (app/_server/storage/object-store.ts). */

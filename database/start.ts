@@ -4,10 +4,11 @@
 // Ctrl-C stops the web server and the database cleanly. With DATABASE_URL set, it uses that
 // server and starts none.
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
-import { existsSync, mkdirSync, readFileSync, readdirSync, rmSync, statSync, writeFileSync } from "node:fs";
+import { existsSync, readFileSync, readdirSync, rmSync, statSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import { randomBytes } from "node:crypto";
-import { ensureMariadbInstalled, isPortInUse, keptSecret } from "./local/mariadb";
+import { ensureMariadbInstalled, isPortInUse, keptSecret, privateDir } from "./local/mariadb";
+import { failureLine } from "./local/redact";
 import { startLocalStack, type LocalStack } from "./local/stack";
 import { migrateLatest, ownerKnex } from "./migrate";
 
@@ -29,7 +30,8 @@ function isAlive(pid: number): boolean {
 }
 
 function takeLock(): void {
-  mkdirSync(DATA, { recursive: true });
+  // .data holds the database, objects, mail and secrets: only the launcher's user may enter.
+  privateDir(DATA);
   if (existsSync(LOCK)) {
     const pid = Number(readFileSync(LOCK, "utf8").trim());
     if (pid && isAlive(pid)) {
@@ -154,7 +156,8 @@ async function main(): Promise<void> {
       }
     });
   } catch (error) {
-    console.error(`[beadline] ${(error as Error).message}`);
+    // One line, secrets masked (SQL and addresses may carry generated passwords).
+    console.error(`[beadline] ${failureLine(error)}`);
     await shutdown(1);
   }
 }

@@ -11,6 +11,7 @@ import path from "node:path";
 import { ensureMariadbInstalled, freePort } from "../database/local/mariadb";
 import { startLocalStack, type LocalStack } from "../database/local/stack";
 import { migrateLatest } from "../database/migrate";
+import { redact } from "../database/local/redact";
 
 const ROOT = path.resolve(__dirname, "..");
 const args = process.argv.slice(2);
@@ -118,7 +119,7 @@ async function main(): Promise<number> {
       }
     }
   } catch (error) {
-    console.error(`test run failed: ${(error as Error).stack ?? error}`);
+    console.error(`test run failed: ${redact(String((error as Error).stack ?? error))}`);
     results.push(["setup", 1]);
   } finally {
     await stopAll();

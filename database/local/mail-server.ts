@@ -1,13 +1,15 @@
 // Local fake SMTP server for development and tests: accepts every message on loopback and
 // keeps it as a JSON file in a spool folder (read by the admin mailbox page and by tests).
-import { mkdirSync, writeFileSync } from "node:fs";
+// The spool is private to the launcher's user: folder 0700, messages 0600.
+import { chmodSync, mkdirSync, renameSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import { SMTPServer } from "smtp-server";
 
 export type LocalMailServer = { port: number; spoolDir: string; stop: () => Promise<void> };
 
 export async function startLocalMailServer({ port, spoolDir }: { port: number; spoolDir: string }): Promise<LocalMailServer> {
-  mkdirSync(spoolDir, { recursive: true });
+  mkdirSync(spoolDir, { recursive: true, mode: 0o700 });
+  chmodSync(spoolDir, 0o700);
   let counter = 0;
   const server = new SMTPServer({
     authOptional: true,
@@ -26,7 +28,10 @@ export async function startLocalMailServer({ port, spoolDir }: { port: number; s
           to: session.envelope.rcptTo.map((r) => r.address),
           raw,
         };
-        writeFileSync(path.join(spoolDir, name), JSON.stringify(message));
+        // Whole or not at all: written under a dot name (the mailbox skips those), then renamed.
+        const temporary = path.join(spoolDir, `.${name}.tmp`);
+        writeFileSync(temporary, JSON.stringify(message), { mode: 0o600 });
+        renameSync(temporary, path.join(spoolDir, name));
         callback();
       });
     },
