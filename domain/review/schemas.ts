@@ -3,6 +3,7 @@
 import { z } from "zod";
 import { JOINT_PARAMETERS, type JointParameter } from "@/domain/fusion/parameters";
 import type { JointOutcome } from "@/domain/joints/outcomes";
+import { ID_MAX, optionalId as optionalIdOf, requiredId, toNumberInput, type IdColumn } from "@/domain/form-fields";
 
 export const REVIEW_DECISIONS = ["accepted", "cut-out"] as const;
 export type ReviewDecision = (typeof REVIEW_DECISIONS)[number];
@@ -10,11 +11,7 @@ export type ReviewDecision = (typeof REVIEW_DECISIONS)[number];
 /** Longest decision note kept, characters. */
 export const MAX_NOTE_LENGTH = 2000;
 
-const id = (label: string) =>
-  z.coerce
-    .number({ error: `${label} must be a number` })
-    .int({ error: `${label} must be a whole number` })
-    .positive({ error: `${label} must be chosen from the list` });
+const id = (label: string, column: IdColumn) => requiredId(`${label} must be chosen from the list`, column, `${label} must be chosen from the list (a whole number id)`);
 
 /**
  * A decision: accepted (with a note) or cut out (with the reason). `expectedRevisionNo` is
@@ -24,7 +21,7 @@ const id = (label: string) =>
  */
 export const decideJointSchema = z
   .object({
-    jointId: id("Joint"),
+    jointId: id("Joint", "bigint"),
     decision: z.enum(REVIEW_DECISIONS, { error: "Decision must be accepted or cut out" }),
     note: z
       .string({ error: "Note must be text" })
@@ -34,7 +31,8 @@ export const decideJointSchema = z
     expectedRevisionNo: z.coerce
       .number({ error: "Revision must be a number" })
       .int({ error: "Revision must be a whole number" })
-      .min(1, { error: "Revision must be 1 or more" }),
+      .min(1, { error: "Revision must be 1 or more" })
+      .max(ID_MAX.int, { error: "Revision is not one of this joint's" }),
   })
   .superRefine((value, ctx) => {
     if (value.decision === "cut-out" && value.note.length < 3) {
@@ -49,8 +47,7 @@ export function acceptNeedsNote(outcome: JointOutcome): boolean {
   return outcome === "out-of-limits";
 }
 
-const optionalId = (label: string) =>
-  z.preprocess((v) => (v === "" || v === null ? undefined : v), id(label).optional());
+const optionalId = (label: string) => optionalIdOf(`${label} must be chosen from the list`);
 
 /** Queue filter from the query string; empty values mean "any". */
 export const reviewQueueFilterSchema = z.object({
@@ -62,8 +59,8 @@ export const reviewQueueFilterSchema = z.object({
     z.enum(JOINT_PARAMETERS as unknown as [JointParameter, ...JointParameter[]], { error: "Finding must be chosen from the list" }).optional(),
   ),
   limit: z.preprocess(
-    (v) => (v === "" || v === null ? undefined : v),
-    z.coerce.number({ error: "Limit must be a number" }).int({ error: "Limit must be a whole number" }).min(1, { error: "Limit must be 1 or more" }).max(200, { error: "Limit must be at most 200" }).default(50),
+    toNumberInput,
+    z.number({ error: "Limit must be a number" }).int({ error: "Limit must be a whole number" }).min(1, { error: "Limit must be 1 or more" }).max(200, { error: "Limit must be at most 200" }).default(50),
   ),
 });
 export type ReviewQueueFilter = z.output<typeof reviewQueueFilterSchema>;
@@ -71,10 +68,10 @@ export type ReviewQueueFilter = z.output<typeof reviewQueueFilterSchema>;
 /** Largest pressure-trace file accepted, bytes (a 1 Hz log of an hour is under 100 kB). */
 export const MAX_TRACE_FILE_BYTES = 2_000_000;
 
-export const attachTraceSchema = z.object({ jointId: id("Joint") });
+export const attachTraceSchema = z.object({ jointId: id("Joint", "bigint") });
 
 /** Admin: put a failed outbox mail back in the queue. */
-export const retryMailSchema = z.object({ id: id("Mail") });
+export const retryMailSchema = z.object({ id: id("Mail", "bigint") });
 
 /** Anyone signed in: one mail per alert, or one summary a day. */
 export const mailPreferenceSchema = z.object({

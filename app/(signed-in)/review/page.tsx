@@ -1,6 +1,7 @@
 import { requireUser } from "@/app/_lib/page-guard";
 import { listQueueFilterOptions, listReviewQueue } from "@/database/queries/reviews";
 import { reviewQueueFilterSchema } from "@/domain/review/schemas";
+import { parseId } from "@/domain/form-fields";
 import { PARAMETER_LABELS } from "@/domain/fusion/parameters";
 import { ReviewQueue } from "./_components/review-queue";
 import { toQueueItemView } from "@/app/_server/review/queue-item-view";
@@ -20,7 +21,8 @@ export default async function ReviewPage({ searchParams }: { searchParams: Promi
     listQueueFilterOptions(),
     listReviewQueue({ filter: { jobId: filter.job, fuserId: filter.fuser, machineId: filter.machine, finding: filter.finding }, limit: filter.limit }),
   ]);
-  const selected = Number(one(params.joint)) || null;
+  const selected = parseId(one(params.joint), "bigint");
+  const filterErrors = parsed.success ? [] : [...new Set(parsed.error.issues.map((i) => i.message))];
   return (
     <div className="flex flex-col gap-4">
       <h1 className="text-2xl font-bold">Review</h1>
@@ -28,6 +30,11 @@ export default async function ReviewPage({ searchParams }: { searchParams: Promi
         Joints waiting for a decision: out of limits first, then the oldest. Open a joint to compare the plan with what was recorded, look at the photos and the
         pressure trace, and accept it or cut it out. You cannot decide joints you made yourself.
       </p>
+      {filterErrors.length ? (
+        <p role="alert" className="rounded-md border-2 border-fail bg-fail-light p-3 font-semibold text-fail">
+          The filter in the address was not used: {filterErrors.join("; ")}.
+        </p>
+      ) : null}
       <ReviewQueue
         initial={{ total: queue.total, outOfLimits: queue.outOfLimits, items: queue.items.map((item) => toQueueItemView(item, user.unitSystem)) }}
         initialFilter={{ job: filter.job ? String(filter.job) : "", fuser: filter.fuser ? String(filter.fuser) : "", machine: filter.machine ? String(filter.machine) : "", finding: filter.finding ?? "" }}
