@@ -21,20 +21,28 @@ export function describeBytes(bytes: number): string {
   return `${bytes} bytes`;
 }
 
-function tooLarge(max: number, what: string, field?: string): AppError {
-  const message = `The ${what} is larger than ${describeBytes(max)}, the most this address accepts.`;
-  return new AppError("too-large", message, field ? { [field]: [`Larger than ${describeBytes(max)}.`] } : { _body: [message] });
+function tooLarge(limit: string, what: string, field?: string): AppError {
+  const message = `The ${what} is larger than ${limit}, the most this address accepts.`;
+  return new AppError("too-large", message, field ? { [field]: [`Larger than ${limit}.`] } : { _body: [message] });
 }
 
-export type BodyLimit = { max: number; /** What the body is, for the message ("request body", "photo upload"). */ what?: string; /** The field a refusal names (e.g. "file"). */ field?: string };
+export type BodyLimit = {
+  max: number;
+  /** What the body is, for the message ("request body", "photo"). */
+  what?: string;
+  /** The field a refusal names (e.g. "file"). */
+  field?: string;
+  /** The limit in the message when it is a file's own limit ("10 MB") and `max` adds the form's framing. */
+  limitText?: string;
+};
 
 /** Reads at most `max` bytes of the body; throws AppError("too-large") as soon as it would go over (and stops reading). */
-export async function readBodyLimited(request: Request, { max, what = "request body", field }: BodyLimit): Promise<Uint8Array> {
+export async function readBodyLimited(request: Request, { max, what = "request body", field, limitText = describeBytes(max) }: BodyLimit): Promise<Uint8Array> {
   const header = request.headers.get("content-length");
   const declared = header === null ? NaN : Number(header);
   if (Number.isFinite(declared) && declared > max) {
     await request.body?.cancel().catch(() => undefined);
-    throw tooLarge(max, what, field);
+    throw tooLarge(limitText, what, field);
   }
   if (!request.body) return new Uint8Array();
   const reader = request.body.getReader();
@@ -46,7 +54,7 @@ export async function readBodyLimited(request: Request, { max, what = "request b
     total += value.byteLength;
     if (total > max) {
       await reader.cancel().catch(() => undefined);
-      throw tooLarge(max, what, field);
+      throw tooLarge(limitText, what, field);
     }
     chunks.push(value);
   }

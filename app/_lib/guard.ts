@@ -56,6 +56,12 @@ export function defineAction<S extends ZodType, R>(
       if (!allows(user, spec.permission)) return done(failure("forbidden", "Your role does not allow this."));
       const parsed = spec.schema.safeParse(raw);
       if (!parsed.success) {
+        // Not the form's fields at all (text, a number, a list where the fields belong): a
+        // malformed request, not a mistake in a field. 400, logged once, no stack.
+        if (parsed.error.issues.some((i) => i.path.length === 0 && i.code === "invalid_type")) {
+          requestLogger(requestId).warn({ kind: "action", userId, received: describeShape(raw) }, "malformed server action input");
+          return done(failure("bad-request", "This request does not carry the form's fields; reload the page and try again."));
+        }
         const fields = fieldErrorsFromIssues(parsed.error.issues);
         return done(failure("invalid", describeFieldErrors(fields, spec.labels), fields));
       }
@@ -67,6 +73,14 @@ export function defineAction<S extends ZodType, R>(
       return done(failure(f.code, f.message, f.fields));
     }
   };
+}
+
+/** What arrived instead of the fields, for the log (never the value itself). */
+function describeShape(value: unknown): string {
+  if (value === null) return "null";
+  if (Array.isArray(value)) return "array";
+  if (typeof FormData !== "undefined" && value instanceof FormData) return "form data";
+  return typeof value;
 }
 
 /**

@@ -42,7 +42,7 @@ export async function uploadBeadPhoto({ request, user, requestId }: { request: R
     throw new AppError("bad-request", "Send the photo as multipart/form-data with the file in the field \"file\".", { file: ["Send the photo in a form field named file."] });
   }
   // Counted while it arrives: refused (413) the moment it passes the photo's limit plus the form's framing.
-  const form = await readFormLimited(request, { max: MAX_PHOTO_BYTES + MULTIPART_OVERHEAD_BYTES, what: "photo upload", field: "file" }, { message: "The upload is not a readable multipart form.", fields: { file: ["Not a readable multipart form."] } });
+  const form = await readFormLimited(request, { max: MAX_PHOTO_BYTES + MULTIPART_OVERHEAD_BYTES, what: "photo", field: "file", limitText: "10 MB" }, { message: "The upload is not a readable multipart form.", fields: { file: ["Not a readable multipart form."] } });
   const kind = String(form.get("kind") ?? "bead-photo");
   if (kind !== "bead-photo") throw new AppError("invalid", "Only bead photos can be uploaded here.", { kind: ["Only bead-photo is accepted."] });
   const file = form.get("file");

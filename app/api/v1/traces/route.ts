@@ -12,7 +12,7 @@ const MULTIPART_OVERHEAD_BYTES = 64 * 1024;
 
 export const POST = defineRoute({ permission: "attachTrace", input: "raw" }, async (_input, { user, requestId, request }) => {
   // Counted while it arrives: refused (413) the moment it passes the trace's limit plus the form's framing.
-  const form = await readFormLimited(request, { max: MAX_TRACE_FILE_BYTES + MULTIPART_OVERHEAD_BYTES, what: "trace upload", field: "file" }, { message: "Send the trace as a multipart form with the fields jointId and file.", fields: { file: ["Choose a CSV file"] } });
+  const form = await readFormLimited(request, { max: MAX_TRACE_FILE_BYTES + MULTIPART_OVERHEAD_BYTES, what: "trace file", field: "file", limitText: `${MAX_TRACE_FILE_BYTES / 1e6} MB` }, { message: "Send the trace as a multipart form with the fields jointId and file.", fields: { file: ["Choose a CSV file"] } });
   const parsed = attachTraceSchema.safeParse({ jointId: form.get("jointId") });
   const file = form.get("file");
   const fields = parsed.success ? {} : fieldErrorsFromIssues(parsed.error.issues);
