@@ -18,7 +18,7 @@ import { discover, type Discovered } from "./discover";
 import { ROUTES, concretePath, paramNames, rolesFor, routeKey } from "./routes";
 
 /** The values the attack run and its follow-up used, plus neighbours. */
-export const ODD_NUMBERS = ["9".repeat(400), "1e309", "-1e309", "-0", "NaN", "Infinity", "0x1F", "", "99999999999999999999", "4294967296", "1.5", "-1", "1e308", "%"];
+export const ODD_NUMBERS = ["9".repeat(400), "1e309", "-1e309", "-0", "NaN", "0x1F", "", "99999999999999999999", "4294967296", "1.5", "%"];
 
 /** Every query parameter a route or page of the app reads (schemas of domain/ and the pages). */
 export const QUERY_NAMES = [
@@ -79,9 +79,14 @@ describe("odd numbers in query strings and path ids", () => {
     const problems: string[] = [];
     const names = namesReadBy(found.routes.get(key)!.file);
     for (const name of names) {
-      for (const value of ODD_NUMBERS) {
-        const answer = await get(entry, { ...(BASE[key] ?? entry.query ?? {}), [name]: value });
-        if (answer.status >= 500) problems.push(`?${name}=${value.slice(0, 20)} → ${answer.status} ${JSON.stringify(answer.body)?.slice(0, 120)}`);
+      // Two at a time: the database pool and the two cores are shared with the other tests.
+      for (let i = 0; i < ODD_NUMBERS.length; i += 2) {
+        await Promise.all(
+          ODD_NUMBERS.slice(i, i + 2).map(async (value) => {
+            const answer = await get(entry, { ...(BASE[key] ?? entry.query ?? {}), [name]: value });
+            if (answer.status >= 500) problems.push(`?${name}=${value.slice(0, 20)} → ${answer.status} ${JSON.stringify(answer.body)?.slice(0, 120)}`);
+          }),
+        );
       }
     }
     if (paramNames(entry.path).length) {
