@@ -14,3 +14,18 @@ export async function register(): Promise<void> {
   const [{ startMailWorker }, { logger }] = await Promise.all([import("./app/_server/mail/worker"), import("./app/_lib/log")]);
   startMailWorker({ log: logger.child({ part: "mail-worker" }) });
 }
+
+type RequestErrorInfo = { path: string; method: string; headers: Record<string, string | string[] | undefined> };
+type RequestErrorContext = { routerKind: string; routePath: string; routeType: string; renderSource?: string };
+
+/**
+ * Next.js calls this once for every error it catches while serving a request, including the
+ * ones our wrappers never see (a server-action body React cannot decode, a render that throws).
+ * One log line per request, through the app's logger (secrets scrubbed), with the message and
+ * digest only: no stack trace, so a flood of malformed requests cannot fill the logs with them.
+ */
+export async function onRequestError(error: unknown, request: RequestErrorInfo, context: RequestErrorContext): Promise<void> {
+  if (process.env.NEXT_RUNTIME !== "nodejs") return;
+  const { logRequestError } = await import("./app/_lib/request-error-log");
+  logRequestError(error, request, context);
+}

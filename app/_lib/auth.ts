@@ -6,7 +6,8 @@ import { bumpSessionVersion, findUserCredentialsByEmail, type UserRecord } from 
 import { THROTTLE_WINDOW_MS, isSignInThrottled } from "@/domain/crew/throttle";
 import { AppError } from "@/domain/result";
 
-export const BCRYPT_COST = 12;
+import { BCRYPT_COST } from "@/domain/crew/password-policy"; // one home: the demo seed hashes with it too
+export { BCRYPT_COST };
 /** A real hash to compare against when the account does not exist (same time either way). */
 const DUMMY_HASH = "$2b$12$byd5alSOfAuI6LqTzyqCbeEoy0cmw0XBFdndhi2eBtWB6aA0OW6k2";
 const GENERIC_FAILURE = "That e-mail and password do not match an active account, or there were too many attempts. Try again later or ask your administrator.";

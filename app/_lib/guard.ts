@@ -10,6 +10,7 @@ import type { UserRecord } from "@/database/queries/users";
 import { isDomainError } from "@/domain/errors";
 import { allows, type Permission } from "@/domain/roles";
 import { AppError, STATUS_FOR_CODE, describeFieldErrors, failure, fieldErrorsFromIssues, type ActionResult, type ErrorCode, type FieldErrors } from "@/domain/result";
+import { BODY_LIMITS, readJsonLimited } from "./body";
 import { requestLogger } from "./log";
 import { SESSION_COOKIE, cookieFromHeader, userFromSealedCookie } from "./session";
 
@@ -55,6 +56,12 @@ export function defineAction<S extends ZodType, R>(
       if (!allows(user, spec.permission)) return done(failure("forbidden", "Your role does not allow this."));
       const parsed = spec.schema.safeParse(raw);
       if (!parsed.success) {
+        // Not the form's fields at all (text, a number, a list where the fields belong): a
+        // malformed request, not a mistake in a field. 400, logged once, no stack.
+        if (parsed.error.issues.some((i) => i.path.length === 0 && i.code === "invalid_type")) {
+          requestLogger(requestId).warn({ kind: "action", userId, received: describeShape(raw) }, "malformed server action input");
+          return done(failure("bad-request", "This request does not carry the form's fields; reload the page and try again."));
+        }
         const fields = fieldErrorsFromIssues(parsed.error.issues);
         return done(failure("invalid", describeFieldErrors(fields, spec.labels), fields));
       }
@@ -66,6 +73,14 @@ export function defineAction<S extends ZodType, R>(
       return done(failure(f.code, f.message, f.fields));
     }
   };
+}
+
+/** What arrived instead of the fields, for the log (never the value itself). */
+function describeShape(value: unknown): string {
+  if (value === null) return "null";
+  if (Array.isArray(value)) return "array";
+  if (typeof FormData !== "undefined" && value instanceof FormData) return "form data";
+  return typeof value;
 }
 
 /**
@@ -122,6 +137,8 @@ export type RouteSpec<S extends ZodType, PS extends ZodType> = {
   badParams?: BadParams;
   /** The input's field labels, to name failing fields in the message. */
   labels?: Readonly<Record<string, string>>;
+  /** A JSON body's limit in bytes (default BODY_LIMITS.json); larger answers 413 without being read further. */
+  maxBodyBytes?: number;
 };
 
 /**
@@ -174,13 +191,8 @@ async function runRoute<S extends ZodType, PS extends ZodType>(
     }
     let raw: unknown = undefined;
     if (source === "json") {
-      const text = await request.text();
-      if (text.length > 2_000_000) return errorResponse("too-large", "The request body is too large.", undefined, idHeader);
-      try {
-        raw = text ? JSON.parse(text) : {};
-      } catch {
-        return errorResponse("bad-request", "The request body is not valid JSON.", { _body: ["The request body is not valid JSON."] }, idHeader);
-      }
+      // Counted while it arrives: 413 the moment it passes the limit, 400 when it is not JSON.
+      raw = await readJsonLimited(request, { max: spec.maxBodyBytes ?? BODY_LIMITS.json });
     } else if (source === "query") {
       raw = Object.fromEntries(new URL(request.url).searchParams.entries());
     }
@@ -209,6 +221,8 @@ async function runRoute<S extends ZodType, PS extends ZodType>(
     const f = failureFromError(error, requestId);
     const headers: Record<string, string> = { ...idHeader };
     if (f.code === "unavailable") headers["retry-after"] = "5";
+    // An oversized body is not read to its end: close the connection rather than drain it.
+    if (f.code === "too-large") headers.connection = "close";
     return errorResponse(f.code, f.message, f.fields, headers);
   }
 }

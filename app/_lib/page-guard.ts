@@ -4,6 +4,7 @@
 import { notFound, redirect } from "next/navigation";
 import type { UserRecord } from "@/database/queries/users";
 import { can, type Permission } from "@/domain/roles";
+import { parseId, type IdColumn } from "@/domain/form-fields";
 import { currentUser } from "./session";
 
 /** The signed-in person; with a permission, a page for those who hold it (others get 404). */
@@ -14,9 +15,9 @@ export async function requireUser(permission?: Permission): Promise<UserRecord> 
   return user;
 }
 
-/** The id of an `[id]` page: a positive whole number, or the page is not found. */
-export async function requirePageId(params: Promise<{ id: string }>): Promise<number> {
-  const id = Number((await params).id);
-  if (!Number.isInteger(id) || id <= 0) notFound();
+/** The id of an `[id]` page: plain digits within the id column's range, or the page is not found. */
+export async function requirePageId(params: Promise<{ id: string }>, column: IdColumn = "int"): Promise<number> {
+  const id = parseId((await params).id, column);
+  if (id === null) notFound();
   return id;
 }

@@ -1,15 +1,11 @@
-// Path-parameter schemas for defineRoute({ params }). Our ids are positive whole numbers
-// (MariaDB BIGINT UNSIGNED AUTO_INCREMENT, at most 15 digits here so they stay exact in a
-// JavaScript number); anything else in the `[id]` segment is refused by the wrapper.
+// Path-parameter schemas for defineRoute({ params }). Our ids are positive whole numbers in
+// their column's range (domain/form-fields ID_MAX: INT UNSIGNED, or BIGINT UNSIGNED as far as
+// a JavaScript number is exact), written in plain digits; anything else in the `[id]` segment
+// (hex, exponent, sign, 400 nines) is refused by the wrapper before any query.
 import { z } from "zod";
+import { requiredId, type IdColumn } from "@/domain/form-fields";
 
-/** `{ id }` from an `[id]` segment; `message` is what a malformed id answers. */
-export function idParams(message: string) {
-  return z.object({
-    id: z
-      .string({ error: message })
-      .regex(/^\d{1,15}$/, { error: message })
-      .transform(Number)
-      .pipe(z.number().int().positive({ error: message })),
-  });
+/** `{ id }` from an `[id]` segment; `message` is what a malformed id answers; `column` the id column's kind (INT UNSIGNED tables say "int"). */
+export function idParams(message: string, column: IdColumn = "bigint") {
+  return z.object({ id: requiredId(message, column) });
 }

@@ -1,6 +1,7 @@
 // Loads the invented demo scenario (fixtures/demo-scenario.ts) into an empty database.
 // `npm start` runs it only when the users table is empty; tests never touch the demo database.
 import bcrypt from "bcryptjs";
+import { BCRYPT_COST } from "@/domain/crew/password-policy";
 import type { Knex } from "knex";
 import { builtInProcedure } from "@/domain/procedures";
 import {
@@ -24,7 +25,7 @@ export async function seed(knex: Knex, today = new Date()): Promise<void> {
       const [id] = await trx("crews").insert(crew);
       crewIds.set(crew.name, Number(id));
     }
-    const hash = await bcrypt.hash(DEMO_PASSWORD, 10);
+    const hash = await bcrypt.hash(DEMO_PASSWORD, BCRYPT_COST); // the same cost as real passwords
     const userIds = new Map<string, number>();
     for (const p of DEMO_PEOPLE) {
       const [id] = await trx("users").insert({ name: p.name, email: p.email, password_hash: hash, roles: p.roles.join(","), unit_system: p.unitSystem, crew_id: p.crew ? crewIds.get(p.crew) : null });

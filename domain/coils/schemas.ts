@@ -3,6 +3,7 @@
 // typed in the user's units and leave the schema in canonical SI (m, mm).
 import { z } from "zod";
 import { COIL_STATUSES } from "@/domain/coils/statuses";
+import { optionalId as optionalIdOf, requiredId } from "@/domain/form-fields";
 import { PIPE_SERIES, findPipeSize } from "@/domain/pipe/catalogue";
 import { parseTraceCode } from "@/domain/trace-code/trace-code";
 import { ftToM, inToMm } from "@/domain/units/conversions";
@@ -171,9 +172,8 @@ export const receiveCoilSchema = z
 export type ReceiveCoilInput = z.input<typeof receiveCoilSchema>;
 export type ReceiveCoil = z.output<typeof receiveCoilSchema>;
 
-const id = (label: string) => z.coerce.number({ error: `${label} is missing.` }).int({ error: `${label} is missing.` }).positive({ error: `${label} is missing.` });
-const optionalId = (message: string) =>
-  z.preprocess((v) => (v === "" || v == null ? undefined : v), z.coerce.number({ error: message }).int({ error: message }).positive({ error: message }).optional());
+const id = (label: string) => requiredId(`${label} is missing.`, "int", `${label} is not a coil on file.`);
+const optionalId = (message: string) => optionalIdOf(message);
 
 /** Move a coil to another status (quarantine with a reason, trailer with a crew, use with a job). */
 export const moveCoilSchema = z.object({
@@ -190,6 +190,8 @@ export type MoveCoil = z.output<typeof moveCoilSchema>;
 /** Mark labels printed (after the print dialog) for a set of coils. */
 export const markLabelsPrintedSchema = z.object({
   coilIds: z.array(id("Coil id"), { error: "Choose at least one coil." }).min(1, { error: "Choose at least one coil." }).max(500, { error: "At most 500 labels at once." }),
+  /** Sent to the printer from the Labels screen, or downloaded as a file from the coil's page. */
+  how: z.enum(["print", "png", "svg"], { error: "Say whether the labels were printed or downloaded as PNG or SVG." }).default("print"),
 });
 
 /**

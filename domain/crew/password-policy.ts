@@ -5,6 +5,13 @@
 // app/_lib/common-passwords.ts loads it from a registry package.
 import { MIN_PASSWORD_LENGTH } from "./schemas";
 
+/**
+ * bcrypt work factor of every stored password: people's own (app/_lib/auth hashPassword) and
+ * the demo accounts the seed creates. source: OWASP Password Storage Cheat Sheet (bcrypt with
+ * a work factor of 10 or more); 12 takes about a quarter of a second here.
+ */
+export const BCRYPT_COST = 12;
+
 /** Lower-cases and trims for comparison; the lists hold lower-case entries. */
 export function normalisePassword(password: string): string {
   return password.normalize("NFKC").trim().toLowerCase();

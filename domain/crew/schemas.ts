@@ -2,6 +2,7 @@
 import { z } from "zod";
 import { ROLES } from "../roles";
 import { UNIT_SYSTEMS } from "@/domain/units/format";
+import { optionalId, requiredId } from "@/domain/form-fields";
 
 export const MIN_PASSWORD_LENGTH = 12;
 
@@ -26,21 +27,21 @@ export const addPersonSchema = z.object({
   roles: rolesField,
   password: passwordField,
   unitSystem: z.enum(UNIT_SYSTEMS, { error: "Choose SI or US customary units." }).default("si"),
-  crewId: z.coerce.number().int().positive().nullable().optional(),
+  crewId: optionalId("Crew is not valid.").nullable(),
 });
 export type AddPersonInput = z.infer<typeof addPersonSchema>;
 
 export const updatePersonSchema = z.object({
-  id: z.coerce.number({ error: "Person id is missing." }).int().positive(),
-  version: z.coerce.number({ error: "Record version is missing." }).int().positive(),
+  id: requiredId("Person id is missing."),
+  version: requiredId("Record version is missing."),
   roles: rolesField,
   isActive: z.boolean({ error: "Say whether the person is active." }),
-  crewId: z.coerce.number().int().positive().nullable().optional(),
+  crewId: optionalId("Crew is not valid.").nullable(),
 });
 export type UpdatePersonInput = z.infer<typeof updatePersonSchema>;
 
 export const resetPasswordSchema = z.object({
-  id: z.coerce.number({ error: "Person id is missing." }).int().positive(),
+  id: requiredId("Person id is missing."),
   password: passwordField,
 });
 export type ResetPasswordInput = z.infer<typeof resetPasswordSchema>;

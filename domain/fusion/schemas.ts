@@ -11,6 +11,9 @@ import {
   type SizeRule,
 } from '@/domain/procedures';
 import { VALUE_STATUSES } from '@/domain/sources';
+import { PLAN_INPUT_BOUNDS } from '@/domain/fusion/plan-bounds';
+
+export { PLAN_INPUT_BOUNDS } from '@/domain/fusion/plan-bounds';
 
 const number = (label: string, unit: string) => z.number({ error: `${label} must be a number${unit ? ` in ${unit}` : ''}` });
 
@@ -20,14 +23,14 @@ export const fusionPlanSchema = z
     standard: z.enum(FUSION_STANDARDS, { error: `Standard must be one of ${FUSION_STANDARDS.join(', ')}` }).optional(),
     procedureId: z.string({ error: 'Procedure must be chosen from the list' }).trim().min(1, { error: 'Procedure must be chosen from the list' }).optional(),
     outsideDiameterMm: number('Outside diameter', 'mm')
-      .gt(0, { error: 'Outside diameter must be more than 0 mm' })
-      .max(2000, { error: 'Outside diameter must be at most 2000 mm' }),
-    sdr: number('SDR', '').gt(2, { error: 'SDR must be more than 2' }).max(100, { error: 'SDR must be at most 100' }),
+      .gt(PLAN_INPUT_BOUNDS.outsideDiameterMm.above, { error: 'Outside diameter must be more than 0 mm' })
+      .max(PLAN_INPUT_BOUNDS.outsideDiameterMm.max, { error: `Outside diameter must be at most ${PLAN_INPUT_BOUNDS.outsideDiameterMm.max} mm` }),
+    sdr: number('SDR', '').gt(PLAN_INPUT_BOUNDS.sdr.above, { error: `SDR must be more than ${PLAN_INPUT_BOUNDS.sdr.above}` }).max(PLAN_INPUT_BOUNDS.sdr.max, { error: `SDR must be at most ${PLAN_INPUT_BOUNDS.sdr.max}` }),
     wallMm: number('Wall', 'mm').gt(0, { error: 'Wall must be more than 0 mm' }).optional(),
     pistonAreaMm2: number('Piston area', 'mm²').gt(0, { error: 'Piston area must be more than 0 mm²' }),
     dragPressureMpa: number('Drag pressure', 'MPa')
-      .min(0, { error: 'Drag pressure cannot be negative' })
-      .max(50, { error: 'Drag pressure must be at most 50 MPa' }),
+      .min(PLAN_INPUT_BOUNDS.dragPressureMpa.min, { error: 'Drag pressure cannot be negative' })
+      .max(PLAN_INPUT_BOUNDS.dragPressureMpa.max, { error: `Drag pressure must be at most ${PLAN_INPUT_BOUNDS.dragPressureMpa.max} MPa` }),
   })
   .superRefine((value, ctx) => {
     if (value.standard === undefined && value.procedureId === undefined) {

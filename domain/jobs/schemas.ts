@@ -1,7 +1,7 @@
 // Input schemas of the Jobs screen, used by react-hook-form through zodResolver and parsed
 // again on the server. Every message names its field in plain words.
 import { z } from 'zod';
-import { optionalNumber, requiredText, optionalText, optionalDate, idField, optionalIdField, versionField } from '@/domain/form-fields';
+import { optionalNumber, requiredText, optionalText, optionalDate, idField, optionalIdField, versionField, requiredId } from '@/domain/form-fields';
 
 /** What a job code may hold: letters, digits and . _ / - (no spaces), starting with a letter or digit. */
 export const JOB_CODE_PATTERN = /^[A-Za-z0-9][A-Za-z0-9._/-]*$/;
@@ -17,7 +17,7 @@ const jobFields = {
   procedureId: idField('Procedure'),
   crewId: optionalIdField('Crew'),
   pipeSizes: optionalText('Pipe sizes in use', 300),
-  coilIds: z.array(z.coerce.number().int().positive(), { error: 'Coils must be a list.' }).max(500, { error: 'Assign at most 500 coils at once.' }).default([]),
+  coilIds: z.array(requiredId('Choose coils from the list.'), { error: 'Coils must be a list.' }).max(500, { error: 'Assign at most 500 coils at once.' }).default([]),
 };
 
 function checkJob(value: { latitude?: number; longitude?: number; startsOn?: string; endsOn?: string }, ctx: z.RefinementCtx) {

@@ -3,6 +3,8 @@
 // is canonical SI (°C, MPa, mm, s, m); the screen converts at its edges. Numbers must be
 // numbers: a string "450" is refused here, so an API caller learns of the mistake.
 import { z } from 'zod';
+import { ID_MAX, optionalId, optionalNumber, requiredId } from '@/domain/form-fields';
+import { PLAN_INPUT_BOUNDS } from '@/domain/fusion/plan-bounds';
 import { unitLabel } from '@/domain/units/format';
 import { SHELTERS } from '@/domain/joints/shelters';
 import { DEPRECATED_WIRE_NAMES, RECORDED_VALUE_DEFINITIONS, RECORDED_VALUES } from '@/domain/joints/values';
@@ -15,7 +17,8 @@ const idOf = (what: string) =>
   z
     .number({ error: (issue) => (issue.input === undefined || issue.input === null ? `Choose the ${what}.` : `The ${what} must be given by its number id.`) })
     .int({ error: `The ${what} id must be a whole number.` })
-    .positive({ error: `Choose the ${what}.` });
+    .positive({ error: `Choose the ${what}.` })
+    .max(ID_MAX.int, { error: `The ${what} is not on file.` });
 
 /** A measured number: required, a real number (not text), inside a plausible range. */
 const measured = (name: string, { min, max, unit }: { min: number; max: number; unit: string }) =>
@@ -177,12 +180,13 @@ export type RecordJointRawInput = z.input<typeof recordObject>;
 /** GET /api/v1/fusion-plan: a pipe on a machine under the job's procedure. */
 export const fusionPlanQuerySchema = z
   .object({
-    jobId: z.coerce.number({ error: 'Give the job id (jobId).' }).int().positive({ error: 'Give the job id (jobId).' }),
-    machineId: z.coerce.number({ error: 'Give the machine id (machineId).' }).int().positive({ error: 'Give the machine id (machineId).' }),
+    jobId: requiredId('Give the job id (jobId).', 'int', 'jobId must be a job id (a whole number).'),
+    machineId: requiredId('Give the machine id (machineId).', 'int', 'machineId must be a machine id (a whole number).'),
     coil: z.string().trim().min(1).max(200).optional(),
-    outsideDiameterMm: z.coerce.number({ error: 'outsideDiameterMm must be a number.' }).positive({ error: 'outsideDiameterMm must be more than 0.' }).optional(),
-    sdr: z.coerce.number({ error: 'sdr must be a number.' }).gt(2, { error: 'sdr must be more than 2.' }).optional(),
-    dragPressureMpa: z.coerce.number({ error: 'dragPressureMpa must be a number.' }).min(0, { error: 'dragPressureMpa cannot be negative.' }).default(0),
+    // The pipe bounds the plan itself accepts (domain/fusion/schemas PLAN_INPUT_BOUNDS).
+    outsideDiameterMm: optionalNumber('outsideDiameterMm', { positive: true, max: PLAN_INPUT_BOUNDS.outsideDiameterMm.max }),
+    sdr: optionalNumber('sdr', { max: PLAN_INPUT_BOUNDS.sdr.max }).refine((v) => v === undefined || v > PLAN_INPUT_BOUNDS.sdr.above, { error: `sdr must be more than ${PLAN_INPUT_BOUNDS.sdr.above}.` }),
+    dragPressureMpa: optionalNumber('dragPressureMpa', { min: 0, max: PLAN_INPUT_BOUNDS.dragPressureMpa.max }).transform((v) => v ?? 0),
   })
   .superRefine((v, ctx) => {
     if (!v.coil && (v.outsideDiameterMm === undefined || v.sdr === undefined)) {
@@ -193,11 +197,11 @@ export type FusionPlanQuery = z.output<typeof fusionPlanQuerySchema>;
 
 /** GET /api/v1/joints: a page of joints, newest first (keyset on made-at and id). */
 export const listJointsQuerySchema = z.object({
-  jobId: z.coerce.number().int().positive().optional(),
+  jobId: optionalId('jobId must be a job id (a whole number).'),
   clientId: z.uuid({ error: 'clientId must be a UUID.' }).optional(),
   mine: z.enum(['1', 'true', '0', 'false']).optional(),
-  limit: z.coerce.number({ error: 'limit must be a number.' }).int().min(1, { error: 'limit must be 1 to 200.' }).max(200, { error: 'limit must be 1 to 200.' }).default(50),
-  before: z.string().regex(/^\d+$/, { error: 'before must be a joint id.' }).optional(),
+  limit: optionalNumber('limit', { integer: true, min: 1, max: 200 }).transform((v) => v ?? 50),
+  before: optionalId('before must be a joint id (a whole number).', 'bigint'),
 });
 export type ListJointsQuery = z.output<typeof listJointsQuerySchema>;
 

@@ -4,6 +4,7 @@
 // inclusive at both ends (domain/dates/zone).
 import { z } from 'zod';
 import { localDayRange } from '@/domain/dates/zone';
+import { optionalId } from '@/domain/form-fields';
 import { JOINT_PARAMETERS } from '@/domain/fusion/parameters';
 import { JOINT_OUTCOMES as REGISTER_OUTCOMES } from '@/domain/joints/outcomes';
 import { REVIEW_STATES } from '@/domain/joints/review-states';
@@ -35,15 +36,7 @@ export const DEFAULT_PAGE_SIZE = 100;
 /** An empty query parameter (an unset select or a cleared box) means "no filter". */
 const blankToUndefined = (value: unknown) => (typeof value === 'string' && value.trim() === '' ? undefined : value);
 
-const idParam = (what: string) =>
-  z.preprocess(
-    blankToUndefined,
-    z.coerce
-      .number({ error: `The ${what} must be chosen from the list (a number id).` })
-      .int({ error: `The ${what} must be chosen from the list (a number id).` })
-      .positive({ error: `The ${what} must be chosen from the list (a number id).` })
-      .optional(),
-  );
+const idParam = (what: string) => optionalId(`The ${what} must be chosen from the list (a number id).`);
 
 const dayParam = (what: string) =>
   z.preprocess(

@@ -4,6 +4,7 @@ import { z } from "zod";
 import { JOINT_PARAMETERS, type JointParameter } from "@/domain/fusion/parameters";
 import type { JointOutcome } from "@/domain/joints/outcomes";
 import { isIsoDate } from "@/domain/dates/civil";
+import { ID_MAX, optionalId as optionalIdOf, requiredId, toNumberInput, type IdColumn } from "@/domain/form-fields";
 
 export const REVIEW_DECISIONS = ["accepted", "cut-out"] as const;
 export type ReviewDecision = (typeof REVIEW_DECISIONS)[number];
@@ -11,11 +12,7 @@ export type ReviewDecision = (typeof REVIEW_DECISIONS)[number];
 /** Longest decision note kept, characters. */
 export const MAX_NOTE_LENGTH = 2000;
 
-const id = (label: string) =>
-  z.coerce
-    .number({ error: `${label} must be a number` })
-    .int({ error: `${label} must be a whole number` })
-    .positive({ error: `${label} must be chosen from the list` });
+const id = (label: string, column: IdColumn) => requiredId(`${label} must be chosen from the list`, column, `${label} must be chosen from the list (a whole number id)`);
 
 /**
  * A decision: accepted (with a note) or cut out (with the reason). `expectedRevisionNo` is
@@ -25,7 +22,7 @@ const id = (label: string) =>
  */
 export const decideJointSchema = z
   .object({
-    jointId: id("Joint"),
+    jointId: id("Joint", "bigint"),
     decision: z.enum(REVIEW_DECISIONS, { error: "Decision must be accepted or cut out" }),
     note: z
       .string({ error: "Note must be text" })
@@ -35,7 +32,8 @@ export const decideJointSchema = z
     expectedRevisionNo: z.coerce
       .number({ error: "Revision must be a number" })
       .int({ error: "Revision must be a whole number" })
-      .min(1, { error: "Revision must be 1 or more" }),
+      .min(1, { error: "Revision must be 1 or more" })
+      .max(ID_MAX.int, { error: "Revision is not one of this joint's" }),
   })
   .superRefine((value, ctx) => {
     if (value.decision === "cut-out" && value.note.length < 3) {
@@ -50,8 +48,7 @@ export function acceptNeedsNote(outcome: JointOutcome): boolean {
   return outcome === "out-of-limits";
 }
 
-const optionalId = (label: string) =>
-  z.preprocess((v) => (v === "" || v === null ? undefined : v), id(label).optional());
+const optionalId = (label: string) => optionalIdOf(`${label} must be chosen from the list`);
 
 const optionalText = (v: unknown) => (v === "" || v === null ? undefined : v);
 
@@ -81,8 +78,8 @@ export const queueFilterFields = {
     z.enum(JOINT_PARAMETERS as unknown as [JointParameter, ...JointParameter[]], { error: "Finding must be chosen from the list" }).optional(),
   ),
   waiting: z.preprocess(
-    optionalText,
-    z.coerce.number({ error: "Waiting more than must be a number of days" }).int({ error: "Waiting more than must be a whole number of days" }).min(1, { error: "Waiting more than must be 1 day or more" }).max(3650, { error: "Waiting more than must be at most 3650 days" }).optional(),
+    toNumberInput,
+    z.number({ error: "Waiting more than must be a number of days" }).int({ error: "Waiting more than must be a whole number of days" }).min(1, { error: "Waiting more than must be 1 day or more" }).max(3650, { error: "Waiting more than must be at most 3650 days" }).optional(),
   ),
   from: civilDate("Made from"),
   to: civilDate("Made to"),
@@ -100,8 +97,8 @@ export const reviewQueueFilterSchema = z
     order: z.preprocess(optionalText, z.enum(QUEUE_ORDERS, { error: "Order must be oldest first or out of limits first" }).default("oldest")),
     after: z.preprocess(optionalText, z.string({ error: "Cursor must be text" }).max(200, { error: "Cursor is not valid" }).optional()),
     limit: z.preprocess(
-      optionalText,
-      z.coerce.number({ error: "Limit must be a number" }).int({ error: "Limit must be a whole number" }).min(1, { error: "Limit must be 1 or more" }).max(MAX_QUEUE_PAGE, { error: `Limit must be at most ${MAX_QUEUE_PAGE}` }).default(QUEUE_PAGE),
+      toNumberInput,
+      z.number({ error: "Limit must be a number" }).int({ error: "Limit must be a whole number" }).min(1, { error: "Limit must be 1 or more" }).max(MAX_QUEUE_PAGE, { error: `Limit must be at most ${MAX_QUEUE_PAGE}` }).default(QUEUE_PAGE),
     ),
   })
   .superRefine((v, ctx) => {
@@ -122,7 +119,7 @@ export const batchAcceptSchema = z
   .object({
     note: z.string({ error: "Note must be text" }).trim().max(MAX_NOTE_LENGTH, { error: `Note must be at most ${MAX_NOTE_LENGTH} characters` }).default(""),
     joints: z
-      .array(z.object({ jointId: id("Joint"), expectedRevisionNo: z.coerce.number({ error: "Revision must be a number" }).int({ error: "Revision must be a whole number" }).min(1, { error: "Revision must be 1 or more" }) }), { error: "Joints must be a list" })
+      .array(z.object({ jointId: id("Joint", "bigint"), expectedRevisionNo: z.preprocess(toNumberInput, z.number({ error: "Revision must be a number" }).int({ error: "Revision must be a whole number" }).min(1, { error: "Revision must be 1 or more" })) }), { error: "Joints must be a list" })
       .max(MAX_BATCH_ACCEPT, { error: `At most ${MAX_BATCH_ACCEPT} joints can be accepted at once; select fewer` })
       .optional(),
     matching: queueFilterSchema.optional(),
@@ -150,7 +147,7 @@ export const BATCH_SKIP_LABELS: Record<BatchSkipReason, string> = {
 /** Largest pressure-trace file accepted, bytes (a 1 Hz log of an hour is under 100 kB). */
 export const MAX_TRACE_FILE_BYTES = 2_000_000;
 
-export const attachTraceSchema = z.object({ jointId: id("Joint") });
+export const attachTraceSchema = z.object({ jointId: id("Joint", "bigint") });
 
 /** Admin: put a failed outbox mail back in the queue. */
-export const retryMailSchema = z.object({ id: id("Mail") });
+export const retryMailSchema = z.object({ id: id("Mail", "bigint") });

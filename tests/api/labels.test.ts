@@ -1,16 +1,18 @@
 // Label downloads through the wrapped route handlers: the QR in a rendered label decodes
 // (with jsQR, a general-purpose QR decoder) to the record's address; who may download;
-// bad input; the coil is stamped as printed.
+// bad input; fetching a label records nothing (a GET only renders: a link on another site
+// must not stamp a coil as printed), the print action records it once.
 import jsQR from "jsqr";
 import { PNG } from "pngjs";
 import sharp from "sharp";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { GET as coilLabel } from "@/app/api/v1/labels/coils/[id]/route";
 import { GET as jointLabel } from "@/app/api/v1/labels/joints/[id]/route";
+import { markLabelsPrintedAction } from "@/app/(signed-in)/labels/actions";
 import { closeDb } from "@/database/client";
 import { seed as seedScenario } from "@/database/seeds/01-demo";
 import { closeOwnerDb, ownerDb, resetDatabase, userIdByEmail } from "../support/db";
-import { requestAs } from "../support/session";
+import { actAs, requestAs } from "../support/session";
 import { makeUser } from "../support/users";
 
 let clerk: { id: number };
@@ -68,7 +70,7 @@ describe("coil label download", () => {
     expect(row.label_printed_at).toBeNull();
   });
 
-  it("renders a PNG whose QR decodes to the coil's page at the request's origin, and stamps the coil", async () => {
+  it("renders a PNG whose QR decodes to the coil's page at the request's origin, and records nothing", async () => {
     const response = await coilLabel(await requestAs(clerk, `/api/v1/labels/coils/${coilId}?format=png`), params(coilId));
     expect(response.status).toBe(200);
     expect(response.headers.get("content-type")).toBe("image/png");
@@ -76,9 +78,22 @@ describe("coil label download", () => {
     const png = Buffer.from(await response.arrayBuffer());
     // source: jsQR (general-purpose QR decoder from the npm registry)
     expect(decodeQr(png)).toBe("http://127.0.0.1:3000/coils/LV-C0011");
+    // source: RFC 9110 §9.2.1 (GET is safe: it must not change the resource's state)
+    const row = await ownerDb()("coils").where("id", coilId).first("label_printed_at");
+    expect(row.label_printed_at).toBeNull();
+    expect(await ownerDb()("audit_log").where({ action: "coil-label-printed", entity_id: String(coilId) })).toHaveLength(0);
+  });
+
+  it("the print action (a POST) records the download once, saying how", async () => {
+    await actAs(clerk);
+    const result = await markLabelsPrintedAction({ coilIds: [coilId], how: "png" });
+    expect(result).toMatchObject({ ok: true, data: { count: 1 } });
+    await coilLabel(await requestAs(clerk, `/api/v1/labels/coils/${coilId}?format=png`), params(coilId)); // the file itself: no second entry
     const row = await ownerDb()("coils").where("id", coilId).first("label_printed_at");
     expect(row.label_printed_at).toBeInstanceOf(Date);
-    expect(await ownerDb()("audit_log").where({ action: "coil-label-printed", entity_id: String(coilId) })).toHaveLength(1);
+    const entries = await ownerDb()("audit_log").where({ action: "coil-label-printed", entity_id: String(coilId) });
+    expect(entries).toHaveLength(1);
+    expect(JSON.parse(String(entries[0].details))).toMatchObject({ how: "png" });
   });
 
   it("renders an SVG (rasterised by librsvg) whose QR decodes to BEADLINE_PUBLIC_URL, with the clear text beside it", async () => {

@@ -1,6 +1,9 @@
 // A records clerk receives a coil by typing its ASTM F2897 code, prints its label page
 // (the QR on the sheet decodes to the coil's page), and finds the coil again through Trace.
+import "../support/server-only-outside-next";
 import { expect, test } from "@playwright/test";
+import type { Knex } from "knex";
+import { ownerKnex } from "@/database/migrate";
 import jsQR from "jsqr";
 import { PNG } from "pngjs";
 import { CoilPage, LabelSheetPage, ReceiveCoilPage, TracePage } from "./pages/coils-page";
@@ -10,6 +13,21 @@ import { SignInPage } from "./pages/sign-in-page";
 // 20 Oct 2026 = day 293 → DDDYY 29326 → "7D0"; H = PE4710 (Table 4); 12 = coiled pipe (Table 5);
 // 2" IPS SDR 11 factor 38 (Table 6) → D = 38·378 + 38 + 1 = 14403 → "3Kj"; index "0".
 const CODE = "QFiAE97D0H123Kj0";
+
+let k: Knex;
+test.beforeAll(() => {
+  k = ownerKnex(process.env.MIGRATION_DATABASE_URL);
+});
+test.afterAll(async () => {
+  await k.destroy();
+});
+
+/** How each recorded print of a coil's label was made, oldest first (the audit log). */
+async function printsOf(coilCode: string): Promise<string[]> {
+  const coil = await k("coils").where({ coil_code: coilCode }).first("id");
+  const rows = await k("audit_log").where({ action: "coil-label-printed", entity_type: "coil", entity_id: String(coil.id) }).orderBy("id");
+  return rows.map((r: { details: string }) => (JSON.parse(r.details) as { how: string }).how);
+}
 
 test("a clerk receives a coil from its traceability code, prints its label and traces it", async ({ page, baseURL }) => {
   await new SignInPage(page).signInAs("clerk");
@@ -63,6 +81,8 @@ test("a clerk receives a coil from its traceability code, prints its label and t
   });
   await sheet.print();
   await expect(page.getByRole("status").filter({ hasText: "1 coil label marked as printed." })).toBeVisible();
+  // The print is recorded once, by the Print button's POST (the sheet's page load recorded nothing).
+  expect(await printsOf(coilCode)).toEqual(["print"]);
   await page.emulateMedia({ media: "print" });
   await expect(page.getByRole("navigation", { name: "Screens" })).toBeHidden();
   await page.screenshot({ path: "tests/e2e/artifacts/coils-label-sheet-print.png", fullPage: true });
@@ -72,6 +92,12 @@ test("a clerk receives a coil from its traceability code, prints its label and t
   await page.goto(decoded!);
   await expect(coil.heading(coilCode)).toBeVisible();
   await expect(page.getByText(/Label last printed \d{4}-\d{2}-\d{2}\./)).toBeVisible();
+  // Fetching the label file (a GET, as a link on another site could) records nothing …
+  expect((await page.request.get(`/api/v1/labels/coils/${await k("coils").where({ coil_code: coilCode }).first("id").then((c: { id: number }) => c.id)}?format=svg`)).status()).toBe(200);
+  expect(await printsOf(coilCode)).toEqual(["print"]);
+  // … the download button records the download once, then fetches the file.
+  expect(await coil.downloadLabel("PNG")).toBe(`coil-${coilCode}.png`);
+  await expect.poll(() => printsOf(coilCode)).toEqual(["print", "png"]);
 
   const trace = new TracePage(page);
   await trace.open();

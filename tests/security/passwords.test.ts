@@ -8,7 +8,7 @@ import { addPersonSchema, MIN_PASSWORD_LENGTH, resetPasswordSchema } from "@/dom
 import { MAX_FAILURES_PER_ACCOUNT, MAX_FAILURES_PER_ADDRESS } from "@/domain/crew/throttle";
 import { AppError } from "@/domain/result";
 import { addPersonAction, resetPasswordAction } from "@/app/(signed-in)/crew/actions";
-import { ownerDb, resetDatabase } from "../support/db";
+import { ownerDb, resetDatabase, seedDemo } from "../support/db";
 import { actAs } from "../support/session";
 import { makeUser, TEST_PASSWORD } from "../support/users";
 
@@ -110,6 +110,18 @@ describe("bcrypt", () => {
     // a fresh salt each time: the same password hashed at cost 4 twice differs (same code path, cheap)
     expect(bcrypt.hashSync("river-gravel-lantern", 4)).not.toBe(bcrypt.hashSync("river-gravel-lantern", 4));
   });
+});
+
+describe("demo accounts", () => {
+  // source: OWASP Password Storage Cheat Sheet — one work factor for every stored password;
+  // a seeded account with a cheaper hash is the easiest one to crack offline.
+  it("are hashed with the same bcrypt cost as real passwords", async () => {
+    await resetDatabase();
+    await seedDemo();
+    const hashes = (await ownerDb()("users").select("password_hash")).map((r: { password_hash: string }) => r.password_hash);
+    expect(hashes.length).toBeGreaterThan(0);
+    for (const hash of hashes) expect(bcrypt.getRounds(hash)).toBe(BCRYPT_COST);
+  }, 60_000);
 });
 
 describe("sign-in throttling", () => {

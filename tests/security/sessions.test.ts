@@ -136,6 +136,25 @@ describe("invalidation", () => {
     expect(await statusWith(sealed)).toBe(401);
   });
 
+  it("a revoked cookie cannot sign out a newer session, through the form or the API", async () => {
+    const u = await makeUser({ roles: ["fuser"] });
+    // Session 1 through the form, then signed out: its cookie is revoked (an older session version).
+    expect((await signInAction({ email: u.email, password: TEST_PASSWORD })).ok).toBe(true);
+    const revoked = testRequestState.cookies.get(SESSION_COOKIE)!;
+    await expect(signOutAction()).rejects.toMatchObject({ digest: expect.stringMatching(/^NEXT_REDIRECT/) });
+    // Session 2, the person working on.
+    const current = await signInByApi(u.email);
+    const version = (await findUserById({ id: u.id }))!.sessionVersion;
+    // The revoked cookie replayed at the form's sign-out …
+    testRequestState.cookies.set(SESSION_COOKIE, revoked);
+    await expect(signOutAction()).rejects.toMatchObject({ digest: expect.stringMatching(/^NEXT_REDIRECT/) });
+    // … and at the API's.
+    expect((await sessionDelete(withCookie(revoked, { method: "DELETE" }), ctx)).status).toBe(401);
+    expect((await findUserById({ id: u.id }))!.sessionVersion).toBe(version);
+    expect(await statusWith(current)).toBe(200);
+    expect(await ownerDb()("audit_log").where({ action: "sign-out", entity_id: String(u.id) }).count({ n: "*" }).first()).toMatchObject({ n: 1 });
+  });
+
   it("deactivation refuses old cookies, and reactivation does not bring them back", async () => {
     const u = await makeUser({ roles: ["clerk"] });
     const sealed = await signInByApi(u.email);

@@ -16,6 +16,7 @@ import { InsightsCharts } from "./_components/insights-charts";
 import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import { isoDateIn, localDayRange } from "@/domain/dates/zone";
 import { addDays } from "@/domain/dates/civil";
+import { parseId } from "@/domain/form-fields";
 
 export const dynamic = "force-dynamic";
 
@@ -28,7 +29,10 @@ export default async function InsightsPage({ searchParams }: { searchParams: Pro
   const params = await searchParams;
   const one = (v: string | string[] | undefined) => (Array.isArray(v) ? v[0] : v);
   const weeks = PERIODS.find((p) => String(p) === one(params.weeks)) ?? 12;
-  const jobId = Number(one(params.job)) || undefined;
+  const jobText = one(params.job)?.trim() ?? "";
+  // A job filter that is not a job id (1e309, hex, a fraction) is shown as refused, never queried.
+  const jobId = parseId(jobText) ?? undefined;
+  const badJob = jobText !== "" && jobId === undefined;
   // The period is whole local days in the organisation's zone, ending with today.
   const timeZone = await organisationTimeZone();
   const today = isoDateIn(new Date(), timeZone);
@@ -76,6 +80,11 @@ export default async function InsightsPage({ searchParams }: { searchParams: Pro
           Show
         </button>
       </form>
+      {badJob ? (
+        <p role="alert" className="rounded-md border-2 border-fail bg-fail-light p-3 font-semibold text-fail">
+          The job in the address is not a job on file; showing every job.
+        </p>
+      ) : null}
       <p>
         <TimeDisplay at={from} precision="date" /> to <TimeDisplay at={to.getTime() - 1} precision="date" />: <strong>{summary.joints}</strong> joints, first-pass yield{" "}
         <strong>{summary.joints ? `${summary.yieldPct} %` : "—"}</strong>, {summary.outOfLimits} out of limits, {summary.cutOut} cut out, {summary.pending} waiting for review.

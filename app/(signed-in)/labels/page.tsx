@@ -12,14 +12,15 @@ import { coilLabelSvg, jointLabelSvg, stockOrDefault } from "@/app/_server/label
 import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import { PrintLabelsButton } from "./_components/print-button";
 import { FieldShell } from "@/components/form/field-shell";
+import { parseDecimal, parseId } from "@/domain/form-fields";
 
 export const dynamic = "force-dynamic";
 
 const MAX_LABELS = 500;
 
-function idsFrom(value: string | string[] | undefined): number[] {
+function idsFrom(value: string | string[] | undefined, kind: "coil" | "joint"): number[] {
   const parts = (Array.isArray(value) ? value : [value ?? ""]).flatMap((v) => v.split(","));
-  return [...new Set(parts.map((p) => Number(p.trim())).filter((n) => Number.isInteger(n) && n > 0))].slice(0, MAX_LABELS);
+  return [...new Set(parts.map((p) => parseId(p, kind === "joint" ? "bigint" : "int")).filter((n): n is number => n !== null))].slice(0, MAX_LABELS);
 }
 
 // Label print page: coil labels or joint tags laid out on A4 or US Letter label sheets.
@@ -28,13 +29,13 @@ export default async function LabelsPage({ searchParams }: { searchParams: Promi
   const params = await searchParams;
   const kind = params.kind === "joint" ? "joint" : "coil";
   if (kind === "coil" && !can(user, "printLabels")) notFound();
-  const ids = idsFrom(params.ids);
+  const ids = idsFrom(params.ids, kind);
   const system = user.unitSystem;
   const stock = stockOrDefault(typeof params.stock === "string" ? params.stock : null, system);
   // Paper: as chosen, else the organisation's (Letter in the US, A4 elsewhere); a chosen label size brings its own sheet.
   const sheetId: SheetId = SHEET_IDS.includes(params.sheet as SheetId) ? (params.sheet as SheetId) : typeof params.stock === "string" ? stock.usualSheet : labelPaperFor({ unitSystem: system });
   const sheet = SHEETS[sheetId];
-  const skip = Math.max(0, Math.floor(Number(params.skip) || 0));
+
   const baseUrl = publicBaseUrl(await headers());
 
   let labels: { key: string; svg: string; name: string }[] = [];
@@ -50,6 +51,11 @@ export default async function LabelsPage({ searchParams }: { searchParams: Promi
     labels = joints.map((j) => ({ key: `j${j.id}`, ...jointLabelSvg(j, { baseUrl, stock, timeZone, standalone: false }) }));
   }
   const layout = layoutSheet(sheet, stock);
+  // Labels already used on the first sheet: a whole number below the sheet's count; anything else is refused with a message and taken as 0.
+  const skipText = typeof params.skip === "string" ? params.skip.trim() : "";
+  const skipNumber = skipText === "" ? 0 : parseDecimal(skipText);
+  const skipOk = Number.isInteger(skipNumber) && skipNumber >= 0 && skipNumber < Math.max(1, layout.perSheet);
+  const skip = skipOk ? skipNumber : 0;
   const placed = placeLabels(layout, labels.length, skip);
   const pages = Array.from({ length: placed.pages }, (_, page) => placed.slots.filter((s) => s.page === page));
   const mm = (n: number) => `${n.toFixed(2)}mm`;
@@ -112,6 +118,11 @@ export default async function LabelsPage({ searchParams }: { searchParams: Promi
             Quarantined: {quarantined.join(", ")}. {quarantined.length === 1 ? "Its label says" : "Their labels say"} “{QUARANTINED_LABEL_WARNING}”; pipe from {quarantined.length === 1 ? "it" : "them"} must not be laid.
           </p>
         ) : null}
+        {skipOk ? null : (
+          <p role="alert">
+            Labels already used on the first sheet must be a whole number from 0 to {Math.max(0, layout.perSheet - 1)}; laid out from the first label.
+          </p>
+        )}
         {layout.perSheet === 0 ? <p role="alert">This label size does not fit on {sheet.label}.</p> : null}
         {labels.length === 0 ? (
           <p role="alert">No labels to print: choose {kind === "coil" ? "coils on the Coils screen" : "joints on the Trace screen"}.</p>

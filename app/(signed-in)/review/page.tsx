@@ -1,6 +1,7 @@
 import { requireUser } from "@/app/_lib/page-guard";
 import { findReviewItem, latestJointRevision, listQueueFilterOptions } from "@/database/queries/reviews";
 import { reviewQueueFilterSchema } from "@/domain/review/schemas";
+import { parseId } from "@/domain/form-fields";
 import { PARAMETER_LABELS } from "@/domain/fusion/parameters";
 import { describeFieldErrors, fieldErrorsFromIssues } from "@/domain/result";
 import { ReviewQueue, type Landing, type QueueFilterText } from "./_components/review-queue";
@@ -32,11 +33,11 @@ export default async function ReviewPage({ searchParams }: { searchParams: Promi
   const parsed = reviewQueueFilterSchema.safeParse(raw);
   const filter = parsed.success ? parsed.data : reviewQueueFilterSchema.parse({});
   const linkProblem = parsed.success ? null : `The link's filter was not understood (${describeFieldErrors(fieldErrorsFromIssues(parsed.error.issues), FILTER_LABELS)}); the whole queue is shown.`;
-  const jointId = Number(one(params.joint));
+  const jointId = parseId(one(params.joint), "bigint");
   const [options, page, landing] = await Promise.all([
     listQueueFilterOptions(),
     loadQueuePage(filter, { user }),
-    Number.isSafeInteger(jointId) && jointId > 0 ? landingOf(jointId, user.unitSystem) : Promise.resolve(null),
+    jointId !== null ? landingOf(jointId, user.unitSystem) : Promise.resolve(null),
   ]);
   const text = (v: unknown) => (v === undefined || v === null ? "" : String(v));
   const initialFilter = Object.fromEntries(FILTER_KEYS.map((k) => [k, k === "order" ? filter.order : text(filter[k])])) as QueueFilterText;

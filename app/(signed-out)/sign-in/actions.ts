@@ -6,7 +6,7 @@ import { redirect } from "next/navigation";
 import { signInSchema } from "@/domain/crew/schemas";
 import { AppError, describeFieldErrors, failure, fieldErrorsFromIssues, type ActionResult } from "@/domain/result";
 import { authenticate, clientAddress, signOutUser } from "@/app/_lib/auth";
-import { currentSession } from "@/app/_lib/session";
+import { currentSession, currentUser } from "@/app/_lib/session";
 import { isDatabaseUnavailable } from "@/database/client";
 
 export async function signInAction(raw: unknown): Promise<ActionResult<{ next: string }>> {
@@ -34,7 +34,10 @@ export async function signInAction(raw: unknown): Promise<ActionResult<{ next: s
 
 export async function signOutAction(): Promise<void> {
   const session = await currentSession();
-  if (session.userId) await signOutUser({ userId: session.userId });
+  // Only a live session signs its person out everywhere; a revoked or stale cookie (an older
+  // session version, a deactivated person) is just dropped, so it cannot end a newer session.
+  const user = await currentUser();
+  if (user) await signOutUser({ userId: user.id });
   session.destroy();
   redirect("/sign-in");
 }

@@ -11,6 +11,7 @@ import { insertAuditEntry } from "@/database/queries/audit-log";
 import { putObject } from "@/app/_server/storage/object-store";
 import type { UserRecord } from "@/database/queries/users";
 import { AppError } from "@/domain/result";
+import { readFormLimited } from "@/app/_lib/body";
 
 export const MAX_PHOTO_BYTES = 10 * 1024 * 1024;
 /** Multipart framing around the file (boundaries, headers, the kind field). */
@@ -26,33 +27,6 @@ export const PHOTO_TYPES: Record<string, string> = {
 
 const tooLarge = () => new AppError("too-large", "The photo is larger than 10 MB; take it again at a lower resolution.", { file: ["Larger than 10 MB."] });
 
-/** Reads at most `max` bytes of the body; refuses (413) as soon as it would go over. */
-async function readBodyLimited(request: Request, max: number): Promise<Uint8Array> {
-  const declared = Number(request.headers.get("content-length") ?? "");
-  if (Number.isFinite(declared) && declared > max) throw tooLarge();
-  if (!request.body) return new Uint8Array();
-  const reader = request.body.getReader();
-  const chunks: Uint8Array[] = [];
-  let total = 0;
-  for (;;) {
-    const { done, value } = await reader.read();
-    if (done) break;
-    total += value.byteLength;
-    if (total > max) {
-      await reader.cancel().catch(() => undefined);
-      throw tooLarge();
-    }
-    chunks.push(value);
-  }
-  const out = new Uint8Array(total);
-  let offset = 0;
-  for (const c of chunks) {
-    out.set(c, offset);
-    offset += c.byteLength;
-  }
-  return out;
-}
-
 function safeName(name: string | undefined): string | null {
   if (!name) return null;
   // Shown only: strip any path and control characters.
@@ -67,13 +41,8 @@ export async function uploadBeadPhoto({ request, user, requestId }: { request: R
   if (!/^multipart\/form-data/i.test(contentType)) {
     throw new AppError("bad-request", "Send the photo as multipart/form-data with the file in the field \"file\".", { file: ["Send the photo in a form field named file."] });
   }
-  const raw = await readBodyLimited(request, MAX_PHOTO_BYTES + MULTIPART_OVERHEAD_BYTES);
-  let form: FormData;
-  try {
-    form = await new Response(raw as BodyInit, { headers: { "content-type": contentType } }).formData();
-  } catch {
-    throw new AppError("bad-request", "The upload is not a readable multipart form.", { file: ["Not a readable multipart form."] });
-  }
+  // Counted while it arrives: refused (413) the moment it passes the photo's limit plus the form's framing.
+  const form = await readFormLimited(request, { max: MAX_PHOTO_BYTES + MULTIPART_OVERHEAD_BYTES, what: "photo", field: "file", limitText: "10 MB" }, { message: "The upload is not a readable multipart form.", fields: { file: ["Not a readable multipart form."] } });
   const kind = String(form.get("kind") ?? "bead-photo");
   if (kind !== "bead-photo") throw new AppError("invalid", "Only bead photos can be uploaded here.", { kind: ["Only bead-photo is accepted."] });
   const file = form.get("file");

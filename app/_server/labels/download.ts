@@ -1,11 +1,12 @@
 // Shared by the single-label downloads: the query schema and the file response.
 import "server-only";
 import { z } from "zod";
+import { toNumberInput } from "@/domain/form-fields";
 
 export const labelDownloadSchema = z.object({
   format: z.enum(["png", "svg"], { error: "Format must be png or svg." }).default("png"),
   stock: z.string().max(40).optional(),
-  dpi: z.coerce.number({ error: "dpi must be a number." }).int({ error: "dpi must be a whole number." }).min(72, { error: "dpi must be 72 to 600." }).max(600, { error: "dpi must be 72 to 600." }).default(300),
+  dpi: z.preprocess(toNumberInput, z.number({ error: "dpi must be a number." }).int({ error: "dpi must be a whole number." }).min(72, { error: "dpi must be 72 to 600." }).max(600, { error: "dpi must be 72 to 600." }).default(300)),
 });
 
 /** File names are built from our own ids only; anything else becomes "-". */

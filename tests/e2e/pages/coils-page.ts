@@ -49,6 +49,13 @@ export class CoilPage {
     await this.page.getByRole("link", { name: "Print label" }).click();
     await expect(this.page.getByRole("heading", { name: "Coil labels" })).toBeVisible();
   }
+
+  /** Downloads the label file (the button records the download, then fetches the file); the file's suggested name. */
+  async downloadLabel(format: "PNG" | "SVG"): Promise<string> {
+    const download = this.page.waitForEvent("download");
+    await this.page.getByRole("button", { name: `Download label as ${format}` }).click();
+    return (await download).suggestedFilename();
+  }
 }
 
 export class LabelSheetPage {

@@ -22,6 +22,7 @@ import { coilLabelSvg, stockOrDefault } from "@/app/_server/labels/render";
 import { MoveCoilForm } from "../_components/move-coil-form";
 import { NextRunCheck } from "../_components/next-run-check";
 import { SectionCard } from "@/components/ui/section-card";
+import { LabelDownloadButton } from "../_components/label-download";
 
 export const dynamic = "force-dynamic";
 
@@ -37,12 +38,21 @@ function bendCaution(coil: { outsideDiameterMm: number; sdr: number }, system: U
 
 // The coil page: what the label's QR opens. For a fuser, "Use as side A/B" opens Trench
 // with this coil on that side. Facts, length left, bending caution, status moves, history.
+/** The `[code]` segment as typed: a stray "%" that is not an escape is kept as it is (no URIError, no 500). */
+function decodedSegment(code: string): string {
+  try {
+    return decodeURIComponent(code);
+  } catch {
+    return code;
+  }
+}
+
 export default async function CoilPage({ params, searchParams }: { params: Promise<{ code: string }>; searchParams: Promise<Record<string, string | undefined>> }) {
   const user = await requireUser(); // any signed-in person may open a coil (as GET /api/v1/coils/:id)
   const timeZone = await organisationTimeZone();
   const { code } = await params;
   const query = await searchParams;
-  const coil = await findCoilByCode({ coilCode: decodeURIComponent(code) });
+  const coil = await findCoilByCode({ coilCode: decodedSegment(code) });
   if (!coil) notFound();
   const canMove = can(user, "moveCoils");
   const canTrace = can(user, "traceLots");
@@ -175,12 +185,8 @@ export default async function CoilPage({ params, searchParams }: { params: Promi
             <Link href={`/labels?kind=coil&ids=${coil.id}`} className="inline-flex min-h-touch items-center rounded-md bg-brand px-4 font-semibold text-white hover:bg-brand-dark">
               Print label
             </Link>
-            <a href={`/api/v1/labels/coils/${coil.id}?format=png`} download className="inline-flex min-h-touch items-center rounded-md border-2 border-brand bg-white px-4 font-semibold text-brand">
-              Download label as PNG
-            </a>
-            <a href={`/api/v1/labels/coils/${coil.id}?format=svg`} download className="inline-flex min-h-touch items-center rounded-md border-2 border-brand bg-white px-4 font-semibold text-brand">
-              Download label as SVG
-            </a>
+            <LabelDownloadButton coilId={coil.id} format="png" />
+            <LabelDownloadButton coilId={coil.id} format="svg" />
             {canTrace ? (
               <Link href={`/trace?code=${encodeURIComponent(coil.coilCode)}`} className="inline-flex min-h-touch items-center rounded-md border-2 border-brand bg-white px-4 font-semibold text-brand">
                 Trace this lot

@@ -1,7 +1,7 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
-import { requireUser } from "@/app/_lib/page-guard";
+import { requirePageId, requireUser } from "@/app/_lib/page-guard";
 import { listAttachmentsForJoint } from "@/database/queries/attachments";
 import { findJointById, listJointRevisions, listOverrideUsesForJoint, type JointRecord } from "@/database/queries/joints";
 import { JOINT_KIND_LABELS, SHELTER_LABELS, type TimedPhase } from "@/domain/joints/schemas";
@@ -47,9 +47,8 @@ function timedMark(joint: JointRecord, phase: TimedPhase, value: number | null):
 // against, its revisions and review state, and the joint it replaces / was replaced by.
 export default async function JointPage({ params }: Params) {
   const user = await requireUser();
-  const { id: raw } = await params;
-  if (!/^\d{1,15}$/.test(raw)) notFound();
-  const joint = await findJointById({ id: Number(raw) });
+  const id = await requirePageId(params, "bigint");
+  const joint = await findJointById({ id });
   if (!joint) notFound();
   const [revisions, photos, overrides] = await Promise.all([listJointRevisions({ jointId: joint.id }), listAttachmentsForJoint({ jointId: joint.id }), listOverrideUsesForJoint({ jointId: joint.id })]);
   const system = user.unitSystem;

@@ -8,6 +8,7 @@ import { findCoilByCodeOrTrace, listCoils } from "@/database/queries/coils";
 import { COIL_STATUSES } from "@/domain/coils/statuses";
 import { RECEIVE_COIL_LABELS, receiveCoilSchema } from "@/domain/coils/schemas";
 import { can } from "@/domain/roles";
+import { optionalNumber } from "@/domain/form-fields";
 import { z } from "zod";
 
 export const dynamic = "force-dynamic";
@@ -16,7 +17,7 @@ const lookupSchema = z.object({
   code: z.string().trim().max(300, { error: "Code is too long." }).optional(),
   status: z.enum(["all", ...COIL_STATUSES], { error: "Unknown status." }).default("all"),
   q: z.string().trim().max(100).optional(),
-  limit: z.coerce.number().int().min(1).max(1000).default(200),
+  limit: optionalNumber("limit", { integer: true, min: 1, max: 1000 }).transform((v) => v ?? 200),
 });
 
 export const GET = defineRoute({ permission: "signed-in", schema: lookupSchema, input: "query" }, async (input, { user }) => {

@@ -4,6 +4,7 @@ import { getIronSession } from "iron-session";
 import { signInSchema } from "@/domain/crew/schemas";
 import { AppError, describeFieldErrors, fieldErrorsFromIssues } from "@/domain/result";
 import { authenticate, clientAddress, signOutUser } from "@/app/_lib/auth";
+import { BODY_LIMITS, readJsonLimited } from "@/app/_lib/body";
 import { defineRoute, errorResponse, isCrossOrigin } from "@/app/_lib/guard";
 import { sessionOptions, type SessionData } from "@/app/_lib/session";
 import { isDatabaseUnavailable } from "@/database/client";
@@ -14,9 +15,10 @@ export async function POST(request: Request): Promise<Response> {
   if (isCrossOrigin(request)) return errorResponse("forbidden", "Cross-site request refused."); // login CSRF
   let raw: unknown;
   try {
-    raw = await request.json();
-  } catch {
-    return errorResponse("bad-request", "The request body is not valid JSON.", { _body: ["The request body is not valid JSON."] });
+    raw = await readJsonLimited(request, { max: BODY_LIMITS.signIn }); // counted as it arrives: 413 past the limit
+  } catch (error) {
+    if (error instanceof AppError) return errorResponse(error.code, error.message, error.fields, error.code === "too-large" ? { connection: "close" } : undefined);
+    return errorResponse("bad-request", "The request body could not be read."); // the caller hung up while sending
   }
   const parsed = signInSchema.safeParse(raw);
   if (!parsed.success) {

@@ -1,6 +1,6 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
-import { requireUser } from "@/app/_lib/page-guard";
+import { requirePageId, requireUser } from "@/app/_lib/page-guard";
 import type { Coil } from "@/database/queries/coils";
 import { DAMAGE_LABELS } from "@/domain/coils/life";
 import { describeSize } from "@/domain/labels/label";
@@ -61,9 +61,7 @@ function Component({ title, coil, text, lengthM, system }: { title: string; coil
 export default async function JointOriginsPage({ params }: { params: Promise<{ id: string }> }) {
   const user = await requireUser("traceLots");
   const timeZone = await organisationTimeZone();
-  const { id } = await params;
-  const jointId = Number(id);
-  if (!Number.isInteger(jointId) || jointId <= 0) notFound();
+  const jointId = await requirePageId(params, "bigint");
   const o = await traceJointOrigins(jointId);
   if (!o) notFound();
   const system = user.unitSystem;

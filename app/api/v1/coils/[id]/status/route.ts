@@ -10,7 +10,7 @@ export const dynamic = "force-dynamic";
 
 const bodySchema = moveCoilSchema.omit({ coilId: true });
 
-export const POST = defineRoute({ permission: "moveCoils", params: idParams("No such coil."), schema: bodySchema, input: "json" }, async (input, { params: { id }, user, requestId }) => {
+export const POST = defineRoute({ permission: "moveCoils", params: idParams("No such coil.", "int"), schema: bodySchema, input: "json" }, async (input, { params: { id }, user, requestId }) => {
   const moved = await moveCoil({ ...input, coilId: id }, { user, requestId });
   return Response.json({ coil: moved });
 });
