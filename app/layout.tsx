@@ -1,5 +1,6 @@
 import type { Metadata, Viewport } from "next";
 import localFont from "next/font/local";
+import { connection } from "next/server";
 import "./globals.css";
 
 // Inter ships with the app (from @fontsource/inter, licence in app/fonts/): nothing is fetched.
@@ -20,7 +21,11 @@ export const metadata: Metadata = {
 
 export const viewport: Viewport = { width: "device-width", initialScale: 1, themeColor: "#0b4f6c" };
 
-export default function RootLayout({ children }: { children: React.ReactNode }) {
+// Every page renders per request: the Content-Security-Policy's nonce (proxy.ts) is new on
+// each answer and Next.js puts it on the page's scripts, which a page built ahead of time
+// could not carry.
+export default async function RootLayout({ children }: { children: React.ReactNode }) {
+  await connection();
   return (
     <html lang="en" className={inter.variable}>
       <body className="min-h-screen font-sans">{children}</body>
