@@ -28,12 +28,12 @@ export async function POST(request: Request): Promise<Response> {
     const device = cookieFromHeader(request.headers.get("cookie"), DEVICE_COOKIE);
     const user = await authenticate({ ...parsed.data, address: clientAddress(request.headers), device });
     const response = Response.json({ user: { id: user.id, name: user.name, email: user.email, roles: user.roles, unitSystem: user.unitSystem } });
-    response.headers.append("set-cookie", deviceCookieHeader(deviceCookieAfterSignIn(device, user.id)));
     const session = await getIronSession<SessionData>(request, response, sessionOptions());
     session.userId = user.id;
     session.sessionVersion = user.sessionVersion;
     session.issuedAt = Date.now();
     await session.save();
+    response.headers.append("set-cookie", deviceCookieHeader(deviceCookieAfterSignIn(device, user.id)));
     return response;
   } catch (error) {
     if (error instanceof AppError) return errorResponse(error.code, error.message);
