@@ -2,9 +2,9 @@
 import { createHash } from "node:crypto";
 import bcrypt from "bcryptjs";
 import { insertAuditEntry } from "@/database/queries/audit-log";
-import { forgetFailures, recordFailure, startWait, waitLeft } from "@/database/queries/sign-in-attempts";
+import { forgetFailures, recordFailure, refundFailure, startWait, takeTurn, waitLeft } from "@/database/queries/sign-in-attempts";
 import { bumpSessionVersion, findUserCredentialsByEmail, type UserRecord } from "@/database/queries/users";
-import { FAILURE_MEMORY_S, delayAfterFailures, waitInWords, type ThrottleCounter } from "@/domain/crew/throttle";
+import { FAILURE_MEMORY_S, FIRST_DELAY_S, FREE_FAILURES, delayAfterFailures, waitInWords, type ThrottleCounter } from "@/domain/crew/throttle";
 import { AppError } from "@/domain/result";
 import { trustedDeviceFor } from "./device-cookie";
 
@@ -55,8 +55,8 @@ function countersFor({ email, address, deviceId }: { email: string; address: str
 /**
  * Checks the credentials with throttling (domain/crew/throttle.ts): while a counter of this
  * attempt waits, the password is not checked and the answer says how long to wait; every
- * failure counts on each counter and may start a longer wait. `device` is the device
- * cookie's value, if the browser sent one.
+ * checked attempt counts on each counter and may start a longer wait (taken back when it
+ * succeeds). `device` is the device cookie's value, if the browser sent one.
  */
 export async function authenticate({ email, password, address, device, requestId }: { email: string; password: string; address: string; device?: string | null; requestId?: string }): Promise<UserRecord> {
   const user = await findUserCredentialsByEmail({ email });
@@ -68,18 +68,32 @@ export async function authenticate({ email, password, address, device, requestId
     await insertAuditEntry({ actorUserId: user?.id ?? null, action: "sign-in-throttled", entityType: "user", entityId: user?.id ?? null, details: { email, address, trustedDevice: Boolean(deviceId), waitMs: wait }, requestId });
     throw new AppError("throttled", `Too many failed sign-ins. Wait ${waitInWords(wait)} and try again, or sign in from a device you have used Beadline on before.`);
   }
+  // Every attempt counts as a failure before the password is checked (atomic increments, so
+  // attempts sent side by side each get their own count). Past the free failures a counter
+  // lets one attempt at a time through: the others are refused and take their count back.
+  const counted: { c: Counter; failures: number; heldTurn: boolean }[] = [];
+  for (const c of counters) counted.push({ c, failures: await recordFailure({ key: c.key, memoryS: FAILURE_MEMORY_S }), heldTurn: false });
+  for (const entry of counted) {
+    if (entry.failures <= FREE_FAILURES[entry.c.kind]) continue;
+    entry.heldTurn = await takeTurn({ key: entry.c.key, memoryS: FAILURE_MEMORY_S });
+    if (!entry.heldTurn) {
+      for (const e of counted) await refundFailure({ key: e.c.key, memoryS: FAILURE_MEMORY_S, heldTurn: e.heldTurn });
+      await insertAuditEntry({ actorUserId: user?.id ?? null, action: "sign-in-throttled", entityType: "user", entityId: user?.id ?? null, details: { email, address, trustedDevice: Boolean(deviceId) }, requestId });
+      throw new AppError("throttled", `Too many failed sign-ins. Wait ${waitInWords(FIRST_DELAY_S * 1000)} and try again, or sign in from a device you have used Beadline on before.`);
+    }
+  }
   const matches = await bcrypt.compare(password, user?.passwordHash ?? DUMMY_HASH);
   if (!user || !matches || !user.isActive) {
-    for (const c of counters) {
-      const failures = await recordFailure({ key: c.key, memoryS: FAILURE_MEMORY_S });
-      await startWait({ key: c.key, memoryS: FAILURE_MEMORY_S, seconds: delayAfterFailures(failures, c.kind) });
-    }
+    for (const { c, failures } of counted) await startWait({ key: c.key, memoryS: FAILURE_MEMORY_S, seconds: delayAfterFailures(failures, c.kind) });
     await insertAuditEntry({ actorUserId: user?.id ?? null, action: "sign-in-failed", entityType: "user", entityId: user?.id ?? null, details: { email, address, trustedDevice: Boolean(deviceId) }, requestId });
     throw new AppError("unauthenticated", GENERIC_FAILURE);
   }
-  // The right password: this client's own counters start again (an address's count of
-  // failures across accounts stays: one success does not excuse spraying).
-  for (const c of counters) if (c.kind !== "address") await forgetFailures({ key: c.key, memoryS: FAILURE_MEMORY_S });
+  // The right password: this client's own counters start again; an address keeps its other
+  // failures across accounts (one success does not excuse spraying), less this attempt.
+  for (const { c, heldTurn } of counted) {
+    if (c.kind === "address") await refundFailure({ key: c.key, memoryS: FAILURE_MEMORY_S, heldTurn });
+    else await forgetFailures({ key: c.key, memoryS: FAILURE_MEMORY_S });
+  }
   await insertAuditEntry({ actorUserId: user.id, action: "sign-in", entityType: "user", entityId: user.id, details: { address, trustedDevice: Boolean(deviceId) }, requestId });
   const { passwordHash: _omit, ...rest } = user;
   return rest;

@@ -2,13 +2,16 @@
 // share them: rate-limiter-flexible's MySQL store on the app's knex pool, in the table
 // sign_in_limits (made by migration 20261202003100; the store is told tableCreated). Two
 // kinds of row per counter key: "fail:<key>" counts failures for FAILURE_MEMORY_S from the
-// first, "wait:<key>" holds the time before which the next attempt is not checked. Keys are
+// first, "wait:<key>" holds the time before which the next attempt is not checked, or the
+// turn of the one attempt being checked past the free failures. Keys are
 // opaque (the caller hashes e-mails); the rule (how long to wait) is domain/crew/throttle.ts.
 import type { Knex } from "knex";
 import { RateLimiterMySQL } from "rate-limiter-flexible";
 import { db } from "../client";
 
 const TABLE = "sign_in_limits";
+/** How long a turn taken past the free failures is held while its password is checked. */
+const TURN_S = 60;
 /** Far more than any count of failures: the failure counter never refuses by itself. */
 const UNLIMITED = 2_000_000_000;
 
@@ -31,7 +34,7 @@ function limiters(memoryS: number): Limiters {
     const common = { storeClient: k, storeType: "knex", dbName: databaseName(), tableName: TABLE, tableCreated: true };
     pair = {
       failures: new RateLimiterMySQL({ ...common, keyPrefix: "fail", points: UNLIMITED, duration: memoryS }),
-      waits: new RateLimiterMySQL({ ...common, keyPrefix: "wait", points: 1, duration: memoryS }),
+      waits: new RateLimiterMySQL({ ...common, keyPrefix: "wait", points: 1, duration: TURN_S }),
     };
     forPool.set(memoryS, pair);
   }
@@ -44,6 +47,21 @@ export async function waitLeft({ key, memoryS }: { key: string; memoryS: number 
   return res && res.consumedPoints > 1 && res.msBeforeNext > 0 ? res.msBeforeNext : 0;
 }
 
+/**
+ * Takes `key`'s one turn (atomic: of attempts sent side by side only one gets it); false while
+ * another attempt holds it or a wait runs. The turn ends with startWait, or with
+ * refundFailure/forgetFailures.
+ */
+export async function takeTurn({ key, memoryS }: { key: string; memoryS: number }): Promise<boolean> {
+  try {
+    await limiters(memoryS).waits.consume(key, 1);
+    return true;
+  } catch (refused) {
+    if (refused instanceof Error) throw refused;
+    return false;
+  }
+}
+
 /** Counts one failure for `key`; returns the failures remembered (this one included). */
 export async function recordFailure({ key, memoryS }: { key: string; memoryS: number }): Promise<number> {
   const res = await limiters(memoryS).failures.penalty(key, 1);
@@ -53,6 +71,12 @@ export async function recordFailure({ key, memoryS }: { key: string; memoryS: nu
 /** Makes `key` wait `seconds` before its next attempt is checked. */
 export async function startWait({ key, memoryS, seconds }: { key: string; memoryS: number; seconds: number }): Promise<void> {
   if (seconds > 0) await limiters(memoryS).waits.block(key, seconds);
+}
+
+/** Takes back one counted failure of `key`, and gives back its turn when the attempt held it. */
+export async function refundFailure({ key, memoryS, heldTurn }: { key: string; memoryS: number; heldTurn: boolean }): Promise<void> {
+  const { failures, waits } = limiters(memoryS);
+  await Promise.all([failures.reward(key, 1), heldTurn ? waits.delete(key) : Promise.resolve(false)]);
 }
 
 /** Forgets `key`'s failures and wait (after a successful sign-in). */

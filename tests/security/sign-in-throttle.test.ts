@@ -82,6 +82,19 @@ describe("sign-in throttling against the database", () => {
     expect(await ownerDb()("audit_log").where({ action: "sign-in-throttled" }).count({ n: "*" }).first()).toMatchObject({ n: 1 });
   });
 
+  it("lets only one of several attempts sent side by side past the free failures be checked", async () => {
+    const u = await makeUser({ roles: ["inspector"] });
+    for (let i = 0; i < FREE_FAILURES.account; i++) await recordFailure({ key: throttleKey("account", u.email), memoryS: FAILURE_MEMORY_S });
+    const results = await Promise.allSettled(
+      Array.from({ length: 4 }, (_, i) => authenticate({ email: u.email, password: `burst-${i}-password`, address: `198.51.100.${100 + i}` })),
+    );
+    const codes = results.map((r) => (r.status === "rejected" ? (r.reason as { code: string }).code : "signed-in")).sort();
+    expect(codes).toEqual(["throttled", "throttled", "throttled", "unauthenticated"]);
+    // The refused ones took their count back: the next failure after the wait is the seventh.
+    const row = await ownerDb()("sign_in_limits").where({ key: `fail:${throttleKey("account", u.email)}` }).first("points");
+    expect(row.points).toBe(FREE_FAILURES.account + 1);
+  });
+
   it("keeps counting one socket's failures however X-Forwarded-For is rotated (no trusted proxy)", async () => {
     const target = await makeUser({ roles: ["clerk"] });
     // The socket already failed past its free failures (16 s of wait after the next failure:
