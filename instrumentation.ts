@@ -1,4 +1,5 @@
-// Next.js start-up hook: checks the session secret, then each Node.js server process runs the mail worker (outbox sender
+// Next.js start-up hook: stamps every request with its socket's address (the sign-in limit per
+// address, app/_lib/client-address.ts), checks the session secret, then each Node.js server process runs the mail worker (outbox sender
 // every MAIL_SEND_INTERVAL_MS, alert scan every MAIL_SCAN_INTERVAL_MS). Not during
 // `next build`, not in the edge runtime, and not when MAIL_WORKER=off (e.g. a web-only
 // instance when a separate process sends the mail).
@@ -10,6 +11,8 @@ export async function register(): Promise<void> {
     console.error("Beadline: SESSION_SECRET must be set to at least 32 characters; refusing to start.");
     process.exit(1);
   }
+  const { installPeerAddressStamp } = await import("./app/_lib/client-address");
+  installPeerAddressStamp();
   if (process.env.MAIL_WORKER === "off") return;
   const [{ startMailWorker }, { logger }] = await Promise.all([import("./app/_server/mail/worker"), import("./app/_lib/log")]);
   startMailWorker({ log: logger.child({ part: "mail-worker" }) });

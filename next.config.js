@@ -1,25 +1,12 @@
 // Beadline's Next.js configuration. Database and spreadsheet packages stay outside
 // the server bundle (knex's optional dialects would otherwise break the build).
+const { attachmentPolicy, staticPolicy } = require("./security-policy.js");
+
 const isProduction = process.env.NODE_ENV === "production";
 
-/** Security headers for every response; CSP allows no eval in production. */
+/** Security headers for every response (the Content-Security-Policy is set per path below). */
 function securityHeaders() {
-  const csp = [
-    "default-src 'self'",
-    `script-src 'self' 'unsafe-inline'${isProduction ? "" : " 'unsafe-eval'"}`,
-    "style-src 'self' 'unsafe-inline'",
-    "img-src 'self' data: blob:",
-    "font-src 'self'",
-    "connect-src 'self'",
-    "media-src 'self' blob:",
-    "worker-src 'self' blob:",
-    "frame-ancestors 'none'",
-    "base-uri 'self'",
-    "form-action 'self'",
-    "object-src 'none'",
-  ].join("; ");
   const headers = [
-    { key: "Content-Security-Policy", value: csp },
     { key: "X-Content-Type-Options", value: "nosniff" },
     { key: "Referrer-Policy", value: "same-origin" },
     { key: "X-Frame-Options", value: "DENY" },
@@ -34,6 +21,20 @@ function securityHeaders() {
   return headers;
 }
 
+/**
+ * Content-Security-Policy by path (security-policy.js). A header set here wins over the same
+ * header set by a route handler (Next adds a handler's header only when it is not already
+ * there), and proxy.ts's wins over this one. So: the attachment download gets its sandbox
+ * policy here (and in its route), every other answer the strict static policy, and proxy.ts
+ * replaces that with the nonce policy on pages.
+ */
+function contentSecurityPolicies() {
+  return [
+    { source: "/:path((?!api/v1/attachments/).*)", headers: [{ key: "Content-Security-Policy", value: staticPolicy() }] },
+    { source: "/api/v1/attachments/:rest+", headers: [{ key: "Content-Security-Policy", value: attachmentPolicy() }] },
+  ];
+}
+
 /** @type {import('next').NextConfig} */
 const nextConfig = {
   distDir: process.env.BEADLINE_DIST_DIR || ".next",
@@ -45,7 +46,7 @@ const nextConfig = {
   serverExternalPackages: ["knex", "mysql2", "exceljs", "pino", "nodemailer", "@aws-sdk/client-s3", "esbuild"],
   experimental: { serverActions: { bodySizeLimit: "12mb" } },
   async headers() {
-    return [{ source: "/:path*", headers: securityHeaders() }];
+    return [{ source: "/:path*", headers: securityHeaders() }, ...contentSecurityPolicies()];
   },
 };
 

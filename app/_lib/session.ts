@@ -19,7 +19,7 @@ export function sessionSecret(): string {
 }
 
 /** Secure cookies whenever the public address is https (production default). */
-function secureCookies(): boolean {
+export function secureCookies(): boolean {
   const url = process.env.BEADLINE_PUBLIC_URL;
   if (url) return url.startsWith("https:");
   return process.env.NODE_ENV === "production";

@@ -3,8 +3,9 @@ import type { Metadata } from "next";
 export const metadata: Metadata = { title: "No signal" };
 
 // Shown by the service worker (app/sw.ts) for a page that needs a connection when there is
-// none. Static: it carries nobody's data. Plain links, so the browser asks the service worker
-// for the Trench page it keeps.
+// none. It carries nobody's data (rendered per request only for its script nonce, like every
+// page; the worker keeps the header and HTML of one answer together). Plain links, so the
+// browser asks the service worker for the Trench page it keeps.
 export default function OfflinePage() {
   return (
     <main className="mx-auto flex min-h-screen max-w-md flex-col justify-center gap-4 p-6">

@@ -29,3 +29,29 @@ test("a wrong password gets one generic message and no session", async ({ page }
   await page.goto("/");
   await expect(page).toHaveURL(/\/sign-in/);
 });
+
+// source: OWASP Unvalidated Redirects and Forwards Cheat Sheet; WHATWG URL Standard (a
+// backslash is a slash in http URLs, tabs are removed, "//" starts a host). The two forms the
+// attack run used: after a correct sign-in the browser must still be on Beadline.
+for (const hostile of ["/%5C127.0.0.1:3199/phish", "/%09/127.0.0.1:3199/phish", "//127.0.0.1:3199/phish", "https://127.0.0.1:3199/phish"]) {
+  test(`signing in with next=${hostile} stays on Beadline`, async ({ page, baseURL }) => {
+    await page.goto(`/sign-in?next=${hostile}`);
+    await page.getByLabel("E-mail").fill("clerk@larkmoor-gas.example");
+    await page.getByLabel("Password").fill("beadline-demo-2026");
+    await page.getByRole("button", { name: "Sign in" }).click();
+    await expect(page.getByRole("button", { name: "Sign out" })).toBeVisible();
+    expect(new URL(page.url()).origin).toBe(new URL(baseURL!).origin);
+    expect(new URL(page.url()).pathname).toBe("/");
+    await new SignInPage(page).signOut();
+  });
+}
+
+test("a same-origin next is followed after signing in", async ({ page }) => {
+  await page.goto("/register");
+  await expect(page).toHaveURL(/\/sign-in\?next=%2Fregister/);
+  await page.getByLabel("E-mail").fill("clerk@larkmoor-gas.example");
+  await page.getByLabel("Password").fill("beadline-demo-2026");
+  await page.getByRole("button", { name: "Sign in" }).click();
+  await expect(page).toHaveURL(/\/register$/);
+  await new SignInPage(page).signOut();
+});

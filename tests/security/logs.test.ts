@@ -90,7 +90,7 @@ describe("structured logs", () => {
     await signInAction({ email: u.email, password: "wrong-but-long-password-1" });
     await signInAction({ email: u.email, password: TEST_PASSWORD });
     const res = await sessionPost(await requestAs(null, "/api/v1/session", { json: { email: u.email, password: TEST_PASSWORD } }));
-    const sealed = decodeURIComponent((res.headers.get("set-cookie") ?? "").split(";")[0].split("=").slice(1).join("="));
+    const sealed = decodeURIComponent((res.headers.getSetCookie().find((c) => c.startsWith(`${SESSION_COOKIE}=`)) ?? "").split(";")[0].split("=").slice(1).join("="));
     expect(sealed.length).toBeGreaterThan(20);
     const cookie = `${SESSION_COOKIE}=${encodeURIComponent(sealed)}`;
 

@@ -16,6 +16,11 @@ import { testRequestState } from "../support/request-state";
 
 const ctx = { params: Promise.resolve({}) };
 
+/** The session cookie's Set-Cookie header among an answer's (sign-in also sets the device cookie). */
+function sessionSetCookie(res: Response): string | null {
+  return res.headers.getSetCookie().find((c) => c.startsWith(`${SESSION_COOKIE}=`)) ?? null;
+}
+
 /** The session cookie's value and attributes from a Set-Cookie header. */
 function parseSetCookie(header: string | null): { value: string; attrs: string[] } {
   expect(header, "a Set-Cookie header").toBeTruthy();
@@ -28,7 +33,7 @@ function parseSetCookie(header: string | null): { value: string; attrs: string[]
 async function signInByApi(email: string, extraHeaders: Record<string, string> = {}): Promise<string> {
   const res = await sessionPost(await requestAs(null, "/api/v1/session", { json: { email, password: TEST_PASSWORD }, headers: extraHeaders }));
   expect(res.status).toBe(200);
-  return parseSetCookie(res.headers.get("set-cookie")).value;
+  return parseSetCookie(sessionSetCookie(res)).value;
 }
 
 function withCookie(value: string, init: { method?: string; headers?: Record<string, string> } = {}): Request {
@@ -51,7 +56,7 @@ describe("session cookie flags", () => {
     const u = await makeUser({ roles: ["fuser"] });
     process.env.BEADLINE_PUBLIC_URL = "https://beadline.larkmoor-gas.example";
     const secure = await sessionPost(await requestAs(null, "/api/v1/session", { json: { email: u.email, password: TEST_PASSWORD } }));
-    const { attrs } = parseSetCookie(secure.headers.get("set-cookie"));
+    const { attrs } = parseSetCookie(sessionSetCookie(secure));
     expect(attrs).toContain("httponly");
     expect(attrs).toContain("samesite=lax");
     expect(attrs).toContain("secure");
@@ -64,7 +69,7 @@ describe("session cookie flags", () => {
     const u = await makeUser({ roles: ["fuser"] });
     process.env.BEADLINE_PUBLIC_URL = "http://127.0.0.1:3000";
     const res = await sessionPost(await requestAs(null, "/api/v1/session", { json: { email: u.email, password: TEST_PASSWORD } }));
-    expect(parseSetCookie(res.headers.get("set-cookie")).attrs).not.toContain("secure");
+    expect(parseSetCookie(sessionSetCookie(res)).attrs).not.toContain("secure");
     expect(sessionOptions().cookieOptions?.httpOnly).toBe(true);
   });
 

@@ -1,11 +1,13 @@
 "use server";
 // Sign-in and sign-out server actions. Sign-in is the one action open to signed-out
 // visitors; it seals a brand-new session (no fixation) after the credentials check.
-import { headers } from "next/headers";
+import { cookies, headers } from "next/headers";
 import { redirect } from "next/navigation";
 import { signInSchema } from "@/domain/crew/schemas";
 import { AppError, describeFieldErrors, failure, fieldErrorsFromIssues, type ActionResult } from "@/domain/result";
-import { authenticate, clientAddress, signOutUser } from "@/app/_lib/auth";
+import { appOrigin, authenticate, clientAddress, signOutUser } from "@/app/_lib/auth";
+import { DEVICE_COOKIE, deviceCookieAfterSignIn, deviceCookieOptions } from "@/app/_lib/device-cookie";
+import { safeNextPath } from "@/domain/crew/next-path";
 import { currentSession, currentUser } from "@/app/_lib/session";
 import { isDatabaseUnavailable } from "@/database/client";
 
@@ -16,14 +18,17 @@ export async function signInAction(raw: unknown): Promise<ActionResult<{ next: s
     return failure("invalid", describeFieldErrors(fields), fields);
   }
   try {
-    const user = await authenticate({ ...parsed.data, address: clientAddress(await headers()) });
+    const jar = await cookies();
+    const device = jar.get(DEVICE_COOKIE)?.value ?? null;
+    const user = await authenticate({ ...parsed.data, address: clientAddress(await headers()), device });
+    jar.set(DEVICE_COOKIE, deviceCookieAfterSignIn(device, user.id), deviceCookieOptions());
     const session = await currentSession();
     session.destroy();
     session.userId = user.id;
     session.sessionVersion = user.sessionVersion;
     session.issuedAt = Date.now();
     await session.save();
-    const next = typeof (raw as { next?: unknown })?.next === "string" && /^\/(?!\/)/.test((raw as { next: string }).next) ? (raw as { next: string }).next : "/";
+    const next = safeNextPath((raw as { next?: unknown } | null)?.next, appOrigin());
     return { ok: true, data: { next } };
   } catch (error) {
     if (error instanceof AppError) return failure(error.code, error.message);

@@ -1,11 +1,13 @@
 import type { Metadata } from "next";
+import { safeNextPath } from "@/domain/crew/next-path";
+import { appOrigin } from "@/app/_lib/auth";
 import { SignInForm } from "./_components/sign-in-form";
 
 export const metadata: Metadata = { title: "Sign in" };
 
 export default async function SignInPage({ searchParams }: { searchParams: Promise<{ next?: string }> }) {
   const { next } = await searchParams;
-  const safeNext = next && /^\/(?!\/)/.test(next) ? next : "/";
+  const safeNext = safeNextPath(next, appOrigin());
   return (
     <main className="mx-auto flex min-h-screen max-w-md flex-col justify-center gap-6 p-6">
       <div>

@@ -5,6 +5,7 @@ import { useForm } from "react-hook-form";
 import type { z } from "zod";
 import { Field, FormMessage } from "@/components/form/field";
 import { Button } from "@/components/ui/button";
+import { safeNextPath } from "@/domain/crew/next-path";
 import { signInSchema } from "@/domain/crew/schemas";
 import { signInAction } from "../actions";
 
@@ -17,7 +18,8 @@ export function SignInForm({ next }: { next: string }) {
   const onSubmit = handleSubmit(async (values) => {
     setMessage(null);
     const result = await signInAction({ ...values, next });
-    if (result.ok) window.location.assign(result.data.next);
+    // Checked again here against this page's own origin: only a path on Beadline is followed.
+    if (result.ok) window.location.assign(safeNextPath(result.data.next, window.location.origin));
     else setMessage(result.message);
   });
   return (

@@ -6,7 +6,8 @@ import { AppError, describeFieldErrors, fieldErrorsFromIssues } from "@/domain/r
 import { authenticate, clientAddress, signOutUser } from "@/app/_lib/auth";
 import { BODY_LIMITS, readJsonLimited } from "@/app/_lib/body";
 import { defineRoute, errorResponse, isCrossOrigin } from "@/app/_lib/guard";
-import { sessionOptions, type SessionData } from "@/app/_lib/session";
+import { cookieFromHeader, sessionOptions, type SessionData } from "@/app/_lib/session";
+import { DEVICE_COOKIE, deviceCookieAfterSignIn, deviceCookieHeader } from "@/app/_lib/device-cookie";
 import { isDatabaseUnavailable } from "@/database/client";
 
 export const dynamic = "force-dynamic";
@@ -26,13 +27,15 @@ export async function POST(request: Request): Promise<Response> {
     return errorResponse("invalid", describeFieldErrors(fields), fields);
   }
   try {
-    const user = await authenticate({ ...parsed.data, address: clientAddress(request.headers) });
+    const device = cookieFromHeader(request.headers.get("cookie"), DEVICE_COOKIE);
+    const user = await authenticate({ ...parsed.data, address: clientAddress(request.headers), device });
     const response = Response.json({ user: { id: user.id, name: user.name, email: user.email, roles: user.roles, unitSystem: user.unitSystem } });
     const session = await getIronSession<SessionData>(request, response, sessionOptions());
     session.userId = user.id;
     session.sessionVersion = user.sessionVersion;
     session.issuedAt = Date.now();
     await session.save();
+    response.headers.append("set-cookie", deviceCookieHeader(deviceCookieAfterSignIn(device, user.id)));
     return response;
   } catch (error) {
     if (error instanceof AppError) return errorResponse(error.code, error.message);
