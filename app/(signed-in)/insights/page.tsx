@@ -64,9 +64,9 @@ export default async function InsightsPage({ searchParams }: { searchParams: Pro
             </select>
           )}
         </FieldShell>
-        <FieldShell id="job" label="Job">
+        <FieldShell id="job" label="Job" className="min-w-0 max-w-full">
           {(control) => (
-            <select {...control} name="job" defaultValue={jobId ? String(jobId) : ""} className="min-h-touch rounded-md border-2 border-slate-400 bg-white px-2">
+            <select {...control} name="job" defaultValue={jobId ? String(jobId) : ""} className="min-h-touch max-w-full rounded-md border-2 border-slate-400 bg-white px-2">
               <option value="">All jobs</option>
               {jobs.map((j) => (
                 <option key={j.id} value={j.id}>
