@@ -38,11 +38,19 @@ export function areaOf(frame: CallFrame): string {
   return "other script";
 }
 
-export function summariseProfile(profile: CpuProfile, top = 20): ProfileSummary {
+/**
+ * Self time per function and area. `window` (µs of the monotonic clock, as `process.hrtime.bigint() / 1000n`
+ * in any process of this machine: V8 stamps samples with the same clock) keeps only the samples taken
+ * inside it, e.g. the measured load without start-up and warm-up.
+ */
+export function summariseProfile(profile: CpuProfile, top = 20, window?: { fromUs: number; toUs: number }): ProfileSummary {
   const byId = new Map(profile.nodes.map((n) => [n.id, n]));
   const selfUs = new Map<number, number>();
+  let at = profile.startTime;
   for (let i = 0; i < profile.samples.length; i += 1) {
     const id = profile.samples[i];
+    at += profile.timeDeltas[i] ?? 0;
+    if (window && (at < window.fromUs || at > window.toUs)) continue;
     // timeDeltas[i] is the gap before sample i; the next delta is the time sample i stood for.
     const dt = profile.timeDeltas[i + 1] ?? 0;
     selfUs.set(id, (selfUs.get(id) ?? 0) + Math.max(0, dt));

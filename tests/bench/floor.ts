@@ -72,7 +72,7 @@ export function buildFloorApp({ reuse, log }: { reuse: boolean; log: (l: string)
   if (!existsSync(modules)) symlinkSync(path.join(ROOT, "node_modules"), modules, "dir");
   if (reuse && !changed && existsSync(path.join(FLOOR_DIR, ".next", "BUILD_ID"))) return;
   rmSync(path.join(FLOOR_DIR, ".next"), { recursive: true, force: true });
-  log(`next build of the floor app in ${path.relative(ROOT, FLOOR_DIR)} …`);
+  log(`next build of the floor app in ${FLOOR_DIR} …`);
   const t = Date.now();
   const build = spawnSync(process.execPath, [nextBin, "build"], { cwd: FLOOR_DIR, env: { ...process.env, NODE_ENV: "production", NEXT_TELEMETRY_DISABLED: "1" }, stdio: ["ignore", "ignore", "inherit"] });
   if (build.status !== 0) throw new Error("next build of the floor app failed");
@@ -162,14 +162,14 @@ export async function measureAgainstFloor({ floorUrl, paths, rounds, durationS, 
   }
   const figures: BenchFigure[] = [];
   const detail: Record<string, unknown> = { floor: {}, paths: {} };
-  const noisyText = (m: Measured) => (m.noisyRound === null ? `spread ${(m.spread * 100).toFixed(0)} %` : `NOISY: spread ${(m.spread * 100).toFixed(0)} % > ${SPREAD_LIMIT * 100} %, round ${m.noisyRound} furthest off`);
-  const loadText = (rs: Round[]) => `load avg ${rs.map((r) => r.loadAvg.toFixed(1)).join("/")}`;
+  const noisyText = (m: Measured) => (m.noisyRound === null ? `spread ${(m.spread * 100).toFixed(0)} %` : `NOISY round ${m.noisyRound} (spread ${(m.spread * 100).toFixed(0)} % > ${SPREAD_LIMIT * 100} %)`);
+  const loadText = (rs: Round[]) => `load ${rs.map((r) => r.loadAvg.toFixed(1)).join("/")}`;
   const floors = new Map<number, Measured>();
   for (const c of connectionCounts) {
     const m = summarise("floor", c, floorRounds.get(c) ?? []);
     floors.set(c, m);
     (detail.floor as Record<string, unknown>)[String(c)] = m;
-    figures.push({ figure: `floor: bare Next.js GET /api/floor, ${c} conn`, value: Math.round(m.requestsPerS), unit: "req/s", pass: m.bad === 0 ? null : false, note: `p50 ${m.p50Ms} ms, p99 ${m.p99Ms} ms; median of ${m.rounds.length} × ${durationS} s; ${noisyText(m)}; ${loadText(m.rounds)}` });
+    figures.push({ figure: `floor: bare Next.js GET /api/floor, ${c} conn`, value: Math.round(m.requestsPerS), unit: "req/s", pass: m.bad === 0 ? null : false, note: `p50 ${m.p50Ms} ms; ${loadText(m.rounds)}; ${noisyText(m)}; median of ${m.rounds.length} × ${durationS} s; p99 ${m.p99Ms} ms` });
   }
   for (const p of paths) {
     for (const c of p.connections) {
@@ -188,7 +188,7 @@ export async function measureAgainstFloor({ floorUrl, paths, rounds, durationS, 
         value: target?.minRequestsPerS !== undefined ? `${Math.round(m.requestsPerS)} req/s (${shareText})` : `${shareText} (${Math.round(m.requestsPerS)} req/s)`,
         target: target?.text,
         pass,
-        note: `p50 ${m.p50Ms} ms = ${multiple.toFixed(1)} × floor's ${f.p50Ms} ms; p99 ${m.p99Ms} ms; ${noisyText(m)}${m.bad ? `; ${m.bad} non-200/errors` : ""}; ${loadText(m.rounds)}`,
+        note: `p50 ${multiple.toFixed(1)} × floor (${m.p50Ms} vs ${f.p50Ms} ms); ${loadText(m.rounds)}; ${noisyText(m)}${m.bad ? `; ${m.bad} non-200/errors` : ""}; p99 ${m.p99Ms} ms`,
       });
     }
   }
