@@ -11,6 +11,11 @@
 //
 // Flags: --joints <n> (default 1,000,000)  --skip-build (reuse .next-bench)  --keep (leave the stack up, print its env)
 //        --only trench (demo data only, no synthetic register: just the Trench first-load figures)
+//        --only floor (demo data only: Beadline's HTTP figures beside a bare Next.js app's, tests/bench/floor.ts)
+//        --floor-rounds <n> (default 3)  --floor-seconds <s> (default 5 per round)
+//        --only profile (demo data only: `node --cpu-prof` on a second `next start` while autocannon drives the
+//          signed-in session route, then the register API, --profile-seconds each (default 10); self-time
+//          summary per path by tests/bench/cpu-profile.ts, profiles kept under tests/bench/results/profiles/)
 import "../support/server-only-outside-next";
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { randomUUID } from "node:crypto";
@@ -34,9 +39,18 @@ const ROOT = path.resolve(__dirname, "..", "..");
 const args = process.argv.slice(2);
 const argValue = (name: string) => (args.includes(name) ? args[args.indexOf(name) + 1] : undefined);
 const ONLY = argValue("--only");
-if (ONLY !== undefined && ONLY !== "trench") throw new Error(`--only ${ONLY}: the only short mode is --only trench`);
+if (ONLY !== undefined && !["trench", "floor", "profile"].includes(ONLY)) throw new Error(`--only ${ONLY}: the short modes are --only trench, --only floor and --only profile`);
 const ONLY_TRENCH = ONLY === "trench";
-const JOINTS = ONLY_TRENCH ? 0 : Number(argValue("--joints") ?? 1_000_000);
+const ONLY_FLOOR = ONLY === "floor";
+const ONLY_PROFILE = ONLY === "profile";
+/** A short mode: demo data only, no synthetic register. */
+const DEMO_ONLY = ONLY_TRENCH || ONLY_FLOOR || ONLY_PROFILE;
+/** Seconds of load per profiled path (--only profile). */
+const PROFILE_SECONDS = Number(argValue("--profile-seconds") ?? 10);
+const JOINTS = DEMO_ONLY ? 0 : Number(argValue("--joints") ?? 1_000_000);
+/** Rounds and seconds per round of the floor comparison (tests/bench/floor.ts). */
+const FLOOR_ROUNDS = Number(argValue("--floor-rounds") ?? 3);
+const FLOOR_SECONDS = Number(argValue("--floor-seconds") ?? 5);
 const SKIP_BUILD = args.includes("--skip-build");
 const KEEP = args.includes("--keep");
 const DIST_DIR = ".next-bench";
@@ -459,15 +473,99 @@ async function measureSubmission(baseUrl: string, owner: Knex, serverPid: number
   detail.submission = { present201, requestsPerS: requests.average, total: requests.total, latency, statuses: Object.fromEntries(statuses), errors, inFlight: pending.size, retried201, retried200, inDb, peakRssMb: rss.peakMb };
 }
 
+let floorServer: ChildProcess | null = null;
+
+/**
+ * Beadline's HTTP figures beside a bare Next.js route handler's (tests/bench/floor.ts), same load
+ * settings, in the same run: signed-in GET /api/v1/session and GET /api/v1/register at 1 and 50
+ * connections, the Register page and a joint page's HTML at 10 connections.
+ */
+async function measureFloor(baseUrl: string, clerk: string, owner: Knex): Promise<void> {
+  const { buildFloorApp, startFloorApp, measureAgainstFloor } = await import("./floor");
+  buildFloorApp({ reuse: SKIP_BUILD, log });
+  const port = await freePort();
+  floorServer = await startFloorApp(port);
+  log(`floor app on http://127.0.0.1:${port}/api/floor (server RSS ${round(statusOf(serverPidOf(floorServer.pid ?? 0)).VmRSS ?? 0)} MB)`);
+  const [joint] = (await owner("joints").orderBy("id", "desc").limit(1).select("id")) as { id: number }[];
+  if (!joint) throw new Error("the floor comparison needs a joint for the joint page (demo scenario)");
+  const headers = { cookie: clerk };
+  for (const p of ["/api/v1/session", "/api/v1/register", "/register", `/joints/${joint.id}`]) {
+    const res = await fetch(`${baseUrl}${p}`, { headers, redirect: "manual" });
+    await res.arrayBuffer();
+    if (res.status !== 200) throw new Error(`${p} answered ${res.status} to the signed-in clerk`);
+  }
+  const { figures: more, detail: d } = await measureAgainstFloor({
+    floorUrl: `http://127.0.0.1:${port}/api/floor`,
+    rounds: FLOOR_ROUNDS,
+    durationS: FLOOR_SECONDS,
+    log,
+    paths: [
+      { label: "signed-in GET /api/v1/session", url: `${baseUrl}/api/v1/session`, headers, connections: [1, 50], targets: { 50: { minShare: 0.6, text: "≥ 60 % of floor" } } },
+      { label: `GET /api/v1/register (${JOINTS ? "synthetic" : "demo"} register, default page)`, url: `${baseUrl}/api/v1/register`, headers, connections: [1, 50], targets: { 50: { minShare: 0.4, text: "≥ 40 % of floor" } } },
+      { label: "Register page HTML (/register)", url: `${baseUrl}/register`, headers, connections: [10], targets: { 10: { minRequestsPerS: 150, text: "≥ 150 req/s" } } },
+      { label: `joint page HTML (/joints/${joint.id})`, url: `${baseUrl}/joints/${joint.id}`, headers, connections: [10], targets: { 10: { minRequestsPerS: 150, text: "≥ 150 req/s" } } },
+    ],
+  });
+  figures.push(...more);
+  detail.floor = { ...d, rounds: FLOOR_ROUNDS, secondsPerRound: FLOOR_SECONDS, cpus: os.cpus().length };
+  floorServer.kill("SIGTERM");
+}
+
+/**
+ * `node --cpu-prof` on a `next start` of its own per path (so each profile holds one path's work),
+ * driven by autocannon (50 connections) for PROFILE_SECONDS after a 2 s warm-up; the server is
+ * stopped with SIGTERM so V8 writes the profile, then tests/bench/cpu-profile.ts sums self time.
+ */
+async function profilePaths(serverEnv: NodeJS.ProcessEnv, clerk: string): Promise<void> {
+  const { hammer } = await import("./floor");
+  const { summariseProfile, formatSummary } = await import("./cpu-profile");
+  const nextBin = path.join(ROOT, "node_modules", "next", "dist", "bin", "next");
+  const stamp = new Date().toISOString().replace(/[:.]/g, "-");
+  const outDir = path.join(__dirname, "results", "profiles", stamp);
+  mkdirSync(outDir, { recursive: true });
+  const texts: string[] = [];
+  for (const [name, urlPath] of [["session", "/api/v1/session"], ["register", "/api/v1/register"]] as const) {
+    const dir = path.join(outDir, name);
+    const port = await freePort();
+    const url = `http://127.0.0.1:${port}`;
+    const child = spawn(process.execPath, ["--cpu-prof", `--cpu-prof-dir=${dir}`, nextBin, "start", "-H", "127.0.0.1", "-p", String(port)], { cwd: ROOT, env: { ...serverEnv, BEADLINE_PUBLIC_URL: url }, stdio: ["ignore", "ignore", "inherit"] });
+    try {
+      await waitForServer(`${url}/sign-in`, child, 60_000);
+      await hammer(`${url}${urlPath}`, { connections: 50, durationS: 2, headers: { cookie: clerk } });
+      const fromUs = Number(process.hrtime.bigint() / 1000n);
+      const r = await hammer(`${url}${urlPath}`, { connections: 50, durationS: PROFILE_SECONDS, headers: { cookie: clerk } });
+      const toUs = Number(process.hrtime.bigint() / 1000n);
+      log(`profiled GET ${urlPath}: ${Math.round(r.requestsPerS)} req/s, ${r.total} requests, ${r.bad} bad (load ${r.loadAvg.toFixed(1)})`);
+      child.kill("SIGTERM");
+      for (let i = 0; i < 150 && child.exitCode === null && child.signalCode === null; i += 1) await new Promise((res) => setTimeout(res, 100));
+      const files = existsSync(dir) ? readdirSync(dir).filter((f) => f.endsWith(".cpuprofile")) : [];
+      if (!files.length) throw new Error(`no .cpuprofile written in ${dir}`);
+      // Only the samples of the measured load (V8's sample clock is the monotonic clock of process.hrtime):
+      // start-up and warm-up (module loading, first compiles) are left out.
+      const summary = summariseProfile(JSON.parse(readFileSync(path.join(dir, files[0]), "utf8")), 25, { fromUs, toUs });
+      const text = formatSummary(`GET ${urlPath} (50 conn, ${PROFILE_SECONDS} s after a 2 s warm-up)`, summary, r.total);
+      texts.push(text);
+      console.log(text);
+      add({ figure: `server CPU per request, GET ${urlPath} (profiled)`, value: round(summary.busyMs / r.total, 2), unit: "ms", pass: null, note: `top areas: ${summary.areas.slice(0, 4).map((a) => `${a.area} ${(a.share * 100).toFixed(0)} %`).join(", ")}; profile ${path.relative(ROOT, path.join(dir, files[0]))}` });
+      detail[`profile ${name}`] = { requests: r.total, requestsPerS: r.requestsPerS, summary };
+    } finally {
+      if (child.exitCode === null && child.signalCode === null) child.kill("SIGKILL");
+    }
+  }
+  writeFileSync(path.join(outDir, "summary.txt"), texts.join("\n\n") + "\n");
+  log(`profiles and summary in ${path.relative(ROOT, outDir)}`);
+}
+
 function printTable(): void {
   const rows = figures.map((f) => [f.figure, `${f.value}${f.unit ? ` ${f.unit}` : ""}`, f.target ?? "—", f.pass === null ? "info" : f.pass ? "pass" : "FAIL", f.note ?? ""]);
   const head = ["figure", "measured", "target", "result", "note"];
-  const widths = head.map((h, i) => Math.min(i === 4 ? 90 : 70, Math.max(h.length, ...rows.map((r) => r[i].length))));
+  const widths = head.map((h, i) => Math.min(i === 4 ? 120 : 70, Math.max(h.length, ...rows.map((r) => r[i].length))));
   const line = (cells: string[]) => cells.map((c, i) => c.slice(0, widths[i]).padEnd(widths[i])).join(" | ");
   console.log("\n" + line(head));
   console.log(widths.map((w) => "-".repeat(w)).join("-|-"));
   for (const r of rows) console.log(line(r));
   const failed = figures.filter((f) => f.pass === false).length;
+  console.log(`\nload average at the end (1/5/15 min, ${os.cpus().length} cores): ${os.loadavg().map((v) => v.toFixed(2)).join(" / ")}`);
   console.log(`\n${figures.length} figures, ${failed} below target; total bench time ${((Date.now() - started) / 60000).toFixed(1)} min\n`);
 }
 
@@ -477,6 +575,7 @@ async function main(): Promise<number> {
   let server: ChildProcess | null = null;
   let owner: Knex | null = null;
   const stopAll = async () => {
+    if (floorServer && floorServer.exitCode === null) floorServer.kill("SIGTERM");
     if (server && server.exitCode === null) {
       server.kill("SIGTERM");
       for (let i = 0; i < 80 && server.exitCode === null; i += 1) await new Promise((r) => setTimeout(r, 100));
@@ -495,7 +594,7 @@ async function main(): Promise<number> {
     // The synthetic joints take about 2.4 GB (each carries its pressure plan as JSON, as
     // recorded joints do) plus 0.4 GB of indexes: a buffer pool that holds them, as a
     // database server for a register this size would be given.
-    process.env.BEADLINE_DB_BUFFER_POOL ||= ONLY_TRENCH ? "256M" : "4G";
+    process.env.BEADLINE_DB_BUFFER_POOL ||= DEMO_ONLY ? "256M" : "4G";
     log(`starting a throw-away MariaDB (buffer pool ${process.env.BEADLINE_DB_BUFFER_POOL}), object store and mail server in ${tmp}`);
     stack = await startLocalStack({ dir: tmp, ports: "free", log });
     await migrateLatest(stack.env.MIGRATION_DATABASE_URL);
@@ -507,11 +606,11 @@ async function main(): Promise<number> {
       const mod = (await import(path.join(ROOT, "database", "seeds", file))) as { seed: (k: Knex, today?: Date) => Promise<void> };
       await mod.seed(owner, new Date());
     }
-    log(ONLY_TRENCH ? "demo scenario loaded (--only trench: no synthetic register)" : `demo scenario loaded; loading ${JOINTS.toLocaleString("en-US")} synthetic joints …`);
+    log(DEMO_ONLY ? `demo scenario loaded (--only ${ONLY}: no synthetic register)` : `demo scenario loaded; loading ${JOINTS.toLocaleString("en-US")} synthetic joints …`);
     const loadStart = Date.now();
-    const data = ONLY_TRENCH ? (null as unknown as SyntheticRegister) : await loadSyntheticRegister(owner, { joints: JOINTS, log });
+    const data = DEMO_ONLY ? (null as unknown as SyntheticRegister) : await loadSyntheticRegister(owner, { joints: JOINTS, log });
     const loadS = (Date.now() - loadStart) / 1000;
-    if (!ONLY_TRENCH) add({ figure: `bulk load of ${JOINTS.toLocaleString("en-US")} joints (+ states, findings, indexes)`, value: round(loadS, 0), unit: "s", target: "minutes, not hours", pass: loadS < 900, note: "INSERT … SELECT … WITH RECURSIVE in chunks of 100,000" });
+    if (!DEMO_ONLY) add({ figure: `bulk load of ${JOINTS.toLocaleString("en-US")} joints (+ states, findings, indexes)`, value: round(loadS, 0), unit: "s", target: "minutes, not hours", pass: loadS < 900, note: "INSERT … SELECT … WITH RECURSIVE in chunks of 100,000" });
 
     const port = await freePort();
     const baseUrl = `http://127.0.0.1:${port}`;
@@ -544,9 +643,15 @@ async function main(): Promise<number> {
         detail.trench = trench.detail;
       },
     ];
+    const floorStep: [string, () => Promise<void>] = ["the framework's floor (bare Next.js beside Beadline)", () => measureFloor(baseUrl, clerk, owner!)];
     const steps: [string, () => Promise<void>][] = ONLY_TRENCH
       ? [trenchStep]
-      : [
+      : ONLY_FLOOR
+        ? [floorStep]
+        : ONLY_PROFILE
+          ? [["CPU profile per path", () => profilePaths(serverEnv, clerk)]]
+        : [
+          floorStep,
           ["register pages", () => measureRegister(baseUrl, clerk, data)],
           ["lot trace", () => measureTrace(baseUrl, clerk, data)],
           ["export", () => measureExport(baseUrl, clerk, data, serverPid, owner!)],
@@ -554,7 +659,7 @@ async function main(): Promise<number> {
           ["joint submission", () => measureSubmission(baseUrl, owner!, serverPid)],
         ];
     const loadBench = path.join(__dirname, "load.ts");
-    if (!ONLY_TRENCH && existsSync(loadBench)) {
+    if (!DEMO_ONLY && existsSync(loadBench)) {
       steps.push([
         "further load bench (tests/bench/load.ts)",
         async () => {
@@ -589,7 +694,7 @@ async function main(): Promise<number> {
     const dir = path.join(__dirname, "results");
     mkdirSync(dir, { recursive: true });
     const stamp = new Date().toISOString().replace(/[:.]/g, "-");
-    const json = { at: new Date().toISOString(), joints: JOINTS, machine: { cpus: os.cpus().length, memoryGb: round(os.totalmem() / 2 ** 30), node: process.version }, minutes: round((Date.now() - started) / 60000, 1), figures, detail };
+    const json = { at: new Date().toISOString(), joints: JOINTS, machine: { cpus: os.cpus().length, memoryGb: round(os.totalmem() / 2 ** 30), node: process.version, loadAverageAtEnd: os.loadavg() }, minutes: round((Date.now() - started) / 60000, 1), figures, detail };
     writeFileSync(path.join(dir, `bench-${stamp}.json`), JSON.stringify(json, null, 2));
     writeFileSync(path.join(dir, "latest.json"), JSON.stringify(json, null, 2));
     console.log(`results: tests/bench/results/bench-${stamp}.json`);
