@@ -589,52 +589,61 @@ function rememberEstimate(key: string, value: number): void {
 }
 
 /**
- * Exact counts taken in the background, per filter and per version of the joints (the
- * largest joint id and the largest revision id: a new joint, a correction, a decision or a
- * trace each add a row there, so any change that can move a count changes the key). One
- * count runs per key at a time in this process (single flight); the result is kept for
- * EXACT_TTL_MS, a count that failed or timed out is not retried for FAILED_TTL_MS. Each
- * app instance keeps its own map, so instances may each take a count once.
+ * Exact counts taken in the background, per filter, each stamped with the version of the
+ * joints it was taken at (the largest joint id and the largest revision id: a new joint, a
+ * correction, a decision or a trace each add a row there, so any change that can move a
+ * count changes the version). An exact count is answered only for the version it was taken
+ * at (kept EXACT_TTL_MS); after a change, the last exact count is the "about" value until
+ * the new one is in. One count runs per filter at a time in this process (single flight),
+ * at most MAX_RUNNING in all, and a filter is counted again no sooner than the cool-down
+ * after its last count (so steady recording does not keep the database counting); a count
+ * that failed or timed out is not retried for FAILED_TTL_MS. Each app instance keeps its
+ * own map, so instances may each take a count once.
  */
 const EXACT_TTL_MS = 10 * 60_000;
 const FAILED_TTL_MS = 2 * 60_000;
 const MAX_RUNNING = 3;
-type ExactEntry = { state: "running" } | { state: "done"; value: number; at: number } | { state: "failed"; at: number };
-const exactCounts = new Map<string, ExactEntry>();
+/** REGISTER_EXACT_COUNT_COOLDOWN_MS overrides (tests set 0). */
+function cooldownMs(): number {
+  const raw = process.env.REGISTER_EXACT_COUNT_COOLDOWN_MS;
+  const fromEnv = raw ? Number(raw) : NaN;
+  return Number.isFinite(fromEnv) && fromEnv >= 0 ? fromEnv : 5_000;
+}
+type FilterCounts = { running: boolean; endedAt: number; last: { version: string; value: number; at: number } | null; failedAt: number | null };
+const exactCounts = new Map<string, FilterCounts>();
 let running = 0;
 
-async function jointsVersion(trx?: Db): Promise<string> {
-  const [rows] = (await conn(trx).raw(`SELECT (SELECT MAX(id) FROM joints) AS j, (SELECT MAX(id) FROM joint_revisions) AS r`)) as unknown as [{ j: number | null; r: number | null }[]];
+async function jointsVersion(): Promise<string> {
+  const [rows] = (await conn().raw(`SELECT (SELECT MAX(id) FROM joints) AS j, (SELECT MAX(id) FROM joint_revisions) AS r`)) as unknown as [{ j: number | null; r: number | null }[]];
   return `${rows[0]?.j ?? 0}.${rows[0]?.r ?? 0}`;
 }
 
-function lookupExact(key: string): ExactEntry | undefined {
-  const entry = exactCounts.get(key);
-  if (!entry) return undefined;
-  if (entry.state === "done" && Date.now() - entry.at > EXACT_TTL_MS) return void exactCounts.delete(key);
-  if (entry.state === "failed" && Date.now() - entry.at > FAILED_TTL_MS) return void exactCounts.delete(key);
-  return entry;
-}
-
-/** Starts the exact count of `inner` under `key` unless one runs or too many run; true when one is running for the key. */
-function startExactCount(key: string, inner: string, bindings: Binding[]): boolean {
-  if (exactCounts.get(key)?.state === "running") return true;
-  if (running >= MAX_RUNNING) return false;
-  if (exactCounts.size > 500) for (const [k, e] of exactCounts) if (e.state !== "running") exactCounts.delete(k);
-  exactCounts.set(key, { state: "running" });
+/** Starts the exact count of `inner` for the filter at `version`, unless one runs, the cool-down holds or too many run. */
+function startExactCount(filterKey: string, version: string, inner: string, bindings: Binding[]): void {
+  let entry = exactCounts.get(filterKey);
+  if (entry?.running || (entry && Date.now() - entry.endedAt < cooldownMs()) || running >= MAX_RUNNING) return;
+  if (!entry) {
+    if (exactCounts.size > 500) for (const [k, e] of exactCounts) if (!e.running) exactCounts.delete(k);
+    entry = { running: false, endedAt: 0, last: null, failedAt: null };
+    exactCounts.set(filterKey, entry);
+  }
+  const e = entry;
+  e.running = true;
   running += 1;
   const seconds = exactCountTimeoutSeconds();
   void (async () => {
     try {
       const [rows] = (await conn().raw(`SET STATEMENT max_statement_time=${seconds} FOR SELECT COUNT(*) AS n FROM (${inner}) matching`, bindings)) as unknown as [{ n: number }[]];
-      exactCounts.set(key, { state: "done", value: Number(rows[0]?.n ?? 0), at: Date.now() });
+      e.last = { version, value: Number(rows[0]?.n ?? 0), at: Date.now() };
+      e.failedAt = null;
     } catch {
-      exactCounts.set(key, { state: "failed", at: Date.now() });
+      e.failedAt = Date.now();
     } finally {
+      e.running = false;
+      e.endedAt = Date.now();
       running -= 1;
     }
   })();
-  return true;
 }
 
 /** Waits until no background count runs (tests). */
@@ -652,14 +661,13 @@ async function countResolved(resolved: Resolved, cap: number, background: boolea
   // Inside a caller's transaction the background count (on the pool) could not see its
   // rows: no cache and no background count there.
   const useBackground = background && !trx;
-  const exactKey = useBackground ? `${filterKey}|${await jointsVersion()}` : null;
-  const done = exactKey ? lookupExact(exactKey) : undefined;
-  if (done?.state === "done") return exactCount(done.value);
+  const version = useBackground ? await jointsVersion() : null;
+  const known = useBackground ? exactCounts.get(filterKey) : undefined;
+  if (known?.last && known.last.version === version && Date.now() - known.last.at < EXACT_TTL_MS) return exactCount(known.last.value);
 
   const estimateKey = `${cap}|${filterKey}`;
   let estimate = estimates.get(estimateKey);
   if (!estimate || Date.now() - estimate.at >= ESTIMATE_TTL_MS) {
-    estimate = undefined;
     if (!isEmptyFilter(filter)) {
       const [rows] = (await conn(trx).raw(`SELECT COUNT(*) AS n FROM (${inner} LIMIT ${cap + 1}) capped`, built.bindings)) as unknown as [{ n: number }[]];
       const n = Number(rows[0]?.n ?? 0);
@@ -676,11 +684,12 @@ async function countResolved(resolved: Resolved, cap: number, background: boolea
     rememberEstimate(estimateKey, Math.max(Math.round(guess), cap + 1));
     estimate = estimates.get(estimateKey);
   }
-  const value = estimate?.value ?? cap + 1;
-  if (!exactKey) return estimatedCount(value, false);
-  if (done?.state === "failed") return estimatedCount(value, false);
-  // Not started because too many run: still "counting", the next ask starts it.
-  startExactCount(exactKey, inner, built.bindings);
+  // The last exact count (of an older version) is a better "about" than the optimizer's.
+  const value = known?.last?.value ?? estimate?.value ?? cap + 1;
+  if (!version) return estimatedCount(value, false);
+  if (known?.failedAt && !known.running && Date.now() - known.failedAt < FAILED_TTL_MS) return estimatedCount(value, false);
+  // When the cool-down or the limit keeps it from starting now, a later ask starts it.
+  startExactCount(filterKey, version, inner, built.bindings);
   return estimatedCount(value, true);
 }
 
