@@ -34,7 +34,8 @@ const beadlineTheme = themeQuartz.withParams({
   headerHeight: 48,
 });
 
-export type GridCount = { value: number; isEstimate: boolean };
+/** The count the endpoint gives with the first page (domain/register RegisterCount for the register). */
+export type GridCount = { value: number; isExact: boolean; isEstimate: boolean; counting: boolean };
 
 type PageJson<Raw> = { rows: Raw[]; next: string | null; count?: GridCount };
 

@@ -1,6 +1,6 @@
 // The Register's queries: pages of joints under a filter and sort by keyset (seek)
-// pagination, the count (exact up to a cap, otherwise the optimizer's estimate, marked as
-// such), batches for the export, and the lists the filter form offers.
+// pagination, the count (exact up to a cap, otherwise "about" the optimizer's estimate while
+// the exact count runs in the background), batches for the export, and the lists the filter form offers.
 //
 // A page is read in two steps. Step 1 finds the ids of the page with as few tables as
 // the filter needs, walking one index in sort order and stopping after limit + 1 rows;
@@ -10,8 +10,11 @@
 import type { JointParameter } from "@/domain/fusion/parameters";
 import {
   dayBounds,
+  estimatedCount,
+  exactCount,
   isEmptyFilter,
   type KeyValue,
+  type RegisterCount,
   type RegisterCursor,
   type RegisterFilter,
   type RegisterJointRef,
@@ -47,7 +50,7 @@ const MAX_JOINT_NO = 999_999_999;
 
 /** Above this many matching coils, a coil condition is left to a subquery, not a list. */
 const MAX_COIL_LIST = 2000;
-/** Counts are exact up to this many rows; above it the optimizer's estimate is shown. */
+/** Counts are taken exactly in the request up to this many rows (see registerCountCap). */
 export const EXACT_COUNT_CAP = 10_000;
 
 type Binding = Knex.RawBinding;
@@ -508,7 +511,7 @@ export async function listRegisterPage(
   trx?: Db,
 ): Promise<RegisterPage> {
   const resolved = await resolveFilter(filter, timeZone, trx);
-  if (resolved.isEmpty) return { rows: [], next: null, ...(withCount ? { count: { value: 0, isEstimate: false } } : {}) };
+  if (resolved.isEmpty) return { rows: [], next: null, ...(withCount ? { count: exactCount(0) } : {}) };
   const page = async () => {
     const step1 = await pageIds(resolved, sort, dir, after, limit, trx);
     const rows = await findRegisterRowsByIds({ ids: step1.ids }, trx);
@@ -516,7 +519,7 @@ export async function listRegisterPage(
     return { rows, next };
   };
   if (!withCount) return page();
-  const [p, count] = await Promise.all([page(), countResolved(resolved, EXACT_COUNT_CAP, trx)]);
+  const [p, count] = await Promise.all([page(), countResolved(resolved, registerCountCap(), true, trx)]);
   return { ...p, count };
 }
 
@@ -539,23 +542,43 @@ export async function* iterateRegisterRows(
   }
 }
 
-export type RegisterCount = { value: number; isEstimate: boolean };
+export type { RegisterCount };
 
 /**
- * How many joints match: exact up to EXACT_COUNT_CAP (a count that stops there, so it
- * stays cheap), otherwise the optimizer's row estimate (EXPLAIN), marked as an estimate.
+ * Counts are exact up to this many rows when taken in the request; above it the answer is
+ * "about" the optimizer's estimate while the exact count runs in the background.
+ * REGISTER_EXACT_COUNT_CAP overrides it (tests set it low).
  */
-export async function countRegister({ filter, timeZone, cap = EXACT_COUNT_CAP }: { filter: RegisterFilter; timeZone: string; cap?: number }, trx?: Db): Promise<RegisterCount> {
+export function registerCountCap(): number {
+  const fromEnv = Number(process.env.REGISTER_EXACT_COUNT_CAP);
+  return Number.isInteger(fromEnv) && fromEnv > 0 ? fromEnv : EXACT_COUNT_CAP;
+}
+
+/** The background exact count stops after this long (MariaDB max_statement_time); REGISTER_EXACT_COUNT_TIMEOUT_S overrides. */
+const EXACT_COUNT_TIMEOUT_S = 120;
+function exactCountTimeoutSeconds(): number {
+  const fromEnv = Number(process.env.REGISTER_EXACT_COUNT_TIMEOUT_S);
+  return Number.isFinite(fromEnv) && fromEnv > 0 ? fromEnv : EXACT_COUNT_TIMEOUT_S;
+}
+
+/**
+ * How many joints match: exact up to `cap` (a count that stops there, so it stays cheap);
+ * above it, an exact count already taken for this filter and this state of the joints, or
+ * else the optimizer's estimate marked not exact, while an exact count is started in the
+ * background (`background: false` leaves it out).
+ */
+export async function countRegister(
+  { filter, timeZone, cap = registerCountCap(), background = true }: { filter: RegisterFilter; timeZone: string; cap?: number; background?: boolean },
+  trx?: Db,
+): Promise<RegisterCount> {
   const resolved = await resolveFilter(filter, timeZone, trx);
-  if (resolved.isEmpty) return { value: 0, isEstimate: false };
-  return countResolved(resolved, cap, trx);
+  if (resolved.isEmpty) return exactCount(0);
+  return countResolved(resolved, cap, background, trx);
 }
 
 /**
  * Estimates of large counts, kept for a short while in this process: a filter known to
- * match more than the cap a moment ago skips its capped count. An estimate may be stale
- * by seconds (and differ between web instances) without misleading anyone; exact counts
- * are never cached.
+ * match more than the cap a moment ago skips its capped count. Never shown as a count.
  */
 const ESTIMATE_TTL_MS = 30_000;
 const estimates = new Map<string, { value: number; at: number }>();
@@ -565,30 +588,109 @@ function rememberEstimate(key: string, value: number): void {
   estimates.set(key, { value, at: Date.now() });
 }
 
-async function countResolved(resolved: Resolved, cap: number, trx?: Db): Promise<RegisterCount> {
+/**
+ * Exact counts taken in the background, per filter, each stamped with the version of the
+ * joints it was taken at (the largest joint id and the largest revision id: a new joint, a
+ * correction, a decision or a trace each add a row there, so any change that can move a
+ * count changes the version). An exact count is answered only for the version it was taken
+ * at (kept EXACT_TTL_MS); after a change, the last exact count is the "about" value until
+ * the new one is in. One count runs per filter at a time in this process (single flight),
+ * at most MAX_RUNNING in all, and a filter is counted again no sooner than the cool-down
+ * after its last count (so steady recording does not keep the database counting); a count
+ * that failed or timed out is not retried for FAILED_TTL_MS. Each app instance keeps its
+ * own map, so instances may each take a count once.
+ */
+const EXACT_TTL_MS = 10 * 60_000;
+const FAILED_TTL_MS = 2 * 60_000;
+const MAX_RUNNING = 3;
+/** REGISTER_EXACT_COUNT_COOLDOWN_MS overrides (tests set 0). */
+function cooldownMs(): number {
+  const raw = process.env.REGISTER_EXACT_COUNT_COOLDOWN_MS;
+  const fromEnv = raw ? Number(raw) : NaN;
+  return Number.isFinite(fromEnv) && fromEnv >= 0 ? fromEnv : 5_000;
+}
+type FilterCounts = { running: boolean; endedAt: number; last: { version: string; value: number; at: number } | null; failedAt: number | null };
+const exactCounts = new Map<string, FilterCounts>();
+let running = 0;
+
+async function jointsVersion(): Promise<string> {
+  const [rows] = (await conn().raw(`SELECT (SELECT MAX(id) FROM joints) AS j, (SELECT MAX(id) FROM joint_revisions) AS r`)) as unknown as [{ j: number | null; r: number | null }[]];
+  return `${rows[0]?.j ?? 0}.${rows[0]?.r ?? 0}`;
+}
+
+/** Starts the exact count of `inner` for the filter at `version`, unless one runs, the cool-down holds or too many run. */
+function startExactCount(filterKey: string, version: string, inner: string, bindings: Binding[]): void {
+  let entry = exactCounts.get(filterKey);
+  if (entry?.running || (entry && Date.now() - entry.endedAt < cooldownMs()) || running >= MAX_RUNNING) return;
+  if (!entry) {
+    if (exactCounts.size > 500) for (const [k, e] of exactCounts) if (!e.running) exactCounts.delete(k);
+    entry = { running: false, endedAt: 0, last: null, failedAt: null };
+    exactCounts.set(filterKey, entry);
+  }
+  const e = entry;
+  e.running = true;
+  running += 1;
+  const seconds = exactCountTimeoutSeconds();
+  void (async () => {
+    try {
+      const [rows] = (await conn().raw(`SET STATEMENT max_statement_time=${seconds} FOR SELECT COUNT(*) AS n FROM (${inner}) matching`, bindings)) as unknown as [{ n: number }[]];
+      e.last = { version, value: Number(rows[0]?.n ?? 0), at: Date.now() };
+      e.failedAt = null;
+    } catch {
+      e.failedAt = Date.now();
+    } finally {
+      e.running = false;
+      e.endedAt = Date.now();
+      running -= 1;
+    }
+  })();
+}
+
+/** Waits until no background count runs (tests). */
+export async function settleRegisterCounts(timeoutMs = 30_000): Promise<void> {
+  const until = Date.now() + timeoutMs;
+  while (running > 0 && Date.now() < until) await new Promise((r) => setTimeout(r, 20));
+}
+
+async function countResolved(resolved: Resolved, cap: number, background: boolean, trx?: Db): Promise<RegisterCount> {
   const { filter } = resolved;
   const built = buildBase(resolved, "madeAt");
   const whereSql = built.where.length ? ` WHERE ${built.where.join(" AND ")}` : "";
   const inner = `SELECT 1 FROM ${built.from}${whereSql}`;
-  const key = `${cap}|${inner}|${JSON.stringify(built.bindings)}`;
-  const known = estimates.get(key);
-  if (known && Date.now() - known.at < ESTIMATE_TTL_MS) return { value: known.value, isEstimate: true };
-  if (!isEmptyFilter(filter)) {
-    const [rows] = (await conn(trx).raw(`SELECT COUNT(*) AS n FROM (${inner} LIMIT ${cap + 1}) capped`, built.bindings)) as unknown as [{ n: number }[]];
-    const n = Number(rows[0]?.n ?? 0);
-    if (n <= cap) return { value: n, isEstimate: false };
+  const filterKey = `${inner}|${JSON.stringify(built.bindings)}`;
+  // Inside a caller's transaction the background count (on the pool) could not see its
+  // rows: no cache and no background count there.
+  const useBackground = background && !trx;
+  const version = useBackground ? await jointsVersion() : null;
+  const known = useBackground ? exactCounts.get(filterKey) : undefined;
+  if (known?.last && known.last.version === version && Date.now() - known.last.at < EXACT_TTL_MS) return exactCount(known.last.value);
+
+  const estimateKey = `${cap}|${filterKey}`;
+  let estimate = estimates.get(estimateKey);
+  if (!estimate || Date.now() - estimate.at >= ESTIMATE_TTL_MS) {
+    if (!isEmptyFilter(filter)) {
+      const [rows] = (await conn(trx).raw(`SELECT COUNT(*) AS n FROM (${inner} LIMIT ${cap + 1}) capped`, built.bindings)) as unknown as [{ n: number }[]];
+      const n = Number(rows[0]?.n ?? 0);
+      if (n <= cap) return exactCount(n);
+    }
+    const [plan] = (await conn(trx).raw(`EXPLAIN ${inner}`, built.bindings)) as unknown as [{ rows: number | null; filtered: number | null }[]];
+    let guess = 1;
+    for (const step of plan) guess *= Number(step.rows ?? 1) * (Number(step.filtered ?? 100) / 100);
+    if (isEmptyFilter(filter) && guess <= cap) {
+      // Small register: count exactly.
+      const [rows] = (await conn(trx).raw(`SELECT COUNT(*) AS n FROM joints`)) as unknown as [{ n: number }[]];
+      return exactCount(Number(rows[0]?.n ?? 0));
+    }
+    rememberEstimate(estimateKey, Math.max(Math.round(guess), cap + 1));
+    estimate = estimates.get(estimateKey);
   }
-  const [plan] = (await conn(trx).raw(`EXPLAIN ${inner}`, built.bindings)) as unknown as [{ rows: number | null; filtered: number | null }[]];
-  let estimate = 1;
-  for (const step of plan) estimate *= Number(step.rows ?? 1) * (Number(step.filtered ?? 100) / 100);
-  if (isEmptyFilter(filter) && estimate <= cap) {
-    // Small register: count exactly.
-    const [rows] = (await conn(trx).raw(`SELECT COUNT(*) AS n FROM joints`)) as unknown as [{ n: number }[]];
-    return { value: Number(rows[0]?.n ?? 0), isEstimate: false };
-  }
-  const value = Math.max(Math.round(estimate), cap + 1);
-  rememberEstimate(key, value);
-  return { value, isEstimate: true };
+  // The last exact count (of an older version) is a better "about" than the optimizer's.
+  const value = known?.last?.value ?? estimate?.value ?? cap + 1;
+  if (!version) return estimatedCount(value, false);
+  if (known?.failedAt && !known.running && Date.now() - known.failedAt < FAILED_TTL_MS) return estimatedCount(value, false);
+  // When the cool-down or the limit keeps it from starting now, a later ask starts it.
+  startExactCount(filterKey, version, inner, built.bindings);
+  return estimatedCount(value, true);
 }
 
 export type RegisterOption = { id: number; label: string };

@@ -111,8 +111,8 @@ export const registerPageQuerySchema = z
         .max(MAX_PAGE_SIZE, { error: `The page size must be a number from 1 to ${MAX_PAGE_SIZE}.` })
         .default(DEFAULT_PAGE_SIZE),
     ),
-    /** "1" asks for the (exact or estimated) count with the page. */
-    count: z.preprocess(blankToUndefined, z.enum(['0', '1'], { error: 'count must be 0 or 1.' }).optional()),
+    /** "1" asks for the count (exact, or "about" while it is taken) with the page; "only" for the count without rows. */
+    count: z.preprocess(blankToUndefined, z.enum(['0', '1', 'only'], { error: 'count must be 0, 1 or only.' }).optional()),
   })
   .superRefine(checkDayOrder);
 export type RegisterPageQuery = z.output<typeof registerPageQuerySchema>;

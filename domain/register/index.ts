@@ -4,3 +4,4 @@ export * from '@/domain/register/filter';
 export * from '@/domain/register/cursor';
 export * from '@/domain/register/columns';
 export * from '@/domain/register/describe';
+export * from '@/domain/register/count';

@@ -76,10 +76,10 @@ describe("register API and export", () => {
     for (const person of [clerk, inspectorUs, admin]) {
       const res = await registerGet(await requestAs(person, "/api/v1/register?limit=5&count=1"), noParams);
       expect(res.status).toBe(200);
-      const body = (await res.json()) as { rows: unknown[]; next: string | null; count: { value: number; isEstimate: boolean } };
+      const body = (await res.json()) as { rows: unknown[]; next: string | null; count: { value: number; isExact: boolean; isEstimate: boolean } };
       expect(body.rows).toHaveLength(5);
       expect(typeof body.next).toBe("string");
-      expect(body.count).toEqual({ value: 600, isEstimate: false });
+      expect(body.count).toEqual({ value: 600, isExact: true, isEstimate: false, counting: false });
     }
   });
 

@@ -263,15 +263,15 @@ describe("register queries (keyset pages against a naive reference)", () => {
     expect(ids).toEqual(expected);
   });
 
-  it("counts exactly up to the cap and marks larger counts as estimates", async () => {
+  it("counts exactly up to the cap and marks larger counts as not exact", async () => {
     const filter = { outcome: "out-of-limits" as const };
     const exact = referenceFilter(all, filter).length;
-    expect(await countRegister({ filter, timeZone: ZONE })).toEqual({ value: exact, isEstimate: false });
-    expect(await countRegister({ filter: {}, timeZone: ZONE })).toEqual({ value: all.length, isEstimate: false });
-    const capped = await countRegister({ filter, timeZone: ZONE, cap: 50 });
-    expect(capped.isEstimate).toBe(true);
+    expect(await countRegister({ filter, timeZone: ZONE })).toEqual({ value: exact, isExact: true, isEstimate: false, counting: false });
+    expect(await countRegister({ filter: {}, timeZone: ZONE })).toEqual({ value: all.length, isExact: true, isEstimate: false, counting: false });
+    const capped = await countRegister({ filter, timeZone: ZONE, cap: 50, background: false });
+    expect(capped).toMatchObject({ isExact: false, isEstimate: true, counting: false });
     expect(capped.value).toBeGreaterThan(50);
-    expect(await countRegister({ filter: { lot: "NO-SUCH-LOT" }, timeZone: ZONE })).toEqual({ value: 0, isEstimate: false });
+    expect(await countRegister({ filter: { lot: "NO-SUCH-LOT" }, timeZone: ZONE })).toEqual({ value: 0, isExact: true, isEstimate: false, counting: false });
   });
 
   it("refuses a cursor made for another sort, and text that is no cursor", () => {
@@ -365,7 +365,7 @@ describe("register day filter in the organisation's time zone (local days across
     const inside = cases.filter((c) => c[3]).map((c) => placed.get(c[2])!);
     const page = await listRegisterPage({ filter: { from: day, to: day }, timeZone: zone, sort: "madeAt", dir: "asc", limit: 100, withCount: true });
     expect(page.rows.map((r) => r.id).sort()).toEqual([...inside].sort());
-    expect(page.count).toEqual({ value: inside.length, isEstimate: false });
+    expect(page.count).toEqual({ value: inside.length, isExact: true, isEstimate: false, counting: false });
     // The same day read as a UTC day takes other joints, so the check tells the two apart.
     const utc = await listRegisterPage({ filter: { from: day, to: day }, timeZone: "UTC", limit: 100 });
     expect(utc.rows.map((r) => r.id).sort()).not.toEqual([...inside].sort());

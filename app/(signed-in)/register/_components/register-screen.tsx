@@ -21,6 +21,7 @@ import {
   REVIEW_STATE_LABELS,
   columnHeader,
   dayFilterLabels,
+  describeRegisterCount,
   describeSort,
   formatCell,
   registerFilterSchema,
@@ -35,7 +36,6 @@ import {
 import type { FieldErrors } from "@/domain/result";
 import type { UnitSystem } from "@/domain/units";
 import { ExportPanel } from "./export-panel";
-import { formatCount } from "@/components/ui/display-format";
 import { useTimeZone } from "@/components/ui/time-zone";
 import { controlBorder, FieldShell } from "@/components/form/field-shell";
 
@@ -83,6 +83,34 @@ export function RegisterScreen({ view, urlErrors, options, unitSystem }: { view:
     reset(toForm(view));
     setCount(null);
   }, [view, reset]);
+
+  // While the count is "about N", ask for the count alone until the server's background
+  // count is exact (1 s, then slower, for at most about five minutes).
+  const waitingForExact = count !== null && !count.isExact && count.counting;
+  useEffect(() => {
+    if (!waitingForExact) return;
+    let stopped = false;
+    let timer: ReturnType<typeof setTimeout> | undefined;
+    const ask = async (attempt: number) => {
+      if (stopped || attempt > 60) return;
+      try {
+        const response = await fetch(`/api/v1/register?${query ? `${query}&` : ""}count=only`, { cache: "no-store" });
+        if (response.ok) {
+          const body = (await response.json()) as { count?: GridCount };
+          if (stopped) return;
+          if (body.count && (body.count.isExact || !body.count.counting)) return setCount(body.count);
+        }
+      } catch {
+        // Network hiccup: try again on the next tick.
+      }
+      if (!stopped) timer = setTimeout(() => void ask(attempt + 1), Math.min(1000 + attempt * 500, 10_000));
+    };
+    timer = setTimeout(() => void ask(0), 1000);
+    return () => {
+      stopped = true;
+      if (timer) clearTimeout(timer);
+    };
+  }, [waitingForExact, query]);
 
   const go = useCallback((next: Partial<RegisterView>) => router.push(`/register${viewToSearchParams(next).toString() ? `?${viewToSearchParams(next).toString()}` : ""}`), [router]);
 
@@ -137,8 +165,7 @@ export function RegisterScreen({ view, urlErrors, options, unitSystem }: { view:
     </FieldShell>
   );
 
-  const countText =
-    count === null ? "Counting joints …" : count.isEstimate ? `About ${formatCount(count.value)} joints (an estimate: the exact count is too slow to take at this size)` : `${formatCount(count.value)} ${count.value === 1 ? "joint" : "joints"}`;
+  const countText = count === null ? "Counting joints …" : describeRegisterCount(count);
 
   return (
     <div className="flex flex-col gap-4">
