@@ -123,12 +123,17 @@ function startWriterThread(out: Writable, data: { format: "xlsx" | "csv"; column
       waiting = { resolve, reject, until };
       worker.postMessage(message);
     });
+  // One batch in flight: the worker writes it while this side reads and maps the next.
+  let inFlight: Promise<void> = Promise.resolve();
   return {
     async rows(rows: Cell[][]) {
-      await ask({ type: "rows", rows }, "written");
+      await inFlight;
       await readerCaughtUp(out);
+      inFlight = ask({ type: "rows", rows }, "written");
+      inFlight.catch(() => undefined); // surfaces at the next await
     },
     async finish(message: Record<string, unknown>) {
+      await inFlight;
       await ask({ type: "finish", ...message }, "done");
       finished = true;
       out.off("close", onGone);
