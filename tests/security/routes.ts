@@ -73,6 +73,7 @@ export const ROUTES: readonly RouteEntry[] = [
 
   r("GET", "/api/v1/register", "viewRegister", "query", { query: { limit: "5" } }),
   r("GET", "/api/v1/exports/register", "exportRegister", "query", { query: { format: "csv" } }),
+  r("GET", "/api/v1/exports/register/progress", "exportRegister", "query", { query: { id: "1" } }),
   r("GET", "/api/v1/labels/coils/[id]", "printLabels", "query", { query: {} }),
   r("GET", "/api/v1/labels/joints/[id]", "printJointLabels", "query", { query: {} }),
 

@@ -1,10 +1,12 @@
 // Writes Register rows as a spreadsheet (.xlsx, exceljs's streaming WorkbookWriter) or as
 // CSV into a Node stream, batch by batch, waiting for the reader between batches so the
-// file never sits whole in memory. The columns, headers (with units) and cell values are
+// file never sits whole in memory. The writing itself runs in a worker thread
+// (sheet-writer.worker.mjs): this side turns rows into cell values and relays bytes. The columns, headers (with units) and cell values are
 // the grid's (domain/register/columns.ts).
 import "server-only";
 import type { Writable } from "node:stream";
-import ExcelJS from "exceljs";
+import path from "node:path";
+import { Worker } from "node:worker_threads";
 import type { ProcedureDefinition } from "@/domain/procedures";
 import { describeProcedureWindows } from "@/domain/procedures";
 import { REGISTER_COLUMNS, columnHeader, columnNumberFormat, type FilterLine, type RegisterColumn, type RegisterRow } from "@/domain/register";
@@ -59,29 +61,90 @@ function readerCaughtUp(out: Writable): Promise<void> {
   });
 }
 
+type Cell = string | number | Date | null;
+type WriterColumn = { header: string; key: string; width: number; numFmt?: string };
+type AboutLine = { values: Cell[]; bold?: boolean; numFmt?: { column: number; format: string } };
+type FromWorker = { type: "chunk"; data: Uint8Array } | { type: "written"; rows: number } | { type: "done" } | { type: "error"; message: string };
+
 /**
- * exceljs merges row and column styles into a new object for every cell, so its own
- * style-id cache (keyed by object identity) never hits and each cell re-renders its style
- * XML — about two thirds of the writing time at 35 columns. Our cells carry at most a
- * number format, so the id is cached by format and cell type. Falls back to exceljs's own
- * lookup for any other style (bold header, fonts) and if the internals ever change shape.
+ * The worker file, found at run time from the app's directory rather than through the
+ * bundler, so `next start`, `next dev` and vitest all load the same plain module.
  */
-function cacheNumberFormatStyles(workbook: ExcelJS.stream.xlsx.WorkbookWriter): void {
-  const styles = (workbook as unknown as { styles?: { addStyleModel?: (model: unknown, cellType?: unknown) => number } }).styles;
-  if (!styles || typeof styles.addStyleModel !== "function") return;
-  const original = styles.addStyleModel.bind(styles);
-  const cache = new Map<string, number>();
-  styles.addStyleModel = (model: unknown, cellType?: unknown) => {
-    if (!model || typeof model !== "object") return original(model, cellType);
-    const keys = Object.keys(model);
-    if (keys.length > 1 || (keys.length === 1 && keys[0] !== "numFmt")) return original(model, cellType);
-    const key = `${(model as { numFmt?: string }).numFmt ?? ""}|${String(cellType)}`;
-    let id = cache.get(key);
-    if (id === undefined) {
-      id = original(model, cellType);
-      cache.set(key, id);
+function workerFile(): string {
+  return path.join(process.cwd(), "app", "_server", "register", "sheet-writer.worker.mjs");
+}
+
+/** Worker threads writing an export now (the tests check none is left behind). */
+export const runningWriterThreads = new Set<Worker>();
+
+/**
+ * Runs the file writer (sheet-writer.worker.mjs) in a worker thread: posts one batch of
+ * cell values at a time, writes the bytes it sends back into `out`, and waits for both the
+ * worker and the HTTP reader before the next batch. If the reader goes away, the worker
+ * is stopped at once and the call rejects with ExportCancelledError.
+ */
+function startWriterThread(out: Writable, data: { format: "xlsx" | "csv"; columns: WriterColumn[]; creator?: string; created?: Date }) {
+  const worker = new Worker(workerFile(), { workerData: data });
+  runningWriterThreads.add(worker);
+  let waiting: { resolve: () => void; reject: (e: Error) => void; until: "written" | "done" } | null = null;
+  let failure: Error | null = null;
+  let finished = false;
+  const fail = (error: Error) => {
+    if (failure) return;
+    failure = error;
+    void worker.terminate();
+    waiting?.reject(error);
+    waiting = null;
+  };
+  const onGone = () => {
+    if (!finished) fail(new ExportCancelledError());
+  };
+  out.on("close", onGone);
+  worker.on("message", (message: FromWorker) => {
+    if (message.type === "chunk") {
+      if (!out.destroyed) out.write(Buffer.from(message.data.buffer, message.data.byteOffset, message.data.byteLength));
+    } else if (message.type === "error") {
+      fail(new Error(`export writer: ${message.message}`));
+    } else if (waiting && waiting.until === message.type) {
+      const w = waiting;
+      waiting = null;
+      w.resolve();
     }
-    return id;
+  });
+  worker.on("error", (error) => fail(error));
+  worker.on("exit", () => {
+    runningWriterThreads.delete(worker);
+    if (!finished) fail(failure ?? new Error("export writer stopped"));
+  });
+  const ask = (message: unknown, until: "written" | "done") =>
+    new Promise<void>((resolve, reject) => {
+      if (failure) return reject(failure);
+      if (out.destroyed) return reject(new ExportCancelledError());
+      waiting = { resolve, reject, until };
+      worker.postMessage(message);
+    });
+  // One batch in flight: the worker writes it while this side reads and maps the next.
+  let inFlight: Promise<void> = Promise.resolve();
+  return {
+    async rows(rows: Cell[][]) {
+      await inFlight;
+      await readerCaughtUp(out);
+      inFlight = ask({ type: "rows", rows }, "written");
+      inFlight.catch(() => undefined); // surfaces at the next await
+    },
+    async finish(message: Record<string, unknown>) {
+      await inFlight;
+      await ask({ type: "finish", ...message }, "done");
+      finished = true;
+      out.off("close", onGone);
+      await worker.terminate();
+    },
+    /** Stops the worker after a failure on this side (reading the database). */
+    async stop() {
+      finished = true;
+      out.off("close", onGone);
+      await worker.terminate();
+    },
   };
 }
 
@@ -98,105 +161,75 @@ const UNITS_TEXT: Record<UnitSystem, string> = {
  */
 export async function writeRegisterXlsx({ out, batches, meta, maxRows = XLSX_MAX_ROWS, progress }: { out: Writable; batches: AsyncIterable<RegisterRow[]>; meta: ExportMeta; maxRows?: number; progress?: { rows: number } }): Promise<{ rowCount: number; isTruncated: boolean }> {
   const columns: readonly RegisterColumn[] = REGISTER_COLUMNS;
-  const workbook = new ExcelJS.stream.xlsx.WorkbookWriter({ stream: out, useStyles: true, useSharedStrings: false });
-  cacheNumberFormatStyles(workbook);
-  workbook.creator = "Beadline";
-  workbook.created = meta.exportedAt;
-
-  const sheet = workbook.addWorksheet("Joints", { views: [{ state: "frozen", ySplit: 1 }] });
-  sheet.columns = columns.map((c) => {
-    const numFmt = columnNumberFormat(c, meta.system);
-    const header = columnHeader(c, meta.system, meta.timeZone, "export");
-    return { header, key: c.key, width: Math.max(c.width, header.length * 0.6) + 2, ...(numFmt ? { style: { numFmt } } : {}) };
+  const writer = startWriterThread(out, {
+    format: "xlsx",
+    creator: "Beadline",
+    created: meta.exportedAt,
+    columns: columns.map((c) => {
+      const numFmt = columnNumberFormat(c, meta.system);
+      const header = columnHeader(c, meta.system, meta.timeZone, "export");
+      return { header, key: c.key, width: Math.max(c.width, header.length * 0.6) + 2, ...(numFmt ? { numFmt } : {}) };
+    }),
   });
-  sheet.getRow(1).font = { bold: true };
-  sheet.getRow(1).commit();
-
-  const versions = new Set<number>();
-  let rowCount = 0;
-  let isTruncated = false;
-  for await (const batch of batches) {
-    if (out.destroyed) throw new ExportCancelledError();
-    for (const row of batch) {
-      if (rowCount >= maxRows) {
-        isTruncated = true;
-        break;
+  try {
+    const versions = new Set<number>();
+    let rowCount = 0;
+    let isTruncated = false;
+    for await (const batch of batches) {
+      if (out.destroyed) throw new ExportCancelledError();
+      const values: Cell[][] = [];
+      for (const row of batch) {
+        if (rowCount >= maxRows) {
+          isTruncated = true;
+          break;
+        }
+        values.push(columns.map((c) => c.value(row, meta.system, meta.timeZone)));
+        versions.add(row.procedureVersionId);
+        rowCount += 1;
       }
-      sheet.addRow(columns.map((c) => c.value(row, meta.system, meta.timeZone))).commit();
-      versions.add(row.procedureVersionId);
-      rowCount += 1;
+      await writer.rows(values);
+      if (progress) progress.rows = rowCount;
+      if (isTruncated) break;
     }
-    if (progress) progress.rows = rowCount;
-    if (isTruncated) break;
-    await readerCaughtUp(out);
-  }
-  sheet.autoFilter = { from: { row: 1, column: 1 }, to: { row: rowCount + 1, column: columns.length } };
-  sheet.commit();
 
-  const about = workbook.addWorksheet("About this export");
-  about.columns = [
-    { key: "a", width: 34 },
-    { key: "b", width: 48 },
-    { key: "c", width: 70 },
-    { key: "d", width: 28 },
-  ];
-  const add = (values: (string | number | Date | null)[], bold = false) => {
-    const r = about.addRow(values);
-    if (bold) r.font = { bold: true };
-    r.commit();
-  };
-  add(["Beadline joint register export"], true);
-  add(["Exported by", `${meta.exportedBy.name} <${meta.exportedBy.email}>`]);
-  const when = about.addRow(["Exported at (UTC)", meta.exportedAt]);
-  when.getCell(2).numFmt = "yyyy-mm-dd hh:mm:ss";
-  when.commit();
-  add(["Joints in this file", rowCount]);
-  add(["Units", UNITS_TEXT[meta.system]]);
-  add(["Exported at (local time)", formatInstant(meta.exportedAt, "second", meta.timeZone)]);
-  add(["Time zone", meta.timeZone]);
-  add(["Times", `"Made at (${meta.timeZone})" is the local time in the organisation's time zone with its offset from UTC; "Made at (UTC)" is the same instant in UTC. Day filters are local days in ${meta.timeZone}.`]);
-  add(["Sort", meta.sortText]);
-  if (isTruncated) add(["Note", `Stopped at Excel's limit of ${formatCount(maxRows)} rows: export as CSV for every row of this filter.`], true);
-  add([]);
-  add(["Filter used"], true);
-  if (meta.filterLines.length === 0) add(["(none)", "Every joint in the register"]);
-  for (const line of meta.filterLines) add([line.label, line.value]);
-  add([]);
-  add(["Procedure windows of the exported joints"], true);
-  const procedures = await meta.loadProcedures([...versions].sort((a, b) => a - b));
-  if (procedures.length === 0) add(["(no joints exported)"]);
-  for (const p of procedures) {
+    const about: AboutLine[] = [];
+    const add = (values: Cell[], bold = false) => about.push({ values, bold });
+    add(["Beadline joint register export"], true);
+    add(["Exported by", `${meta.exportedBy.name} <${meta.exportedBy.email}>`]);
+    about.push({ values: ["Exported at (UTC)", meta.exportedAt], numFmt: { column: 2, format: "yyyy-mm-dd hh:mm:ss" } });
+    add(["Joints in this file", rowCount]);
+    add(["Units", UNITS_TEXT[meta.system]]);
+    add(["Exported at (local time)", formatInstant(meta.exportedAt, "second", meta.timeZone)]);
+    add(["Time zone", meta.timeZone]);
+    add(["Times", `"Made at (${meta.timeZone})" is the local time in the organisation's time zone with its offset from UTC; "Made at (UTC)" is the same instant in UTC. Day filters are local days in ${meta.timeZone}.`]);
+    add(["Sort", meta.sortText]);
+    if (isTruncated) add(["Note", `Stopped at Excel's limit of ${formatCount(maxRows)} rows: export as CSV for every row of this filter.`], true);
     add([]);
-    add([`${p.code} version ${p.versionNo}`, p.name, p.definition.label], true);
-    add(["Parameter", "Window", "Source", "Status"], true);
-    for (const w of describeProcedureWindows(p.definition, meta.system)) {
-      add([w.label, w.details.length ? `${w.value} (${w.details.join("; ")})` : w.value, w.source, w.statusText]);
+    add(["Filter used"], true);
+    if (meta.filterLines.length === 0) add(["(none)", "Every joint in the register"]);
+    for (const line of meta.filterLines) add([line.label, line.value]);
+    add([]);
+    add(["Procedure windows of the exported joints"], true);
+    const procedures = await meta.loadProcedures([...versions].sort((a, b) => a - b));
+    if (procedures.length === 0) add(["(no joints exported)"]);
+    for (const p of procedures) {
+      add([]);
+      add([`${p.code} version ${p.versionNo}`, p.name, p.definition.label], true);
+      add(["Parameter", "Window", "Source", "Status"], true);
+      for (const w of describeProcedureWindows(p.definition, meta.system)) {
+        add([w.label, w.details.length ? `${w.value} (${w.details.join("; ")})` : w.value, w.source, w.statusText]);
+      }
     }
+    await writer.finish({ autoFilterRows: rowCount, about });
+    if (!out.writableEnded) out.end();
+    return { rowCount, isTruncated };
+  } catch (error) {
+    await writer.stop();
+    throw error;
   }
-  about.commit();
-  await workbook.commit();
-  return { rowCount, isTruncated };
 }
 
-/** RFC 4180 field: quoted when it holds a comma, quote, line break or edge spaces. */
-function csvField(value: string): string {
-  return /[",\r\n]|^\s|\s$/.test(value) ? `"${value.replace(/"/g, '""')}"` : value;
-}
-
-/**
- * A text cell that a spreadsheet would read as a formula (=, +, -, @, tab, CR) gets a
- * leading apostrophe (OWASP "CSV injection" advice); numbers stay numbers.
- */
-function safeText(value: string): string {
-  return /^[=+\-@\t\r]/.test(value) ? `'${value}` : value;
-}
-
-export function csvCell(value: string | number | Date | null): string {
-  if (value === null || value === undefined) return "";
-  if (value instanceof Date) return value.toISOString();
-  if (typeof value === "number") return Number.isFinite(value) ? String(value) : "";
-  return csvField(safeText(value));
-}
+export { csvCell } from "./csv-cells.mjs";
 
 /**
  * Streams CSV (UTF-8 with a byte-order mark so spreadsheets read °C right, CRLF line ends
@@ -205,21 +238,22 @@ export function csvCell(value: string | number | Date | null): string {
  */
 export async function writeRegisterCsv({ out, batches, system, timeZone, progress }: { out: Writable; batches: AsyncIterable<RegisterRow[]>; system: UnitSystem; timeZone: string; progress?: { rows: number } }): Promise<{ rowCount: number }> {
   const columns = REGISTER_COLUMNS;
-  out.write("\uFEFF" + columns.map((c) => csvField(columnHeader(c, system, timeZone, "export"))).join(",") + "\r\n");
-  let rowCount = 0;
-  for await (const batch of batches) {
-    if (out.destroyed) throw new ExportCancelledError();
-    let chunk = "";
-    for (const row of batch) {
-      chunk += columns.map((c) => csvCell(c.value(row, system, timeZone))).join(",") + "\r\n";
-      rowCount += 1;
+  const writer = startWriterThread(out, { format: "csv", columns: columns.map((c) => ({ header: columnHeader(c, system, timeZone, "export"), key: c.key, width: c.width })) });
+  try {
+    let rowCount = 0;
+    for await (const batch of batches) {
+      if (out.destroyed) throw new ExportCancelledError();
+      await writer.rows(batch.map((row) => columns.map((c) => c.value(row, system, timeZone))));
+      rowCount += batch.length;
+      if (progress) progress.rows = rowCount;
     }
-    out.write(chunk);
-    if (progress) progress.rows = rowCount;
-    await readerCaughtUp(out);
+    await writer.finish({});
+    await new Promise<void>((resolve, reject) => {
+      out.end((error?: Error | null) => (error ? reject(error) : resolve()));
+    });
+    return { rowCount };
+  } catch (error) {
+    await writer.stop();
+    throw error;
   }
-  await new Promise<void>((resolve, reject) => {
-    out.end((error?: Error | null) => (error ? reject(error) : resolve()));
-  });
-  return { rowCount };
 }

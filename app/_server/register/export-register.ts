@@ -4,7 +4,7 @@
 import "server-only";
 import { PassThrough, Readable } from "node:stream";
 import type { UserRecord } from "@/database/queries/users";
-import { finishExport, startExport } from "@/database/queries/exports";
+import { findExportById, finishExport, startExport } from "@/database/queries/exports";
 import { findProcedureVersionById } from "@/database/queries/procedures";
 import { countRegister, findRegisterFilterNames, iterateRegisterRows } from "@/database/queries/register";
 import { describeFilter, describeSort, pickFilter, type RegisterExportQuery } from "@/domain/register";
@@ -22,6 +22,24 @@ const CONTENT_TYPES = {
   xlsx: "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet",
   csv: "text/csv; charset=utf-8",
 } as const;
+
+/** Rows written so far by the exports running in this server process, by export id. */
+const running = new Map<number, { userId: number; progress: { rows: number }; expected: number }>();
+
+export type ExportProgress = { exportId: number; status: "running" | "done" | "failed"; rowsWritten: number; expectedRows: number | null };
+
+/**
+ * How far one of the person's own exports has got: rows written of the total while it
+ * runs (from this process), the rows written once it has ended (from the exports table).
+ * Another person's export, or an unknown id, is null (answered as not found).
+ */
+export async function exportProgress({ exportId, user }: { exportId: number; user: UserRecord }): Promise<ExportProgress | null> {
+  const live = running.get(exportId);
+  if (live) return live.userId === user.id ? { exportId, status: "running", rowsWritten: live.progress.rows, expectedRows: live.expected } : null;
+  const record = await findExportById({ id: exportId });
+  if (!record || record.userId !== user.id) return null;
+  return { exportId, status: record.status, rowsWritten: record.rowCount ?? 0, expectedRows: null };
+}
 
 /**
  * Starts reading the next batch from the database while the writer is busy with this
@@ -64,6 +82,7 @@ export async function exportRegister({ query, user, requestId, now = new Date() 
 
   const out = new PassThrough({ highWaterMark: 256 * 1024 });
   const progress = { rows: 0 };
+  running.set(exportId, { userId: user.id, progress, expected: expected.value });
   const batches = readAhead(iterateRegisterRows({ filter, timeZone, sort: query.sort, dir: query.dir, batchSize: BATCH_SIZE }));
   const write =
     query.format === "xlsx"
@@ -78,9 +97,11 @@ export async function exportRegister({ query, user, requestId, now = new Date() 
   // Runs on after the response has started; the outcome is recorded, never thrown at the client.
   void write.then(
     async ({ rowCount }) => {
+      running.delete(exportId);
       await finishExport({ id: exportId, userId: user.id, status: "done", rowCount, filter: view, format: query.format, requestId });
     },
     async (error: unknown) => {
+      running.delete(exportId);
       const cancelled = error instanceof ExportCancelledError;
       if (!cancelled) logger.error({ requestId, exportId, err: error instanceof Error ? error.message : String(error) }, "register export failed");
       out.destroy(cancelled ? undefined : (error as Error));

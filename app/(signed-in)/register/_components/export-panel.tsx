@@ -1,7 +1,10 @@
 "use client";
 // Export the current view: the file streams from the server and the panel reads it as it
 // comes, showing bytes (and, for CSV, rows) received against the server's row estimate,
-// then hands the finished file to the browser as a download. A long export can be stopped.
+// then hands the finished file to the browser as a download. For the spreadsheet (whose
+// bytes are compressed) the rows written come from the export's progress address, asked
+// once a second. A long export can be stopped: the download is dropped, which stops the
+// server's writer thread, and nothing is kept.
 import { useRef, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { formatCount } from "@/components/ui/display-format";
@@ -32,6 +35,7 @@ export function ExportPanel({ query }: { query: string }) {
     const params = new URLSearchParams(query);
     params.set("format", format);
     setState({ kind: "running", format, bytes: 0, rows: format === "csv" ? 0 : null, estimate: null, isEstimate: false });
+    let poll: ReturnType<typeof setInterval> | null = null;
     try {
       const response = await fetch(`/api/v1/exports/register?${params.toString()}`, { signal: controller.signal, cache: "no-store" });
       if (!response.ok || !response.body) {
@@ -45,6 +49,21 @@ export function ExportPanel({ query }: { query: string }) {
       const chunks: Uint8Array<ArrayBuffer>[] = [];
       let bytes = 0;
       let rows = 0;
+      let written: number | null = null;
+      const exportId = response.headers.get("x-beadline-export-id");
+      if (format === "xlsx" && exportId) {
+        poll = setInterval(() => {
+          void fetch(`/api/v1/exports/register/progress?id=${encodeURIComponent(exportId)}`, { signal: controller.signal, cache: "no-store" })
+            .then((r) => (r.ok ? (r.json() as Promise<{ rowsWritten: number }>) : null))
+            .then((p) => {
+              if (p && abort.current === controller) {
+                written = p.rowsWritten;
+                setState((s) => (s.kind === "running" ? { ...s, rows: written } : s));
+              }
+            })
+            .catch(() => undefined);
+        }, 1000);
+      }
       let lastPaint = 0;
       for (;;) {
         const { done, value } = await reader.read();
@@ -55,7 +74,7 @@ export function ExportPanel({ query }: { query: string }) {
         const now = performance.now();
         if (now - lastPaint > 150) {
           lastPaint = now;
-          setState({ kind: "running", format, bytes, rows: format === "csv" ? Math.max(0, rows - 1) : null, estimate, isEstimate });
+          setState({ kind: "running", format, bytes, rows: format === "csv" ? Math.max(0, rows - 1) : written, estimate, isEstimate });
         }
       }
       const fileName = fileNameFrom(response.headers.get("content-disposition"), `beadline-register.${format}`);
@@ -73,6 +92,7 @@ export function ExportPanel({ query }: { query: string }) {
       if ((error as Error).name === "AbortError") setState({ kind: "failed", message: "Export stopped. Nothing was downloaded." });
       else setState({ kind: "failed", message: `The export failed: ${(error as Error).message}` });
     } finally {
+      if (poll) clearInterval(poll);
       if (abort.current === controller) abort.current = null;
     }
   };
