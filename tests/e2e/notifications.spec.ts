@@ -81,3 +81,30 @@ test("a fuser reads their own cut-out notice and its link opens the joint", asyn
   await expect(screen.grouping().getByLabel(/One mail an hour/)).toBeChecked();
   await k("users").where({ id: fuserId }).update({ mail_grouping: "immediate" });
 });
+
+test("an inspector reads their own out-of-limits alert and its link opens the joint in Review", async ({ page, baseURL }) => {
+  process.env.BEADLINE_PUBLIC_URL = baseURL;
+  const joint = await makeReviewJoint(k, base, { fuserId, madeAt: new Date(Date.now() - 3_600_000), fault: "heater-cold", pistonAreaMm2: 1006.5, station: "9+15" });
+  await enqueueJointAlert({ jointId: joint.jointId }, k);
+  const about = `${base.jobCode} joint ${joint.jointNo}`;
+
+  await new SignInPage(page).signInAs("inspector");
+  const screen = new NotificationsPage(page);
+  // The alert goes out alone or folded with others that fell in the same window.
+  const item = screen.mail().getByRole("listitem").filter({ hasText: about });
+  await expect
+    .poll(
+      async () => {
+        await screen.open();
+        return (await item.count()) ? ((await item.first().textContent()) ?? "") : "";
+      },
+      { timeout: 30_000, intervals: [1000, 2000, 3000] },
+    )
+    .toMatch(/Sent \d{4}-\d\d-\d\d \d\d:\d\d/);
+  await item.first().locator("summary, button").first().click();
+  const link = item.first().getByRole("link", { name: `${baseURL}/review?joint=${joint.jointId}` });
+  await expect(link).toHaveAttribute("href", `/review?joint=${joint.jointId}`);
+  await link.click();
+  await expect(page).toHaveURL(new RegExp(`/review\\?joint=${joint.jointId}$`));
+  await expect(page.getByRole("heading", { name: about, exact: true })).toBeVisible();
+});
