@@ -106,5 +106,6 @@ test("an inspector reads their own out-of-limits alert and its link opens the jo
   await expect(link).toHaveAttribute("href", `/review?joint=${joint.jointId}`);
   await link.click();
   await expect(page).toHaveURL(new RegExp(`/review\\?joint=${joint.jointId}$`));
-  await expect(page.getByRole("heading", { name: about, exact: true })).toBeVisible();
+  // The joint is open in the selected-joint panel.
+  await expect(page.getByLabel("Selected joint").getByRole("heading", { name: about, exact: true })).toBeVisible();
 });
