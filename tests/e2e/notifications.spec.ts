@@ -11,7 +11,7 @@ import type { Knex } from "knex";
 import { ownerKnex } from "@/database/migrate";
 import { enqueueCutOutNotice } from "@/app/_server/mail/cut-out-notice";
 import { enqueueJointAlert } from "@/app/_server/mail/joint-alert";
-import { makeReviewJoint, type ReviewBase } from "@/fixtures/review-joints";
+import { makeReviewJoint, type ReviewBase, demoReviewBase } from "@/fixtures/review-joints";
 import { NotificationsPage } from "./pages/notifications-page";
 import { SignInPage } from "./pages/sign-in-page";
 
@@ -21,13 +21,7 @@ let fuserId: number;
 
 test.beforeAll(async () => {
   k = ownerKnex(process.env.MIGRATION_DATABASE_URL);
-  const job = await k("jobs").where({ code: "WO-24117" }).first("id", "code", "procedure_id");
-  const version = await k("procedure_versions").where({ procedure_id: job.procedure_id }).orderBy("version_no", "desc").first("id");
-  const machine = await k("fusion_machines").where({ asset_tag: "FM-201" }).first("id");
-  const heater = await k("heater_plates").where({ asset_tag: "HP-31" }).first("id");
-  const fuser = await k("users").where({ email: "fuser@larkmoor-gas.example" }).first("id");
-  base = { procedureId: job.procedure_id, procedureVersionId: version.id, jobId: job.id, jobCode: job.code, machineId: machine.id, heaterId: heater.id, standard: "astm-f2620" };
-  fuserId = fuser.id;
+  ({ base, fuserId } = await demoReviewBase(k));
 });
 
 test.afterAll(async () => {
