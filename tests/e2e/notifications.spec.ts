@@ -48,7 +48,9 @@ test("a fuser reads their own cut-out notice and its link opens the joint", asyn
     .poll(
       async () => {
         await screen.open();
-        return (await screen.message(subject).textContent()) ?? "";
+        // Read without waiting: the mail may not be made yet, and a later poll reloads.
+        const item = screen.message(subject);
+        return (await item.count()) ? ((await item.first().textContent()) ?? "") : "";
       },
       { timeout: 30_000, intervals: [1000, 2000, 3000] },
     )
