@@ -328,7 +328,19 @@ export async function updateCoilStatus(
   return true;
 }
 
-export type DrawDownResult = { coilId: number; coilCode: string; pulledM: number; remainingM: number; status: CoilStatus; fromStatus: CoilStatus };
+export type DrawDownResult = {
+  coilId: number;
+  coilCode: string;
+  pulledM: number;
+  remainingM: number;
+  status: CoilStatus;
+  fromStatus: CoilStatus;
+  /** The job and crew the coil event names. */
+  jobId: number | null;
+  crewId: number | null;
+  /** The length as asked for (the event's words). */
+  requestedM: number;
+};
 
 /**
  * Writes a pull already judged by planPull (domain/coils/life) off a coil locked FOR
@@ -338,7 +350,7 @@ export type DrawDownResult = { coilId: number; coilCode: string; pulledM: number
  * (app/_server/coils/draw-down-coil.ts); so is the audit entry (the joint record).
  */
 export async function writeCoilPull(
-  { coil, pull, pullM, jointId, userId, jobId }: { coil: Coil; pull: Extract<PullPlan, { ok: true }>; pullM: number; jointId?: number | null; userId: number; jobId?: number | null },
+  { coil, pull, pullM, jointId, userId, jobId }: { coil: LockedCoil; pull: Extract<PullPlan, { ok: true }>; pullM: number; jointId?: number | null; userId: number; jobId?: number | null },
   trx: Knex.Transaction,
 ): Promise<DrawDownResult> {
   let useJobId = jobId ?? null;
@@ -346,23 +358,67 @@ export async function writeCoilPull(
     const joint = (await trx("joints").select("job_id").where("id", jointId).first()) as { job_id: number } | undefined;
     useJobId = joint ? Number(joint.job_id) : null;
   }
+  const drawn = await writeCoilLength({ coil, pull, pullM, jobId: useJobId }, trx);
+  await insertPullEvents({ pulls: [drawn], jointId: jointId ?? null, userId }, trx);
+  return drawn;
+}
+
+/** What a joint's transaction needs of a coil it has locked: enough to judge and write a pull. */
+export type LockedCoil = Pick<Coil, "id" | "coilCode" | "status" | "statusReason" | "remainingM" | "jobId" | "crewId" | "version">;
+
+/**
+ * Locks these coil rows for the rest of the transaction in ONE statement, in id order (the
+ * primary key's order, so two transactions locking overlapping coils queue up instead of
+ * deadlocking): FOR UPDATE when pipe is pulled from them, LOCK IN SHARE MODE otherwise (a
+ * joint that only names a coil lets other joints name it too). Returns each row as it stands
+ * now (a locking read sees the latest committed version).
+ */
+export async function lockCoils({ ids, exclusive }: { ids: number[]; exclusive: boolean }, trx: Knex.Transaction): Promise<Map<number, LockedCoil>> {
+  if (!ids.length) return new Map();
+  const q = trx("coils").whereIn("id", [...new Set(ids)]).orderBy("id").select("id", "coil_code", "status", "status_reason", "remaining_m", "job_id", "crew_id", "version");
+  const rows = (await (exclusive ? q.forUpdate() : q.forShare())) as Pick<CoilTableRow, "id" | "coil_code" | "status" | "status_reason" | "remaining_m" | "job_id" | "crew_id" | "version">[];
+  return new Map(
+    rows.map((r) => [
+      Number(r.id),
+      { id: Number(r.id), coilCode: r.coil_code, status: r.status as CoilStatus, statusReason: r.status_reason ?? null, remainingM: Number(r.remaining_m), jobId: num(r.job_id), crewId: num(r.crew_id), version: Number(r.version) },
+    ]),
+  );
+}
+
+/**
+ * The coil half of a pull (writeCoilPull without its event): the length left, the status and
+ * the joint's job when the coil had none, on a coil locked FOR UPDATE. The record-joint use
+ * case writes this before it takes the joint's number and the event (insertPullEvents) after
+ * the joint exists.
+ */
+export async function writeCoilLength(
+  { coil, pull, pullM, jobId }: { coil: LockedCoil; pull: Extract<PullPlan, { ok: true }>; pullM: number; jobId: number | null },
+  trx: Knex.Transaction,
+): Promise<DrawDownResult> {
   const patch: Partial<CoilTableRow> = { remaining_m: pull.remainingM, status: pull.status, version: coil.version + 1 };
-  if (coil.jobId == null && useJobId != null) patch.job_id = useJobId;
+  if (coil.jobId == null && jobId != null) patch.job_id = jobId;
   patch.status_reason = pull.isUsedUp ? "All of the coil has been laid" : null;
   await trx("coils").where({ id: coil.id }).update(patch);
-  await trx("coil_events").insert({
-    coil_id: coil.id,
-    by_user_id: userId,
-    from_status: coil.status,
-    to_status: pull.status,
-    reason: jointId != null ? `Pulled ${pullM.toFixed(2)} m for joint ${jointId}` : `Pulled ${pullM.toFixed(2)} m`,
-    job_id: useJobId ?? coil.jobId,
-    crew_id: coil.crewId,
-    pull_m: Math.round(pullM * 100) / 100,
-    remaining_m: pull.remainingM,
-    joint_id: jointId ?? null,
-  });
-  return { coilId: coil.id, coilCode: coil.coilCode, pulledM: Math.round(pullM * 100) / 100, remainingM: pull.remainingM, status: pull.status, fromStatus: coil.status };
+  return { coilId: coil.id, coilCode: coil.coilCode, pulledM: Math.round(pullM * 100) / 100, remainingM: pull.remainingM, status: pull.status, fromStatus: coil.status, jobId: jobId ?? coil.jobId, crewId: coil.crewId, requestedM: pullM };
+}
+
+/** The coil_events rows of pulls (one statement): the pull, the length left and the joint. */
+export async function insertPullEvents({ pulls, jointId, userId }: { pulls: DrawDownResult[]; jointId: number | null; userId: number }, trx: Knex.Transaction): Promise<void> {
+  if (!pulls.length) return;
+  await trx("coil_events").insert(
+    pulls.map((p) => ({
+      coil_id: p.coilId,
+      by_user_id: userId,
+      from_status: p.fromStatus,
+      to_status: p.status,
+      reason: jointId != null ? `Pulled ${p.requestedM.toFixed(2)} m for joint ${jointId}` : `Pulled ${p.requestedM.toFixed(2)} m`,
+      job_id: p.jobId,
+      crew_id: p.crewId,
+      pull_m: Math.round(p.requestedM * 100) / 100,
+      remaining_m: p.remainingM,
+      joint_id: jointId,
+    })),
+  );
 }
 
 export type CoilEvent = {

@@ -9,7 +9,7 @@ import type { JointOutcome } from "@/domain/joints/outcomes";
 import type { ReviewState } from "@/domain/joints/review-states";
 import type { RevisionKind } from "@/domain/joints/revision-kinds";
 import type { JointKind, Shelter, TimedPhase } from "@/domain/joints/schemas";
-import type { RecordedValues } from "@/domain/joints/values";
+import { QUANTITY_VALUES, type RecordedValues } from "@/domain/joints/values";
 import type { OverrideGrant } from "@/domain/joints/rules";
 import { conn, type Db } from "../client";
 import { coilQuery, toCoil, type Coil } from "./coils";
@@ -259,12 +259,6 @@ export async function listJointsAwaitingRemake({ jobIds, limit = 50 }: { jobIds:
 }
 
 /**
- * The next joint number of a job, gap-free under concurrent submissions: locks the job's
- * counter row (SELECT … FOR UPDATE) for the rest of the caller's transaction and bumps it.
- * A rollback undoes the bump, so a refused joint leaves no gap. Creates the counter row
- * for a job that has none.
- */
-/**
  * Joints on any of these coils (either side) made from `since` up to `until`, newest first:
  * the handling wait's look-back when pipe is pulled from a coil. Two index lookups (one per
  * side), not a scan.
@@ -287,15 +281,80 @@ export async function listRecentJointsOnCoils(
     .sort((a, b) => b.madeAt.getTime() - a.madeAt.getTime());
 }
 
+/**
+ * The next joint number of a job, gap-free under concurrent submissions: one statement bumps
+ * the job's counter row and hands the new value back through LAST_INSERT_ID(expr) (the OK
+ * packet's insert id), so the row is locked from here to the end of the caller's transaction
+ * and no SELECT … FOR UPDATE round trip comes first. Call it as late as the transaction allows:
+ * every submission on the job waits for this row. A rollback undoes the bump, so a refused
+ * joint leaves no gap. Creates the counter row for a job that has none.
+ */
 export async function takeNextJointNo({ jobId }: { jobId: number }, trx: Knex.Transaction): Promise<number> {
-  let row = (await trx("job_counters").where({ job_id: jobId }).forUpdate().first("last_joint_no")) as { last_joint_no: number } | undefined;
-  if (!row) {
+  const bump = async () => {
+    const [result] = (await trx.raw("UPDATE job_counters SET last_joint_no = LAST_INSERT_ID(last_joint_no + 1) WHERE job_id = ?", [jobId])) as unknown as [{ affectedRows: number; insertId: number }];
+    return result;
+  };
+  let result = await bump();
+  if (result.affectedRows !== 1) {
     await trx.raw("INSERT IGNORE INTO job_counters (job_id, last_joint_no) VALUES (?, 0)", [jobId]);
-    row = (await trx("job_counters").where({ job_id: jobId }).forUpdate().first("last_joint_no")) as { last_joint_no: number } | undefined;
+    result = await bump();
   }
-  const next = Number(row?.last_joint_no ?? 0) + 1;
-  await trx("job_counters").where({ job_id: jobId }).update({ last_joint_no: next });
-  return next;
+  if (result.affectedRows === 1 && Number(result.insertId) > 0) return Number(result.insertId);
+  // The row is ours until commit: read it when a driver does not pass the insert id on.
+  const row = (await trx("job_counters").where({ job_id: jobId }).first("last_joint_no")) as { last_joint_no: number } | undefined;
+  if (!row) throw new Error(`job ${jobId} has no joint counter`);
+  return Number(row.last_joint_no);
+}
+
+/**
+ * `value` as a DECIMAL column of `scale` keeps it: mysql2 sends a number as JavaScript prints
+ * it, and MariaDB rounds such an exact literal to the column's scale half away from zero.
+ * undefined when JavaScript prints it in exponent form (then it is not an exact literal).
+ */
+export function asStoredDecimal(value: number, scale: number): number | undefined {
+  const text = String(value);
+  if (!/^-?\d+(\.\d+)?$/.test(text)) return undefined;
+  const negative = text.startsWith("-");
+  const [whole, fraction = ""] = (negative ? text.slice(1) : text).split(".");
+  if (fraction.length <= scale) return value;
+  let digits = BigInt(whole + fraction.slice(0, scale));
+  if (fraction.charCodeAt(scale) >= 53) digits += BigInt(1); // the next digit is 5 or more
+  const padded = digits.toString().padStart(scale + 1, "0");
+  const rounded = Number(`${padded.slice(0, padded.length - scale)}.${padded.slice(padded.length - scale)}`);
+  return rounded === 0 ? 0 : negative ? -rounded : rounded;
+}
+
+let decimalScales: Promise<Map<string, number>> | undefined;
+
+/** The scale of each DECIMAL column of `joints`, read once per process (the schema changes only by migration, before the server starts). */
+function jointDecimalScales(): Promise<Map<string, number>> {
+  decimalScales ??= (async () => {
+    const [rows] = (await conn().raw("SELECT column_name AS c, numeric_scale AS s FROM information_schema.columns WHERE table_schema = DATABASE() AND table_name = 'joints' AND data_type = 'decimal'")) as unknown as [{ c: string; s: number }[]];
+    return new Map(rows.map((r) => [r.c, Number(r.s)]));
+  })().catch((error: unknown) => {
+    decimalScales = undefined;
+    throw error;
+  });
+  return decimalScales;
+}
+
+/**
+ * The recorded values and ambient temperature as the joints row keeps them (rounded to each
+ * column's scale), so the answer to a submission can be built from what was written instead
+ * of read back; null when one of them cannot be predicted (exponent form, unknown column).
+ */
+export async function recordedValuesAsStored(values: RecordedValues & { ambientC: number | null }): Promise<(RecordedValues & { ambientC: number | null }) | null> {
+  const scales = await jointDecimalScales();
+  const out: Record<string, unknown> = { ...values };
+  for (const [key, column] of [...QUANTITY_VALUES.map((d) => [d.key, d.column] as const), ["ambientC", "ambient_c"] as const]) {
+    const value = out[key];
+    if (value === null || value === undefined) continue;
+    const scale = scales.get(column);
+    const stored = scale === undefined || typeof value !== "number" ? undefined : asStoredDecimal(value, scale);
+    if (stored === undefined) return null;
+    out[key] = stored;
+  }
+  return out as RecordedValues & { ambientC: number | null };
 }
 
 /** A joint to insert: the fields it shares with JointRecord, with ids for its coils and equipment. */
@@ -499,8 +558,10 @@ export async function listOverridesForSubjects(
   return ((await q.orderBy("o.id", "desc")) as OverrideRow[]).map(toOverride);
 }
 
-export async function insertOverrideUse(u: { jointId: number; overrideId: number; blockKind: string; message: string }, trx: Db): Promise<void> {
-  await conn(trx)("joint_override_uses").insert({ joint_id: u.jointId, override_id: u.overrideId, block_kind: u.blockKind, message: u.message.slice(0, 500) });
+/** The override uses of one joint (the grants it used), in one statement. */
+export async function insertOverrideUses(uses: { jointId: number; overrideId: number; blockKind: string; message: string }[], trx: Db): Promise<void> {
+  if (!uses.length) return;
+  await conn(trx)("joint_override_uses").insert(uses.map((u) => ({ joint_id: u.jointId, override_id: u.overrideId, block_kind: u.blockKind, message: u.message.slice(0, 500) })));
 }
 
 export async function listOverrideUsesForJoint({ jointId }: { jointId: number }, trx?: Db): Promise<(OverrideRecord & { blockKind: string; message: string })[]> {

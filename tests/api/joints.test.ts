@@ -114,6 +114,10 @@ async function counts() {
   return { joints: await n("joints"), revisions: await n("joint_revisions"), states: await n("joint_states"), audit: Number(((await k("audit_log").where({ action: "joint-recorded" }).count({ n: "*" }).first()) as { n: number }).n), attachments: await n("attachments"), coilEvents: Number(((await k("coil_events").whereNotNull("joint_id").count({ n: "*" }).first()) as { n: number }).n) };
 }
 
+async function numbersOnJob(jobId: number): Promise<number[]> {
+  return ((await ownerDb()("joints").where({ job_id: jobId }).orderBy("joint_no").select("joint_no")) as { joint_no: number }[]).map((r) => r.joint_no);
+}
+
 const NOTHING = { joints: 0, revisions: 0, states: 0, audit: 0, attachments: 0, coilEvents: 0 };
 
 describe("recording a joint", () => {
@@ -341,6 +345,85 @@ describe("recording a joint", () => {
     const rows = await ownerDb()("joints").where({ job_id: base.jobId }).orderBy("joint_no").select("joint_no");
     expect(rows.map((r) => r.joint_no)).toEqual(numbers);
     expect(Number((await ownerDb()("coils").where({ id: base.coils.A }).first()).remaining_m)).toBeCloseTo(152.4 - 20, 2);
+  });
+
+  // design rule: joint numbers are unique and gap-free per job whatever the interleaving. The
+  // coils are locked (in id order) before the job's counter, so submissions that share coils
+  // across jobs neither wait on each other in a circle nor lose a pull.
+  it("30 concurrent submissions on one job beside 10 on another job using the same coils: numbers 1..30 and 1..10, every pull drawn once", async () => {
+    const k = ownerDb();
+    const [secondJobId] = await k("jobs").insert({ code: "WO-T2", name: "Second main", procedure_id: base.procedureId, status: "open" });
+    await k("job_counters").insert({ job_id: secondJobId, last_joint_no: 0 });
+    // Job 1: a third pull 1 m from coil A, a third only name the coils, a third pull 0.5 m from coil B (as side A).
+    const onFirst = Array.from({ length: 30 }, (_, i) =>
+      i % 3 === 0 ? goodJoint(base, { lengthAM: 1 }) : i % 3 === 1 ? goodJoint(base, { lengthAM: undefined }) : goodJoint(base, { coilA: "T-C0002", coilB: "T-C0001", lengthAM: 0.5 }),
+    );
+    // Job 2: each pulls 1 m from coil A.
+    const onSecond = Array.from({ length: 10 }, () => goodJoint(base, { jobId: Number(secondJobId), lengthAM: 1 }));
+    const results = await Promise.all([...onFirst, ...onSecond].map((b) => post(fuser, b)));
+    expect(results.map((r) => r.status)).toEqual(Array(40).fill(201));
+    expect(await numbersOnJob(base.jobId)).toEqual(Array.from({ length: 30 }, (_, i) => i + 1));
+    expect(await numbersOnJob(Number(secondJobId))).toEqual(Array.from({ length: 10 }, (_, i) => i + 1));
+    // Each answer names the number its joint was stored under.
+    for (const r of results) expect((await k("joints").where({ id: r.body.joint.id }).first("joint_no")).joint_no).toBe(r.body.joint.jointNo);
+    // common practice (no published source): 152.40 − 10 × 1 − 10 × 1 = 132.40 m on A; 152.40 − 10 × 0.5 = 147.40 m on B.
+    expect(Number((await k("coils").where({ id: base.coils.A }).first()).remaining_m)).toBeCloseTo(132.4, 2);
+    expect(Number((await k("coils").where({ id: base.coils.B }).first()).remaining_m)).toBeCloseTo(147.4, 2);
+    const c = await counts();
+    expect([c.joints, c.revisions, c.states, c.audit, c.coilEvents]).toEqual([40, 40, 40, 40, 30]);
+    expect(Number((await k("job_counters").where({ job_id: base.jobId }).first()).last_joint_no)).toBe(30);
+    expect(Number((await k("job_counters").where({ job_id: secondJobId }).first()).last_joint_no)).toBe(10);
+  });
+
+  // design rule: a failure halfway writes nothing, and a refused joint takes no number.
+  it("a submission refused inside the transaction, also after its number was taken, leaves no joint, revision, state, coil pull or audit row, and the next joint gets the next number", async () => {
+    const k = ownerDb();
+    const first = await post(fuser, goodJoint(base));
+    expect(first.body.joint.jointNo).toBe(1);
+    const before = await counts();
+    const coilALeft = Number((await k("coils").where({ id: base.coils.A }).first()).remaining_m);
+    // A photo that is not on file is found out only when the joint takes it: after the number and the joint row.
+    const missingPhoto = await post(fuser, goodJoint(base, { photoIds: [987654] }));
+    expect(missingPhoto.status).toBe(422);
+    expect(Object.keys(missingPhoto.body.error.fields)).toEqual(["photoIds"]);
+    // A pull longer than the coil has left is refused under the coil's lock, before the number.
+    const tooLong = await post(fuser, goodJoint(base, { lengthAM: 500 }));
+    expect(tooLong.status).toBe(422);
+    expect(tooLong.body.error.fields.lengthAM[0]).toMatch(/has only .* left/);
+    expect(await counts()).toEqual(before);
+    expect(await k("notifications")).toHaveLength(0);
+    expect(Number((await k("coils").where({ id: base.coils.A }).first()).remaining_m)).toBe(coilALeft);
+    expect(Number((await k("job_counters").where({ job_id: base.jobId }).first()).last_joint_no)).toBe(1);
+    const next = await post(fuser, goodJoint(base));
+    expect(next.status).toBe(201);
+    expect(next.body.joint.jointNo).toBe(2);
+    expect(await numbersOnJob(base.jobId)).toEqual([1, 2]);
+  });
+
+  // The answer to a new joint is built from what was written; it must be what the database
+  // gives back. Reference: MariaDB itself — DECIMAL columns keep a value rounded to their scale
+  // (half away from zero); the resubmission's answer is read from the stored row.
+  it("the answer that records a joint is the one its stored row gives (values rounded as their columns keep them, in the reader's units)", async () => {
+    const usFuser = await makeUser({ roles: ["fuser"], name: "Uma Us", unitSystem: "us" });
+    await qualify(usFuser.id, base.procedureId, 30);
+    const bodies = [
+      // More digits than the columns keep, halves on both sides of zero, out of limits so the
+      // findings carry the measured values: 1.005 and 12.35 lie just below their halves in binary,
+      // but MariaDB rounds the decimal text it is sent (1.01 mm, 12.4 s).
+      goodJoint(base, { heaterTemperatureC: 190.05, ambientC: -3.25, beadMm: 1.005, coolingS: 30.05, changeoverS: 12.35, fusionGaugeMpa: 0.51710745 }),
+      goodJoint(base, { ambientC: 0.04, beadMm: 3.2049, fusionGaugeMpa: Math.round(expectedFusionGaugeMpa(75) * 1e7) / 1e7, lengthAM: undefined }),
+    ];
+    for (const user of [fuser, usFuser]) {
+      for (const body of bodies) {
+        const made = await post(user, { ...body, clientId: randomUUID() });
+        expect(made.status).toBe(201);
+        const again = await post(user, { ...body, clientId: made.body.joint.clientId });
+        expect(again.status).toBe(200);
+        const { warnings: _w, ...recorded } = made.body.joint;
+        const { warnings: _again, ...stored } = again.body.joint;
+        expect(recorded).toEqual(stored);
+      }
+    }
   });
 
   it("bad input gives 422 naming every field and writes nothing", async () => {

@@ -3,8 +3,10 @@
 // joint's date, size mismatch, blocking warnings and their overrides, pressure plan, joint
 // check — never the device's verdict), then writes the joint, its first revision, its state,
 // the coil pulls, the photo links, the override uses, the audit entry and (out of limits)
-// the inspectors' alert in ONE transaction. Joint numbers come from the job's counter row
-// locked FOR UPDATE, so they are gap-free under concurrent submissions. A client id seen
+// the inspectors' alert in ONE short transaction: everything that can be decided before it is
+// decided before it (prepare), and inside it the job's counter row is locked last, just before
+// the joint is inserted, so the numbers are gap-free under concurrent submissions while other
+// submissions on the job wait only for the inserts (see writeJoint). A client id seen
 // before returns the joint it made when the submission is the same (its SHA-256 fingerprint,
 // domain/joints/submission), also when two copies race; with other values it is refused
 // (409) naming the fields that differ.
@@ -15,24 +17,26 @@ import type { Knex } from "knex";
 import { db, isDuplicateKey } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { attachPhotosToJoint } from "@/database/queries/attachments";
-import { findCoilByCodeOrTrace, lockCoil, type Coil } from "@/database/queries/coils";
+import { findCoilByCodeOrTrace, insertPullEvents, lockCoils, type Coil } from "@/database/queries/coils";
 import { findHeaterWithLastCheck, findMachineById } from "@/database/queries/equipment";
 import { findJobById } from "@/database/queries/jobs";
 import {
   findJointByClientId,
   findJointById,
   insertJoint,
+  recordedValuesAsStored,
   insertJointRevision,
   insertJointState,
-  insertOverrideUse,
+  insertOverrideUses,
   listOverridesForSubjects,
   listRecentJointsOnCoils,
   lockJointForRemake,
   markJointReplaced,
   takeNextJointNo,
   type JointRecord,
+  type NewJoint,
 } from "@/database/queries/joints";
-import { currentProcedureVersionForJob } from "@/database/queries/procedures";
+import { currentProcedureVersion } from "@/database/queries/procedures";
 import { listQualificationFailuresForUser, listQualificationsForUser } from "@/database/queries/qualifications";
 import { listUsersWithRole, type UserRecord } from "@/database/queries/users";
 import { checkJoint, type JointCheck } from "@/domain/fusion/check";
@@ -49,7 +53,7 @@ import { AppError } from "@/domain/result";
 import type { UnitSystem } from "@/domain/units/format";
 import { isoDateIn } from "@/domain/dates/zone";
 import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
-import { drawDownCoil } from "@/app/_server/coils/draw-down-coil";
+import { drawDownLockedCoil, type DrawDownResult } from "@/app/_server/coils/draw-down-coil";
 import { enqueueJointAlert } from "@/app/_server/mail/joint-alert";
 
 /** What the device and the API get back: the server's verdict in the caller's units. */
@@ -80,7 +84,11 @@ export function verdictOf(joint: Pick<JointRecord, "plan" | "ambientC" | "shelte
   return checkJoint(joint.plan, pickRecordedValues(joint), { system, conditions: { ambientC: joint.ambientC, shelter: joint.shelter } });
 }
 
-export function describeRecordedJoint(joint: JointRecord, system: UnitSystem): RecordedJoint {
+/** What describeRecordedJoint reads of a joint: a stored one, or the one just written (recordJoint). */
+export type DescribableJoint = RecordedValues &
+  Pick<JointRecord, "id" | "clientId" | "jobId" | "jobCode" | "jointNo" | "madeAt" | "plan" | "ambientC" | "shelter" | "reviewState" | "procedureCode" | "procedureVersionNo" | "replacesJointId" | "replacesJointNo">;
+
+export function describeRecordedJoint(joint: DescribableJoint, system: UnitSystem): RecordedJoint {
   const check = verdictOf(joint, system);
   const procedure = `${joint.procedureCode} v${joint.procedureVersionNo}`;
   const advice =
@@ -112,8 +120,7 @@ function namesOf(users: { name: string }[]): string[] {
   return users.map((u) => u.name);
 }
 
-async function resolveCoil(text: string, field: "coilA" | "coilB", user: UserRecord): Promise<Coil> {
-  const coil = await findCoilByCodeOrTrace({ code: text, preferCrewId: user.crewId });
+function coilOnFile(coil: Coil | null, text: string, field: "coilA" | "coilB"): Coil {
   if (!coil) throw invalid(field, `No coil "${text.slice(0, 60)}" is on file: check the label, or type our coil id (such as LV-C0001).`);
   return coil;
 }
@@ -126,6 +133,8 @@ type Prepared = {
   coilA: Coil;
   coilB: Coil | null;
   procedureVersionId: number;
+  procedureCode: string;
+  procedureVersionNo: number;
   jobCode: string;
   covered: ReturnType<typeof applyOverrides>["covered"];
   /** The coils the side texts named, and the submission's fingerprint (SHA-256 hex). */
@@ -145,16 +154,19 @@ async function prepare(input: RecordJointInput, user: UserRecord, madeAt: Date):
   if (job.crewId !== null && job.crewId !== user.crewId) {
     throw new AppError("forbidden", `Job ${job.code} belongs to the ${job.crewName ?? "another"} crew; you can record joints only on your own crew's jobs.`, { jobId: [`Job ${job.code} is not one of your crew's jobs.`] });
   }
-  const version = await currentProcedureVersionForJob({ jobId: job.id });
+  const version = await currentProcedureVersion({ procedureId: job.procedureId });
   if (!version) throw new AppError("conflict", noPublishedVersionMessage(job.code), { jobId: [NO_PUBLISHED_VERSION_FIELD_MESSAGE] });
 
-  const [qualifications, failures, admins, inspectors, machine, heater] = await Promise.all([
+  // The lookups that do not depend on each other go out together; their refusals are judged
+  // afterwards in the order the form reads (machine, heater, coil A, coil B).
+  const coilBText = input.kind === "coil-to-coil" && input.coilB ? input.coilB : null;
+  const [qualifications, failures, machine, heater, foundA, foundB] = await Promise.all([
     listQualificationsForUser({ userId: user.id, procedureId: job.procedureId }),
     listQualificationFailuresForUser({ userId: user.id, procedureId: job.procedureId }),
-    listUsersWithRole({ role: "admin" }),
-    listUsersWithRole({ role: "inspector" }),
     findMachineById({ id: input.machineId }),
     findHeaterWithLastCheck({ id: input.heaterId, now: madeAt, timeZone }),
+    findCoilByCodeOrTrace({ code: input.coilA, preferCrewId: user.crewId }),
+    coilBText ? findCoilByCodeOrTrace({ code: coilBText, preferCrewId: user.crewId }) : Promise.resolve(null),
   ]);
   const qualification = qualificationStatus({ qualifiedOn: qualifications.map((q) => q.qualifiedOn), failedTestsOn: failures.map((f) => f.failedOn), on });
 
@@ -162,12 +174,13 @@ async function prepare(input: RecordJointInput, user: UserRecord, madeAt: Date):
   if (!machine.isUsable) throw invalid("machineId", machine.problems.join(" "));
   if (!heater) throw invalid("heaterId", `Heater plate ${input.heaterId} does not exist.`);
 
-  const coilA = await resolveCoil(input.coilA, "coilA", user);
-  const coilB = input.kind === "coil-to-coil" && input.coilB ? await resolveCoil(input.coilB, "coilB", user) : null;
+  const coilA = coilOnFile(foundA, input.coilA, "coilA");
+  const coilB = coilBText ? coilOnFile(foundB, coilBText, "coilB") : null;
   const problem = preRecordProblems({ sideA: toSide(coilA), sideB: coilB ? toSide(coilB) : null, machine }, user.unitSystem)[0];
   if (problem) throw invalid(problem.field, problem.message);
 
-  const reasons = blockReasons({
+  // The names of whom to ask appear only in the words of a block: read them only when there is one.
+  const reasonsWith = (admins: UserRecord[], inspectors: UserRecord[]) => blockReasons({
     qualification,
     procedureLabel: `${version.procedureCode} (${version.procedureName})`,
     heater: { id: heater.id, assetTag: heater.assetTag, isActive: heater.isActive, lastCheck: heater.lastCheck ? { passed: heater.lastCheck.passed, nextDueOn: heater.lastCheck.nextDueOn } : null },
@@ -185,6 +198,11 @@ async function prepare(input: RecordJointInput, user: UserRecord, madeAt: Date):
     admins: namesOf(admins),
     inspectors: namesOf(inspectors.length ? inspectors : admins),
   });
+  let reasons = reasonsWith([], []);
+  if (reasons.length) {
+    const [admins, inspectors] = await Promise.all([listUsersWithRole({ role: "admin" }), listUsersWithRole({ role: "inspector" })]);
+    reasons = reasonsWith(admins, inspectors);
+  }
   const refusal = reasons.find((r) => r.severity === "refuse");
   if (refusal) {
     if (refusal.kind === "qualification") throw new AppError("forbidden", refusal.message, { _form: [refusal.message] });
@@ -204,7 +222,7 @@ async function prepare(input: RecordJointInput, user: UserRecord, madeAt: Date):
   // The server's own check, messages in SI for the record (screens re-check in their units).
   const check = checkJoint(plan, pickRecordedValues(input), { system: "si", conditions: { ambientC: input.ambientC, shelter: input.shelter } });
   const sides = { coilAId: coilA.id, coilBId: coilB?.id ?? null };
-  return { plan, check, coilA, coilB, procedureVersionId: version.id, jobCode: job.code, covered, sides, submissionSha256: submissionSha256(input, sides) };
+  return { plan, check, coilA, coilB, procedureVersionId: version.id, procedureCode: version.procedureCode, procedureVersionNo: version.versionNo, jobCode: job.code, covered, sides, submissionSha256: submissionSha256(input, sides) };
 }
 
 /** SHA-256 (hex) of the submission's canonical text (domain/joints/submission). */
@@ -269,13 +287,12 @@ export async function recordJoint(input: RecordJointInput, ctx: { user: UserReco
 
   const prepared = await prepare(input, user, madeAt);
   const warnings = await handlingWarnings(input, prepared, madeAt);
-  // A cleared quarantined or used-up coil is named but not drawn down; a cleared coil of another crew's job is.
-  const coveredCoils = new Set(prepared.covered.filter((c) => c.reason.subject?.type === "coil" && NO_PULL_BLOCKS.includes(c.reason.kind)).map((c) => c.reason.subject!.id));
+  const rows = jointRows(input, prepared, { user, madeAt, requestId: ctx.requestId ?? null, warnings });
 
   for (let attempt = 1; ; attempt += 1) {
     try {
-      const jointId = await db().transaction((trx) => writeJoint(trx, input, prepared, { user, madeAt, coveredCoils, requestId: ctx.requestId ?? null, warnings }));
-      const joint = await loadJoint(jointId);
+      const written = await db().transaction((trx) => writeJoint(trx, input, rows, user));
+      const joint = (await asWritten(input, prepared, written)) ?? (await loadJoint(written.jointId));
       return { created: true, joint: { ...describeRecordedJoint(joint, user.unitSystem), warnings } };
     } catch (error) {
       if (isClientIdDuplicate(error)) {
@@ -299,41 +316,73 @@ async function handlingWarnings(input: RecordJointInput, p: Prepared, madeAt: Da
   return handlingWaitWarnings(pulled.map((c) => c.coilCode), recent.map((r) => ({ ...r, coilCode: codeOf.get(r.coilId) ?? "" })), madeAt);
 }
 
+/**
+ * The joint as findJointById would read it back right after the commit, built from what was
+ * written (the numbers rounded as their columns keep them, the plan through JSON as stored),
+ * so the answer needs no read after the transaction; null when a number's stored form cannot
+ * be predicted (the caller reads the joint then).
+ */
+async function asWritten(input: RecordJointInput, p: Prepared, written: Written): Promise<DescribableJoint | null> {
+  const values = await recordedValuesAsStored({ ...pickRecordedValues(input), ambientC: input.ambientC });
+  if (!values) return null;
+  return {
+    ...values,
+    id: written.jointId,
+    clientId: input.clientId,
+    jobId: input.jobId,
+    jobCode: p.jobCode,
+    jointNo: written.jointNo,
+    madeAt: new Date(input.madeAt),
+    plan: JSON.parse(JSON.stringify(p.plan)) as FusionPlan,
+    shelter: input.shelter,
+    reviewState: "pending-review",
+    procedureCode: p.procedureCode,
+    procedureVersionNo: p.procedureVersionNo,
+    replacesJointId: written.replacesJointId,
+    replacesJointNo: written.replacesJointNo,
+  };
+}
+
 async function loadJoint(id: number): Promise<JointRecord> {
   const joint = await findJointById({ id });
   if (!joint) throw new Error(`joint ${id} vanished after commit`);
   return joint;
 }
 
-async function writeJoint(
-  trx: Knex.Transaction,
-  input: RecordJointInput,
-  p: Prepared,
-  ctx: { user: UserRecord; madeAt: Date; coveredCoils: Set<number>; requestId: string | null; warnings: string[] },
-): Promise<number> {
+/** The rows a joint writes, made before the transaction; only the ids and the number wait for it. */
+type JointRows = {
+  /** The joint row without its number and the joint it replaces (known inside the transaction). */
+  joint: Omit<NewJoint, "jointNo" | "replacesJointId">;
+  /** The coils it names, ascending id, and the pulls off them (ascending coil id). */
+  coilIds: number[];
+  pulls: { coilId: number; pullM: number; field: string }[];
+  photoIds: number[];
+  revisionChanges: Record<string, unknown>;
+  overrideUses: { overrideId: number; blockKind: string; message: string }[];
+  outcome: JointCheck["outcome"];
+  /** The audit entry's details once the number, the pulls and the replaced joint are known. */
+  auditDetails: (known: { jointNo: number; pulls: DrawDownResult[]; replacesJointId: number | null }) => Record<string, unknown>;
+  requestId: string | null;
+};
+
+function jointRows(input: RecordJointInput, p: Prepared, ctx: { user: UserRecord; madeAt: Date; requestId: string | null; warnings: string[] }): JointRows {
   const { user, madeAt } = ctx;
-  const jointNo = await takeNextJointNo({ jobId: input.jobId }, trx);
-  // Lock the coils in id order before anything references them, so two jobs laying from
-  // the same coil queue up instead of deadlocking.
-  const coils = [p.coilA, ...(p.coilB ? [p.coilB] : [])].sort((a, b) => a.id - b.id);
-  for (const c of coils) await lockCoil({ id: c.id }, trx);
-
-  let replaces: Awaited<ReturnType<typeof lockJointForRemake>> = null;
-  if (input.replacesJointId) {
-    replaces = await lockJointForRemake({ id: input.replacesJointId }, trx);
-    if (!replaces) throw invalid("replacesJointId", `Joint ${input.replacesJointId} does not exist.`);
-    if (replaces.jobId !== input.jobId) throw invalid("replacesJointId", `Joint ${replaces.jointNo} is on another job; a remake replaces a joint on the same job.`);
-    if (replaces.outcome === "within-limits" && replaces.reviewState !== "cut-out") {
-      throw invalid("replacesJointId", `Joint ${replaces.jointNo} is within limits and was not cut out; there is nothing to remake.`);
-    }
-    if (replaces.replacedByJointId) throw new AppError("conflict", `Joint ${replaces.jointNo} has already been remade.`, { replacesJointId: [`Joint ${replaces.jointNo} has already been remade.`] });
-  }
-
-  const jointId = await insertJoint(
-    {
+  // A cleared quarantined or used-up coil is named but not drawn down; a cleared coil of another crew's job is.
+  const coveredCoils = new Set(p.covered.filter((c) => c.reason.subject?.type === "coil" && NO_PULL_BLOCKS.includes(c.reason.kind)).map((c) => c.reason.subject!.id));
+  const pulls: JointRows["pulls"] = [];
+  if (input.lengthAM && input.lengthAM > 0 && !coveredCoils.has(p.coilA.id)) pulls.push({ coilId: p.coilA.id, pullM: input.lengthAM, field: "lengthAM" });
+  if (p.coilB && input.lengthBM && input.lengthBM > 0 && !coveredCoils.has(p.coilB.id)) pulls.push({ coilId: p.coilB.id, pullM: input.lengthBM, field: "lengthBM" });
+  pulls.sort((a, b) => a.coilId - b.coilId);
+  const photos = [...new Set(input.photoIds)];
+  // One use per grant: a grant on a coil may clear two of its blocks (quarantined and on another crew's job).
+  const overrideUses = [...new Set(p.covered.map((c) => c.grant.id))].map((grantId) => {
+    const reasons = p.covered.filter((c) => c.grant.id === grantId).map((c) => c.reason);
+    return { overrideId: grantId, blockKind: reasons.map((r) => r.kind).join(","), message: reasons.map((r) => r.message).join(" ") };
+  });
+  return {
+    joint: {
       clientId: input.clientId,
       jobId: input.jobId,
-      jointNo,
       kind: input.kind,
       coilAId: p.coilA.id,
       coilBId: p.coilB?.id ?? null,
@@ -357,65 +406,88 @@ async function writeJoint(
       plan: p.plan,
       outcome: p.check.outcome,
       findings: p.check.findings,
-      replacesJointId: replaces?.id ?? null,
       submissionSha256: p.submissionSha256,
     },
-    trx,
-  );
-  await insertJointRevision(
-    { jointId, revisionNo: 1, kind: "recorded", byUserId: user.id, reviewState: "pending-review", changes: { outcome: p.check.outcome, timedFields: input.timedFields, overrides: p.covered.map((c) => c.grant.id) } },
-    trx,
-  );
-  await insertJointState({ jointId, reviewState: "pending-review", revisionNo: 1, outcome: p.check.outcome, madeAt }, trx);
+    coilIds: [...new Set([p.coilA.id, ...(p.coilB ? [p.coilB.id] : [])])].sort((a, b) => a - b),
+    pulls,
+    photoIds: photos,
+    revisionChanges: { outcome: p.check.outcome, timedFields: input.timedFields, overrides: p.covered.map((c) => c.grant.id) },
+    overrideUses,
+    outcome: p.check.outcome,
+    auditDetails: ({ jointNo, pulls: drawn, replacesJointId }) => ({
+      clientId: input.clientId,
+      jobId: input.jobId,
+      jobCode: p.jobCode,
+      jointNo,
+      outcome: p.check.outcome,
+      findings: p.check.findings.map((f) => f.parameter),
+      coils: [p.coilA.coilCode, p.coilB?.coilCode].filter(Boolean),
+      pulls: drawn.map((d) => ({ coil: d.coilCode, pulledM: d.pulledM, remainingM: d.remainingM })),
+      photos,
+      overrides: p.covered.map((c) => ({ id: c.grant.id, kind: c.reason.kind })),
+      replacesJointId,
+      timedFields: input.timedFields,
+      ...(ctx.warnings.length ? { warnings: ctx.warnings } : {}),
+    }),
+    requestId: ctx.requestId,
+  };
+}
+
+/**
+ * The transaction: writes only, in an order that keeps the job's counter row locked for as
+ * short a time as the inserts allow. (1) The joint's coils, in id order in one statement
+ * (FOR UPDATE when pipe is pulled from one, shared otherwise), then the joint a remake
+ * replaces, are locked and judged; the coils' lengths are written. (2) Only then is the
+ * counter bumped (takeNextJointNo, one statement), and the joint and what hangs on its id
+ * (revision 1, state, the replaced joint's link, coil events, photos, override uses, audit
+ * entry, alert) are inserted, and the transaction commits. The joint row needs its number
+ * when inserted (joints is append-only: the application may not UPDATE it), so the number
+ * cannot be set after the dependent rows. Every writer takes coils before joints before
+ * counters, so no two submissions wait on each other in a circle. A refusal anywhere rolls
+ * everything back, the counter's bump with it.
+ */
+/** What only the transaction knows: the joint's id and number, and the joint it replaces. */
+type Written = { jointId: number; jointNo: number; replacesJointId: number | null; replacesJointNo: number | null };
+
+async function writeJoint(trx: Knex.Transaction, input: RecordJointInput, rows: JointRows, user: UserRecord): Promise<Written> {
+  const coils = await lockCoils({ ids: rows.coilIds, exclusive: rows.pulls.length > 0 }, trx);
+
+  let replaces: Awaited<ReturnType<typeof lockJointForRemake>> = null;
+  if (input.replacesJointId) {
+    replaces = await lockJointForRemake({ id: input.replacesJointId }, trx);
+    if (!replaces) throw invalid("replacesJointId", `Joint ${input.replacesJointId} does not exist.`);
+    if (replaces.jobId !== input.jobId) throw invalid("replacesJointId", `Joint ${replaces.jointNo} is on another job; a remake replaces a joint on the same job.`);
+    if (replaces.outcome === "within-limits" && replaces.reviewState !== "cut-out") {
+      throw invalid("replacesJointId", `Joint ${replaces.jointNo} is within limits and was not cut out; there is nothing to remake.`);
+    }
+    if (replaces.replacedByJointId) throw new AppError("conflict", `Joint ${replaces.jointNo} has already been remade.`, { replacesJointId: [`Joint ${replaces.jointNo} has already been remade.`] });
+  }
+
+  const drawn: DrawDownResult[] = [];
+  for (const pull of rows.pulls) {
+    drawn.push(await drawDownLockedCoil({ ...pull, coil: coils.get(pull.coilId), jobId: input.jobId, unitSystem: user.unitSystem }, trx));
+  }
+
+  // The last lock: from here to commit, other submissions on this job wait.
+  const jointNo = await takeNextJointNo({ jobId: input.jobId }, trx);
+  const jointId = await insertJoint({ ...rows.joint, jointNo, replacesJointId: replaces?.id ?? null }, trx);
+  await insertJointRevision({ jointId, revisionNo: 1, kind: "recorded", byUserId: user.id, reviewState: "pending-review", changes: rows.revisionChanges }, trx);
+  await insertJointState({ jointId, reviewState: "pending-review", revisionNo: 1, outcome: rows.outcome, madeAt: rows.joint.madeAt }, trx);
   if (replaces && !(await markJointReplaced({ jointId: replaces.id, replacedByJointId: jointId }, trx))) {
     throw new AppError("conflict", `Joint ${replaces.jointNo} has already been remade.`, { replacesJointId: [`Joint ${replaces.jointNo} has already been remade.`] });
   }
-
-  const pulls: { coilId: number; pullM: number; field: string }[] = [];
-  if (input.lengthAM && input.lengthAM > 0 && !ctx.coveredCoils.has(p.coilA.id)) pulls.push({ coilId: p.coilA.id, pullM: input.lengthAM, field: "lengthAM" });
-  if (p.coilB && input.lengthBM && input.lengthBM > 0 && !ctx.coveredCoils.has(p.coilB.id)) pulls.push({ coilId: p.coilB.id, pullM: input.lengthBM, field: "lengthBM" });
-  const drawn = [];
-  for (const pull of pulls.sort((a, b) => a.coilId - b.coilId)) {
-    drawn.push(await drawDownCoil({ ...pull, jointId, userId: user.id, jobId: input.jobId, unitSystem: user.unitSystem }, trx));
+  await insertPullEvents({ pulls: drawn, jointId, userId: user.id }, trx);
+  if (rows.photoIds.length) {
+    const tied = await attachPhotosToJoint({ ids: rows.photoIds, jointId, userId: user.id }, trx);
+    if (tied !== rows.photoIds.length) throw invalid("photoIds", "One or more photos were not found, were uploaded by someone else or already belong to another joint; upload them again.");
   }
-
-  const photos = [...new Set(input.photoIds)];
-  if (photos.length) {
-    const tied = await attachPhotosToJoint({ ids: photos, jointId, userId: user.id }, trx);
-    if (tied !== photos.length) throw invalid("photoIds", "One or more photos were not found, were uploaded by someone else or already belong to another joint; upload them again.");
-  }
-  // One use per grant: a grant on a coil may clear two of its blocks (quarantined and on another crew's job).
-  for (const grantId of new Set(p.covered.map((c) => c.grant.id))) {
-    const reasons = p.covered.filter((c) => c.grant.id === grantId).map((c) => c.reason);
-    await insertOverrideUse({ jointId, overrideId: grantId, blockKind: reasons.map((r) => r.kind).join(","), message: reasons.map((r) => r.message).join(" ") }, trx);
-  }
+  await insertOverrideUses(rows.overrideUses.map((u) => ({ jointId, ...u })), trx);
   await insertAuditEntry(
-    {
-      actorUserId: user.id,
-      action: "joint-recorded",
-      entityType: "joint",
-      entityId: jointId,
-      requestId: ctx.requestId,
-      details: {
-        clientId: input.clientId,
-        jobId: input.jobId,
-        jobCode: p.jobCode,
-        jointNo,
-        outcome: p.check.outcome,
-        findings: p.check.findings.map((f) => f.parameter),
-        coils: [p.coilA.coilCode, p.coilB?.coilCode].filter(Boolean),
-        pulls: drawn.map((d) => ({ coil: d.coilCode, pulledM: d.pulledM, remainingM: d.remainingM })),
-        photos,
-        overrides: p.covered.map((c) => ({ id: c.grant.id, kind: c.reason.kind })),
-        replacesJointId: replaces?.id ?? null,
-        timedFields: input.timedFields,
-        ...(ctx.warnings.length ? { warnings: ctx.warnings } : {}),
-      },
-    },
+    { actorUserId: user.id, action: "joint-recorded", entityType: "joint", entityId: jointId, requestId: rows.requestId, details: rows.auditDetails({ jointNo, pulls: drawn, replacesJointId: replaces?.id ?? null }) },
     trx,
   );
   // Inspectors hear of an out-of-limits joint through the mail outbox, written in this
   // transaction: the mail is sent later and can never block recording.
-  if (p.check.outcome === "out-of-limits") await enqueueJointAlert({ jointId }, trx);
-  return jointId;
+  if (rows.outcome === "out-of-limits") await enqueueJointAlert({ jointId }, trx);
+  return { jointId, jointNo, replacesJointId: replaces?.id ?? null, replacesJointNo: replaces?.jointNo ?? null };
 }
