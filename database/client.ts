@@ -32,11 +32,42 @@ class BeadlineMysql2Client extends Mysql2Dialect {
   }
 }
 
+/**
+ * wsrep_sync_wait for every connection of the pool (BEADLINE_WSREP_SYNC_WAIT, default 1):
+ * on a Galera node, a read (SELECT, and BEGIN) first waits until the node has applied every
+ * write the cluster committed before it, so a request sees what an earlier request saw or
+ * wrote, whichever app instance and database node each landed on — e.g. the joint a
+ * duplicate client id points at, just committed through another node. Source: MariaDB
+ * documentation of wsrep_sync_wait (bitmask; 1 = causality checks on reads). The cost is
+ * one cluster round trip per read. On a server without Galera the setting does nothing, and
+ * a server built without wsrep does not know the variable (errno 1193): then it is skipped.
+ */
+function syncWaitLevel(): number {
+  const set = Number(process.env.BEADLINE_WSREP_SYNC_WAIT ?? 1);
+  return Number.isInteger(set) && set >= 0 && set <= 15 ? set : 1;
+}
+
+type RawConnection = { query: (sql: string, values: unknown[], cb: (error: { errno?: number } | null) => void) => void };
+type AfterCreate = (connection: RawConnection, done: (error: unknown, connection: RawConnection) => void) => void;
+
+function poolWithSyncWait(pool: Knex.Config["pool"]): Knex.Config["pool"] {
+  const level = syncWaitLevel();
+  const next = (pool as { afterCreate?: AfterCreate } | undefined)?.afterCreate;
+  const afterCreate: AfterCreate = (connection, done) => {
+    connection.query("SET SESSION wsrep_sync_wait = ?", [level], (error) => {
+      if (error && error.errno !== 1193) return done(error, connection);
+      if (next) return next(connection, done);
+      done(null, connection);
+    });
+  };
+  return { ...pool, afterCreate };
+}
+
 const globalForKnex = globalThis as unknown as { beadlineKnex?: Knex };
 
 export function db(): Knex {
   if (!globalForKnex.beadlineKnex) {
-    globalForKnex.beadlineKnex = withWriteRetry(knexFactory({ ...config, client: BeadlineMysql2Client as unknown as Knex.Config["client"] }));
+    globalForKnex.beadlineKnex = withWriteRetry(knexFactory({ ...config, pool: poolWithSyncWait(config.pool), client: BeadlineMysql2Client as unknown as Knex.Config["client"] }));
   }
   return globalForKnex.beadlineKnex;
 }

@@ -8,6 +8,7 @@
 import { readdirSync, readFileSync, statSync } from "node:fs";
 import path from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
+import { db } from "@/database/client";
 import { closeOwnerDb, ownerDb } from "../support/db";
 
 type TableFacts = { name: string; engine: string | null; primaryKeys: number };
@@ -65,6 +66,13 @@ describe("Galera's rules for tables and statements", () => {
   it("every base table of the migrated schema is InnoDB", async () => {
     const tables = await tableFacts();
     expect(tables.filter((t) => (t.engine ?? "").toLowerCase() !== "innodb").map((t) => `${t.name}: ${t.engine}`)).toEqual([]);
+  });
+
+  it("every connection of the app's pool asks for causal reads (wsrep_sync_wait = 1)", async () => {
+    // source: MariaDB documentation of wsrep_sync_wait — bit 1 makes reads (SELECT, BEGIN)
+    // wait until the node has applied what the cluster committed before them.
+    const [rows] = (await db().raw("SELECT @@SESSION.wsrep_sync_wait AS level")) as [{ level: number }[]];
+    expect(Number(rows[0]!.level)).toBe(1);
   });
 
   it("the matcher below finds each unsupported statement it is meant to find", () => {
