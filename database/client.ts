@@ -43,7 +43,8 @@ class BeadlineMysql2Client extends Mysql2Dialect {
  * a server built without wsrep does not know the variable (errno 1193): then it is skipped.
  */
 function syncWaitLevel(): number {
-  const set = Number(process.env.BEADLINE_WSREP_SYNC_WAIT ?? 1);
+  const text = process.env.BEADLINE_WSREP_SYNC_WAIT?.trim();
+  const set = text ? Number(text) : 1;
   return Number.isInteger(set) && set >= 0 && set <= 15 ? set : 1;
 }
 
