@@ -158,6 +158,12 @@ export async function listAlertAdmins(_: Record<string, never> = {}, trx?: Db): 
 /** A claimed mail stays "sending" this long; a sender that died mid-send frees it after. */
 export const CLAIM_LEASE_S = 120;
 
+/** The lease in force: MAIL_CLAIM_LEASE_S when set (at least 10 s; tests and the cluster's fault test shorten it), else CLAIM_LEASE_S. */
+export function claimLeaseS(): number {
+  const set = Number(process.env.MAIL_CLAIM_LEASE_S);
+  return Number.isFinite(set) && set >= 10 ? set : CLAIM_LEASE_S;
+}
+
 /** A mail this sender holds: `claim` is its claim id, needed to mark the mail sent or failed. */
 export type ClaimedMail = OutboxMail & { claim: string };
 
@@ -182,7 +188,7 @@ export type ClaimedMail = OutboxMail & { claim: string };
  * least once, never lost; a duplicate needs a send that outlived its 120 s lease (the SMTP
  * transport gives up after 5 s to connect and 15 s of silence, well inside it).
  */
-export async function claimDueMails({ now, limit = 20, maxAttempts = MAX_MAIL_ATTEMPTS }: { now: Date; limit?: number; maxAttempts?: number }, knex?: Knex): Promise<ClaimedMail[]> {
+export async function claimDueMails({ now, limit = 20, maxAttempts = MAX_MAIL_ATTEMPTS, leaseS = claimLeaseS() }: { now: Date; limit?: number; maxAttempts?: number; leaseS?: number }, knex?: Knex): Promise<ClaimedMail[]> {
   const claim = randomUUID();
   const due = (q: Knex.QueryBuilder) => q.whereIn("status", ["queued", "sending"]).where("next_attempt_at", "<=", now);
   return writeTransaction(knex ?? db(), async (trx) => {
@@ -208,11 +214,20 @@ export async function claimDueMails({ now, limit = 20, maxAttempts = MAX_MAIL_AT
       claimed_by: claim,
       claimed_at: now,
       attempts: trx.raw("attempts + 1"),
-      next_attempt_at: new Date(now.getTime() + CLAIM_LEASE_S * 1000),
+      next_attempt_at: new Date(now.getTime() + leaseS * 1000),
     });
     const claimed = (await trx("mail_outbox").whereIn("id", ids).where({ claimed_by: claim }).orderBy("id").select("*")) as OutboxRow[];
     return claimed.map((r) => ({ ...toMail(r), claim }));
   });
+}
+
+/** Hands claimed mails this sender will not send back to the queue, due now, as if never claimed. */
+export async function releaseClaim({ ids, claim, now }: { ids: number[]; claim: string; now: Date }, trx?: Db): Promise<number> {
+  if (ids.length === 0) return 0;
+  return conn(trx)("mail_outbox")
+    .whereIn("id", ids)
+    .where({ status: "sending", claimed_by: claim })
+    .update({ status: "queued", claimed_by: null, claimed_at: null, next_attempt_at: now, attempts: conn(trx).raw("GREATEST(attempts, 1) - 1") });
 }
 
 /**

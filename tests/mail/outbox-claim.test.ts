@@ -124,4 +124,37 @@ describe("outbox claims across two app instances", () => {
     expect(row).toMatchObject({ status: "sent", attempts: 2, last_error: null, claimed_by: null });
     expect(await listDevMail({ dir: spool })).toHaveLength(1);
   });
+
+  it("a sender that is still busy at half its lease starts no more sends and hands the rest back", async () => {
+    for (let i = 0; i < 3; i += 1) await enqueueMail({ to: `slow${i}@test.example`, subject: `Slow ${i}`, bodyText: "x", kind: "test" });
+    const previous = process.env.MAIL_CLAIM_LEASE_S;
+    process.env.MAIL_CLAIM_LEASE_S = "10"; // the shortest lease allowed: sends may start for 5 s
+    const smtp = createSmtpTransport({ port });
+    // The first send takes longer than half the lease (a slow mail server).
+    let first = true;
+    const slow: MailTransport = {
+      send: async (mail) => {
+        if (first) await new Promise((r) => setTimeout(r, 5_500));
+        first = false;
+        await smtp.send(mail);
+      },
+      close: () => undefined,
+    };
+    try {
+      const k = instancePool();
+      expect(await sendDueMails({ knex: k, transport: slow, limit: 3 })).toMatchObject({ claimed: 3, sent: 1, released: 2 });
+      const back = (await ownerDb()("mail_outbox").where({ status: "queued" }).select("attempts", "claimed_by")) as { attempts: number; claimed_by: string | null }[];
+      expect(back).toEqual([
+        { attempts: 0, claimed_by: null },
+        { attempts: 0, claimed_by: null },
+      ]);
+      // The next pass sends them.
+      expect(await sendDueMails({ knex: k, transport: slow, limit: 3 })).toMatchObject({ claimed: 2, sent: 2, released: 0 });
+    } finally {
+      smtp.close();
+      if (previous === undefined) delete process.env.MAIL_CLAIM_LEASE_S;
+      else process.env.MAIL_CLAIM_LEASE_S = previous;
+    }
+    expect(await listDevMail({ dir: spool })).toHaveLength(3);
+  });
 });

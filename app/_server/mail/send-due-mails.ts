@@ -7,10 +7,10 @@
 import "server-only";
 import type { Knex } from "knex";
 import { retryWrite } from "@/database/client";
-import { claimDueMails, markMailFailed, markMailSent } from "@/database/queries/outbox";
+import { claimDueMails, claimLeaseS, markMailFailed, markMailSent, releaseClaim } from "@/database/queries/outbox";
 import { createSmtpTransport, type MailTransport } from "./transport";
 
-export type SendReport = { claimed: number; sent: number; failed: number; gaveUp: number; takenOver: number };
+export type SendReport = { claimed: number; sent: number; failed: number; gaveUp: number; takenOver: number; released: number };
 
 /**
  * One pass: claim up to `limit` due mails, send them one by one, record each result.
@@ -18,12 +18,21 @@ export type SendReport = { claimed: number; sent: number; failed: number; gaveUp
  * later attempt; after the last attempt it is marked failed and stays visible.
  */
 export async function sendDueMails({ now = new Date(), limit = 20, transport, knex }: { now?: Date; limit?: number; transport?: MailTransport; knex?: Knex } = {}): Promise<SendReport> {
-  const mails = await claimDueMails({ now, limit }, knex);
-  const report: SendReport = { claimed: mails.length, sent: 0, failed: 0, gaveUp: 0, takenOver: 0 };
+  const leaseS = claimLeaseS();
+  const mails = await claimDueMails({ now, limit, leaseS }, knex);
+  // A send starts only within the first half of the lease (measured on this process's
+  // clock from the claim's commit), so no send outlives the claim; the rest go back.
+  const sendUntil = Date.now() + (leaseS * 1000) / 2;
+  const report: SendReport = { claimed: mails.length, sent: 0, failed: 0, gaveUp: 0, takenOver: 0, released: 0 };
   if (mails.length === 0) return report;
   const t = transport ?? createSmtpTransport();
   try {
-    for (const mail of mails) {
+    for (const [index, mail] of mails.entries()) {
+      if (Date.now() > sendUntil) {
+        const rest = mails.slice(index);
+        report.released += await retryWrite(() => releaseClaim({ ids: rest.map((m) => m.id), claim: mail.claim, now: new Date() }, knex));
+        break;
+      }
       let sendError: unknown = null;
       try {
         await t.send({ to: mail.to, subject: mail.subject, text: mail.bodyText });
