@@ -300,6 +300,9 @@ export type MailOutboxRow = {
   sent_at: Date | null;
   /** The person the mail is for (null: mail not addressed to a person of Beadline). */
   user_id: number | null;
+  /** The sender's claim while it is "sending" (a random id per claim) and when it was taken. */
+  claimed_by: string | null;
+  claimed_at: Date | null;
 };
 
 export type ExportRow = {

@@ -5,7 +5,7 @@
 import { randomUUID } from "node:crypto";
 import { cookies } from "next/headers";
 import type { ZodType, z } from "zod";
-import { isDatabaseUnavailable } from "@/database/client";
+import { isDatabaseUnavailable, isWriteContention } from "@/database/client";
 import type { UserRecord } from "@/database/queries/users";
 import { isDomainError } from "@/domain/errors";
 import { allows, type Permission } from "@/domain/roles";
@@ -27,6 +27,13 @@ function failureFromError(error: unknown, requestId: string): { code: ErrorCode;
   if (isDatabaseUnavailable(error)) {
     requestLogger(requestId).warn({ err: String((error as Error)?.message ?? error) }, "database unavailable");
     return { code: "unavailable", message: "Beadline cannot reach its database right now. Nothing was saved; try again in a moment." };
+  }
+  // Other writes to the same records kept winning (deadlocks or, on a cluster, certification
+  // failures, each rerun up to WRITE_RETRY.attempts times), a lock wait timed out, or the
+  // database node stopped serving mid-request: transient, so 503 with Retry-After too.
+  if (isWriteContention(error)) {
+    requestLogger(requestId).warn({ err: String((error as Error)?.message ?? error) }, "write gave way to concurrent writes");
+    return { code: "unavailable", message: "Beadline's database is busy with other changes to the same records. Nothing was saved; try again in a moment." };
   }
   requestLogger(requestId).error({ err: error instanceof Error ? { message: error.message, stack: error.stack } : String(error) }, "unexpected error");
   return { code: "internal", message: "Something went wrong on the server. Nothing was saved." };

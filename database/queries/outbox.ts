@@ -1,16 +1,19 @@
 // The mail outbox: every e-mail Beadline sends is first a row here, written in the same
 // transaction as the change that caused it, so a mail is never lost and never blocks the
-// change. The texts are composed in app/_server/mail/. A sender (app/_server/mail/send-due-mails.ts) claims due rows with
-// SELECT … FOR UPDATE SKIP LOCKED, so several app instances never send one mail twice.
+// change. The texts are composed in app/_server/mail/. A sender (app/_server/mail/send-due-mails.ts)
+// claims due rows in a short transaction of its own that commits before anything is sent
+// (claimDueMails), so several app instances — on one server or on a Galera cluster — never
+// send one mail twice.
 // An alert for a person is first a notification (table notifications): the mail worker
 // folds a person's waiting notifications into one outbox mail when the window of their
 // chosen grouping closes (domain/mail/grouping, app/_server/mail/fold-notifications.ts).
+import { randomUUID } from "node:crypto";
 import type { Knex } from "knex";
 import { afterFailedAttempt, MAX_MAIL_ATTEMPTS } from "@/domain/mail/backoff";
 import type { MailGrouping } from "@/domain/mail/grouping";
 import type { Role } from "@/domain/roles";
 import type { UnitSystem } from "@/domain/units/format";
-import { conn, db, isDuplicateKey, type Db } from "../client";
+import { conn, db, isDuplicateKey, writeTransaction, type Db } from "../client";
 import type { MailOutboxRow, NotificationRow } from "../tables";
 import { parseRoles } from "./users";
 
@@ -155,55 +158,103 @@ export async function listAlertAdmins(_: Record<string, never> = {}, trx?: Db): 
 /** A claimed mail stays "sending" this long; a sender that died mid-send frees it after. */
 export const CLAIM_LEASE_S = 120;
 
+/** The lease in force: MAIL_CLAIM_LEASE_S when set (at least 10 s; tests and the cluster's fault test shorten it), else CLAIM_LEASE_S. */
+export function claimLeaseS(): number {
+  const set = Number(process.env.MAIL_CLAIM_LEASE_S);
+  return Number.isFinite(set) && set >= 10 ? set : CLAIM_LEASE_S;
+}
+
+/** A mail this sender holds: `claim` is its claim id, needed to mark the mail sent or failed. */
+export type ClaimedMail = OutboxMail & { claim: string };
+
 /**
- * Claims up to `limit` due mails for this sender: rows queued (or left "sending" by a
- * sender whose lease ran out) with next_attempt_at ≤ now, locked FOR UPDATE SKIP LOCKED so
- * a concurrent sender skips them, then marked "sending" with attempts + 1, in one short
- * transaction. Mails whose attempts already reached the maximum are marked failed.
+ * Claims up to `limit` due mails for this sender, in one short transaction of its own that
+ * COMMITS BEFORE ANYTHING IS SENT: rows queued (or left "sending" by a sender whose lease
+ * ran out) with next_attempt_at ≤ now become "sending" with this claim's id, claimed_at, and
+ * attempts + 1, leased until now + CLAIM_LEASE_S. Mails whose attempts already reached the
+ * maximum are marked failed.
+ *
+ * Why two senders never take one mail: the candidates are read FOR UPDATE SKIP LOCKED, so on
+ * one server a concurrent sender skips them; but on a Galera cluster those row locks hold on
+ * the local node only. There the UPDATE repeats the "still due" condition and the rows it
+ * changed are read back by claim id, and two claims of one row on two nodes are conflicting
+ * writes to that row: the later COMMIT fails certification (a deadlock error) and
+ * writeTransaction runs the claim again, which then finds the row leased. So a mail is held
+ * by one claim at a time, cluster-wide.
+ *
+ * The at-least-once edge: a sender that stalls or dies after its SMTP server accepted a mail
+ * but before markMailSent committed leaves the mail "sending"; once the lease has run out
+ * another sender claims it again and sends it a second time. Mail is therefore delivered at
+ * least once, never lost; a duplicate needs a send that outlived its 120 s lease (the SMTP
+ * transport gives up after 5 s to connect and 15 s of silence, well inside it).
  */
-export async function claimDueMails({ now, limit = 20, maxAttempts = MAX_MAIL_ATTEMPTS }: { now: Date; limit?: number; maxAttempts?: number }, knex?: Knex): Promise<OutboxMail[]> {
-  const k = knex ?? db();
-  return k.transaction(async (trx) => {
-    const rows = (await trx("mail_outbox")
-      .whereIn("status", ["queued", "sending"])
-      .where("next_attempt_at", "<=", now)
+export async function claimDueMails({ now, limit = 20, maxAttempts = MAX_MAIL_ATTEMPTS, leaseS = claimLeaseS() }: { now: Date; limit?: number; maxAttempts?: number; leaseS?: number }, knex?: Knex): Promise<ClaimedMail[]> {
+  const claim = randomUUID();
+  const due = (q: Knex.QueryBuilder) => q.whereIn("status", ["queued", "sending"]).where("next_attempt_at", "<=", now);
+  return writeTransaction(knex ?? db(), async (trx) => {
+    const rows = (await due(trx("mail_outbox"))
       .orderBy([{ column: "next_attempt_at" }, { column: "id" }])
       .limit(limit)
       .forUpdate()
       .skipLocked()
-      .select("*")) as OutboxRow[];
+      .select("id", "attempts")) as { id: number; attempts: number }[];
     if (rows.length === 0) return [];
     const spent = rows.filter((r) => Number(r.attempts) >= maxAttempts).map((r) => r.id);
-    const due = rows.filter((r) => Number(r.attempts) < maxAttempts);
+    const ids = rows.filter((r) => Number(r.attempts) < maxAttempts).map((r) => r.id);
     if (spent.length) {
-      await trx("mail_outbox").whereIn("id", spent).update({ status: "failed", last_error: trx.raw("COALESCE(last_error, ?)", ["The sender stopped while sending; gave up after the last attempt"]) });
+      await due(trx("mail_outbox").whereIn("id", spent)).update({
+        status: "failed",
+        claimed_by: null,
+        last_error: trx.raw("COALESCE(last_error, ?)", ["The sender stopped while sending; gave up after the last attempt"]),
+      });
     }
-    if (due.length === 0) return [];
-    await trx("mail_outbox")
-      .whereIn(
-        "id",
-        due.map((r) => r.id),
-      )
-      .update({ status: "sending", attempts: trx.raw("attempts + 1"), next_attempt_at: new Date(now.getTime() + CLAIM_LEASE_S * 1000) });
-    return due.map((r) => toMail({ ...r, status: "sending", attempts: Number(r.attempts) + 1 }));
+    if (ids.length === 0) return [];
+    await due(trx("mail_outbox").whereIn("id", ids)).update({
+      status: "sending",
+      claimed_by: claim,
+      claimed_at: now,
+      attempts: trx.raw("attempts + 1"),
+      next_attempt_at: new Date(now.getTime() + leaseS * 1000),
+    });
+    const claimed = (await trx("mail_outbox").whereIn("id", ids).where({ claimed_by: claim }).orderBy("id").select("*")) as OutboxRow[];
+    return claimed.map((r) => ({ ...toMail(r), claim }));
   });
 }
 
-export async function markMailSent({ id, now }: { id: number; now: Date }, trx?: Db): Promise<void> {
-  await conn(trx)("mail_outbox").where({ id, status: "sending" }).update({ status: "sent", sent_at: now, last_error: null });
+/** Hands claimed mails this sender will not send back to the queue, due now, as if never claimed. */
+export async function releaseClaim({ ids, claim, now }: { ids: number[]; claim: string; now: Date }, trx?: Db): Promise<number> {
+  if (ids.length === 0) return 0;
+  return conn(trx)("mail_outbox")
+    .whereIn("id", ids)
+    .where({ status: "sending", claimed_by: claim })
+    .update({ status: "queued", claimed_by: null, claimed_at: null, next_attempt_at: now, attempts: conn(trx).raw("GREATEST(attempts, 1) - 1") });
+}
+
+/**
+ * Marks a mail sent while this sender's claim still holds it; false when the lease ran out
+ * and another sender claimed the mail since (it may send it again: the at-least-once edge
+ * above), in which case that sender's result stands.
+ */
+export async function markMailSent({ id, claim, now }: { id: number; claim: string; now: Date }, trx?: Db): Promise<boolean> {
+  const changed = await conn(trx)("mail_outbox").where({ id, status: "sending", claimed_by: claim }).update({ status: "sent", sent_at: now, last_error: null, claimed_by: null });
+  return changed === 1;
 }
 
 /**
  * Records a failed attempt: back to "queued" with the next attempt after the back-off
- * delay, or "failed" (kept, shown on the mailbox page) once the attempts are spent.
+ * delay, or "failed" (kept, shown on the mailbox page) once the attempts are spent — only
+ * while this sender's claim still holds the mail (`held`: false when another sender took it
+ * over after the lease ran out; nothing is changed then).
  */
 export async function markMailFailed(
-  { id, attempts, error, now, maxAttempts }: { id: number; attempts: number; error: string; now: Date; maxAttempts?: number },
+  { id, claim, attempts, error, now, maxAttempts }: { id: number; claim: string; attempts: number; error: string; now: Date; maxAttempts?: number },
   trx?: Db,
-): Promise<{ status: "queued" | "failed"; nextAttemptAt: Date }> {
+): Promise<{ status: "queued" | "failed"; nextAttemptAt: Date; held: boolean }> {
   const next = afterFailedAttempt(attempts, now, { maxAttempts });
-  await conn(trx)("mail_outbox").where({ id }).update({ status: next.status, next_attempt_at: next.nextAttemptAt, last_error: clip(error, 500) });
-  return next;
+  const changed = await conn(trx)("mail_outbox")
+    .where({ id, status: "sending", claimed_by: claim })
+    .update({ status: next.status, next_attempt_at: next.nextAttemptAt, last_error: clip(error, 500), claimed_by: null });
+  return { ...next, held: changed === 1 };
 }
 
 /** Puts a failed mail back in the queue with a fresh set of attempts (admin, mailbox page). */

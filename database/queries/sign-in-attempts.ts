@@ -5,9 +5,13 @@
 // first, "wait:<key>" holds the time before which the next attempt is not checked, or the
 // turn of the one attempt being checked past the free failures. Keys are
 // opaque (the caller hashes e-mails); the rule (how long to wait) is domain/crew/throttle.ts.
+// Each store call is one statement or one short BEGIN…COMMIT of its own; on a Galera cluster
+// two instances counting the same key at once conflict at COMMIT (a deadlock error), which
+// committed nothing, so the call is simply made again (retryWrite) and then sees the other
+// instance's count: "one attempt at a time" holds across nodes.
 import type { Knex } from "knex";
 import { RateLimiterMySQL } from "rate-limiter-flexible";
-import { db } from "../client";
+import { db, retryWrite } from "../client";
 
 const TABLE = "sign_in_limits";
 /** How long a turn taken past the free failures is held while its password is checked. */
@@ -43,7 +47,7 @@ function limiters(memoryS: number): Limiters {
 
 /** Milliseconds before `key` may be tried again (0: it may be tried now). */
 export async function waitLeft({ key, memoryS }: { key: string; memoryS: number }): Promise<number> {
-  const res = await limiters(memoryS).waits.get(key);
+  const res = await retryWrite(() => limiters(memoryS).waits.get(key));
   return res && res.consumedPoints > 1 && res.msBeforeNext > 0 ? res.msBeforeNext : 0;
 }
 
@@ -54,7 +58,7 @@ export async function waitLeft({ key, memoryS }: { key: string; memoryS: number 
  */
 export async function takeTurn({ key, memoryS }: { key: string; memoryS: number }): Promise<boolean> {
   try {
-    await limiters(memoryS).waits.consume(key, 1);
+    await retryWrite(() => limiters(memoryS).waits.consume(key, 1));
     return true;
   } catch (refused) {
     if (refused instanceof Error) throw refused;
@@ -64,23 +68,23 @@ export async function takeTurn({ key, memoryS }: { key: string; memoryS: number 
 
 /** Counts one failure for `key`; returns the failures remembered (this one included). */
 export async function recordFailure({ key, memoryS }: { key: string; memoryS: number }): Promise<number> {
-  const res = await limiters(memoryS).failures.penalty(key, 1);
+  const res = await retryWrite(() => limiters(memoryS).failures.penalty(key, 1));
   return res.consumedPoints;
 }
 
 /** Makes `key` wait `seconds` before its next attempt is checked. */
 export async function startWait({ key, memoryS, seconds }: { key: string; memoryS: number; seconds: number }): Promise<void> {
-  if (seconds > 0) await limiters(memoryS).waits.block(key, seconds);
+  if (seconds > 0) await retryWrite(() => limiters(memoryS).waits.block(key, seconds));
 }
 
 /** Takes back one counted failure of `key`, and gives back its turn when the attempt held it. */
 export async function refundFailure({ key, memoryS, heldTurn }: { key: string; memoryS: number; heldTurn: boolean }): Promise<void> {
   const { failures, waits } = limiters(memoryS);
-  await Promise.all([failures.reward(key, 1), heldTurn ? waits.delete(key) : Promise.resolve(false)]);
+  await Promise.all([retryWrite(() => failures.reward(key, 1)), heldTurn ? retryWrite(() => waits.delete(key)) : Promise.resolve(false)]);
 }
 
 /** Forgets `key`'s failures and wait (after a successful sign-in). */
 export async function forgetFailures({ key, memoryS }: { key: string; memoryS: number }): Promise<void> {
   const { failures, waits } = limiters(memoryS);
-  await Promise.all([failures.delete(key), waits.delete(key)]);
+  await Promise.all([retryWrite(() => failures.delete(key)), retryWrite(() => waits.delete(key))]);
 }

@@ -9,7 +9,7 @@ import { appOrigin, authenticate, clientAddress, signOutUser } from "@/app/_lib/
 import { DEVICE_COOKIE, deviceCookieAfterSignIn, deviceCookieOptions } from "@/app/_lib/device-cookie";
 import { safeNextPath } from "@/domain/crew/next-path";
 import { currentSession, currentUser } from "@/app/_lib/session";
-import { isDatabaseUnavailable } from "@/database/client";
+import { isDatabaseUnavailable, isWriteContention } from "@/database/client";
 
 export async function signInAction(raw: unknown): Promise<ActionResult<{ next: string }>> {
   const parsed = signInSchema.safeParse(raw);
@@ -32,7 +32,7 @@ export async function signInAction(raw: unknown): Promise<ActionResult<{ next: s
     return { ok: true, data: { next } };
   } catch (error) {
     if (error instanceof AppError) return failure(error.code, error.message);
-    if (isDatabaseUnavailable(error)) return failure("unavailable", "Beadline cannot reach its database right now. Try again in a moment.");
+    if (isDatabaseUnavailable(error) || isWriteContention(error)) return failure("unavailable", "Beadline cannot reach its database right now. Try again in a moment.");
     throw error;
   }
 }

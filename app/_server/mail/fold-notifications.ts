@@ -4,10 +4,14 @@
 // link. Run by the mail worker before each send pass. Safe when two workers run at once:
 // a person's waiting notifications are claimed FOR UPDATE SKIP LOCKED in the transaction
 // that queues the mail and ties them to it, and each mail's dedupe key
-// `notice:<userId>:<first notification id>` can be queued only once.
+// `notice:<userId>:<first notification id>` can be queued only once. On a Galera cluster
+// the row locks hold on one node only; there the unique dedupe key and the certification of
+// the notifications' rows decide: two workers folding one group on two nodes write the same
+// key and rows, the later COMMIT fails certification and is rerun (writeTransaction), and
+// the rerun finds the notifications already tied to a mail (or the key taken: skipped).
 import "server-only";
 import type { Knex } from "knex";
-import { db } from "@/database/client";
+import { db, writeTransaction } from "@/database/client";
 import { enqueueMail, listPeopleWithWaitingNotifications, listWaitingNotifications, lockWaitingNotifications, markNotificationsMailed } from "@/database/queries/outbox";
 import { composeGroupMail, dueGroups, type GroupingOptions } from "@/domain/mail/grouping";
 import { formatInstant } from "@/components/ui/display-format";
@@ -34,7 +38,11 @@ export async function foldNotifications({ now = new Date(), knex, burstWindowS: 
   for (const person of people) {
     // A plain read first: most passes find nothing due, and then nothing is locked.
     if (dueGroups(await listWaitingNotifications({ userId: person.userId }, k), person.grouping, now, options).length === 0) continue;
-    await k.transaction(async (trx) => {
+    // One writeTransaction per person: rerun as a whole on a deadlock or certification
+    // failure, so it counts what it folded only through its result, after the commit.
+    const folded = await writeTransaction(k, async (trx) => {
+      let made = 0;
+      let items = 0;
       const waiting = await lockWaitingNotifications({ userId: person.userId }, trx);
       for (const group of dueGroups(waiting, person.grouping, now, options)) {
         const mail = composeGroupMail(
@@ -43,12 +51,18 @@ export async function foldNotifications({ now = new Date(), knex, burstWindowS: 
           at,
         );
         const queued = await enqueueMail({ to: person.email, ...mail, userId: person.userId, dedupeKey: `notice:${person.userId}:${group.items[0]!.id}` }, trx);
-        if (queued.id === null) continue; // folded already by another worker
-        await markNotificationsMailed({ ids: group.items.map((n) => n.id), outboxId: queued.id }, trx);
-        mails += 1;
-        alerts += group.items.length;
+        // The dedupe key is taken: this group was folded already (by another worker whose
+        // commit reached this node first). That commit tied the notifications it folded to
+        // its mail; any of this group it did not hold stay waiting for the next pass.
+        if (queued.duplicate) continue;
+        await markNotificationsMailed({ ids: group.items.map((n) => n.id), outboxId: queued.id! }, trx);
+        made += 1;
+        items += group.items.length;
       }
+      return { made, items };
     });
+    mails += folded.made;
+    alerts += folded.items;
   }
   return { mails, alerts };
 }

@@ -7,7 +7,7 @@ import { isoDateIn } from "@/domain/dates/zone";
 import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import { heaterAlerts, qualificationAlerts, type AlertMail } from "@/domain/mail/alerts";
 import { mailLinkPath } from "@/domain/mail/links";
-import { db } from "@/database/client";
+import { db, writeTransaction } from "@/database/client";
 import { listHeatersWithLastCheck } from "@/database/queries/equipment";
 import { findRecipient, insertNotification, listAlertAdmins, type Recipient } from "@/database/queries/outbox";
 import { qualificationStatusOverview } from "@/database/queries/qualifications";
@@ -46,13 +46,17 @@ export async function scanAndEnqueueAlerts(now: Date = new Date(), knex?: Knex):
         const person = await findRecipient({ userId: alert.personId }, k);
         if (person) recipients.set(person.id, person);
       }
-      await k.transaction(async (trx) => {
+      // Rerun as a whole on a deadlock or certification failure (two instances scanning at
+      // once on two nodes): the count comes out of the committed run only.
+      queued += await writeTransaction(k, async (trx) => {
+        let kept = 0;
         for (const r of recipients.values()) {
           const linkPath = mailLinkPath(alert.about, r);
           const bodyText = `${alert.bodyText(r.unitSystem)}\n\nOpen in Beadline: ${publicUrl()}${linkPath}`;
           const result = await insertNotification({ userId: r.id, subject: alert.subject, bodyText, linkPath, kind: alert.kind, dedupeKey: `${alert.kind}:${alert.dedupeSuffix}:${r.id}` }, trx);
-          if (result.queued) queued += 1;
+          if (result.queued) kept += 1;
         }
+        return kept;
       });
     }
   }

@@ -1,8 +1,10 @@
 // The mail worker inside each app server process (started by instrumentation.ts): every
 // MAIL_SEND_INTERVAL_MS (default 2 s) it folds waiting notifications whose window has
 // closed into mail and sends due outbox mail, and every MAIL_SCAN_INTERVAL_MS (default
-// 10 min) it runs the alert scan. Safe with several instances: claims use SKIP LOCKED and
-// alerts and mails are deduplicated in the database.
+// 10 min) it runs the alert scan. Safe with several instances, on one database server or
+// a Galera cluster: a mail is claimed in a transaction that commits before it is sent
+// (database/queries/outbox.ts claimDueMails), every write transaction reruns on a
+// deadlock or certification failure, and alerts and mails are deduplicated by unique keys.
 import "server-only";
 import { foldNotifications } from "./fold-notifications";
 import { scanAndEnqueueAlerts } from "./scan-alerts";

@@ -8,7 +8,7 @@ import { BODY_LIMITS, readJsonLimited } from "@/app/_lib/body";
 import { defineRoute, errorResponse, isCrossOrigin } from "@/app/_lib/guard";
 import { cookieFromHeader, sessionOptions, type SessionData } from "@/app/_lib/session";
 import { DEVICE_COOKIE, deviceCookieAfterSignIn, deviceCookieHeader } from "@/app/_lib/device-cookie";
-import { isDatabaseUnavailable } from "@/database/client";
+import { isDatabaseUnavailable, isWriteContention } from "@/database/client";
 
 export const dynamic = "force-dynamic";
 
@@ -39,7 +39,7 @@ export async function POST(request: Request): Promise<Response> {
     return response;
   } catch (error) {
     if (error instanceof AppError) return errorResponse(error.code, error.message);
-    if (isDatabaseUnavailable(error)) return errorResponse("unavailable", "Beadline cannot reach its database right now.");
+    if (isDatabaseUnavailable(error) || isWriteContention(error)) return errorResponse("unavailable", "Beadline cannot reach its database right now.", undefined, { "retry-after": "5" });
     return errorResponse("internal", "Something went wrong on the server.");
   }
 }
