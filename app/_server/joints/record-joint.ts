@@ -236,13 +236,6 @@ async function sidesOf(input: RecordJointInput, user: UserRecord): Promise<Resol
   return { coilAId: await idOf(input.coilA), coilBId: input.kind === "coil-to-coil" ? await idOf(input.coilB) : null };
 }
 
-const MAX_DEADLOCK_RETRIES = 3;
-
-function isDeadlock(error: unknown): boolean {
-  const code = (error as { code?: string } | null)?.code;
-  return code === "ER_LOCK_DEADLOCK" || code === "ER_LOCK_WAIT_TIMEOUT";
-}
-
 function isClientIdDuplicate(error: unknown): boolean {
   return isDuplicateKey(error) && /client_id/i.test(String((error as { sqlMessage?: string; message?: string }).sqlMessage ?? (error as Error).message));
 }
@@ -289,20 +282,19 @@ export async function recordJoint(input: RecordJointInput, ctx: { user: UserReco
   const warnings = await handlingWarnings(input, prepared, madeAt);
   const rows = jointRows(input, prepared, { user, madeAt, requestId: ctx.requestId ?? null, warnings });
 
-  for (let attempt = 1; ; attempt += 1) {
-    try {
-      const written = await db().transaction((trx) => writeJoint(trx, input, rows, user));
-      const joint = (await asWritten(input, prepared, written)) ?? (await loadJoint(written.jointId));
-      return { created: true, joint: { ...describeRecordedJoint(joint, user.unitSystem), warnings } };
-    } catch (error) {
-      if (isClientIdDuplicate(error)) {
-        // The same client id won a race: the same submission gets its joint, other values a 409.
-        const raced = await existingFor(input, user, prepared.sides);
-        if (raced) return raced;
-      }
-      if (isDeadlock(error) && attempt < MAX_DEADLOCK_RETRIES) continue;
-      throw error;
+  // db().transaction reruns the whole write on a deadlock or a cluster certification
+  // failure (database/client.ts), so a conflict never reaches here as such.
+  try {
+    const written = await db().transaction((trx) => writeJoint(trx, input, rows, user));
+    const joint = (await asWritten(input, prepared, written)) ?? (await loadJoint(written.jointId));
+    return { created: true, joint: { ...describeRecordedJoint(joint, user.unitSystem), warnings } };
+  } catch (error) {
+    if (isClientIdDuplicate(error)) {
+      // The same client id won a race: the same submission gets its joint, other values a 409.
+      const raced = await existingFor(input, user, prepared.sides);
+      if (raced) return raced;
     }
+    throw error;
   }
 }
 
