@@ -5,6 +5,7 @@
 // cookies and session values wherever they appear as fields of a logged object, and the
 // final line is scrubbed of the secret values this process knows (session secret, database
 // and object-store passwords) and of anything shaped like a sealed session cookie.
+import { isMainThread } from "node:worker_threads";
 import pino, { type Logger } from "pino";
 
 const REDACT_PATHS = [
@@ -57,17 +58,36 @@ function knownSecrets(): string[] {
 const escapeRegExp = (s: string) => s.replace(/[.*+?^${}()|[\]\\]/g, "\\$&");
 
 /**
+ * One regular expression for every known secret, as written and as JSON escapes it. Built
+ * once per set of values (the environment does not change while the server runs; a test
+ * that changes it gets a new one), not for every line.
+ */
+let secretsPattern: { from: string; pattern: RegExp | null } | null = null;
+
+function secretsRegExp(): RegExp | null {
+  const env = process.env;
+  const from = [env.SESSION_SECRET, env.S3_SECRET_ACCESS_KEY, env.DATABASE_URL, env.MIGRATION_DATABASE_URL].join("\n");
+  if (secretsPattern?.from === from) return secretsPattern.pattern;
+  const forms = new Set<string>();
+  for (const secret of knownSecrets()) {
+    forms.add(secret);
+    forms.add(JSON.stringify(secret).slice(1, -1));
+  }
+  // Longest first, so a secret that contains another is removed whole.
+  const alternatives = [...forms].sort((a, b) => b.length - a.length).map(escapeRegExp);
+  const pattern = alternatives.length ? new RegExp(alternatives.join("|"), "g") : null;
+  secretsPattern = { from, pattern };
+  return pattern;
+}
+
+/**
  * Removes secrets from one serialised log line: known secret values, iron-session seals
  * ("Fe26.2*…"), session cookie values, bcrypt hashes and `"password":"…"` pairs the redact
  * paths did not reach (deeper nesting).
  */
 export function scrubLogLine(line: string): string {
-  let out = line;
-  for (const secret of knownSecrets()) {
-    out = out.replace(new RegExp(escapeRegExp(secret), "g"), "[redacted]");
-    const json = JSON.stringify(secret).slice(1, -1);
-    if (json !== secret) out = out.replace(new RegExp(escapeRegExp(json), "g"), "[redacted]");
-  }
+  const secrets = secretsRegExp();
+  const out = secrets ? line.replace(secrets, "[redacted]") : line;
   return out
     .replace(/Fe26\.2\*[^"\s;,]*/g, "[redacted]")
     .replace(/(beadline_session=)[^"\s;,]*/g, "$1[redacted]")
@@ -78,11 +98,28 @@ export function scrubLogLine(line: string): string {
 type Sink = (line: string) => void;
 const sinks = new Set<Sink>();
 
+/**
+ * Standard output without blocking the request: pino's asynchronous destination (sonic-boom
+ * on fd 1) queues each line and writes it while the server goes on; pino flushes what is
+ * still queued when the process exits. Made on the first line, in the main thread only (a
+ * worker thread's stdout already goes through the main thread).
+ */
+let stdout: { write(line: string): void; flush?(cb?: (err?: Error) => void): void } | null = null;
+
+function stdoutDestination() {
+  stdout ??= isMainThread ? pino.destination({ dest: 1, sync: false }) : { write: (line: string) => void process.stdout.write(line) };
+  return stdout;
+}
+
 /** Where lines go: stdout, or the capturing sinks of a test. */
 const destination = {
   write(line: string): void {
     if (sinks.size) for (const sink of sinks) sink(line);
-    else process.stdout.write(line);
+    else stdoutDestination().write(line);
+  },
+  flush(cb?: (err?: Error) => void): void {
+    if (stdout?.flush) stdout.flush(cb);
+    else cb?.();
   },
 };
 

@@ -46,8 +46,15 @@ function baseQuery(trx?: Db) {
   return conn(trx)("users").leftJoin("crews", "crews.id", "users.crew_id").select("users.*", "crews.name as crew_name");
 }
 
+/**
+ * baseQuery by primary key, written out once: every signed-in request runs it (the session
+ * check), and knex's builder would compile the same text anew each time.
+ */
+const USER_BY_ID_SQL = "select `users`.*, `crews`.`name` as `crew_name` from `users` left join `crews` on `crews`.`id` = `users`.`crew_id` where `users`.`id` = ? limit 1";
+
 export async function findUserById({ id }: { id: number }, trx?: Db): Promise<UserRecord | null> {
-  const row = (await baseQuery(trx).where("users.id", id).first()) as UserRow | undefined;
+  const [rows] = (await conn(trx).raw(USER_BY_ID_SQL, [id])) as [UserRow[]];
+  const row = rows[0];
   return row ? toUser(row) : null;
 }
 

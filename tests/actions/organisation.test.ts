@@ -1,11 +1,12 @@
 // The organisation's time zone (Crew screen, admin only): refused to other roles, an unknown
 // zone is refused with a message naming the field and writes nothing, a valid one is stored
 // with its audit entry, and every reader of the zone (day filters, screens) then uses it.
-import { beforeEach, describe, expect, it } from "vitest";
+import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
 import { setOrganisationTimeZoneAction } from "@/app/(signed-in)/crew/actions";
-import { getOrganisationTimeZone } from "@/app/_server/organisation/get-time-zone";
+import { GET as registerGet } from "@/app/api/v1/register/route";
+import { SETTINGS_TTL_MS, getOrganisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import { ownerDb, resetDatabase } from "../support/db";
-import { actAs } from "../support/session";
+import { actAs, requestAs } from "../support/session";
 import { makeUser } from "../support/users";
 
 describe("organisation time zone", () => {
@@ -55,5 +56,40 @@ describe("organisation time zone", () => {
     expect(audit).toHaveLength(2);
     expect(JSON.parse(audit[1].details)).toEqual({ before: "America/Chicago", after: "Europe/Berlin" });
     expect(audit[1].actor_user_id).toBe(admin.id);
+  });
+
+  // design rule: the zone is kept in the process (app/_server/cache.ts); a change made
+  // through this instance is seen by its very next request, a change made elsewhere (another
+  // instance, written straight into the row here) within SETTINGS_TTL_MS.
+  describe("kept in the process", () => {
+    afterEach(() => {
+      vi.useRealTimers();
+    });
+
+    async function registerZone(user: { id: number }): Promise<string> {
+      const res = await registerGet(await requestAs(user, "/api/v1/register?limit=5"), { params: Promise.resolve({}) });
+      expect(res.status).toBe(200);
+      return ((await res.json()) as { timeZone: string }).timeZone;
+    }
+
+    it("a change through the Crew screen is seen by the next request at once, although the old zone was kept", async () => {
+      const clerk = await makeUser({ roles: ["clerk"] });
+      const server = (await getOrganisationTimeZone()).timeZone;
+      const other = server === "Pacific/Chatham" ? "Asia/Kathmandu" : "Pacific/Chatham";
+      expect(await registerZone(clerk)).toBe(server); // read, and now kept
+      await actAs(admin);
+      expect(await setOrganisationTimeZoneAction({ timeZone: other })).toMatchObject({ ok: true });
+      expect(await registerZone(clerk)).toBe(other);
+      expect(await getOrganisationTimeZone()).toEqual({ timeZone: other, isChosen: true });
+    });
+
+    it("a change written by another instance is seen here once SETTINGS_TTL_MS has passed", async () => {
+      const server = (await getOrganisationTimeZone()).timeZone; // kept
+      const other = server === "Pacific/Chatham" ? "Asia/Kathmandu" : "Pacific/Chatham";
+      await ownerDb()("organisation_settings").insert({ id: 1, time_zone: other, updated_by: admin.id });
+      vi.useFakeTimers({ toFake: ["Date"] });
+      vi.setSystemTime(Date.now() + SETTINGS_TTL_MS + 1_000);
+      expect(await getOrganisationTimeZone()).toEqual({ timeZone: other, isChosen: true });
+    });
   });
 });

@@ -10,7 +10,7 @@ import { closeDb } from "@/database/client";
 import { iterateRegisterRows } from "@/database/queries/register";
 import { REGISTER_COLUMNS, columnHeader, type RegisterFilter, type RegisterRow } from "@/domain/register";
 import { buildRegisterJoints, type RegisterFixture } from "@/fixtures/register-joints";
-import { moveJointMadeAt, ownerDb, resetDatabase } from "../support/db";
+import { moveJointMadeAt, ownerDb, resetDatabase, setOrganisationZoneRow } from "../support/db";
 import { requestAs } from "../support/session";
 import { makeUser } from "../support/users";
 
@@ -47,7 +47,7 @@ describe("register API and export", () => {
     // A place text that CSV must quote (comma and quotes), on a joint of fuser 0.
     const target = await ownerDb()("joints").where({ fuser_id: fixture.fuserIds[0] }).orderBy("id").first("id");
     await ownerDb()("joints").where({ id: target.id }).update({ station: TRICKY_STATION });
-    await ownerDb()("organisation_settings").insert({ id: 1, time_zone: ZONE });
+    await setOrganisationZoneRow(ZONE);
     clerk = await makeUser({ roles: ["clerk"], unitSystem: "si", name: "Clerk Ottilie Brand" });
     inspectorUs = await makeUser({ roles: ["inspector"], unitSystem: "us", name: "Inspector Wen Harrow" });
     admin = await makeUser({ roles: ["admin"] });

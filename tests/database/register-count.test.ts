@@ -7,7 +7,7 @@ import { closeDb } from "@/database/client";
 import { countRegister, listRegisterPage, settleRegisterCounts } from "@/database/queries/register";
 import { describeRegisterCount, roundEstimate, type RegisterCount } from "@/domain/register";
 import { buildRegisterJoints } from "@/fixtures/register-joints";
-import { ownerDb, resetDatabase } from "../support/db";
+import { ownerDb, resetDatabase, setOrganisationZoneRow } from "../support/db";
 import { requestAs } from "../support/session";
 import { makeUser } from "../support/users";
 
@@ -58,7 +58,7 @@ describe("register count against MariaDB (cap set low)", () => {
     process.env.REGISTER_EXACT_COUNT_COOLDOWN_MS = "0";
     await resetDatabase();
     await buildRegisterJoints(ownerDb(), { count: 300, seed: 31 });
-    await ownerDb()("organisation_settings").insert({ id: 1, time_zone: ZONE });
+    await setOrganisationZoneRow(ZONE);
     clerk = await makeUser({ roles: ["clerk"], unitSystem: "si", name: "Clerk Maren Tolle" });
   }, 120_000);
 

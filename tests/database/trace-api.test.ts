@@ -7,7 +7,7 @@ import { GET as exportLot } from "@/app/api/v1/trace/lot/export/route";
 import { GET as traceLot } from "@/app/api/v1/trace/lot/route";
 import { closeDb } from "@/database/client";
 import { seed as seedScenario } from "@/database/seeds/01-demo";
-import { closeOwnerDb, ownerDb, resetDatabase, userIdByEmail } from "../support/db";
+import { closeOwnerDb, ownerDb, resetDatabase, userIdByEmail, setOrganisationZoneRow } from "../support/db";
 import { requestAs } from "../support/session";
 
 let clerk: { id: number };
@@ -56,9 +56,9 @@ describe("GET /api/v1/trace/lot", () => {
   });
 
   it("exports the same list as a spreadsheet", async () => {
-    await ownerDb()("organisation_settings").insert({ id: 1, time_zone: "America/Chicago" });
+    await setOrganisationZoneRow("America/Chicago");
     const response = await exportLot(await requestAs(clerk, "/api/v1/trace/lot/export?code=LV-C0002"), none);
-    await ownerDb()("organisation_settings").where({ id: 1 }).delete();
+    await setOrganisationZoneRow(null);
     expect(response.status).toBe(200);
     expect(response.headers.get("content-disposition")).toBe('attachment; filename="trace-4410021.xlsx"');
     const book = new ExcelJS.Workbook();

@@ -20,7 +20,7 @@ import { sendDueMails } from "@/app/_server/mail/send-due-mails";
 import { createSmtpTransport, type MailTransport } from "@/app/_server/mail/transport";
 import { MAX_MAIL_ATTEMPTS, retryDelayS } from "@/domain/mail/backoff";
 import { makeReviewBase, makeReviewJoint, type FaultName, type ReviewBase } from "@/fixtures/review-joints";
-import { ownerDb, resetDatabase } from "../support/db";
+import { ownerDb, resetDatabase, setOrganisationZoneRow } from "../support/db";
 import { makeUser } from "../support/users";
 
 const MADE = new Date("2026-11-24T10:00:00Z");
@@ -174,7 +174,7 @@ describe("out-of-limits alerts through SMTP", () => {
   });
 
   it("an hourly inspector gets three alerts made within a minute as one mail, with each joint and its link", async () => {
-    await ownerDb()("organisation_settings").insert({ id: 1, time_zone: "America/Chicago" });
+    await setOrganisationZoneRow("America/Chicago");
     const fuser = await makeUser({ roles: ["fuser"] });
     const hourly = await makeUser({ roles: ["inspector"] });
     await ownerDb()("users").where({ id: hourly.id }).update({ mail_grouping: "hourly" });
@@ -257,7 +257,7 @@ describe("out-of-limits alerts through SMTP", () => {
   });
 
   it("a daily inspector gets one mail for the day (06:00 in the organisation's zone) instead of one per joint", async () => {
-    await ownerDb()("organisation_settings").insert({ id: 1, time_zone: "Europe/Berlin" });
+    await setOrganisationZoneRow("Europe/Berlin");
     const fuser = await makeUser({ roles: ["fuser"] });
     const daily = await makeUser({ roles: ["inspector"] });
     await ownerDb()("users").where({ id: daily.id }).update({ mail_grouping: "daily" });

@@ -22,6 +22,25 @@ export async function resetDatabase(): Promise<void> {
   const [rows] = (await k.raw("SELECT table_name AS t FROM information_schema.tables WHERE table_schema = DATABASE() AND table_type = 'BASE TABLE'")) as [{ t: string }[]];
   const tables = rows.map((r) => r.t).filter((t) => !t.startsWith("knex_migrations"));
   await k.raw(`SET FOREIGN_KEY_CHECKS = 0; ${tables.map((t) => `TRUNCATE TABLE \`${t}\``).join("; ")}; SET FOREIGN_KEY_CHECKS = 1;`);
+  await forgetKeptSettings(); // the app keeps the settings row for a few seconds; it is gone now
+}
+
+/**
+ * Drops the organisation settings the app keeps in this process. Only under vitest do the
+ * app's modules run in the test's process (the demo-seed CLI and the browser tests' server
+ * do not, and the server-only module cannot be imported there).
+ */
+async function forgetKeptSettings(): Promise<void> {
+  if (!process.env.VITEST) return;
+  const { forgetOrganisationSettings } = await import("@/app/_server/organisation/get-time-zone");
+  forgetOrganisationSettings();
+}
+
+/** Writes the organisation's time zone straight into its row (null: none chosen) and drops the app's kept copy. */
+export async function setOrganisationZoneRow(timeZone: string | null): Promise<void> {
+  if (timeZone === null) await ownerDb()("organisation_settings").where({ id: 1 }).delete();
+  else await ownerDb()("organisation_settings").insert({ id: 1, time_zone: timeZone });
+  await forgetKeptSettings();
 }
 
 /** Loads the demo scenario (all seed files, in order) into the current — empty — database. */
