@@ -1,6 +1,7 @@
 // The one knex instance (mysql2 client) for the whole server. Cached on globalThis so
 // development reloads and test files reuse one pool instead of opening more.
 import knexFactory, { type Knex } from "knex";
+import { queryCountingOn, tallyQuery } from "./query-count";
 
 // eslint-disable-next-line @typescript-eslint/no-require-imports
 const config = require("../knexfile.js") as Knex.Config;
@@ -9,7 +10,10 @@ const globalForKnex = globalThis as unknown as { beadlineKnex?: Knex };
 
 export function db(): Knex {
   if (!globalForKnex.beadlineKnex) {
-    globalForKnex.beadlineKnex = knexFactory(config);
+    const k = knexFactory(config);
+    // BEADLINE_COUNT_QUERIES=1: every statement sent counts for the request that sent it (database/query-count.ts).
+    if (queryCountingOn()) k.on("query", tallyQuery);
+    globalForKnex.beadlineKnex = k;
   }
   return globalForKnex.beadlineKnex;
 }
