@@ -1,7 +1,7 @@
 // The one knex instance (mysql2 client) for the whole server. Cached on globalThis so
 // development reloads and test files reuse one pool instead of opening more.
 import knexFactory, { type Knex } from "knex";
-import { queryCountingOn, tallyQuery } from "./query-count";
+import { tallyQuery } from "./query-count";
 
 // eslint-disable-next-line @typescript-eslint/no-require-imports
 const config = require("../knexfile.js") as Knex.Config;
@@ -11,8 +11,9 @@ const globalForKnex = globalThis as unknown as { beadlineKnex?: Knex };
 export function db(): Knex {
   if (!globalForKnex.beadlineKnex) {
     const k = knexFactory(config);
-    // BEADLINE_COUNT_QUERIES=1: every statement sent counts for the request that sent it (database/query-count.ts).
-    if (queryCountingOn()) k.on("query", tallyQuery);
+    // Every statement sent counts for the request (or counted piece of work) that sent it
+    // (database/query-count.ts); with no counting in the process this is one call that returns.
+    k.on("query", tallyQuery);
     globalForKnex.beadlineKnex = k;
   }
   return globalForKnex.beadlineKnex;

@@ -3,7 +3,8 @@
 // (app/_lib/query-count.ts); the shared knex client adds one to the tally of the request
 // that issued the statement (database/client.ts, knex's `query` event, which fires once per
 // statement sent to the server: one round trip). Scripts and tests can count a piece of work
-// with `countQueries`.
+// with `countQueries`. Until one of them asks, no tally store exists and the client's
+// listener returns at once.
 import { AsyncLocalStorage } from "node:async_hooks";
 
 /** `statements` is kept only under BEADLINE_COUNT_QUERIES=sql: the SQL text of each (no bound values). */
@@ -11,11 +12,6 @@ export type QueryTally = { queries: number; statements?: string[] };
 
 // On globalThis: instrumentation and the route bundles may each load their own copy of this module.
 const globalForTally = globalThis as unknown as { beadlineQueryTally?: AsyncLocalStorage<QueryTally> };
-
-/** Whether this process counts queries (read once per knex client and per server start). */
-export function queryCountingOn(): boolean {
-  return process.env.BEADLINE_COUNT_QUERIES === "1" || queryTextOn();
-}
 
 /** BEADLINE_COUNT_QUERIES=sql: the log line lists the statements' SQL text too (never their values). */
 export function queryTextOn(): boolean {
