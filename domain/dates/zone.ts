@@ -41,11 +41,19 @@ export function isTimeZone(name: string): boolean {
 
 const ZONE_NAME_ANSWERS_MAX = 1000;
 const zoneNameAnswers = new Map<string, boolean>();
+const canonicalNames = new Map<string, string>();
 
 /** The zone name as the runtime spells it canonically ("utc" → "UTC", "europe/berlin" → "Europe/Berlin"). */
 export function canonicalTimeZone(name: string): string {
   if (!isTimeZone(name)) throw new DomainError('invalid-input', `Time zone "${name}" is not a time zone of the IANA time zone database.`);
-  return new Intl.DateTimeFormat('en-US', { timeZone: name }).resolvedOptions().timeZone;
+  // Kept per name as isTimeZone's answer is (asked on every request while no zone is chosen).
+  let canonical = canonicalNames.get(name);
+  if (canonical === undefined) {
+    canonical = new Intl.DateTimeFormat('en-US', { timeZone: name }).resolvedOptions().timeZone;
+    if (canonicalNames.size >= ZONE_NAME_ANSWERS_MAX) canonicalNames.clear();
+    canonicalNames.set(name, canonical);
+  }
+  return canonical;
 }
 
 
