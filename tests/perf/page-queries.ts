@@ -95,16 +95,16 @@ async function main(): Promise<number> {
       admin: await signInCookie(baseUrl, "admin@larkmoor-gas.example", DEMO_PASSWORD),
     };
     /** One request; its statements from the server's log line (written when the answer has gone out). */
-    const ask = async (urlPath: string, role: Role): Promise<{ status: number; queries: number; header: string | null; statements?: string[] }> => {
+    const ask = async (urlPath: string, role: Role): Promise<{ status: number; queries: number; header: string | null; bytes: number; statements?: string[] }> => {
       const before = counted.length;
       const res = await fetch(`${baseUrl}${urlPath}`, { headers: { cookie: cookies[role] }, redirect: "manual" });
-      await res.arrayBuffer();
+      const bytes = (await res.arrayBuffer()).byteLength;
       for (let i = 0; i < 100 && counted.length === before; i += 1) await new Promise((r) => setTimeout(r, 20));
       const line = counted.slice(before).find((c) => c.path === urlPath);
       if (!line) throw new Error(`no "queries per request" line for ${urlPath} (is BEADLINE_COUNT_QUERIES wired in instrumentation.ts?)`);
-      return { status: res.status, queries: line.queries, header: res.headers.get("x-beadline-queries"), statements: line.statements };
+      return { status: res.status, queries: line.queries, header: res.headers.get("x-beadline-queries"), bytes, statements: line.statements };
     };
-    const rows: string[][] = [["page", "path", "status", "first", "repeated", "header", "ceiling", ""]];
+    const rows: string[][] = [["page", "path", "status", "first", "repeated", "header", "ceiling", "", "bytes"]];
     let over = 0;
     const sqlText: string[] = [];
     for (const p of PAGES) {
@@ -114,12 +114,12 @@ async function main(): Promise<number> {
       const ok = again.status === 200 && again.queries <= p.max;
       if (!ok) over += 1;
       if (again.statements) sqlText.push(`\n${p.label} (${urlPath}):`, ...again.statements.map((q, i) => `  ${i + 1}. ${q}`));
-      rows.push([p.label, urlPath, String(again.status), String(first.queries), String(again.queries), again.header ?? "—", `≤ ${p.max}`, ok ? "ok" : "OVER"]);
+      rows.push([p.label, urlPath, String(again.status), String(first.queries), String(again.queries), again.header ?? "—", `≤ ${p.max}`, ok ? "ok" : "OVER", String(again.bytes)]);
     }
     const widths = rows[0].map((_, i) => Math.max(...rows.map((r) => r[i].length)));
     for (const r of rows) console.log(r.map((c, i) => c.padEnd(widths[i])).join("  "));
     if (sqlText.length) console.log(sqlText.join("\n"));
-    console.log(`\nstatements per request (knex 'query' events); "header" is the count when the headers went out.`);
+    console.log(`\nstatements per request (knex 'query' events); "header" is the count when the headers went out; bytes of the answer (HTML with its inline RSC payload, uncompressed).`);
     return over ? 1 : 0;
   } finally {
     if (server && server.exitCode === null) {
