@@ -99,7 +99,8 @@ async function main(): Promise<number> {
       const before = counted.length;
       const res = await fetch(`${baseUrl}${urlPath}`, { headers: { cookie: cookies[role] }, redirect: "manual" });
       const bytes = (await res.arrayBuffer()).byteLength;
-      for (let i = 0; i < 100 && counted.length === before; i += 1) await new Promise((r) => setTimeout(r, 20));
+      // The line is written when the answer has gone out; on a busy machine it may take a moment.
+      for (let i = 0; i < 500 && !counted.slice(before).some((c) => c.path === urlPath); i += 1) await new Promise((r) => setTimeout(r, 20));
       const line = counted.slice(before).find((c) => c.path === urlPath);
       if (!line) throw new Error(`no "queries per request" line for ${urlPath} (is BEADLINE_COUNT_QUERIES wired in instrumentation.ts?)`);
       return { status: res.status, queries: line.queries, header: res.headers.get("x-beadline-queries"), bytes, statements: line.statements };
