@@ -5,7 +5,9 @@
 // project compares versions, its build in DIR/.next-bench), drives each page with autocannon
 // (10 connections, N seconds after a 2 s warm-up) as the signed-in clerk, and divides the
 // CPU time of the server's processes (user + system, /proc/<pid>/stat) by the requests
-// served. 1000 ÷ that is the page rate one core could serve at most. With --bare-dir, the
+// served. 1000 ÷ that is the page rate one core could serve at most. (A checkout elsewhere, e.g.
+// `git archive <commit> | tar -x -C /tmp/x` with node_modules linked from here, needs
+// `turbopack: { root: "/" }` in its next.config.js to build, as the bench's floor app has.) With --bare-dir, the
 // same for "/" of a prebuilt bare Next.js app in DIR: the framework's own cost of a
 // server-rendered page. Not part of `npm test`.
 import "../support/server-only-outside-next";
