@@ -13,6 +13,11 @@ export async function register(): Promise<void> {
   }
   const { installPeerAddressStamp } = await import("./app/_lib/client-address");
   installPeerAddressStamp();
+  if (process.env.BEADLINE_COUNT_QUERIES === "1" || process.env.BEADLINE_COUNT_QUERIES === "sql") {
+    // Queries per request in a header and a log line (app/_lib/query-count.ts); off by default.
+    const { installQueryCount } = await import("./app/_lib/query-count");
+    installQueryCount();
+  }
   if (process.env.MAIL_WORKER === "off") return;
   const [{ startMailWorker }, { logger }] = await Promise.all([import("./app/_server/mail/worker"), import("./app/_lib/log")]);
   startMailWorker({ log: logger.child({ part: "mail-worker" }) });

@@ -10,6 +10,7 @@
 // twice: files go to object storage before the transaction, mail goes through the outbox.
 import { randomInt } from "node:crypto";
 import knexFactory, { type Knex } from "knex";
+import { tallyQuery } from "./query-count";
 
 // eslint-disable-next-line @typescript-eslint/no-require-imports
 const config = require("../knexfile.js") as Knex.Config;
@@ -68,7 +69,11 @@ const globalForKnex = globalThis as unknown as { beadlineKnex?: Knex };
 
 export function db(): Knex {
   if (!globalForKnex.beadlineKnex) {
-    globalForKnex.beadlineKnex = withWriteRetry(knexFactory({ ...config, pool: poolWithSyncWait(config.pool), client: BeadlineMysql2Client as unknown as Knex.Config["client"] }));
+    const k = knexFactory({ ...config, pool: poolWithSyncWait(config.pool), client: BeadlineMysql2Client as unknown as Knex.Config["client"] });
+    // Every statement sent counts for the request (or counted piece of work) that sent it
+    // (database/query-count.ts); with no counting in the process this is one call that returns.
+    k.on("query", tallyQuery);
+    globalForKnex.beadlineKnex = withWriteRetry(k);
   }
   return globalForKnex.beadlineKnex;
 }

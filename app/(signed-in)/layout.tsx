@@ -1,5 +1,5 @@
 import { screensFor } from "@/domain/roles";
-import { currentUser } from "@/app/_lib/session";
+import { pageUser } from "@/app/_lib/page-guard";
 import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
 import { TimeZoneProvider } from "@/components/ui/time-zone";
 import { AppShell } from "./_components/app-shell";
@@ -7,7 +7,7 @@ import { AppShell } from "./_components/app-shell";
 // The layout only draws the shell for whoever is signed in; pages and actions guard themselves.
 // It hands the organisation's time zone to every client part of the screens below.
 export default async function SignedInLayout({ children }: { children: React.ReactNode }) {
-  const user = await currentUser();
+  const user = await pageUser();
   if (!user) return <>{children}</>;
   const timeZone = await organisationTimeZone();
   return (

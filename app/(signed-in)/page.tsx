@@ -9,8 +9,8 @@ import { TodayInspector } from "./_components/today-inspector";
 export const dynamic = "force-dynamic";
 
 /** Each role's own group of panels (the roles themselves, not a permission: Today summarises a role's work). */
-const PANELS: Record<Role, (p: { userId: number; now: Date }) => ReactNode> = {
-  fuser: ({ userId, now }) => <TodayFuser userId={userId} now={now} />,
+const PANELS: Record<Role, (p: { userId: number; crewId: number | null; now: Date }) => ReactNode> = {
+  fuser: ({ userId, crewId, now }) => <TodayFuser userId={userId} crewId={crewId} now={now} />,
   inspector: () => <TodayInspector />,
   clerk: ({ userId }) => <TodayClerk userId={userId} />,
   admin: ({ now }) => <TodayAdmin now={now} />,
@@ -26,7 +26,7 @@ export default async function TodayPage() {
       <p>Signed in as {user.name}.</p>
       <div className="grid gap-4 md:grid-cols-2">
         {ROLES.filter((role) => user.roles.includes(role)).map((role) => (
-          <Fragment key={role}>{PANELS[role]({ userId: user.id, now })}</Fragment>
+          <Fragment key={role}>{PANELS[role]({ userId: user.id, crewId: user.crewId, now })}</Fragment>
         ))}
       </div>
     </div>

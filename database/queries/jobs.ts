@@ -77,11 +77,12 @@ export async function listJobs({ status }: { status?: JobStatus } = {}, trx?: Db
  * Open jobs a fuser may record on: those of the fuser's crew, plus open jobs with no crew
  * assigned (anyone may work them). A fuser with no crew sees only the unassigned ones.
  */
-export async function listOpenJobsForFuser({ userId }: { userId: number }, trx?: Db): Promise<JobRecord[]> {
+export async function listOpenJobsForFuser({ userId, crewId }: { userId: number; crewId?: number | null }, trx?: Db): Promise<JobRecord[]> {
   const k = conn(trx);
-  const user = (await k("users").where({ id: userId }).select("crew_id").first()) as { crew_id: number | null } | undefined;
+  // The caller usually holds the person's record already (the session's): then no read of the crew.
+  const crew = crewId !== undefined ? crewId : (((await k("users").where({ id: userId }).select("crew_id").first()) as { crew_id: number | null } | undefined)?.crew_id ?? null);
   const q = baseQuery(trx).where("jobs.status", "open").orderBy("jobs.code");
-  if (user?.crew_id) q.where((w) => w.where("jobs.crew_id", user.crew_id).orWhereNull("jobs.crew_id"));
+  if (crew) q.where((w) => w.where("jobs.crew_id", crew).orWhereNull("jobs.crew_id"));
   else q.whereNull("jobs.crew_id");
   return ((await q) as JobRow[]).map(toJob);
 }

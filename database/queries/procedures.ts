@@ -105,6 +105,19 @@ export async function currentProcedureVersionForJob({ jobId }: { jobId: number }
   return currentProcedureVersion({ procedureId: job.procedure_id }, trx);
 }
 
+/**
+ * The current version of every procedure, active or not, in one query (the latest version not
+ * superseded per procedure, as currentProcedureVersion picks it): request-independent, so the
+ * server keeps it (app/_server/reference/procedure-versions.ts).
+ */
+export async function listCurrentVersionOfEveryProcedure(_: Record<string, never> = {}, trx?: Db): Promise<ProcedureVersionRecord[]> {
+  const rows = (await versionQuery(trx)
+    .whereNull("procedure_versions.superseded_at")
+    .orderBy([{ column: "procedure_versions.procedure_id" }, { column: "procedure_versions.version_no", order: "desc" }])) as VersionRow[];
+  const seen = new Set<number>();
+  return rows.filter((r) => !seen.has(r.procedure_id) && Boolean(seen.add(r.procedure_id))).map(toVersion);
+}
+
 export type ProcedureVersionSummary = ProcedureVersionRecord & { jointCount: number };
 
 /** All versions of a procedure, newest first, each with how many joints were checked against it. */

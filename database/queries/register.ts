@@ -698,17 +698,17 @@ export type RegisterFilterOptions = { jobs: RegisterOption[]; fusers: RegisterOp
 
 /** What the filter form offers: jobs, people who hold the fuser role, fusion machines. */
 export async function listRegisterFilterOptions(_: Record<string, never> = {}, trx?: Db): Promise<RegisterFilterOptions> {
-  const k = conn(trx);
-  const [jobs, fusers, machines] = await Promise.all([
-    k("jobs").select("id", "code", "name").orderBy("code").limit(5000),
-    k("users").select("id", "name").whereRaw("FIND_IN_SET('fuser', roles) > 0").orderBy("name").limit(5000),
-    k("fusion_machines").select("id", "asset_tag").orderBy("asset_tag").limit(5000),
-  ]);
-  return {
-    jobs: jobs.map((j: { id: number; code: string; name: string }) => ({ id: Number(j.id), label: `${j.code} — ${j.name}` })),
-    fusers: fusers.map((u: { id: number; name: string }) => ({ id: Number(u.id), label: u.name })),
-    machines: machines.map((m: { id: number; asset_tag: string }) => ({ id: Number(m.id), label: m.asset_tag })),
-  };
+  // One round trip for the three lists; each part keeps its own order and limit.
+  const [rows] = (await conn(trx).raw(
+    `(SELECT 'job' AS list, id, CONCAT(code, ' — ', name) AS label, code AS sort_key FROM jobs ORDER BY code LIMIT 5000)
+     UNION ALL (SELECT 'fuser', id, name, name FROM users WHERE FIND_IN_SET('fuser', roles) > 0 ORDER BY name LIMIT 5000)
+     UNION ALL (SELECT 'machine', id, asset_tag, asset_tag FROM fusion_machines ORDER BY asset_tag LIMIT 5000)
+     ORDER BY list, sort_key`,
+  )) as [{ list: "job" | "fuser" | "machine"; id: number; label: string }[]];
+  const options: RegisterFilterOptions = { jobs: [], fusers: [], machines: [] };
+  const into = { job: options.jobs, fuser: options.fusers, machine: options.machines };
+  for (const r of rows) into[r.list].push({ id: Number(r.id), label: r.label });
+  return options;
 }
 
 export type RegisterFilterNames = { job: string | null; fuser: string | null; machine: string | null };

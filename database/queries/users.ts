@@ -75,6 +75,16 @@ export async function listUsersWithRole({ role, activeOnly = true }: { role: Rol
   return ((await q.orderBy("users.name")) as UserRow[]).map(toUser);
 }
 
+/** People holding any of these roles, by name, in one query (activeOnly as listUsersWithRole). */
+export async function listUsersWithRoles({ roles, activeOnly = true }: { roles: Role[]; activeOnly?: boolean }, trx?: Db): Promise<UserRecord[]> {
+  if (roles.length === 0) return [];
+  const q = baseQuery(trx).where((w) => {
+    for (const role of roles) w.orWhereRaw("FIND_IN_SET(?, users.roles) > 0", [role]);
+  });
+  if (activeOnly) q.where("users.is_active", true);
+  return ((await q.orderBy("users.name")) as UserRow[]).map(toUser);
+}
+
 export async function countActiveAdmins(_: Record<string, never> = {}, trx?: Db): Promise<number> {
   const row = await conn(trx)("users").where("is_active", true).whereRaw("FIND_IN_SET('admin', roles) > 0").count({ n: "*" }).first();
   return Number(row?.n ?? 0);

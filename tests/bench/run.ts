@@ -546,7 +546,7 @@ async function profilePaths(serverEnv: NodeJS.ProcessEnv, clerk: string): Promis
   const outDir = path.join(__dirname, "results", "profiles", stamp);
   mkdirSync(outDir, { recursive: true });
   const texts: string[] = [];
-  for (const [name, urlPath] of [["session", "/api/v1/session"], ["register", "/api/v1/register"]] as const) {
+  for (const [name, urlPath] of [["session", "/api/v1/session"], ["register", "/api/v1/register"], ["register-page", "/register"], ["joint-page", "/joints/1"]] as const) {
     const dir = path.join(outDir, name);
     const port = await freePort();
     const url = `http://127.0.0.1:${port}`;

@@ -8,8 +8,8 @@ import { jobsQualifiedFor } from "@/domain/qualifications/overview";
 import { TodayDrafts } from "./today-drafts";
 import { TodayPanel } from "./today-panel";
 
-export async function TodayFuser({ userId, now }: { userId: number; now: Date }) {
-  const [jobs, statuses] = await Promise.all([listOpenJobsForFuser({ userId }), qualificationStatusOverview({ userId, now, timeZone: await organisationTimeZone() })]);
+export async function TodayFuser({ userId, crewId, now }: { userId: number; crewId: number | null; now: Date }) {
+  const [jobs, statuses] = await Promise.all([listOpenJobsForFuser({ userId, crewId }), qualificationStatusOverview({ userId, now, timeZone: await organisationTimeZone() })]);
   const anyQualified = statuses.some((s) => s.status.qualified);
   const recordable = jobsQualifiedFor(jobs, statuses);
   const blocked = jobs.length > 0 && recordable.length === 0;

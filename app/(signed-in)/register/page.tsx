@@ -1,5 +1,5 @@
 import { requireUser } from "@/app/_lib/page-guard";
-import { listRegisterFilterOptions } from "@/database/queries/register";
+import { registerFilterOptions } from "@/app/_server/reference/register-filter-options";
 import { registerViewSchema, type RegisterView } from "@/domain/register";
 import { fieldErrorsFromIssues } from "@/domain/result";
 import { RegisterScreen } from "./_components/register-screen";
@@ -14,7 +14,7 @@ export default async function RegisterPage({ searchParams }: { searchParams: Pro
   const parsed = registerViewSchema.safeParse(flat);
   const view: RegisterView = parsed.success ? parsed.data : { sort: "madeAt", dir: "desc" };
   const urlErrors = parsed.success ? {} : fieldErrorsFromIssues(parsed.error.issues);
-  const options = await listRegisterFilterOptions();
+  const options = await registerFilterOptions();
   return (
     <div className="flex flex-col gap-4">
       <h1 className="text-2xl font-bold">Register</h1>

@@ -1,6 +1,7 @@
 // Add a person (Crew screen): checks, hashes the password, writes the user and the audit
 // entry in one transaction.
 import "server-only";
+import { registerFilterOptionsChanged } from "@/app/_server/reference/register-filter-options";
 import { db, isDuplicateKey } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { insertUser, isEmailTaken } from "@/database/queries/users";
@@ -19,11 +20,13 @@ export async function addPerson(input: AddPersonInput, ctx: Ctx): Promise<{ id: 
   }
   const passwordHash = await hashPassword(input.password);
   try {
-    return await db().transaction(async (trx) => {
+    const added = await db().transaction(async (trx) => {
       const id = await insertUser({ name: input.name, email: input.email, passwordHash, roles: input.roles, unitSystem: input.unitSystem, crewId: input.crewId ?? null }, trx);
       await insertAuditEntry({ actorUserId: ctx.user.id, action: "person-added", entityType: "user", entityId: id, details: { name: input.name, email: input.email, roles: input.roles, crewId: input.crewId ?? null }, requestId: ctx.requestId }, trx);
       return { id };
     });
+    registerFilterOptionsChanged();
+    return added;
   } catch (error) {
     if (isDuplicateKey(error)) throw new AppError("invalid", `Check email: ${input.email} already has an account.`, { email: [`${input.email} already has an account.`] });
     throw error;

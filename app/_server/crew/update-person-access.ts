@@ -2,6 +2,7 @@
 // with the admins' rows locked); deactivation bumps the session version so open sessions
 // end at once.
 import "server-only";
+import { registerFilterOptionsChanged } from "@/app/_server/reference/register-filter-options";
 import { db } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { findUserById, lockActiveAdminIds, updateUserAccess } from "@/database/queries/users";
@@ -15,7 +16,7 @@ type Ctx = { user: { id: number }; requestId: string };
 
 export async function updatePersonAccess(input: UpdatePersonInput, ctx: Ctx): Promise<{ id: number; version: number }> {
   await checkCrew(input.crewId);
-  return db().transaction(async (trx) => {
+  const updated = await db().transaction(async (trx) => {
     // Lock the admins first (same order in every transaction), then read the person.
     const adminIds = await lockActiveAdminIds({}, trx);
     const before = await findUserById({ id: input.id }, trx);
@@ -44,4 +45,6 @@ export async function updatePersonAccess(input: UpdatePersonInput, ctx: Ctx): Pr
     );
     return { id: input.id, version: input.version + 1 };
   });
+  registerFilterOptionsChanged();
+  return updated;
 }

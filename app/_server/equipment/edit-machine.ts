@@ -1,5 +1,6 @@
 // Edit a fusion machine under optimistic locking, with the audit entry.
 import "server-only";
+import { registerFilterOptionsChanged } from "@/app/_server/reference/register-filter-options";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { findMachineById, updateMachine } from "@/database/queries/equipment";
 import type { UpdateMachineInput } from "@/domain/equipment/schemas";
@@ -10,7 +11,7 @@ import { inAssetTransaction, machineFields } from "./equipment-checks";
 type Ctx = { user: { id: number }; requestId: string };
 
 export async function editMachine(input: UpdateMachineInput, ctx: Ctx): Promise<{ id: number; version: number }> {
-  return inAssetTransaction(input.assetTag, async (trx) => {
+  const edited = await inAssetTransaction(input.assetTag, async (trx) => {
     const before = await findMachineById({ id: input.id, forUpdate: true }, trx);
     if (!before) throw new AppError("not-found", "That machine does not exist.");
     const fields = machineFields(input);
@@ -30,4 +31,6 @@ export async function editMachine(input: UpdateMachineInput, ctx: Ctx): Promise<
     );
     return { id: input.id, version: input.version + 1 };
   });
+  registerFilterOptionsChanged();
+  return edited;
 }

@@ -1,5 +1,6 @@
 // Edit a job under optimistic locking, with the audit entry.
 import "server-only";
+import { registerFilterOptionsChanged } from "@/app/_server/reference/register-filter-options";
 import { db, isDuplicateKey } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { findJobById, setCoilsForJob, updateJob } from "@/database/queries/jobs";
@@ -12,7 +13,7 @@ type Ctx = { user: { id: number }; requestId: string };
 
 export async function editJob(input: UpdateJobInput, ctx: Ctx): Promise<{ id: number; version: number }> {
   try {
-    return await db().transaction(async (trx) => {
+    const edited = await db().transaction(async (trx) => {
       const before = await findJobById({ id: input.id, forUpdate: true }, trx);
       if (!before) throw new AppError("not-found", "That job does not exist.");
       if (before.version !== input.version) throw new AppError("conflict", CONFLICT_MESSAGE(`Job ${before.code}`));
@@ -28,6 +29,8 @@ export async function editJob(input: UpdateJobInput, ctx: Ctx): Promise<{ id: nu
       );
       return { id: input.id, version: input.version + 1 };
     });
+    registerFilterOptionsChanged();
+    return edited;
   } catch (error) {
     if (isDuplicateKey(error)) throw duplicateCode(input.code);
     throw error;

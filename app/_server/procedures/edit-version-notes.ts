@@ -1,5 +1,6 @@
 // Edit a version's notes (not its windows), with the audit entry.
 import "server-only";
+import { procedureVersionsChanged } from "@/app/_server/reference/procedure-versions";
 import { db } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { countJointsUsingVersion, findProcedureVersionById, updateVersionNotes } from "@/database/queries/procedures";
@@ -13,7 +14,7 @@ type Ctx = { user: { id: number }; requestId: string };
  * A version in use is never changed; publish a new version instead.
  */
 export async function editVersionNotes(input: EditVersionNotesInput, ctx: Ctx): Promise<{ versionId: number }> {
-  return db().transaction(async (trx) => {
+  const edited = await db().transaction(async (trx) => {
     // The row lock also waits for any joint insert that references this version (FK check).
     const version = await findProcedureVersionById({ id: input.versionId, forUpdate: true }, trx);
     if (!version) throw new AppError("not-found", "That procedure version does not exist.");
@@ -31,4 +32,6 @@ export async function editVersionNotes(input: EditVersionNotesInput, ctx: Ctx): 
     );
     return { versionId: version.id };
   });
+  procedureVersionsChanged();
+  return edited;
 }

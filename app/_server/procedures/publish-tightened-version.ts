@@ -1,6 +1,7 @@
 // Publish a new version that tightens the current one's windows (a version used by a joint
 // is never edited), with the audit entry.
 import "server-only";
+import { procedureVersionsChanged } from "@/app/_server/reference/procedure-versions";
 import { db, isDuplicateKey } from "@/database/client";
 import { insertAuditEntry } from "@/database/queries/audit-log";
 import { currentProcedureVersion, findProcedureById, insertProcedureVersion, markVersionSuperseded } from "@/database/queries/procedures";
@@ -18,7 +19,7 @@ type Ctx = { user: { id: number }; requestId: string };
  */
 export async function publishTightenedVersion(input: TightenProcedureInput, ctx: Ctx): Promise<{ versionId: number; versionNo: number }> {
   try {
-    return await db().transaction(async (trx) => {
+    const published = await db().transaction(async (trx) => {
       const procedure = await findProcedureById({ id: input.procedureId, forUpdate: true }, trx);
       if (!procedure) throw new AppError("not-found", "That procedure does not exist.");
       if (!procedure.isActive) throw new AppError("invalid", `Procedure ${procedure.code} is retired.`, { procedureId: [`Procedure ${procedure.code} is retired.`] });
@@ -47,6 +48,8 @@ export async function publishTightenedVersion(input: TightenProcedureInput, ctx:
       );
       return { versionId, versionNo };
     });
+    procedureVersionsChanged();
+    return published;
   } catch (error) {
     if (isDuplicateKey(error)) throw new AppError("conflict", "Another version of this procedure was published at the same moment; reload the page and try again.");
     throw error;

@@ -7,16 +7,16 @@ import "server-only";
 import { listHeatersWithLastCheck, listMachines } from "@/database/queries/equipment";
 import { listOpenJobsForFuser } from "@/database/queries/jobs";
 import { listCoilsForTrench, listJoints, listJointsAwaitingRemake, listJointsBetweenCoils, listOverridesForJobs } from "@/database/queries/joints";
-import { currentProcedureVersionForJob } from "@/database/queries/procedures";
 import { listQualificationFailuresForUser, listQualificationsForUser } from "@/database/queries/qualifications";
-import { listUsersWithRole, type UserRecord } from "@/database/queries/users";
+import { listUsersWithRoles, type UserRecord } from "@/database/queries/users";
 import { toTrenchCoil, type TrenchSetup } from "./setup-types";
 import { organisationTimeZone } from "@/app/_server/organisation/get-time-zone";
+import { currentProcedureVersions } from "@/app/_server/reference/procedure-versions";
 
 export async function loadTrenchSetup(user: UserRecord, now = new Date()): Promise<TrenchSetup> {
-  const [jobs, timeZone] = await Promise.all([listOpenJobsForFuser({ userId: user.id }), organisationTimeZone()]);
+  const [jobs, timeZone] = await Promise.all([listOpenJobsForFuser({ userId: user.id, crewId: user.crewId }), organisationTimeZone()]);
   const jobIds = jobs.map((j) => j.id);
-  const [qualifications, failures, machines, heaters, coils, overrides, remakes, recent, inspectors, admins] = await Promise.all([
+  const [qualifications, failures, machines, heaters, coils, overrides, remakes, recent, reviewers, versions] = await Promise.all([
     listQualificationsForUser({ userId: user.id }),
     listQualificationFailuresForUser({ userId: user.id }),
     listMachines({ activeOnly: true }),
@@ -25,10 +25,13 @@ export async function loadTrenchSetup(user: UserRecord, now = new Date()): Promi
     listOverridesForJobs({ jobIds, at: now }),
     listJointsAwaitingRemake({ jobIds }),
     listJoints({ fuserId: user.id, limit: 10 }),
-    listUsersWithRole({ role: "inspector" }),
-    listUsersWithRole({ role: "admin" }),
+    listUsersWithRoles({ roles: ["inspector", "admin"] }),
+    // Each job's current procedure version (kept by the server between requests).
+    currentProcedureVersions(jobs.map((j) => j.procedureId)),
   ]);
-  const [versions, pairs] = await Promise.all([Promise.all(jobs.map((j) => currentProcedureVersionForJob({ jobId: j.id }))), listJointsBetweenCoils({ coilIds: coils.map((c) => c.id) })]);
+  const pairs = await listJointsBetweenCoils({ coilIds: coils.map((c) => c.id) });
+  const inspectors = reviewers.filter((u) => u.roles.includes("inspector"));
+  const admins = reviewers.filter((u) => u.roles.includes("admin"));
   return {
     user: { id: user.id, name: user.name, unitSystem: user.unitSystem, crewId: user.crewId },
     jobs: jobs.map((j, i) => {

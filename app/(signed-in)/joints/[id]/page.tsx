@@ -48,9 +48,9 @@ function timedMark(joint: JointRecord, phase: TimedPhase, value: number | null):
 export default async function JointPage({ params }: Params) {
   const user = await requireUser();
   const id = await requirePageId(params, "bigint");
-  const joint = await findJointById({ id });
+  // All four at once (the lists need only the id): one wait for the database, not two.
+  const [joint, revisions, photos, overrides] = await Promise.all([findJointById({ id }), listJointRevisions({ jointId: id }), listAttachmentsForJoint({ jointId: id }), listOverrideUsesForJoint({ jointId: id })]);
   if (!joint) notFound();
-  const [revisions, photos, overrides] = await Promise.all([listJointRevisions({ jointId: joint.id }), listAttachmentsForJoint({ jointId: joint.id }), listOverrideUsesForJoint({ jointId: joint.id })]);
   const system = user.unitSystem;
   const verdict = verdictOf(joint, system);
   const within = verdict.outcome === "within-limits";
