@@ -27,7 +27,7 @@ function zoneInForce(settings: OrganisationSettings): ZoneInForce {
   return Object.freeze({ timeZone: serverTimeZone(), isChosen: false });
 }
 
-const zoneCache = cachedValue(async () => zoneInForce(await findOrganisationSettings({})), { ttlMs: SETTINGS_TTL_MS });
+const zoneCache = cachedValue("organisation-time-zone", async () => zoneInForce(await findOrganisationSettings({})), { ttlMs: SETTINGS_TTL_MS });
 
 /** Drops this process's copy of the settings (after a change is committed; tests that write the row directly). */
 export function forgetOrganisationSettings(): void {

@@ -5,7 +5,7 @@
 // The Trench screen takes the plan of every open job from here.
 import "server-only";
 import { listCurrentVersionOfEveryProcedure, type ProcedureVersionRecord } from "@/database/queries/procedures";
-import { cachedValue } from "./cached-value";
+import { cachedValue } from "@/app/_server/cache";
 
 /** How long a version published on another instance (or outside the app) may take to show here. */
 export const PROCEDURE_VERSIONS_TTL_MS = 30_000;

@@ -4,7 +4,7 @@
 // equipment call registerFilterOptionsChanged after their transaction).
 import "server-only";
 import { listRegisterFilterOptions, type RegisterFilterOptions } from "@/database/queries/register";
-import { cachedValue } from "./cached-value";
+import { cachedValue } from "@/app/_server/cache";
 
 /** How long another instance's change (or one made outside the app) may take to show in the choices. */
 export const REGISTER_OPTIONS_TTL_MS = 30_000;
