@@ -8,8 +8,8 @@
 //
 // Both servers are driven by autocannon with the same settings, path after path and round after
 // round interleaved (floor, Beadline path, floor, …), so a busy moment on the shared machine
-// falls on both. Each figure is the median of its rounds; a figure whose rounds differ by more
-// than SPREAD_LIMIT is flagged noisy. Every Beadline figure is printed beside the floor measured
+// falls on both. Each figure is the median of its rounds; a round whose throughput is more than
+// NOISE_LIMIT away from that median is named noisy in the table. Every Beadline figure is printed beside the floor measured
 // at the same connection count: throughput share (Beadline req/s ÷ floor req/s) and latency
 // multiple (Beadline p50 ÷ floor p50).
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
@@ -20,8 +20,8 @@ import type { BenchFigure } from "./context";
 
 const ROOT = path.resolve(__dirname, "..", "..");
 export const FLOOR_DIR = path.join(os.tmpdir(), "beadline-bench-floor");
-/** Rounds whose throughput differs by more than this (max − min, of the median) are flagged noisy. */
-export const SPREAD_LIMIT = 0.2;
+/** A round whose throughput is further than this from the median of its rounds (share of the median) is named noisy. */
+export const NOISE_LIMIT = 0.15;
 
 type Autocannon = (opts: Record<string, unknown>, cb: (err: Error | null, result: AutocannonResult) => void) => unknown;
 type AutocannonResult = {
@@ -98,7 +98,7 @@ export async function startFloorApp(port: number): Promise<ChildProcess> {
 }
 
 export type Round = { requestsPerS: number; p50Ms: number; p99Ms: number; total: number; bad: number; loadAvg: number };
-export type Measured = { label: string; connections: number; rounds: Round[]; requestsPerS: number; p50Ms: number; p99Ms: number; spread: number; noisyRound: number | null; bad: number };
+export type Measured = { label: string; connections: number; rounds: Round[]; requestsPerS: number; p50Ms: number; p99Ms: number; spread: number; noisyRounds: number[]; bad: number };
 
 /** One autocannon round of `durationS` seconds; every answer other than 200 counts as bad. */
 export async function hammer(url: string, { connections, durationS, headers }: { connections: number; durationS: number; headers?: Record<string, string> }): Promise<Round> {
@@ -119,21 +119,12 @@ export function summarise(label: string, connections: number, rounds: Round[]): 
   const rps = rounds.map((r) => r.requestsPerS);
   const m = med(rps);
   const spread = m > 0 ? (Math.max(...rps) - Math.min(...rps)) / m : NaN;
-  // The noisy round: the one furthest from the median, named only when the spread passes the limit.
-  let noisyRound: number | null = null;
-  if (spread > SPREAD_LIMIT) {
-    let worst = -1;
-    rps.forEach((v, i) => {
-      if (Math.abs(v - m) > worst) {
-        worst = Math.abs(v - m);
-        noisyRound = i + 1;
-      }
-    });
-  }
-  return { label, connections, rounds, requestsPerS: m, p50Ms: med(rounds.map((r) => r.p50Ms)), p99Ms: med(rounds.map((r) => r.p99Ms)), spread, noisyRound, bad: rounds.reduce((a, r) => a + r.bad, 0) };
+  // Rounds (1-based) more than NOISE_LIMIT from the median: a busy moment on the shared machine.
+  const noisyRounds = rps.flatMap((v, i) => (m > 0 && Math.abs(v - m) / m > NOISE_LIMIT ? [i + 1] : []));
+  return { label, connections, rounds, requestsPerS: m, p50Ms: med(rounds.map((r) => r.p50Ms)), p99Ms: med(rounds.map((r) => r.p99Ms)), spread, noisyRounds, bad: rounds.reduce((a, r) => a + r.bad, 0) };
 }
 
-export type FloorTarget = { minShare?: number; minRequestsPerS?: number; text: string };
+export type FloorTarget = { minShare?: number; minRequestsPerS?: number; text: string; /** The issue's Targets row it decides (tests/bench/targets.ts). */ targetRow?: string };
 export type FloorPath = { label: string; url: string; headers?: Record<string, string>; connections: number[]; targets?: Record<number, FloorTarget> };
 
 /**
@@ -162,7 +153,10 @@ export async function measureAgainstFloor({ floorUrl, paths, rounds, durationS, 
   }
   const figures: BenchFigure[] = [];
   const detail: Record<string, unknown> = { floor: {}, paths: {} };
-  const noisyText = (m: Measured) => (m.noisyRound === null ? `spread ${(m.spread * 100).toFixed(0)} %` : `NOISY round ${m.noisyRound} (spread ${(m.spread * 100).toFixed(0)} % > ${SPREAD_LIMIT * 100} %)`);
+  const noisyText = (m: Measured) => {
+    const off = m.rounds.map((r) => (m.requestsPerS > 0 ? `${(((r.requestsPerS - m.requestsPerS) / m.requestsPerS) * 100).toFixed(0)} %` : "—")).join("/");
+    return m.noisyRounds.length ? `NOISY round ${m.noisyRounds.join(", ")} (> ${NOISE_LIMIT * 100} % from the median; rounds ${off})` : `rounds within ${NOISE_LIMIT * 100} % of the median (${off})`;
+  };
   const loadText = (rs: Round[]) => `load ${rs.map((r) => r.loadAvg.toFixed(1)).join("/")}`;
   const floors = new Map<number, Measured>();
   for (const c of connectionCounts) {
@@ -187,6 +181,7 @@ export async function measureAgainstFloor({ floorUrl, paths, rounds, durationS, 
         figure: `${p.label}, ${c} conn`,
         value: target?.minRequestsPerS !== undefined ? `${Math.round(m.requestsPerS)} req/s (${shareText})` : `${shareText} (${Math.round(m.requestsPerS)} req/s)`,
         target: target?.text,
+        targetRow: target?.targetRow,
         pass,
         note: `p50 ${multiple.toFixed(1)} × floor (${m.p50Ms} vs ${f.p50Ms} ms); ${loadText(m.rounds)}; ${noisyText(m)}${m.bad ? `; ${m.bad} non-200/errors` : ""}; p99 ${m.p99Ms} ms`,
       });

@@ -9,7 +9,7 @@ import path from "node:path";
 import { Worker } from "node:worker_threads";
 import type { ProcedureDefinition } from "@/domain/procedures";
 import { describeProcedureWindows } from "@/domain/procedures";
-import { REGISTER_COLUMNS, columnHeader, columnNumberFormat, type FilterLine, type RegisterColumn, type RegisterRow } from "@/domain/register";
+import { REGISTER_COLUMNS, columnHeader, columnNumberFormat, type FilterLine, type RegisterRow } from "@/domain/register";
 import type { UnitSystem } from "@/domain/units";
 import { formatCount, formatInstant } from "@/components/ui/display-format";
 
@@ -61,8 +61,8 @@ function readerCaughtUp(out: Writable): Promise<void> {
   });
 }
 
-type Cell = string | number | Date | null;
-type WriterColumn = { header: string; key: string; width: number; numFmt?: string };
+export type Cell = string | number | Date | null;
+export type WriterColumn = { header: string; key: string; width: number; numFmt?: string };
 type AboutLine = { values: Cell[]; bold?: boolean; numFmt?: { column: number; format: string } };
 type FromWorker = { type: "chunk"; data: Uint8Array } | { type: "written"; rows: number } | { type: "done" } | { type: "error"; message: string };
 
@@ -159,18 +159,25 @@ const UNITS_TEXT: Record<UnitSystem, string> = {
  * filter, sort, units, row count, and the windows of every procedure version the rows
  * were checked against). Returns the number of joints written.
  */
-export async function writeRegisterXlsx({ out, batches, meta, maxRows = XLSX_MAX_ROWS, progress }: { out: Writable; batches: AsyncIterable<RegisterRow[]>; meta: ExportMeta; maxRows?: number; progress?: { rows: number } }): Promise<{ rowCount: number; isTruncated: boolean }> {
-  const columns: readonly RegisterColumn[] = REGISTER_COLUMNS;
-  const writer = startWriterThread(out, {
-    format: "xlsx",
-    creator: "Beadline",
-    created: meta.exportedAt,
-    columns: columns.map((c) => {
-      const numFmt = columnNumberFormat(c, meta.system);
-      const header = columnHeader(c, meta.system, meta.timeZone, "export");
-      return { header, key: c.key, width: Math.max(c.width, header.length * 0.6) + 2, ...(numFmt ? { numFmt } : {}) };
-    }),
+/**
+ * The Joints sheet's columns as the writer gets them: header with units (the export's
+ * words), width in characters, and the number format of dates and decimals.
+ */
+export function xlsxColumns(system: UnitSystem, timeZone: string): WriterColumn[] {
+  return REGISTER_COLUMNS.map((c) => {
+    const numFmt = columnNumberFormat(c, system);
+    const header = columnHeader(c, system, timeZone, "export");
+    return { header, key: c.key, width: Math.max(c.width, header.length * 0.6) + 2, ...(numFmt ? { numFmt } : {}) };
   });
+}
+
+/** One joint's cells, column by column (domain/register/columns.ts), as both files write them. */
+export function exportCells(row: RegisterRow, system: UnitSystem, timeZone: string): Cell[] {
+  return REGISTER_COLUMNS.map((c) => c.value(row, system, timeZone));
+}
+
+export async function writeRegisterXlsx({ out, batches, meta, maxRows = XLSX_MAX_ROWS, progress }: { out: Writable; batches: AsyncIterable<RegisterRow[]>; meta: ExportMeta; maxRows?: number; progress?: { rows: number } }): Promise<{ rowCount: number; isTruncated: boolean }> {
+  const writer = startWriterThread(out, { format: "xlsx", creator: "Beadline", created: meta.exportedAt, columns: xlsxColumns(meta.system, meta.timeZone) });
   try {
     const versions = new Set<number>();
     let rowCount = 0;
@@ -183,7 +190,7 @@ export async function writeRegisterXlsx({ out, batches, meta, maxRows = XLSX_MAX
           isTruncated = true;
           break;
         }
-        values.push(columns.map((c) => c.value(row, meta.system, meta.timeZone)));
+        values.push(exportCells(row, meta.system, meta.timeZone));
         versions.add(row.procedureVersionId);
         rowCount += 1;
       }
@@ -243,7 +250,7 @@ export async function writeRegisterCsv({ out, batches, system, timeZone, progres
     let rowCount = 0;
     for await (const batch of batches) {
       if (out.destroyed) throw new ExportCancelledError();
-      await writer.rows(batch.map((row) => columns.map((c) => c.value(row, system, timeZone))));
+      await writer.rows(batch.map((row) => exportCells(row, system, timeZone)));
       rowCount += batch.length;
       if (progress) progress.rows = rowCount;
     }
