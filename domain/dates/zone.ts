@@ -22,13 +22,25 @@ const MINUS = '\u2212';
  */
 export function isTimeZone(name: string): boolean {
   if (typeof name !== 'string' || !/^[A-Za-z][A-Za-z0-9_+\-]*(\/[A-Za-z0-9_+\-]+)+$|^UTC$/i.test(name)) return false;
+  // Every instant shown on a page asks this of the same zone name; building an Intl formatter
+  // each time cost more than the rest of the formatting. The answer for a name never changes
+  // while the process runs, so it is kept (for a bounded number of names: they come from input too).
+  const known = zoneNameAnswers.get(name);
+  if (known !== undefined) return known;
+  let answer: boolean;
   try {
     new Intl.DateTimeFormat('en-US', { timeZone: name });
-    return true;
+    answer = true;
   } catch {
-    return false;
+    answer = false;
   }
+  if (zoneNameAnswers.size >= ZONE_NAME_ANSWERS_MAX) zoneNameAnswers.clear();
+  zoneNameAnswers.set(name, answer);
+  return answer;
 }
+
+const ZONE_NAME_ANSWERS_MAX = 1000;
+const zoneNameAnswers = new Map<string, boolean>();
 
 /** The zone name as the runtime spells it canonically ("utc" → "UTC", "europe/berlin" → "Europe/Berlin"). */
 export function canonicalTimeZone(name: string): string {
@@ -94,7 +106,10 @@ export function formatZoned(instant: Date | string | number, zone: string, preci
   const date = `${pad(d.getFullYear(), 4)}-${pad(d.getMonth() + 1)}-${pad(d.getDate())}`;
   if (precision === 'date') return date;
   const time = `${pad(d.getHours())}:${pad(d.getMinutes())}${precision === 'second' ? `:${pad(d.getSeconds())}` : ''}`;
-  return withOffset ? `${date} ${time} ${offsetText(instant, zone)}` : `${date} ${time}`;
+  if (!withOffset) return `${date} ${time}`;
+  // The offset of the same zoned date (offsetText would convert the instant a second time).
+  const minutes = -d.getTimezoneOffset() || 0;
+  return `${date} ${time} ${minutes < 0 ? MINUS : '+'}${pad(Math.trunc(minutes / 60))}:${pad(minutes % 60)}`;
 }
 
 /** `instant` in UTC, "2026-03-08 07:30:05" (the UTC column of exports), ISO 8601 with a space. */
