@@ -83,7 +83,7 @@ export const runningWriterThreads = new Set<Worker>();
  * worker and the HTTP reader before the next batch. If the reader goes away, the worker
  * is stopped at once and the call rejects with ExportCancelledError.
  */
-function startWriterThread(out: Writable, data: { format: "xlsx" | "csv"; columns: WriterColumn[]; creator?: string; created?: Date }) {
+function startWriterThread(out: Writable, data: { format: "xlsx" | "csv"; columns: WriterColumn[]; creator?: string; created?: Date }, progress?: { rows: number }) {
   const worker = new Worker(workerFile(), { workerData: data });
   runningWriterThreads.add(worker);
   let waiting: { resolve: () => void; reject: (e: Error) => void; until: "written" | "done" } | null = null;
@@ -105,10 +105,14 @@ function startWriterThread(out: Writable, data: { format: "xlsx" | "csv"; column
       if (!out.destroyed) out.write(Buffer.from(message.data.buffer, message.data.byteOffset, message.data.byteLength));
     } else if (message.type === "error") {
       fail(new Error(`export writer: ${message.message}`));
-    } else if (waiting && waiting.until === message.type) {
-      const w = waiting;
-      waiting = null;
-      w.resolve();
+    } else {
+      // Rows the worker has written into the file (not merely handed to it): the clerk's progress.
+      if (message.type === "written" && progress) progress.rows += message.rows;
+      if (waiting && waiting.until === message.type) {
+        const w = waiting;
+        waiting = null;
+        w.resolve();
+      }
     }
   });
   worker.on("error", (error) => fail(error));
@@ -177,7 +181,7 @@ export function exportCells(row: RegisterRow, system: UnitSystem, timeZone: stri
 }
 
 export async function writeRegisterXlsx({ out, batches, meta, maxRows = XLSX_MAX_ROWS, progress }: { out: Writable; batches: AsyncIterable<RegisterRow[]>; meta: ExportMeta; maxRows?: number; progress?: { rows: number } }): Promise<{ rowCount: number; isTruncated: boolean }> {
-  const writer = startWriterThread(out, { format: "xlsx", creator: "Beadline", created: meta.exportedAt, columns: xlsxColumns(meta.system, meta.timeZone) });
+  const writer = startWriterThread(out, { format: "xlsx", creator: "Beadline", created: meta.exportedAt, columns: xlsxColumns(meta.system, meta.timeZone) }, progress);
   try {
     const versions = new Set<number>();
     let rowCount = 0;
@@ -195,7 +199,6 @@ export async function writeRegisterXlsx({ out, batches, meta, maxRows = XLSX_MAX
         rowCount += 1;
       }
       await writer.rows(values);
-      if (progress) progress.rows = rowCount;
       if (isTruncated) break;
     }
 
@@ -245,14 +248,13 @@ export { csvCell } from "./csv-cells.mjs";
  */
 export async function writeRegisterCsv({ out, batches, system, timeZone, progress }: { out: Writable; batches: AsyncIterable<RegisterRow[]>; system: UnitSystem; timeZone: string; progress?: { rows: number } }): Promise<{ rowCount: number }> {
   const columns = REGISTER_COLUMNS;
-  const writer = startWriterThread(out, { format: "csv", columns: columns.map((c) => ({ header: columnHeader(c, system, timeZone, "export"), key: c.key, width: c.width })) });
+  const writer = startWriterThread(out, { format: "csv", columns: columns.map((c) => ({ header: columnHeader(c, system, timeZone, "export"), key: c.key, width: c.width })) }, progress);
   try {
     let rowCount = 0;
     for await (const batch of batches) {
       if (out.destroyed) throw new ExportCancelledError();
       await writer.rows(batch.map((row) => exportCells(row, system, timeZone)));
       rowCount += batch.length;
-      if (progress) progress.rows = rowCount;
     }
     await writer.finish({});
     await new Promise<void>((resolve, reject) => {
