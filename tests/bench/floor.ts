@@ -1,6 +1,6 @@
 // The framework's own floor, measured in the same run as Beadline: a bare Next.js app (the
 // same `next` from node_modules, `next start`) with one route handler, app/api/floor/route.ts,
-// answering a small JSON. It is generated into <tmp>/beadline-bench-floor/ (kept between runs so
+// answering a small JSON. It is generated into <tmp>/beadline-bench-floor-<hash of the checkout path>/ (kept between runs so
 // `--skip-build` can reuse its build) with a symbolic link to the project's node_modules and its
 // own package-free next.config.mjs. Not under the project folder: Next would then take the
 // project's instrumentation.ts into the floor's build. Turbopack's root is "/" so that the
@@ -13,13 +13,19 @@
 // at the same connection count: throughput share (Beadline req/s ÷ floor req/s) and latency
 // multiple (Beadline p50 ÷ floor p50).
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
-import { existsSync, mkdirSync, readFileSync, rmSync, symlinkSync, writeFileSync } from "node:fs";
+import { createHash } from "node:crypto";
+import { existsSync, lstatSync, mkdirSync, readFileSync, readlinkSync, rmSync, symlinkSync, unlinkSync, writeFileSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import type { BenchFigure } from "./context";
 
 const ROOT = path.resolve(__dirname, "..", "..");
-export const FLOOR_DIR = path.join(os.tmpdir(), "beadline-bench-floor");
+/**
+ * One floor app per checkout (the name carries a hash of its path): two checkouts benching at
+ * once on one machine would otherwise build into the same folder, and a link to the other
+ * checkout's node_modules gives the floor app a second copy of React.
+ */
+export const FLOOR_DIR = path.join(os.tmpdir(), `beadline-bench-floor-${createHash("sha256").update(ROOT).digest("hex").slice(0, 10)}`);
 /** A round whose throughput is further than this from the median of its rounds (share of the median) is named noisy. */
 export const NOISE_LIMIT = 0.15;
 
@@ -69,7 +75,18 @@ export function buildFloorApp({ reuse, log }: { reuse: boolean; log: (l: string)
     changed = true;
   }
   const modules = path.join(FLOOR_DIR, "node_modules");
-  if (!existsSync(modules)) symlinkSync(path.join(ROOT, "node_modules"), modules, "dir");
+  const ours = path.join(ROOT, "node_modules");
+  let linked: string | null = null;
+  try {
+    linked = lstatSync(modules).isSymbolicLink() ? readlinkSync(modules) : null;
+  } catch {
+    /* no link yet */
+  }
+  if (linked !== ours) {
+    if (linked !== null) unlinkSync(modules);
+    symlinkSync(ours, modules, "dir");
+    changed = true;
+  }
   if (reuse && !changed && existsSync(path.join(FLOOR_DIR, ".next", "BUILD_ID"))) return;
   rmSync(path.join(FLOOR_DIR, ".next"), { recursive: true, force: true });
   log(`next build of the floor app in ${FLOOR_DIR} …`);

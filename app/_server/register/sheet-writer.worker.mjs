@@ -99,11 +99,12 @@ function cacheNumberFormatStyles(workbook) {
  * Waits until the zip has taken in the sheet's XML written so far. exceljs's sheet stream
  * writes into the zip entry without waiting for it (exceljs issue #2916), so without this
  * the XML of rows the deflater has not reached piles up in memory (about 2 kB a row:
- * hundreds of MB over 100,000 rows). The entry is a zlib stream; its "drain" says it has
- * room again. If exceljs's internals differ (no such stream), it does not wait.
+ * hundreds of MB over 100,000 rows). The entry is a stream that feeds the deflater; its
+ * "drain" says it has room again. If exceljs's internals differ (no such stream), it does
+ * not wait.
  */
 function zipCaughtUp(sheet) {
-  // The entry is a readable-stream (v2) PassThrough: no public writableNeedDrain, its state says it.
+  // archiver's entry is a readable-stream (v2) PassThrough: no public writableNeedDrain, its state says it.
   const entry = sheet?._stream?.pipes?.[0];
   const needsDrain = entry?.writableNeedDrain ?? entry?._writableState?.needDrain;
   if (!entry || typeof entry.once !== "function" || !needsDrain) return Promise.resolve();
