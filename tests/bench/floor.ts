@@ -200,7 +200,7 @@ export async function measureAgainstFloor({ floorUrl, paths, rounds, durationS, 
         target: target?.text,
         targetRow: target?.targetRow,
         pass,
-        note: `p50 ${multiple.toFixed(1)} × floor (${m.p50Ms} vs ${f.p50Ms} ms); ${loadText(m.rounds)}; ${noisyText(m)}${m.bad ? `; ${m.bad} non-200/errors` : ""}; p99 ${m.p99Ms} ms`,
+        note: `p50 ${Number.isFinite(multiple) ? `${multiple.toFixed(1)} × floor (${m.p50Ms} vs ${f.p50Ms} ms)` : `${m.p50Ms} ms, floor under 1 ms`}; ${loadText(m.rounds)}; ${noisyText(m)}${m.bad ? `; ${m.bad} non-200/errors` : ""}; p99 ${m.p99Ms} ms`,
       });
     }
   }
