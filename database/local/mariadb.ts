@@ -87,10 +87,14 @@ export function privateDir(dir: string): void {
 function writeConfig(dir: string, port: number): string {
   const file = path.join(dir, "my.cnf");
   const user = typeof process.getuid === "function" && process.getuid() === 0 ? "user=root\n" : "";
+  // Temporary tables (large sorts, GROUP BY) in the server's own folder, not the shared /tmp,
+  // where another program's clean-up can delete them under a running query.
+  privateDir(path.join(dir, "tmp"));
   writeFileSync(
     file,
     `[mysqld]
 datadir=${dir}/data
+tmpdir=${dir}/tmp
 socket=${dir}/mysqld.sock
 pid-file=${dir}/mysqld.pid
 port=${port}

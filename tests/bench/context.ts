@@ -13,6 +13,8 @@ export type BenchFigure = {
   /** null when the figure has no target (shown for information). */
   pass: boolean | null;
   note?: string;
+  /** The row of issue #18's Targets table this figure decides (TARGET_ROWS in tests/bench/targets.ts), if any. */
+  targetRow?: string;
 };
 
 export type BenchContext = {

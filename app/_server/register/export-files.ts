@@ -9,7 +9,7 @@ import path from "node:path";
 import { Worker } from "node:worker_threads";
 import type { ProcedureDefinition } from "@/domain/procedures";
 import { describeProcedureWindows } from "@/domain/procedures";
-import { REGISTER_COLUMNS, columnHeader, columnNumberFormat, type FilterLine, type RegisterColumn, type RegisterRow } from "@/domain/register";
+import { REGISTER_COLUMNS, columnHeader, columnNumberFormat, type FilterLine, type RegisterRow } from "@/domain/register";
 import type { UnitSystem } from "@/domain/units";
 import { formatCount, formatInstant } from "@/components/ui/display-format";
 
@@ -61,8 +61,16 @@ function readerCaughtUp(out: Writable): Promise<void> {
   });
 }
 
-type Cell = string | number | Date | null;
-type WriterColumn = { header: string; key: string; width: number; numFmt?: string };
+export type Cell = string | number | Date | null;
+
+/**
+ * Rows turned into cells on the request thread between two looks at other work: a batch of
+ * 1,000 is made in slices of this many, with a turn of the event loop between slices, so
+ * other people's requests wait for a slice (a few ms), not for a whole batch.
+ */
+const CELLS_SLICE = 250;
+const otherRequestsFirst = () => new Promise<void>((resolve) => setImmediate(resolve));
+export type WriterColumn = { header: string; key: string; width: number; numFmt?: string };
 type AboutLine = { values: Cell[]; bold?: boolean; numFmt?: { column: number; format: string } };
 type FromWorker = { type: "chunk"; data: Uint8Array } | { type: "written"; rows: number } | { type: "done" } | { type: "error"; message: string };
 
@@ -83,8 +91,15 @@ export const runningWriterThreads = new Set<Worker>();
  * worker and the HTTP reader before the next batch. If the reader goes away, the worker
  * is stopped at once and the call rejects with ExportCancelledError.
  */
-function startWriterThread(out: Writable, data: { format: "xlsx" | "csv"; columns: WriterColumn[]; creator?: string; created?: Date }) {
-  const worker = new Worker(workerFile(), { workerData: data });
+/**
+ * Heap limits of the writer thread: it holds one batch of cells and exceljs's small state,
+ * so a small heap is collected often and the server's memory stays flat during a long
+ * export (without them V8 let the thread's heap grow by a few hundred MB over 100,000 rows).
+ */
+const WRITER_HEAP = { maxOldGenerationSizeMb: 64, maxYoungGenerationSizeMb: 8 };
+
+function startWriterThread(out: Writable, data: { format: "xlsx" | "csv"; columns: WriterColumn[]; creator?: string; created?: Date }, progress?: { rows: number }) {
+  const worker = new Worker(workerFile(), { workerData: data, resourceLimits: WRITER_HEAP });
   runningWriterThreads.add(worker);
   let waiting: { resolve: () => void; reject: (e: Error) => void; until: "written" | "done" } | null = null;
   let failure: Error | null = null;
@@ -105,10 +120,14 @@ function startWriterThread(out: Writable, data: { format: "xlsx" | "csv"; column
       if (!out.destroyed) out.write(Buffer.from(message.data.buffer, message.data.byteOffset, message.data.byteLength));
     } else if (message.type === "error") {
       fail(new Error(`export writer: ${message.message}`));
-    } else if (waiting && waiting.until === message.type) {
-      const w = waiting;
-      waiting = null;
-      w.resolve();
+    } else {
+      // Rows the worker has written into the file (not merely handed to it): the clerk's progress.
+      if (message.type === "written" && progress) progress.rows += message.rows;
+      if (waiting && waiting.until === message.type) {
+        const w = waiting;
+        waiting = null;
+        w.resolve();
+      }
     }
   });
   worker.on("error", (error) => fail(error));
@@ -159,18 +178,25 @@ const UNITS_TEXT: Record<UnitSystem, string> = {
  * filter, sort, units, row count, and the windows of every procedure version the rows
  * were checked against). Returns the number of joints written.
  */
-export async function writeRegisterXlsx({ out, batches, meta, maxRows = XLSX_MAX_ROWS, progress }: { out: Writable; batches: AsyncIterable<RegisterRow[]>; meta: ExportMeta; maxRows?: number; progress?: { rows: number } }): Promise<{ rowCount: number; isTruncated: boolean }> {
-  const columns: readonly RegisterColumn[] = REGISTER_COLUMNS;
-  const writer = startWriterThread(out, {
-    format: "xlsx",
-    creator: "Beadline",
-    created: meta.exportedAt,
-    columns: columns.map((c) => {
-      const numFmt = columnNumberFormat(c, meta.system);
-      const header = columnHeader(c, meta.system, meta.timeZone, "export");
-      return { header, key: c.key, width: Math.max(c.width, header.length * 0.6) + 2, ...(numFmt ? { numFmt } : {}) };
-    }),
+/**
+ * The Joints sheet's columns as the writer gets them: header with units (the export's
+ * words), width in characters, and the number format of dates and decimals.
+ */
+export function xlsxColumns(system: UnitSystem, timeZone: string): WriterColumn[] {
+  return REGISTER_COLUMNS.map((c) => {
+    const numFmt = columnNumberFormat(c, system);
+    const header = columnHeader(c, system, timeZone, "export");
+    return { header, key: c.key, width: Math.max(c.width, header.length * 0.6) + 2, ...(numFmt ? { numFmt } : {}) };
   });
+}
+
+/** One joint's cells, column by column (domain/register/columns.ts), as both files write them. */
+export function exportCells(row: RegisterRow, system: UnitSystem, timeZone: string): Cell[] {
+  return REGISTER_COLUMNS.map((c) => c.value(row, system, timeZone));
+}
+
+export async function writeRegisterXlsx({ out, batches, meta, maxRows = XLSX_MAX_ROWS, progress }: { out: Writable; batches: AsyncIterable<RegisterRow[]>; meta: ExportMeta; maxRows?: number; progress?: { rows: number } }): Promise<{ rowCount: number; isTruncated: boolean }> {
+  const writer = startWriterThread(out, { format: "xlsx", creator: "Beadline", created: meta.exportedAt, columns: xlsxColumns(meta.system, meta.timeZone) }, progress);
   try {
     const versions = new Set<number>();
     let rowCount = 0;
@@ -183,12 +209,12 @@ export async function writeRegisterXlsx({ out, batches, meta, maxRows = XLSX_MAX
           isTruncated = true;
           break;
         }
-        values.push(columns.map((c) => c.value(row, meta.system, meta.timeZone)));
+        values.push(exportCells(row, meta.system, meta.timeZone));
         versions.add(row.procedureVersionId);
         rowCount += 1;
+        if (values.length % CELLS_SLICE === 0) await otherRequestsFirst();
       }
       await writer.rows(values);
-      if (progress) progress.rows = rowCount;
       if (isTruncated) break;
     }
 
@@ -238,14 +264,18 @@ export { csvCell } from "./csv-cells.mjs";
  */
 export async function writeRegisterCsv({ out, batches, system, timeZone, progress }: { out: Writable; batches: AsyncIterable<RegisterRow[]>; system: UnitSystem; timeZone: string; progress?: { rows: number } }): Promise<{ rowCount: number }> {
   const columns = REGISTER_COLUMNS;
-  const writer = startWriterThread(out, { format: "csv", columns: columns.map((c) => ({ header: columnHeader(c, system, timeZone, "export"), key: c.key, width: c.width })) });
+  const writer = startWriterThread(out, { format: "csv", columns: columns.map((c) => ({ header: columnHeader(c, system, timeZone, "export"), key: c.key, width: c.width })) }, progress);
   try {
     let rowCount = 0;
     for await (const batch of batches) {
       if (out.destroyed) throw new ExportCancelledError();
-      await writer.rows(batch.map((row) => columns.map((c) => c.value(row, system, timeZone))));
+      const values: Cell[][] = [];
+      for (const row of batch) {
+        values.push(exportCells(row, system, timeZone));
+        if (values.length % CELLS_SLICE === 0) await otherRequestsFirst();
+      }
+      await writer.rows(values);
       rowCount += batch.length;
-      if (progress) progress.rows = rowCount;
     }
     await writer.finish({});
     await new Promise<void>((resolve, reject) => {

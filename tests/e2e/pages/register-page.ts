@@ -35,6 +35,29 @@ export class RegisterPage {
     return this.grid().getByRole("columnheader", { name });
   }
 
+  /** Opens the Register with a filter already in its address (a bookmarked view). */
+  async openView(query: string): Promise<void> {
+    await this.page.goto(`/register?${query}`);
+    await expect(this.page.getByRole("heading", { name: "Register", level: 1 })).toBeVisible();
+  }
+
+  exportButton(kind: "xlsx" | "csv"): Locator {
+    return this.page.getByRole("button", { name: kind === "xlsx" ? "Export spreadsheet (.xlsx)" : "Export CSV" });
+  }
+
+  /** The export's words while it runs and when it ends (an aria-live status). */
+  exportStatus(): Locator {
+    return this.page.getByTestId("export-status");
+  }
+
+  exportProgress(): Locator {
+    return this.page.getByRole("progressbar", { name: "Export progress" });
+  }
+
+  stopExportButton(): Locator {
+    return this.page.getByRole("button", { name: "Stop export" });
+  }
+
   async export(kind: "xlsx" | "csv"): Promise<Download> {
     const downloading = this.page.waitForEvent("download");
     await this.page.getByRole("button", { name: kind === "xlsx" ? "Export spreadsheet (.xlsx)" : "Export CSV" }).click();

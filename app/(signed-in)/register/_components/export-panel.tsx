@@ -3,7 +3,7 @@
 // comes, showing bytes (and, for CSV, rows) received against the server's row estimate,
 // then hands the finished file to the browser as a download. For the spreadsheet (whose
 // bytes are compressed) the rows written come from the export's progress address, asked
-// once a second. A long export can be stopped: the download is dropped, which stops the
+// once a second; the words read "12,000 of 50,000 joints written". A long export can be stopped: the download is dropped, which stops the
 // server's writer thread, and nothing is kept.
 import { useRef, useState } from "react";
 import { Button } from "@/components/ui/button";
@@ -17,6 +17,13 @@ type State =
 
 function megabytes(bytes: number): string {
   return bytes < 1_000_000 ? `${(bytes / 1000).toFixed(0)} kB` : `${(bytes / 1_000_000).toFixed(1)} MB`;
+}
+
+/** "12,000 of 50,000 joints written", or before the first rows "50,000 joints, starting". */
+function progressText(rows: number | null, estimate: number | null, isEstimate: boolean): string {
+  const total = estimate === null ? null : `${isEstimate ? "about " : ""}${formatCount(estimate)}`;
+  if (rows === null) return total === null ? "starting" : `${total} joints, starting`;
+  return total === null ? `${formatCount(rows)} joints written` : `${formatCount(rows)} of ${total} joints written`;
 }
 
 function fileNameFrom(disposition: string | null, fallback: string): string {
@@ -36,6 +43,8 @@ export function ExportPanel({ query }: { query: string }) {
     params.set("format", format);
     setState({ kind: "running", format, bytes: 0, rows: format === "csv" ? 0 : null, estimate: null, isEstimate: false });
     let poll: ReturnType<typeof setInterval> | null = null;
+    // The last rows and total shown, for the words when the clerk stops the export.
+    const reached: { rows: number | null; estimate: number | null; isEstimate: boolean } = { rows: null, estimate: null, isEstimate: false };
     try {
       const response = await fetch(`/api/v1/exports/register?${params.toString()}`, { signal: controller.signal, cache: "no-store" });
       if (!response.ok || !response.body) {
@@ -45,6 +54,8 @@ export function ExportPanel({ query }: { query: string }) {
       const estimateHeader = response.headers.get("x-beadline-row-estimate");
       const estimate = estimateHeader ? Number(estimateHeader) : null;
       const isEstimate = response.headers.get("x-beadline-row-estimate-kind") === "estimate";
+      reached.estimate = estimate;
+      reached.isEstimate = isEstimate;
       const reader = response.body.getReader();
       const chunks: Uint8Array<ArrayBuffer>[] = [];
       let bytes = 0;
@@ -58,6 +69,7 @@ export function ExportPanel({ query }: { query: string }) {
             .then((p) => {
               if (p && abort.current === controller) {
                 written = p.rowsWritten;
+                reached.rows = written;
                 setState((s) => (s.kind === "running" ? { ...s, rows: written } : s));
               }
             })
@@ -74,6 +86,7 @@ export function ExportPanel({ query }: { query: string }) {
         const now = performance.now();
         if (now - lastPaint > 150) {
           lastPaint = now;
+          if (format === "csv") reached.rows = Math.max(0, rows - 1);
           setState({ kind: "running", format, bytes, rows: format === "csv" ? Math.max(0, rows - 1) : written, estimate, isEstimate });
         }
       }
@@ -89,8 +102,10 @@ export function ExportPanel({ query }: { query: string }) {
       setTimeout(() => URL.revokeObjectURL(url), 60_000);
       setState({ kind: "done", format, bytes, fileName });
     } catch (error) {
-      if ((error as Error).name === "AbortError") setState({ kind: "failed", message: "Export stopped. Nothing was downloaded." });
-      else setState({ kind: "failed", message: `The export failed: ${(error as Error).message}` });
+      if ((error as Error).name === "AbortError") {
+        const where = reached.rows === null ? "" : ` at ${progressText(reached.rows, reached.estimate, reached.isEstimate)}`;
+        setState({ kind: "failed", message: `Export stopped${where}. Nothing was downloaded.` });
+      } else setState({ kind: "failed", message: `The export failed: ${(error as Error).message}` });
     } finally {
       if (poll) clearInterval(poll);
       if (abort.current === controller) abort.current = null;
@@ -120,9 +135,7 @@ export function ExportPanel({ query }: { query: string }) {
           <div className="flex items-center gap-2">
             <progress max={state.estimate ?? undefined} value={progressValue} aria-label="Export progress" className="w-40" />
             <span>
-              Exporting {state.format === "xlsx" ? "spreadsheet" : "CSV"}: {megabytes(state.bytes)} received
-              {state.rows !== null ? `, ${formatCount(state.rows)} rows` : ""}
-              {state.estimate !== null ? ` of ${state.isEstimate ? "about " : ""}${formatCount(state.estimate)} joints` : ""} …
+              Exporting {state.format === "xlsx" ? "spreadsheet" : "CSV"}: {progressText(state.rows, state.estimate, state.isEstimate)} ({megabytes(state.bytes)} received) …
             </span>
           </div>
         ) : state.kind === "done" ? (
