@@ -258,6 +258,7 @@ export async function startMariadb({
   extraConfig,
   args = [],
   readyTimeoutMs = 30_000,
+  whenListening,
 }: {
   dir: string;
   port: number;
@@ -267,6 +268,8 @@ export async function startMariadb({
   args?: string[];
   /** How long to wait for connections (a joining cluster node first receives a state transfer). */
   readyTimeoutMs?: number;
+  /** Awaited once the server answers and before the administrators are set up (a cluster node catching up). */
+  whenListening?: () => Promise<void>;
 }): Promise<MariadbServer> {
   privateDir(dir);
   const cnf = writeConfig(dir, port, extraConfig);
@@ -285,6 +288,7 @@ export async function startMariadb({
   };
   try {
     await waitForPing(dir, child, readyTimeoutMs);
+    await whenListening?.();
     hardenAdministrators(dir);
   } catch (error) {
     await stop();
