@@ -75,8 +75,11 @@ export type Cluster = {
   env: Record<string, string>;
   /** Owner connection address of node `i` directly (bypassing HAProxy), for checks. */
   nodeOwnerUrl: (i: number) => string;
+  /** The application's connection address of node `i` directly (bypassing HAProxy). */
+  nodeAppUrl: (i: number) => string;
   apps: (ChildProcess | null)[];
-  startApp: (i: number) => ChildProcess;
+  /** Starts instance `i` (again); `env` overrides, e.g. a DATABASE_URL straight to one node. */
+  startApp: (i: number, env?: Record<string, string>) => ChildProcess;
   /** SIGKILL to the instance's whole process group. */
   killApp: (i: number) => void;
   killNode: (i: number) => Promise<void>;
@@ -189,14 +192,14 @@ export async function startCluster({ dir, ports, distDir, log = console.log, app
       mailSpool,
     });
     env.BEADLINE_PUBLIC_URL = process.env.BEADLINE_PUBLIC_URL || `http://127.0.0.1:${ports.web}`;
-    const startApp = (i: number): ChildProcess => {
+    const startApp = (i: number, override: Record<string, string> = {}): ChildProcess => {
       const port = ports.apps[i];
       const out = appOutput === "file" ? openSync(path.join(dir, `app${i + 1}.log`), "a", 0o600) : null;
       const child = spawnNext({
         mode: "start",
         host: "127.0.0.1",
         port,
-        env: { ...process.env, ...env, ...appEnv, NEXT_TELEMETRY_DISABLED: "1", BEADLINE_DIST_DIR: distDir },
+        env: { ...process.env, ...env, ...appEnv, ...override, NEXT_TELEMETRY_DISABLED: "1", BEADLINE_DIST_DIR: distDir },
         detached: true,
         stdio: out === null ? "inherit" : ["ignore", out, out],
       });
@@ -224,6 +227,7 @@ export async function startCluster({ dir, ports, distDir, log = console.log, app
       nodes,
       env,
       nodeOwnerUrl: (i: number) => url(OWNER_USER, ownerPassword, nodes[i].ports.client),
+      nodeAppUrl: (i: number) => url(APP_USER, appPassword, nodes[i].ports.client),
       apps,
       startApp,
       killApp: (i: number) => {
