@@ -192,6 +192,8 @@ export async function startCluster({ dir, ports, distDir, log = console.log, app
       mailSpool,
     });
     env.BEADLINE_PUBLIC_URL = process.env.BEADLINE_PUBLIC_URL || `http://127.0.0.1:${ports.web}`;
+    // HAProxy (on loopback) adds X-Forwarded-For: the sign-in limit counts the browser's address, not HAProxy's.
+    env.BEADLINE_TRUSTED_PROXIES = "127.0.0.1";
     const startApp = (i: number, override: Record<string, string> = {}): ChildProcess => {
       const port = ports.apps[i];
       const out = appOutput === "file" ? openSync(path.join(dir, `app${i + 1}.log`), "a", 0o600) : null;
