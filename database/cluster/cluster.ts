@@ -158,7 +158,7 @@ export async function startCluster({ dir, ports, distDir, log = console.log, app
     provisionDatabase(bootstrap.dir, { database: DATABASE, user: APP_USER, password: appPassword, ownerUser: OWNER_USER, ownerPassword });
     for (const node of nodes) {
       if (node === bootstrap) continue;
-      log(`Starting Galera ${node.name}: it joins by state transfer …`);
+      log(`Starting Galera ${node.name}: it joins and catches up (a snapshot the first time, else what it missed) …`);
       await startGaleraNode(node, nodes, { bootstrap: false });
     }
     for (const node of nodes) {

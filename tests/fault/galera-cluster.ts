@@ -352,10 +352,10 @@ async function main(): Promise<number> {
     report({ passed: 0, failed: 0, skipped: 1 });
     return 0;
   }
-  buildIfStale(DIST_DIR, { ...process.env, NEXT_TELEMETRY_DISABLED: "1" }, log);
   const tmp = mkdtempSync(path.join(os.tmpdir(), "beadline-cluster-"));
   let cluster: Cluster | null = null;
   try {
+    buildIfStale(DIST_DIR, { ...process.env, NEXT_TELEMETRY_DISABLED: "1" }, log);
     log("Starting three Galera nodes, HAProxy and two instances …");
     cluster = await startCluster({ dir: path.join(tmp, "cluster"), ports: await clusterPorts("free"), distDir: DIST_DIR, log, appOutput: "file", appEnv: { MAIL_BURST_WINDOW_S: "1", MAIL_SEND_INTERVAL_MS: "500" } });
     const fault = await faultRun(cluster);
