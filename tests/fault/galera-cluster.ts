@@ -229,7 +229,12 @@ async function faultRun(cluster: Cluster): Promise<FaultFigures> {
     const appDown = [events.appKilled ?? Infinity, (events.appBack ?? Infinity) + 3000];
     const lostAttempts = attempts.filter((a) => a.status === "lost" || a.status === 502 || a.status === 504);
     const lostOutside = lostAttempts.filter((a) => !(a.at + a.ms >= appDown[0] && a.at <= appDown[1] && (a.instance === "app2" || a.instance === null)));
-    check("lost answers (502/504/connection) only from the killed instance while it was down", lostOutside.length === 0, `${lostAttempts.length} lost and sent again with the same client id, ${lostOutside.length} outside`);
+    const when = (a: Attempt) => `${a.status} from ${a.instance ?? "no instance"} ${((a.at - (events.appKilled ?? 0)) / 1000).toFixed(1)} s after the kill (${a.ms} ms)`;
+    check(
+      "lost answers (502/504/connection) only from the killed instance while it was down",
+      lostOutside.length === 0,
+      `${lostAttempts.length} lost and sent again with the same client id, ${lostOutside.length} outside${lostOutside.length ? `: ${lostOutside.slice(0, 3).map(when).join("; ")}` : ""}`,
+    );
     const other = attempts.filter((a) => typeof a.status === "number" && ![200, 201, 503, 502, 504, 500].includes(a.status));
     check("no other refusal", other.length === 0, other.slice(0, 3).map((a) => String(a.status)).join(", "));
     const unresolved = all.filter((s) => s.final !== 200 && s.final !== 201);
