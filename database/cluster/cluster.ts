@@ -16,7 +16,7 @@ import { localStoreKeys, secret } from "../local/secrets";
 import { APP_USER, BUCKET, DATABASE, OWNER_USER, appEnvironment } from "../local/stack";
 import { migrateLatest } from "../migrate";
 import { chooseBootstrapNode, killGaleraNode, startGaleraNode, stopGaleraNodes, type GaleraNode, type NodePorts } from "./galera";
-import { startHaproxy } from "./haproxy";
+import { startHaproxy, waitForHaproxyUp } from "./haproxy";
 import { MONITOR_USER, startNodeCheck, type NodeCheck } from "./node-check";
 
 const NODES = 3;
@@ -80,6 +80,8 @@ export type Cluster = {
   apps: (ChildProcess | null)[];
   /** Starts instance `i` (again); `env` overrides, e.g. a DATABASE_URL straight to one node. */
   startApp: (i: number, env?: Record<string, string>) => ChildProcess;
+  /** Resolves once instance `i` answers and HAProxy sends it requests again. */
+  waitForApp: (i: number) => Promise<void>;
   /** SIGKILL to the instance's whole process group. */
   killApp: (i: number) => void;
   killNode: (i: number) => Promise<void>;
@@ -210,6 +212,7 @@ export async function startCluster({ dir, ports, distDir, log = console.log, app
     };
     for (let i = 0; i < ports.apps.length; i += 1) startApp(i);
     await Promise.all(apps.map((child, i) => waitForApp(`http://127.0.0.1:${ports.apps[i]}`, child!, 120_000)));
+    await waitForHaproxyUp(ports.stats, ["galera/node1", ...ports.apps.map((_, i) => `beadline/app${i + 1}`)]);
 
     const restartNode = async (i: number): Promise<NodeRejoin> => {
       const node = nodes[i];
@@ -238,6 +241,10 @@ export async function startCluster({ dir, ports, distDir, log = console.log, app
       },
       killNode: (i: number) => killGaleraNode(nodes[i]),
       restartNode,
+      waitForApp: async (i: number) => {
+        await waitForApp(`http://127.0.0.1:${ports.apps[i]}`, apps[i]!, 120_000);
+        await waitForHaproxyUp(ports.stats, [`beadline/app${i + 1}`]);
+      },
       stop: stopAll,
     };
   } catch (error) {

@@ -86,6 +86,35 @@ listen stats
 `;
 }
 
+/** Server states from HAProxy's statistics page (CSV): "<backend>/<server>" → "UP", "DOWN", "UP 1/2" … */
+export async function haproxyServerStates(statsPort: number): Promise<Map<string, string>> {
+  const res = await fetch(`http://127.0.0.1:${statsPort}/;csv`);
+  const text = await res.text();
+  const states = new Map<string, string>();
+  for (const line of text.split("\n").slice(1)) {
+    const cells = line.split(",");
+    if (cells.length > 17 && cells[1] !== "FRONTEND" && cells[1] !== "BACKEND") states.set(`${cells[0]}/${cells[1]}`, cells[17]);
+  }
+  return states;
+}
+
+/** Waits until HAProxy counts every listed server ("backend/server") as UP. */
+export async function waitForHaproxyUp(statsPort: number, servers: string[], timeoutMs = 60_000): Promise<void> {
+  const deadline = Date.now() + timeoutMs;
+  let last = "";
+  while (Date.now() < deadline) {
+    try {
+      const states = await haproxyServerStates(statsPort);
+      last = servers.map((s) => `${s} ${states.get(s) ?? "?"}`).join(", ");
+      if (servers.every((s) => states.get(s) === "UP")) return;
+    } catch (error) {
+      last = (error as Error).message;
+    }
+    await new Promise((r) => setTimeout(r, 250));
+  }
+  throw new Error(`HAProxy did not count ${servers.join(", ")} as up within ${timeoutMs / 1000} s (${last})`);
+}
+
 /** Writes `dir/haproxy.cfg` and runs HAProxy in the foreground (-db); its output goes to `dir/haproxy.log`. */
 export async function startHaproxy({ dir, ports }: { dir: string; ports: HaproxyPorts }): Promise<Haproxy> {
   const configFile = path.join(dir, "haproxy.cfg");

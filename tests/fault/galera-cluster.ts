@@ -185,8 +185,8 @@ async function faultRun(cluster: Cluster): Promise<FaultFigures> {
       cluster.killApp(1);
       log("instance 2 killed (SIGKILL)");
       await sleep(3000);
-      const child = cluster.startApp(1);
-      await waitForServer(`http://127.0.0.1:${cluster.ports.apps[1]}/robots.txt`, child, 120_000);
+      cluster.startApp(1);
+      await cluster.waitForApp(1);
       events.appBack = Date.now() - t0;
       log("instance 2 answering again");
     })();
@@ -199,9 +199,8 @@ async function faultRun(cluster: Cluster): Promise<FaultFigures> {
     // transaction, and answers 503 with Retry-After only when the tries run out.
     log(`Two writers: instance 2 connected to node 2 directly, ${CLIENTS} clients for ${COMPARE_S} s …`);
     await stopNext(cluster.apps[1], { detached: true });
-    const direct = cluster.startApp(1, { DATABASE_URL: cluster.nodeAppUrl(1) });
-    await waitForServer(`http://127.0.0.1:${cluster.ports.apps[1]}/robots.txt`, direct, 120_000);
-    await sleep(2500); // HAProxy's check (rise 2, every second) takes the instance back
+    cluster.startApp(1, { DATABASE_URL: cluster.nodeAppUrl(1) });
+    await cluster.waitForApp(1);
     const twoWritersT0 = Date.now() - t0;
     const twoWriters = await runLoad({ baseUrl, cookie, body: setup.body, seconds: COMPARE_S, clients: CLIENTS, t0 });
     const conflicts = await Promise.all(cluster.nodes.map(async (_, i) => {
