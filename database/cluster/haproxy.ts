@@ -68,10 +68,10 @@ backend beadline
   mode http
   balance roundrobin
   timeout server 60s
-  # A signed-out request the app answers without the database and without a log line.
   # A new connection to the instance per request: Node closes idle keep-alive connections
   # after 5 s, and a POST sent on one at that moment would be lost (502) for no fault.
   option http-server-close
+  # A signed-out request the app answers without the database and without a log line.
   option httpchk GET /robots.txt
   http-check expect rstatus ^[23]
   default-server inter 1s fall 2 rise 2
