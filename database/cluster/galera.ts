@@ -4,8 +4,9 @@
 // client, group-communication (gmcast), incremental (IST) and snapshot (SST) ports.
 // The first start bootstraps node 1 and the others join by snapshot transfer (mariabackup,
 // signed in as the launcher's account through the donor's socket: no password exists; rsync
-// cannot be used when the launcher is root, as its daemon then writes as "nobody"); a later start bootstraps the node Galera marked safe to
-// bootstrap (the last one stopped) or, after a crash of all of them, the most advanced one.
+// cannot be used when the launcher is root, as its daemon then writes as "nobody"); a later
+// start bootstraps the node Galera marked safe to bootstrap (the last one stopped) or, after
+// a crash of all of them, the most advanced one.
 // source: MariaDB Knowledge Base, "Galera Cluster System Variables", "Getting Started with
 // MariaDB Galera Cluster" (mandatory settings: binlog_format=ROW, InnoDB, innodb_autoinc_lock_mode=2),
 // "Galera Cluster Recovery" (grastate.dat, safe_to_bootstrap, --wsrep-recover).
