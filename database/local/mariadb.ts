@@ -84,7 +84,7 @@ export function privateDir(dir: string): void {
   chmodSync(dir, 0o700);
 }
 
-function writeConfig(dir: string, port: number): string {
+function writeConfig(dir: string, port: number, extraConfig = ""): string {
   const file = path.join(dir, "my.cnf");
   const user = typeof process.getuid === "function" && process.getuid() === 0 ? "user=root\n" : "";
   // Temporary tables (large sorts, GROUP BY) in the server's own folder, not the shared /tmp,
@@ -105,7 +105,7 @@ character-set-server=utf8mb4
 collation-server=utf8mb4_unicode_ci
 innodb_buffer_pool_size=${process.env.BEADLINE_DB_BUFFER_POOL || "256M"}
 max_connections=300
-[client]
+${extraConfig ? `${extraConfig.trimEnd()}\n` : ""}[client]
 socket=${dir}/mysqld.sock
 port=${port}
 `,
@@ -256,15 +256,33 @@ function hardenAdministrators(dir: string): void {
  * `dir` and the data directory are private to the launcher's user (0700) and the socket lives
  * inside `dir`. Returns once the server accepts connections; `stop()` shuts it down.
  */
-export async function startMariadb({ dir, port }: { dir: string; port: number }): Promise<MariadbServer> {
+export async function startMariadb({
+  dir,
+  port,
+  extraConfig,
+  args = [],
+  readyTimeoutMs = 30_000,
+  whenListening,
+}: {
+  dir: string;
+  port: number;
+  /** More `[mysqld]` lines (a later line overrides an earlier one), e.g. a Galera node's settings. */
+  extraConfig?: string;
+  /** More command-line options for this start only, e.g. `--wsrep-new-cluster`. */
+  args?: string[];
+  /** How long to wait for connections (a joining cluster node first receives a state transfer). */
+  readyTimeoutMs?: number;
+  /** Awaited once the server answers and before the administrators are set up (a cluster node catching up). */
+  whenListening?: () => Promise<void>;
+}): Promise<MariadbServer> {
   privateDir(dir);
-  const cnf = writeConfig(dir, port);
+  const cnf = writeConfig(dir, port, extraConfig);
   initialiseDataDir(dir, cnf);
   tightenTree(dir);
   stopOrphan(dir);
   // Its own process group: a Ctrl-C in the terminal reaches our launcher, which shuts the
   // server down in order, instead of hitting mariadbd directly.
-  const child = spawn("mariadbd", [`--defaults-file=${cnf}`], { stdio: "ignore", detached: true, env: SERVER_ENV });
+  const child = spawn("mariadbd", [`--defaults-file=${cnf}`, ...args], { stdio: "ignore", detached: true, env: SERVER_ENV });
   const stop = async () => {
     if (child.exitCode !== null) return;
     shutdownServer(dir);
@@ -273,7 +291,8 @@ export async function startMariadb({ dir, port }: { dir: string; port: number })
     if (child.exitCode === null) child.kill("SIGKILL");
   };
   try {
-    await waitForPing(dir, child, 30_000);
+    await waitForPing(dir, child, readyTimeoutMs);
+    await whenListening?.();
     hardenAdministrators(dir);
   } catch (error) {
     await stop();

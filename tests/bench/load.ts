@@ -67,7 +67,7 @@ async function settle(ms: number): Promise<void> {
 }
 
 /** Jobs, equipment and a body builder for valid joints of the demo fuser (demo scenario loaded). */
-async function submissionSetup(owner: Knex): Promise<{ body: (clientId: string) => Record<string, unknown>; jobIds: number[] }> {
+export async function submissionSetup(owner: Knex): Promise<{ body: (clientId: string) => Record<string, unknown>; jobIds: number[] }> {
   const fuser = await owner("users").where({ email: "fuser@larkmoor-gas.example" }).first("id", "crew_id");
   const demoJob = await owner("jobs").where({ code: "WO-24117" }).first("procedure_id");
   const machine = await owner("fusion_machines").where({ asset_tag: "FM-201" }).first("id");
