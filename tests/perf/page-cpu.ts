@@ -12,13 +12,11 @@
 // server-rendered page. Not part of `npm test`.
 import "../support/server-only-outside-next";
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
-import { existsSync, mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from "node:fs";
+import { existsSync, readFileSync, readdirSync, writeFileSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
-import type { Knex } from "knex";
-import { ensureMariadbInstalled, freePort } from "../../database/local/mariadb";
-import { startLocalStack, type LocalStack } from "../../database/local/stack";
-import { migrateLatest, ownerKnex } from "../../database/migrate";
+import { freePort } from "../../database/local/mariadb";
+import { startDemoStack, type DemoStack } from "./demo-stack";
 import { signInCookie, waitForServer } from "../support/joint-body";
 import { hammer } from "../bench/floor";
 
@@ -73,26 +71,15 @@ async function stop(child: ChildProcess | null): Promise<void> {
 }
 
 async function main(): Promise<number> {
-  const tmp = mkdtempSync(path.join(os.tmpdir(), "beadline-page-cpu-"));
-  let stack: LocalStack | null = null;
-  let owner: Knex | null = null;
+  let demo: DemoStack | null = null;
   let server: ChildProcess | null = null;
   const nextBin = path.join(ROOT, "node_modules", "next", "dist", "bin", "next");
   const rows: string[][] = [["page", "requests", "bad", "req/s (this machine now)", "server CPU ms / request", "≤ req/s on one core"]];
   const row = (label: string, m: Awaited<ReturnType<typeof measure>>) =>
     rows.push([label, String(m.total), String(m.bad), m.requestsPerS.toFixed(0), m.cpuMsPerRequest.toFixed(2), (1000 / m.cpuMsPerRequest).toFixed(0)]);
   try {
-    ensureMariadbInstalled(console.log);
-    process.env.BEADLINE_DB_BUFFER_POOL ||= "256M";
-    stack = await startLocalStack({ dir: tmp, ports: "free" });
-    await migrateLatest(stack.env.MIGRATION_DATABASE_URL);
-    stack.grantRights();
-    owner = ownerKnex(stack.env.MIGRATION_DATABASE_URL);
-    for (const file of readdirSync(path.join(ROOT, "database", "seeds")).filter((f) => f.endsWith(".ts")).sort()) {
-      const mod = (await import(path.join(ROOT, "database", "seeds", file))) as { seed: (k: Knex, today?: Date) => Promise<void> };
-      await mod.seed(owner, new Date());
-    }
-    const [joint] = (await owner("joints").orderBy("id", "desc").limit(1).select("id")) as { id: number }[];
+    demo = await startDemoStack("beadline-page-cpu-");
+    const { stack, jointId } = demo;
     const port = await freePort();
     const baseUrl = `http://127.0.0.1:${port}`;
     const env: NodeJS.ProcessEnv = { ...process.env, ...stack.env, NODE_ENV: "production", NEXT_TELEMETRY_DISABLED: "1", BEADLINE_DIST_DIR: DIST_DIR, BEADLINE_PUBLIC_URL: baseUrl, MAIL_WORKER: "off" };
@@ -106,7 +93,7 @@ async function main(): Promise<number> {
     server = spawn(process.execPath, [nextBin, "start", "-H", "127.0.0.1", "-p", String(port)], { cwd: APP_DIR, env, stdio: ["ignore", "ignore", "inherit"] });
     await waitForServer(`${baseUrl}/sign-in`, server, 60_000);
     const headers = { cookie: await signInCookie(baseUrl, "clerk@larkmoor-gas.example", "beadline-demo-2026") };
-    for (const [label, urlPath] of [["signed-in GET /api/v1/session", "/api/v1/session"], ["Register page", "/register"], ["joint page", `/joints/${joint.id}`]] as const) {
+    for (const [label, urlPath] of [["signed-in GET /api/v1/session", "/api/v1/session"], ["Register page", "/register"], ["joint page", `/joints/${jointId}`]] as const) {
       row(label, await measure(server, `${baseUrl}${urlPath}`, headers));
     }
     await stop(server);
@@ -123,9 +110,7 @@ async function main(): Promise<number> {
     return 0;
   } finally {
     await stop(server);
-    if (owner) await owner.destroy().catch(() => undefined);
-    if (stack) await stack.stop();
-    rmSync(tmp, { recursive: true, force: true });
+    if (demo) await demo.stop();
   }
 }
 

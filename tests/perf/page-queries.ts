@@ -8,13 +8,10 @@
 // trips, not a timing measurement. Not part of `npm test` (it builds Next).
 import "../support/server-only-outside-next";
 import { spawn, spawnSync } from "node:child_process";
-import { existsSync, mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from "node:fs";
-import os from "node:os";
+import { existsSync, readFileSync, writeFileSync } from "node:fs";
 import path from "node:path";
-import type { Knex } from "knex";
-import { ensureMariadbInstalled, freePort } from "../../database/local/mariadb";
-import { startLocalStack, type LocalStack } from "../../database/local/stack";
-import { migrateLatest, ownerKnex } from "../../database/migrate";
+import { freePort } from "../../database/local/mariadb";
+import { startDemoStack, type DemoStack } from "./demo-stack";
 import { signInCookie, waitForServer } from "../support/joint-body";
 
 const ROOT = path.resolve(__dirname, "..", "..");
@@ -44,22 +41,11 @@ const PAGES: Page[] = [
 ];
 
 async function main(): Promise<number> {
-  const tmp = mkdtempSync(path.join(os.tmpdir(), "beadline-queries-"));
-  let stack: LocalStack | null = null;
-  let owner: Knex | null = null;
+  let demo: DemoStack | null = null;
   let server: ReturnType<typeof spawn> | null = null;
   try {
-    ensureMariadbInstalled(console.log);
-    process.env.BEADLINE_DB_BUFFER_POOL ||= "256M";
-    stack = await startLocalStack({ dir: tmp, ports: "free" });
-    await migrateLatest(stack.env.MIGRATION_DATABASE_URL);
-    stack.grantRights();
-    owner = ownerKnex(stack.env.MIGRATION_DATABASE_URL);
-    for (const file of readdirSync(path.join(ROOT, "database", "seeds")).filter((f) => f.endsWith(".ts")).sort()) {
-      const mod = (await import(path.join(ROOT, "database", "seeds", file))) as { seed: (k: Knex, today?: Date) => Promise<void> };
-      await mod.seed(owner, new Date());
-    }
-    const [joint] = (await owner("joints").orderBy("id", "desc").limit(1).select("id")) as { id: number }[];
+    demo = await startDemoStack("beadline-queries-");
+    const { stack, jointId } = demo;
     const port = await freePort();
     const baseUrl = `http://127.0.0.1:${port}`;
     const env: NodeJS.ProcessEnv = { ...process.env, ...stack.env, NODE_ENV: "production", NEXT_TELEMETRY_DISABLED: "1", BEADLINE_DIST_DIR: DIST_DIR, BEADLINE_PUBLIC_URL: baseUrl, MAIL_WORKER: "off" };
@@ -109,7 +95,7 @@ async function main(): Promise<number> {
     let over = 0;
     const sqlText: string[] = [];
     for (const p of PAGES) {
-      const urlPath = typeof p.path === "function" ? p.path(joint.id) : p.path;
+      const urlPath = typeof p.path === "function" ? p.path(jointId) : p.path;
       const first = await ask(urlPath, p.role);
       const again = await ask(urlPath, p.role);
       const ok = again.status === 200 && again.queries <= p.max;
@@ -128,9 +114,7 @@ async function main(): Promise<number> {
       for (let i = 0; i < 80 && server.exitCode === null; i += 1) await new Promise((r) => setTimeout(r, 100));
       if (server.exitCode === null) server.kill("SIGKILL");
     }
-    if (owner) await owner.destroy().catch(() => undefined);
-    if (stack) await stack.stop();
-    rmSync(tmp, { recursive: true, force: true });
+    if (demo) await demo.stop();
   }
 }
 
