@@ -20,6 +20,7 @@
 //          signed-in session route, then the register API, --profile-seconds each (default 10); self-time
 //          summary per path by tests/bench/cpu-profile.ts, profiles kept under tests/bench/results/profiles/)
 //        --only submit (demo data only: joint submission, 50 clients over 20 jobs for 30 s)
+//        --only load (demo data only: the mixed load of tests/bench/load.ts, e.g. to compare DATABASE_POOL_MAX settings)
 import "../support/server-only-outside-next";
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { randomUUID } from "node:crypto";
@@ -44,15 +45,17 @@ const ROOT = path.resolve(__dirname, "..", "..");
 const args = process.argv.slice(2);
 const argValue = (name: string) => (args.includes(name) ? args[args.indexOf(name) + 1] : undefined);
 const ONLY = argValue("--only");
-if (ONLY !== undefined && !["trench", "floor", "profile", "submit", "export"].includes(ONLY)) throw new Error(`--only ${ONLY}: the short modes are --only trench, --only floor, --only profile, --only submit and --only export`);
+if (ONLY !== undefined && !["trench", "floor", "profile", "submit", "export", "load"].includes(ONLY)) throw new Error(`--only ${ONLY}: the short modes are --only trench, --only floor, --only profile, --only submit, --only export and --only load`);
 /** The synthetic register, then the export figures alone (XLSX vs exceljs alone, the register during an export). */
 const ONLY_EXPORT = ONLY === "export";
 const ONLY_TRENCH = ONLY === "trench";
 const ONLY_FLOOR = ONLY === "floor";
 const ONLY_PROFILE = ONLY === "profile";
 const ONLY_SUBMIT = ONLY === "submit";
+/** The mixed load alone (tests/bench/load.ts) over the demo register: compares settings such as DATABASE_POOL_MAX. */
+const ONLY_LOAD = ONLY === "load";
 /** A short mode: demo data only, no synthetic register. */
-const DEMO_ONLY = ONLY_TRENCH || ONLY_FLOOR || ONLY_PROFILE || ONLY_SUBMIT;
+const DEMO_ONLY = ONLY_TRENCH || ONLY_FLOOR || ONLY_PROFILE || ONLY_SUBMIT || ONLY_LOAD;
 /** Seconds of load per profiled path (--only profile). */
 const PROFILE_SECONDS = Number(argValue("--profile-seconds") ?? 10);
 const JOINTS = DEMO_ONLY ? 0 : Number(argValue("--joints") ?? 1_000_000);
@@ -824,6 +827,8 @@ async function main(): Promise<number> {
             ? [["joint submission", () => measureSubmission(baseUrl, owner!, serverPid)]]
           : ONLY_EXPORT
             ? [["export", () => measureExport(baseUrl, clerk, data, serverPid, owner!)]]
+          : ONLY_LOAD
+            ? []
         : [
           floorStep,
           ["register pages", () => measureRegister(baseUrl, clerk, data)],
@@ -834,7 +839,7 @@ async function main(): Promise<number> {
           ["joint submission", () => measureSubmission(baseUrl, owner!, serverPid)],
         ];
     const loadBench = path.join(__dirname, "load.ts");
-    if (!DEMO_ONLY && !ONLY_EXPORT && existsSync(loadBench)) {
+    if ((ONLY_LOAD || (!DEMO_ONLY && !ONLY_EXPORT)) && existsSync(loadBench)) {
       steps.push([
         "further load bench (tests/bench/load.ts)",
         async () => {
