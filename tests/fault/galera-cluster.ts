@@ -139,11 +139,24 @@ async function waitForMailToSettle(k: Knex, timeoutMs: number): Promise<void> {
 }
 
 /** Messages in the mail catcher's spool, counted per recipient. */
-function deliveredPerRecipient(spool: string): Map<string, number> {
-  const out = new Map<string, number>();
+/**
+ * What the catcher holds, per recipient: the distinct messages by their Message-ID (the
+ * outbox gives each mail one, the same on every try) and how many copies arrived in all. A
+ * mail sent again after its sender died between the server's acceptance and the "sent"
+ * mark is a second copy of the same message, which a mail program shows once.
+ */
+function deliveredPerRecipient(spool: string): Map<string, { messages: Set<string>; copies: number }> {
+  const out = new Map<string, { messages: Set<string>; copies: number }>();
   for (const file of readdirSync(spool).filter((f) => f.endsWith(".json") && !f.startsWith("."))) {
-    const message = JSON.parse(readFileSync(path.join(spool, file), "utf8")) as { to: string[] };
-    for (const to of message.to) out.set(to.toLowerCase(), (out.get(to.toLowerCase()) ?? 0) + 1);
+    const message = JSON.parse(readFileSync(path.join(spool, file), "utf8")) as { to: string[]; raw: string };
+    // The outbox row's id, from the Message-ID the app gives it (<beadline-outbox-ID@domain>).
+    const id = /^Message-ID:\s*<beadline-outbox-(\d+)@/im.exec(message.raw)?.[1] ?? `(no outbox Message-ID: ${file})`;
+    for (const to of message.to) {
+      const entry = out.get(to.toLowerCase()) ?? { messages: new Set<string>(), copies: 0 };
+      entry.messages.add(id);
+      entry.copies += 1;
+      out.set(to.toLowerCase(), entry);
+    }
   }
   return out;
 }
@@ -258,16 +271,27 @@ async function faultRun(cluster: Cluster): Promise<FaultFigures> {
       log(`${orphaned} mail claim(s) left by a lost sender: lease ended, waiting for the workers to send again …`);
       await waitForMailToSettle(owner, 30_000);
     }
-    const rows = (await owner("mail_outbox").select("to_address", "status")) as { to_address: string; status: string }[];
+    const rows = (await owner("mail_outbox").select("id", "to_address", "status")) as { id: number; to_address: string; status: string }[];
     const notSent = rows.filter((r) => r.status !== "sent");
     check("every queued mail sent", notSent.length === 0, `${rows.length} in the outbox, ${notSent.length} not sent (${[...new Set(notSent.map((r) => r.status))].join(", ")})`);
-    const sentPer = new Map<string, number>();
-    for (const r of rows.filter((x) => x.status === "sent")) sentPer.set(r.to_address.toLowerCase(), (sentPer.get(r.to_address.toLowerCase()) ?? 0) + 1);
+    // Each sent mail is in the catcher under its own Message-ID, and nothing else is.
+    const sentPer = new Map<string, Set<string>>();
+    for (const r of rows.filter((x) => x.status === "sent")) {
+      const to = r.to_address.toLowerCase();
+      sentPer.set(to, (sentPer.get(to) ?? new Set<string>()).add(String(r.id)));
+    }
     const delivered = deliveredPerRecipient(cluster.env.MAIL_SPOOL_DIR);
     const recipients = new Set([...sentPer.keys(), ...delivered.keys()]);
-    const mismatched = [...recipients].filter((r) => (sentPer.get(r) ?? 0) !== (delivered.get(r) ?? 0));
+    const sameSet = (a: Set<string>, b: Set<string>) => a.size === b.size && [...a].every((x) => b.has(x));
+    const mismatched = [...recipients].filter((r) => !sameSet(sentPer.get(r) ?? new Set(), delivered.get(r)?.messages ?? new Set()));
+    const messages = [...delivered.values()].reduce((a, d) => a + d.messages.size, 0);
+    const copies = [...delivered.values()].reduce((a, d) => a + d.copies, 0);
     const alerts = await owner("notifications").where({ kind: "joint-out-of-limits" }).count({ n: "*" }).first();
-    check("each mail delivered once (mail catcher count = sent mails, per recipient)", mismatched.length === 0 && rows.length > 0, `${[...delivered.values()].reduce((a, b) => a + b, 0)} delivered, ${[...sentPer.values()].reduce((a, b) => a + b, 0)} sent (${orphaned} after a lost claim), ${Number(alerts?.n ?? 0)} out-of-limits alerts${mismatched.length ? `; differs for ${mismatched.join(", ")}` : ""}`);
+    check(
+      "each mail delivered once (mail catcher: one message per sent mail, by its Message-ID, per recipient)",
+      mismatched.length === 0 && rows.length > 0,
+      `${messages} messages delivered, ${rows.filter((r) => r.status === "sent").length} sent (${orphaned} after a lost claim); ${copies - messages} second cop${copies - messages === 1 ? "y" : "ies"} of a message (its sender died between the SMTP server's acceptance and the "sent" mark); ${Number(alerts?.n ?? 0)} out-of-limits alerts${mismatched.length ? `; differs for ${mismatched.join(", ")}` : ""}`,
+    );
 
     // No more writes: stop the instances, then read every node.
     for (let i = 0; i < cluster.apps.length; i += 1) await stopNext(cluster.apps[i], { detached: true });

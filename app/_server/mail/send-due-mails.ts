@@ -8,7 +8,7 @@ import "server-only";
 import type { Knex } from "knex";
 import { retryWrite } from "@/database/client";
 import { claimDueMails, claimLeaseS, markMailFailed, markMailSent, releaseClaim } from "@/database/queries/outbox";
-import { createSmtpTransport, type MailTransport } from "./transport";
+import { createSmtpTransport, outboxMessageId, type MailTransport } from "./transport";
 
 export type SendReport = { claimed: number; sent: number; failed: number; gaveUp: number; takenOver: number; released: number };
 
@@ -35,7 +35,7 @@ export async function sendDueMails({ now = new Date(), limit = 20, transport, kn
       }
       let sendError: unknown = null;
       try {
-        await t.send({ to: mail.to, subject: mail.subject, text: mail.bodyText });
+        await t.send({ to: mail.to, subject: mail.subject, text: mail.bodyText, messageId: outboxMessageId(mail.id) });
       } catch (error) {
         sendError = error;
       }

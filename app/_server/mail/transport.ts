@@ -4,10 +4,21 @@
 import "server-only";
 import nodemailer, { type Transporter } from "nodemailer";
 
-export type MailTransport = { send: (mail: { to: string; subject: string; text: string }) => Promise<void>; close: () => void };
+export type MailTransport = { send: (mail: { to: string; subject: string; text: string; messageId?: string }) => Promise<void>; close: () => void };
 
 export function mailFrom(): string {
   return process.env.MAIL_FROM || "Beadline <beadline@localhost>";
+}
+
+/**
+ * The Message-ID of an outbox mail: the same on every try, so a mail sent again after its
+ * sender died between the server's acceptance and the "sent" mark (the at-least-once edge
+ * of the outbox) is the same message to the reader's mail program, which shows it once
+ * (RFC 5322 §3.6.4: a Message-ID names one message; a resend of it carries the same one).
+ */
+export function outboxMessageId(outboxId: number): string {
+  const domain = /@([^>\s]+)>?\s*$/.exec(mailFrom())?.[1] ?? "localhost";
+  return `<beadline-outbox-${outboxId}@${domain}>`;
 }
 
 /** A transport for the given SMTP server (defaults from the environment). */
@@ -26,8 +37,8 @@ export function createSmtpTransport({ host = process.env.SMTP_HOST || "127.0.0.1
     socketTimeout: 15_000,
   });
   return {
-    send: async ({ to, subject, text }) => {
-      await transporter.sendMail({ from: mailFrom(), to, subject, text });
+    send: async ({ to, subject, text, messageId }) => {
+      await transporter.sendMail({ from: mailFrom(), to, subject, text, ...(messageId ? { messageId } : {}) });
     },
     close: () => transporter.close(),
   };
