@@ -6,7 +6,7 @@
 import type { ChildProcess } from "node:child_process";
 import path from "node:path";
 import { randomBytes } from "node:crypto";
-import { buildIfStale, seedIfEmpty, spawnNext, stopNext, takeLock } from "./local/app-server";
+import { buildIfStale, seedIfEmpty, spawnNext, stopNext, stopOnSignals, takeLock } from "./local/app-server";
 import { ensureMariadbInstalled, isPortInUse, keptSecret } from "./local/mariadb";
 import { failureLine } from "./local/redact";
 import { startLocalStack, type LocalStack } from "./local/stack";
@@ -24,19 +24,15 @@ async function main(): Promise<void> {
   const releaseLock = takeLock(DATA, LOCK);
   let stack: LocalStack | null = null;
   let server: ChildProcess | null = null;
-  let stopping = false;
-  const shutdown = async (code: number) => {
-    if (stopping) return;
-    stopping = true;
-    log("Stopping …");
-    await stopNext(server);
-    if (stack) await stack.stop();
-    releaseLock();
-    log("Stopped.");
-    process.exit(code);
-  };
-  process.on("SIGINT", () => void shutdown(0));
-  process.on("SIGTERM", () => void shutdown(0));
+  const { shutdown, isStopping } = stopOnSignals({
+    log,
+    message: "Stopping …",
+    releaseLock,
+    stop: async () => {
+      await stopNext(server);
+      if (stack) await stack.stop();
+    },
+  });
 
   try {
     let env: Record<string, string>;
@@ -74,7 +70,7 @@ async function main(): Promise<void> {
     }
     log(`Beadline on http://${HOST}:${PORT}  (Ctrl-C stops it)`);
     server.on("exit", (code) => {
-      if (!stopping) {
+      if (!isStopping()) {
         log(`Web server exited (${code}).`);
         void shutdown(code ?? 1);
       }

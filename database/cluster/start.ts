@@ -4,7 +4,7 @@
 // others join by state transfer, migrations and the demo scenario load once; later starts
 // reuse the data. Ctrl-C stops the instances, HAProxy and the nodes (node 1 last).
 import path from "node:path";
-import { buildIfStale, takeLock } from "../local/app-server";
+import { buildIfStale, stopOnSignals, takeLock } from "../local/app-server";
 import { ensureMariadbInstalled, isPortInUse } from "../local/mariadb";
 import { failureLine } from "../local/redact";
 import { clusterAddresses, clusterPorts, startCluster, type Cluster } from "./cluster";
@@ -20,18 +20,14 @@ const log = (line: string) => console.log(`[cluster] ${line}`);
 async function main(): Promise<void> {
   const releaseLock = takeLock(DATA, LOCK, "The Beadline cluster");
   let cluster: Cluster | null = null;
-  let stopping = false;
-  const shutdown = async (code: number) => {
-    if (stopping) return;
-    stopping = true;
-    log("Stopping the instances, HAProxy and the nodes (node 1 last) …");
-    if (cluster) await cluster.stop();
-    releaseLock();
-    log("Stopped.");
-    process.exit(code);
-  };
-  process.on("SIGINT", () => void shutdown(0));
-  process.on("SIGTERM", () => void shutdown(0));
+  const { shutdown, isStopping } = stopOnSignals({
+    log,
+    message: "Stopping the instances, HAProxy and the nodes (node 1 last) …",
+    releaseLock,
+    stop: async () => {
+      if (cluster) await cluster.stop();
+    },
+  });
 
   try {
     ensureMariadbInstalled(log);
@@ -48,7 +44,7 @@ async function main(): Promise<void> {
     cluster = await startCluster({ dir: DIR, ports, distDir, log });
     for (const app of cluster.apps) {
       app?.on("exit", (code, signal) => {
-        if (!stopping) {
+        if (!isStopping()) {
           log(`An app instance exited (${code ?? signal}); stopping the cluster.`);
           void shutdown(1);
         }

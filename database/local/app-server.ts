@@ -127,3 +127,24 @@ export async function stopNext(server: ChildProcess | null, { graceMs = 8000, de
   while (server.exitCode === null && server.signalCode === null && Date.now() < deadline) await new Promise((r) => setTimeout(r, 100));
   if (server.exitCode === null && server.signalCode === null) signal("SIGKILL");
 }
+
+/**
+ * Ctrl-C (SIGINT) or SIGTERM stops a launcher once: says `message`, runs `stop`, releases the
+ * data folder's lock and exits. Returns the same shutdown for the launcher's own failures,
+ * and whether it has begun (a child exiting then is expected, not a failure).
+ */
+export function stopOnSignals({ log, message, stop, releaseLock }: { log: (line: string) => void; message: string; stop: () => Promise<void>; releaseLock: () => void }): { shutdown: (code: number) => Promise<void>; isStopping: () => boolean } {
+  let stopping = false;
+  const shutdown = async (code: number) => {
+    if (stopping) return;
+    stopping = true;
+    log(message);
+    await stop();
+    releaseLock();
+    log("Stopped.");
+    process.exit(code);
+  };
+  process.on("SIGINT", () => void shutdown(0));
+  process.on("SIGTERM", () => void shutdown(0));
+  return { shutdown, isStopping: () => stopping };
+}
