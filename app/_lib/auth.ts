@@ -53,6 +53,18 @@ function countersFor({ email, address, deviceId }: { email: string; address: str
   ];
 }
 
+/** A sign-in refused while a counter waits; `waitMs` is how long (the JSON API's Retry-After). */
+export class SignInThrottled extends AppError {
+  constructor(readonly waitMs: number) {
+    super("throttled", `Too many failed sign-ins. Wait ${waitInWords(waitMs)} and try again, or sign in from a device you have used Beadline on before.`);
+  }
+
+  /** Whole seconds to wait, at least 1 (RFC 9110 §10.2.3 Retry-After: delay-seconds). */
+  get retryAfterSeconds(): number {
+    return Math.max(1, Math.ceil(this.waitMs / 1000));
+  }
+}
+
 /**
  * Checks the credentials with throttling (domain/crew/throttle.ts): while a counter of this
  * attempt waits, the password is not checked and the answer says how long to wait; every
@@ -67,7 +79,7 @@ export async function authenticate({ email, password, address, device, requestId
   const wait = Math.max(0, ...waits);
   if (wait > 0) {
     await insertAuditEntry({ actorUserId: user?.id ?? null, action: "sign-in-throttled", entityType: "user", entityId: user?.id ?? null, details: { email, address, trustedDevice: Boolean(deviceId), waitMs: wait }, requestId });
-    throw new AppError("throttled", `Too many failed sign-ins. Wait ${waitInWords(wait)} and try again, or sign in from a device you have used Beadline on before.`);
+    throw new SignInThrottled(wait);
   }
   // Every attempt counts as a failure before the password is checked (atomic increments, so
   // attempts sent side by side each get their own count). Past the free failures a counter
@@ -80,7 +92,7 @@ export async function authenticate({ email, password, address, device, requestId
     if (!entry.heldTurn) {
       for (const e of counted) await refundFailure({ key: e.c.key, memoryS: FAILURE_MEMORY_S, heldTurn: e.heldTurn });
       await insertAuditEntry({ actorUserId: user?.id ?? null, action: "sign-in-throttled", entityType: "user", entityId: user?.id ?? null, details: { email, address, trustedDevice: Boolean(deviceId) }, requestId });
-      throw new AppError("throttled", `Too many failed sign-ins. Wait ${waitInWords(FIRST_DELAY_S * 1000)} and try again, or sign in from a device you have used Beadline on before.`);
+      throw new SignInThrottled(FIRST_DELAY_S * 1000);
     }
   }
   const matches = await bcrypt.compare(password, user?.passwordHash ?? DUMMY_HASH);

@@ -163,6 +163,37 @@ describe("sign-in throttling against the database", () => {
     expect(res.headers.get("set-cookie") ?? "").toMatch(new RegExp(`${DEVICE_COOKIE}=[^;]+; Path=/; Max-Age=\\d+; HttpOnly; SameSite=Lax`));
   });
 
+  it("throttles 40 failed sign-ins from one socket with rotating X-Forwarded-For, with Retry-After, while the owner's known device still signs in", async () => {
+    const admin = await makeUser({ roles: ["admin"] });
+    // The admin signed in before on a phone behind the same address (one NAT): a known device.
+    const first = await sessionPost(await requestAs(null, "/api/v1/session", { json: { email: admin.email, password: TEST_PASSWORD }, headers: fromSocket("192.0.2.77") }));
+    expect(first.status).toBe(200);
+    const device = new RegExp(`${DEVICE_COOKIE}=([^;]+)`).exec(first.headers.get("set-cookie") ?? "")?.[1];
+    expect(device).toBeTruthy();
+
+    const statuses: number[] = [];
+    const retryAfter: number[] = [];
+    for (let i = 0; i < 40; i++) {
+      // Each guess claims another client address; only the socket stays the same.
+      const res = await sessionPost(await requestAs(null, "/api/v1/session", { json: { email: admin.email, password: `guess-${i}-password` }, headers: { ...fromSocket("192.0.2.77"), "x-forwarded-for": `203.0.113.${i + 1}` } }));
+      statuses.push(res.status);
+      if (res.status === 429) retryAfter.push(Number(res.headers.get("retry-after")));
+    }
+    const checked = statuses.filter((s) => s === 401).length;
+    // The free failures are checked; past them each wait (2 s, 4 s, …) lets at most one more through.
+    expect(checked).toBeGreaterThanOrEqual(FREE_FAILURES.account + 1);
+    expect(checked).toBeLessThanOrEqual(FREE_FAILURES.account + 4);
+    expect(statuses.filter((s) => s === 429).length).toBe(40 - checked);
+    expect(retryAfter.every((s) => Number.isInteger(s) && s >= 1 && s <= 15 * 60), `Retry-After values: ${retryAfter.join(", ")}`).toBe(true);
+
+    // The right password from a new client waits…
+    const stranger = await sessionPost(await requestAs(null, "/api/v1/session", { json: { email: admin.email, password: TEST_PASSWORD }, headers: fromSocket("192.0.2.78") }));
+    expect(stranger.status).toBe(429);
+    // …while the admin's known device signs in at once, from the very socket the guesses came from.
+    const owner = await sessionPost(await requestAs(null, "/api/v1/session", { json: { email: admin.email, password: TEST_PASSWORD }, headers: { ...fromSocket("192.0.2.77"), cookie: `${DEVICE_COOKIE}=${device}` } }));
+    expect(owner.status).toBe(200);
+  });
+
   it("does not trust a device cookie of another account, or a tampered one", async () => {
     const owner = await makeUser({ roles: ["admin"] });
     const attacker = await makeUser({ roles: ["fuser"] });

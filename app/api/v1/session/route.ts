@@ -3,7 +3,7 @@
 import { getIronSession } from "iron-session";
 import { signInSchema } from "@/domain/crew/schemas";
 import { AppError, describeFieldErrors, fieldErrorsFromIssues } from "@/domain/result";
-import { authenticate, clientAddress, signOutUser } from "@/app/_lib/auth";
+import { SignInThrottled, authenticate, clientAddress, signOutUser } from "@/app/_lib/auth";
 import { BODY_LIMITS, readJsonLimited } from "@/app/_lib/body";
 import { defineRoute, errorResponse, isCrossOrigin } from "@/app/_lib/guard";
 import { cookieFromHeader, sessionOptions, type SessionData } from "@/app/_lib/session";
@@ -38,6 +38,7 @@ export async function POST(request: Request): Promise<Response> {
     response.headers.append("set-cookie", deviceCookieHeader(deviceCookieAfterSignIn(device, user.id)));
     return response;
   } catch (error) {
+    if (error instanceof SignInThrottled) return errorResponse(error.code, error.message, undefined, { "retry-after": String(error.retryAfterSeconds) });
     if (error instanceof AppError) return errorResponse(error.code, error.message);
     if (isDatabaseUnavailable(error) || isWriteContention(error)) return errorResponse("unavailable", "Beadline cannot reach its database right now.", undefined, { "retry-after": "5" });
     return errorResponse("internal", "Something went wrong on the server.");
