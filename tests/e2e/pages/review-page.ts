@@ -52,6 +52,9 @@ export class ReviewPage {
 
   /** Picks a filter choice by its words; the count the screen shows beside it, "(12)", is ignored. */
   async filterBy(label: "Job" | "Fuser" | "Machine" | "Finding" | "Outcome" | "Waiting more than" | "Order", option: string): Promise<void> {
+    // On a phone the filters are folded behind a "Filters" button.
+    const unfold = this.page.getByRole("button", { name: /^Filters/ });
+    if (await unfold.isVisible()) await unfold.click();
     const select = this.page.getByLabel(label, { exact: true });
     const escaped = option.replace(/[.*+?^${}()|[\]\\]/g, "\\$&");
     const value = await select.locator("option").filter({ hasText: new RegExp(`^${escaped}( \\(\\d+\\))?$`) }).first().getAttribute("value");

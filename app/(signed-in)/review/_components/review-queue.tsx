@@ -64,6 +64,8 @@ export function ReviewQueue({
   landing: Landing | null;
 }) {
   const [filter, setFilter] = useState<QueueFilterText>(initialFilter);
+  const [filtersShown, setFiltersShown] = useState(false);
+  const filtersSet = FILTER_KEYS.filter((k) => k !== "order" && filter[k]).length;
   const [selected, setSelected] = useState<number | null>(landing?.kind === "pending" ? landing.item.jointId : null);
   const [landed, setLanded] = useState<Landing | null>(landing);
   const [notice, setNotice] = useState<string | null>(null);
@@ -199,7 +201,12 @@ export function ReviewQueue({
         <h2 id="queue-heading" className="text-xl font-bold">
           Review queue
         </h2>
-        <form role="search" aria-label="Filter the queue" className="grid grid-cols-1 gap-2 sm:grid-cols-2" onSubmit={(e) => e.preventDefault()}>
+        {/* On a phone the filters fold away behind one button, so the queue starts on the first screen. */}
+        <Button type="button" variant="secondary" className="sm:hidden" aria-expanded={filtersShown} aria-controls="queue-filters" onClick={() => setFiltersShown((v) => !v)}>
+          {filtersShown ? "Hide filters" : "Filters"}
+          {filtersSet ? ` (${filtersSet} set)` : ""}
+        </Button>
+        <form id="queue-filters" role="search" aria-label="Filter the queue" className={`${filtersShown ? "grid" : "hidden"} grid-cols-1 gap-2 sm:grid sm:grid-cols-2`} onSubmit={(e) => e.preventDefault()}>
           {select("job", "Job", options.jobs)}
           {select("fuser", "Fuser", options.fusers)}
           {select("machine", "Machine", options.machines)}
