@@ -642,6 +642,8 @@ function submissionTargetFigure(): void {
 }
 
 let floorServer: ChildProcess | null = null;
+/** Set once the floor app was built in this run (the Trench step and the floor step share it). */
+let floorBuilt = false;
 
 /**
  * Beadline's HTTP figures beside a bare Next.js route handler's (tests/bench/floor.ts), same load
@@ -650,7 +652,8 @@ let floorServer: ChildProcess | null = null;
  */
 async function measureFloor(baseUrl: string, clerk: string, owner: Knex): Promise<void> {
   const { buildFloorApp, startFloorApp, measureAgainstFloor } = await import("./floor");
-  buildFloorApp({ reuse: SKIP_BUILD, log });
+  buildFloorApp({ reuse: SKIP_BUILD || floorBuilt, log });
+  floorBuilt = true;
   const port = await freePort();
   floorServer = await startFloorApp(port);
   log(`floor app on http://127.0.0.1:${port}/api/floor (server RSS ${round(statusOf(serverPidOf(floorServer.pid ?? 0)).VmRSS ?? 0)} MB)`);
@@ -811,7 +814,18 @@ async function main(): Promise<number> {
       async () => {
         // Before the submission load: the fuser's latest joints are then the demo ones.
         const fuser = await signIn(baseUrl, "fuser@larkmoor-gas.example", DEMO_PASSWORD);
-        const trench = await measureTrenchLoad({ baseUrl, cookie: fuser, log });
+        // Beside it, the framework's floor: a bare Next.js page with one client form.
+        const { buildFloorApp, startFloorApp, FLOOR_PAGE } = await import("./floor");
+        buildFloorApp({ reuse: SKIP_BUILD || floorBuilt, log });
+        floorBuilt = true;
+        const floorPort = await freePort();
+        const pageFloor = await startFloorApp(floorPort);
+        let trench: Awaited<ReturnType<typeof measureTrenchLoad>>;
+        try {
+          trench = await measureTrenchLoad({ baseUrl, cookie: fuser, log, floor: { url: `http://127.0.0.1:${floorPort}`, path: FLOOR_PAGE } });
+        } finally {
+          pageFloor.kill("SIGTERM");
+        }
         figures.push(...trench.figures);
         detail.trench = trench.detail;
       },

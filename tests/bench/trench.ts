@@ -16,6 +16,9 @@
 //     rendered disabled by the server and enabled only after React hydrated the form and
 //     restored the device's draft (trench-screen.tsx), so from then on the fuser can type,
 //     time and record. Read in the page as performance.now() (ms since navigation start).
+// (c) Beside them, the framework's floor under the same profile (when the caller passes one):
+//     a bare Next.js page with one client form (tests/bench/floor.ts), its first-load JS and
+//     its first visits until its own "Record joint" button is enabled.
 import { gzipSync } from "node:zlib";
 import { chromium, type Browser, type BrowserContext, type Page } from "playwright-core";
 import type { BenchFigure } from "./context";
@@ -38,11 +41,13 @@ export function scriptSources(html: string): string[] {
   return out;
 }
 
-async function firstLoadJs(baseUrl: string, cookie: string): Promise<{ files: { src: string; raw: number; gzip: number }[]; gzip: number; raw: number; inlineRaw: number }> {
-  const res = await fetch(`${baseUrl}/trench`, { headers: { cookie } });
-  if (res.status !== 200) throw new Error(`GET /trench answered ${res.status}`);
+type FirstLoad = { files: { src: string; raw: number; gzip: number }[]; gzip: number; raw: number; inlineRaw: number };
+
+async function firstLoadJs(baseUrl: string, cookie: string, pagePath = "/trench"): Promise<FirstLoad> {
+  const res = await fetch(`${baseUrl}${pagePath}`, { headers: { cookie } });
+  if (res.status !== 200) throw new Error(`GET ${pagePath} answered ${res.status}`);
   const html = await res.text();
-  if (!html.includes("Record joint")) throw new Error("GET /trench did not render the Trench form (not signed in as a fuser?)");
+  if (!html.includes("Record joint")) throw new Error(`GET ${pagePath} did not render its "Record joint" form (not signed in as a fuser?)`);
   const files = [];
   for (const src of scriptSources(html)) {
     const r = await fetch(new URL(src, baseUrl), { headers: { cookie, "accept-encoding": "identity" } });
@@ -68,7 +73,7 @@ const USABLE_PROBE = `(() => {
 
 type Visit = { usableMs: number; scriptBytes: number; scripts: number; controlledBySw: boolean; domContentLoadedMs: number };
 
-async function visit(page: Page, baseUrl: string, opts: { offline?: boolean } = {}): Promise<Visit> {
+async function visit(page: Page, baseUrl: string, opts: { offline?: boolean; pagePath?: string } = {}): Promise<Visit> {
   const cdp = await page.context().newCDPSession(page);
   await cdp.send("Network.enable");
   await cdp.send("Network.emulateNetworkConditions", opts.offline ? { ...SLOW_NETWORK, offline: true } : SLOW_NETWORK);
@@ -83,7 +88,7 @@ async function visit(page: Page, baseUrl: string, opts: { offline?: boolean } = 
       scriptBytes += e.encodedDataLength;
     }
   });
-  await page.goto(`${baseUrl}/trench`, { waitUntil: "commit", timeout: 120_000 });
+  await page.goto(`${baseUrl}${opts.pagePath ?? "/trench"}`, { waitUntil: "commit", timeout: 120_000 });
   await page.waitForFunction(() => (window as unknown as { __trenchUsableAt?: number }).__trenchUsableAt !== undefined, null, { timeout: 120_000, polling: 250 });
   const result = await page.evaluate(() => ({
     usableMs: (window as unknown as { __trenchUsableAt: number }).__trenchUsableAt,
@@ -100,10 +105,31 @@ const med = (v: number[]) => [...v].sort((a, b) => a - b)[Math.floor((v.length -
 const sec = (ms: number) => Number((ms / 1000).toFixed(2));
 
 /**
+ * The framework's floor under the same profile: a bare Next.js page with one client form
+ * (tests/bench/floor.ts, FLOOR_PAGE) on its own server, first-load JS and first visits until
+ * its "Record joint" button is enabled. What no App Router page of this stack can beat.
+ */
+async function measurePageFloor(browser: Browser, floorUrl: string, floorPath: string, runs: number, log: (line: string) => void): Promise<{ js: FirstLoad; cold: Visit[] }> {
+  const js = await firstLoadJs(floorUrl, "", floorPath);
+  const cold: Visit[] = [];
+  for (let i = 0; i < runs; i += 1) {
+    const context = await browser.newContext({ viewport: { width: 390, height: 844 }, hasTouch: true, isMobile: true, deviceScaleFactor: 1 });
+    try {
+      await context.addInitScript(USABLE_PROBE);
+      cold.push(await visit(await context.newPage(), floorUrl, { pagePath: floorPath }));
+    } finally {
+      await context.close();
+    }
+  }
+  log(`floor page (bare Next.js, one client form): ${(js.gzip / 1000).toFixed(1)} kB first-load JS gzip; first visits ${cold.map((v) => `${sec(v.usableMs)} s (${(v.scriptBytes / 1000).toFixed(0)} kB of scripts)`).join(", ")}`);
+  return { js, cold };
+}
+
+/**
  * Measures the Trench page's first load for a signed-in fuser. `cookie` is the session
  * cookie ("name=value"); `runs` cold/warm pairs are taken and their medians reported.
  */
-export async function measureTrenchLoad({ baseUrl, cookie, log, runs = 3 }: { baseUrl: string; cookie: string; log: (line: string) => void; runs?: number }): Promise<{ figures: BenchFigure[]; detail: Record<string, unknown> }> {
+export async function measureTrenchLoad({ baseUrl, cookie, log, runs = 3, floor }: { baseUrl: string; cookie: string; log: (line: string) => void; runs?: number; /** A bare Next.js page to measure beside the Trench (tests/bench/floor.ts). */ floor?: { url: string; path: string } }): Promise<{ figures: BenchFigure[]; detail: Record<string, unknown> }> {
   const figures: BenchFigure[] = [];
   const js = await firstLoadJs(baseUrl, cookie);
   log(`trench first-load JS: ${js.files.length} script files, ${(js.gzip / 1000).toFixed(1)} kB gzip (${(js.raw / 1000).toFixed(1)} kB raw); inline RSC payload ${(js.inlineRaw / 1000).toFixed(1)} kB raw`);
@@ -115,7 +141,9 @@ export async function measureTrenchLoad({ baseUrl, cookie, log, runs = 3 }: { ba
   const cold: Visit[] = [];
   const warm: Visit[] = [];
   const offline: Visit[] = [];
+  let pageFloor: Awaited<ReturnType<typeof measurePageFloor>> | null = null;
   try {
+    if (floor) pageFloor = await measurePageFloor(browser, floor.url, floor.path, runs, log);
     for (let i = 0; i < runs; i += 1) {
       const context: BrowserContext = await browser.newContext({ viewport: { width: 390, height: 844 }, hasTouch: true, isMobile: true, deviceScaleFactor: 1 });
       try {
@@ -135,6 +163,11 @@ export async function measureTrenchLoad({ baseUrl, cookie, log, runs = 3 }: { ba
   } finally {
     await browser.close();
   }
+  if (pageFloor) {
+    const floorColdMs = med(pageFloor.cold.map((v) => v.usableMs));
+    figures.push({ figure: "floor: bare Next.js page with one client form, first-load JS (gzip)", value: Number((pageFloor.js.gzip / 1000).toFixed(1)), unit: "kB", pass: null, note: `${pageFloor.js.files.length} files; the framework alone, before any Beadline code; the Trench carries ${((js.gzip - pageFloor.js.gzip) / 1000).toFixed(1)} kB more` });
+    figures.push({ figure: "floor: bare Next.js page with one client form, first visit until usable", value: sec(floorColdMs), unit: "s", pass: null, note: `median of ${runs}: ${pageFloor.cold.map((v) => sec(v.usableMs)).join(", ")} s; same profile and "usable" test as the Trench rows below` });
+  }
   const coldMs = med(cold.map((v) => v.usableMs));
   const warmMs = med(warm.map((v) => v.usableMs));
   const sw = warm.every((v) => v.controlledBySw);
@@ -152,5 +185,5 @@ export async function measureTrenchLoad({ baseUrl, cookie, log, runs = 3 }: { ba
     const offMs = med(offline.map((v) => v.usableMs));
     figures.push({ figure: "Trench repeat visit with the network offline (service worker)", value: sec(offMs), unit: "s", target: "< 1 s", pass: offMs < SHELL_VISIT_TARGET_MS, note: `median of ${offline.length}: ${offline.map((v) => sec(v.usableMs)).join(", ")} s; CPU ÷4` });
   }
-  return { figures, detail: { firstLoadJs: js, cold, warm, offline } };
+  return { figures, detail: { firstLoadJs: js, cold, warm, offline, pageFloor } };
 }
