@@ -1,6 +1,7 @@
 // Deriving an operator's procedure: a base procedure may only be tightened.
 
 import { clone } from '@/domain/procedures/helpers';
+import type { Sourced } from '@/domain/sources';
 import type {
   WeatherRules,
   ProcedureDefinition,
@@ -116,6 +117,9 @@ export function deriveProcedure(
   const windows = clone(base.windows);
   const operatorSource = options.source ?? `operator tightening of ${base.label}`;
   const fmt = (value: number, kind: QuantityKind) => formatQuantity(value, kind, system);
+  /** Where a tightened value comes from: the operator, within the base's own source and status (confirmed when the base had none). */
+  const tightenedFrom = (current: Sourced | null | undefined): Sourced =>
+    current ? { source: `${operatorSource}; within ${current.source}`, status: current.status } : { source: operatorSource, status: 'confirmed' };
 
   for (const field of WINDOW_FIELDS) {
     const change = tightening[field.key];
@@ -126,7 +130,7 @@ export function deriveProcedure(
       continue;
     }
     const next = narrowWindow(field.key, field.label, field.kind, current, change, base.label, fmt, errors);
-    if (next) windows[field.key] = { ...next, source: `${operatorSource}; within ${current.source}`, status: current.status };
+    if (next) windows[field.key] = { ...next, ...tightenedFrom(current) };
   }
 
   for (const field of RANGE_FIELDS) {
@@ -135,11 +139,7 @@ export function deriveProcedure(
     const current = windows[field.key];
     const merged = narrowRange(field.key, field.label, field.kind, current, change, base.label, fmt, errors);
     if (merged) {
-      windows[field.key] = {
-        ...merged,
-        source: current ? `${operatorSource}; within ${current.source}` : operatorSource,
-        status: current ? current.status : 'confirmed',
-      };
+      windows[field.key] = { ...merged, ...tightenedFrom(current) };
     }
   }
 
@@ -149,11 +149,7 @@ export function deriveProcedure(
     const rule = raiseRule(key, label, windows[key]?.rule ?? null, change, base.label, errors);
     if (rule) {
       const current = windows[key];
-      windows[key] = {
-        rule,
-        source: current ? `${operatorSource}; within ${current.source}` : operatorSource,
-        status: current ? current.status : 'confirmed',
-      };
+      windows[key] = { rule, ...tightenedFrom(current) };
     }
   };
   const maximumRule = (key: 'maxChangeoverS' | 'maxPressureBuildUpS', label: string): void => {
@@ -164,8 +160,7 @@ export function deriveProcedure(
       const current = windows[key];
       windows[key] = {
         rule,
-        source: current ? `${operatorSource}; within ${current.source}` : operatorSource,
-        status: current ? current.status : 'confirmed',
+        ...tightenedFrom(current),
         // A cap applies where the table is silent too; the value there only narrows.
         ...(current?.whereNone ? { whereNone: { ...current.whereNone, value: Math.min(current.whereNone.value * (change.factor ?? 1), change.atMost ?? Infinity) } } : {}),
       };
@@ -188,8 +183,7 @@ export function deriveProcedure(
       target: current?.target ?? null,
       min,
       max,
-      source: current ? `${operatorSource}; within ${current.source}` : operatorSource,
-      status: current ? current.status : 'confirmed',
+      ...tightenedFrom(current),
     };
   }
 
