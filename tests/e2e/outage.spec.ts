@@ -3,7 +3,8 @@
 // Every request made during the outage gets a clear 503 JSON error (never a 500, never a
 // hang beyond 10 s), the app recovers without a restart, every joint that got a 201 is in the
 // database afterwards, none is half-written (each has its revision, state and audit entry),
-// and a retry of every refused submission with its client id records it exactly once.
+// and a retry of every refused submission with its client id records it exactly once. A page
+// opened in the browser during the outage says in words that it could not be loaded.
 // The server's log lines carry request ids and no secret. This test brings up its own
 // MariaDB, object store, mail catcher and web server, so stopping the database touches
 // nothing else. source: common practice (no published source) for fail-fast dependency
@@ -51,7 +52,7 @@ test.describe("database outage while joints are submitted", () => {
     if (tmp) rmSync(tmp, { recursive: true, force: true });
   });
 
-  test("every request during the outage gets a 503 in time, nothing is lost or half-written, the app recovers", async () => {
+  test("every request during the outage gets a 503 in time, nothing is lost or half-written, the app recovers", async ({ page }) => {
     // --- its own stack and server ------------------------------------------------------
     tmp = mkdtempSync(path.join(os.tmpdir(), "beadline-outage-"));
     stack = await startLocalStack({ dir: tmp, ports: "free", log: () => undefined });
@@ -126,7 +127,17 @@ test.describe("database outage while joints are submitted", () => {
     const stopped = Date.now();
     // Requests that also read the session during the outage get 503 too, not 401.
     const sessionDuring = await fetch(`${baseUrl}/api/v1/session`, { headers: { cookie } });
-    await phase(OUTAGE_MS);
+    // A signed-in person opening a page during the outage reads what happened, not the framework's bare error.
+    const pageDuring = async () => {
+      const [name, ...value] = cookie.split("=");
+      await page.context().addCookies([{ name, value: value.join("="), url: baseUrl }]);
+      await page.goto(`${baseUrl}/`, { timeout: 8000 }).catch(() => null);
+      const alert = page.getByRole("alert").filter({ hasText: "This page could not be loaded" });
+      await alert.waitFor({ timeout: 8000 }).catch(() => null);
+      await page.screenshot({ path: "tests/e2e/artifacts/page-during-outage.png", fullPage: true }).catch(() => null);
+      return { shown: (await alert.count()) > 0, text: (await page.locator("body").innerText().catch(() => "")).slice(0, 300) };
+    };
+    const [pageSeen] = await Promise.all([pageDuring(), phase(OUTAGE_MS)]);
     const startBegin = Date.now();
     restarted = await startMariadb({ dir: stack.mariadb.dir, port: stack.mariadb.port });
     const started = Date.now();
@@ -144,6 +155,8 @@ test.describe("database outage while joints are submitted", () => {
 
     // --- answers ------------------------------------------------------------------------
     expect(sessionDuring.status).toBe(503);
+    expect(pageSeen.shown, `page during the outage read: ${pageSeen.text}`).toBe(true);
+    expect(pageSeen.text).toContain("Nothing was changed");
     const during = attempts.filter((a) => a.started >= stopped && a.started + a.ms <= startBegin);
     const atEdges = attempts.filter((a) => (a.started >= stopBegin && a.started < stopped) || (a.started < startBegin && a.started + a.ms > startBegin) || (a.started >= startBegin && a.started < started));
     const afterRecovery = attempts.filter((a) => recoveredAt && a.started >= recoveredAt);
