@@ -128,6 +128,19 @@ export function isCrossOrigin(request: Request): boolean {
   }
 }
 
+/**
+ * A browser request sent from another site (Fetch Metadata `Sec-Fetch-Site: cross-site` or
+ * `same-site`): a link or form elsewhere, riding on the person's cookie. Requests typed or
+ * bookmarked (`none`), from Beadline's own pages (`same-origin`) and from scripts and other
+ * non-browser clients (no header) are not.
+ * source: W3C Fetch Metadata Request Headers §2.4 (Sec-Fetch-Site); OWASP Cross-Site Request
+ * Forgery Prevention Cheat Sheet, "Fetch Metadata headers".
+ */
+export function isFromAnotherSite(request: Request): boolean {
+  const site = request.headers.get("sec-fetch-site");
+  return site === "cross-site" || site === "same-site";
+}
+
 /** What a malformed path parameter answers: 404 by default (the address names nothing), or 400/422 where a route's contract says so. */
 type BadParams = "not-found" | "bad-request" | "invalid";
 
@@ -146,6 +159,12 @@ export type RouteSpec<S extends ZodType, PS extends ZodType> = {
   labels?: Readonly<Record<string, string>>;
   /** A JSON body's limit in bytes (default BODY_LIMITS.json); larger answers 413 without being read further. */
   maxBodyBytes?: number;
+  /**
+   * A GET that records something (an export is audited): refused with 403 when a browser sends
+   * it from another site, so a link elsewhere cannot make someone's browser record a download
+   * they never asked for. Beadline's own screens, typed addresses and scripts are served.
+   */
+  recordsOnGet?: boolean;
 };
 
 /**
@@ -179,6 +198,9 @@ async function runRoute<S extends ZodType, PS extends ZodType>(
   try {
     if (request.method !== "GET" && request.method !== "HEAD" && isCrossOrigin(request)) {
       return errorResponse("forbidden", "Cross-site request refused.", undefined, idHeader);
+    }
+    if (spec.recordsOnGet && isFromAnotherSite(request)) {
+      return errorResponse("forbidden", "This download starts from Beadline's own screens: open it there.", undefined, idHeader);
     }
     const user = await userFromSealedCookie(cookieFromHeader(request.headers.get("cookie")));
     if (!user) return errorResponse("unauthenticated", "Sign in first.", undefined, idHeader);

@@ -8,6 +8,6 @@ import { registerExportQuerySchema } from "@/domain/register";
 export const dynamic = "force-dynamic";
 export const runtime = "nodejs";
 
-export const GET = defineRoute({ permission: "exportRegister", schema: registerExportQuerySchema, input: "query" }, async (query, { user, requestId }) =>
+export const GET = defineRoute({ permission: "exportRegister", schema: registerExportQuerySchema, input: "query", recordsOnGet: true }, async (query, { user, requestId }) =>
   exportRegister({ query, user, requestId }),
 );

@@ -5,7 +5,7 @@ import { traceSearchSchema } from "@/domain/coils/schemas";
 
 export const dynamic = "force-dynamic";
 
-export const GET = defineRoute({ permission: "traceLots", schema: traceSearchSchema, input: "query" }, async (input, { user, requestId }) => {
+export const GET = defineRoute({ permission: "traceLots", schema: traceSearchSchema, input: "query", recordsOnGet: true }, async (input, { user, requestId }) => {
   const { body, name } = await exportLotTrace(input, { user, requestId });
   return new Response(new Uint8Array(body), {
     headers: {
